@@ -1,0 +1,244 @@
+import { z } from 'zod';
+
+/**
+ * The station document (DESIGN §8): the import and export format of a station's exterior model.
+ * All lengths in metres, positions [x, y, z] in the station's body frame.
+ */
+
+export const NODE_KINDS = ['airlock', 'junction', 'anchor', 'socket', 'worksite'] as const;
+export const EDGE_KINDS = ['handrail', 'hop', 'ride'] as const;
+export const HAZARD_KINDS = ['keep-out', 'caution'] as const;
+export const SEGMENT_KINDS = ['truss', 'module', 'platform'] as const;
+
+export const NodeKindSchema = z.enum(NODE_KINDS);
+export const EdgeKindSchema = z.enum(EDGE_KINDS);
+export const HazardKindSchema = z.enum(HAZARD_KINDS);
+export const SegmentKindSchema = z.enum(SEGMENT_KINDS);
+export type NodeKind = z.infer<typeof NodeKindSchema>;
+export type EdgeKind = z.infer<typeof EdgeKindSchema>;
+export type HazardKind = z.infer<typeof HazardKindSchema>;
+export type SegmentKind = z.infer<typeof SegmentKindSchema>;
+
+/** A finite number: NaN and ±Infinity are refused everywhere a number is read. */
+export const FiniteSchema = z.number().refine(Number.isFinite, 'must be a finite number');
+export const Vec3Schema = z.tuple([FiniteSchema, FiniteSchema, FiniteSchema]);
+export type Vec3 = [number, number, number];
+
+/** Keys are short, human-typed identifiers such as `PB3-A07`. */
+export const KeySchema = z
+  .string()
+  .min(1, 'must not be empty')
+  .max(64, 'must be at most 64 characters')
+  .regex(/^[A-Za-z0-9][A-Za-z0-9_.:-]*$/, 'letters, digits, and _ . : - only, starting with a letter or digit');
+
+const positive = (what: string) => FiniteSchema.refine((v) => v > 0, `${what} must be greater than 0`);
+const nonNegative = (what: string) => FiniteSchema.refine((v) => v >= 0, `${what} must not be negative`);
+
+export const OrbitSettingsSchema = z.object({
+  altitudeKm: FiniteSchema.refine((v) => v >= 100 && v <= 40000, 'altitude must be between 100 and 40000 km'),
+  betaDeg: FiniteSchema.refine((v) => v >= -90 && v <= 90, 'beta angle must be between -90 and 90 degrees'),
+});
+export type OrbitSettings = z.infer<typeof OrbitSettingsSchema>;
+
+/**
+ * Translation and reach settings. Every default here is a planning default from memory (CHECKS.md:
+ * the suited work envelope's dimensions and translation speeds are not verified), except the tether
+ * length, which is the commonly reported 85 ft safety tether (25.9 m).
+ */
+export const DEFAULT_SETTINGS = {
+  tetherLengthM: 25.9,
+  speedsMps: { handrail: 0.1, hop: 0.1, ride: 0.05 },
+  hopSeconds: 30,
+  swapSeconds: 90,
+  carryFactor: 1.5,
+  reach: { standOffM: 1.0, radiusM: 0.7, yawStepDeg: 15, pitchStepDeg: 15 },
+} as const;
+
+export const StationSettingsSchema = z.object({
+  tetherLengthM: positive('tether length').default(DEFAULT_SETTINGS.tetherLengthM),
+  speedsMps: z
+    .object({
+      handrail: positive('handrail speed').default(DEFAULT_SETTINGS.speedsMps.handrail),
+      hop: positive('hop speed').default(DEFAULT_SETTINGS.speedsMps.hop),
+      ride: positive('ride speed').default(DEFAULT_SETTINGS.speedsMps.ride),
+    })
+    .default({ ...DEFAULT_SETTINGS.speedsMps }),
+  hopSeconds: nonNegative('hop overhead').default(DEFAULT_SETTINGS.hopSeconds),
+  swapSeconds: nonNegative('swap time').default(DEFAULT_SETTINGS.swapSeconds),
+  carryFactor: FiniteSchema.refine((v) => v >= 1, 'carry factor must be at least 1').default(
+    DEFAULT_SETTINGS.carryFactor,
+  ),
+  reach: z
+    .object({
+      standOffM: nonNegative('stand-off').default(DEFAULT_SETTINGS.reach.standOffM),
+      radiusM: positive('reach radius').default(DEFAULT_SETTINGS.reach.radiusM),
+      yawStepDeg: positive('yaw step').default(DEFAULT_SETTINGS.reach.yawStepDeg),
+      pitchStepDeg: positive('pitch step').default(DEFAULT_SETTINGS.reach.pitchStepDeg),
+    })
+    .default({ ...DEFAULT_SETTINGS.reach }),
+});
+export type StationSettings = z.infer<typeof StationSettingsSchema>;
+
+export const SegmentSchema = z.object({
+  key: KeySchema,
+  label: z.string().max(200).optional(),
+  kind: SegmentKindSchema.default('truss'),
+  center: Vec3Schema,
+  size: z.tuple([positive('size'), positive('size'), positive('size')]),
+  /** Euler angles in degrees, XYZ order. */
+  rotationDeg: Vec3Schema.optional(),
+});
+export type Segment = z.infer<typeof SegmentSchema>;
+
+export const NodeSchema = z
+  .object({
+    key: KeySchema,
+    kind: NodeKindSchema,
+    label: z.string().max(200).optional(),
+    position: Vec3Schema,
+    normal: Vec3Schema.optional(),
+    notes: z.string().max(4000).optional(),
+  })
+  .superRefine((n, ctx) => {
+    if (n.kind === 'socket' && !n.normal) {
+      ctx.addIssue({ code: 'custom', path: ['normal'], message: 'a socket needs a unit normal' });
+    }
+    if (n.normal) {
+      const len = Math.hypot(n.normal[0], n.normal[1], n.normal[2]);
+      if (Math.abs(len - 1) > 1e-3) {
+        ctx.addIssue({
+          code: 'custom',
+          path: ['normal'],
+          message: `normal must be a unit vector (its length is ${len.toFixed(4)})`,
+        });
+      }
+    }
+  });
+export type StationNode = z.infer<typeof NodeSchema>;
+
+export const EdgeSchema = z.object({
+  from: KeySchema,
+  to: KeySchema,
+  kind: EdgeKindSchema,
+  lengthM: nonNegative('length').optional(),
+  closed: z.boolean().optional(),
+  label: z.string().max(200).optional(),
+});
+export type StationEdge = z.infer<typeof EdgeSchema>;
+
+export const HazardSchema = z.discriminatedUnion('shape', [
+  z.object({
+    key: KeySchema,
+    kind: HazardKindSchema,
+    label: z.string().max(200).optional(),
+    shape: z.literal('sphere'),
+    center: Vec3Schema,
+    radiusM: positive('radius'),
+  }),
+  z
+    .object({
+      key: KeySchema,
+      kind: HazardKindSchema,
+      label: z.string().max(200).optional(),
+      shape: z.literal('box'),
+      min: Vec3Schema,
+      max: Vec3Schema,
+    })
+    .superRefine((h, ctx) => {
+      for (let i = 0; i < 3; i++) {
+        if (!(h.max[i] > h.min[i])) {
+          ctx.addIssue({ code: 'custom', path: ['max', i], message: 'box max must be greater than min on every axis' });
+        }
+      }
+    }),
+]);
+export type Hazard = z.infer<typeof HazardSchema>;
+
+export const StationDocumentSchema = z.object({
+  format: z.literal('tetherwise.station'),
+  version: z.literal(1),
+  name: z.string().trim().min(1, 'a station needs a name').max(200),
+  orbit: OrbitSettingsSchema.default({ altitudeKm: 410, betaDeg: 20 }),
+  settings: StationSettingsSchema.default(StationSettingsSchema.parse({})),
+  segments: z.array(SegmentSchema).max(20000).default([]),
+  nodes: z.array(NodeSchema).max(200000),
+  edges: z.array(EdgeSchema).max(400000),
+  hazards: z.array(HazardSchema).max(1000).default([]),
+});
+export type StationDocument = z.infer<typeof StationDocumentSchema>;
+export type StationDocumentInput = z.input<typeof StationDocumentSchema>;
+
+/** A problem found in a station document, by JSON path (`nodes[3].position[1]`) or CSV line. */
+export interface DocumentProblem {
+  path: string;
+  message: string;
+}
+
+/**
+ * Graph rules the schema cannot express: unique keys (nodes, segments and hazards each), edges that
+ * name known nodes, no self-loops, no duplicate edges between the same pair of the same kind.
+ */
+export function checkStationGraphRules(doc: StationDocument): DocumentProblem[] {
+  const problems: DocumentProblem[] = [];
+  const seen = new Map<string, number>();
+  doc.nodes.forEach((n, i) => {
+    const first = seen.get(n.key);
+    if (first !== undefined) {
+      problems.push({ path: `nodes[${i}].key`, message: `duplicate node key "${n.key}" (first at nodes[${first}])` });
+    } else seen.set(n.key, i);
+  });
+  const segKeys = new Map<string, number>();
+  doc.segments.forEach((s, i) => {
+    const first = segKeys.get(s.key);
+    if (first !== undefined) {
+      problems.push({ path: `segments[${i}].key`, message: `duplicate segment key "${s.key}" (first at segments[${first}])` });
+    } else segKeys.set(s.key, i);
+  });
+  const hazKeys = new Map<string, number>();
+  doc.hazards.forEach((h, i) => {
+    const first = hazKeys.get(h.key);
+    if (first !== undefined) {
+      problems.push({ path: `hazards[${i}].key`, message: `duplicate hazard key "${h.key}" (first at hazards[${first}])` });
+    } else hazKeys.set(h.key, i);
+  });
+  const pairs = new Map<string, number>();
+  doc.edges.forEach((e, i) => {
+    if (!seen.has(e.from)) problems.push({ path: `edges[${i}].from`, message: `unknown node key "${e.from}"` });
+    if (!seen.has(e.to)) problems.push({ path: `edges[${i}].to`, message: `unknown node key "${e.to}"` });
+    if (e.from === e.to) problems.push({ path: `edges[${i}]`, message: `an edge cannot join "${e.from}" to itself` });
+    const pair = [e.from, e.to].sort().join('\u0000') + '\u0000' + e.kind;
+    const first = pairs.get(pair);
+    if (first !== undefined) {
+      problems.push({
+        path: `edges[${i}]`,
+        message: `duplicate ${e.kind} edge between "${e.from}" and "${e.to}" (first at edges[${first}])`,
+      });
+    } else pairs.set(pair, i);
+  });
+  return problems;
+}
+
+/** Renders a zod issue path as a JSON path: ['nodes', 3, 'position', 1] → `nodes[3].position[1]`. */
+export function formatIssuePath(path: ReadonlyArray<PropertyKey>): string {
+  let out = '';
+  for (const p of path) {
+    if (typeof p === 'number') out += `[${p}]`;
+    else out += out ? `.${String(p)}` : String(p);
+  }
+  return out || '(document)';
+}
+
+/** Parses and checks a station document; returns the document or every problem found. */
+export function parseStationDocument(
+  input: unknown,
+): { ok: true; doc: StationDocument } | { ok: false; problems: DocumentProblem[] } {
+  const parsed = StationDocumentSchema.safeParse(input);
+  if (!parsed.success) {
+    return {
+      ok: false,
+      problems: parsed.error.issues.map((i) => ({ path: formatIssuePath(i.path), message: i.message })),
+    };
+  }
+  const problems = checkStationGraphRules(parsed.data);
+  return problems.length ? { ok: false, problems } : { ok: true, doc: parsed.data };
+}
