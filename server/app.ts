@@ -1,0 +1,116 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import cookieParser from 'cookie-parser';
+import express from 'express';
+import { rateLimit } from 'express-rate-limit';
+import helmet from 'helmet';
+import { pinoHttp } from 'pino-http';
+import type { AppContext } from './context';
+import { openDatabase } from './db/client';
+import { seedDatabase } from './db/seed';
+import { loadConfig, type AppConfig } from './lib/env';
+import { HttpError } from './lib/http-error';
+import { createLogger } from './lib/logger';
+import { createMailer } from './lib/mail';
+import { apiNotFound, errorHandler } from './middleware/error-handler';
+import { sessionMiddleware } from './middleware/session';
+import { storeMessage } from './modules/mailbox/mailbox.service';
+import { apiModules } from './modules';
+
+export interface CreateAppOptions {
+  config?: Partial<AppConfig>;
+  /** run the seed at start (default true) */
+  seed?: boolean;
+}
+
+export interface AppInstance {
+  app: express.Express;
+  ctx: AppContext;
+  close(): Promise<void>;
+}
+
+/** Content-Security-Policy: only our own scripts, styles, fonts and images; no third-party origins. */
+const CSP_DIRECTIVES = {
+  defaultSrc: ["'self'"],
+  scriptSrc: ["'self'"],
+  // React and the 3D canvas set inline style attributes; no inline <style> from elsewhere is loaded
+  styleSrc: ["'self'", "'unsafe-inline'"],
+  imgSrc: ["'self'", 'data:', 'blob:'],
+  fontSrc: ["'self'", 'data:'],
+  connectSrc: ["'self'"],
+  workerSrc: ["'self'", 'blob:'],
+  objectSrc: ["'none'"],
+  baseUri: ["'self'"],
+  formAction: ["'self'"],
+  frameAncestors: ["'none'"],
+  upgradeInsecureRequests: null,
+};
+
+export async function createApp(options: CreateAppOptions = {}): Promise<AppInstance> {
+  const config = loadConfig(process.env, options.config);
+  const logger = createLogger(config.logLevel);
+  const handle = openDatabase(config.databaseUrl);
+  const mailer = await createMailer({
+    smtpUrl: config.smtpUrl,
+    from: config.mailFrom,
+    logger,
+    onReceive: (mail) => storeMessage(handle.db, mail),
+  });
+  const ctx: AppContext = { config, db: handle.db, sqlite: handle.sqlite, logger, mailer };
+  if (options.seed ?? true) await seedDatabase(ctx);
+
+  const app = express();
+  app.disable('x-powered-by');
+  app.use(helmet({ contentSecurityPolicy: { directives: CSP_DIRECTIVES }, crossOriginEmbedderPolicy: false }));
+  app.use(
+    pinoHttp({
+      logger,
+      serializers: {
+        req: (req: { id: unknown; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
+        res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
+      },
+      autoLogging: { ignore: (req) => req.url === '/api/health' || !req.url?.startsWith('/api') },
+      customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info'),
+    }),
+  );
+  app.use(
+    '/api',
+    rateLimit({
+      windowMs: 60_000,
+      limit: config.apiRequestsPerMinute,
+      standardHeaders: 'draft-8',
+      legacyHeaders: false,
+      handler: (_req, _res, next) => next(new HttpError('RATE_LIMITED', 'Too many requests. Slow down and try again in a minute.')),
+    }),
+  );
+  app.use('/api', (_req, res, next) => {
+    res.setHeader('Cache-Control', 'no-store');
+    next();
+  });
+  app.use(express.json({ limit: '2mb' }));
+  app.use(cookieParser());
+  app.use(sessionMiddleware(ctx));
+  for (const makeRouter of apiModules) app.use(makeRouter(ctx));
+  app.use('/api', apiNotFound);
+
+  const clientDir = config.clientDir;
+  if (clientDir && fs.existsSync(path.join(clientDir, 'index.html'))) {
+    app.use('/assets', express.static(path.join(clientDir, 'assets'), { immutable: true, maxAge: '1y', fallthrough: false }));
+    app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
+    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html')));
+  } else {
+    app.get('/{*splat}', (_req, res) =>
+      res.status(503).type('text/plain').send('The client is not built yet: run `npm run build` (npm start does it for you).'),
+    );
+  }
+  app.use(errorHandler(logger));
+
+  return {
+    app,
+    ctx,
+    async close() {
+      await mailer.close();
+      handle.close();
+    },
+  };
+}

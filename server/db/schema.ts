@@ -1,0 +1,375 @@
+import { sql } from 'drizzle-orm';
+import { index, integer, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+
+const timestamps = {
+  createdAt: text('created_at')
+    .notNull()
+    .default(sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`),
+  updatedAt: text('updated_at')
+    .notNull()
+    .default(sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`),
+};
+
+// ── People ──────────────────────────────────────────────────────────────────────────────────────
+
+export const users = sqliteTable('users', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  email: text('email').notNull().unique(),
+  name: text('name').notNull(),
+  role: text('role', { enum: ['admin', 'planner', 'engineer', 'trainer', 'viewer'] }).notNull(),
+  /** null until the person sets a password from their invitation */
+  passwordHash: text('password_hash'),
+  disabled: integer('disabled', { mode: 'boolean' }).notNull().default(false),
+  /** bumped to end every session of this user (sign-out everywhere, disable, password change) */
+  tokenVersion: integer('token_version').notNull().default(0),
+  ...timestamps,
+});
+
+/** Single-use, expiring tokens for setting a password (invitation or reset). Only the hash is kept. */
+export const passwordTokens = sqliteTable(
+  'password_tokens',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    userId: integer('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    tokenHash: text('token_hash').notNull().unique(),
+    purpose: text('purpose', { enum: ['invite', 'reset'] }).notNull(),
+    expiresAt: text('expires_at').notNull(),
+    usedAt: text('used_at'),
+    createdBy: integer('created_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: timestamps.createdAt,
+  },
+  (t) => [index('password_tokens_user_idx').on(t.userId)],
+);
+
+// ── Station model ───────────────────────────────────────────────────────────────────────────────
+
+export const stations = sqliteTable('stations', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  name: text('name').notNull(),
+  version: integer('version').notNull().default(1),
+  altitudeKm: real('altitude_km').notNull(),
+  betaDeg: real('beta_deg').notNull(),
+  /** the station document's `settings` object, JSON (tether, speeds, overheads, reach) */
+  settingsJson: text('settings_json').notNull(),
+  createdBy: integer('created_by').references(() => users.id, { onDelete: 'set null' }),
+  updatedBy: integer('updated_by').references(() => users.id, { onDelete: 'set null' }),
+  ...timestamps,
+});
+
+export const segments = sqliteTable(
+  'segments',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    stationId: integer('station_id')
+      .notNull()
+      .references(() => stations.id, { onDelete: 'cascade' }),
+    key: text('key').notNull(),
+    label: text('label'),
+    kind: text('kind', { enum: ['truss', 'module', 'platform'] }).notNull(),
+    cx: real('cx').notNull(),
+    cy: real('cy').notNull(),
+    cz: real('cz').notNull(),
+    sx: real('sx').notNull(),
+    sy: real('sy').notNull(),
+    sz: real('sz').notNull(),
+    rx: real('rx').notNull().default(0),
+    ry: real('ry').notNull().default(0),
+    rz: real('rz').notNull().default(0),
+    hasRotation: integer('has_rotation', { mode: 'boolean' }).notNull().default(false),
+    ord: integer('ord').notNull(),
+  },
+  (t) => [uniqueIndex('segments_station_key').on(t.stationId, t.key)],
+);
+
+export const nodes = sqliteTable(
+  'nodes',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    stationId: integer('station_id')
+      .notNull()
+      .references(() => stations.id, { onDelete: 'cascade' }),
+    key: text('key').notNull(),
+    kind: text('kind', { enum: ['airlock', 'junction', 'anchor', 'socket', 'worksite'] }).notNull(),
+    label: text('label'),
+    x: real('x').notNull(),
+    y: real('y').notNull(),
+    z: real('z').notNull(),
+    nx: real('nx'),
+    ny: real('ny'),
+    nz: real('nz'),
+    notes: text('notes'),
+    ord: integer('ord').notNull(),
+  },
+  (t) => [uniqueIndex('nodes_station_key').on(t.stationId, t.key)],
+);
+
+export const edges = sqliteTable(
+  'edges',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    stationId: integer('station_id')
+      .notNull()
+      .references(() => stations.id, { onDelete: 'cascade' }),
+    fromKey: text('from_key').notNull(),
+    toKey: text('to_key').notNull(),
+    kind: text('kind', { enum: ['handrail', 'hop', 'ride'] }).notNull(),
+    /** null: derived from the node positions */
+    lengthM: real('length_m'),
+    closed: integer('closed', { mode: 'boolean' }).notNull().default(false),
+    label: text('label'),
+    ord: integer('ord').notNull(),
+  },
+  (t) => [index('edges_station_idx').on(t.stationId)],
+);
+
+export const hazards = sqliteTable(
+  'hazards',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    stationId: integer('station_id')
+      .notNull()
+      .references(() => stations.id, { onDelete: 'cascade' }),
+    key: text('key').notNull(),
+    kind: text('kind', { enum: ['keep-out', 'caution'] }).notNull(),
+    label: text('label'),
+    /** the hazard as in the station document (shape, centre/radius or min/max), JSON */
+    shapeJson: text('shape_json').notNull(),
+    ord: integer('ord').notNull(),
+  },
+  (t) => [uniqueIndex('hazards_station_key').on(t.stationId, t.key)],
+);
+
+/** Who changed what in a station model, with the state before and after (JSON). */
+export const stationAudit = sqliteTable(
+  'station_audit',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    stationId: integer('station_id')
+      .notNull()
+      .references(() => stations.id, { onDelete: 'cascade' }),
+    userId: integer('user_id').references(() => users.id, { onDelete: 'set null' }),
+    action: text('action').notNull(),
+    target: text('target'),
+    beforeJson: text('before_json'),
+    afterJson: text('after_json'),
+    versionAfter: integer('version_after').notNull(),
+    createdAt: timestamps.createdAt,
+  },
+  (t) => [index('station_audit_station_idx').on(t.stationId)],
+);
+
+// ── Annotations ─────────────────────────────────────────────────────────────────────────────────
+
+export const annotations = sqliteTable(
+  'annotations',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    stationId: integer('station_id')
+      .notNull()
+      .references(() => stations.id, { onDelete: 'cascade' }),
+    /** pinned to a node (by key) or to a free 3D point */
+    nodeKey: text('node_key'),
+    x: real('x').notNull(),
+    y: real('y').notNull(),
+    z: real('z').notNull(),
+    title: text('title').notNull(),
+    body: text('body').notNull(),
+    status: text('status', { enum: ['open', 'resolved'] }).notNull().default('open'),
+    authorId: integer('author_id').references(() => users.id, { onDelete: 'set null' }),
+    resolvedBy: integer('resolved_by').references(() => users.id, { onDelete: 'set null' }),
+    ...timestamps,
+  },
+  (t) => [index('annotations_station_idx').on(t.stationId)],
+);
+
+export const annotationReplies = sqliteTable(
+  'annotation_replies',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    annotationId: integer('annotation_id')
+      .notNull()
+      .references(() => annotations.id, { onDelete: 'cascade' }),
+    body: text('body').notNull(),
+    authorId: integer('author_id').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: timestamps.createdAt,
+  },
+  (t) => [index('annotation_replies_annotation_idx').on(t.annotationId)],
+);
+
+/** Image attachments stored on disk under DATA_DIR with a random name. */
+export const attachments = sqliteTable(
+  'attachments',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    annotationId: integer('annotation_id')
+      .notNull()
+      .references(() => annotations.id, { onDelete: 'cascade' }),
+    storedName: text('stored_name').notNull().unique(),
+    originalName: text('original_name').notNull(),
+    mimeType: text('mime_type').notNull(),
+    sizeBytes: integer('size_bytes').notNull(),
+    uploadedBy: integer('uploaded_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: timestamps.createdAt,
+  },
+  (t) => [index('attachments_annotation_idx').on(t.annotationId)],
+);
+
+// ── Plans ───────────────────────────────────────────────────────────────────────────────────────
+
+export const plans = sqliteTable(
+  'plans',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    stationId: integer('station_id')
+      .notNull()
+      .references(() => stations.id, { onDelete: 'restrict' }),
+    title: text('title').notNull(),
+    date: text('date').notNull(),
+    status: text('status', { enum: ['draft', 'in-review', 'approved'] }).notNull().default('draft'),
+    version: integer('version').notNull().default(1),
+    authorId: integer('author_id').references(() => users.id, { onDelete: 'set null' }),
+    approverId: integer('approver_id').references(() => users.id, { onDelete: 'set null' }),
+    approvedAt: text('approved_at'),
+    submittedAt: text('submitted_at'),
+    /** route mode, arm-ride allowance, orbit phase, limits and blocks: the plan's settings, JSON */
+    settingsJson: text('settings_json').notNull(),
+    ...timestamps,
+  },
+  (t) => [index('plans_station_idx').on(t.stationId)],
+);
+
+export const crewSlots = sqliteTable(
+  'crew_slots',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    planId: integer('plan_id')
+      .notNull()
+      .references(() => plans.id, { onDelete: 'cascade' }),
+    slot: text('slot', { enum: ['EV1', 'EV2'] }).notNull(),
+    name: text('name').notNull(),
+    tetherLengthM: real('tether_length_m').notNull(),
+  },
+  (t) => [uniqueIndex('crew_slots_plan_slot').on(t.planId, t.slot)],
+);
+
+export const tasks = sqliteTable(
+  'tasks',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    planId: integer('plan_id')
+      .notNull()
+      .references(() => plans.id, { onDelete: 'cascade' }),
+    ord: integer('ord').notNull(),
+    title: text('title').notNull(),
+    worksiteKey: text('worksite_key').notNull(),
+    crew: text('crew', { enum: ['EV1', 'EV2', 'both'] }).notNull(),
+    durationSeconds: integer('duration_seconds').notNull(),
+    eclipseOnly: integer('eclipse_only', { mode: 'boolean' }).notNull().default(false),
+    carrying: integer('carrying', { mode: 'boolean' }).notNull().default(false),
+    socketKey: text('socket_key'),
+    toolsJson: text('tools_json').notNull().default('[]'),
+    notes: text('notes'),
+  },
+  (t) => [index('tasks_plan_idx').on(t.planId)],
+);
+
+export const manifestItems = sqliteTable(
+  'manifest_items',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    planId: integer('plan_id')
+      .notNull()
+      .references(() => plans.id, { onDelete: 'cascade' }),
+    ord: integer('ord').notNull(),
+    name: text('name').notNull(),
+    kind: text('kind', { enum: ['tool', 'bag'] }).notNull(),
+    quantity: integer('quantity').notNull().default(1),
+    carriedBy: text('carried_by', { enum: ['EV1', 'EV2'] }).notNull(),
+    startsAt: text('starts_at').notNull(),
+    endsAt: text('ends_at'),
+    notes: text('notes'),
+  },
+  (t) => [index('manifest_items_plan_idx').on(t.planId)],
+);
+
+export const reviewComments = sqliteTable(
+  'review_comments',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    planId: integer('plan_id')
+      .notNull()
+      .references(() => plans.id, { onDelete: 'cascade' }),
+    authorId: integer('author_id').references(() => users.id, { onDelete: 'set null' }),
+    action: text('action', { enum: ['submit', 'approve', 'return', 'comment'] }).notNull(),
+    body: text('body').notNull().default(''),
+    createdAt: timestamps.createdAt,
+  },
+  (t) => [index('review_comments_plan_idx').on(t.planId)],
+);
+
+export const planAudit = sqliteTable(
+  'plan_audit',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    planId: integer('plan_id')
+      .notNull()
+      .references(() => plans.id, { onDelete: 'cascade' }),
+    userId: integer('user_id').references(() => users.id, { onDelete: 'set null' }),
+    action: text('action').notNull(),
+    beforeJson: text('before_json'),
+    afterJson: text('after_json'),
+    versionAfter: integer('version_after').notNull(),
+    createdAt: timestamps.createdAt,
+  },
+  (t) => [index('plan_audit_plan_idx').on(t.planId)],
+);
+
+// ── Training ────────────────────────────────────────────────────────────────────────────────────
+
+export const walkthroughs = sqliteTable(
+  'walkthroughs',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    name: text('name').notNull(),
+    stationId: integer('station_id')
+      .notNull()
+      .references(() => stations.id, { onDelete: 'cascade' }),
+    /** follows a plan (planId) or a single route (routeJson: from, to, mode, tether, carrying, ride) */
+    planId: integer('plan_id').references(() => plans.id, { onDelete: 'cascade' }),
+    routeJson: text('route_json'),
+    /** the plan or station version the notes were written against, to flag later changes */
+    basedOnVersion: integer('based_on_version').notNull(),
+    /** trainer notes per step: { [stepId]: text } */
+    notesJson: text('notes_json').notNull().default('{}'),
+    version: integer('version').notNull().default(1),
+    authorId: integer('author_id').references(() => users.id, { onDelete: 'set null' }),
+    ...timestamps,
+  },
+  (t) => [index('walkthroughs_station_idx').on(t.stationId)],
+);
+
+/** Recent activity for the Home screen: one row per meaningful event. */
+export const activity = sqliteTable(
+  'activity',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    userId: integer('user_id').references(() => users.id, { onDelete: 'set null' }),
+    kind: text('kind').notNull(),
+    summary: text('summary').notNull(),
+    link: text('link'),
+    createdAt: timestamps.createdAt,
+  },
+  (t) => [index('activity_created_idx').on(t.createdAt)],
+);
+
+/** What the in-process development mail service received (only used when SMTP_URL is unset). */
+export const mailboxMessages = sqliteTable('mailbox_messages', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  to: text('to').notNull(),
+  from: text('from').notNull(),
+  subject: text('subject').notNull(),
+  text: text('text').notNull(),
+  receivedAt: text('received_at').notNull(),
+});

@@ -1,0 +1,19 @@
+import { createApp } from './app';
+
+const { app, ctx, close } = await createApp();
+const server = app.listen(ctx.config.port, () => {
+  ctx.logger.info(`Tetherwise is serving on http://localhost:${ctx.config.port}`);
+});
+
+let stopping = false;
+function shutdown(signal: string) {
+  if (stopping) return;
+  stopping = true;
+  ctx.logger.info({ signal }, 'shutting down');
+  server.close(() => {
+    close().finally(() => process.exit(0));
+  });
+  setTimeout(() => process.exit(0), 5000).unref();
+}
+process.on('SIGINT', () => shutdown('SIGINT'));
+process.on('SIGTERM', () => shutdown('SIGTERM'));

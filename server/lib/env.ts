@@ -1,0 +1,73 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import crypto from 'node:crypto';
+
+export interface AppConfig {
+  port: number;
+  databaseUrl: string;
+  dataDir: string;
+  jwtSecret: string;
+  smtpUrl: string | null;
+  seedDemo: boolean;
+  /** the address links in e-mails point to */
+  publicOrigin: string;
+  cookieSecure: boolean;
+  sessionHours: number;
+  /** failed sign-ins allowed per window from one address before 429 */
+  signInAttempts: number;
+  signInWindowMs: number;
+  /** requests per minute to the API from one address */
+  apiRequestsPerMinute: number;
+  logLevel: string;
+  /** folder of the built client; null → API only */
+  clientDir: string | null;
+  mailFrom: string;
+}
+
+function intFromEnv(value: string | undefined, fallback: number): number {
+  if (value === undefined || value === '') return fallback;
+  const n = Number(value);
+  if (!Number.isFinite(n) || n < 0) throw new Error(`expected a non-negative number, got "${value}"`);
+  return Math.floor(n);
+}
+
+/**
+ * The JWT secret comes from JWT_SECRET, or from a file in the data folder created on first start with
+ * owner-only permissions, so sessions survive restarts without a secret in the repo.
+ */
+export function resolveJwtSecret(dataDir: string, fromEnv: string | undefined): string {
+  if (fromEnv) return fromEnv;
+  const file = path.join(dataDir, 'jwt-secret');
+  try {
+    return fs.readFileSync(file, 'utf8').trim();
+  } catch {
+    const secret = crypto.randomBytes(48).toString('base64url');
+    fs.mkdirSync(dataDir, { recursive: true });
+    fs.writeFileSync(file, secret + '\n', { mode: 0o600, flag: 'wx' });
+    return secret;
+  }
+}
+
+export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Partial<AppConfig> = {}): AppConfig {
+  const dataDir = path.resolve(overrides.dataDir ?? env.DATA_DIR ?? 'data');
+  fs.mkdirSync(dataDir, { recursive: true });
+  const databaseUrl = path.resolve(overrides.databaseUrl ?? env.DATABASE_URL ?? path.join('data', 'tetherwise.db'));
+  const port = overrides.port ?? intFromEnv(env.PORT, 3000);
+  return {
+    port,
+    databaseUrl,
+    dataDir,
+    jwtSecret: overrides.jwtSecret ?? resolveJwtSecret(dataDir, env.JWT_SECRET),
+    smtpUrl: overrides.smtpUrl !== undefined ? overrides.smtpUrl : env.SMTP_URL || null,
+    seedDemo: overrides.seedDemo ?? env.SEED_DEMO !== '0',
+    publicOrigin: overrides.publicOrigin ?? env.PUBLIC_ORIGIN ?? `http://localhost:${port}`,
+    cookieSecure: overrides.cookieSecure ?? env.COOKIE_SECURE === '1',
+    sessionHours: overrides.sessionHours ?? intFromEnv(env.SESSION_HOURS, 12),
+    signInAttempts: overrides.signInAttempts ?? intFromEnv(env.SIGN_IN_ATTEMPTS, 10),
+    signInWindowMs: overrides.signInWindowMs ?? intFromEnv(env.SIGN_IN_WINDOW_MS, 15 * 60 * 1000),
+    apiRequestsPerMinute: overrides.apiRequestsPerMinute ?? intFromEnv(env.API_REQUESTS_PER_MINUTE, 1200),
+    logLevel: overrides.logLevel ?? env.LOG_LEVEL ?? 'info',
+    clientDir: overrides.clientDir !== undefined ? overrides.clientDir : path.resolve('dist'),
+    mailFrom: overrides.mailFrom ?? env.MAIL_FROM ?? 'Tetherwise <no-reply@tetherwise.local>',
+  };
+}

@@ -1,0 +1,73 @@
+import express, { type NextFunction, type Request, type RequestHandler, type Response } from 'express';
+import type { z } from 'zod';
+import { can, type Permission } from '@shared/auth/permissions';
+import { HttpError } from './http-error';
+import { parseInput } from '../middleware/validate';
+
+/**
+ * Who may call a route: `public` (no session), or a permission from shared/auth/permissions.ts.
+ * Every route must say; there is no default, so a new route cannot be open by accident.
+ */
+export type Access = 'public' | Permission;
+
+export interface InputSchemas {
+  body?: z.ZodType;
+  query?: z.ZodType;
+  params?: z.ZodType;
+}
+
+type Parsed<S extends InputSchemas> = {
+  body: S['body'] extends z.ZodType ? z.infer<S['body']> : undefined;
+  query: S['query'] extends z.ZodType ? z.infer<S['query']> : undefined;
+  params: S['params'] extends z.ZodType ? z.infer<S['params']> : undefined;
+};
+
+export interface RouteDef<S extends InputSchemas = InputSchemas> {
+  method: 'get' | 'post' | 'put' | 'patch' | 'delete';
+  path: string;
+  access: Access;
+  input?: S;
+  /** middleware that runs after the access check and before validation (e.g. a multipart parser) */
+  before?: RequestHandler[];
+  /** returns the JSON body (status 200, or `status`), or undefined after writing `res` itself */
+  handler: (req: Request, res: Response, input: Parsed<S>) => unknown;
+  status?: number;
+}
+
+export function defineRoute<S extends InputSchemas>(def: RouteDef<S>): RouteDef<S> {
+  return def;
+}
+
+export interface RouteRule {
+  method: string;
+  path: string;
+  access: Access;
+}
+
+/** Every route mounted through `mountRoutes`, with its access rule: the authorisation table. */
+export const routeTable: RouteRule[] = [];
+
+function accessGuard(access: Access): RequestHandler {
+  return (req: Request, _res: Response, next: NextFunction) => {
+    if (access === 'public') return next();
+    if (!req.user) return next(new HttpError('UNAUTHENTICATED', 'Sign in to continue.'));
+    if (!can(req.user, access)) return next(new HttpError('FORBIDDEN', 'Your role does not allow this.'));
+    next();
+  };
+}
+
+export function mountRoutes(base: string, defs: RouteDef<any>[]): express.Router {
+  const router = express.Router();
+  for (const def of defs) {
+    const rule = { method: def.method.toUpperCase(), path: base + def.path, access: def.access };
+    if (!routeTable.some((r) => r.method === rule.method && r.path === rule.path)) routeTable.push(rule);
+    router[def.method](base + def.path, accessGuard(def.access), ...(def.before ?? []), async (req, res) => {
+      const input = parseInput(def.input ?? {}, req);
+      const result = await def.handler(req, res, input as never);
+      if (res.headersSent) return;
+      if (result === undefined) res.status(def.status ?? 204).end();
+      else res.status(def.status ?? 200).json(result);
+    });
+  }
+  return router;
+}
