@@ -1,0 +1,73 @@
+import { z } from 'zod';
+import { FiniteSchema, KeySchema, Vec3Schema } from './station';
+
+export const MAX_PLAN_TARGETS = 500;
+export const MIN_GRID_SPACING_M = 0.25;
+export const MAX_GRID_SPACING_M = 50;
+
+/** Body of `POST /api/stations/:id/reach` (DESIGN §8). */
+export const ReachRequestSchema = z.strictObject({
+  socket: KeySchema,
+  target: Vec3Schema,
+});
+export type ReachRequest = z.infer<typeof ReachRequestSchema>;
+
+/** Body of `POST /api/stations/:id/socket-plan` (DESIGN §8). */
+export const SocketPlanRequestSchema = z.strictObject({
+  targets: z
+    .array(Vec3Schema)
+    .min(1, 'give at least one target')
+    .max(MAX_PLAN_TARGETS, `at most ${MAX_PLAN_TARGETS} targets`),
+  /** socket node keys; absent means every socket of the station */
+  candidates: z.array(KeySchema).min(1, 'give at least one candidate socket, or leave the list out').max(20000).optional(),
+  /** also try candidates on a grid of this spacing over the truss faces */
+  gridSpacingM: FiniteSchema.refine(
+    (v) => v >= MIN_GRID_SPACING_M && v <= MAX_GRID_SPACING_M,
+    `grid spacing must be between ${MIN_GRID_SPACING_M} and ${MAX_GRID_SPACING_M} m`,
+  ).optional(),
+});
+export type SocketPlanRequest = z.infer<typeof SocketPlanRequestSchema>;
+
+/** Angles follow the conventions documented in shared/compute/reach.ts. */
+const anglesShape = {
+  distanceM: z.number(),
+  yawDeg: z.number(),
+  pitchDeg: z.number(),
+  yawSetDeg: z.number(),
+  pitchSetDeg: z.number(),
+};
+
+export const ReachResultSchema = z.object({
+  reachable: z.boolean(),
+  ...anglesShape,
+  socket: KeySchema,
+  workPoint: Vec3Schema,
+  standOffM: z.number(),
+  radiusM: z.number(),
+});
+export type ReachResult = z.infer<typeof ReachResultSchema>;
+
+/** A socket the plan uses: an existing socket by key, or a new one on a truss face. */
+export const PlannedSocketSchema = z.union([KeySchema, z.object({ position: Vec3Schema, normal: Vec3Schema })]);
+export type PlannedSocket = z.infer<typeof PlannedSocketSchema>;
+
+export const SocketAssignmentSchema = z.object({
+  /** index into the request's targets */
+  target: z.number().int(),
+  /** index into the result's sockets */
+  socket: z.number().int(),
+  ...anglesShape,
+});
+export type SocketAssignment = z.infer<typeof SocketAssignmentSchema>;
+
+export const SocketPlanResultSchema = z.object({
+  sockets: z.array(PlannedSocketSchema),
+  /** true: no smaller set of these candidates reaches every coverable target; false: greedy */
+  exact: z.boolean(),
+  /** indices of targets that no candidate reaches */
+  uncovered: z.array(z.number().int()),
+  /** one per covered target, to its nearest chosen socket, in target order */
+  assignments: z.array(SocketAssignmentSchema),
+  candidateCount: z.number().int(),
+});
+export type SocketPlanResult = z.infer<typeof SocketPlanResultSchema>;
