@@ -1,0 +1,348 @@
+import type { CompiledStation } from './compiled-station';
+import { MinHeap } from './routes-heap';
+import { TETHER_EPS_M } from './tether';
+
+/**
+ * Search kernels over a compiled station. Per-query state lives in scratch buffers cached per
+ * compiled station and reset by a query stamp, so a query allocates nothing in the common case.
+ */
+
+export interface Scratch {
+  stamp: number;
+  seen: Int32Array;
+  dist: Float64Array;
+  predArc: Int32Array;
+  hStamp: Int32Array;
+  hSeconds: Float64Array;
+  hMetres: Float64Array;
+  headStamp: Int32Array;
+  head: Int32Array;
+  heap: MinHeap;
+  labels: LabelStore;
+}
+
+class LabelStore {
+  size = 0;
+  node = new Int32Array(1024);
+  parent = new Int32Array(1024);
+  arc = new Int32Array(1024);
+  next = new Int32Array(1024);
+  swaps = new Int32Array(1024);
+  swapped = new Uint8Array(1024);
+  dead = new Uint8Array(1024);
+  seconds = new Float64Array(1024);
+  paid = new Float64Array(1024);
+  p1 = new Float64Array(1024);
+  p2 = new Float64Array(1024);
+
+  add(): number {
+    if (this.size === this.node.length) this.grow();
+    return this.size++;
+  }
+
+  private grow(): void {
+    const cap = this.node.length * 2;
+    for (const k of ['node', 'parent', 'arc', 'next', 'swaps', 'swapped', 'dead', 'seconds', 'paid', 'p1', 'p2'] as const) {
+      const old = this[k];
+      const arr = new (old.constructor as new (n: number) => typeof old)(cap);
+      arr.set(old as never);
+      (this as Record<string, unknown>)[k] = arr;
+    }
+  }
+}
+
+const scratchByStation = new WeakMap<CompiledStation, Scratch>();
+
+export function scratchFor(c: CompiledStation): Scratch {
+  let s = scratchByStation.get(c);
+  if (!s) {
+    const n = c.nodeCount;
+    s = {
+      stamp: 0,
+      seen: new Int32Array(n),
+      dist: new Float64Array(n),
+      predArc: new Int32Array(n),
+      hStamp: new Int32Array(n),
+      hSeconds: new Float64Array(n),
+      hMetres: new Float64Array(n),
+      headStamp: new Int32Array(n),
+      head: new Int32Array(n),
+      heap: new MinHeap(1024),
+      labels: new LabelStore(),
+    };
+    scratchByStation.set(c, s);
+  }
+  s.stamp++;
+  if (s.stamp >= 0x7fffffff) {
+    s.stamp = 1;
+    s.seen.fill(0);
+    s.hStamp.fill(0);
+    s.headStamp.fill(0);
+  }
+  return s;
+}
+
+/** The node an arc leaves from. */
+export function arcSource(c: CompiledStation, a: number): number {
+  const e = c.arcEdge[a];
+  return c.edgeFrom[e] === c.targets[a] ? c.edgeTo[e] : c.edgeFrom[e];
+}
+
+/**
+ * Plain Dijkstra on arc weights from s, stopping when t is settled; arcs with any `excludeMask`
+ * flag are skipped. Returns the arcs of the path in walk order, or null when t is unreachable.
+ */
+export function dijkstraPath(
+  c: CompiledStation,
+  weights: Float64Array,
+  s: number,
+  t: number,
+  excludeMask: number,
+): number[] | null {
+  const sc = scratchFor(c);
+  const { seen, dist, predArc, heap } = sc;
+  const stamp = sc.stamp;
+  const { offsets, targets, arcFlags } = c;
+  heap.clear();
+  seen[s] = stamp;
+  dist[s] = 0;
+  predArc[s] = -1;
+  heap.push(s, 0);
+  let found = false;
+  while (heap.size > 0) {
+    const d = heap.topKey1();
+    const v = heap.pop();
+    if (d > dist[v]) continue;
+    if (v === t) {
+      found = true;
+      break;
+    }
+    for (let a = offsets[v], end = offsets[v + 1]; a < end; a++) {
+      if (arcFlags[a] & excludeMask) continue;
+      const u = targets[a];
+      const nd = d + weights[a];
+      if (seen[u] !== stamp || nd < dist[u]) {
+        seen[u] = stamp;
+        dist[u] = nd;
+        predArc[u] = a;
+        heap.push(u, nd);
+      }
+    }
+  }
+  if (!found) return null;
+  const arcs: number[] = [];
+  for (let v = t; v !== s; ) {
+    const a = predArc[v];
+    arcs.push(a);
+    v = arcSource(c, a);
+  }
+  return arcs.reverse();
+}
+
+/** Nodes reachable from s over arcs without any `excludeMask` flag. */
+export function reachable(c: CompiledStation, s: number, excludeMask: number): Uint8Array {
+  const mark = new Uint8Array(c.nodeCount);
+  const queue = new Int32Array(c.nodeCount);
+  let qh = 0;
+  let qt = 0;
+  mark[s] = 1;
+  queue[qt++] = s;
+  while (qh < qt) {
+    const v = queue[qh++];
+    for (let a = c.offsets[v], end = c.offsets[v + 1]; a < end; a++) {
+      const u = c.targets[a];
+      if (mark[u] || c.arcFlags[a] & excludeMask) continue;
+      mark[u] = 1;
+      queue[qt++] = u;
+    }
+  }
+  return mark;
+}
+
+export interface LabelSearchParams {
+  /**
+   * `sum`: minimise seconds + swapCost·swaps. `lex`: fewest swaps, then least seconds.
+   * Dominance and ordering both use (p1, p2): sum → (cost, 0), lex → (swaps, seconds).
+   */
+  objective: 'sum' | 'lex';
+  swapCost: number;
+  /** arc seconds (not carrying) and the factor applied to them */
+  weights: Float64Array;
+  secondsFactor: number;
+  tetherLengthM: number;
+  excludeMask: number;
+  /** landmark time bounds were computed with the same speeds as `weights` */
+  landmarkTimesValid: boolean;
+  /** the fastest speed of any kind, for a time bound from the metres bound */
+  maxSpeedMps: number;
+}
+
+export interface LabelPath {
+  arcs: number[];
+  swaps: number;
+  seconds: number;
+}
+
+/**
+ * Exact label-setting A* over (node, tether paid out since the last clip), allowing revisits.
+ * Lower bounds: landmark (ALT) bounds on remaining seconds and metres; the metres bound also gives
+ * a bound on the swaps still needed. Labels at a node that are no better in (p1, p2) and in paid-out
+ * than another are dropped.
+ */
+export function labelSearch(c: CompiledStation, s: number, t: number, p: LabelSearchParams): LabelPath | null {
+  const sc = scratchFor(c);
+  const stamp = sc.stamp;
+  const { hStamp, hSeconds, hMetres, headStamp, head, heap } = sc;
+  const L = sc.labels;
+  L.size = 0;
+  heap.clear();
+  const { offsets, targets, arcFlags, arcLengthM, isAttach } = c;
+  const { weights, secondsFactor, tetherLengthM: tether, excludeMask, swapCost } = p;
+  const lex = p.objective === 'lex';
+  const lm = c.landmarks;
+  const K = lm.count;
+  const lmS = lm.seconds;
+  const lmM = lm.metres;
+  const tBase = t * K;
+  const speedBound = secondsFactor / p.maxSpeedMps;
+  const useTimes = p.landmarkTimesValid;
+  const limit = tether + TETHER_EPS_M;
+
+  // returns false when v cannot reach t at all
+  const bound = (v: number): boolean => {
+    if (hStamp[v] === stamp) return hSeconds[v] !== Infinity;
+    hStamp[v] = stamp;
+    let bs = 0;
+    let bm = 0;
+    const vBase = v * K;
+    for (let k = 0; k < K; k++) {
+      const mt = lmM[tBase + k];
+      const mv = lmM[vBase + k];
+      if (mt === Infinity || mv === Infinity) {
+        if (mt !== mv) {
+          hSeconds[v] = Infinity;
+          return false;
+        }
+        continue;
+      }
+      const dm = mt > mv ? mt - mv : mv - mt;
+      if (dm > bm) bm = dm;
+      if (useTimes) {
+        const ds = lmS[tBase + k] - lmS[vBase + k];
+        const a = ds < 0 ? -ds : ds;
+        if (a > bs) bs = a;
+      }
+    }
+    bs *= secondsFactor;
+    if (bm * speedBound > bs) bs = bm * speedBound;
+    hSeconds[v] = bs;
+    hMetres[v] = bm;
+    return true;
+  };
+  const swapsNeeded = (v: number, paid: number): number => {
+    const need = hMetres[v] - (tether - paid);
+    return need > TETHER_EPS_M ? Math.ceil(need / tether - 1e-9) : 0;
+  };
+
+  // adds a label unless dominated; prunes the labels it dominates
+  const offer = (v: number, parent: number, arc: number, swaps: number, seconds: number, paid: number, swapped: number) => {
+    const p1 = lex ? swaps : seconds + swapCost * swaps;
+    const p2 = lex ? seconds : 0;
+    if (headStamp[v] !== stamp) {
+      headStamp[v] = stamp;
+      head[v] = -1;
+    }
+    let prev = -1;
+    for (let y = head[v]; y !== -1; ) {
+      const nextY = L.next[y];
+      const yp1 = L.p1[y];
+      if ((yp1 < p1 || (yp1 === p1 && L.p2[y] <= p2)) && L.paid[y] <= paid) return;
+      if ((p1 < yp1 || (p1 === yp1 && p2 <= L.p2[y])) && paid <= L.paid[y]) {
+        L.dead[y] = 1;
+        if (prev === -1) head[v] = nextY;
+        else L.next[prev] = nextY;
+      } else prev = y;
+      y = nextY;
+    }
+    const x = L.add();
+    L.node[x] = v;
+    L.parent[x] = parent;
+    L.arc[x] = arc;
+    L.swaps[x] = swaps;
+    L.swapped[x] = swapped;
+    L.dead[x] = 0;
+    L.seconds[x] = seconds;
+    L.paid[x] = paid;
+    L.p1[x] = p1;
+    L.p2[x] = p2;
+    L.next[x] = head[v];
+    head[v] = x;
+    const sw = swapsNeeded(v, paid);
+    if (lex) heap.push(x, swaps + sw, seconds + hSeconds[v]);
+    else heap.push(x, p1 + hSeconds[v] + swapCost * sw, hSeconds[v]);
+  };
+
+  if (!bound(s)) return null;
+  offer(s, -1, -1, 0, 0, 0, 0);
+  let goal = -1;
+  while (heap.size > 0) {
+    const x = heap.pop();
+    if (L.dead[x]) continue;
+    const v = L.node[x];
+    if (v === t) {
+      goal = x;
+      break;
+    }
+    const paid = L.paid[x];
+    const seconds = L.seconds[x];
+    const swaps = L.swaps[x];
+    for (let a = offsets[v], end = offsets[v + 1]; a < end; a++) {
+      if (arcFlags[a] & excludeMask) continue;
+      const np = paid + arcLengthM[a];
+      if (np > limit) continue;
+      const u = targets[a];
+      if (!bound(u)) continue;
+      const ns = seconds + weights[a] * secondsFactor;
+      if (isAttach[u] && u !== t && np > 0) offer(u, x, a, swaps + 1, ns, 0, 1);
+      offer(u, x, a, swaps, ns, np, 0);
+    }
+  }
+  if (goal < 0) return null;
+  const arcs: number[] = [];
+  for (let x = goal; L.arc[x] !== -1; x = L.parent[x]) arcs.push(L.arc[x]);
+  return { arcs: arcs.reverse(), swaps: L.swaps[goal], seconds: L.seconds[goal] };
+}
+
+/**
+ * Whether some walk s → t fits a tether of this length when swaps are free: the least paid-out
+ * at each node, with attach points resetting it, by a label-correcting pass on a heap.
+ */
+export function fitsTether(c: CompiledStation, s: number, t: number, tetherLengthM: number, excludeMask: number): boolean {
+  const sc = scratchFor(c);
+  const { seen, dist, heap } = sc;
+  const stamp = sc.stamp;
+  const limit = tetherLengthM + TETHER_EPS_M;
+  heap.clear();
+  seen[s] = stamp;
+  dist[s] = 0;
+  heap.push(s, 0);
+  while (heap.size > 0) {
+    const d = heap.topKey1();
+    const v = heap.pop();
+    if (d > dist[v]) continue;
+    if (v === t) return true;
+    for (let a = c.offsets[v], end = c.offsets[v + 1]; a < end; a++) {
+      if (c.arcFlags[a] & excludeMask) continue;
+      const np = d + c.arcLengthM[a];
+      if (np > limit) continue;
+      const u = c.targets[a];
+      const key = c.isAttach[u] ? 0 : np;
+      if (seen[u] !== stamp || key < dist[u]) {
+        seen[u] = stamp;
+        dist[u] = key;
+        heap.push(u, key);
+      }
+    }
+  }
+  return false;
+}

@@ -1,0 +1,227 @@
+import type { RouteFeasible, RouteInfeasible, RouteLeg, RouteMode, RouteRequest, RouteResult } from '../schemas/route';
+import type { StationSettings } from '../schemas/station';
+import {
+  EDGE_CLOSED,
+  EDGE_KEEP_OUT,
+  EDGE_RIDE,
+  arcSecondsFor,
+  edgeKindName,
+  type CompiledStation,
+} from './compiled-station';
+import { arcSource, dijkstraPath, fitsTether, labelSearch, reachable } from './routes-search';
+import { placeSwapsGreedy } from './tether';
+
+export { hasNodeKey } from './compiled-station';
+
+/** Arcs excluded for a request: closed, through keep-out, and arm rides unless allowed. */
+export function excludeMaskFor(allowRide: boolean | undefined): number {
+  return EDGE_CLOSED | EDGE_KEEP_OUT | (allowRide ? 0 : EDGE_RIDE);
+}
+
+interface Query {
+  c: CompiledStation;
+  settings: StationSettings;
+  mode: RouteMode;
+  s: number;
+  t: number;
+  tether: number;
+  factor: number;
+  mask: number;
+  weights: Float64Array;
+  landmarkTimesValid: boolean;
+}
+
+function maxSpeed(settings: StationSettings): number {
+  return Math.max(settings.speedsMps.handrail, settings.speedsMps.hop, settings.speedsMps.ride);
+}
+
+function search(q: Query, objective: 'sum' | 'lex', swapCost: number) {
+  return labelSearch(q.c, q.s, q.t, {
+    objective,
+    swapCost,
+    weights: q.weights,
+    secondsFactor: q.factor,
+    tetherLengthM: q.tether,
+    excludeMask: q.mask,
+    landmarkTimesValid: q.landmarkTimesValid,
+    maxSpeedMps: maxSpeed(q.settings),
+  });
+}
+
+const fmt = (m: number) => `${Math.round(m * 100) / 100} m`;
+
+function buildRoute(q: Query, arcs: number[], extraWarnings: string[]): RouteResult {
+  const { c } = q;
+  const nodes = [q.s];
+  const legs: RouteLeg[] = [];
+  const lengths: number[] = [];
+  const caution = new Set<string>();
+  let pos = 0;
+  let travel = 0;
+  for (const a of arcs) {
+    const from = nodes[nodes.length - 1];
+    const to = c.targets[a];
+    const e = c.arcEdge[a];
+    const lengthM = c.edgeLengthM[e];
+    const seconds = q.weights[a] * q.factor;
+    legs.push({ from: c.keys[from], to: c.keys[to], kind: edgeKindName(c.edgeKind[e]), lengthM, seconds, startM: pos });
+    for (const h of c.cautionByEdge.get(e) ?? []) caution.add(h);
+    lengths.push(lengthM);
+    nodes.push(to);
+    pos += lengthM;
+    travel += seconds;
+  }
+  const plan = placeSwapsGreedy(
+    lengths,
+    nodes.map((v) => c.isAttach[v] === 1),
+    q.tether,
+  );
+  if (!plan.feasible) throw new Error('internal: a searched route does not fit the tether');
+  const warnings: string[] = [];
+  if (!c.isAttach[q.s]) {
+    warnings.push(
+      `${c.keys[q.s]} is not a tether attach point: the route assumes the tether is clipped where the crew member starts.`,
+    );
+  }
+  warnings.push(...extraWarnings);
+  const cautionHazards = [...caution].sort();
+  for (const h of cautionHazards) warnings.push(`The route passes through caution volume ${h}.`);
+  const swapSeconds = plan.swaps.length * q.settings.swapSeconds;
+  const result: RouteFeasible = {
+    feasible: true,
+    mode: q.mode,
+    nodes: nodes.map((v) => c.keys[v]),
+    legs,
+    lengthM: pos,
+    travelSeconds: travel,
+    swapCount: plan.swaps.length,
+    swaps: plan.swaps.map((sw) => ({ node: c.keys[nodes[sw.index]], atM: sw.atM, paidOutM: sw.paidOutM })),
+    swapSeconds,
+    totalSeconds: travel + swapSeconds,
+    tetherLengthM: q.tether,
+    maxPaidOutM: plan.maxPaidOutM,
+    warnings,
+    cautionHazards,
+  };
+  return result;
+}
+
+function infeasible(q: Query, reasonCode: RouteInfeasible['reasonCode'], reason: string, blockingHazards?: string[]): RouteInfeasible {
+  return { feasible: false, mode: q.mode, reason, reasonCode, ...(blockingHazards ? { blockingHazards } : {}) };
+}
+
+/** Smallest tether (to the centimetre) for which some walk exists, by bisection on fitsTether. */
+function requiredTether(q: Query): number | null {
+  const arcs = dijkstraPath(q.c, q.c.arcLengthM, q.s, q.t, q.mask);
+  if (!arcs) return null;
+  let lo = q.tether;
+  let hi = arcs.reduce((sum, a) => sum + q.c.arcLengthM[a], 0);
+  while (hi - lo > 0.005) {
+    const mid = (lo + hi) / 2;
+    if (fitsTether(q.c, q.s, q.t, mid, q.mask)) hi = mid;
+    else lo = mid;
+  }
+  return Math.ceil(hi * 100) / 100;
+}
+
+function keepOutHazardsBetween(q: Query): string[] {
+  const { c } = q;
+  const fromS = reachable(c, q.s, q.mask);
+  const fromT = reachable(c, q.t, q.mask);
+  const other = q.mask & ~EDGE_KEEP_OUT;
+  const direct = new Set<string>();
+  const boundary = new Set<string>();
+  for (let e = 0; e < c.edgeCount; e++) {
+    const f = c.edgeFlags[e];
+    if (!(f & EDGE_KEEP_OUT) || f & other) continue;
+    const a = c.edgeFrom[e];
+    const b = c.edgeTo[e];
+    const hazards = c.keepOutByEdge.get(e) ?? [];
+    if ((fromS[a] && fromT[b]) || (fromS[b] && fromT[a])) hazards.forEach((h) => direct.add(h));
+    else if (fromS[a] !== fromS[b]) hazards.forEach((h) => boundary.add(h));
+  }
+  return [...(direct.size ? direct : boundary)].sort();
+}
+
+function diagnose(q: Query): RouteInfeasible {
+  const { c } = q;
+  const from = c.keys[q.s];
+  const to = c.keys[q.t];
+  if (!reachable(c, q.s, 0)[q.t]) {
+    return infeasible(q, 'disconnected', `${from} and ${to} are not connected by any handrail, hop or ride.`);
+  }
+  if (reachable(c, q.s, q.mask)[q.t]) {
+    const need = requiredTether(q);
+    const needText = need === null ? '' : `; the shortest tether that would do is ${fmt(need)}`;
+    return infeasible(
+      q,
+      'anchor-gap',
+      `Every route from ${from} to ${to} has a stretch between attach points longer than the ${fmt(q.tether)} tether${needText}.`,
+    );
+  }
+  if (reachable(c, q.s, q.mask & ~EDGE_KEEP_OUT)[q.t]) {
+    const hazards = keepOutHazardsBetween(q);
+    return infeasible(
+      q,
+      'blocked-by-hazard',
+      `Every route from ${from} to ${to} passes through keep-out volume${hazards.length > 1 ? 's' : ''} ${hazards.join(', ')}.`,
+      hazards,
+    );
+  }
+  const rides = q.mask & EDGE_RIDE ? ' or an arm ride (not allowed on this route)' : '';
+  return infeasible(q, 'disconnected', `Every way from ${from} to ${to} uses a closed edge${rides}.`);
+}
+
+/**
+ * A translation route between two nodes (DESIGN §3). Node keys must exist (check with hasNodeKey
+ * first); `from === to` is answered as infeasible `same-node` rather than an empty route, so a
+ * caller never mistakes a typo'd duplicate for a real route.
+ */
+export function findRoute(c: CompiledStation, settings: StationSettings, request: RouteRequest): RouteResult {
+  const s = c.keyToIndex.get(request.from);
+  const t = c.keyToIndex.get(request.to);
+  if (s === undefined || t === undefined) {
+    throw new RangeError(`unknown node key "${s === undefined ? request.from : request.to}"`);
+  }
+  const { arcSeconds, landmarkTimesValid } = arcSecondsFor(c, settings);
+  const q: Query = {
+    c,
+    settings,
+    mode: request.mode,
+    s,
+    t,
+    tether: request.tetherLengthM ?? settings.tetherLengthM,
+    factor: request.carrying ? settings.carryFactor : 1,
+    mask: excludeMaskFor(request.allowRide),
+    weights: arcSeconds,
+    landmarkTimesValid,
+  };
+  if (s === t) return infeasible(q, 'same-node', `The route starts and ends at ${request.from}.`);
+
+  if (request.mode === 'fastest') {
+    const plain = dijkstraPath(c, arcSeconds, s, t, q.mask);
+    if (!plain) return diagnose(q);
+    const lengths = plain.map((a) => c.arcLengthM[a]);
+    const walkAttach = [s, ...plain.map((a) => c.targets[a])].map((v) => c.isAttach[v] === 1);
+    const plan = placeSwapsGreedy(lengths, walkAttach, q.tether);
+    if (plan.feasible) return buildRoute(q, plain, []);
+    const fitted = search(q, 'sum', 0);
+    if (!fitted) return diagnose(q);
+    return buildRoute(q, fitted.arcs, [
+      `The quickest way needs a tether of at least ${fmt(plan.requiredTetherM)}; this is the quickest route that fits the ${fmt(q.tether)} tether.`,
+    ]);
+  }
+  const found =
+    request.mode === 'fewest-swaps' ? search(q, 'lex', 0) : search(q, 'sum', settings.swapSeconds);
+  return found ? buildRoute(q, found.arcs, []) : diagnose(q);
+}
+
+/** Walk node indices of a list of arcs starting at s (for callers that work on the index). */
+export function walkNodes(c: CompiledStation, s: number, arcs: readonly number[]): number[] {
+  const nodes = [s];
+  for (const a of arcs) {
+    if (arcSource(c, a) !== nodes[nodes.length - 1]) throw new Error('arcs do not form a walk');
+    nodes.push(c.targets[a]);
+  }
+  return nodes;
+}

@@ -1,0 +1,21 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { Outlet, type LoaderFunctionArgs } from 'react-router-dom';
+import { AppLayout } from '@/components/layouts/app-layout';
+import { ProtectedRoute, requireUser } from '@/lib/authorization';
+
+export const clientLoader =
+  (queryClient: QueryClient) =>
+  async ({ request }: LoaderFunctionArgs) => {
+    await requireUser(queryClient, request);
+    return null;
+  };
+
+export default function AppRoot() {
+  return (
+    <ProtectedRoute>
+      <AppLayout>
+        <Outlet />
+      </AppLayout>
+    </ProtectedRoute>
+  );
+}

@@ -1,0 +1,68 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { Link, useLoaderData, useNavigate, type LoaderFunctionArgs } from 'react-router-dom';
+import { AuthLayout } from '@/components/layouts/auth-layout';
+import { Alert } from '@/components/ui/alert';
+import { paths } from '@/config/paths';
+import { isApiError } from '@/lib/api-client';
+import { getInvitationQueryOptions, useInvitation } from '@/features/auth/api/get-invitation';
+import { SetPasswordForm } from '@/features/auth/components/set-password-form';
+
+type LoaderData = { status: 'ok'; token: string } | { status: 'missing' | 'expired' };
+
+export const clientLoader =
+  (queryClient: QueryClient) =>
+  async ({ request }: LoaderFunctionArgs): Promise<LoaderData> => {
+    const token = new URL(request.url).searchParams.get('token');
+    if (!token) return { status: 'missing' };
+    try {
+      await queryClient.ensureQueryData(getInvitationQueryOptions(token));
+      return { status: 'ok', token };
+    } catch (error) {
+      if (isApiError(error) && error.status === 404) return { status: 'expired' };
+      throw error;
+    }
+  };
+
+function InvitationForm({ token }: { token: string }) {
+  const navigate = useNavigate();
+  const { data: invitation } = useInvitation(token);
+  if (!invitation) return null;
+  return (
+    <>
+      <p className="mb-5 text-sm text-text-muted">
+        Welcome, {invitation.name}. Choose a password for{' '}
+        <strong className="text-text-strong">{invitation.email}</strong>.
+      </p>
+      <SetPasswordForm
+        token={token}
+        email={invitation.email}
+        onSuccess={() => navigate(paths.home.getHref(), { replace: true })}
+      />
+    </>
+  );
+}
+
+export default function SetPasswordRoute() {
+  const data = useLoaderData() as LoaderData;
+  return (
+    <AuthLayout title="Set your password">
+      {data.status === 'ok' ? (
+        <InvitationForm token={data.token} />
+      ) : (
+        <>
+          <Alert tone="caution" title="This link cannot be used">
+            {data.status === 'missing'
+              ? 'The address has no invitation token. Open the link from your invitation e-mail.'
+              : 'The invitation has expired or was already used. Ask your admin to send it again.'}
+          </Alert>
+          <Link
+            to={paths.signIn.getHref()}
+            className="mt-6 inline-block text-sm font-medium text-accent underline underline-offset-2 focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-accent"
+          >
+            Go to sign-in
+          </Link>
+        </>
+      )}
+    </AuthLayout>
+  );
+}

@@ -1,0 +1,108 @@
+import type { ReactNode } from 'react';
+import { NavLink, useNavigate } from 'react-router-dom';
+import { can, ROLE_LABELS, type Permission } from '@shared/auth/permissions';
+import { paths } from '@/config/paths';
+import { useSignOut, useUser } from '@/lib/authorization';
+import { cn } from '@/lib/cn';
+import { Button, focusRing } from '../ui/button';
+import { BrandMark } from './brand-mark';
+
+interface NavItem {
+  label: string;
+  to: string;
+  permission: Permission;
+  end?: boolean;
+}
+
+const NAV_ITEMS: NavItem[] = [
+  { label: 'Home', to: paths.home.getHref(), permission: 'read', end: true },
+  { label: 'Stations', to: paths.stations.getHref(), permission: 'read' },
+  { label: 'Plans', to: paths.plans.getHref(), permission: 'read' },
+  { label: 'People', to: paths.people.getHref(), permission: 'users:manage' },
+  { label: 'Mailbox', to: paths.mailbox.getHref(), permission: 'mailbox:read' },
+];
+
+export function AppLayout({ children }: { children: ReactNode }) {
+  const { data: user } = useUser();
+  const navigate = useNavigate();
+  const signOut = useSignOut({ onSuccess: () => navigate(paths.signIn.getHref(), { replace: true }) });
+  const items = NAV_ITEMS.filter((item) => can(user, item.permission));
+
+  return (
+    <div className="flex min-h-screen flex-col">
+      <a
+        href="#main"
+        className="sr-only z-50 rounded bg-surface-panel px-3 py-2 text-text-strong focus:not-sr-only focus:absolute focus:top-2 focus:left-2"
+      >
+        Skip to content
+      </a>
+      <header className="bg-ink-900 text-ink-100">
+        <div className="mx-auto flex h-14 max-w-7xl items-center gap-6 px-4 sm:px-6">
+          <NavLink to={paths.home.getHref()} className={cn('flex items-center gap-2 rounded', focusRing)}>
+            <BrandMark />
+            <span className="text-base font-semibold tracking-tight text-white">Tetherwise</span>
+          </NavLink>
+          <nav aria-label="Main" className="flex flex-1 items-center gap-1">
+            {items.map((item) => (
+              <NavLink
+                key={item.to}
+                to={item.to}
+                end={item.end}
+                className={({ isActive }) =>
+                  cn(
+                    'rounded-md px-3 py-1.5 text-sm font-medium',
+                    focusRing,
+                    'focus-visible:outline-accent-bright',
+                    isActive ? 'bg-ink-700 text-white' : 'text-ink-300 hover:bg-ink-800 hover:text-white',
+                  )
+                }
+              >
+                {item.label}
+              </NavLink>
+            ))}
+          </nav>
+          {user && (
+            <div className="flex items-center gap-3">
+              <div className="text-right leading-tight">
+                <p className="text-sm font-medium text-white">{user.name}</p>
+                <p className="text-xs text-ink-300">{ROLE_LABELS[user.role]}</p>
+              </div>
+              <Button
+                variant="inverse"
+                size="sm"
+                className="focus-visible:outline-accent-bright"
+                isLoading={signOut.isPending}
+                onClick={() => signOut.mutate()}
+              >
+                Sign out
+              </Button>
+            </div>
+          )}
+        </div>
+      </header>
+      <main id="main" className="mx-auto w-full max-w-7xl flex-1 px-4 py-6 sm:px-6">
+        {children}
+      </main>
+    </div>
+  );
+}
+
+export function PageHeader({
+  title,
+  description,
+  actions,
+}: {
+  title: string;
+  description?: ReactNode;
+  actions?: ReactNode;
+}) {
+  return (
+    <div className="mb-6 flex flex-wrap items-end justify-between gap-4">
+      <div>
+        <h1 className="text-2xl font-semibold tracking-tight text-text-strong">{title}</h1>
+        {description && <p className="mt-1 max-w-3xl text-sm text-text-muted">{description}</p>}
+      </div>
+      {actions && <div className="flex items-center gap-2">{actions}</div>}
+    </div>
+  );
+}

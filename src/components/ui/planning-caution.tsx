@@ -1,0 +1,21 @@
+import { cn } from '@/lib/cn';
+
+export const PLANNING_CAUTION_TEXT =
+  "This is a planning aid. It does not replace the programme's certified procedures, flight rules, hardware data and safety review, and its defaults must be checked against them.";
+
+export function PlanningCaution({ className }: { className?: string }) {
+  return (
+    <aside
+      aria-label="Planning caution"
+      className={cn(
+        'flex gap-3 rounded-md border border-caution/40 bg-caution-soft px-4 py-3 text-sm text-caution',
+        className,
+      )}
+    >
+      <span aria-hidden="true" className="font-bold">
+        !
+      </span>
+      <p>{PLANNING_CAUTION_TEXT}</p>
+    </aside>
+  );
+}

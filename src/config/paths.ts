@@ -1,0 +1,39 @@
+const withRedirect = (base: string, redirectTo?: string | null) =>
+  redirectTo && redirectTo !== '/' ? `${base}?redirectTo=${encodeURIComponent(redirectTo)}` : base;
+
+export const paths = {
+  home: { path: '/', getHref: () => '/' },
+  signIn: { path: '/sign-in', getHref: (redirectTo?: string | null) => withRedirect('/sign-in', redirectTo) },
+  setPassword: {
+    path: '/set-password',
+    getHref: (token: string) => `/set-password?token=${encodeURIComponent(token)}`,
+  },
+  people: { path: '/people', getHref: () => '/people' },
+  mailbox: { path: '/mailbox', getHref: () => '/mailbox' },
+  stations: { path: '/stations', getHref: () => '/stations' },
+  station: {
+    path: '/stations/:stationId',
+    getHref: (stationId: string | number) => `/stations/${encodeURIComponent(stationId)}`,
+  },
+  sockets: {
+    path: '/stations/:stationId/sockets',
+    getHref: (stationId: string | number) => `/stations/${encodeURIComponent(stationId)}/sockets`,
+  },
+  plans: { path: '/plans', getHref: () => '/plans' },
+  plan: {
+    path: '/plans/:planId',
+    getHref: (planId: string | number) => `/plans/${encodeURIComponent(planId)}`,
+  },
+  walkthrough: {
+    path: '/walkthroughs/:id',
+    getHref: (id: string | number) => `/walkthroughs/${encodeURIComponent(id)}`,
+  },
+} as const;
+
+/** Only same-origin paths: a `redirectTo` from the address bar must not send anyone off-site. */
+export function safeRedirectTo(value: string | null | undefined): string {
+  if (!value || !value.startsWith('/') || value.startsWith('//') || value.startsWith('/\\'))
+    return paths.home.getHref();
+  if (value.startsWith(paths.signIn.path)) return paths.home.getHref();
+  return value;
+}

@@ -1,0 +1,63 @@
+import { useForm } from 'react-hook-form';
+import { z } from 'zod';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { PasswordSchema, type User } from '@shared/schemas/auth';
+import { Alert } from '@/components/ui/alert';
+import { Button } from '@/components/ui/button';
+import { Field } from '@/components/ui/field';
+import { Input } from '@/components/ui/input';
+import { isApiError } from '@/lib/api-client';
+import { useSetPassword } from '../api/set-password';
+
+const SetPasswordFormSchema = z
+  .object({ password: PasswordSchema, confirm: z.string() })
+  .refine((v) => v.password === v.confirm, { path: ['confirm'], message: 'the two passwords differ' });
+type SetPasswordFormValues = z.infer<typeof SetPasswordFormSchema>;
+
+interface SetPasswordFormProps {
+  token: string;
+  email: string;
+  onSuccess: (user: User) => void;
+}
+
+export function SetPasswordForm({ token, email, onSuccess }: SetPasswordFormProps) {
+  const setPassword = useSetPassword({ onSuccess });
+  const {
+    register,
+    handleSubmit,
+    formState: { errors },
+  } = useForm<SetPasswordFormValues>({
+    resolver: zodResolver(SetPasswordFormSchema),
+    defaultValues: { password: '', confirm: '' },
+  });
+  const serverError = setPassword.error
+    ? isApiError(setPassword.error)
+      ? setPassword.error.message
+      : 'Setting the password failed. Retry in a moment.'
+    : null;
+
+  return (
+    <form
+      noValidate
+      onSubmit={handleSubmit(({ password }) => setPassword.mutate({ token, password }))}
+      className="space-y-4"
+    >
+      <div aria-live="assertive">{serverError && <Alert tone="danger">{serverError}</Alert>}</div>
+      {/* lets password managers file the new password under the right account */}
+      <input type="email" name="email" autoComplete="username" value={email} readOnly hidden />
+      <Field
+        label="New password"
+        error={errors.password?.message}
+        hint="At least 10 characters; a long passphrase is best."
+      >
+        <Input type="password" autoComplete="new-password" autoFocus {...register('password')} />
+      </Field>
+      <Field label="Repeat the password" error={errors.confirm?.message}>
+        <Input type="password" autoComplete="new-password" {...register('confirm')} />
+      </Field>
+      <Button type="submit" className="w-full" isLoading={setPassword.isPending}>
+        Set password and sign in
+      </Button>
+    </form>
+  );
+}

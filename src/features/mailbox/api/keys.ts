@@ -1,0 +1,5 @@
+export const mailboxKeys = {
+  all: ['mailbox'] as const,
+  lists: () => [...mailboxKeys.all, 'list'] as const,
+  list: () => [...mailboxKeys.lists()] as const,
+};
