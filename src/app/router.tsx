@@ -1,6 +1,6 @@
 import { useMemo, type ComponentType } from 'react';
 import { useQueryClient, type QueryClient } from '@tanstack/react-query';
-import { createBrowserRouter, RouterProvider, type LoaderFunction } from 'react-router-dom';
+import { createBrowserRouter, RouterProvider, type LoaderFunction, type RouteObject } from 'react-router-dom';
 import { RouteError } from '@/components/errors/route-error';
 import { PageSpinner } from '@/components/ui/spinner';
 import { paths } from '@/config/paths';
@@ -10,67 +10,43 @@ interface RouteModule {
   clientLoader?: (queryClient: QueryClient) => LoaderFunction;
 }
 
-/** Turns a route module into what a lazy route returns, binding its loader to the query client. */
-const convert =
-  (queryClient: QueryClient) =>
-  ({ default: Component, clientLoader }: RouteModule) => ({
-    Component,
-    loader: clientLoader?.(queryClient),
-  });
-
-// route modules live in ./routes/**; paths the screens link to live in config/paths
-const shared = { ErrorBoundary: RouteError, HydrateFallback: PageSpinner };
-
 export function createAppRouter(queryClient: QueryClient) {
-  const c = convert(queryClient);
+  /** A lazily loaded route whose module's loader is bound to the query client; every route has its own error boundary. */
+  const route = (
+    path: string | undefined,
+    load: () => Promise<RouteModule>,
+    extra: Partial<RouteObject> = {},
+  ) =>
+    ({
+      ...(path === undefined ? { index: true } : { path }),
+      ErrorBoundary: RouteError,
+      ...extra,
+      lazy: () =>
+        load().then(({ default: Component, clientLoader }) => ({
+          Component,
+          loader: clientLoader?.(queryClient),
+        })),
+    }) as RouteObject;
+  const top = { HydrateFallback: PageSpinner };
+
   return createBrowserRouter([
-    { path: paths.signIn.path, ...shared, lazy: () => import('./routes/auth/sign-in').then(c) },
-    { path: paths.setPassword.path, ...shared, lazy: () => import('./routes/auth/set-password').then(c) },
-    {
-      path: paths.home.path,
-      ...shared,
-      lazy: () => import('./routes/app/root').then(c),
+    route(paths.signIn.path, () => import('./routes/auth/sign-in'), top),
+    route(paths.setPassword.path, () => import('./routes/auth/set-password'), top),
+    route(paths.home.path, () => import('./routes/app/root'), {
+      ...top,
       children: [
-        { index: true, ErrorBoundary: RouteError, lazy: () => import('./routes/app/home').then(c) },
-        {
-          path: paths.people.path,
-          ErrorBoundary: RouteError,
-          lazy: () => import('./routes/app/people').then(c),
-        },
-        {
-          path: paths.mailbox.path,
-          ErrorBoundary: RouteError,
-          lazy: () => import('./routes/app/mailbox').then(c),
-        },
-        {
-          path: paths.stations.path,
-          ErrorBoundary: RouteError,
-          lazy: () => import('./routes/app/stations').then(c),
-        },
-        {
-          path: paths.station.path,
-          ErrorBoundary: RouteError,
-          lazy: () => import('./routes/app/station').then(c),
-        },
-        {
-          path: paths.sockets.path,
-          ErrorBoundary: RouteError,
-          lazy: () => import('./routes/app/station-sockets').then(c),
-        },
-        {
-          path: paths.plans.path,
-          ErrorBoundary: RouteError,
-          lazy: () => import('./routes/app/plans').then(c),
-        },
-        { path: paths.plan.path, ErrorBoundary: RouteError, lazy: () => import('./routes/app/plan').then(c) },
-        {
-          path: paths.walkthrough.path,
-          ErrorBoundary: RouteError,
-          lazy: () => import('./routes/app/walkthrough').then(c),
-        },
+        route(undefined, () => import('./routes/app/home')),
+        route(paths.people.path, () => import('./routes/app/people')),
+        route(paths.mailbox.path, () => import('./routes/app/mailbox')),
+        route(paths.stations.path, () => import('./routes/app/stations')),
+        route(paths.station.path, () => import('./routes/app/station')),
+        route(paths.sockets.path, () => import('./routes/app/station-sockets')),
+        route(paths.plans.path, () => import('./routes/app/plans')),
+        route(paths.plan.path, () => import('./routes/app/plan')),
+        route(paths.walkthrough.path, () => import('./routes/app/walkthrough')),
       ],
-    },
-    { path: '*', lazy: () => import('./routes/not-found').then(c) },
+    }),
+    route('*', () => import('./routes/not-found'), top),
   ]);
 }
 

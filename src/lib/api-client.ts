@@ -110,3 +110,9 @@ export const api = {
     request<T>('PATCH', path, { ...options, body }),
   delete: <T>(path: string, options?: RequestOptions) => request<T>('DELETE', path, options),
 };
+
+/** What to tell the user about a failed request: the server's message, or the fallback. */
+export function apiErrorMessage(error: unknown, fallback: string): string | null {
+  if (!error) return null;
+  return isApiError(error) ? error.message : fallback;
+}

@@ -1,4 +1,4 @@
-import { Link } from 'react-router-dom';
+import { TextLink } from '@/components/ui/text-link';
 import { paths } from '@/config/paths';
 
 export default function NotFoundRoute() {
@@ -7,12 +7,9 @@ export default function NotFoundRoute() {
       <p className="text-sm font-semibold text-accent">404</p>
       <h1 className="mt-2 text-2xl font-semibold text-text-strong">Page not found</h1>
       <p className="mt-3 text-sm text-text-muted">There is nothing at this address. It may have moved.</p>
-      <Link
-        to={paths.home.getHref()}
-        className="mt-6 inline-block text-sm font-medium text-accent underline underline-offset-2 focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-accent"
-      >
+      <TextLink to={paths.home.getHref()} className="mt-6">
         Go to Home
-      </Link>
+      </TextLink>
     </main>
   );
 }

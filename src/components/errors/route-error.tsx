@@ -1,8 +1,9 @@
-import { isRouteErrorResponse, Link, useRevalidator, useRouteError } from 'react-router-dom';
+import { isRouteErrorResponse, useRevalidator, useRouteError } from 'react-router-dom';
 import { paths } from '@/config/paths';
 import { isApiError } from '@/lib/api-client';
 import { Alert } from '../ui/alert';
 import { Button } from '../ui/button';
+import { TextLink } from '../ui/text-link';
 
 function describe(error: unknown): { title: string; message: string; notFound: boolean } {
   if (isApiError(error)) {
@@ -43,12 +44,9 @@ export function RouteError() {
             Retry
           </Button>
         )}
-        <Link
-          to={paths.home.getHref()}
-          className="inline-flex h-10 items-center rounded-md px-4 text-sm font-medium text-accent underline-offset-4 hover:underline focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-accent"
-        >
+        <TextLink to={paths.home.getHref()} className="self-center">
           Go to Home
-        </Link>
+        </TextLink>
       </div>
     </div>
   );

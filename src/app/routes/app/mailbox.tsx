@@ -1,10 +1,9 @@
 import type { QueryClient } from '@tanstack/react-query';
 import type { LoaderFunctionArgs } from 'react-router-dom';
 import { PageHeader } from '@/components/layouts/app-layout';
-import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
+import { FormError } from '@/components/ui/form-error';
 import { PageSpinner } from '@/components/ui/spinner';
-import { isApiError } from '@/lib/api-client';
 import { requirePermission } from '@/lib/authorization';
 import { useClearMailbox } from '@/features/mailbox/api/clear-mailbox';
 import { getMailboxQueryOptions, useMailbox } from '@/features/mailbox/api/get-mailbox';
@@ -44,13 +43,7 @@ export default function MailboxRoute() {
           </>
         }
       />
-      <div aria-live="polite">
-        {error && (
-          <Alert tone="danger" className="mb-4">
-            {isApiError(error) ? error.message : 'The mailbox could not be read.'}
-          </Alert>
-        )}
-      </div>
+      <FormError error={error} fallback="The mailbox could not be read." className="mb-4" />
       {mailbox.data ? <MailboxView messages={mailbox.data} /> : <PageSpinner />}
     </>
   );

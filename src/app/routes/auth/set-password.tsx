@@ -1,7 +1,8 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { Link, useLoaderData, useNavigate, type LoaderFunctionArgs } from 'react-router-dom';
+import { useLoaderData, useNavigate, type LoaderFunctionArgs } from 'react-router-dom';
 import { AuthLayout } from '@/components/layouts/auth-layout';
 import { Alert } from '@/components/ui/alert';
+import { TextLink } from '@/components/ui/text-link';
 import { paths } from '@/config/paths';
 import { isApiError } from '@/lib/api-client';
 import { getInvitationQueryOptions, useInvitation } from '@/features/auth/api/get-invitation';
@@ -55,12 +56,9 @@ export default function SetPasswordRoute() {
               ? 'The address has no invitation token. Open the link from your invitation e-mail.'
               : 'The invitation has expired or was already used. Ask your admin to send it again.'}
           </Alert>
-          <Link
-            to={paths.signIn.getHref()}
-            className="mt-6 inline-block text-sm font-medium text-accent underline underline-offset-2 focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-accent"
-          >
+          <TextLink to={paths.signIn.getHref()} className="mt-6">
             Go to sign-in
-          </Link>
+          </TextLink>
         </>
       )}
     </AuthLayout>

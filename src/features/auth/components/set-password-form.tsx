@@ -2,11 +2,10 @@ import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { PasswordSchema, type User } from '@shared/schemas/auth';
-import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
+import { FormError } from '@/components/ui/form-error';
 import { Input } from '@/components/ui/input';
-import { isApiError } from '@/lib/api-client';
 import { useSetPassword } from '../api/set-password';
 
 const SetPasswordFormSchema = z
@@ -30,11 +29,6 @@ export function SetPasswordForm({ token, email, onSuccess }: SetPasswordFormProp
     resolver: zodResolver(SetPasswordFormSchema),
     defaultValues: { password: '', confirm: '' },
   });
-  const serverError = setPassword.error
-    ? isApiError(setPassword.error)
-      ? setPassword.error.message
-      : 'Setting the password failed. Retry in a moment.'
-    : null;
 
   return (
     <form
@@ -42,7 +36,7 @@ export function SetPasswordForm({ token, email, onSuccess }: SetPasswordFormProp
       onSubmit={handleSubmit(({ password }) => setPassword.mutate({ token, password }))}
       className="space-y-4"
     >
-      <div aria-live="assertive">{serverError && <Alert tone="danger">{serverError}</Alert>}</div>
+      <FormError error={setPassword.error} fallback="Setting the password failed. Retry in a moment." />
       {/* lets password managers file the new password under the right account */}
       <input type="email" name="email" autoComplete="username" value={email} readOnly hidden />
       <Field

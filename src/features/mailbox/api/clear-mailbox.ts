@@ -1,5 +1,5 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import { useInvalidatingMutation } from '@/lib/mutation';
 import { mailboxKeys } from './keys';
 
 export function clearMailbox(): Promise<void> {
@@ -7,12 +7,9 @@ export function clearMailbox(): Promise<void> {
 }
 
 export function useClearMailbox({ onSuccess }: { onSuccess?: () => void } = {}) {
-  const queryClient = useQueryClient();
-  return useMutation({
+  return useInvalidatingMutation({
     mutationFn: clearMailbox,
-    onSuccess: () => {
-      void queryClient.invalidateQueries({ queryKey: mailboxKeys.lists() });
-      onSuccess?.();
-    },
+    invalidates: [mailboxKeys.lists()],
+    onSuccess: () => onSuccess?.(),
   });
 }

@@ -1,6 +1,6 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { InviteUserInput, UserAdminView } from '@shared/schemas/auth';
 import { api } from '@/lib/api-client';
+import { useInvalidatingMutation } from '@/lib/mutation';
 import { userKeys } from './keys';
 
 export function inviteUser(input: InviteUserInput): Promise<{ user: UserAdminView }> {
@@ -8,12 +8,9 @@ export function inviteUser(input: InviteUserInput): Promise<{ user: UserAdminVie
 }
 
 export function useInviteUser({ onSuccess }: { onSuccess?: (user: UserAdminView) => void } = {}) {
-  const queryClient = useQueryClient();
-  return useMutation({
+  return useInvalidatingMutation({
     mutationFn: inviteUser,
-    onSuccess: ({ user }) => {
-      void queryClient.invalidateQueries({ queryKey: userKeys.lists() });
-      onSuccess?.(user);
-    },
+    invalidates: [userKeys.lists()],
+    onSuccess: ({ user }) => onSuccess?.(user),
   });
 }

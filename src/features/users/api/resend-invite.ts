@@ -1,5 +1,5 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import { useInvalidatingMutation } from '@/lib/mutation';
 import { userKeys } from './keys';
 
 export function resendInvite(id: number): Promise<void> {
@@ -7,12 +7,9 @@ export function resendInvite(id: number): Promise<void> {
 }
 
 export function useResendInvite({ onSuccess }: { onSuccess?: (id: number) => void } = {}) {
-  const queryClient = useQueryClient();
-  return useMutation({
+  return useInvalidatingMutation({
     mutationFn: resendInvite,
-    onSuccess: (_, id) => {
-      void queryClient.invalidateQueries({ queryKey: userKeys.lists() });
-      onSuccess?.(id);
-    },
+    invalidates: [userKeys.lists()],
+    onSuccess: (_, id) => onSuccess?.(id),
   });
 }

@@ -1,6 +1,6 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { UpdateUserInput, UserAdminView } from '@shared/schemas/auth';
 import { api } from '@/lib/api-client';
+import { useInvalidatingMutation } from '@/lib/mutation';
 import { userKeys } from './keys';
 
 export function updateUser({
@@ -14,12 +14,9 @@ export function updateUser({
 }
 
 export function useUpdateUser({ onSuccess }: { onSuccess?: (user: UserAdminView) => void } = {}) {
-  const queryClient = useQueryClient();
-  return useMutation({
+  return useInvalidatingMutation({
     mutationFn: updateUser,
-    onSuccess: ({ user }) => {
-      void queryClient.invalidateQueries({ queryKey: userKeys.lists() });
-      onSuccess?.(user);
-    },
+    invalidates: [userKeys.lists()],
+    onSuccess: ({ user }) => onSuccess?.(user),
   });
 }

@@ -1,12 +1,11 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { InviteUserInputSchema, type InviteUserInput, type UserAdminView } from '@shared/schemas/auth';
-import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
+import { FormError } from '@/components/ui/form-error';
 import { Input } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
-import { isApiError } from '@/lib/api-client';
 import { useInviteUser } from '../api/invite-user';
 import { ROLE_OPTIONS } from './role-options';
 
@@ -28,13 +27,7 @@ export function InviteUserForm({ onSuccess, onCancel }: InviteUserFormProps) {
 
   return (
     <form noValidate onSubmit={handleSubmit((values) => invite.mutate(values))} className="space-y-4">
-      <div aria-live="assertive">
-        {invite.error && (
-          <Alert tone="danger">
-            {isApiError(invite.error) ? invite.error.message : 'The invitation could not be sent.'}
-          </Alert>
-        )}
-      </div>
+      <FormError error={invite.error} fallback="The invitation could not be sent." />
       <Field label="Name" error={errors.name?.message}>
         <Input autoComplete="off" {...register('name')} />
       </Field>

@@ -4,9 +4,9 @@ import type { UserAdminView } from '@shared/schemas/auth';
 import { Alert } from '@/components/ui/alert';
 import { Badge } from '@/components/ui/badge';
 import { Button } from '@/components/ui/button';
+import { FormError } from '@/components/ui/form-error';
 import { Select } from '@/components/ui/select';
 import { Table, Td, Th } from '@/components/ui/table';
-import { isApiError } from '@/lib/api-client';
 import { formatDateTime } from '@/lib/format';
 import { useResendInvite } from '../api/resend-invite';
 import { useUpdateUser } from '../api/update-user';
@@ -16,10 +16,6 @@ function StatusBadge({ person }: { person: UserAdminView }) {
   if (person.disabled) return <Badge tone="danger">Disabled</Badge>;
   if (person.invitePending) return <Badge tone="review">Invite pending</Badge>;
   return <Badge tone="approved">Active</Badge>;
-}
-
-function errorText(error: unknown): string {
-  return isApiError(error) ? error.message : 'The change could not be saved.';
 }
 
 export function PeopleTable({ people, currentUserId }: { people: UserAdminView[]; currentUserId: number }) {
@@ -38,13 +34,8 @@ export function PeopleTable({ people, currentUserId }: { people: UserAdminView[]
 
   return (
     <div className="space-y-3">
-      <div aria-live="polite">
-        {error ? (
-          <Alert tone="danger">{errorText(error)}</Alert>
-        ) : (
-          notice && <Alert tone="success">{notice}</Alert>
-        )}
-      </div>
+      <FormError error={error} fallback="The change could not be saved." />
+      <div aria-live="polite">{!error && notice && <Alert tone="success">{notice}</Alert>}</div>
       <Table caption="People with access to Tetherwise">
         <thead>
           <tr>
