@@ -9,6 +9,7 @@ import {
   type TimelineTask,
 } from '@shared/compute/timeline';
 import { orbitSummary } from '@shared/compute/orbit';
+import { CreatePlanInputSchema } from '@shared/schemas/plan';
 
 interface LineNode {
   key: string;
@@ -474,5 +475,40 @@ describe('computeTimeline properties (fast-check, random line stations)', () => 
         expect(fewer.endSeconds).toBeLessThanOrEqual(full.endSeconds + 1e-6);
       }),
     );
+  });
+});
+
+describe('computeTimeline with a plan parsed by CreatePlanInputSchema', () => {
+  it('uses the contract defaults: 6 h 30 min limit (space agency mission blogs), 30 min egress and ingress (planning defaults, from memory)', () => {
+    const parsed = CreatePlanInputSchema.parse({
+      title: 'Pump swap',
+      stationId: 1,
+      date: '2031-05-02',
+      crew: { EV1: { name: 'Ada', tetherLengthM: 15 }, EV2: { name: 'Ben', tetherLengthM: 15 } },
+      tasks: [{ title: 'Remove pump', worksite: 'W2', crew: 'both', durationSeconds: 1200 }],
+    });
+    const tl = computeTimeline({ plan: parsed, airlockKey: 'A', orbit: ORBIT }, lineRoute(STATION));
+    expect(tl.timeLimitSeconds).toBe(23400);
+    expect(tl.crew.EV1.blocks[0]).toMatchObject({ type: 'egress', start: 0, end: 1800 });
+    // out 350 s + 2 swaps, work 1200 s, back 350 s + 2 swaps, ingress 1800 s
+    expect(tl.endSeconds).toBe(1800 + 530 + 1200 + 530 + 1800);
+  });
+
+  it('refuses plans the timeline could not schedule (over 200 tasks, a duration over 24 h, an unknown field)', () => {
+    const base = {
+      title: 'x',
+      stationId: 1,
+      date: '2031-05-02',
+      crew: { EV1: { name: 'a' }, EV2: { name: 'b' } },
+    };
+    const t = { title: 't', worksite: 'W1', crew: 'EV1', durationSeconds: 60 };
+    expect(CreatePlanInputSchema.safeParse({ ...base, tasks: Array(201).fill(t) }).success).toBe(false);
+    expect(
+      CreatePlanInputSchema.safeParse({ ...base, tasks: [{ ...t, durationSeconds: 86401 }] }).success,
+    ).toBe(false);
+    expect(CreatePlanInputSchema.safeParse({ ...base, tasks: [{ ...t, eclipse: true }] }).success).toBe(
+      false,
+    );
+    expect(CreatePlanInputSchema.safeParse({ ...base, tasks: Array(200).fill(t) }).success).toBe(true);
   });
 });
