@@ -43,7 +43,10 @@ export interface TimelineInput {
   airlockKey: string;
   /** the station's orbit; the plan's beta override, when set, replaces `betaDeg` */
   orbit: OrbitInput;
-  /** when given, worksites and sockets it does not know are warned about */
+  /**
+   * When given, worksites and sockets it does not know are warned about and never routed to. Pass it
+   * whenever the route function throws on an unknown key (the station route engine does).
+   */
   hasNode?: (key: string) => boolean;
 }
 
@@ -84,6 +87,7 @@ export type TimelineWarningCode =
   | 'over-time-limit'
   | 'route-infeasible'
   | 'route-caution'
+  | 'route-note'
   | 'eclipse-only-outside-night'
   | 'unknown-worksite'
   | 'unknown-socket';
@@ -247,8 +251,10 @@ export function computeTimeline(input: TimelineInput, route: RouteFn): Timeline 
       return false;
     }
     for (const w of result.warnings) {
+      // caution volumes are a safety matter; the route's other remarks are notes
+      const caution = result.cautionHazards.some((h) => w.includes(h));
       warnings.push({
-        code: 'route-caution',
+        code: caution ? 'route-caution' : 'route-note',
         message: `${lane.crew} on the way to ${where}: ${w}`,
         taskIndex,
         crew: lane.crew,

@@ -16,6 +16,8 @@ interface LineNode {
   x: number;
   /** an anchor or the airlock: a tether may be clipped here */
   attach: boolean;
+  /** a caution hazard volume around this node */
+  caution?: string;
 }
 
 const SPEED = 0.1; // m/s, planning default from memory (station settings default)
@@ -72,6 +74,7 @@ function lineRoute(nodes: LineNode[]): RouteFn {
       if (walk[k].attach) lastAttach = { node: walk[k].key, atM: along };
     }
     const travelSeconds = legs.reduce((s, l) => s + l.seconds, 0);
+    const cautions = [...new Set(walk.flatMap((n) => (n.caution ? [n.caution] : [])))];
     const swapSeconds = swaps.length * SWAP_S;
     const route: RouteFeasible = {
       feasible: true,
@@ -86,8 +89,8 @@ function lineRoute(nodes: LineNode[]): RouteFn {
       totalSeconds: travelSeconds + swapSeconds,
       tetherLengthM,
       maxPaidOutM,
-      warnings: [],
-      cautionHazards: [],
+      warnings: cautions.map((h) => `The route passes through caution volume ${h}.`),
+      cautionHazards: cautions,
     };
     return route;
   };
@@ -218,6 +221,19 @@ describe('computeTimeline, hand-worked example (tether 15 m, 0.1 m/s, 90 s swaps
 });
 
 describe('computeTimeline warnings', () => {
+  it('a route through a caution volume is listed with the task it leads to', () => {
+    const station = STATION.map((n) => (n.key === 'J3' ? { ...n, caution: 'ANT-1' } : n));
+    const tl = computeTimeline(
+      { plan: plan([task({ worksite: 'W2', crew: 'EV2' })]), airlockKey: 'A', orbit: ORBIT },
+      lineRoute(station),
+    );
+    expect(tl.warnings.map((w) => [w.code, w.taskIndex, w.crew])).toEqual([
+      ['route-caution', 0, 'EV2'],
+      ['route-caution', undefined, 'EV2'],
+    ]);
+    expect(tl.warnings[0].message).toContain('ANT-1');
+  });
+
   it('an unreachable worksite: the reason is shown, the crew member stays put and the work is marked', () => {
     const tasks = [task({ worksite: 'W1', crew: 'EV1' }), task({ worksite: 'J1', crew: 'EV1' })];
     const short = plan(tasks, {
