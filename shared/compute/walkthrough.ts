@@ -1,0 +1,361 @@
+import type { RouteFeasible } from '../schemas/route';
+import type { CrewMember } from '../schemas/plan';
+import type { Vec3 } from '../schemas/station';
+import type { Timeline, TimelineBlock } from './timeline';
+import { formatElapsed } from './units';
+
+/**
+ * Training walkthroughs: the step list and the moving crew marker of a route or a whole plan, derived
+ * only from the engine's results (a route from `findRoute`, a plan from `computeTimeline`), never
+ * recomputed. A track is piecewise linear in time, so playback samples it each frame without
+ * allocation-heavy work.
+ */
+
+export type WalkStepType =
+  | 'start'
+  | 'egress'
+  | 'translate'
+  | 'swap'
+  | 'restraint-in'
+  | 'work'
+  | 'restraint-out'
+  | 'wait'
+  | 'ingress'
+  | 'arrive';
+
+export interface WalkStep {
+  /** stable within one derivation: `<crew>-<n>` or `r-<n>` */
+  id: string;
+  crew?: CrewMember;
+  type: WalkStepType;
+  start: number;
+  end: number;
+  title: string;
+  detail: string;
+  /** where the step happens (translate: where it ends) */
+  nodeKey: string;
+  fromKey?: string;
+  lengthM?: number;
+  /** swap: the new hook is clipped here … */
+  clipKey?: string;
+  /** … and the old one released here */
+  releaseKey?: string;
+  /** tether paid out at the end of the step (swap: just before it) */
+  paidOutM: number;
+  /** the attach point the crew member is clipped to during the step (swap: before it) */
+  anchorKey: string;
+  taskIndex?: number;
+  socketKey?: string;
+}
+
+export interface TrackPiece {
+  t0: number;
+  t1: number;
+  from: Vec3;
+  to: Vec3;
+  anchorKey: string;
+  paid0: number;
+  paid1: number;
+}
+
+export interface CrewTrack {
+  crew?: CrewMember;
+  steps: WalkStep[];
+  pieces: TrackPiece[];
+  endSeconds: number;
+}
+
+export interface TrackSample {
+  position: Vec3;
+  anchorKey: string;
+  paidOutM: number;
+  /** index into `steps` of the step under way at that time */
+  stepIndex: number;
+}
+
+export type PositionOf = (key: string) => Vec3;
+
+interface Builder {
+  crew?: CrewMember;
+  prefix: string;
+  steps: WalkStep[];
+  pieces: TrackPiece[];
+  at: string;
+  anchorKey: string;
+  /** distance along the current route at which the current anchor was clipped */
+  anchorAtM: number;
+  paid: number;
+  position: PositionOf;
+  /** the route being walked (a plan's swap blocks follow their translate blocks) */
+  route?: RouteFeasible;
+}
+
+function addStep(b: Builder, step: Omit<WalkStep, 'id' | 'crew'>) {
+  b.steps.push({ id: `${b.prefix}-${b.steps.length + 1}`, ...(b.crew ? { crew: b.crew } : {}), ...step });
+}
+
+function hold(b: Builder, t0: number, t1: number) {
+  if (t1 <= t0) return;
+  const p = b.position(b.at);
+  b.pieces.push({ t0, t1, from: p, to: p, anchorKey: b.anchorKey, paid0: b.paid, paid1: b.paid });
+}
+
+const legWord = (kind: string) => (kind === 'ride' ? 'ride the arm' : kind === 'hop' ? 'hop' : 'along the handrail');
+
+/** Lays the legs `[legStart, legEnd)` of `route` over `[t0, t1]`, time shared by each leg's seconds. */
+function translate(b: Builder, route: RouteFeasible, legStart: number, legEnd: number, t0: number, t1: number, taskIndex?: number) {
+  const legs = route.legs.slice(legStart, legEnd);
+  if (legs.length === 0) return;
+  b.route = route;
+  if (legStart === 0) {
+    // every route starts clipped where the crew member stands (the engine's convention)
+    b.anchorKey = route.nodes[0];
+    b.anchorAtM = 0;
+  }
+  const total = legs.reduce((s, l) => s + l.seconds, 0);
+  let t = t0;
+  for (const leg of legs) {
+    const dt = total > 0 ? ((t1 - t0) * leg.seconds) / total : (t1 - t0) / legs.length;
+    const paid0 = leg.startM - b.anchorAtM;
+    const paid1 = leg.startM + leg.lengthM - b.anchorAtM;
+    b.pieces.push({ t0: t, t1: t + dt, from: b.position(leg.from), to: b.position(leg.to), anchorKey: b.anchorKey, paid0, paid1 });
+    t += dt;
+    b.paid = paid1;
+  }
+  const first = legs[0];
+  const last = legs[legs.length - 1];
+  const lengthM = legs.reduce((s, l) => s + l.lengthM, 0);
+  const kinds = [...new Set(legs.map((l) => legWord(l.kind)))].join(', then ');
+  b.at = last.to;
+  addStep(b, {
+    type: 'translate',
+    start: t0,
+    end: t1,
+    title: `Translate ${lengthM.toFixed(1)} m to ${last.to}`,
+    detail: `From ${first.from} ${kinds} to ${last.to}, ${legs.length} leg${legs.length === 1 ? '' : 's'}; clipped at ${b.anchorKey}, ${b.paid.toFixed(1)} m of tether out on arrival.`,
+    nodeKey: last.to,
+    fromKey: first.from,
+    lengthM,
+    paidOutM: b.paid,
+    anchorKey: b.anchorKey,
+    ...(taskIndex === undefined ? {} : { taskIndex }),
+  });
+}
+
+function swap(b: Builder, route: RouteFeasible, node: string, t0: number, t1: number, taskIndex?: number) {
+  const sw = route.swaps.find((s) => s.node === node && s.atM >= b.anchorAtM - 1e-9);
+  const released = b.anchorKey;
+  const paidBefore = sw ? sw.paidOutM : b.paid;
+  hold(b, t0, t1);
+  addStep(b, {
+    type: 'swap',
+    start: t0,
+    end: t1,
+    title: `Tether swap at ${node}`,
+    detail: `Clip the new hook at ${node}, check it, then release the old hook at ${released} (${paidBefore.toFixed(1)} m paid out).`,
+    nodeKey: node,
+    clipKey: node,
+    releaseKey: released,
+    paidOutM: paidBefore,
+    anchorKey: released,
+    ...(taskIndex === undefined ? {} : { taskIndex }),
+  });
+  b.anchorKey = node;
+  b.anchorAtM = sw ? sw.atM : b.anchorAtM + b.paid;
+  b.paid = 0;
+}
+
+function newBuilder(start: string, position: PositionOf, prefix: string, crew?: CrewMember): Builder {
+  return { crew, prefix, steps: [], pieces: [], at: start, anchorKey: start, anchorAtM: 0, paid: 0, position };
+}
+
+/** The route's steps in the order the crew member meets them, swaps placed where the engine put them. */
+function routeBlocks(route: RouteFeasible, swapSecondsEach: number): { type: 'translate' | 'swap'; legStart: number; legEnd: number; seconds: number; node?: string }[] {
+  const out: { type: 'translate' | 'swap'; legStart: number; legEnd: number; seconds: number; node?: string }[] = [];
+  let pieceStart = 0;
+  let seconds = 0;
+  let s = 0;
+  route.legs.forEach((leg, i) => {
+    seconds += leg.seconds;
+    const endM = leg.startM + leg.lengthM;
+    while (s < route.swaps.length && route.swaps[s].atM <= endM + 1e-9) {
+      if (i + 1 > pieceStart) out.push({ type: 'translate', legStart: pieceStart, legEnd: i + 1, seconds });
+      pieceStart = i + 1;
+      seconds = 0;
+      out.push({ type: 'swap', legStart: i + 1, legEnd: i + 1, seconds: swapSecondsEach, node: route.swaps[s].node });
+      s++;
+    }
+  });
+  if (route.legs.length > pieceStart) out.push({ type: 'translate', legStart: pieceStart, legEnd: route.legs.length, seconds });
+  return out;
+}
+
+/** A single route rehearsed on its own: start clipped, translate, swap, …, arrive. */
+export function routeWalkthrough(route: RouteFeasible, position: PositionOf): CrewTrack {
+  const start = route.nodes[0];
+  const b = newBuilder(start, position, 'r');
+  addStep(b, {
+    type: 'start',
+    start: 0,
+    end: 0,
+    title: `Start at ${start}`,
+    detail: `Clipped at ${start}; tether ${route.tetherLengthM.toFixed(1)} m.`,
+    nodeKey: start,
+    paidOutM: 0,
+    anchorKey: start,
+  });
+  const perSwap = route.swapCount > 0 ? route.swapSeconds / route.swapCount : 0;
+  let t = 0;
+  for (const block of routeBlocks(route, perSwap)) {
+    if (block.type === 'translate') translate(b, route, block.legStart, block.legEnd, t, t + block.seconds);
+    else swap(b, route, block.node!, t, t + block.seconds);
+    t += block.seconds;
+  }
+  const end = route.nodes[route.nodes.length - 1];
+  addStep(b, {
+    type: 'arrive',
+    start: t,
+    end: t,
+    title: `Arrive at ${end}`,
+    detail: `${route.lengthM.toFixed(1)} m, ${route.swapCount} tether swap${route.swapCount === 1 ? '' : 's'}, ${formatElapsed(route.totalSeconds)} in all.`,
+    nodeKey: end,
+    paidOutM: b.paid,
+    anchorKey: b.anchorKey,
+  });
+  return { steps: b.steps, pieces: b.pieces, endSeconds: t };
+}
+
+export interface WalkthroughTask {
+  title: string;
+  worksite: string;
+  socket?: string;
+}
+
+/** Both crew members' tracks for a whole plan, on the shared EVA elapsed-time clock of the timeline. */
+export function planWalkthrough(
+  timeline: Timeline,
+  tasks: readonly WalkthroughTask[],
+  airlockKey: string,
+  position: PositionOf,
+): { crews: Record<CrewMember, CrewTrack>; endSeconds: number } {
+  const build = (crew: CrewMember): CrewTrack => {
+    const b = newBuilder(airlockKey, position, crew, crew);
+    for (const block of timeline.crew[crew].blocks) addBlock(b, block, tasks);
+    return { crew, steps: b.steps, pieces: b.pieces, endSeconds: timeline.crew[crew].totalSeconds };
+  };
+  return { crews: { EV1: build('EV1'), EV2: build('EV2') }, endSeconds: timeline.endSeconds };
+}
+
+function addBlock(b: Builder, block: TimelineBlock, tasks: readonly WalkthroughTask[]) {
+  const tag = block.taskIndex === undefined ? {} : { taskIndex: block.taskIndex };
+  switch (block.type) {
+    case 'translate':
+      if (block.route && block.legStart !== undefined && block.legEnd !== undefined) {
+        translate(b, block.route, block.legStart, block.legEnd, block.start, block.end, block.taskIndex);
+      } else hold(b, block.start, block.end);
+      return;
+    case 'swap': {
+      // the swap belongs to the route of the translate block just before it
+      const route = block.route ?? b.route;
+      if (route && block.swapNode) swap(b, route, block.swapNode, block.start, block.end, block.taskIndex);
+      else hold(b, block.start, block.end);
+      return;
+    }
+    case 'work': {
+      const task = block.taskIndex === undefined ? undefined : tasks[block.taskIndex];
+      const socket = task?.socket;
+      if (socket) {
+        addStep(b, {
+          type: 'restraint-in',
+          start: block.start,
+          end: block.start,
+          title: `Into the foot restraint at ${socket}`,
+          detail: `Set the restraint on socket ${socket} and get in before starting "${block.label}".`,
+          nodeKey: b.at,
+          socketKey: socket,
+          paidOutM: b.paid,
+          anchorKey: b.anchorKey,
+          ...tag,
+        });
+      }
+      hold(b, block.start, block.end);
+      addStep(b, {
+        type: 'work',
+        start: block.start,
+        end: block.end,
+        title: block.label,
+        detail: `${block.unreached ? 'Not reachable as planned (see the plan warnings). ' : ''}Work at ${task?.worksite ?? b.at} for ${formatElapsed(block.end - block.start)}; clipped at ${b.anchorKey}.`,
+        nodeKey: task?.worksite ?? b.at,
+        paidOutM: b.paid,
+        anchorKey: b.anchorKey,
+        ...(socket ? { socketKey: socket } : {}),
+        ...tag,
+      });
+      if (socket) {
+        addStep(b, {
+          type: 'restraint-out',
+          start: block.end,
+          end: block.end,
+          title: `Out of the foot restraint at ${socket}`,
+          detail: `Get out of the restraint on ${socket}; stow or leave it as the manifest says.`,
+          nodeKey: b.at,
+          socketKey: socket,
+          paidOutM: b.paid,
+          anchorKey: b.anchorKey,
+          ...tag,
+        });
+      }
+      return;
+    }
+    default: {
+      hold(b, block.start, block.end);
+      addStep(b, {
+        type: block.type,
+        start: block.start,
+        end: block.end,
+        title: block.label,
+        detail: `${block.label} at ${b.at}, ${formatElapsed(block.end - block.start)}.`,
+        nodeKey: b.at,
+        paidOutM: b.paid,
+        anchorKey: b.anchorKey,
+        ...tag,
+      });
+    }
+  }
+}
+
+/** Where the crew member is at time `t`, which attach point holds them and how much tether is out. */
+export function sampleTrack(track: CrewTrack, t: number): TrackSample {
+  const pieces = track.pieces;
+  const stepIndex = stepAt(track.steps, t);
+  if (pieces.length === 0) {
+    const s = track.steps[Math.max(0, stepIndex)];
+    return { position: [0, 0, 0], anchorKey: s?.anchorKey ?? '', paidOutM: 0, stepIndex };
+  }
+  let lo = 0;
+  let hi = pieces.length - 1;
+  if (t <= pieces[0].t0) hi = 0;
+  else if (t >= pieces[hi].t1) lo = hi;
+  else {
+    while (lo < hi) {
+      const mid = (lo + hi + 1) >> 1;
+      if (pieces[mid].t0 <= t) lo = mid;
+      else hi = mid - 1;
+    }
+  }
+  const p = pieces[lo];
+  const f = p.t1 > p.t0 ? Math.min(1, Math.max(0, (t - p.t0) / (p.t1 - p.t0))) : 1;
+  return {
+    position: [p.from[0] + (p.to[0] - p.from[0]) * f, p.from[1] + (p.to[1] - p.from[1]) * f, p.from[2] + (p.to[2] - p.from[2]) * f],
+    anchorKey: p.anchorKey,
+    paidOutM: p.paid0 + (p.paid1 - p.paid0) * f,
+    stepIndex,
+  };
+}
+
+/** The step under way at `t`: the last one that has started (instant steps count at their time). */
+export function stepAt(steps: readonly WalkStep[], t: number): number {
+  let found = steps.length ? 0 : -1;
+  for (let i = 0; i < steps.length; i++) if (steps[i].start <= t + 1e-9) found = i;
+  return found;
+}
