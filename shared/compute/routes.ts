@@ -116,12 +116,12 @@ function requiredTether(q: Query): number | null {
   if (!arcs) return null;
   let lo = q.tether;
   let hi = arcs.reduce((sum, a) => sum + q.c.arcLengthM[a], 0);
-  while (hi - lo > 0.005) {
+  while (hi - lo > 1e-4) {
     const mid = (lo + hi) / 2;
     if (fitsTether(q.c, q.s, q.t, mid, q.mask)) hi = mid;
     else lo = mid;
   }
-  return Math.ceil(hi * 100) / 100;
+  return Math.ceil((hi - 1e-4) * 100) / 100;
 }
 
 function keepOutHazardsBetween(q: Query): string[] {

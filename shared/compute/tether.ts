@@ -83,6 +83,14 @@ export function placeSwapsGreedy(legs: readonly number[], isAttach: readonly boo
       }
     }
     pos += len;
+  }
+  // swaps are placed looking back, so paid-out is measured once they are all known
+  let next = 0;
+  clipM = 0;
+  pos = 0;
+  for (let i = 0; i < legs.length; i++) {
+    if (next < swaps.length && swaps[next].index === i) clipM = swaps[next++].atM;
+    pos += legs[i];
     if (pos - clipM > maxPaidOutM) maxPaidOutM = pos - clipM;
   }
   return { feasible: true, swaps, maxPaidOutM };

@@ -20,8 +20,8 @@ const STEP_M = 1.25;
 const STEPS_PER_BAY = 4;
 const ANCHOR_EVERY = 3;
 
-/** mulberry32: small, fast, good enough for layout noise */
-function rng(seed: number): () => number {
+/** mulberry32: small, fast, good enough for layout noise and benchmark queries */
+export function seededRandom(seed: number): () => number {
   let a = seed >>> 0;
   return () => {
     a = (a + 0x6d2b79f5) >>> 0;
@@ -33,7 +33,7 @@ function rng(seed: number): () => number {
 }
 
 export function generateTrussStation({ nodes: wanted, seed }: TrussOptions): StationDocument {
-  const rand = rng(seed);
+  const rand = seededRandom(seed);
   const runs = Math.min(8, Math.max(2, Math.round(Math.sqrt(wanted) / 16)));
   const perSlice = 4 * runs;
   const bays = Math.max(2, Math.ceil(wanted / (perSlice * STEPS_PER_BAY)));

@@ -1,0 +1,177 @@
+import fc from 'fast-check';
+import type { StationDocument, StationDocumentInput } from '@shared/schemas/station';
+import { StationDocumentSchema } from '@shared/schemas/station';
+
+/**
+ * Independent reference for the route engine on small stations: enumerate every walk up to a
+ * bounded number of edges and, per walk, find the fewest swaps by dynamic programming over clip
+ * points (not the engine's greedy rule). Times are recomputed here from the document.
+ */
+
+export interface OracleEdge {
+  to: number;
+  lengthM: number;
+  seconds: number;
+}
+
+export interface OracleBest {
+  seconds: number;
+  swaps: number;
+  edges: number;
+}
+
+export interface OracleResult {
+  fastest: OracleBest | null;
+  fewestSwaps: OracleBest | null;
+  balanced: (OracleBest & { total: number }) | null;
+}
+
+const EPS = 1e-9;
+
+export function adjacency(
+  doc: StationDocument,
+  opts: { allowRide?: boolean; carrying?: boolean; blocked?: Set<number> } = {},
+): OracleEdge[][] {
+  const index = new Map(doc.nodes.map((n, i) => [n.key, i]));
+  const adj: OracleEdge[][] = doc.nodes.map(() => []);
+  doc.edges.forEach((e, i) => {
+    if (e.closed || opts.blocked?.has(i)) return;
+    if (e.kind === 'ride' && !opts.allowRide) return;
+    const a = index.get(e.from)!;
+    const b = index.get(e.to)!;
+    const pa = doc.nodes[a].position;
+    const pb = doc.nodes[b].position;
+    const lengthM = e.lengthM ?? Math.sqrt((pa[0] - pb[0]) ** 2 + (pa[1] - pb[1]) ** 2 + (pa[2] - pb[2]) ** 2);
+    const speed = doc.settings.speedsMps[e.kind];
+    let seconds = lengthM / speed + (e.kind === 'hop' ? doc.settings.hopSeconds : 0);
+    if (opts.carrying) seconds *= doc.settings.carryFactor;
+    adj[a].push({ to: b, lengthM, seconds });
+    adj[b].push({ to: a, lengthM, seconds });
+  });
+  return adj;
+}
+
+/** Fewest swaps for a fixed walk by DP over which walk positions hold the clip; -1 if none fits. */
+export function minSwapsDp(positions: number[], attach: boolean[], tether: number): number {
+  const k = positions.length - 1;
+  const dp = new Array<number>(k + 1).fill(Infinity);
+  dp[0] = 0;
+  for (let j = 1; j < k; j++) {
+    if (!attach[j]) continue;
+    for (let i = 0; i < j; i++) {
+      if (dp[i] !== Infinity && positions[j] - positions[i] <= tether + EPS) dp[j] = Math.min(dp[j], dp[i] + 1);
+    }
+  }
+  let best = Infinity;
+  for (let i = 0; i < k; i++) {
+    if (dp[i] !== Infinity && positions[k] - positions[i] <= tether + EPS) best = Math.min(best, dp[i]);
+  }
+  return best === Infinity ? -1 : best;
+}
+
+export function exhaustive(
+  doc: StationDocument,
+  adj: OracleEdge[][],
+  s: number,
+  t: number,
+  tether: number,
+  maxEdges: number,
+): OracleResult {
+  const attachOf = doc.nodes.map((n) => n.kind === 'anchor' || n.kind === 'airlock');
+  const swapSeconds = doc.settings.swapSeconds;
+  const res: OracleResult = { fastest: null, fewestSwaps: null, balanced: null };
+  const positions = [0];
+  const attach = [attachOf[s]];
+  const walk = (v: number, seconds: number) => {
+    if (v === t) {
+      const swaps = minSwapsDp(positions, attach, tether);
+      if (swaps < 0) return;
+      const edges = positions.length - 1;
+      if (!res.fastest || seconds < res.fastest.seconds) res.fastest = { seconds, swaps, edges };
+      const f = res.fewestSwaps;
+      if (!f || swaps < f.swaps || (swaps === f.swaps && seconds < f.seconds)) res.fewestSwaps = { seconds, swaps, edges };
+      const total = seconds + swaps * swapSeconds;
+      if (!res.balanced || total < res.balanced.total) res.balanced = { seconds, swaps, edges, total };
+      return;
+    }
+    if (positions.length - 1 >= maxEdges) return;
+    const here = positions[positions.length - 1];
+    for (const e of adj[v]) {
+      // a stretch longer than the tether between attach points can never be repaired later
+      if (e.lengthM > tether + EPS) continue;
+      positions.push(here + e.lengthM);
+      attach.push(attachOf[e.to]);
+      walk(e.to, seconds + e.seconds);
+      positions.pop();
+      attach.pop();
+    }
+  };
+  walk(s, 0);
+  return res;
+}
+
+// integers scaled down: fc.double favours 0 and the bounds, which piles nodes on top of each other
+const decimal = (min: number, max: number) => fc.integer({ min: min * 100, max: max * 100 }).map((v) => v / 100);
+const coord = decimal(-4, 4);
+
+/** Small random stations: 4–7 nodes, a spanning tree plus extra edges, mixed kinds and settings. */
+export const smallStationArb = fc
+  .record({
+    n: fc.integer({ min: 4, max: 7 }),
+    positions: fc.array(fc.tuple(coord, coord, coord), { minLength: 7, maxLength: 7 }),
+    kinds: fc.array(fc.constantFrom('anchor', 'anchor', 'anchor', 'junction', 'junction', 'airlock', 'worksite'), { minLength: 7, maxLength: 7 }),
+    parents: fc.array(fc.nat(), { minLength: 7, maxLength: 7 }),
+    extra: fc.array(fc.tuple(fc.nat(), fc.nat(), fc.constantFrom('handrail', 'handrail', 'hop', 'ride'), fc.boolean()), {
+      maxLength: 8,
+    }),
+    givenLength: fc.array(fc.option(decimal(0.5, 5), { nil: undefined }), {
+      minLength: 12,
+      maxLength: 12,
+    }),
+    handrail: decimal(0.05, 0.5),
+    hop: decimal(0.05, 0.5),
+    ride: decimal(0.05, 0.5),
+    hopSeconds: decimal(0, 40),
+    swapSeconds: decimal(0, 120),
+    tether: decimal(4, 9),
+    keepOut: fc.option(fc.tuple(coord, coord, coord, decimal(0.2, 0.8)), { nil: undefined, freq: 2 }),
+    caution: fc.option(fc.tuple(coord, coord, coord), { nil: undefined }),
+  })
+  .map((r) => {
+    const keys = Array.from({ length: r.n }, (_, i) => `N${i}`);
+    const edges: StationDocumentInput['edges'] = [];
+    const pairs = new Set<string>();
+    const addEdge = (a: number, b: number, kind: 'handrail' | 'hop' | 'ride', closed = false) => {
+      const pair = `${Math.min(a, b)}-${Math.max(a, b)}-${kind}`;
+      if (a === b || pairs.has(pair)) return;
+      pairs.add(pair);
+      const lengthM = r.givenLength[edges.length % 12];
+      edges.push({ from: keys[a], to: keys[b], kind, closed, ...(lengthM !== undefined ? { lengthM } : {}) });
+    };
+    for (let i = 1; i < r.n; i++) addEdge(i, r.parents[i] % i, 'handrail');
+    for (const [a, b, kind, closed] of r.extra) addEdge(a % r.n, b % r.n, kind, closed && kind !== 'handrail');
+    const hazards: StationDocumentInput['hazards'] = [];
+    if (r.keepOut) {
+      const [x, y, z, radiusM] = r.keepOut;
+      hazards.push({ key: 'KO', kind: 'keep-out', shape: 'sphere', center: [x, y, z], radiusM });
+    }
+    if (r.caution) {
+      const [x, y, z] = r.caution;
+      hazards.push({ key: 'CA', kind: 'caution', shape: 'box', min: [x, y, z], max: [x + 3, y + 3, z + 3] });
+    }
+    const input: StationDocumentInput = {
+      format: 'tetherwise.station',
+      version: 1,
+      name: 'random',
+      settings: {
+        tetherLengthM: r.tether,
+        speedsMps: { handrail: r.handrail, hop: r.hop, ride: r.ride },
+        hopSeconds: r.hopSeconds,
+        swapSeconds: r.swapSeconds,
+      },
+      nodes: keys.map((key, i) => ({ key, kind: r.kinds[i] as 'anchor', position: r.positions[i] })),
+      edges,
+      hazards,
+    };
+    return StationDocumentSchema.parse(input);
+  });
