@@ -8,16 +8,19 @@ import { REACH_TOLERANCE_M, reachCheck, workPoint } from './reach';
  *
  * Candidates that reach no target are dropped, candidates reaching the same targets are merged
  * (the one with the smaller total distance stays) and candidates whose targets are a strict subset
- * of another's are dropped: none of this changes the smallest count. When at most
- * EXACT_CANDIDATE_LIMIT candidates remain the answer is exact (branch and bound over bitmasks,
- * seeded with the greedy answer, so a greedy answer that is already optimal is kept); beyond, it is
- * the classic greedy (most newly covered targets; ties by the smaller summed distance to them, then
- * the earlier candidate). Every covered target is assigned to its nearest chosen socket.
+ * of another's are dropped (skipped above DOMINANCE_LIMIT distinct candidates): none of this
+ * changes the smallest count, and a grid of many candidates often shrinks enough to be solved
+ * exactly. When at most EXACT_CANDIDATE_LIMIT candidates remain the answer is exact (branch and
+ * bound over bitmasks, seeded with the greedy answer, so a greedy answer that is already optimal is
+ * kept); beyond, it is the classic greedy over every reaching candidate (most newly covered targets;
+ * ties by the smaller summed distance to them, then the earlier candidate). Every covered target is
+ * assigned to its nearest chosen socket. Exact answers list sockets in candidate order, greedy ones
+ * in pick order.
  */
 
 export const EXACT_CANDIDATE_LIMIT = 30;
-/** Above this many reaching candidates the quadratic dominance pass is skipped (the plan is greedy then anyway). */
-const DOMINANCE_LIMIT = 3000;
+/** Above this many distinct candidates the quadratic dominance pass is skipped: the plan is greedy then. */
+const DOMINANCE_LIMIT = 1500;
 
 export interface SocketCandidate {
   /** an existing socket's key; without one the candidate is a new socket on a truss face */
@@ -71,7 +74,8 @@ function coverage(input: PlanSocketsInput): Coverage {
     const c = workPoint(cand.position, cand.normal, input.standOffM);
     const set = new Uint32Array(words);
     input.targets.forEach((t, ti) => {
-      const d = Math.hypot(t[0] - c[0], t[1] - c[1], t[2] - c[2]);
+      const dx = t[0] - c[0], dy = t[1] - c[1], dz = t[2] - c[2];
+      const d = Math.sqrt(dx * dx + dy * dy + dz * dz);
       distance[ci * n + ti] = d;
       if (d <= limit) set[ti >>> 5] |= 1 << (ti & 31);
     });
@@ -91,8 +95,14 @@ function gainOver(set: Uint32Array, covered: Uint32Array): number {
 
 function distanceOver(cov: Coverage, c: number, n: number, covered: Uint32Array | null): number {
   let sum = 0;
-  for (let t = 0; t < n; t++) {
-    if (has(cov.sets[c], t) && !(covered && has(covered, t))) sum += cov.distance[c * n + t];
+  const set = cov.sets[c];
+  for (let w = 0; w < set.length; w++) {
+    let bits = covered ? set[w] & ~covered[w] : set[w];
+    while (bits !== 0) {
+      const low = bits & -bits;
+      sum += cov.distance[c * n + w * 32 + (31 - Math.clz32(low))];
+      bits ^= low;
+    }
   }
   return sum;
 }
@@ -129,26 +139,29 @@ function greedyCover(cov: Coverage, n: number, pool: readonly number[]): number[
   return chosen;
 }
 
-/** Merges candidates with equal coverage and drops strictly dominated ones (quadratic: callers cap it). */
-function undominated(cov: Coverage, n: number, pool: readonly number[]): number[] {
-  const total = pool.map((c) => distanceOver(cov, c, n, null));
-  const alive = pool.map(() => true);
-  for (let a = 0; a < pool.length; a++) {
-    for (let b = 0; b < pool.length && alive[a]; b++) {
-      if (a === b || !alive[b]) continue;
-      const sa = cov.sets[pool[a]];
-      const sb = cov.sets[pool[b]];
-      let aInB = true;
-      let bInA = true;
-      for (let w = 0; w < cov.words; w++) {
-        if (sa[w] & ~sb[w]) aInB = false;
-        if (sb[w] & ~sa[w]) bInA = false;
-      }
-      const equal = aInB && bInA;
-      if ((aInB && !equal) || (equal && (total[b] < total[a] || (total[b] === total[a] && b < a)))) alive[a] = false;
-    }
+/** Of candidates reaching the same targets, keeps the one with the smallest total distance (then the first). */
+function mergeEqual(cov: Coverage, n: number, pool: readonly number[]): number[] {
+  const kept = new Map<string, { c: number; total: number }>();
+  for (const c of pool) {
+    const key = cov.sets[c].join(',');
+    const total = distanceOver(cov, c, n, null);
+    const seen = kept.get(key);
+    if (!seen || total < seen.total) kept.set(key, { c, total });
   }
-  return pool.filter((_, i) => alive[i]);
+  return [...kept.values()].map((k) => k.c).sort((a, b) => a - b);
+}
+
+/** Drops candidates whose targets are a strict subset of another's (quadratic: callers cap it). */
+function undominated(cov: Coverage, pool: readonly number[]): number[] {
+  return pool.filter((a) =>
+    pool.every((b) => {
+      if (a === b) return true;
+      const sa = cov.sets[a];
+      const sb = cov.sets[b];
+      for (let w = 0; w < cov.words; w++) if (sa[w] & ~sb[w]) return true;
+      return false;
+    }),
+  );
 }
 
 /**
@@ -237,7 +250,8 @@ export function planSockets(input: PlanSocketsInput): SocketPlan {
   const method = input.method ?? 'auto';
   const cov = coverage(input);
   const reaching = cov.sets.flatMap((set, c) => (set.some((w) => w !== 0) ? [c] : []));
-  const pool = method !== 'greedy' && reaching.length <= DOMINANCE_LIMIT ? undominated(cov, n, reaching) : reaching;
+  const merged = method === 'greedy' ? reaching : mergeEqual(cov, n, reaching);
+  const pool = method !== 'greedy' && merged.length <= DOMINANCE_LIMIT ? undominated(cov, merged) : merged;
   const exact = method === 'exact' || (method === 'auto' && pool.length <= EXACT_CANDIDATE_LIMIT);
   let chosen = greedyCover(cov, n, exact ? pool : reaching);
   let nodes = 0;
