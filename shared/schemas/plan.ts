@@ -58,7 +58,10 @@ export const TaskSchema = z.strictObject({
   /** node key of the worksite */
   worksite: KeySchema,
   crew: TaskCrewSchema,
-  durationSeconds: seconds('duration', 1),
+  durationSeconds: seconds('duration', 1).refine(
+    Number.isInteger,
+    'duration must be a whole number of seconds',
+  ),
   /** e.g. mating connectors that carry solar-array power: only during orbital night */
   eclipseOnly: z.boolean().default(false),
   /** moving a large item: translation to this task is slowed by the station's carry factor */
