@@ -5,10 +5,10 @@ import { Alert } from '@/components/ui/alert';
 import { TextLink } from '@/components/ui/text-link';
 import { paths } from '@/config/paths';
 import { isApiError } from '@/lib/api-client';
-import { getInvitationQueryOptions, useInvitation } from '@/features/auth/api/get-invitation';
+import { getInvitationQueryOptions, type Invitation } from '@/features/auth/api/get-invitation';
 import { SetPasswordForm } from '@/features/auth/components/set-password-form';
 
-type LoaderData = { status: 'ok'; token: string } | { status: 'missing' | 'expired' };
+type LoaderData = { status: 'ok'; token: string; invitation: Invitation } | { status: 'missing' | 'expired' };
 
 export const clientLoader =
   (queryClient: QueryClient) =>
@@ -16,18 +16,16 @@ export const clientLoader =
     const token = new URL(request.url).searchParams.get('token');
     if (!token) return { status: 'missing' };
     try {
-      await queryClient.ensureQueryData(getInvitationQueryOptions(token));
-      return { status: 'ok', token };
+      const invitation = await queryClient.fetchQuery(getInvitationQueryOptions(token));
+      return { status: 'ok', token, invitation };
     } catch (error) {
       if (isApiError(error) && error.status === 404) return { status: 'expired' };
       throw error;
     }
   };
 
-function InvitationForm({ token }: { token: string }) {
+function InvitationForm({ token, invitation }: { token: string; invitation: Invitation }) {
   const navigate = useNavigate();
-  const { data: invitation } = useInvitation(token);
-  if (!invitation) return null;
   return (
     <>
       <p className="mb-5 text-sm text-text-muted">
@@ -48,7 +46,7 @@ export default function SetPasswordRoute() {
   return (
     <AuthLayout title="Set your password">
       {data.status === 'ok' ? (
-        <InvitationForm token={data.token} />
+        <InvitationForm token={data.token} invitation={data.invitation} />
       ) : (
         <>
           <Alert tone="caution" title="This link cannot be used">

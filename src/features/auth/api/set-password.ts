@@ -2,7 +2,6 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { SetPasswordInput, User } from '@shared/schemas/auth';
 import { api } from '@/lib/api-client';
 import { setSignedInUser } from '@/lib/authorization';
-import { invitationKeys } from './keys';
 
 export function setPassword(input: SetPasswordInput): Promise<{ user: User }> {
   return api.post('/auth/set-password', input);
@@ -12,10 +11,8 @@ export function useSetPassword({ onSuccess }: { onSuccess?: (user: User) => void
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: setPassword,
-    onSuccess: ({ user }, input) => {
+    onSuccess: ({ user }) => {
       setSignedInUser(queryClient, user);
-      // the token is spent now
-      queryClient.removeQueries({ queryKey: invitationKeys.detail(input.token) });
       onSuccess?.(user);
     },
   });

@@ -43,7 +43,7 @@ export function PeopleTable({ people, currentUserId }: { people: UserAdminView[]
             <Th>E-mail</Th>
             <Th>Role</Th>
             <Th>Status</Th>
-            <Th>Invited</Th>
+            <Th>Added</Th>
             <Th>
               <span className="sr-only">Actions</span>
             </Th>

@@ -1,0 +1,100 @@
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { chromium, type BrowserContext, type ConsoleMessage, type Page } from 'playwright-core';
+import { inject } from 'vitest';
+
+const root = path.resolve(import.meta.dirname, '../..');
+export const SCREENSHOT_DIR = path.join(root, 'screenshots');
+
+const CHROMIUM_ARGS = [
+  '--no-sandbox',
+  '--disable-gpu',
+  '--disable-quic',
+  '--no-first-run',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
+  '--use-angle=swiftshader',
+  '--enable-unsafe-swiftshader',
+];
+
+/**
+ * Chromium logs every 4xx response as a console error. These two are answers the app asks for on
+ * purpose ("not signed in", "wrong password"); any other failed response still fails the test.
+ */
+interface ExpectedHttpError {
+  path: string | RegExp;
+  status: number;
+}
+const APP_HTTP_ANSWERS: ExpectedHttpError[] = [
+  { path: '/api/auth/me', status: 401 },
+  { path: '/api/auth/sign-in', status: 401 },
+];
+
+export interface BrowserSession {
+  page: Page;
+  context: BrowserContext;
+  baseURL: string;
+  /** console errors and uncaught page errors seen so far */
+  errors: string[];
+  /** a test that provokes a refusal on purpose (a 409, a spent link) declares it here */
+  expectHttpError: (path: string | RegExp, status: number) => void;
+  goto: (pathname: string) => Promise<void>;
+  screenshot: (name: string) => Promise<string>;
+  close: () => Promise<void>;
+}
+
+function isExpectedHttpError(message: ConsoleMessage, expected: ExpectedHttpError[]): boolean {
+  const status = /status of (\d{3})/.exec(message.text())?.[1];
+  if (!status) return false;
+  const url = message.location().url;
+  const pathname = url ? new URL(url).pathname : '';
+  return expected.some(
+    (e) =>
+      String(e.status) === status &&
+      (typeof e.path === 'string' ? e.path === pathname : e.path.test(pathname)),
+  );
+}
+
+export async function openBrowser(): Promise<BrowserSession> {
+  const baseURL = inject('baseURL');
+  const profileDir = fs.mkdtempSync(path.join(os.tmpdir(), 'tetherwise-chromium-'));
+  const context = await chromium.launchPersistentContext(profileDir, {
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    headless: true,
+    args: CHROMIUM_ARGS,
+    viewport: { width: 1360, height: 860 },
+    baseURL,
+  });
+  const page = context.pages()[0] ?? (await context.newPage());
+  const errors: string[] = [];
+  const expected = [...APP_HTTP_ANSWERS];
+  page.on('console', (message) => {
+    if (message.type() === 'error' && !isExpectedHttpError(message, expected)) {
+      errors.push(`console.error: ${message.text()} (${message.location().url})`);
+    }
+  });
+  page.on('pageerror', (error) => errors.push(`page error: ${error.stack ?? error.message}`));
+
+  return {
+    page,
+    context,
+    baseURL,
+    errors,
+    expectHttpError: (path, status) => expected.push({ path, status }),
+    goto: async (pathname) => {
+      await page.goto(new URL(pathname, baseURL).href);
+    },
+    screenshot: async (name) => {
+      fs.mkdirSync(SCREENSHOT_DIR, { recursive: true });
+      const file = path.join(SCREENSHOT_DIR, `${name}.png`);
+      await page.screenshot({ path: file, fullPage: true });
+      return file;
+    },
+    close: async () => {
+      await context.close();
+      fs.rmSync(profileDir, { recursive: true, force: true });
+    },
+  };
+}
