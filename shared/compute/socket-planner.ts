@@ -12,7 +12,8 @@ import { REACH_TOLERANCE_M, reachCheck, workPoint } from './reach';
  * changes the smallest count, and a grid of many candidates often shrinks enough to be solved
  * exactly. When at most EXACT_CANDIDATE_LIMIT candidates remain the answer is exact (branch and
  * bound over bitmasks, seeded with the greedy answer, so a greedy answer that is already optimal is
- * kept); beyond, it is the classic greedy over every reaching candidate (most newly covered targets;
+ * kept; a search that runs past its node budget returns its best cover so far, marked not exact);
+ * beyond, it is the classic greedy over every reaching candidate (most newly covered targets;
  * ties by the smaller summed distance to them, then the earlier candidate). Every covered target is
  * assigned to its nearest chosen socket. Exact answers list sockets in candidate order, greedy ones
  * in pick order.
@@ -21,6 +22,8 @@ import { REACH_TOLERANCE_M, reachCheck, workPoint } from './reach';
 export const EXACT_CANDIDATE_LIMIT = 30;
 /** Above this many distinct candidates the quadratic dominance pass is skipped: the plan is greedy then. */
 const DOMINANCE_LIMIT = 1500;
+/** Keeps a pathological instance from holding a request: realistic ones need well under 10^4 nodes. */
+export const SEARCH_NODE_BUDGET = 2_000_000;
 
 export interface SocketCandidate {
   /** an existing socket's key; without one the candidate is a new socket on a truss face */
@@ -38,6 +41,8 @@ export interface PlanSocketsInput {
   pitchStepDeg?: number;
   /** `auto` (default): exact when few enough candidates remain, else greedy */
   method?: 'auto' | 'exact' | 'greedy';
+  /** search nodes before the exact search gives up and returns its best so far with exact: false */
+  nodeBudget?: number;
 }
 
 export interface SocketPlan extends SocketPlanResult {
@@ -170,12 +175,17 @@ function undominated(cov: Coverage, pool: readonly number[]): number[] {
  * at a level is excluded from its later siblings, so no set is searched twice. The lower bound is
  * the number of open targets with pairwise disjoint options found by one greedy pass.
  */
-function exactHittingSet(masks: number[], gainOrder: (options: number, chosen: number) => number[], seed: number) {
+function exactHittingSet(
+  masks: number[],
+  gainOrder: (options: number, chosen: number) => number[],
+  seed: number,
+  nodeBudget: number,
+) {
   let best = seed;
   let bestCount = popcount(seed);
   let nodes = 0;
   const search = (chosen: number, count: number, excluded: number) => {
-    nodes++;
+    if (++nodes > nodeBudget) return;
     let pick = -1;
     let pickOptions = 33;
     let bound = 0;
@@ -206,14 +216,14 @@ function exactHittingSet(masks: number[], gainOrder: (options: number, chosen: n
     for (const bit of gainOrder(pick, chosen)) {
       search((chosen | bit) >>> 0, count + 1, tried);
       tried = (tried | bit) >>> 0;
-      if (count + 1 >= bestCount) return;
+      if (count + 1 >= bestCount || nodes > nodeBudget) return;
     }
   };
   search(0, 0, 0);
-  return { best, nodes };
+  return { best, nodes: Math.min(nodes, nodeBudget), complete: nodes <= nodeBudget };
 }
 
-function exactCover(cov: Coverage, n: number, pool: readonly number[], seed: readonly number[]) {
+function exactCover(cov: Coverage, n: number, pool: readonly number[], seed: readonly number[], nodeBudget: number) {
   if (pool.length > EXACT_CANDIDATE_LIMIT) {
     throw new RangeError(`exact planning takes at most ${EXACT_CANDIDATE_LIMIT} useful candidates (got ${pool.length})`);
   }
@@ -240,9 +250,9 @@ function exactCover(cov: Coverage, n: number, pool: readonly number[], seed: rea
     }
     return bits.sort((x, y) => y.gain - x.gain).map((x) => x.bit);
   };
-  const { best, nodes } = exactHittingSet(masks, gainOrder, seedMask);
+  const { best, nodes, complete } = exactHittingSet(masks, gainOrder, seedMask, nodeBudget);
   const chosen = pool.filter((_, bit) => best & (1 << bit));
-  return { chosen, nodes };
+  return { chosen, nodes, complete };
 }
 
 export function planSockets(input: PlanSocketsInput): SocketPlan {
@@ -252,11 +262,12 @@ export function planSockets(input: PlanSocketsInput): SocketPlan {
   const reaching = cov.sets.flatMap((set, c) => (set.some((w) => w !== 0) ? [c] : []));
   const merged = method === 'greedy' ? reaching : mergeEqual(cov, n, reaching);
   const pool = method !== 'greedy' && merged.length <= DOMINANCE_LIMIT ? undominated(cov, merged) : merged;
-  const exact = method === 'exact' || (method === 'auto' && pool.length <= EXACT_CANDIDATE_LIMIT);
+  let exact = method === 'exact' || (method === 'auto' && pool.length <= EXACT_CANDIDATE_LIMIT);
   let chosen = greedyCover(cov, n, exact ? pool : reaching);
   let nodes = 0;
   if (exact) {
-    const result = exactCover(cov, n, pool, chosen);
+    const result = exactCover(cov, n, pool, chosen, input.nodeBudget ?? SEARCH_NODE_BUDGET);
+    exact = result.complete;
     chosen = result.chosen;
     nodes = result.nodes;
   }

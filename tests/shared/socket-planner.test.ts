@@ -192,6 +192,10 @@ describe('socket planner cases', () => {
     expect(cov.map((r) => r.filter(Boolean).length)).toEqual([4, 3, 3]);
     expect(planSockets({ ...inst, method: 'greedy' }).sockets).toHaveLength(3);
     expect(planSockets(inst).sockets).toEqual(['A1', 'A2']);
+    const cut = planSockets({ ...inst, nodeBudget: 1 });
+    expect(cut.exact).toBe(false);
+    expect(cut.sockets).toHaveLength(3);
+    expect(cut.uncovered).toEqual([]);
   });
 
   it('handles no candidates and no targets', () => {
