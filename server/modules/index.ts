@@ -5,6 +5,10 @@ import { authRouter } from './auth/auth.router';
 import { healthRouter } from './health/health.router';
 import { mailboxRouter } from './mailbox/mailbox.router';
 import { usersRouter } from './users/users.router';
+import { stationsRouter } from './stations/stations.router';
+import { annotationsRouter } from './annotations/annotations.router';
+import { computeRouter } from './compute/compute.router';
+import { plansRouter } from './plans/plans.router';
 
 /** Every API module, mounted in this order. Add a module's router here. */
 export const apiModules: ((ctx: AppContext) => Router)[] = [
@@ -13,4 +17,8 @@ export const apiModules: ((ctx: AppContext) => Router)[] = [
   usersRouter,
   mailboxRouter,
   activityRouter,
+  stationsRouter,
+  annotationsRouter,
+  computeRouter,
+  plansRouter,
 ];

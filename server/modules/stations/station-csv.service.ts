@@ -1,0 +1,68 @@
+import { and, eq, or } from 'drizzle-orm';
+import type { AppContext } from '../../context';
+import { edges, nodes } from '../../db/schema';
+import { badRequest } from '../../lib/http-error';
+import { parseStationDocument, type DocumentProblem } from '@shared/schemas/station';
+import { mergeCsvIntoDocument, parseEdgesCsv, parseNodesCsv } from '@shared/schemas/station-csv';
+import { edgeToRow, getStation, loadDocument, nodeToRow, problemsError, writeStation, type WriteRequest } from './stations.service';
+
+export interface CsvFiles {
+  nodes?: { text: string; name: string };
+  edges?: { text: string; name: string };
+}
+
+/**
+ * Merges node and edge tables into a station (nodes upserted by key, edges by ends and kind), all or
+ * nothing: any problem in either file, or in the merged model, and nothing is written.
+ */
+export function importStationCsv(ctx: AppContext, req: WriteRequest, files: CsvFiles) {
+  if (!files.nodes && !files.edges) {
+    throw badRequest('Attach a nodes file, an edges file or both (multipart fields "nodes" and "edges").');
+  }
+  const names = { nodes: files.nodes?.name ?? 'nodes.csv', edges: files.edges?.name ?? 'edges.csv' };
+  const parsedNodes = files.nodes ? parseNodesCsv(files.nodes.text, names.nodes) : { rows: [], problems: [] };
+  const parsedEdges = files.edges ? parseEdgesCsv(files.edges.text, names.edges) : { rows: [], problems: [] };
+  const fileProblems: DocumentProblem[] = [...parsedNodes.problems, ...parsedEdges.problems];
+  if (fileProblems.length) throw problemsError('The CSV import has problems', fileProblems);
+
+  const written = writeStation(ctx, req, (tx, row) => {
+    const current = loadDocument(tx, row);
+    const merged = mergeCsvIntoDocument(current, parsedNodes.rows, parsedEdges.rows, names);
+    if (merged.problems.length) throw problemsError('The CSV import has problems', merged.problems);
+    const checked = parseStationDocument(merged.doc);
+    if (!checked.ok) throw problemsError('The merged station model is not valid', checked.problems);
+
+    const existingNodes = new Set(current.nodes.map((n) => n.key));
+    let ord = current.nodes.length;
+    for (const { value } of parsedNodes.rows) {
+      if (existingNodes.has(value.key)) {
+        const { ord: _keep, ...changes } = nodeToRow(row.id, value, 0);
+        tx.update(nodes).set(changes).where(and(eq(nodes.stationId, row.id), eq(nodes.key, value.key))).run();
+      } else tx.insert(nodes).values(nodeToRow(row.id, value, ord++)).run();
+    }
+    let edgeOrd = current.edges.length;
+    for (const { value } of parsedEdges.rows) {
+      const samePair = and(
+        eq(edges.stationId, row.id),
+        eq(edges.kind, value.kind),
+        or(and(eq(edges.fromKey, value.from), eq(edges.toKey, value.to)), and(eq(edges.fromKey, value.to), eq(edges.toKey, value.from))),
+      );
+      const existing = tx.select({ id: edges.id }).from(edges).where(samePair).get();
+      if (existing) {
+        const { ord: _keep, ...changes } = edgeToRow(row.id, value, 0);
+        tx.update(edges).set(changes).where(eq(edges.id, existing.id)).run();
+      } else tx.insert(edges).values(edgeToRow(row.id, value, edgeOrd++)).run();
+    }
+    const counts = { added: merged.added, updated: merged.updated };
+    return {
+      action: 'station.import-csv',
+      target: [files.nodes?.name, files.edges?.name].filter(Boolean).join(', '),
+      before: undefined,
+      after: counts,
+      summary: `imported CSV (${merged.added.nodes} nodes added, ${merged.updated.nodes} updated; ${merged.added.edges} edges added, ${merged.updated.edges} updated)`,
+      result: counts,
+    };
+  });
+  const station = getStation(ctx.db, req.stationId);
+  return { station, counts: station.counts, added: written.added, updated: written.updated };
+}

@@ -1,0 +1,491 @@
+import { and, asc, count, desc, eq, sql } from 'drizzle-orm';
+import type { BaseSQLiteDatabase } from 'drizzle-orm/sqlite-core';
+import type { RunResult } from 'better-sqlite3';
+import type { AppContext } from '../../context';
+import type { Db } from '../../db/client';
+import * as schema from '../../db/schema';
+import { edges, hazards, nodes, segments, stationAudit, stations, users } from '../../db/schema';
+import { HttpError, badRequest, conflict, notFound } from '../../lib/http-error';
+import { recordActivity } from '../activity/activity.service';
+import {
+  StationSettingsSchema,
+  parseStationDocument,
+  type DocumentProblem,
+  type Hazard,
+  type Segment,
+  type StationDocument,
+  type StationEdge,
+  type StationNode,
+  type Vec3,
+} from '@shared/schemas/station';
+import type {
+  GraphEdge,
+  ImportStationResult,
+  StationAuditEntry,
+  StationCounts,
+  StationGraph,
+  StationSummary,
+} from '@shared/schemas/station-edits';
+
+/** The database or a transaction on it: every reader here works inside a write's transaction too. */
+export type Tx = BaseSQLiteDatabase<'sync', RunResult, typeof schema>;
+export type StationRow = typeof stations.$inferSelect;
+export interface Editor {
+  id: number;
+  name: string;
+}
+
+// ── Change notifications ────────────────────────────────────────────────────────────────────────
+
+export interface StationChange {
+  stationId: number;
+  version: number;
+}
+const listeners = new Set<(change: StationChange) => void>();
+
+/**
+ * Called after every committed write to a station model with its new version, so caches keyed by
+ * (stationId, version), such as compiled route indexes, can drop the old entry. Returns an unsubscribe.
+ */
+export function onStationChanged(listener: (change: StationChange) => void): () => void {
+  listeners.add(listener);
+  return () => listeners.delete(listener);
+}
+
+function emitStationChanged(change: StationChange) {
+  for (const l of listeners) l(change);
+}
+
+// ── Rows ↔ document items ───────────────────────────────────────────────────────────────────────
+
+const opt = <K extends string, V>(key: K, value: V | null | undefined) =>
+  (value === null || value === undefined ? {} : { [key]: value }) as { [P in K]?: V };
+
+export function nodeFromRow(r: typeof nodes.$inferSelect): StationNode {
+  return {
+    key: r.key,
+    kind: r.kind,
+    ...opt('label', r.label),
+    position: [r.x, r.y, r.z],
+    ...(r.nx !== null && r.ny !== null && r.nz !== null ? { normal: [r.nx, r.ny, r.nz] as Vec3 } : {}),
+    ...opt('notes', r.notes),
+  };
+}
+
+export function nodeToRow(stationId: number, n: StationNode, ord: number) {
+  return {
+    stationId,
+    key: n.key,
+    kind: n.kind,
+    label: n.label ?? null,
+    x: n.position[0],
+    y: n.position[1],
+    z: n.position[2],
+    nx: n.normal?.[0] ?? null,
+    ny: n.normal?.[1] ?? null,
+    nz: n.normal?.[2] ?? null,
+    notes: n.notes ?? null,
+    ord,
+  };
+}
+
+export function edgeFromRow(r: typeof edges.$inferSelect): StationEdge {
+  return {
+    from: r.fromKey,
+    to: r.toKey,
+    kind: r.kind,
+    ...opt('lengthM', r.lengthM),
+    ...(r.closed ? { closed: true } : {}),
+    ...opt('label', r.label),
+  };
+}
+
+export function edgeToRow(stationId: number, e: StationEdge, ord: number) {
+  return {
+    stationId,
+    fromKey: e.from,
+    toKey: e.to,
+    kind: e.kind,
+    lengthM: e.lengthM ?? null,
+    closed: e.closed ?? false,
+    label: e.label ?? null,
+    ord,
+  };
+}
+
+export function hazardFromRow(r: typeof hazards.$inferSelect): Hazard {
+  return { key: r.key, kind: r.kind, ...opt('label', r.label), ...JSON.parse(r.shapeJson) } as Hazard;
+}
+
+export function hazardToRow(stationId: number, h: Hazard, ord: number) {
+  const shape = h.shape === 'sphere' ? { shape: h.shape, center: h.center, radiusM: h.radiusM } : { shape: h.shape, min: h.min, max: h.max };
+  return { stationId, key: h.key, kind: h.kind, label: h.label ?? null, shapeJson: JSON.stringify(shape), ord };
+}
+
+export function segmentFromRow(r: typeof segments.$inferSelect): Segment {
+  return {
+    key: r.key,
+    ...opt('label', r.label),
+    kind: r.kind,
+    center: [r.cx, r.cy, r.cz],
+    size: [r.sx, r.sy, r.sz],
+    ...(r.hasRotation ? { rotationDeg: [r.rx, r.ry, r.rz] as Vec3 } : {}),
+  };
+}
+
+export function segmentToRow(stationId: number, s: Segment, ord: number) {
+  const [rx, ry, rz] = s.rotationDeg ?? [0, 0, 0];
+  return {
+    stationId,
+    key: s.key,
+    label: s.label ?? null,
+    kind: s.kind,
+    cx: s.center[0],
+    cy: s.center[1],
+    cz: s.center[2],
+    sx: s.size[0],
+    sy: s.size[1],
+    sz: s.size[2],
+    rx,
+    ry,
+    rz,
+    hasRotation: s.rotationDeg !== undefined,
+    ord,
+  };
+}
+
+// ── Reading ─────────────────────────────────────────────────────────────────────────────────────
+
+export function findStationRow(db: Tx, id: number): StationRow {
+  const row = db.select().from(stations).where(eq(stations.id, id)).get();
+  if (!row) throw notFound('Station');
+  return row;
+}
+
+function countsOf(db: Tx, stationId: number): StationCounts {
+  const n = (table: typeof nodes | typeof edges | typeof hazards | typeof segments) =>
+    db.select({ n: count() }).from(table).where(eq(table.stationId, stationId)).get()?.n ?? 0;
+  return { nodes: n(nodes), edges: n(edges), hazards: n(hazards), segments: n(segments) };
+}
+
+function userRef(db: Tx, id: number | null) {
+  if (id === null) return null;
+  return db.select({ id: users.id, name: users.name }).from(users).where(eq(users.id, id)).get() ?? null;
+}
+
+function toSummary(db: Tx, row: StationRow): StationSummary {
+  return {
+    id: row.id,
+    name: row.name,
+    version: row.version,
+    orbit: { altitudeKm: row.altitudeKm, betaDeg: row.betaDeg },
+    settings: StationSettingsSchema.parse(JSON.parse(row.settingsJson)),
+    counts: countsOf(db, row.id),
+    createdAt: row.createdAt,
+    updatedAt: row.updatedAt,
+    updatedBy: userRef(db, row.updatedBy),
+  };
+}
+
+export function listStations(db: Db): StationSummary[] {
+  return db.select().from(stations).orderBy(asc(stations.name), asc(stations.id)).all().map((r) => toSummary(db, r));
+}
+
+export function getStation(db: Db, id: number): StationSummary {
+  return toSummary(db, findStationRow(db, id));
+}
+
+export function getStationVersion(db: Db, id: number): number {
+  return findStationRow(db, id).version;
+}
+
+function loadRows(db: Tx, stationId: number) {
+  return {
+    segments: db.select().from(segments).where(eq(segments.stationId, stationId)).orderBy(asc(segments.ord), asc(segments.id)).all(),
+    nodes: db.select().from(nodes).where(eq(nodes.stationId, stationId)).orderBy(asc(nodes.ord), asc(nodes.id)).all(),
+    edges: db.select().from(edges).where(eq(edges.stationId, stationId)).orderBy(asc(edges.ord), asc(edges.id)).all(),
+    hazards: db.select().from(hazards).where(eq(hazards.stationId, stationId)).orderBy(asc(hazards.ord), asc(hazards.id)).all(),
+  };
+}
+
+/** The station as a document (the export format); edges carry `lengthM` only where it was given. */
+export function loadDocument(db: Tx, row: StationRow): StationDocument {
+  const rows = loadRows(db, row.id);
+  return {
+    format: 'tetherwise.station',
+    version: 1,
+    name: row.name,
+    orbit: { altitudeKm: row.altitudeKm, betaDeg: row.betaDeg },
+    settings: StationSettingsSchema.parse(JSON.parse(row.settingsJson)),
+    segments: rows.segments.map(segmentFromRow),
+    nodes: rows.nodes.map(nodeFromRow),
+    edges: rows.edges.map(edgeFromRow),
+    hazards: rows.hazards.map(hazardFromRow),
+  };
+}
+
+/** The full, parsed station document, for computations that compile the graph (e.g. routes). */
+export function getStationDocument(db: Db, id: number): StationDocument {
+  return db.transaction((tx) => loadDocument(tx, findStationRow(tx, id)));
+}
+
+/** The document together with the version it was read at, read in one transaction. */
+export function getStationSnapshot(db: Db, id: number): { stationId: number; version: number; document: StationDocument } {
+  return db.transaction((tx) => {
+    const row = findStationRow(tx, id);
+    return { stationId: id, version: row.version, document: loadDocument(tx, row) };
+  });
+}
+
+export function getStationGraph(db: Db, id: number): StationGraph {
+  return db.transaction((tx) => {
+    const row = findStationRow(tx, id);
+    const rows = loadRows(tx, id);
+    const positions = new Map(rows.nodes.map((n) => [n.key, [n.x, n.y, n.z] as const]));
+    const graphEdges: GraphEdge[] = rows.edges.map((r) => {
+      const a = positions.get(r.fromKey);
+      const b = positions.get(r.toKey);
+      const derived = a && b ? Math.hypot(a[0] - b[0], a[1] - b[1], a[2] - b[2]) : 0;
+      return {
+        id: r.id,
+        from: r.fromKey,
+        to: r.toKey,
+        kind: r.kind,
+        lengthM: r.lengthM ?? derived,
+        lengthGiven: r.lengthM !== null,
+        closed: r.closed,
+        ...opt('label', r.label),
+      };
+    });
+    return {
+      station: toSummary(tx, row),
+      segments: rows.segments.map(segmentFromRow),
+      nodes: rows.nodes.map(nodeFromRow),
+      edges: graphEdges,
+      hazards: rows.hazards.map(hazardFromRow),
+    };
+  });
+}
+
+export function exportStationDocument(db: Db, id: number): { fileName: string; document: StationDocument } {
+  const document = getStationDocument(db, id);
+  const base = document.name.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-+|-+$/g, '') || 'station';
+  return { fileName: `${base}.tetherwise.json`, document };
+}
+
+// ── Writing ─────────────────────────────────────────────────────────────────────────────────────
+
+export interface WriteOutcome<R> {
+  action: string;
+  target: string | null;
+  before: unknown;
+  after: unknown;
+  summary: string;
+  result: R;
+  /** re-check the stored model against the document rules before committing (edits) */
+  revalidate?: boolean;
+}
+
+export interface WriteRequest {
+  stationId: number;
+  /** the version the editor loaded; undefined only where a caller documents "replace the latest" */
+  expectedVersion: number | undefined;
+  editor: Editor;
+}
+
+function staleVersion(db: Tx, row: StationRow, expected: number): HttpError {
+  const who = userRef(db, row.updatedBy);
+  return conflict(
+    `This station changed since you loaded it: you had version ${expected}, it is now version ${row.version}` +
+      `${who ? `, last changed by ${who.name}` : ''} at ${row.updatedAt}. Reload it and make your change again; nothing was saved.`,
+    [{ path: 'version', message: `stale: current version is ${row.version}` }],
+  );
+}
+
+export function problemsError(message: string, problems: DocumentProblem[]): HttpError {
+  const first = problems[0];
+  return badRequest(`${message}: ${first.path}: ${first.message}${problems.length > 1 ? ` (and ${problems.length - 1} more)` : ''}`, problems);
+}
+
+/**
+ * The one way a station model changes: in one transaction, check the version the editor loaded, run
+ * the change, optionally re-check the whole stored model, bump the version and write the audit row.
+ * Any throw rolls everything back.
+ */
+export function writeStation<R>(ctx: AppContext, req: WriteRequest, change: (tx: Tx, row: StationRow) => WriteOutcome<R>) {
+  const { outcome, version, name } = ctx.db.transaction((tx) => {
+    const row = findStationRow(tx, req.stationId);
+    if (req.expectedVersion !== undefined && req.expectedVersion !== row.version) throw staleVersion(tx, row, req.expectedVersion);
+    const outcome = change(tx, row);
+    if (outcome.revalidate) {
+      const current = findStationRow(tx, req.stationId);
+      const checked = parseStationDocument(loadDocument(tx, current));
+      if (!checked.ok) throw problemsError('The change would break the station model', checked.problems);
+    }
+    const version = row.version + 1;
+    const bumped = tx
+      .update(stations)
+      .set({ version, updatedBy: req.editor.id, updatedAt: sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))` })
+      .where(and(eq(stations.id, row.id), eq(stations.version, row.version)))
+      .run();
+    if (bumped.changes !== 1) throw staleVersion(tx, findStationRow(tx, row.id), row.version);
+    tx.insert(stationAudit)
+      .values({
+        stationId: row.id,
+        userId: req.editor.id,
+        action: outcome.action,
+        target: outcome.target,
+        beforeJson: outcome.before === undefined ? null : JSON.stringify(outcome.before),
+        afterJson: outcome.after === undefined ? null : JSON.stringify(outcome.after),
+        versionAfter: version,
+      })
+      .run();
+    return { outcome, version, name: findStationRow(tx, row.id).name };
+  });
+  recordActivity(ctx.db, {
+    userId: req.editor.id,
+    kind: `station.${outcome.action}`,
+    summary: `${req.editor.name} ${outcome.summary} on ${name}`,
+    link: `/stations/${req.stationId}`,
+  });
+  emitStationChanged({ stationId: req.stationId, version });
+  return { version, ...outcome.result };
+}
+
+const CHUNK = 400;
+function insertChunked<T>(rows: T[], insert: (chunk: T[]) => void) {
+  for (let i = 0; i < rows.length; i += CHUNK) insert(rows.slice(i, i + CHUNK));
+}
+
+function insertModel(tx: Tx, stationId: number, doc: StationDocument) {
+  insertChunked(doc.segments.map((s, i) => segmentToRow(stationId, s, i)), (c) => tx.insert(segments).values(c).run());
+  insertChunked(doc.nodes.map((n, i) => nodeToRow(stationId, n, i)), (c) => tx.insert(nodes).values(c).run());
+  insertChunked(doc.edges.map((e, i) => edgeToRow(stationId, e, i)), (c) => tx.insert(edges).values(c).run());
+  insertChunked(doc.hazards.map((h, i) => hazardToRow(stationId, h, i)), (c) => tx.insert(hazards).values(c).run());
+}
+
+function deleteModel(tx: Tx, stationId: number) {
+  for (const table of [edges, nodes, hazards, segments]) tx.delete(table).where(eq(table.stationId, stationId)).run();
+}
+
+const docCounts = (doc: StationDocument): StationCounts => ({
+  nodes: doc.nodes.length,
+  edges: doc.edges.length,
+  hazards: doc.hazards.length,
+  segments: doc.segments.length,
+});
+
+/**
+ * Parses an uploaded station document's text: JSON first (the parser's message, with line and
+ * column), then the document rules, every problem by JSON path.
+ */
+export function parseStationDocumentText(text: string): StationDocument {
+  let json: unknown;
+  try {
+    json = JSON.parse(text);
+  } catch (err) {
+    const raw = (err as Error).message.slice(0, 300);
+    const pos = /position (\d+)/.exec(raw);
+    let where = '(document)';
+    if (pos) {
+      const before = text.slice(0, Number(pos[1]));
+      const line = before.split('\n').length;
+      where = `(document) line ${line}, column ${Number(pos[1]) - before.lastIndexOf('\n')}`;
+    }
+    throw badRequest(`The file is not valid JSON: ${raw}`, [{ path: where, message: raw }]);
+  }
+  const parsed = parseStationDocument(json);
+  if (!parsed.ok) throw problemsError('The station document is not valid', parsed.problems);
+  return parsed.doc;
+}
+
+/** Creates a station from a checked document, all in one transaction. */
+export function importStation(ctx: AppContext, doc: StationDocument, editor: Editor | null): ImportStationResult {
+  const id = ctx.db.transaction((tx) => {
+    const row = tx
+      .insert(stations)
+      .values({
+        name: doc.name,
+        version: 1,
+        altitudeKm: doc.orbit.altitudeKm,
+        betaDeg: doc.orbit.betaDeg,
+        settingsJson: JSON.stringify(doc.settings),
+        createdBy: editor?.id ?? null,
+        updatedBy: editor?.id ?? null,
+      })
+      .returning({ id: stations.id })
+      .get();
+    insertModel(tx, row.id, doc);
+    tx.insert(stationAudit)
+      .values({
+        stationId: row.id,
+        userId: editor?.id ?? null,
+        action: 'station.import',
+        target: doc.name,
+        afterJson: JSON.stringify({ name: doc.name, counts: docCounts(doc) }),
+        versionAfter: 1,
+      })
+      .run();
+    return row.id;
+  });
+  recordActivity(ctx.db, {
+    userId: editor?.id ?? null,
+    kind: 'station.import',
+    summary: `${editor?.name ?? 'Setup'} imported station ${doc.name} (${doc.nodes.length} nodes, ${doc.edges.length} edges)`,
+    link: `/stations/${id}`,
+  });
+  const station = getStation(ctx.db, id);
+  return { station, counts: station.counts };
+}
+
+/**
+ * Replaces a station's whole model (name, orbit, settings, segments, nodes, edges, hazards) with a
+ * checked document. Annotations, plans and the audit log stay: they belong to the station, not to
+ * one model version. With no `expectedVersion` the latest version is replaced.
+ */
+export function replaceStationModel(ctx: AppContext, req: WriteRequest, doc: StationDocument): ImportStationResult {
+  writeStation(ctx, req, (tx, row) => {
+    const before = { name: row.name, counts: countsOf(tx, row.id) };
+    deleteModel(tx, row.id);
+    tx.update(stations)
+      .set({ name: doc.name, altitudeKm: doc.orbit.altitudeKm, betaDeg: doc.orbit.betaDeg, settingsJson: JSON.stringify(doc.settings) })
+      .where(eq(stations.id, row.id))
+      .run();
+    insertModel(tx, row.id, doc);
+    return {
+      action: 'station.replace',
+      target: doc.name,
+      before,
+      after: { name: doc.name, counts: docCounts(doc) },
+      summary: `replaced the model (${doc.nodes.length} nodes, ${doc.edges.length} edges)`,
+      result: {},
+    };
+  });
+  const station = getStation(ctx.db, req.stationId);
+  return { station, counts: station.counts };
+}
+
+export function listStationAudit(db: Db, stationId: number, page: number, pageSize: number) {
+  findStationRow(db, stationId);
+  const total = db.select({ n: count() }).from(stationAudit).where(eq(stationAudit.stationId, stationId)).get()?.n ?? 0;
+  const rows = db
+    .select({ a: stationAudit, userName: users.name })
+    .from(stationAudit)
+    .leftJoin(users, eq(users.id, stationAudit.userId))
+    .where(eq(stationAudit.stationId, stationId))
+    .orderBy(desc(stationAudit.id))
+    .limit(pageSize)
+    .offset((page - 1) * pageSize)
+    .all();
+  const items: StationAuditEntry[] = rows.map(({ a, userName }) => ({
+    id: a.id,
+    action: a.action,
+    target: a.target,
+    user: a.userId !== null && userName !== null ? { id: a.userId, name: userName } : null,
+    before: a.beforeJson === null ? null : JSON.parse(a.beforeJson),
+    after: a.afterJson === null ? null : JSON.parse(a.afterJson),
+    versionAfter: a.versionAfter,
+    createdAt: a.createdAt,
+  }));
+  return { items, total, page, pageSize };
+}
