@@ -1,0 +1,174 @@
+import { useState, type ReactNode } from 'react';
+import type { Vec3 } from '@shared/schemas/station';
+import { Alert } from '@/components/ui/alert';
+import { Badge } from '@/components/ui/badge';
+import { Button } from '@/components/ui/button';
+import { EmptyState } from '@/components/ui/card';
+import { describeStationEdit, useEditStation, type StationEdit } from '../api/edit-station';
+import type { EditableGraph, SurfacePick } from '../utils/types';
+import { AuditList } from './audit-list';
+import { ConflictNotice } from './conflict-notice';
+import { ConnectForm } from './connect-form';
+import { DeleteNodeButton } from './delete-node-button';
+import { HazardForm } from './hazard-form';
+import { NodeEdges } from './node-edges';
+import { NodeForm } from './node-form';
+import { SettingsForm } from './settings-form';
+
+export interface EditPanelProps {
+  graph: EditableGraph;
+  selectedKey: string | null;
+  onSelectNode: (key: string | null) => void;
+  /** the latest surface click in the 3D view */
+  pick: SurfacePick | null;
+  /** after a saved edit or a reload: the route refetches the station graph */
+  onChanged: () => void;
+}
+
+function Section({ title, open, children }: { title: string; open?: boolean; children: ReactNode }) {
+  return (
+    <details open={open} className="group rounded-md border border-surface-line">
+      <summary className="cursor-pointer rounded-md px-3 py-2 text-sm font-semibold text-text-strong select-none hover:bg-surface-sunken focus-visible:outline-2 focus-visible:outline-accent">
+        {title}
+      </summary>
+      <div className="space-y-3 border-t border-surface-line px-3 py-3">{children}</div>
+    </details>
+  );
+}
+
+/** The engineer's edit mode: every change carries the version it was made against. */
+export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }: EditPanelProps) {
+  const stationId = graph.station.id;
+  const [savedVersion, setSavedVersion] = useState(0);
+  const [saved, setSaved] = useState<string | null>(null);
+  const [createdCount, setCreatedCount] = useState(0);
+  const [hazardKey, setHazardKey] = useState<string | null>(null);
+  const version = Math.max(graph.station.version, savedVersion);
+
+  const mutation = useEditStation({
+    stationId,
+    onChanged,
+    onSuccess: (result, { edit }) => {
+      if (typeof result?.version === 'number') setSavedVersion(result.version);
+      setSaved(`Saved: ${describeStationEdit(edit)}${result?.version ? ` (version ${result.version})` : ''}.`);
+      if (edit.type === 'create-node') {
+        setCreatedCount((c) => c + 1);
+        onSelectNode(edit.node.key);
+      }
+      if (edit.type === 'delete-node') onSelectNode(null);
+      if (edit.type.endsWith('-hazard')) setHazardKey(null);
+    },
+  });
+  const submit = (edit: StationEdit) => {
+    setSaved(null);
+    mutation.mutate({ version, edit });
+  };
+  const isSaving = mutation.isPending;
+  const selected = selectedKey ? graph.nodes.find((n) => n.key === selectedKey) : undefined;
+  const around: Vec3 = selected?.position ?? [0, 0, 0];
+  const editingHazard = graph.hazards.find((h) => h.key === hazardKey);
+
+  return (
+    <div className="space-y-3" aria-label="Edit the station model">
+      <p className="text-xs text-text-muted">
+        Editing version {version}. A change made against an older version is refused, never merged.
+      </p>
+      {mutation.isError && mutation.variables && (
+        <ConflictNotice
+          error={mutation.error}
+          stationId={stationId}
+          what={describeStationEdit(mutation.variables.edit)}
+          onReload={() => {
+            mutation.reset();
+            onChanged();
+          }}
+          onReapply={(current) => mutation.mutate({ version: current, edit: mutation.variables!.edit })}
+        />
+      )}
+      {saved && !mutation.isError && <Alert tone="success">{saved}</Alert>}
+
+      <Section title={selected ? `Selected node ${selected.key}` : 'Selected node'} open>
+        {selected ? (
+          <>
+            <NodeForm
+              key={`${selected.key}@${graph.station.version}`}
+              graph={graph}
+              node={selected}
+              isSaving={isSaving}
+              onSubmit={submit}
+            />
+            <h4 className="text-sm font-semibold text-text-strong">Edges</h4>
+            <NodeEdges nodeKey={selected.key} edges={graph.edges} isSaving={isSaving} onSubmit={submit} />
+            <DeleteNodeButton
+              nodeKey={selected.key}
+              edges={graph.edges}
+              isSaving={isSaving}
+              onConfirm={() => submit({ type: 'delete-node', key: selected.key })}
+            />
+          </>
+        ) : (
+          <EmptyState>Select a node in the 3D view or the node list to move, change, connect or delete it.</EmptyState>
+        )}
+      </Section>
+
+      <Section title="Add node">
+        <NodeForm
+          key={createdCount}
+          graph={graph}
+          selectedKey={selectedKey}
+          pick={pick}
+          isSaving={isSaving}
+          onSubmit={submit}
+        />
+      </Section>
+
+      <Section title="Connect nodes">
+        <ConnectForm graph={graph} selectedKey={selectedKey} isSaving={isSaving} onSubmit={submit} />
+      </Section>
+
+      <Section title={`Hazards (${graph.hazards.length})`}>
+        <ul className="divide-y divide-surface-line text-sm" aria-label="Hazards">
+          {graph.hazards.map((h) => (
+            <li key={h.key} className="flex flex-wrap items-center gap-2 py-2">
+              <span className="flex-1 font-mono">{h.key}</span>
+              <Badge tone={h.kind === 'keep-out' ? 'danger' : 'caution'}>{h.kind}</Badge>
+              <span className="text-xs text-text-muted">{h.shape}</span>
+              <Button size="sm" variant="secondary" aria-label={`Change hazard ${h.key}`} onClick={() => setHazardKey(h.key)}>
+                Change
+              </Button>
+              <Button
+                size="sm"
+                variant="ghost"
+                disabled={isSaving}
+                aria-label={`Delete hazard ${h.key}`}
+                onClick={() => submit({ type: 'delete-hazard', key: h.key })}
+              >
+                Delete
+              </Button>
+            </li>
+          ))}
+        </ul>
+        <h4 className="text-sm font-semibold text-text-strong">
+          {editingHazard ? `Change ${editingHazard.key}` : 'Add a hazard'}
+        </h4>
+        <HazardForm
+          key={`${hazardKey ?? 'new'}@${graph.station.version}`}
+          hazard={editingHazard}
+          existingKeys={graph.hazards.map((h) => h.key)}
+          around={around}
+          isSaving={isSaving}
+          onSubmit={submit}
+          onCancel={editingHazard ? () => setHazardKey(null) : undefined}
+        />
+      </Section>
+
+      <Section title="Station settings and orbit">
+        <SettingsForm key={graph.station.version} station={graph.station} isSaving={isSaving} onSubmit={submit} />
+      </Section>
+
+      <Section title="Recent edits" open>
+        <AuditList stationId={stationId} />
+      </Section>
+    </div>
+  );
+}

@@ -1,0 +1,156 @@
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { z } from 'zod';
+import { HAZARD_KINDS, HazardSchema, type Hazard, type Vec3 } from '@shared/schemas/station';
+import { formatLength } from '@shared/compute/units';
+import { Button } from '@/components/ui/button';
+import { Field } from '@/components/ui/field';
+import { Input } from '@/components/ui/input';
+import { Select } from '@/components/ui/select';
+import type { StationEdit } from '../api/edit-station';
+import { Vec3Fields } from './vec3-fields';
+
+/** The form keeps both shapes' fields; only the chosen shape's reach the shared hazard schema. */
+const HazardFormSchema = z
+  .object({
+    key: z.string(),
+    kind: z.string(),
+    label: z.string(),
+    shape: z.enum(['sphere', 'box']),
+    center: z.unknown(),
+    radiusM: z.unknown(),
+    min: z.unknown(),
+    max: z.unknown(),
+  })
+  .transform(({ key, kind, label, shape, center, radiusM, min, max }) => ({
+    key,
+    kind,
+    shape,
+    ...(label.trim() ? { label: label.trim() } : {}),
+    ...(shape === 'sphere' ? { center, radiusM } : { min, max }),
+  }))
+  .pipe(HazardSchema);
+
+interface HazardFormValues {
+  key: string;
+  kind: string;
+  label: string;
+  shape: 'sphere' | 'box';
+  center: Vec3;
+  radiusM: number;
+  min: Vec3;
+  max: Vec3;
+}
+
+const KIND_OPTIONS = HAZARD_KINDS.map((k) => ({ value: k, label: k }));
+const SHAPE_OPTIONS = [
+  { value: 'sphere', label: 'sphere' },
+  { value: 'box', label: 'box (axis-aligned)' },
+];
+
+function defaults(hazard: Hazard | undefined, around: Vec3): HazardFormValues {
+  const [x, y, z] = around;
+  const base: HazardFormValues = {
+    key: hazard?.key ?? '',
+    kind: hazard?.kind ?? 'keep-out',
+    label: hazard?.label ?? '',
+    shape: hazard?.shape ?? 'sphere',
+    center: [x, y, z],
+    radiusM: 1,
+    min: [x - 1, y - 1, z - 1],
+    max: [x + 1, y + 1, z + 1],
+  };
+  if (hazard?.shape === 'sphere') return { ...base, center: [...hazard.center], radiusM: hazard.radiusM };
+  if (hazard?.shape === 'box') return { ...base, min: [...hazard.min], max: [...hazard.max] };
+  return base;
+}
+
+interface HazardFormProps {
+  hazard?: Hazard;
+  existingKeys: readonly string[];
+  /** where a new hazard starts: the selected node, say */
+  around: Vec3;
+  isSaving: boolean;
+  onSubmit: (edit: StationEdit) => void;
+  onCancel?: () => void;
+}
+
+export function HazardForm({ hazard, existingKeys, around, isSaving, onSubmit, onCancel }: HazardFormProps) {
+  const {
+    register,
+    handleSubmit,
+    watch,
+    setError,
+    formState: { errors },
+  } = useForm<HazardFormValues, unknown, Hazard>({
+    resolver: zodResolver(HazardFormSchema) as never,
+    defaultValues: defaults(hazard, around),
+  });
+  const shape = watch('shape');
+  const values = watch();
+  const err = errors as Record<string, { message?: string; [i: number]: { message?: string } | undefined } | undefined>;
+  const vecErrors = (name: string) => [0, 1, 2].map((i) => err[name]?.[i]?.message ?? err[name]?.message);
+  const vec = (name: 'center' | 'min' | 'max') =>
+    [0, 1, 2].map((i) => register(`${name}.${i as 0 | 1 | 2}`, { valueAsNumber: true })) as never;
+
+  const submit = handleSubmit((h) => {
+    if (!hazard) {
+      if (existingKeys.includes(h.key)) {
+        setError('key', { message: `${h.key} is already used on this station` });
+        return;
+      }
+      onSubmit({ type: 'create-hazard', hazard: h });
+      return;
+    }
+    const { key: _key, label, ...rest } = h;
+    onSubmit({ type: 'update-hazard', key: hazard.key, hazard: { ...rest, label: label ?? null } });
+  });
+
+  return (
+    <form noValidate onSubmit={submit} className="space-y-3" aria-label={hazard ? `Change hazard ${hazard.key}` : 'Add hazard'}>
+      <div className="grid grid-cols-2 gap-2">
+        <Field label="Key" error={errors.key?.message}>
+          <Input autoComplete="off" readOnly={!!hazard} className="font-mono" {...register('key')} />
+        </Field>
+        <Field label="Kind" error={errors.kind?.message} hint="keep-out blocks routes; caution warns">
+          <Select options={KIND_OPTIONS} {...register('kind')} />
+        </Field>
+      </div>
+      <div className="grid grid-cols-2 gap-2">
+        <Field label="Label" error={errors.label?.message}>
+          <Input autoComplete="off" {...register('label')} />
+        </Field>
+        <Field label="Shape" error={errors.shape?.message}>
+          <Select options={SHAPE_OPTIONS} {...register('shape')} />
+        </Field>
+      </div>
+      {shape === 'sphere' ? (
+        <>
+          <Vec3Fields legend="Centre" values={values.center} errors={vecErrors('center')} fields={vec('center')} />
+          <Field
+            label="Radius (m)"
+            error={err.radiusM?.message}
+            hint={Number.isFinite(values.radiusM) ? formatLength(values.radiusM, 'ft', 2) : undefined}
+          >
+            <Input type="number" step="any" inputMode="decimal" {...register('radiusM', { valueAsNumber: true })} />
+          </Field>
+        </>
+      ) : (
+        <>
+          <Vec3Fields legend="Minimum corner" values={values.min} errors={vecErrors('min')} fields={vec('min')} />
+          <Vec3Fields legend="Maximum corner" values={values.max} errors={vecErrors('max')} fields={vec('max')} />
+        </>
+      )}
+      <div className="flex justify-end gap-2">
+        {onCancel && (
+          <Button variant="secondary" onClick={onCancel}>
+            Cancel
+          </Button>
+        )}
+        <Button type="submit" isLoading={isSaving}>
+          {hazard ? 'Save hazard' : 'Add hazard'}
+        </Button>
+      </div>
+    </form>
+  );
+}
