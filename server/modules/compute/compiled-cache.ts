@@ -1,0 +1,60 @@
+import { eq } from 'drizzle-orm';
+import type { AppContext } from '../../context';
+import type { Db } from '../../db/client';
+import { stations } from '../../db/schema';
+import { notFound } from '../../lib/http-error';
+import { compileStation, type CompiledStation } from '@shared/compute/compiled-station';
+import type { StationDocument } from '@shared/schemas/station';
+import { getStationSnapshot } from '../stations/stations.service';
+
+export interface CompiledEntry {
+  stationId: number;
+  version: number;
+  doc: StationDocument;
+  compiled: CompiledStation;
+}
+
+/** A few stations at a time: compiling a large truss costs far more than keeping its index. */
+export const CACHE_STATIONS = 4;
+
+// per database, so two apps in one process (tests) never see each other's stations
+const caches = new WeakMap<Db, Map<number, CompiledEntry>>();
+
+export function stationVersion(db: Db, stationId: number): number | null {
+  return db.select({ version: stations.version }).from(stations).where(eq(stations.id, stationId)).get()?.version ?? null;
+}
+
+/**
+ * The station's document and query index, compiled once per (station, version). Each call costs
+ * one version lookup; a new version replaces the station's old entry, and the least recently used
+ * station drops out when more than CACHE_STATIONS are held.
+ */
+export function getCompiledStation(ctx: AppContext, stationId: number): CompiledEntry {
+  let cache = caches.get(ctx.db);
+  if (!cache) caches.set(ctx.db, (cache = new Map()));
+  const version = stationVersion(ctx.db, stationId);
+  if (version === null) throw notFound('Station');
+  const hit = cache.get(stationId);
+  if (hit && hit.version === version) {
+    cache.delete(stationId);
+    cache.set(stationId, hit);
+    return hit;
+  }
+  // document and version from one transaction, so an index is never filed under the wrong version
+  const snapshot = getStationSnapshot(ctx.db, stationId);
+  const entry: CompiledEntry = {
+    stationId,
+    version: snapshot.version,
+    doc: snapshot.document,
+    compiled: compileStation(snapshot.document),
+  };
+  cache.delete(stationId);
+  cache.set(stationId, entry);
+  while (cache.size > CACHE_STATIONS) cache.delete(cache.keys().next().value!);
+  return entry;
+}
+
+/** Station ids held, least recently used first. */
+export function cachedStationIds(ctx: AppContext): number[] {
+  return [...(caches.get(ctx.db)?.keys() ?? [])];
+}

@@ -1,0 +1,43 @@
+import type { z } from 'zod';
+import type { AppContext } from '../../context';
+import { defineRoute, mountRoutes } from '../../lib/route';
+import { IdParamsSchema } from '@shared/schemas/auth';
+import { RouteRequestSchema } from '@shared/schemas/route';
+import { ReachRequestSchema, SocketPlanRequestSchema } from '@shared/schemas/sockets';
+import { AcceptSocketPlanInputSchema, OrbitQuerySchema } from './compute.schemas';
+import { acceptSocketPlan, computeReach, computeRoute, computeSocketPlan, orbitFor } from './compute.service';
+
+/** A computation on one station, open to every signed-in role: the body is parsed with `body`. */
+function onStation<S extends z.ZodType>(path: string, body: S, compute: (stationId: number, body: z.infer<S>) => unknown) {
+  return defineRoute({
+    method: 'post',
+    path: `/stations/:id/${path}`,
+    access: 'read',
+    input: { params: IdParamsSchema, body },
+    handler: (_req, _res, input) => compute(input.params.id, input.body as z.infer<S>),
+  });
+}
+
+/** The computations on a station (routes, reach, socket plan) and the orbit calculator. */
+export function computeRouter(ctx: AppContext) {
+  return mountRoutes('/api', [
+    onStation('routes', RouteRequestSchema, (id, body) => computeRoute(ctx, id, body)),
+    onStation('reach', ReachRequestSchema, (id, body) => computeReach(ctx, id, body)),
+    onStation('socket-plan', SocketPlanRequestSchema, (id, body) => computeSocketPlan(ctx, id, body)),
+    defineRoute({
+      method: 'post',
+      path: '/stations/:id/socket-plan/accept',
+      access: 'sockets:save',
+      status: 201,
+      input: { params: IdParamsSchema, body: AcceptSocketPlanInputSchema },
+      handler: (req, _res, { params, body }) => acceptSocketPlan(ctx, params.id, body, req.user!),
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/orbit',
+      access: 'read',
+      input: { query: OrbitQuerySchema },
+      handler: (_req, _res, { query }) => orbitFor(query),
+    }),
+  ]);
+}

@@ -1,0 +1,154 @@
+import { eq, max } from 'drizzle-orm';
+import type { AppContext } from '../../context';
+import { edges, nodes } from '../../db/schema';
+import { HttpError, badRequest } from '../../lib/http-error';
+import { findRoute, hasNodeKey } from '@shared/compute/routes';
+import { reachCheck } from '@shared/compute/reach';
+import { planSockets, type SocketCandidate } from '@shared/compute/socket-planner';
+import { gridCandidates } from '@shared/compute/truss-faces';
+import { orbitSummary } from '@shared/compute/orbit';
+import type { RouteRequest, RouteResult } from '@shared/schemas/route';
+import type { ReachRequest, ReachResult, SocketPlanRequest, SocketPlanResult } from '@shared/schemas/sockets';
+import type { StationDocument, StationEdge, StationNode, Vec3 } from '@shared/schemas/station';
+import { edgeToRow, findStationRow, loadDocument, nodeToRow, writeStation, type Editor } from '../stations/stations.service';
+import { getCompiledStation, type CompiledEntry } from './compiled-cache';
+import type { AcceptSocketPlanInput, OrbitQuery } from './compute.schemas';
+
+const unknownNode = (key: string, what = 'node') => new HttpError('NOT_FOUND', `The station has no ${what} "${key}".`);
+
+/** A socket by key: 404 when the station has no such node, 400 when the node is not a socket. */
+export function socketNode(doc: StationDocument, key: string, path: string): StationNode & { normal: Vec3 } {
+  const node = doc.nodes.find((n) => n.key === key);
+  if (!node) throw unknownNode(key);
+  if (node.kind !== 'socket' || !node.normal) {
+    throw badRequest(`"${key}" is a ${node.kind}, not a foot-restraint socket.`, [{ path, message: 'not a socket' }]);
+  }
+  return node as StationNode & { normal: Vec3 };
+}
+
+export function routeOn(entry: CompiledEntry, request: RouteRequest): RouteResult {
+  for (const key of [request.from, request.to]) if (!hasNodeKey(entry.compiled, key)) throw unknownNode(key);
+  return findRoute(entry.compiled, entry.doc.settings, request);
+}
+
+export function computeRoute(ctx: AppContext, stationId: number, request: RouteRequest): RouteResult {
+  return routeOn(getCompiledStation(ctx, stationId), request);
+}
+
+export function reachOn(doc: StationDocument, request: ReachRequest): ReachResult {
+  const socket = socketNode(doc, request.socket, 'body.socket');
+  const { reach } = doc.settings;
+  const check = reachCheck({
+    socketPosition: socket.position,
+    socketNormal: socket.normal,
+    target: request.target,
+    standOffM: reach.standOffM,
+    radiusM: reach.radiusM,
+    yawStepDeg: reach.yawStepDeg,
+    pitchStepDeg: reach.pitchStepDeg,
+  });
+  const len = Math.hypot(...socket.normal);
+  const workPoint = socket.position.map((p, i) => p + (socket.normal[i] / len) * reach.standOffM) as Vec3;
+  return { ...check, socket: socket.key, workPoint, standOffM: reach.standOffM, radiusM: reach.radiusM };
+}
+
+export function computeReach(ctx: AppContext, stationId: number, request: ReachRequest): ReachResult {
+  return reachOn(getCompiledStation(ctx, stationId).doc, request);
+}
+
+export function computeSocketPlan(ctx: AppContext, stationId: number, request: SocketPlanRequest): SocketPlanResult {
+  const { doc } = getCompiledStation(ctx, stationId);
+  const { reach } = doc.settings;
+  const listed: SocketCandidate[] = request.candidates
+    ? request.candidates.map((key, i) => socketNode(doc, key, `body.candidates.${i}`))
+    : doc.nodes.filter((n) => n.kind === 'socket' && n.normal).map((n) => n as StationNode & { normal: Vec3 });
+  const candidates: SocketCandidate[] = listed.map(({ key, position, normal }) => ({ key, position, normal }));
+  if (request.gridSpacingM !== undefined) {
+    // only faces a target could be reached from: keeps the candidate count to what matters
+    const grid = gridCandidates(doc.segments, request.gridSpacingM, {
+      near: request.targets,
+      withinM: reach.standOffM + reach.radiusM,
+    });
+    candidates.push(...grid.map(({ position, normal }) => ({ position, normal })));
+  }
+  const { chosen: _chosen, usefulCandidateCount: _useful, searchNodes: _nodes, ...plan } = planSockets({
+    targets: request.targets,
+    candidates,
+    standOffM: reach.standOffM,
+    radiusM: reach.radiusM,
+    yawStepDeg: reach.yawStepDeg,
+    pitchStepDeg: reach.pitchStepDeg,
+  });
+  return plan;
+}
+
+const HANDRAIL_JOIN_KINDS = new Set(['junction', 'anchor', 'worksite']);
+
+/** The first `SKT-NNN` key the station does not use yet. */
+function nextSocketKey(taken: Set<string>): string {
+  for (let i = 1; ; i++) {
+    const key = `SKT-${String(i).padStart(3, '0')}`;
+    if (!taken.has(key)) return key;
+  }
+}
+
+/**
+ * Saves planned sockets as socket nodes, each joined by a hop edge to the nearest handrail node
+ * (a junction, anchor or worksite on a handrail edge), through the stations module's one write
+ * path: one transaction, version checked and bumped, audited.
+ */
+export function acceptSocketPlan(ctx: AppContext, stationId: number, input: AcceptSocketPlanInput, editor: Editor) {
+  return writeStation(ctx, { stationId, expectedVersion: input.version, editor }, (tx) => {
+    const doc = loadDocument(tx, findStationRow(tx, stationId));
+    const onHandrail = new Set(doc.edges.filter((e) => e.kind === 'handrail').flatMap((e) => [e.from, e.to]));
+    const joinable = doc.nodes.filter((n) => HANDRAIL_JOIN_KINDS.has(n.kind) && onHandrail.has(n.key));
+    if (joinable.length === 0) throw badRequest('The station has no handrail node to join a new socket to.');
+    const taken = new Set(doc.nodes.map((n) => n.key));
+    const details: { path: string; message: string }[] = [];
+    const added = input.sockets.map((s, i) => {
+      if (s.key && taken.has(s.key)) details.push({ path: `body.sockets.${i}.key`, message: `the key "${s.key}" is already used` });
+      const key = s.key ?? nextSocketKey(taken);
+      taken.add(key);
+      const len = Math.hypot(...s.normal);
+      let nearest = joinable[0];
+      let best = Infinity;
+      for (const n of joinable) {
+        const d = Math.hypot(n.position[0] - s.position[0], n.position[1] - s.position[1], n.position[2] - s.position[2]);
+        if (d < best) [nearest, best] = [n, d];
+      }
+      const node: StationNode = {
+        key,
+        kind: 'socket',
+        label: s.label || 'Planned foot-restraint socket',
+        position: s.position,
+        normal: s.normal.map((v) => v / len) as Vec3,
+      };
+      const edge: StationEdge = { from: nearest.key, to: key, kind: 'hop' };
+      return { node, edge, hopM: best };
+    });
+    if (details.length) throw badRequest(`The request is not valid: ${details[0].path} ${details[0].message}`, details);
+    const ord = (table: typeof nodes | typeof edges) =>
+      (tx.select({ m: max(table.ord) }).from(table).where(eq(table.stationId, stationId)).get()?.m ?? -1) + 1;
+    const nodeOrd = ord(nodes);
+    const edgeOrd = ord(edges);
+    added.forEach((a, i) => {
+      tx.insert(nodes).values(nodeToRow(stationId, a.node, nodeOrd + i)).run();
+      tx.insert(edges).values(edgeToRow(stationId, a.edge, edgeOrd + i)).run();
+    });
+    const keys = added.map((a) => a.node.key);
+    return {
+      action: 'sockets.accept',
+      target: keys.join(', '),
+      before: undefined,
+      after: { nodes: added.map((a) => a.node), edges: added.map((a) => a.edge) },
+      summary: `added ${keys.length} planned foot-restraint socket${keys.length === 1 ? '' : 's'} (${keys.join(', ')})`,
+      result: { sockets: added.map((a) => ({ ...a.node, joinedTo: a.edge.from, hopM: a.hopM })) },
+      revalidate: true,
+    };
+  });
+}
+
+export function orbitFor(query: OrbitQuery) {
+  const { periodSeconds, eclipseSeconds, sunlitSeconds, criticalBetaDeg, eclipseFraction } = orbitSummary(query);
+  return { periodSeconds, eclipseSeconds, sunlitSeconds, criticalBetaDeg, eclipseFraction, ...query };
+}

@@ -1,0 +1,111 @@
+import Papa from 'papaparse';
+import { buildCueCardPdf, type CueCardDocument, type CueStep } from '../../lib/pdf';
+import { formatElapsed } from '@shared/compute/units';
+import type { TimelineBlock } from '@shared/compute/timeline';
+import type { PlanView } from './plans.service';
+import type { PlanTimeline } from './plan-timeline.service';
+
+export const CSV_HEADER = ['crew', 'type', 'start', 'end', 'duration_min', 'task', 'from', 'to', 'swaps', 'notes'];
+
+function blockNotes(block: TimelineBlock): string {
+  const notes: string[] = [];
+  if (block.type === 'wait' || block.type === 'translate') notes.push(block.label);
+  if (block.type === 'swap' && block.swapNode) notes.push(`clip the new hook at ${block.swapNode}, then release the old one`);
+  if (block.unreached) notes.push('worksite not reached: see the plan warnings');
+  return notes.join('; ');
+}
+
+/** One row per timeline block, both crew members, in time order within each. */
+export function timelineCsv(plan: PlanView, timeline: PlanTimeline): string {
+  const rows: (string | number)[][] = [];
+  for (const member of ['EV1', 'EV2'] as const) {
+    for (const b of timeline.crew[member].blocks) {
+      const task = b.taskIndex === undefined ? undefined : plan.tasks[b.taskIndex];
+      rows.push([
+        `${member} ${plan.crew[member].name}`,
+        b.type,
+        formatElapsed(b.start),
+        formatElapsed(b.end),
+        Math.round(((b.end - b.start) / 60) * 10) / 10,
+        task?.title ?? '',
+        b.from ?? '',
+        b.to ?? '',
+        b.type === 'swap' ? (b.swapNode ?? '') : '',
+        blockNotes(b),
+      ]);
+    }
+  }
+  // CRLF per RFC 4180; a typed title starting with = + - @ must not run as a spreadsheet formula
+  return Papa.unparse({ fields: CSV_HEADER, data: rows }, { newline: '\r\n', escapeFormulae: true });
+}
+
+/** A file name from the plan title: letters, digits and dashes only. */
+export function exportFileName(plan: PlanView, ext: string): string {
+  const slug = plan.title.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 60) || 'plan';
+  return `${slug}-v${plan.version}.${ext}`;
+}
+
+const overlapsNight = (b: { start: number; end: number }, nights: PlanTimeline['nightWindows']) =>
+  nights.some((w) => b.start < w.end && b.end > w.start);
+
+function cueStep(plan: PlanView, b: TimelineBlock, timeline: PlanTimeline): CueStep {
+  const night = overlapsNight(b, timeline.nightWindows);
+  const base = { start: b.start, end: b.end, kind: b.type, night };
+  if (b.type === 'translate' && b.route) {
+    const legs = b.route.legs.slice(b.legStart ?? 0, b.legEnd ?? b.route.legs.length);
+    const metres = legs.reduce((s, l) => s + l.lengthM, 0);
+    const via = legs.length > 1 ? [`via ${legs.slice(0, -1).map((l) => l.to).join(', ')}`] : [];
+    return { ...base, text: `Translate ${b.from} → ${b.to}, ${metres.toFixed(1)} m`, details: via };
+  }
+  if (b.type === 'swap' && b.swapNode) {
+    const swap = b.route?.swaps.find((s) => s.node === b.swapNode);
+    return {
+      ...base,
+      text: `Tether swap at ${b.swapNode}: clip the new hook at ${b.swapNode}, then release the old one`,
+      details: swap ? [`${swap.paidOutM.toFixed(1)} m paid out before the swap`] : [],
+    };
+  }
+  if (b.type === 'work' && b.taskIndex !== undefined) {
+    const task = plan.tasks[b.taskIndex];
+    const reach = timeline.reach.find((r) => r.taskIndex === b.taskIndex)?.reach;
+    const details = [
+      `at ${task.worksite}`,
+      ...(task.socket
+        ? [`foot restraint on ${task.socket}${reach ? `, yaw ${reach.yawSetDeg}°, pitch ${reach.pitchSetDeg}°` : ''}`]
+        : []),
+      ...(task.tools.length ? [`tools: ${task.tools.join(', ')}`] : []),
+      ...(task.eclipseOnly ? ['ECLIPSE ONLY: do this in orbital night'] : []),
+      ...(b.unreached ? ['worksite not reached by the plan: see the warnings'] : []),
+      ...(task.notes ? [task.notes] : []),
+    ];
+    return { ...base, text: task.title, details };
+  }
+  return { ...base, text: b.label };
+}
+
+/** The cue-card model of the plan's timeline: one card per crew member. */
+export function cueCardDocument(plan: PlanView, timeline: PlanTimeline): CueCardDocument {
+  const cards = (['EV1', 'EV2'] as const).map((member) => {
+    const tools = plan.manifest.filter((m) => m.carriedBy === member).map((m) => (m.quantity > 1 ? `${m.name} ×${m.quantity}` : m.name));
+    return {
+      member,
+      name: plan.crew[member].name,
+      tetherLengthM: plan.crew[member].tetherLengthM,
+      tools,
+      steps: timeline.crew[member].blocks.map((b) => cueStep(plan, b, timeline)),
+    };
+  });
+  return {
+    title: plan.title,
+    subtitle: `${plan.stationName} · ${plan.date} · ${plan.status} · version ${plan.version} · ends ${formatElapsed(timeline.endSeconds)} of ${formatElapsed(timeline.timeLimitSeconds)}`,
+    caution: timeline.caution,
+    cards,
+    nightWindows: timeline.nightWindows,
+    warnings: [...timeline.warnings, ...timeline.reachWarnings, ...timeline.inventoryWarnings].map((w) => w.message),
+    formatTime: (s) => formatElapsed(s),
+  };
+}
+
+export function timelinePdf(plan: PlanView, timeline: PlanTimeline): Promise<Buffer> {
+  return buildCueCardPdf(cueCardDocument(plan, timeline));
+}

@@ -1,0 +1,134 @@
+import type { Request } from 'express';
+import { z } from 'zod';
+import type { Permission } from '@shared/auth/permissions';
+import type { AppContext } from '../../context';
+import { defineRoute, mountRoutes } from '../../lib/route';
+import { IdParamsSchema } from '@shared/schemas/auth';
+import {
+  CreatePlanInputSchema,
+  PlanStatusSchema,
+  ReturnPlanInputSchema,
+  ReviewActionInputSchema,
+  UpdatePlanInputSchema,
+} from '@shared/schemas/plan';
+import {
+  approvePlan,
+  createPlan,
+  deletePlan,
+  getPlan,
+  listPlans,
+  returnPlan,
+  submitPlan,
+  updatePlan,
+} from './plans.service';
+import { planTimeline } from './plan-timeline.service';
+import { exportFileName, timelineCsv, timelinePdf } from './plan-export.service';
+
+const VersionSchema = z.number().int('version must be a whole number').min(1, 'version must be at least 1');
+const ReviewBodySchema = ReviewActionInputSchema.extend({ version: VersionSchema });
+const ReturnBodySchema = ReturnPlanInputSchema.extend({ version: VersionSchema });
+const ListQuerySchema = z.strictObject({
+  status: PlanStatusSchema.optional(),
+  stationId: z.coerce.number().int().positive().optional(),
+});
+const DeleteQuerySchema = z.strictObject({
+  version: z.coerce.number().int('version must be a whole number').min(1, 'version must be at least 1'),
+});
+
+function reviewRoute(
+  action: 'submit' | 'approve',
+  access: Permission,
+  run: (req: Request, planId: number, body: z.infer<typeof ReviewBodySchema>) => unknown,
+) {
+  return defineRoute({
+    method: 'post',
+    path: `/:id/${action}`,
+    access,
+    input: { params: IdParamsSchema, body: ReviewBodySchema },
+    handler: (req, _res, { params, body }) => run(req, params.id, body),
+  });
+}
+
+/**
+ * Plans: CRUD, the review cycle, the timeline and its exports. Editing is locked (409) while a plan
+ * is in review or approved; a reviewer — or the author, to withdraw it — returns it to draft first.
+ */
+export function plansRouter(ctx: AppContext) {
+  return mountRoutes('/api/plans', [
+    defineRoute({
+      method: 'get',
+      path: '/',
+      access: 'read',
+      input: { query: ListQuerySchema },
+      handler: (_req, _res, { query }) => listPlans(ctx.db, query),
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/',
+      access: 'plans:edit',
+      status: 201,
+      input: { body: CreatePlanInputSchema },
+      handler: (req, _res, { body }) => createPlan(ctx, body, req.user!),
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/:id',
+      access: 'read',
+      input: { params: IdParamsSchema },
+      handler: (_req, _res, { params }) => getPlan(ctx.db, params.id),
+    }),
+    defineRoute({
+      method: 'patch',
+      path: '/:id',
+      access: 'plans:edit',
+      input: { params: IdParamsSchema, body: UpdatePlanInputSchema },
+      handler: (req, _res, { params, body }) => updatePlan(ctx, params.id, body, req.user!),
+    }),
+    defineRoute({
+      method: 'delete',
+      path: '/:id',
+      access: 'plans:edit',
+      input: { params: IdParamsSchema, query: DeleteQuerySchema },
+      handler: (req, _res, { params, query }) => {
+        deletePlan(ctx, params.id, query.version, req.user!);
+      },
+    }),
+    reviewRoute('submit', 'plans:submit', (req, id, body) => submitPlan(ctx, id, body.version, body.comment || undefined, req.user!)),
+    reviewRoute('approve', 'plans:review', (req, id, body) => approvePlan(ctx, id, body.version, body.comment || undefined, req.user!)),
+    defineRoute({
+      method: 'post',
+      path: '/:id/return',
+      access: 'plans:review',
+      input: { params: IdParamsSchema, body: ReturnBodySchema },
+      handler: (req, _res, { params, body }) => returnPlan(ctx, params.id, body.version, body.comment, req.user!),
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/:id/timeline',
+      access: 'read',
+      input: { params: IdParamsSchema },
+      handler: (_req, _res, { params }) => planTimeline(ctx, params.id).timeline,
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/:id/export.csv',
+      access: 'read',
+      input: { params: IdParamsSchema },
+      handler: (_req, res, { params }) => {
+        const { plan, timeline } = planTimeline(ctx, params.id);
+        res.type('text/csv; charset=utf-8').attachment(exportFileName(plan, 'csv')).send(timelineCsv(plan, timeline));
+      },
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/:id/export.pdf',
+      access: 'read',
+      input: { params: IdParamsSchema },
+      handler: async (_req, res, { params }) => {
+        const { plan, timeline } = planTimeline(ctx, params.id);
+        const pdf = await timelinePdf(plan, timeline);
+        res.type('application/pdf').attachment(exportFileName(plan, 'pdf')).send(pdf);
+      },
+    }),
+  ]);
+}

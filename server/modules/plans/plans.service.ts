@@ -1,0 +1,503 @@
+import { and, asc, desc, eq, inArray, ne } from 'drizzle-orm';
+import { alias } from 'drizzle-orm/sqlite-core';
+import type { AppContext } from '../../context';
+import type { Db } from '../../db/client';
+import { crewSlots, manifestItems, planAudit, plans, reviewComments, stations, tasks, users } from '../../db/schema';
+import { badRequest, conflict, forbidden, notFound } from '../../lib/http-error';
+import type { ErrorDetail } from '@shared/errors';
+import type {
+  CreatePlanInput,
+  ManifestItem,
+  Plan,
+  PlanStatus,
+  ReviewComment,
+  Task,
+  UpdatePlanInput,
+} from '@shared/schemas/plan';
+import type { StationDocument } from '@shared/schemas/station';
+import { recordActivity } from '../activity/activity.service';
+import { getCompiledStation, stationVersion } from '../compute/compiled-cache';
+
+/** Shown with every computed route, reach and timeline (DESIGN §6). */
+export const PLANNING_CAUTION =
+  "This is a planning aid. It does not replace the programme's certified procedures, flight rules, hardware data and safety review, and its defaults must be checked against them.";
+
+export interface PlanView extends Plan {
+  stationName: string;
+  authorName: string | null;
+  approverName: string | null;
+}
+
+export interface PlanListItem {
+  id: number;
+  title: string;
+  stationId: number;
+  stationName: string;
+  date: string;
+  status: PlanStatus;
+  version: number;
+  authorId: number | null;
+  authorName: string | null;
+  updatedAt: string;
+}
+
+export interface Actor {
+  id: number;
+  name: string;
+}
+
+/** The plan's scalar settings, kept together in plans.settings_json. */
+interface PlanSettings {
+  routeMode: Plan['routeMode'];
+  allowRide: boolean;
+  orbitPhaseAtStartDeg: number;
+  betaDegOverride: number | null;
+  timeLimitSeconds: number;
+  egressSeconds: number;
+  ingressSeconds: number;
+}
+
+const SETTING_KEYS = [
+  'routeMode',
+  'allowRide',
+  'orbitPhaseAtStartDeg',
+  'betaDegOverride',
+  'timeLimitSeconds',
+  'egressSeconds',
+  'ingressSeconds',
+] as const satisfies readonly (keyof PlanSettings)[];
+
+const author = alias(users, 'author');
+const approver = alias(users, 'approver');
+
+const planLink = (ctx: AppContext, id: number) => `${ctx.config.publicOrigin}/plans/${id}`;
+
+export function listPlans(db: Db, filter: { status?: PlanStatus; stationId?: number } = {}): PlanListItem[] {
+  const where = and(
+    filter.status ? eq(plans.status, filter.status) : undefined,
+    filter.stationId ? eq(plans.stationId, filter.stationId) : undefined,
+  );
+  return db
+    .select({
+      id: plans.id,
+      title: plans.title,
+      stationId: plans.stationId,
+      stationName: stations.name,
+      date: plans.date,
+      status: plans.status,
+      version: plans.version,
+      authorId: plans.authorId,
+      authorName: author.name,
+      updatedAt: plans.updatedAt,
+    })
+    .from(plans)
+    .innerJoin(stations, eq(stations.id, plans.stationId))
+    .leftJoin(author, eq(author.id, plans.authorId))
+    .where(where)
+    .orderBy(desc(plans.updatedAt), desc(plans.id))
+    .all();
+}
+
+export function getPlan(db: Db, id: number): PlanView {
+  const row = db
+    .select({ plan: plans, stationName: stations.name, authorName: author.name, approverName: approver.name })
+    .from(plans)
+    .innerJoin(stations, eq(stations.id, plans.stationId))
+    .leftJoin(author, eq(author.id, plans.authorId))
+    .leftJoin(approver, eq(approver.id, plans.approverId))
+    .where(eq(plans.id, id))
+    .get();
+  if (!row) throw notFound('Plan');
+  const p = row.plan;
+  const settings = JSON.parse(p.settingsJson) as PlanSettings;
+  const crew = db.select().from(crewSlots).where(eq(crewSlots.planId, id)).all();
+  const slot = (s: 'EV1' | 'EV2') => {
+    const c = crew.find((r) => r.slot === s);
+    return { name: c?.name ?? s, tetherLengthM: c?.tetherLengthM ?? 0 };
+  };
+  const taskRows = db.select().from(tasks).where(eq(tasks.planId, id)).orderBy(asc(tasks.ord)).all();
+  const itemRows = db.select().from(manifestItems).where(eq(manifestItems.planId, id)).orderBy(asc(manifestItems.ord)).all();
+  const comments: ReviewComment[] = db
+    .select({
+      id: reviewComments.id,
+      authorId: reviewComments.authorId,
+      authorName: users.name,
+      action: reviewComments.action,
+      body: reviewComments.body,
+      createdAt: reviewComments.createdAt,
+    })
+    .from(reviewComments)
+    .leftJoin(users, eq(users.id, reviewComments.authorId))
+    .where(eq(reviewComments.planId, id))
+    .orderBy(asc(reviewComments.id))
+    .all()
+    .map((c) => ({ ...c, authorName: c.authorName ?? undefined }));
+  return {
+    id: p.id,
+    title: p.title,
+    stationId: p.stationId,
+    stationName: row.stationName,
+    date: p.date,
+    crew: { EV1: slot('EV1'), EV2: slot('EV2') },
+    ...settings,
+    tasks: taskRows.map(
+      (t): Task => ({
+        id: t.id,
+        title: t.title,
+        worksite: t.worksiteKey,
+        crew: t.crew,
+        durationSeconds: t.durationSeconds,
+        eclipseOnly: t.eclipseOnly,
+        carrying: t.carrying,
+        ...(t.socketKey ? { socket: t.socketKey } : {}),
+        tools: JSON.parse(t.toolsJson) as string[],
+        ...(t.notes ? { notes: t.notes } : {}),
+      }),
+    ),
+    manifest: itemRows.map(
+      (m): ManifestItem => ({
+        id: m.id,
+        name: m.name,
+        kind: m.kind,
+        quantity: m.quantity,
+        carriedBy: m.carriedBy,
+        startsAt: m.startsAt,
+        ...(m.endsAt ? { endsAt: m.endsAt } : {}),
+        ...(m.notes ? { notes: m.notes } : {}),
+      }),
+    ),
+    status: p.status,
+    version: p.version,
+    authorId: p.authorId,
+    authorName: row.authorName,
+    approverId: p.approverId,
+    approverName: row.approverName,
+    submittedAt: p.submittedAt,
+    approvedAt: p.approvedAt,
+    createdAt: p.createdAt,
+    updatedAt: p.updatedAt,
+    reviewComments: comments,
+  };
+}
+
+/** Worksites and sockets the tasks name must be nodes of that kind on the plan's station. */
+export function checkTaskKeys(doc: StationDocument, planTasks: readonly Pick<Task, 'worksite' | 'socket'>[]): ErrorDetail[] {
+  const kindOf = new Map(doc.nodes.map((n) => [n.key, n.kind]));
+  const details: ErrorDetail[] = [];
+  const check = (key: string, wanted: 'worksite' | 'socket', path: string) => {
+    const kind = kindOf.get(key);
+    if (kind === undefined) details.push({ path, message: `the station "${doc.name}" has no node "${key}"` });
+    else if (kind !== wanted) details.push({ path, message: `"${key}" is a ${kind}, not a ${wanted}` });
+  };
+  planTasks.forEach((t, i) => {
+    check(t.worksite, 'worksite', `body.tasks.${i}.worksite`);
+    if (t.socket) check(t.socket, 'socket', `body.tasks.${i}.socket`);
+  });
+  return details;
+}
+
+function stationDocFor(ctx: AppContext, stationId: number): StationDocument {
+  if (stationVersion(ctx.db, stationId) === null) {
+    throw badRequest(`There is no station ${stationId}.`, [{ path: 'body.stationId', message: 'no such station' }]);
+  }
+  return getCompiledStation(ctx, stationId).doc;
+}
+
+function assertKeys(doc: StationDocument, planTasks: readonly Task[]) {
+  const details = checkTaskKeys(doc, planTasks);
+  if (details.length) throw badRequest(`Task ${details[0].path.replace('body.', '')}: ${details[0].message}`, details);
+}
+
+function writeCrew(db: Db, planId: number, crew: CreatePlanInput['crew']) {
+  db.delete(crewSlots).where(eq(crewSlots.planId, planId)).run();
+  for (const slot of ['EV1', 'EV2'] as const) {
+    db.insert(crewSlots).values({ planId, slot, name: crew[slot].name, tetherLengthM: crew[slot].tetherLengthM }).run();
+  }
+}
+
+function writeTasks(db: Db, planId: number, list: readonly Task[]) {
+  db.delete(tasks).where(eq(tasks.planId, planId)).run();
+  list.forEach((t, ord) =>
+    db
+      .insert(tasks)
+      .values({
+        planId,
+        ord,
+        title: t.title,
+        worksiteKey: t.worksite,
+        crew: t.crew,
+        durationSeconds: t.durationSeconds,
+        eclipseOnly: t.eclipseOnly,
+        carrying: t.carrying,
+        socketKey: t.socket ?? null,
+        toolsJson: JSON.stringify(t.tools),
+        notes: t.notes ?? null,
+      })
+      .run(),
+  );
+}
+
+function writeManifest(db: Db, planId: number, list: readonly ManifestItem[]) {
+  db.delete(manifestItems).where(eq(manifestItems.planId, planId)).run();
+  list.forEach((m, ord) =>
+    db
+      .insert(manifestItems)
+      .values({
+        planId,
+        ord,
+        name: m.name,
+        kind: m.kind,
+        quantity: m.quantity,
+        carriedBy: m.carriedBy,
+        startsAt: m.startsAt,
+        endsAt: m.endsAt ?? null,
+        notes: m.notes ?? null,
+      })
+      .run(),
+  );
+}
+
+function audit(db: Db, planId: number, userId: number | null, action: string, before: PlanView | null, after: PlanView | null) {
+  db.insert(planAudit)
+    .values({
+      planId,
+      userId,
+      action,
+      beforeJson: before ? JSON.stringify(before) : null,
+      afterJson: after ? JSON.stringify(after) : null,
+      versionAfter: after?.version ?? (before ? before.version + 1 : 1),
+    })
+    .run();
+}
+
+export function createPlan(ctx: AppContext, input: CreatePlanInput, actor: Actor): PlanView {
+  const doc = stationDocFor(ctx, input.stationId);
+  assertKeys(doc, input.tasks);
+  const settings: PlanSettings = {
+    routeMode: input.routeMode,
+    allowRide: input.allowRide,
+    orbitPhaseAtStartDeg: input.orbitPhaseAtStartDeg,
+    betaDegOverride: input.betaDegOverride ?? null,
+    timeLimitSeconds: input.timeLimitSeconds,
+    egressSeconds: input.egressSeconds,
+    ingressSeconds: input.ingressSeconds,
+  };
+  const plan = ctx.db.transaction((tx) => {
+    const db = tx as unknown as Db;
+    const row = db
+      .insert(plans)
+      .values({
+        stationId: input.stationId,
+        title: input.title,
+        date: input.date,
+        status: 'draft',
+        version: 1,
+        authorId: actor.id,
+        settingsJson: JSON.stringify(settings),
+      })
+      .returning({ id: plans.id })
+      .get();
+    writeCrew(db, row.id, input.crew);
+    writeTasks(db, row.id, input.tasks);
+    writeManifest(db, row.id, input.manifest);
+    const created = getPlan(db, row.id);
+    audit(db, row.id, actor.id, 'create', null, created);
+    return created;
+  });
+  recordActivity(ctx.db, { userId: actor.id, kind: 'plan.created', summary: `${actor.name} started the plan "${plan.title}"`, link: `/plans/${plan.id}` });
+  return plan;
+}
+
+/** 409 unless `version` is the plan's current one, naming who changed it last and when. */
+function assertVersion(db: Db, plan: PlanView, version: number) {
+  if (plan.version === version) return;
+  const last = db
+    .select({ name: users.name, at: planAudit.createdAt })
+    .from(planAudit)
+    .leftJoin(users, eq(users.id, planAudit.userId))
+    .where(eq(planAudit.planId, plan.id))
+    .orderBy(desc(planAudit.id))
+    .get();
+  const who = last?.name ? ` by ${last.name} at ${last.at}` : '';
+  throw conflict(
+    `The plan was changed${who} since you read it: you have version ${version}, the current version is ${plan.version}. Reload it and make your change again.`,
+    [
+      { path: 'version', message: `current version is ${plan.version}` },
+      ...(last?.name ? [{ path: 'changedBy', message: last.name }] : []),
+    ],
+  );
+}
+
+const LOCKED_MESSAGE: Record<PlanStatus, string> = {
+  draft: '',
+  'in-review': 'The plan is in review; return it to draft to edit it.',
+  approved: 'The plan is approved; a reviewer must return it to draft before it can be edited.',
+};
+
+function bump(db: Db, plan: PlanView, set: Partial<typeof plans.$inferInsert>) {
+  const updated = db
+    .update(plans)
+    .set({ ...set, version: plan.version + 1, updatedAt: new Date().toISOString() })
+    .where(and(eq(plans.id, plan.id), eq(plans.version, plan.version)))
+    .returning({ id: plans.id })
+    .get();
+  // the version was checked in the same transaction; this only guards against a second writer process
+  if (!updated) throw conflict('The plan was changed at the same moment; reload it and try again.');
+}
+
+export function updatePlan(ctx: AppContext, id: number, input: UpdatePlanInput, actor: Actor): PlanView {
+  const current = getPlan(ctx.db, id);
+  assertVersion(ctx.db, current, input.version);
+  if (current.status !== 'draft') throw conflict(LOCKED_MESSAGE[current.status]);
+  const stationId = input.stationId ?? current.stationId;
+  const nextTasks = input.tasks ?? current.tasks;
+  if (input.stationId !== undefined || input.tasks !== undefined) assertKeys(stationDocFor(ctx, stationId), nextTasks);
+
+  const settings: PlanSettings = { ...pickSettings(current) };
+  for (const k of SETTING_KEYS) if (input[k] !== undefined) (settings as unknown as Record<string, unknown>)[k] = input[k];
+  const plan = ctx.db.transaction((tx) => {
+    const db = tx as unknown as Db;
+    const before = getPlan(db, id);
+    assertVersion(db, before, input.version);
+    if (before.status !== 'draft') throw conflict(LOCKED_MESSAGE[before.status]);
+    bump(db, before, {
+      stationId,
+      title: input.title ?? before.title,
+      date: input.date ?? before.date,
+      settingsJson: JSON.stringify(settings),
+    });
+    if (input.crew) writeCrew(db, id, input.crew);
+    if (input.tasks) writeTasks(db, id, input.tasks);
+    if (input.manifest) writeManifest(db, id, input.manifest);
+    const after = getPlan(db, id);
+    audit(db, id, actor.id, 'update', before, after);
+    return after;
+  });
+  return plan;
+}
+
+function pickSettings(p: PlanView): PlanSettings {
+  return {
+    routeMode: p.routeMode,
+    allowRide: p.allowRide,
+    orbitPhaseAtStartDeg: p.orbitPhaseAtStartDeg,
+    betaDegOverride: p.betaDegOverride ?? null,
+    timeLimitSeconds: p.timeLimitSeconds,
+    egressSeconds: p.egressSeconds,
+    ingressSeconds: p.ingressSeconds,
+  };
+}
+
+export function deletePlan(ctx: AppContext, id: number, version: number, actor: Actor) {
+  const title = ctx.db.transaction((tx) => {
+    const db = tx as unknown as Db;
+    const before = getPlan(db, id);
+    assertVersion(db, before, version);
+    if (before.status !== 'draft') throw conflict(`Only draft plans can be deleted. ${LOCKED_MESSAGE[before.status]}`);
+    db.delete(plans).where(eq(plans.id, id)).run();
+    return before.title;
+  });
+  recordActivity(ctx.db, { userId: actor.id, kind: 'plan.deleted', summary: `${actor.name} deleted the draft plan "${title}"` });
+}
+
+type ReviewAction = 'submit' | 'approve' | 'return';
+
+const TRANSITIONS: Record<ReviewAction, { from: PlanStatus[]; to: PlanStatus; verb: string }> = {
+  submit: { from: ['draft'], to: 'in-review', verb: 'submitted' },
+  approve: { from: ['in-review'], to: 'approved', verb: 'approved' },
+  // an approved plan can be reopened the same way, else it could never change again
+  return: { from: ['in-review', 'approved'], to: 'draft', verb: 'returned to draft' },
+};
+
+const STATUS_WORDS: Record<PlanStatus, string> = { draft: 'a draft', 'in-review': 'in review', approved: 'approved' };
+
+function transition(ctx: AppContext, id: number, action: ReviewAction, version: number, comment: string | undefined, actor: Actor) {
+  const rule = TRANSITIONS[action];
+  return ctx.db.transaction((tx) => {
+    const db = tx as unknown as Db;
+    const before = getPlan(db, id);
+    assertVersion(db, before, version);
+    if (!rule.from.includes(before.status)) {
+      throw conflict(`The plan is ${STATUS_WORDS[before.status]}, so it cannot be ${rule.verb}.`);
+    }
+    if (action === 'approve' && before.authorId === actor.id) {
+      throw forbidden('You wrote this plan, so you cannot approve it: another planner must review it.');
+    }
+    const now = new Date().toISOString();
+    bump(db, before, {
+      status: rule.to,
+      ...(action === 'submit' ? { submittedAt: now, approverId: null, approvedAt: null } : {}),
+      ...(action === 'approve' ? { approverId: actor.id, approvedAt: now } : {}),
+      ...(action === 'return' ? { approverId: null, approvedAt: null } : {}),
+    });
+    db.insert(reviewComments).values({ planId: id, authorId: actor.id, action, body: comment ?? '' }).run();
+    const after = getPlan(db, id);
+    audit(db, id, actor.id, action, before, after);
+    return after;
+  });
+}
+
+async function sendQuietly(ctx: AppContext, mail: { to: string; subject: string; text: string }) {
+  // the review step is saved either way; a mail server outage must not undo it
+  try {
+    await ctx.mailer.send(mail);
+  } catch (err) {
+    ctx.logger.error({ err, to: mail.to }, 'could not send a plan review e-mail');
+  }
+}
+
+function authorOf(db: Db, plan: PlanView) {
+  if (plan.authorId === null) return null;
+  return db.select({ email: users.email, name: users.name, disabled: users.disabled }).from(users).where(eq(users.id, plan.authorId)).get() ?? null;
+}
+
+export async function submitPlan(ctx: AppContext, id: number, version: number, comment: string | undefined, actor: Actor) {
+  const plan = transition(ctx, id, 'submit', version, comment, actor);
+  const reviewers = ctx.db
+    .select({ email: users.email, name: users.name })
+    .from(users)
+    .where(and(inArray(users.role, ['planner', 'admin']), eq(users.disabled, false), plan.authorId === null ? undefined : ne(users.id, plan.authorId)))
+    .all();
+  for (const r of reviewers) {
+    await sendQuietly(ctx, {
+      to: r.email,
+      subject: `Review requested: "${plan.title}"`,
+      text: [
+        `Hello ${r.name},`,
+        '',
+        `${actor.name} has submitted the EVA plan "${plan.title}" (${plan.stationName}, ${plan.date}) for review.`,
+        ...(comment ? ['', `Their note: ${comment}`] : []),
+        '',
+        `Review it here: ${planLink(ctx, id)}`,
+      ].join('\n'),
+    });
+  }
+  recordActivity(ctx.db, { userId: actor.id, kind: 'plan.submitted', summary: `${actor.name} submitted "${plan.title}" for review`, link: `/plans/${id}` });
+  return plan;
+}
+
+export async function approvePlan(ctx: AppContext, id: number, version: number, comment: string | undefined, actor: Actor) {
+  const plan = transition(ctx, id, 'approve', version, comment, actor);
+  await mailAuthor(ctx, plan, actor, `Approved: "${plan.title}"`, `${actor.name} has approved your EVA plan "${plan.title}".`, comment);
+  recordActivity(ctx.db, { userId: actor.id, kind: 'plan.approved', summary: `${actor.name} approved "${plan.title}"`, link: `/plans/${id}` });
+  return plan;
+}
+
+export async function returnPlan(ctx: AppContext, id: number, version: number, comment: string, actor: Actor) {
+  const plan = transition(ctx, id, 'return', version, comment, actor);
+  await mailAuthor(ctx, plan, actor, `Returned to draft: "${plan.title}"`, `${actor.name} has returned your EVA plan "${plan.title}" to draft.`, comment);
+  recordActivity(ctx.db, { userId: actor.id, kind: 'plan.returned', summary: `${actor.name} returned "${plan.title}" to draft`, link: `/plans/${id}` });
+  return plan;
+}
+
+async function mailAuthor(ctx: AppContext, plan: PlanView, actor: Actor, subject: string, first: string, comment?: string) {
+  const to = authorOf(ctx.db, plan);
+  // an author withdrawing their own plan needs no mail about it
+  if (!to || to.disabled || plan.authorId === actor.id) return;
+  await sendQuietly(ctx, {
+    to: to.email,
+    subject,
+    text: [`Hello ${to.name},`, '', first, ...(comment ? ['', `Comment: ${comment}`] : []), '', `Open the plan: ${planLink(ctx, plan.id)}`].join('\n'),
+  });
+}
+
