@@ -30,10 +30,21 @@ export const paths = {
   },
 } as const;
 
-/** Only same-origin paths: a `redirectTo` from the address bar must not send anyone off-site. */
+const PROBE_ORIGIN = 'http://tetherwise.invalid';
+
+/**
+ * Only same-origin paths: a `redirectTo` from the address bar must not send anyone off-site. The URL
+ * parser decides, because it drops tabs and newlines and reads backslashes as slashes.
+ */
 export function safeRedirectTo(value: string | null | undefined): string {
-  if (!value || !value.startsWith('/') || value.startsWith('//') || value.startsWith('/\\'))
-    return paths.home.getHref();
-  if (value.startsWith(paths.signIn.path)) return paths.home.getHref();
-  return value;
+  const home = paths.home.getHref();
+  if (!value || !value.startsWith('/')) return home;
+  let url: URL;
+  try {
+    url = new URL(value, PROBE_ORIGIN);
+  } catch {
+    return home;
+  }
+  if (url.origin !== PROBE_ORIGIN || url.pathname === paths.signIn.path) return home;
+  return `${url.pathname}${url.search}${url.hash}`;
 }
