@@ -9,6 +9,7 @@ import { stationsRouter } from './stations/stations.router';
 import { annotationsRouter } from './annotations/annotations.router';
 import { computeRouter } from './compute/compute.router';
 import { plansRouter } from './plans/plans.router';
+import { walkthroughsRouter } from './walkthroughs/walkthroughs.router';
 
 /** Every API module, mounted in this order. Add a module's router here. */
 export const apiModules: ((ctx: AppContext) => Router)[] = [
@@ -21,4 +22,5 @@ export const apiModules: ((ctx: AppContext) => Router)[] = [
   annotationsRouter,
   computeRouter,
   plansRouter,
+  walkthroughsRouter,
 ];
