@@ -1,4 +1,5 @@
 import type { AppContext } from '../../context';
+import { seedDemoStation } from './demo-station';
 import { seedDemoUsers } from './demo-users';
 
 /**
@@ -8,6 +9,7 @@ import { seedDemoUsers } from './demo-users';
  */
 export type SeedStep = (ctx: AppContext) => void | Promise<void>;
 export const demoContentSteps: SeedStep[] = [];
+demoContentSteps.push(seedDemoStation);
 
 export async function seedDatabase(ctx: AppContext) {
   const addedUsers = seedDemoUsers(ctx.db);
