@@ -56,6 +56,14 @@ describe('foundation: sign-in, home, people and mailbox in the built app', () =>
     );
     await session.screenshot('home-planner');
 
+    // admin pages refuse with a reason, unknown addresses say so
+    await session.goto('/people');
+    await page.getByRole('heading', { level: 1, name: 'Not allowed' }).waitFor();
+    await page.getByText('Your role does not give access to this page.').waitFor();
+    await session.goto('/no-such-page');
+    await page.getByRole('heading', { level: 1, name: 'Page not found' }).waitFor();
+    await session.goto('/');
+
     // a deep link after sign-out comes back to where it pointed
     await signOut();
     await session.goto('/plans');
@@ -68,6 +76,26 @@ describe('foundation: sign-in, home, people and mailbox in the built app', () =>
   it('shows the server’s clear message on a wrong password and stays on sign-in', async () => {
     const { page } = session;
     await session.goto('/sign-in');
+    // keyboard only: the form is reachable in order and the focused control shows a ring
+    await page.locator('body').click({ position: { x: 5, y: 5 } });
+    const focused = () =>
+      page.evaluate(() => {
+        const el = document.activeElement as HTMLElement;
+        return {
+          label:
+            el.getAttribute('aria-label') ??
+            (el as HTMLInputElement).labels?.[0]?.textContent ??
+            el.textContent,
+          outline: getComputedStyle(el).outlineStyle,
+        };
+      });
+    await page.keyboard.press('Tab');
+    expect(await focused()).toEqual({ label: 'E-mail', outline: 'solid' });
+    await page.keyboard.press('Tab');
+    expect(await focused()).toEqual({ label: 'Password', outline: 'solid' });
+    await page.keyboard.press('Tab');
+    expect(await focused()).toEqual({ label: 'Sign in', outline: 'solid' });
+
     await signIn('planner@example.org', 'not-the-password');
     const alert = page.getByRole('alert');
     await alert.waitFor();
