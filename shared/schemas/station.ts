@@ -20,7 +20,9 @@ export type HazardKind = z.infer<typeof HazardKindSchema>;
 export type SegmentKind = z.infer<typeof SegmentKindSchema>;
 
 /** A finite number: NaN and ±Infinity are refused everywhere a number is read. */
-export const FiniteSchema = z.number().refine(Number.isFinite, 'must be a finite number');
+export const FiniteSchema = z
+  .number({ error: (issue) => (typeof issue.input === 'number' ? 'must be a finite number' : undefined) })
+  .refine(Number.isFinite, 'must be a finite number');
 export const Vec3Schema = z.tuple([FiniteSchema, FiniteSchema, FiniteSchema]);
 export type Vec3 = [number, number, number];
 
