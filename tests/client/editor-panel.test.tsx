@@ -1,0 +1,206 @@
+import { act } from 'react';
+import fc from 'fast-check';
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { StationDocumentSchema } from '@shared/schemas/station';
+import type { StationGraph } from '@shared/schemas/station-edits';
+import { EditPanel } from '@/features/station-editor/components/edit-panel';
+import { suggestNodeKey } from '@/features/station-editor/utils/node-keys';
+import { buildStationDocument, FIXTURE_KEYS } from '../factories/station-document';
+import { render, typeInto, until, type Rendered } from './render';
+
+let rendered: Rendered | undefined;
+afterEach(() => {
+  rendered?.unmount();
+  rendered = undefined;
+  vi.unstubAllGlobals();
+});
+
+function graphAt(version: number): StationGraph {
+  const doc = StationDocumentSchema.parse(buildStationDocument());
+  const pos = new Map(doc.nodes.map((n) => [n.key, n.position]));
+  return {
+    station: {
+      id: 1,
+      name: doc.name,
+      version,
+      orbit: doc.orbit,
+      settings: doc.settings,
+      counts: { nodes: doc.nodes.length, edges: doc.edges.length, hazards: doc.hazards.length, segments: doc.segments.length },
+      createdAt: '2026-01-01T00:00:00.000Z',
+      updatedAt: '2026-01-01T00:00:00.000Z',
+      updatedBy: null,
+    },
+    segments: doc.segments,
+    nodes: doc.nodes,
+    hazards: doc.hazards,
+    edges: doc.edges.map((e, i) => {
+      const [a, b] = [pos.get(e.from)!, pos.get(e.to)!];
+      return {
+        id: i + 1,
+        from: e.from,
+        to: e.to,
+        kind: e.kind,
+        lengthM: e.lengthM ?? Math.hypot(a[0] - b[0], a[1] - b[1], a[2] - b[2]),
+        lengthGiven: e.lengthM !== undefined,
+        closed: e.closed ?? false,
+      };
+    }),
+  };
+}
+
+interface Sent {
+  method: string;
+  path: string;
+  body: { version?: number; node?: Record<string, unknown> };
+}
+
+/** A stand-in for the station API's version check: a write against anything but the current version is refused. */
+function fakeStationApi(current: { version: number; by: string }) {
+  const sent: Sent[] = [];
+  const fetch = vi.fn(async (url: string, init: RequestInit = {}) => {
+    const path = new URL(url, 'http://test').pathname;
+    const method = init.method ?? 'GET';
+    if (method === 'GET') return Response.json({ items: [], total: 0, page: 1, pageSize: 30 });
+    const body = JSON.parse(String(init.body ?? '{}'));
+    sent.push({ method, path, body });
+    if (body.version !== current.version) {
+      return Response.json(
+        {
+          error: {
+            code: 'CONFLICT',
+            message: `This station changed since you loaded it: you had version ${body.version}, it is now version ${current.version}, last changed by ${current.by} at 2026-01-01T10:00:00.000Z. Reload it and make your change again; nothing was saved.`,
+            details: [{ path: 'version', message: `stale: current version is ${current.version}` }],
+          },
+        },
+        { status: 409 },
+      );
+    }
+    current.version += 1;
+    return Response.json({ version: current.version, node: body.node }, { status: method === 'POST' ? 201 : 200 });
+  });
+  vi.stubGlobal('fetch', fetch);
+  return sent;
+}
+
+function form(container: HTMLElement, name: string): HTMLFormElement {
+  const f = container.querySelector(`form[aria-label="${name}"]`);
+  if (!(f instanceof HTMLFormElement)) throw new Error(`no form ${name}`);
+  return f;
+}
+
+function field(scope: HTMLElement, label: string): HTMLInputElement {
+  const labelEl = [...scope.querySelectorAll('label')].find((l) => l.textContent === label);
+  const input = labelEl && scope.ownerDocument.getElementById(labelEl.htmlFor);
+  if (!(input instanceof HTMLInputElement)) throw new Error(`no input labelled ${label}`);
+  return input;
+}
+
+async function click(scope: HTMLElement, text: string | RegExp) {
+  const button = [...scope.querySelectorAll('button')].find((b) =>
+    typeof text === 'string' ? b.textContent === text || b.getAttribute('aria-label') === text : text.test(b.textContent ?? ''),
+  );
+  if (!button) throw new Error(`no button ${text}`);
+  await act(async () => button.click());
+}
+
+describe('suggestNodeKey', () => {
+  it('suggests a key that is free and one past the highest number on that prefix and kind', () => {
+    fc.assert(
+      fc.property(fc.uniqueArray(fc.integer({ min: 1, max: 300 }), { maxLength: 40 }), fc.array(fc.string()), (numbers, others) => {
+        const existing = [...numbers.map((n) => `PB3-A${String(n).padStart(2, '0')}`), ...others];
+        const key = suggestNodeKey(existing, 'PB3', 'anchor');
+        expect(existing).not.toContain(key);
+        const match = /^PB3-A(\d{2,})$/.exec(key);
+        expect(match).not.toBeNull();
+        expect(Number(match![1])).toBeGreaterThan(Math.max(0, ...numbers));
+      }),
+    );
+  });
+
+  it('keeps numbering per kind letter: PB3-A07 exists, the next anchor is PB3-A08 and the first socket PB3-S01', () => {
+    const existing = ['PB3-A07', 'PB3-J02', 'SB1-A09'];
+    expect(suggestNodeKey(existing, 'PB3', 'anchor')).toBe('PB3-A08');
+    expect(suggestNodeKey(existing, 'PB3', 'socket')).toBe('PB3-S01');
+  });
+});
+
+describe('EditPanel', () => {
+  it('adds a socket typed by numbers, sending the loaded version and a unit normal', async () => {
+    const sent = fakeStationApi({ version: 3, by: 'Erin Engineer' });
+    const onChanged = vi.fn();
+    const onSelectNode = vi.fn();
+    rendered = await render(
+      <EditPanel graph={graphAt(3)} selectedKey={null} onSelectNode={onSelectNode} pick={null} onChanged={onChanged} />,
+    );
+    const add = form(rendered.container, 'Add node');
+    const kind = add.querySelector('select')!;
+    await act(async () => {
+      kind.value = 'socket';
+      kind.dispatchEvent(new Event('change', { bubbles: true }));
+    });
+    // the key followed the kind: the first socket on the first segment
+    expect(field(add, 'Key').value).toBe('T1-S01');
+    await typeInto(field(add, 'x (m)'), '4.25');
+    await typeInto(field(add, 'y (m)'), '-1.5');
+    await typeInto(field(add, 'z (m)'), '0');
+    const normalInputs = [...add.querySelectorAll('fieldset')][1].querySelectorAll('input');
+    await typeInto(normalInputs[1] as HTMLInputElement, '-2');
+    await typeInto(normalInputs[2] as HTMLInputElement, '0');
+    await click(add, 'Add node');
+
+    await until(() => rendered!.container.textContent?.includes('Saved: add node T1-S01 (version 4).'));
+    expect(sent).toEqual([
+      {
+        method: 'POST',
+        path: '/api/stations/1/nodes',
+        body: { version: 3, node: { key: 'T1-S01', kind: 'socket', position: [4.25, -1.5, 0], normal: [0, -1, 0] } },
+      },
+    ]);
+    expect(onChanged).toHaveBeenCalledTimes(1);
+    expect(onSelectNode).toHaveBeenCalledWith('T1-S01');
+  });
+
+  it('moves the selected node by the nudge buttons', async () => {
+    const sent = fakeStationApi({ version: 5, by: 'Erin Engineer' });
+    rendered = await render(
+      <EditPanel graph={graphAt(5)} selectedKey={FIXTURE_KEYS.junction} onSelectNode={vi.fn()} pick={null} onChanged={vi.fn()} />,
+    );
+    const change = form(rendered.container, `Change node ${FIXTURE_KEYS.junction}`);
+    await click(change, 'x plus 0.1 m');
+    await click(change, 'x plus 0.1 m');
+    await click(change, 'z minus 0.1 m');
+    await click(change, 'Save node');
+    await until(() => sent.length === 1);
+    expect(sent[0].method).toBe('PATCH');
+    expect(sent[0].path).toBe(`/api/stations/1/nodes/${FIXTURE_KEYS.junction}`);
+    expect(sent[0].body.version).toBe(5);
+    // the fixture junction sits at (5, 0, 1.5)
+    expect(sent[0].body.node?.position).toEqual([5.2, 0, 1.4]);
+  });
+
+  it('refuses a stale edit with who changed the station, then re-applies it against the new version', async () => {
+    const server = { version: 8, by: 'Erin Engineer' };
+    const sent = fakeStationApi(server);
+    const onChanged = vi.fn();
+    rendered = await render(
+      <EditPanel graph={graphAt(7)} selectedKey={FIXTURE_KEYS.junction} onSelectNode={vi.fn()} pick={null} onChanged={onChanged} />,
+    );
+    const change = form(rendered.container, `Change node ${FIXTURE_KEYS.junction}`);
+    await typeInto(field(change, 'Label'), 'Stanchion 3');
+    await click(change, 'Save node');
+
+    const alert = await until(() => rendered!.container.querySelector('[role="alert"]'));
+    expect(alert.textContent).toContain(
+      'Someone else changed the station (now version 8, by Erin Engineer). Your change was not saved.',
+    );
+    expect(server.version).toBe(8);
+    expect(onChanged).not.toHaveBeenCalled();
+
+    await click(rendered.container, 'Reload and re-apply my change');
+    await until(() => rendered!.container.textContent?.includes('Saved: change node T1-J01 (version 9).'));
+    expect(sent.map((s) => s.body.version)).toEqual([7, 8]);
+    expect(sent[1].body.node).toEqual(sent[0].body.node);
+    expect(sent[1].body.node?.label).toBe('Stanchion 3');
+    expect(onChanged).toHaveBeenCalled();
+  });
+});
