@@ -17,7 +17,15 @@ export interface Scratch {
   hMetres: Float64Array;
   headStamp: Int32Array;
   head: Int32Array;
+  layerStamp: number;
+  layerSeen: Int32Array;
+  layerDist: Float64Array;
+  swapStamp: Int32Array;
+  swapLayer: Int32Array;
+  swapReach: Float64Array;
+  sources: Int32Array;
   heap: MinHeap;
+  heap2: MinHeap;
   labels: LabelStore;
 }
 
@@ -67,7 +75,15 @@ export function scratchFor(c: CompiledStation): Scratch {
       hMetres: new Float64Array(n),
       headStamp: new Int32Array(n),
       head: new Int32Array(n),
+      layerStamp: 0,
+      layerSeen: new Int32Array(n),
+      layerDist: new Float64Array(n),
+      swapStamp: new Int32Array(n),
+      swapLayer: new Int32Array(n),
+      swapReach: new Float64Array(n),
+      sources: new Int32Array(n),
       heap: new MinHeap(1024),
+      heap2: new MinHeap(1024),
       labels: new LabelStore(),
     };
     scratchByStation.set(c, s);
@@ -78,6 +94,7 @@ export function scratchFor(c: CompiledStation): Scratch {
     s.seen.fill(0);
     s.hStamp.fill(0);
     s.headStamp.fill(0);
+    s.swapStamp.fill(0);
   }
   return s;
 }
@@ -190,6 +207,22 @@ export interface LabelPath {
  * than another are dropped.
  */
 export function labelSearch(c: CompiledStation, s: number, t: number, p: LabelSearchParams): LabelPath | null {
+  // Short queries finish before the layered swap bound would pay for itself; long ones restart with it.
+  if (p.swapCost === 0 && p.objective === 'sum') return runLabels(c, s, t, p, false, Infinity) as LabelPath | null;
+  const quick = runLabels(c, s, t, p, false, QUICK_LABELS);
+  return quick === 'cap' ? (runLabels(c, s, t, p, true, Infinity) as LabelPath | null) : quick;
+}
+
+const QUICK_LABELS = 12_000;
+
+function runLabels(
+  c: CompiledStation,
+  s: number,
+  t: number,
+  p: LabelSearchParams,
+  useLayers: boolean,
+  cap: number,
+): LabelPath | null | 'cap' {
   const sc = scratchFor(c);
   const stamp = sc.stamp;
   const { hStamp, hSeconds, hMetres, headStamp, head, heap } = sc;
@@ -239,9 +272,15 @@ export function labelSearch(c: CompiledStation, s: number, t: number, p: LabelSe
     hMetres[v] = bm;
     return true;
   };
+  const layers = useLayers ? swapLayers(c, sc, s, t, tether, excludeMask) : -2;
+  if (layers === -1) return null;
+  const { swapStamp, swapLayer, swapReach } = sc;
   const swapsNeeded = (v: number, paid: number): number => {
     const need = hMetres[v] - (tether - paid);
-    return need > TETHER_EPS_M ? Math.ceil(need / tether - 1e-9) : 0;
+    const alt = need > TETHER_EPS_M ? Math.ceil(need / tether - 1e-9) : 0;
+    if (layers === -2) return alt;
+    const k = swapStamp[v] === stamp ? swapLayer[v] + (paid + swapReach[v] > limit ? 1 : 0) : layers + 1;
+    return k > alt ? k : alt;
   };
 
   // adds a label unless dominated; prunes the labels it dominates
@@ -288,6 +327,7 @@ export function labelSearch(c: CompiledStation, s: number, t: number, p: LabelSe
   while (heap.size > 0) {
     const x = heap.pop();
     if (L.dead[x]) continue;
+    if (L.size > cap) return 'cap';
     const v = L.node[x];
     if (v === t) {
       goal = x;
@@ -345,4 +385,63 @@ export function fitsTether(c: CompiledStation, s: number, t: number, tetherLengt
     }
   }
   return false;
+}
+
+/**
+ * Exact fewest swaps to go from each node when freshly clipped there, in layers outward from t:
+ * layer 0 is every node within one tether length of t, layer k every further node within one tether
+ * length of an attach point of layer k - 1 (multi-source Dijkstra on metres, cut at the tether).
+ * Stores the layer and the distance to it; a label with paid-out p at v then needs at least
+ * layer(v) swaps, one more when p plus that distance passes the tether. Stops after the layer that
+ * reaches s; nodes not reached by then need more. Returns that last layer, or -1 when s is out of
+ * reach at any number of swaps.
+ */
+function swapLayers(c: CompiledStation, sc: Scratch, s: number, t: number, tether: number, excludeMask: number): number {
+  const { layerSeen, layerDist, swapStamp, swapLayer, swapReach, sources } = sc;
+  const heap = sc.heap2;
+  const stamp = sc.stamp;
+  const limit = tether + TETHER_EPS_M;
+  const { offsets, targets, arcFlags, arcLengthM, isAttach } = c;
+  let count = 1;
+  sources[0] = t;
+  for (let k = 0; count > 0; k++) {
+    const ls = ++sc.layerStamp;
+    if (ls >= 0x7fffffff) {
+      sc.layerStamp = 1;
+      layerSeen.fill(0);
+    }
+    heap.clear();
+    for (let i = 0; i < count; i++) {
+      const v = sources[i];
+      layerSeen[v] = sc.layerStamp;
+      layerDist[v] = 0;
+      heap.push(v, 0);
+    }
+    const cur = sc.layerStamp;
+    count = 0;
+    while (heap.size > 0) {
+      const d = heap.topKey1();
+      const v = heap.pop();
+      if (d > layerDist[v]) continue;
+      if (swapStamp[v] !== stamp) {
+        swapStamp[v] = stamp;
+        swapLayer[v] = k;
+        swapReach[v] = d;
+        if (isAttach[v]) sources[count++] = v;
+      }
+      for (let a = offsets[v], end = offsets[v + 1]; a < end; a++) {
+        if (arcFlags[a] & excludeMask) continue;
+        const nd = d + arcLengthM[a];
+        if (nd > limit) continue;
+        const u = targets[a];
+        if (layerSeen[u] !== cur || nd < layerDist[u]) {
+          layerSeen[u] = cur;
+          layerDist[u] = nd;
+          heap.push(u, nd);
+        }
+      }
+    }
+    if (swapStamp[s] === stamp) return k;
+  }
+  return -1;
 }

@@ -58,13 +58,13 @@ export function generateTrussStation({ nodes: wanted, seed }: TrussOptions): Sta
   };
   const outward = (face: number): Vec3 => [[0, 1, 0], [0, 0, 1], [0, -1, 0], [0, 0, -1]][face] as Vec3;
 
-  const sparseFrom = Math.floor(slices * 0.85);
+  const sparseFrom = Math.floor(slices * 0.9);
   const sparseTo = sparseFrom + 6 * STEPS_PER_BAY;
   const bare = new Uint8Array(4 * runs * slices);
   for (let fr = 0; fr < 4 * runs; fr++) {
     for (let i = 0; i < slices; i++) {
       if (rand() < 0.004) {
-        const len = (3 + Math.floor(rand() * 2)) * STEPS_PER_BAY;
+        const len = (2 + Math.floor(rand() * 2)) * STEPS_PER_BAY;
         for (let j = i; j < Math.min(slices, i + len); j++) bare[fr * slices + j] = 1;
       }
     }

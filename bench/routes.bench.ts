@@ -1,0 +1,155 @@
+import createGraph from 'ngraph.graph';
+import { nba } from 'ngraph.path';
+import type { RouteMode } from '@shared/schemas/route';
+import { compileStation, type CompiledStation } from '@shared/compute/compiled-station';
+import { findRoute } from '@shared/compute/routes';
+import { MinHeap } from '@shared/compute/routes-heap';
+import { generateTrussStation, seededRandom } from '@shared/compute/truss-generator';
+
+/**
+ * Route engine benchmark on generated trusses: compile cost and size, then per-query times of each
+ * mode against a plain typed-array Dijkstra on the same compiled graph and queries (the reference),
+ * and ngraph.path's NBA* as an outside point of comparison.
+ */
+
+const SIZES = [
+  { nodes: 1_000, queries: 200, targets: null },
+  { nodes: 10_000, queries: 150, targets: { fastest: 1.5, exact: 5 } },
+  { nodes: 100_000, queries: 40, targets: { fastest: 1.5, exact: 10 } },
+] as const;
+const MODES: RouteMode[] = ['fastest', 'fewest-swaps', 'balanced'];
+const P95_SPREAD = 3;
+
+function referenceDijkstra(c: CompiledStation, dist: Float64Array, heap: MinHeap, s: number, t: number): number {
+  dist.fill(Infinity);
+  heap.clear();
+  dist[s] = 0;
+  heap.push(s, 0);
+  const { offsets, targets, arcSeconds } = c;
+  while (heap.size > 0) {
+    const d = heap.topKey1();
+    const v = heap.pop();
+    if (d > dist[v]) continue;
+    if (v === t) return d;
+    for (let a = offsets[v], end = offsets[v + 1]; a < end; a++) {
+      const u = targets[a];
+      const nd = d + arcSeconds[a];
+      if (nd < dist[u]) {
+        dist[u] = nd;
+        heap.push(u, nd);
+      }
+    }
+  }
+  return Infinity;
+}
+
+function quantile(sorted: number[], q: number): number {
+  const i = Math.min(sorted.length - 1, Math.max(0, Math.ceil(q * sorted.length) - 1));
+  return sorted[i];
+}
+
+function summary(times: number[]) {
+  const s = [...times].sort((a, b) => a - b);
+  return { median: quantile(s, 0.5), p95: quantile(s, 0.95) };
+}
+
+const ms = (v: number) => v.toFixed(3);
+
+export async function run(): Promise<void> {
+  console.log('\n== routes: translation route engine ==');
+  const started = performance.now();
+  for (const size of SIZES) {
+    const doc = generateTrussStation({ nodes: size.nodes, seed: 7 });
+    const t0 = performance.now();
+    const c = compileStation(doc);
+    const compileMs = performance.now() - t0;
+    const settings = doc.settings;
+
+    const rand = seededRandom(size.nodes);
+    const attach: number[] = [];
+    for (let v = 0; v < c.nodeCount; v++) if (c.isAttach[v]) attach.push(v);
+    const queries: [number, number][] = [];
+    while (queries.length < size.queries) {
+      const s = attach[Math.floor(rand() * attach.length)];
+      const t = attach[Math.floor(rand() * attach.length)];
+      if (s !== t) queries.push([s, t]);
+    }
+
+    const ng = createGraph<unknown, { w: number }>();
+    for (let e = 0; e < c.edgeCount; e++) {
+      const a = c.edgeFrom[e];
+      const b = c.edgeTo[e];
+      const arc = c.offsets[a] + [...c.arcEdge.subarray(c.offsets[a], c.offsets[a + 1])].indexOf(e);
+      ng.addLink(a, b, { w: c.arcSeconds[arc] });
+    }
+    const ngFinder = nba(ng, { distance: (_f, _t, link) => link.data.w });
+
+    const dist = new Float64Array(c.nodeCount);
+    const heap = new MinHeap(1024);
+    const times: Record<string, number[]> = { reference: [], 'ngraph nba': [] };
+    const ratios: Record<string, number[]> = {};
+    for (const m of MODES) {
+      times[m] = [];
+      ratios[m] = [];
+    }
+    let fallbacks = 0;
+    let infeasible = 0;
+    const warm = Math.min(10, queries.length);
+    for (let i = 0; i < warm; i++) {
+      const [s, t] = queries[i];
+      referenceDijkstra(c, dist, heap, s, t);
+      for (const mode of MODES) findRoute(c, settings, { from: c.keys[s], to: c.keys[t], mode });
+    }
+    for (const [s, t] of queries) {
+      let a = performance.now();
+      referenceDijkstra(c, dist, heap, s, t);
+      const ref = performance.now() - a;
+      times.reference.push(ref);
+      a = performance.now();
+      ngFinder.find(s, t);
+      times['ngraph nba'].push(performance.now() - a);
+      for (const mode of MODES) {
+        a = performance.now();
+        const r = findRoute(c, settings, { from: c.keys[s], to: c.keys[t], mode });
+        const took = performance.now() - a;
+        times[mode].push(took);
+        ratios[mode].push(took / ref);
+        if (!r.feasible) infeasible++;
+        else if (mode === 'fastest' && r.warnings.some((w) => w.startsWith('The quickest way needs'))) fallbacks++;
+      }
+    }
+
+    const refMedian = summary(times.reference).median;
+    console.log(
+      `\n${c.nodeCount} nodes, ${c.edgeCount} edges, ${attach.length} attach points, ${queries.length} attach-to-attach queries`,
+    );
+    console.log(
+      `compile ${compileMs.toFixed(1)} ms; index ${(c.memoryBytes / 1e6).toFixed(2)} MB (${(c.memoryBytes / c.nodeCount).toFixed(0)} B/node); ` +
+        `fastest needed the tether search on ${fallbacks} queries; ${infeasible} infeasible answers`,
+    );
+    const rows = Object.entries(times).map(([name, list]) => {
+      const { median, p95 } = summary(list);
+      const row: Record<string, string> = {
+        'median ms': ms(median),
+        'p95 ms': ms(p95),
+        'p95/median': (p95 / median).toFixed(2),
+        'median / reference': (median / refMedian).toFixed(2),
+      };
+      if (ratios[name]) {
+        const r = summary(ratios[name]);
+        row['per-query ratio median'] = r.median.toFixed(2);
+        row['per-query ratio p95'] = r.p95.toFixed(2);
+      }
+      if (size.targets && ratios[name]) {
+        const limit = name === 'fastest' ? size.targets.fastest : size.targets.exact;
+        const okRatio = median / refMedian <= limit;
+        const okSpread = name === 'fastest' || p95 / median <= P95_SPREAD;
+        row.target = `≤${limit}×${name === 'fastest' ? '' : `, p95 ≤${P95_SPREAD}× median`}`;
+        row.result = okRatio && okSpread ? 'PASS' : 'FAIL';
+      }
+      return [name, row] as const;
+    });
+    console.table(Object.fromEntries(rows));
+  }
+  console.log(`routes bench took ${((performance.now() - started) / 1000).toFixed(1)} s`);
+}
