@@ -30,7 +30,7 @@ interface Table {
 const where = (file: string, line: number, column?: string) => `${file} line ${line}${column ? `, column ${column}` : ''}`;
 
 function readTable(text: string, file: string, columns: readonly string[], required: readonly string[], problems: DocumentProblem[]): Table | null {
-  const result = Papa.parse<string[]>(text, { header: false, skipEmptyLines: false });
+  const result = Papa.parse<string[]>(text, { header: false, skipEmptyLines: false, delimiter: ',' });
   const data = result.data;
   const rowLines = rowStartLines(text);
   for (const e of result.errors) problems.push({ path: where(file, rowLines[e.row ?? 0] ?? 1), message: e.message });
@@ -43,7 +43,9 @@ function readTable(text: string, file: string, columns: readonly string[], requi
     if (!columns.includes(h)) problems.push({ path: where(file, 1, h || `#${i + 1}`), message: `unknown column (expected ${columns.join(', ')})` });
     else if (header.indexOf(h) !== i) problems.push({ path: where(file, 1, h), message: 'column appears twice' });
   });
-  for (const r of required) if (!header.includes(r)) problems.push({ path: where(file, 1, r), message: 'required column is missing' });
+  const missing = required.filter((r) => !header.includes(r));
+  for (const r of missing) problems.push({ path: where(file, 1, r), message: 'required column is missing' });
+  if (missing.length) return null;
 
   const rows: Table['rows'] = [];
   for (let i = 1; i < data.length; i++) {

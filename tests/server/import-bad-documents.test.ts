@@ -104,7 +104,7 @@ describe('bad station documents: 400 naming the problem, nothing written', () =>
   it('a hazard box whose min is not below its max', async () => {
     const d = doc();
     const i = d.hazards!.findIndex((h) => h.shape === 'box');
-    d.hazards![i] = { ...d.hazards![i], min: [0, 0, 0], max: [1, 0, 1] } as (typeof d.hazards)[number];
+    d.hazards![i] = { ...d.hazards![i], min: [0, 0, 0], max: [1, 0, 1] } as NonNullable<typeof d.hazards>[number];
     await expectRefused(stationDocumentFile(d), 400, `hazards[${i}].max[1]`);
   });
 
