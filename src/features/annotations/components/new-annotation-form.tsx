@@ -12,9 +12,8 @@ import { cn } from '@/lib/cn';
 import { useCreateAnnotation } from '../api/write-annotation';
 import { pinText } from './annotation-meta';
 
-/** A surface click in the 3D view; `seq` tells two clicks on the same spot apart. */
+/** A surface click in the 3D view; each click is a new object. */
 export interface PointPick {
-  seq: number;
   point: Vec3;
   segmentKey?: string;
 }
@@ -36,7 +35,7 @@ export function NewAnnotationForm({ stationId, selectedNodeKey, pick, onCreated,
   const [pinTo, setPinTo] = useState<'node' | 'point'>(selectedNodeKey ? 'node' : 'point');
   const [point, setPoint] = useState<{ position: Vec3; segmentKey?: string } | null>(null);
   const [armed, setArmed] = useState(!selectedNodeKey);
-  const consumed = useRef(pick?.seq ?? 0);
+  const consumed = useRef(pick);
   const create = useCreateAnnotation({ onSuccess: onCreated });
   const {
     register,
@@ -49,8 +48,8 @@ export function NewAnnotationForm({ stationId, selectedNodeKey, pick, onCreated,
   });
 
   useEffect(() => {
-    if (!armed || !pick || pick.seq === consumed.current) return;
-    consumed.current = pick.seq;
+    if (!armed || !pick || pick === consumed.current) return;
+    consumed.current = pick;
     setPoint({ position: [round3(pick.point[0]), round3(pick.point[1]), round3(pick.point[2])], segmentKey: pick.segmentKey });
     setArmed(false);
   }, [pick, armed]);

@@ -70,7 +70,7 @@ export function NodeForm({ graph, node, selectedKey, pick, isSaving, onSubmit }:
   };
   const [armed, setArmed] = useState(false);
   const [snappedTo, setSnappedTo] = useState<string | null>(null);
-  const consumed = useRef(pick?.seq ?? 0);
+  const consumed = useRef(pick);
 
   const {
     register,
@@ -98,8 +98,8 @@ export function NodeForm({ graph, node, selectedKey, pick, isSaving, onSubmit }:
   const normal = watch('normal');
 
   useEffect(() => {
-    if (!isNew || !armed || !pick || pick.seq === consumed.current) return;
-    consumed.current = pick.seq;
+    if (!isNew || !armed || !pick || pick === consumed.current) return;
+    consumed.current = pick;
     const snap = nearestFacePoint(graph.segments, pick.point);
     const point = snap?.point ?? pick.point;
     const faceNormal = normalise(snap?.normal ?? pick.normal) ?? [0, 0, 1];

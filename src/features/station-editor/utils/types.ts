@@ -1,8 +1,7 @@
 import type { StationGraph } from '@shared/schemas/station-edits';
 
-/** A point the scene reports on a segment surface; `seq` tells two clicks on the same spot apart. */
+/** A point the scene reports on a segment surface; each click is a new object. */
 export interface SurfacePick {
-  seq: number;
   point: [number, number, number];
   normal: [number, number, number];
   segmentKey?: string;
