@@ -16,6 +16,8 @@ export default defineConfig({
           name: 'unit',
           include: ['tests/shared/**/*.test.ts'],
           environment: 'node',
+          // property and exhaustive-oracle tests: generous, since CI machines are small
+          testTimeout: 60000,
         },
       },
       {
@@ -25,7 +27,7 @@ export default defineConfig({
           include: ['tests/server/**/*.test.ts'],
           environment: 'node',
           setupFiles: ['tests/setup/server-env.ts'],
-          testTimeout: 20000,
+          testTimeout: 60000,
           hookTimeout: 30000,
         },
       },
