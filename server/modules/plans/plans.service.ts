@@ -320,7 +320,7 @@ function assertVersion(db: Db, plan: PlanView, version: number) {
     .get();
   const who = last?.name ? ` by ${last.name} at ${last.at}` : '';
   throw conflict(
-    `The plan was changed${who} since you read it: you have version ${version}, the current version is ${plan.version}. Reload it and make your change again.`,
+    `The plan was changed${who} since you read it: you had version ${version}, it is now version ${plan.version}. Reload it and make your change again.`,
     [
       { path: 'version', message: `current version is ${plan.version}` },
       ...(last?.name ? [{ path: 'changedBy', message: last.name }] : []),
