@@ -64,6 +64,7 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
     mutation.mutate({ version, edit });
   };
   const isSaving = mutation.isPending;
+  const failedEdit = mutation.isError ? mutation.variables?.edit : undefined;
   const selected = selectedKey ? graph.nodes.find((n) => n.key === selectedKey) : undefined;
   const around: Vec3 = selected?.position ?? [0, 0, 0];
   const editingHazard = graph.hazards.find((h) => h.key === hazardKey);
@@ -73,16 +74,16 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
       <p className="text-xs text-text-muted">
         Editing version {version}. A change made against an older version is refused, never merged.
       </p>
-      {mutation.isError && mutation.variables && (
+      {failedEdit && (
         <ConflictNotice
           error={mutation.error}
           stationId={stationId}
-          what={describeStationEdit(mutation.variables.edit)}
+          what={describeStationEdit(failedEdit)}
           onReload={() => {
             mutation.reset();
             onChanged();
           }}
-          onReapply={(current) => mutation.mutate({ version: current, edit: mutation.variables!.edit })}
+          onReapply={(current) => mutation.mutate({ version: current, edit: failedEdit })}
         />
       )}
       {saved && !mutation.isError && <Alert tone="success">{saved}</Alert>}
