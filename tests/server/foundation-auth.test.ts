@@ -128,3 +128,18 @@ describe('sign-in rate limit', () => {
     }
   });
 });
+
+describe('sign out everywhere', () => {
+  it('ends every session of the user, not just this one', async () => {
+    const a = request.agent(t.app);
+    const b = request.agent(t.app);
+    for (const agent of [a, b]) await agent.post('/api/auth/sign-in').send({ email: 'trainer@example.org', password: 'tetherwise-demo' });
+    expect((await b.get('/api/auth/me')).status).toBe(200);
+    expect((await a.post('/api/auth/sign-out-everywhere')).status).toBe(204);
+    expect((await a.get('/api/auth/me')).status).toBe(401);
+    expect((await b.get('/api/auth/me')).status).toBe(401);
+    const again = request.agent(t.app);
+    await again.post('/api/auth/sign-in').send({ email: 'trainer@example.org', password: 'tetherwise-demo' });
+    expect((await again.get('/api/auth/me')).status).toBe(200);
+  });
+});

@@ -5,7 +5,7 @@ import { HttpError } from '../../lib/http-error';
 import { defineRoute, mountRoutes } from '../../lib/route';
 import { clearSession, issueSession } from '../../middleware/session';
 import { SetPasswordInputSchema, SignInInputSchema } from '@shared/schemas/auth';
-import { getInvitation, setPasswordWithToken, toPublicUser, verifyCredentials } from './auth.service';
+import { endAllSessions, getInvitation, setPasswordWithToken, toPublicUser, verifyCredentials } from './auth.service';
 
 export function authRouter(ctx: AppContext) {
   // failed attempts only: a team signing in all morning from one office is not throttled
@@ -37,6 +37,16 @@ export function authRouter(ctx: AppContext) {
       path: '/sign-out',
       access: 'public',
       handler: (_req, res) => {
+        clearSession(ctx, res);
+        return undefined;
+      },
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/sign-out-everywhere',
+      access: 'read',
+      handler: (req, res) => {
+        endAllSessions(ctx.db, req.user!.id);
         clearSession(ctx, res);
         return undefined;
       },
