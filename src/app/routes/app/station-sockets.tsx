@@ -1,10 +1,107 @@
-import { ComingSoon } from '@/components/layouts/coming-soon';
+import { useCallback } from 'react';
+import { useQueryClient, type QueryClient } from '@tanstack/react-query';
+import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { PageHeader } from '@/components/layouts/app-layout';
+import { Panel } from '@/components/ui/card';
+import { PlanningCaution } from '@/components/ui/planning-caution';
+import { PageSpinner } from '@/components/ui/spinner';
+import { TextLink } from '@/components/ui/text-link';
+import { paths } from '@/config/paths';
+import { ApiError } from '@/lib/api-client';
+import { requireUser } from '@/lib/authorization';
+import { getPlanQueryOptions } from '@/features/plans/api/get-plan';
+import { usePlans } from '@/features/plans/api/get-plans';
+import { Marker, PathLine, StationScene, TranslucentSphere } from '@/features/scene-3d';
+import { getStationGraphQueryOptions, useStationGraph } from '@/features/stations/api/get-station-graph';
+import { stationKeys } from '@/features/stations/api/keys';
+import { useSocketPlanner, YawPitchDiagram, type SocketPlannerStation } from '@/features/sockets';
+import type { StationGraph } from '@shared/schemas/station-edits';
+
+const PIECES = { PathLine, Marker, TranslucentSphere };
+
+function stationIdOf(params: { stationId?: string }): number {
+  const id = Number(params.stationId);
+  if (!Number.isInteger(id) || id <= 0) throw new ApiError(404, 'NOT_FOUND', 'There is no such station.');
+  return id;
+}
+
+export const clientLoader =
+  (queryClient: QueryClient) =>
+  async ({ request, params }: LoaderFunctionArgs) => {
+    await requireUser(queryClient, request);
+    await queryClient.ensureQueryData(getStationGraphQueryOptions(stationIdOf(params)));
+    return null;
+  };
+
+function SocketPlannerPage({ graph }: { graph: StationGraph }) {
+  const queryClient = useQueryClient();
+  const stationId = graph.station.id;
+  const plans = usePlans({ stationId });
+  const station: SocketPlannerStation = {
+    id: stationId,
+    version: graph.station.version,
+    reach: graph.station.settings.reach,
+    nodes: graph.nodes,
+  };
+  const loadPlanWorksites = useCallback(
+    async (planId: number) => (await queryClient.fetchQuery(getPlanQueryOptions(planId))).tasks.map((t) => t.worksite),
+    [queryClient],
+  );
+  const planner = useSocketPlanner(station, PIECES, {
+    plans: plans.data ?? [],
+    loadPlanWorksites,
+    invalidates: [stationKeys.graph(stationId)],
+    onReload: () => void queryClient.invalidateQueries({ queryKey: stationKeys.graph(stationId) }),
+    nodeHref: (key) => `${paths.station.getHref(stationId)}?node=${encodeURIComponent(key)}`,
+  });
+
+  return (
+    <>
+      <PageHeader
+        title="Socket planner"
+        description={
+          <>
+            The fewest foot-restraint sockets that bring every chosen target within reach on{' '}
+            <TextLink to={paths.station.getHref(stationId)}>{graph.station.name}</TextLink> (version {graph.station.version}).
+          </>
+        }
+      />
+      <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_380px]">
+        <div className="space-y-3">
+          <StationScene
+            graph={graph}
+            label={`3D view of ${graph.station.name} with the planned sockets and their work envelopes`}
+            className={planner.picking ? 'h-[560px] cursor-crosshair ring-2 ring-accent' : 'h-[560px]'}
+            onPickSurface={(pick) => void planner.pickSurface(pick)}
+            overlays={planner.overlay}
+          />
+          {planner.picking && (
+            <p role="status" className="text-sm text-accent-strong">
+              Click a truss or module surface to add a target point there.
+            </p>
+          )}
+        </div>
+        <Panel title="Plan sockets">{planner.controls}</Panel>
+      </div>
+      <div className="mt-6 grid gap-6 lg:grid-cols-[minmax(0,1fr)_380px]">
+        <Panel title="Result">
+          {planner.results || <p className="text-sm text-text-muted">Choose targets and plan: the result shows here and in 3D.</p>}
+        </Panel>
+        <Panel title="Restraint angles">
+          <YawPitchDiagram />
+        </Panel>
+      </div>
+      <PlanningCaution className="mt-6" />
+      <p className="mt-2 text-xs text-text-muted">
+        The reach stand-off and radius are planning defaults from memory, not verified suited work-envelope dimensions.
+      </p>
+    </>
+  );
+}
 
 export default function StationSocketsRoute() {
-  return (
-    <ComingSoon
-      title="Socket planner"
-      description="The fewest foot-restraint sockets that bring every task within reach."
-    />
-  );
+  const stationId = stationIdOf(useParams());
+  const graph = useStationGraph(stationId);
+  if (!graph.data) return <PageSpinner />;
+  return <SocketPlannerPage graph={graph.data} />;
 }
