@@ -24,9 +24,20 @@ export const paths = {
     path: '/plans/:planId',
     getHref: (planId: string | number) => `/plans/${encodeURIComponent(planId)}`,
   },
+  walkthroughs: {
+    path: '/walkthroughs',
+    /** with `planId`, the list opens its "new walkthrough" form for that plan */
+    getHref: (options: { planId?: number } = {}) =>
+      options.planId ? `/walkthroughs?planId=${encodeURIComponent(options.planId)}` : '/walkthroughs',
+  },
   walkthrough: {
     path: '/walkthroughs/:id',
-    getHref: (id: string | number) => `/walkthroughs/${encodeURIComponent(id)}`,
+    getHref: (id: string | number, options: { step?: number; print?: boolean } = {}) => {
+      const query = new URLSearchParams();
+      if (options.step) query.set('step', String(options.step));
+      if (options.print) query.set('print', '1');
+      return `/walkthroughs/${encodeURIComponent(id)}${query.size ? `?${query}` : ''}`;
+    },
   },
 } as const;
 

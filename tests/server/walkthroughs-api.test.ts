@@ -5,6 +5,7 @@ import type { Vec3 } from '@shared/schemas/station';
 import type { PlanPlayback, RoutePlayback, WalkthroughDetail, WalkthroughSummary } from '@shared/schemas/walkthrough';
 import { buildStationDocument, FIXTURE_KEYS as K, stationDocumentFile } from '../factories/station-document';
 import { makeTestApp, type TestApp } from '../setup/test-app';
+import { DEMO_WALKTHROUGH_PLAN, seedDemoWalkthroughs } from '../../server/db/seed/demo-walkthroughs';
 
 let t: TestApp;
 let stationId: number;
@@ -165,5 +166,27 @@ describe('walkthroughs API', () => {
     expect(rebased.status).toBe(200);
     expect(rebased.body.changedSince).toBe(false);
     expect(rebased.body.walkthrough.basedOnVersion).toBe(edited.body.version);
+  });
+
+  it('seeds one walkthrough of the demo plan by the demo trainer, with notes, only when none exists', async () => {
+    const fresh = await makeTestApp();
+    try {
+      const imported = await (await fresh.agent('engineer')).post('/api/stations/import').attach('file', stationDocumentFile(doc), 'station.json');
+      const plan = await (await fresh.agent('planner')).post('/api/plans').send({ ...planBody(), stationId: imported.body.station.id, title: DEMO_WALKTHROUGH_PLAN });
+      expect(plan.status).toBe(201);
+      seedDemoWalkthroughs(fresh.ctx);
+      seedDemoWalkthroughs(fresh.ctx);
+      const list = (await (await fresh.agent('viewer')).get('/api/walkthroughs')).body as WalkthroughSummary[];
+      expect(list).toHaveLength(1);
+      expect(list[0]).toMatchObject({ kind: 'plan', authorName: 'Jonah Abara', stale: false });
+      expect(list[0].plan?.title).toBe(DEMO_WALKTHROUGH_PLAN);
+      const detail = (await (await fresh.agent('viewer')).get(`/api/walkthroughs/${list[0].id}`)).body as WalkthroughDetail;
+      const pb = detail.playback as PlanPlayback;
+      const ids = new Set([...pb.crews.EV1.steps, ...pb.crews.EV2.steps].map((st) => st.id));
+      expect(Object.keys(detail.walkthrough.notes).length).toBeGreaterThanOrEqual(2);
+      for (const id of Object.keys(detail.walkthrough.notes)) expect(ids.has(id)).toBe(true);
+    } finally {
+      await fresh.close();
+    }
   });
 });

@@ -18,6 +18,7 @@ const NAV_ITEMS: NavItem[] = [
   { label: 'Home', to: paths.home.getHref(), permission: 'read', end: true },
   { label: 'Stations', to: paths.stations.getHref(), permission: 'read' },
   { label: 'Plans', to: paths.plans.getHref(), permission: 'read' },
+  { label: 'Walkthroughs', to: paths.walkthroughs.getHref(), permission: 'read' },
   { label: 'People', to: paths.people.getHref(), permission: 'users:manage' },
   { label: 'Mailbox', to: paths.mailbox.getHref(), permission: 'mailbox:read' },
 ];

@@ -1,0 +1,161 @@
+import { useEffect, useMemo, useRef } from 'react';
+import { Html, Line } from '@react-three/drei';
+import { useFrame, useThree } from '@react-three/fiber';
+import * as THREE from 'three';
+import type { Line2, OrbitControls as OrbitControlsImpl } from 'three-stdlib';
+import { sampleTrack } from '@shared/compute/walkthrough';
+import type { Vec3 } from '@shared/schemas/station';
+import type { PlaybackClock } from '../lib/playback-clock';
+import { trackPath, type Lane, type LaneId } from '../lib/playback-model';
+import { LANE_STYLES } from './lane-styles';
+
+const noRaycast = () => null;
+
+function extentOf(points: readonly Vec3[]): number {
+  if (!points.length) return 10;
+  const box = new THREE.Box3().setFromPoints(points.map((p) => new THREE.Vector3(...p)));
+  return box.getSize(new THREE.Vector3()).length();
+}
+
+function MarkerShape({ lane, size }: { lane: LaneId; size: number }) {
+  const style = LANE_STYLES[lane];
+  return (
+    <mesh renderOrder={14} raycast={noRaycast}>
+      {style.shape === 'octahedron' ? <octahedronGeometry args={[size, 0]} /> : <boxGeometry args={[size * 1.4, size * 1.4, size * 1.4]} />}
+      <meshBasicMaterial color={style.color} depthTest={false} transparent />
+    </mesh>
+  );
+}
+
+/** One crew member: the marker moving along the track, the live tether to the current anchor, the anchor ring. */
+function CrewMarker({ lane, clock, positions, size }: { lane: Lane; clock: PlaybackClock; positions: Record<string, Vec3>; size: number }) {
+  const group = useRef<THREE.Group>(null);
+  const anchor = useRef<THREE.Mesh>(null);
+  const tether = useRef<Line2>(null);
+  const style = LANE_STYLES[lane.id];
+  const initial = useMemo(() => {
+    const s = sampleTrack(lane.track, clock.t);
+    return [positions[s.anchorKey] ?? s.position, s.position] as [Vec3, Vec3];
+    // the first frame overwrites these; they only give the line its two points
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [lane.track, positions]);
+
+  useFrame(() => {
+    const s = sampleTrack(lane.track, clock.t);
+    const a = positions[s.anchorKey] ?? s.position;
+    group.current?.position.set(...s.position);
+    anchor.current?.position.set(...a);
+    tether.current?.geometry.setPositions([...a, ...s.position]);
+  });
+
+  return (
+    <>
+      <Line ref={tether} points={initial} color={style.tether} lineWidth={3} depthTest={false} renderOrder={13} raycast={noRaycast} />
+      <mesh ref={anchor} renderOrder={13} raycast={noRaycast}>
+        <torusGeometry args={[size * 0.9, size * 0.22, 8, 24]} />
+        <meshBasicMaterial color={style.tether} depthTest={false} transparent />
+      </mesh>
+      <group ref={group}>
+        <MarkerShape lane={lane.id} size={size} />
+        <Html zIndexRange={[30, 0]} style={{ pointerEvents: 'none' }}>
+          <div
+            className="ml-3 -translate-y-1/2 rounded px-1.5 py-0.5 text-xs font-bold whitespace-nowrap shadow"
+            style={{ background: style.color, color: '#0a1220' }}
+          >
+            {style.glyph} {lane.short}
+          </div>
+        </Html>
+      </group>
+    </>
+  );
+}
+
+function LanePath({ lane, size, positions }: { lane: Lane; size: number; positions: Record<string, Vec3> }) {
+  const style = LANE_STYLES[lane.id];
+  const path = useMemo(() => trackPath(lane.track), [lane.track]);
+  const swaps = useMemo(
+    () => lane.track.steps.filter((s) => s.type === 'swap' && s.clipKey).map((s, i) => ({ id: s.id, key: s.clipKey!, n: i + 1 })),
+    [lane.track],
+  );
+  return (
+    <>
+      {path.length >= 2 && (
+        <Line points={path} color={style.color} lineWidth={2} dashed dashSize={size * 1.5} gapSize={size} transparent opacity={0.75} depthTest={false} renderOrder={10} raycast={noRaycast} />
+      )}
+      {swaps.map((s) => (
+        positions[s.key] && <SwapPoint key={s.id} lane={lane} n={s.n} position={positions[s.key]} size={size} />
+      ))}
+    </>
+  );
+}
+
+function SwapPoint({ lane, n, position, size }: { lane: Lane; n: number; position: Vec3; size: number }) {
+  const style = LANE_STYLES[lane.id];
+  return (
+    <group position={position}>
+      <mesh renderOrder={11} raycast={noRaycast}>
+        <sphereGeometry args={[size * 0.45, 12, 8]} />
+        <meshBasicMaterial color={style.color} depthTest={false} transparent />
+      </mesh>
+      <Html zIndexRange={[20, 0]} style={{ pointerEvents: 'none' }}>
+        <div className="-translate-x-1/2 -translate-y-[140%] rounded border border-ink-700 bg-white px-1 text-[11px] leading-4 font-semibold whitespace-nowrap text-text-strong">
+          {lane.short} swap {n}
+        </div>
+      </Html>
+    </group>
+  );
+}
+
+/** Re-renders the on-demand canvas when the clock moves, and keeps a followed crew member in view. */
+function ClockDriver({ clock, lanes }: { clock: PlaybackClock; lanes: readonly Lane[] }) {
+  const invalidate = useThree((s) => s.invalidate);
+  const camera = useThree((s) => s.camera);
+  const controls = useThree((s) => s.controls) as OrbitControlsImpl | null;
+  const delta = useMemo(() => new THREE.Vector3(), []);
+  useEffect(() => clock.subscribe(() => invalidate()), [clock, invalidate]);
+  useFrame(() => {
+    if (clock.follow === 'free' || !controls) return;
+    const lane = lanes.find((l) => l.id === clock.follow);
+    if (!lane) return;
+    const p = sampleTrack(lane.track, clock.t).position;
+    delta.set(p[0], p[1], p[2]).sub(controls.target);
+    if (delta.lengthSq() < 1e-10) return;
+    controls.target.add(delta);
+    camera.position.add(delta);
+    controls.update();
+  });
+  return null;
+}
+
+/** Everything the walkthrough draws inside the station scene (pass as `StationScene`'s `overlays`). */
+export function WalkthroughOverlays({
+  clock,
+  lanes,
+  positions,
+  onReady,
+}: {
+  clock: PlaybackClock;
+  lanes: readonly Lane[];
+  positions: Record<string, Vec3>;
+  /** called once with the points of every path, e.g. to frame them */
+  onReady?: (points: Vec3[]) => void;
+}) {
+  const points = useMemo(() => lanes.flatMap((l) => trackPath(l.track)), [lanes]);
+  const size = Math.min(1.2, Math.max(0.25, extentOf(points) / 90));
+  useEffect(() => {
+    // after the camera rig's own first framing
+    const id = setTimeout(() => onReady?.(points), 50);
+    return () => clearTimeout(id);
+  }, [onReady, points]);
+  return (
+    <>
+      <ClockDriver clock={clock} lanes={lanes} />
+      {lanes.map((lane) => (
+        <LanePath key={`path-${lane.id}`} lane={lane} size={size} positions={positions} />
+      ))}
+      {lanes.map((lane) => (
+        <CrewMarker key={lane.id} lane={lane} clock={clock} positions={positions} size={size} />
+      ))}
+    </>
+  );
+}
