@@ -400,7 +400,7 @@ export function deletePlan(ctx: AppContext, id: number, version: number, actor: 
   recordActivity(ctx.db, { userId: actor.id, kind: 'plan.deleted', summary: `${actor.name} deleted the draft plan "${title}"` });
 }
 
-type ReviewAction = 'submit' | 'approve' | 'return';
+export type ReviewAction = 'submit' | 'approve' | 'return';
 
 const TRANSITIONS: Record<ReviewAction, { from: PlanStatus[]; to: PlanStatus; verb: string }> = {
   submit: { from: ['draft'], to: 'in-review', verb: 'submitted' },
@@ -411,7 +411,8 @@ const TRANSITIONS: Record<ReviewAction, { from: PlanStatus[]; to: PlanStatus; ve
 
 const STATUS_WORDS: Record<PlanStatus, string> = { draft: 'a draft', 'in-review': 'in review', approved: 'approved' };
 
-function transition(ctx: AppContext, id: number, action: ReviewAction, version: number, comment: string | undefined, actor: Actor) {
+/** One review step in one transaction (status, review comment, audit), without the e-mails. */
+export function reviewTransition(ctx: AppContext, id: number, action: ReviewAction, version: number, comment: string | undefined, actor: Actor) {
   const rule = TRANSITIONS[action];
   return ctx.db.transaction((tx) => {
     const db = tx as unknown as Db;
@@ -452,7 +453,7 @@ function authorOf(db: Db, plan: PlanView) {
 }
 
 export async function submitPlan(ctx: AppContext, id: number, version: number, comment: string | undefined, actor: Actor) {
-  const plan = transition(ctx, id, 'submit', version, comment, actor);
+  const plan = reviewTransition(ctx, id, 'submit', version, comment, actor);
   const reviewers = ctx.db
     .select({ email: users.email, name: users.name })
     .from(users)
@@ -477,14 +478,14 @@ export async function submitPlan(ctx: AppContext, id: number, version: number, c
 }
 
 export async function approvePlan(ctx: AppContext, id: number, version: number, comment: string | undefined, actor: Actor) {
-  const plan = transition(ctx, id, 'approve', version, comment, actor);
+  const plan = reviewTransition(ctx, id, 'approve', version, comment, actor);
   await mailAuthor(ctx, plan, actor, `Approved: "${plan.title}"`, `${actor.name} has approved your EVA plan "${plan.title}".`, comment);
   recordActivity(ctx.db, { userId: actor.id, kind: 'plan.approved', summary: `${actor.name} approved "${plan.title}"`, link: `/plans/${id}` });
   return plan;
 }
 
 export async function returnPlan(ctx: AppContext, id: number, version: number, comment: string, actor: Actor) {
-  const plan = transition(ctx, id, 'return', version, comment, actor);
+  const plan = reviewTransition(ctx, id, 'return', version, comment, actor);
   await mailAuthor(ctx, plan, actor, `Returned to draft: "${plan.title}"`, `${actor.name} has returned your EVA plan "${plan.title}" to draft.`, comment);
   recordActivity(ctx.db, { userId: actor.id, kind: 'plan.returned', summary: `${actor.name} returned "${plan.title}" to draft`, link: `/plans/${id}` });
   return plan;
