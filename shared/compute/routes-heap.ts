@@ -60,6 +60,11 @@ export class MinHeap {
     return this.k1[0];
   }
 
+  /** Second key of the top item; only valid when size > 0. */
+  topKey2(): number {
+    return this.k2[0];
+  }
+
   pop(): number {
     const items = this.items;
     const k1 = this.k1;

@@ -146,7 +146,10 @@ export function dijkstraPath(
       }
     }
   }
-  if (!found) return null;
+  return found ? predArcsPath(c, predArc, s, t) : null;
+}
+
+function predArcsPath(c: CompiledStation, predArc: Int32Array, s: number, t: number): number[] {
   const arcs: number[] = [];
   for (let v = t; v !== s; ) {
     const a = predArc[v];
@@ -154,6 +157,53 @@ export function dijkstraPath(
     v = arcSource(c, a);
   }
   return arcs.reverse();
+}
+
+/**
+ * Least-time path by A* with the compiled landmark bounds: the same cost as dijkstraPath on
+ * `weights`, but it settles a corridor towards t instead of a ball round s. A heap entry whose key
+ * no longer matches its node's distance is stale; a node whose distance improves is pushed again.
+ */
+export function fastestPath(
+  c: CompiledStation,
+  weights: Float64Array,
+  s: number,
+  t: number,
+  excludeMask: number,
+  maxSpeedMps: number,
+  landmarkTimesValid: boolean,
+): number[] | null {
+  const sc = scratchFor(c);
+  const { seen, dist, predArc, heap, hSeconds } = sc;
+  const stamp = sc.stamp;
+  const { offsets, targets, arcFlags } = c;
+  const bound = targetBound(c, sc, t, 1, maxSpeedMps, landmarkTimesValid);
+  if (!bound(s)) return null;
+  heap.clear();
+  seen[s] = stamp;
+  dist[s] = 0;
+  predArc[s] = -1;
+  heap.push(s, hSeconds[s]);
+  while (heap.size > 0) {
+    const k = heap.topKey1();
+    const v = heap.pop();
+    const d = dist[v];
+    if (k > d + hSeconds[v]) continue;
+    if (v === t) return predArcsPath(c, predArc, s, t);
+    for (let a = offsets[v], end = offsets[v + 1]; a < end; a++) {
+      if (arcFlags[a] & excludeMask) continue;
+      const u = targets[a];
+      const nd = d + weights[a];
+      if (seen[u] !== stamp || nd < dist[u]) {
+        if (!bound(u)) continue;
+        seen[u] = stamp;
+        dist[u] = nd;
+        predArc[u] = a;
+        heap.push(u, nd + hSeconds[u]);
+      }
+    }
+  }
+  return null;
 }
 
 /** Nodes reachable from s over arcs without any `excludeMask` flag. */
@@ -174,6 +224,59 @@ export function reachable(c: CompiledStation, s: number, excludeMask: number): U
     }
   }
   return mark;
+}
+
+/**
+ * Landmark (ALT) lower bounds from any node to t, memoised in the scratch for this query stamp:
+ * after `bound(v)` returns true, `hSeconds[v]` (times `secondsFactor`) and `hMetres[v]` hold them.
+ * Returns false when v cannot reach t at all (a landmark reaches exactly one of them).
+ */
+export function targetBound(
+  c: CompiledStation,
+  sc: Scratch,
+  t: number,
+  secondsFactor: number,
+  maxSpeedMps: number,
+  useTimes: boolean,
+): (v: number) => boolean {
+  const stamp = sc.stamp;
+  const { hStamp, hSeconds, hMetres } = sc;
+  const lm = c.landmarks;
+  const K = lm.count;
+  const lmS = lm.seconds;
+  const lmM = lm.metres;
+  const tBase = t * K;
+  const speedBound = secondsFactor / maxSpeedMps;
+  return (v: number): boolean => {
+    if (hStamp[v] === stamp) return hSeconds[v] !== Infinity;
+    hStamp[v] = stamp;
+    let bs = 0;
+    let bm = 0;
+    const vBase = v * K;
+    for (let k = 0; k < K; k++) {
+      const mt = lmM[tBase + k];
+      const mv = lmM[vBase + k];
+      if (mt === Infinity || mv === Infinity) {
+        if (mt !== mv) {
+          hSeconds[v] = Infinity;
+          return false;
+        }
+        continue;
+      }
+      const dm = mt > mv ? mt - mv : mv - mt;
+      if (dm > bm) bm = dm;
+      if (useTimes) {
+        const ds = lmS[tBase + k] - lmS[vBase + k];
+        const a = ds < 0 ? -ds : ds;
+        if (a > bs) bs = a;
+      }
+    }
+    bs *= secondsFactor;
+    if (bm * speedBound > bs) bs = bm * speedBound;
+    hSeconds[v] = bs;
+    hMetres[v] = bm;
+    return true;
+  };
 }
 
 export interface LabelSearchParams {
@@ -225,53 +328,15 @@ function runLabels(
 ): LabelPath | null | 'cap' {
   const sc = scratchFor(c);
   const stamp = sc.stamp;
-  const { hStamp, hSeconds, hMetres, headStamp, head, heap } = sc;
+  const { hSeconds, hMetres, headStamp, head, heap } = sc;
   const L = sc.labels;
   L.size = 0;
   heap.clear();
   const { offsets, targets, arcFlags, arcLengthM, isAttach } = c;
   const { weights, secondsFactor, tetherLengthM: tether, excludeMask, swapCost } = p;
   const lex = p.objective === 'lex';
-  const lm = c.landmarks;
-  const K = lm.count;
-  const lmS = lm.seconds;
-  const lmM = lm.metres;
-  const tBase = t * K;
-  const speedBound = secondsFactor / p.maxSpeedMps;
-  const useTimes = p.landmarkTimesValid;
   const limit = tether + TETHER_EPS_M;
-
-  // returns false when v cannot reach t at all
-  const bound = (v: number): boolean => {
-    if (hStamp[v] === stamp) return hSeconds[v] !== Infinity;
-    hStamp[v] = stamp;
-    let bs = 0;
-    let bm = 0;
-    const vBase = v * K;
-    for (let k = 0; k < K; k++) {
-      const mt = lmM[tBase + k];
-      const mv = lmM[vBase + k];
-      if (mt === Infinity || mv === Infinity) {
-        if (mt !== mv) {
-          hSeconds[v] = Infinity;
-          return false;
-        }
-        continue;
-      }
-      const dm = mt > mv ? mt - mv : mv - mt;
-      if (dm > bm) bm = dm;
-      if (useTimes) {
-        const ds = lmS[tBase + k] - lmS[vBase + k];
-        const a = ds < 0 ? -ds : ds;
-        if (a > bs) bs = a;
-      }
-    }
-    bs *= secondsFactor;
-    if (bm * speedBound > bs) bs = bm * speedBound;
-    hSeconds[v] = bs;
-    hMetres[v] = bm;
-    return true;
-  };
+  const bound = targetBound(c, sc, t, secondsFactor, p.maxSpeedMps, p.landmarkTimesValid);
   const layers = useLayers ? swapLayers(c, sc, s, t, tether, excludeMask) : -2;
   if (layers === -1) return null;
   const { swapStamp, swapLayer, swapReach } = sc;

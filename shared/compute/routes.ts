@@ -8,7 +8,8 @@ import {
   edgeKindName,
   type CompiledStation,
 } from './compiled-station';
-import { arcSource, dijkstraPath, fitsTether, labelSearch, reachable } from './routes-search';
+import { clipSearch } from './routes-clip';
+import { arcSource, dijkstraPath, fastestPath, fitsTether, labelSearch, reachable } from './routes-search';
 import { placeSwapsGreedy } from './tether';
 
 export { hasNodeKey } from './compiled-station';
@@ -29,6 +30,18 @@ interface Query {
   mask: number;
   weights: Float64Array;
   landmarkTimesValid: boolean;
+  strategy: RouteStrategy;
+}
+
+/**
+ * How the engine searches. `clip-graph` (the default) answers the exact modes on the per-tether
+ * clip graph and the plain fastest path by A*; `label-search` runs the label-setting search over
+ * (node, paid out) and plain Dijkstra. Both are exact; each is the other's independent check.
+ */
+export type RouteStrategy = 'clip-graph' | 'label-search';
+
+export interface FindRouteOptions {
+  strategy?: RouteStrategy;
 }
 
 function maxSpeed(settings: StationSettings): number {
@@ -36,7 +49,7 @@ function maxSpeed(settings: StationSettings): number {
 }
 
 function search(q: Query, objective: 'sum' | 'lex', swapCost: number) {
-  return labelSearch(q.c, q.s, q.t, {
+  return (q.strategy === 'clip-graph' ? clipSearch : labelSearch)(q.c, q.s, q.t, {
     objective,
     swapCost,
     weights: q.weights,
@@ -177,7 +190,12 @@ function diagnose(q: Query): RouteInfeasible {
  * first); `from === to` is answered as infeasible `same-node` rather than an empty route, so a
  * caller never mistakes a typo'd duplicate for a real route.
  */
-export function findRoute(c: CompiledStation, settings: StationSettings, request: RouteRequest): RouteResult {
+export function findRoute(
+  c: CompiledStation,
+  settings: StationSettings,
+  request: RouteRequest,
+  options: FindRouteOptions = {},
+): RouteResult {
   const s = c.keyToIndex.get(request.from);
   const t = c.keyToIndex.get(request.to);
   if (s === undefined || t === undefined) {
@@ -195,11 +213,15 @@ export function findRoute(c: CompiledStation, settings: StationSettings, request
     mask: excludeMaskFor(request.allowRide),
     weights: arcSeconds,
     landmarkTimesValid,
+    strategy: options.strategy ?? 'clip-graph',
   };
   if (s === t) return infeasible(q, 'same-node', `The route starts and ends at ${request.from}.`);
 
   if (request.mode === 'fastest') {
-    const plain = dijkstraPath(c, arcSeconds, s, t, q.mask);
+    const plain =
+      q.strategy === 'clip-graph'
+        ? fastestPath(c, arcSeconds, s, t, q.mask, maxSpeed(settings), landmarkTimesValid)
+        : dijkstraPath(c, arcSeconds, s, t, q.mask);
     if (!plain) return diagnose(q);
     const lengths = plain.map((a) => c.arcLengthM[a]);
     const walkAttach = [s, ...plain.map((a) => c.targets[a])].map((v) => c.isAttach[v] === 1);

@@ -1,0 +1,476 @@
+import type { CompiledStation } from './compiled-station';
+import { MinHeap } from './routes-heap';
+import { scratchFor, targetBound, type LabelPath, type LabelSearchParams } from './routes-search';
+import { TETHER_EPS_M } from './tether';
+
+/**
+ * The clip graph of a compiled station for one tether length and set of excluded arcs: a route is
+ * a chain of stretches, each from a clip point (the start, or an attach point where the crew
+ * member swapped) to the next swap or the end, with at most one tether length paid out. The least
+ * time of a stretch between two attach points does not depend on the rest of the route, so it is
+ * computed once per attach point (an exact bounded search over (node, paid out)), and the exact
+ * modes become a shortest-path search over attach points, plus a first and a last stretch.
+ */
+export interface ClipGraph {
+  tetherLengthM: number;
+  excludeMask: number;
+  attachNodes: Int32Array;
+  /** attach index of a node, -1 for other nodes */
+  attachIndex: Int32Array;
+  offsets: Int32Array;
+  /** attach index of the far end of each stretch */
+  targets: Int32Array;
+  /** least time (arc weights, not carrying) of a stretch within the tether */
+  seconds: Float64Array;
+  /** clip landmarks: fewest stretches from landmark k to attach a at a * count + k */
+  landmarkCount: number;
+  landmarkHops: Int32Array;
+  buildMs: number;
+  memoryBytes: number;
+  query: ClipQueryState | null;
+}
+
+const UNREACHED = 0x3fffffff;
+const CLIP_LANDMARKS = 4;
+const CACHED_PER_WEIGHTS = 4;
+
+/** Scratch of the bounded stretch search, sized by the station's nodes. */
+class StretchScratch {
+  stamp = 0;
+  bestStamp: Int32Array;
+  bestLen: Float64Array;
+  size = 0;
+  node = new Int32Array(1024);
+  parent = new Int32Array(1024);
+  arc = new Int32Array(1024);
+  len = new Float64Array(1024);
+  time = new Float64Array(1024);
+  heap = new MinHeap(1024);
+  hitCount = 0;
+  hitNode: Int32Array;
+  hitTime: Float64Array;
+
+  constructor(n: number) {
+    this.bestStamp = new Int32Array(n);
+    this.bestLen = new Float64Array(n);
+    this.hitNode = new Int32Array(n);
+    this.hitTime = new Float64Array(n);
+  }
+
+  add(v: number, parent: number, arc: number, len: number, time: number): number {
+    if (this.size === this.node.length) {
+      const cap = this.size * 2;
+      const grow = <T extends Int32Array | Float64Array>(a: T): T => {
+        const b = new (a.constructor as new (n: number) => T)(cap);
+        b.set(a);
+        return b;
+      };
+      this.node = grow(this.node);
+      this.parent = grow(this.parent);
+      this.arc = grow(this.arc);
+      this.len = grow(this.len);
+      this.time = grow(this.time);
+    }
+    const x = this.size++;
+    this.node[x] = v;
+    this.parent[x] = parent;
+    this.arc[x] = arc;
+    this.len[x] = len;
+    this.time[x] = time;
+    return x;
+  }
+
+  nextStamp(): number {
+    if (++this.stamp >= 0x7fffffff) {
+      this.stamp = 1;
+      this.bestStamp.fill(0);
+    }
+    return this.stamp;
+  }
+}
+
+const stretchScratch = new WeakMap<CompiledStation, StretchScratch>();
+
+function stretchScratchFor(c: CompiledStation): StretchScratch {
+  let sc = stretchScratch.get(c);
+  if (!sc) stretchScratch.set(c, (sc = new StretchScratch(c.nodeCount)));
+  return sc;
+}
+
+/**
+ * Least-time walks from src with at most `limit` metres, exact: labels (node, time, length) are
+ * settled in time order and a label is dropped when a settled one at its node is no longer. The
+ * first label settled at a node is its least time within the limit. With `stopAt` ≥ 0 it returns
+ * that node's first label; with `record` it lists each attach point (and `extra`) first settled.
+ */
+function stretchSearch(
+  c: CompiledStation,
+  weights: Float64Array,
+  excludeMask: number,
+  limit: number,
+  src: number,
+  stopAt: number,
+  record: boolean,
+  extra: number,
+  sc: StretchScratch,
+): number {
+  const stamp = sc.nextStamp();
+  const { bestStamp, bestLen, heap, hitNode, hitTime } = sc;
+  const { offsets, targets, arcFlags, arcLengthM, isAttach } = c;
+  sc.size = 0;
+  let hits = 0;
+  heap.clear();
+  heap.push(sc.add(src, -1, -1, 0, 0), 0, 0);
+  while (heap.size > 0) {
+    const x = heap.pop();
+    const v = sc.node[x];
+    const len = sc.len[x];
+    if (bestStamp[v] === stamp) {
+      if (len >= bestLen[v]) continue;
+    } else {
+      if (v === stopAt) return x;
+      if (record && v !== src && (isAttach[v] || v === extra)) {
+        hitNode[hits] = v;
+        hitTime[hits++] = sc.time[x];
+      }
+      bestStamp[v] = stamp;
+    }
+    bestLen[v] = len;
+    const time = sc.time[x];
+    for (let a = offsets[v], end = offsets[v + 1]; a < end; a++) {
+      if (arcFlags[a] & excludeMask) continue;
+      const nl = len + arcLengthM[a];
+      if (nl > limit) continue;
+      const u = targets[a];
+      if (bestStamp[u] === stamp && nl >= bestLen[u]) continue;
+      const nt = time + weights[a];
+      heap.push(sc.add(u, x, a, nl, nt), nt, nl);
+    }
+  }
+  sc.hitCount = hits;
+  return -1;
+}
+
+/** Farthest-first landmarks over the clip graph, by stretch count (breadth-first). */
+function clipLandmarks(offsets: Int32Array, targets: Int32Array, count: number): Int32Array {
+  const A = offsets.length - 1;
+  const K = Math.min(count, A);
+  const hops = new Int32Array(A * K);
+  const nearest = new Int32Array(A).fill(UNREACHED + 1);
+  const level = new Int32Array(A);
+  const queue = new Int32Array(A);
+  let next = 0;
+  for (let k = 0; k < K; k++) {
+    level.fill(UNREACHED);
+    level[next] = 0;
+    let qh = 0;
+    let qt = 0;
+    queue[qt++] = next;
+    while (qh < qt) {
+      const a = queue[qh++];
+      for (let e = offsets[a], end = offsets[a + 1]; e < end; e++) {
+        const b = targets[e];
+        if (level[b] !== UNREACHED) continue;
+        level[b] = level[a] + 1;
+        queue[qt++] = b;
+      }
+    }
+    let far = 0;
+    for (let a = 0; a < A; a++) {
+      hops[a * K + k] = level[a];
+      if (level[a] < nearest[a]) nearest[a] = level[a];
+      if (nearest[a] > nearest[far]) far = a;
+    }
+    next = far;
+  }
+  return hops;
+}
+
+function buildClipGraph(c: CompiledStation, weights: Float64Array, tetherLengthM: number, excludeMask: number): ClipGraph {
+  const t0 = performance.now();
+  const n = c.nodeCount;
+  const attachIndex = new Int32Array(n).fill(-1);
+  let A = 0;
+  for (let v = 0; v < n; v++) if (c.isAttach[v]) attachIndex[v] = A++;
+  const attachNodes = new Int32Array(A);
+  for (let v = 0; v < n; v++) if (attachIndex[v] >= 0) attachNodes[attachIndex[v]] = v;
+  const sc = stretchScratchFor(c);
+  const limit = tetherLengthM + TETHER_EPS_M;
+  const offsets = new Int32Array(A + 1);
+  let targets = new Int32Array(Math.max(16, A * 8));
+  let seconds = new Float64Array(targets.length);
+  let m = 0;
+  for (let i = 0; i < A; i++) {
+    stretchSearch(c, weights, excludeMask, limit, attachNodes[i], -1, true, -1, sc);
+    const hits = sc.hitCount;
+    if (m + hits > targets.length) {
+      const cap = Math.max(2 * targets.length, m + hits);
+      const t2 = new Int32Array(cap);
+      const s2 = new Float64Array(cap);
+      t2.set(targets.subarray(0, m));
+      s2.set(seconds.subarray(0, m));
+      targets = t2;
+      seconds = s2;
+    }
+    for (let h = 0; h < hits; h++) {
+      targets[m] = attachIndex[sc.hitNode[h]];
+      seconds[m++] = sc.hitTime[h];
+    }
+    offsets[i + 1] = m;
+  }
+  targets = targets.slice(0, m);
+  seconds = seconds.slice(0, m);
+  const landmarkHops = clipLandmarks(offsets, targets, CLIP_LANDMARKS);
+  const cg: ClipGraph = {
+    tetherLengthM,
+    excludeMask,
+    attachNodes,
+    attachIndex,
+    offsets,
+    targets,
+    seconds,
+    landmarkCount: Math.min(CLIP_LANDMARKS, A),
+    landmarkHops,
+    buildMs: 0,
+    memoryBytes: 0,
+    query: null,
+  };
+  cg.memoryBytes = [attachNodes, attachIndex, offsets, targets, seconds, landmarkHops].reduce((b, a) => b + a.byteLength, 0);
+  cg.buildMs = performance.now() - t0;
+  return cg;
+}
+
+const clipCache = new WeakMap<Float64Array, Map<string, ClipGraph>>();
+
+/**
+ * The clip graph for these arc weights (not carrying: carrying scales every stretch alike),
+ * tether length and exclusions; built on first use and kept for the last few combinations.
+ */
+export function clipGraphFor(c: CompiledStation, weights: Float64Array, tetherLengthM: number, excludeMask: number): ClipGraph {
+  let byKey = clipCache.get(weights);
+  if (!byKey) clipCache.set(weights, (byKey = new Map()));
+  const key = `${tetherLengthM}|${excludeMask}`;
+  let cg = byKey.get(key);
+  if (cg) {
+    byKey.delete(key);
+  } else {
+    cg = buildClipGraph(c, weights, tetherLengthM, excludeMask);
+    if (byKey.size >= CACHED_PER_WEIGHTS) byKey.delete(byKey.keys().next().value!);
+  }
+  byKey.set(key, cg);
+  return cg;
+}
+
+/** Per-query arrays over attach points (index A is the target), reset by a stamp. */
+interface ClipQueryState {
+  stamp: number;
+  seen: Int32Array;
+  p1: Float64Array;
+  p2: Float64Array;
+  pred: Int32Array;
+  hStamp: Int32Array;
+  h1: Float64Array;
+  h2: Float64Array;
+  lastStamp: Int32Array;
+  last: Float64Array;
+  heap: MinHeap;
+}
+
+function queryState(cg: ClipGraph): ClipQueryState {
+  const A = cg.attachNodes.length;
+  let q = cg.query;
+  if (!q) {
+    q = cg.query = {
+      stamp: 0,
+      seen: new Int32Array(A + 1),
+      p1: new Float64Array(A + 1),
+      p2: new Float64Array(A + 1),
+      pred: new Int32Array(A + 1),
+      hStamp: new Int32Array(A),
+      h1: new Float64Array(A),
+      h2: new Float64Array(A),
+      lastStamp: new Int32Array(A),
+      last: new Float64Array(A),
+      heap: new MinHeap(1024),
+    };
+  }
+  if (++q.stamp >= 0x7fffffff) {
+    q.stamp = 1;
+    for (const a of [q.seen, q.hStamp, q.lastStamp]) a.fill(0);
+  }
+  return q;
+}
+
+/**
+ * Exact `lex` (fewest swaps, then least time) or `sum` (time + swapCost per swap) route by A* over
+ * the clip graph. Same optimum as labelSearch with the same parameters.
+ */
+export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSearchParams): LabelPath | null {
+  const cg = clipGraphFor(c, p.weights, p.tetherLengthM, p.excludeMask);
+  const ns = scratchFor(c);
+  const bound = targetBound(c, ns, t, p.secondsFactor, p.maxSpeedMps, p.landmarkTimesValid);
+  if (!bound(s)) return null;
+  const { hSeconds, hMetres } = ns;
+  const st = stretchScratchFor(c);
+  const q = queryState(cg);
+  const stamp = q.stamp;
+  const { seen, p1, p2, pred, hStamp, h1, h2, lastStamp, last, heap } = q;
+  const { attachNodes, attachIndex, offsets, targets, seconds, landmarkHops: lmH } = cg;
+  const A = attachNodes.length;
+  const K = cg.landmarkCount;
+  const f = p.secondsFactor;
+  const lex = p.objective === 'lex';
+  const swapCost = p.swapCost;
+  const tether = p.tetherLengthM;
+  const limit = tether + TETHER_EPS_M;
+  const sIdx = attachIndex[s];
+  const tIdx = attachIndex[t];
+
+  // last stretches: attach points within one tether of t, and their least time to it
+  let lastCount = 0;
+  const lastList = st.hitNode;
+  if (tIdx >= 0) {
+    for (let e = offsets[tIdx], end = offsets[tIdx + 1]; e < end; e++) {
+      const b = targets[e];
+      lastStamp[b] = stamp;
+      last[b] = seconds[e];
+      lastList[lastCount++] = b;
+    }
+  } else {
+    stretchSearch(c, p.weights, p.excludeMask, limit, t, -1, true, -1, st);
+    lastCount = st.hitCount;
+    for (let h = 0; h < lastCount; h++) {
+      const b = attachIndex[st.hitNode[h]];
+      lastStamp[b] = stamp;
+      last[b] = st.hitTime[h];
+      lastList[h] = b;
+    }
+  }
+  // per clip landmark: the least and greatest stretch count to those attach points
+  const lmLo = new Int32Array(K).fill(UNREACHED);
+  const lmHi = new Int32Array(K).fill(-1);
+  const lmOff = new Uint8Array(K);
+  for (let h = 0; h < lastCount; h++) {
+    const base = lastList[h] * K;
+    for (let k = 0; k < K; k++) {
+      const v = lmH[base + k];
+      if (v === UNREACHED) lmOff[k] = 1;
+      else {
+        if (v < lmLo[k]) lmLo[k] = v;
+        if (v > lmHi[k]) lmHi[k] = v;
+      }
+    }
+  }
+
+  // lower bounds from attach point a (freshly clipped) to t: swaps, then (p1, p2) parts
+  const heuristic = (a: number): boolean => {
+    if (hStamp[a] === stamp) return h1[a] !== Infinity;
+    hStamp[a] = stamp;
+    const v = attachNodes[a];
+    if (lastCount === 0 || !bound(v)) {
+      h1[a] = Infinity;
+      return false;
+    }
+    const need = hMetres[v] - tether;
+    let sw = need > TETHER_EPS_M ? Math.ceil(need / tether - 1e-9) : 0;
+    const base = a * K;
+    for (let k = 0; k < K; k++) {
+      const ha = lmH[base + k];
+      let lb: number;
+      if (ha === UNREACHED) lb = lmOff[k] ? 0 : Infinity;
+      else if (lmHi[k] < 0) lb = Infinity;
+      else lb = ha > lmHi[k] ? ha - lmHi[k] : ha < lmLo[k] ? lmLo[k] - ha : 0;
+      if (lb > sw) sw = lb;
+    }
+    if (sw === Infinity) {
+      h1[a] = Infinity;
+      return false;
+    }
+    if (lex) {
+      h1[a] = sw;
+      h2[a] = hSeconds[v];
+    } else {
+      h1[a] = hSeconds[v] + swapCost * sw;
+      h2[a] = 0;
+    }
+    return true;
+  };
+  const offerTarget = (from: number, q1: number, q2: number) => {
+    if (seen[A] === stamp && (p1[A] < q1 || (p1[A] === q1 && p2[A] <= q2))) return;
+    seen[A] = stamp;
+    p1[A] = q1;
+    p2[A] = q2;
+    pred[A] = from;
+    heap.push(A, q1, q2);
+  };
+  const offer = (a: number, from: number, q1: number, q2: number) => {
+    if (a === tIdx) return;
+    if (seen[a] === stamp && (p1[a] < q1 || (p1[a] === q1 && p2[a] <= q2))) return;
+    if (!heuristic(a)) return;
+    seen[a] = stamp;
+    p1[a] = q1;
+    p2[a] = q2;
+    pred[a] = from;
+    heap.push(a, q1 + h1[a], q2 + h2[a]);
+  };
+
+  heap.clear();
+  if (sIdx >= 0) offer(sIdx, -1, 0, 0);
+  else {
+    stretchSearch(c, p.weights, p.excludeMask, limit, s, -1, true, t, st);
+    for (let h = 0; h < st.hitCount; h++) {
+      const v = st.hitNode[h];
+      const time = f * st.hitTime[h];
+      if (v === t) offerTarget(-1, lex ? 0 : time, lex ? time : 0);
+      else offer(attachIndex[v], -1, lex ? 1 : time + swapCost, lex ? time : 0);
+    }
+  }
+  let found = false;
+  while (heap.size > 0) {
+    const k1 = heap.topKey1();
+    const k2 = heap.topKey2();
+    const a = heap.pop();
+    if (a === A) {
+      if (k1 !== p1[A] || k2 !== p2[A]) continue;
+      found = true;
+      break;
+    }
+    const d1 = p1[a];
+    const d2 = p2[a];
+    if (k1 !== d1 + h1[a] || k2 !== d2 + h2[a]) continue;
+    if (lastStamp[a] === stamp) {
+      const time = f * last[a];
+      offerTarget(a, lex ? d1 : d1 + time, lex ? d2 + time : 0);
+    }
+    for (let e = offsets[a], end = offsets[a + 1]; e < end; e++) {
+      const time = f * seconds[e];
+      if (lex) offer(targets[e], a, d1 + 1, d2 + time);
+      else offer(targets[e], a, d1 + time + swapCost, 0);
+    }
+  }
+  if (!found) return null;
+
+  const clips: number[] = [t];
+  for (let a = pred[A]; a !== -1; a = pred[a]) clips.push(attachNodes[a]);
+  if (clips[clips.length - 1] !== s) clips.push(s);
+  clips.reverse();
+  const arcs: number[] = [];
+  let total = 0;
+  for (let i = 0; i + 1 < clips.length; i++) {
+    let x = stretchSearch(c, p.weights, p.excludeMask, limit, clips[i], clips[i + 1], false, -1, st);
+    if (x < 0) throw new Error('internal: a clip-graph stretch has no walk');
+    total += st.time[x];
+    const from = arcs.length;
+    for (; st.arc[x] !== -1; x = st.parent[x]) arcs.push(st.arc[x]);
+    reverseFrom(arcs, from);
+  }
+  return { arcs, swaps: clips.length - 2, seconds: total * f };
+}
+
+function reverseFrom(list: number[], from: number): void {
+  for (let i = from, j = list.length - 1; i < j; i++, j--) {
+    const tmp = list[i];
+    list[i] = list[j];
+    list[j] = tmp;
+  }
+}
