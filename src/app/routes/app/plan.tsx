@@ -1,5 +1,38 @@
-import { ComingSoon } from '@/components/layouts/coming-soon';
+import type { QueryClient } from '@tanstack/react-query';
+import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { PageSpinner } from '@/components/ui/spinner';
+import { paths } from '@/config/paths';
+import { requireUser, useUser } from '@/lib/authorization';
+import { getPlanQueryOptions, usePlan } from '@/features/plans/api/get-plan';
+import { PlanEditor } from '@/features/plans/components/plan-editor';
+import type { PlanStationNodes } from '@/features/plans/types';
+import { useStationGraph } from '@/features/stations/api/get-station-graph';
+
+export const clientLoader =
+  (queryClient: QueryClient) =>
+  async ({ request, params }: LoaderFunctionArgs) => {
+    await requireUser(queryClient, request);
+    await queryClient.ensureQueryData(getPlanQueryOptions(Number(params.planId)));
+    return null;
+  };
 
 export default function PlanRoute() {
-  return <ComingSoon title="Plan" description="Crew, tasks, manifest, timeline and review of one EVA." />;
+  const planId = Number(useParams().planId);
+  const plan = usePlan(planId);
+  const { data: user } = useUser();
+  const graph = useStationGraph(plan.data?.stationId ?? 0);
+  if (!plan.data || !user) return <PageSpinner />;
+  const nodes: PlanStationNodes | undefined = graph.data && {
+    worksites: graph.data.nodes.filter((n) => n.kind === 'worksite'),
+    sockets: graph.data.nodes.filter((n) => n.kind === 'socket'),
+  };
+  return (
+    <PlanEditor
+      key={plan.data.id}
+      plan={plan.data}
+      user={user}
+      nodes={nodes}
+      rehearseHref={paths.walkthroughs.getHref({ planId: plan.data.id })}
+    />
+  );
 }

@@ -1,5 +1,62 @@
-import { ComingSoon } from '@/components/layouts/coming-soon';
+import { useState } from 'react';
+import type { QueryClient } from '@tanstack/react-query';
+import { useNavigate, type LoaderFunctionArgs } from 'react-router-dom';
+import { PageHeader } from '@/components/layouts/app-layout';
+import { Button } from '@/components/ui/button';
+import { Panel } from '@/components/ui/card';
+import { Dialog } from '@/components/ui/dialog';
+import { PageSpinner } from '@/components/ui/spinner';
+import { paths } from '@/config/paths';
+import { requireUser, useCan } from '@/lib/authorization';
+import { getPlansQueryOptions, usePlans } from '@/features/plans/api/get-plans';
+import { CreatePlanForm } from '@/features/plans/components/create-plan-form';
+import { PlansList } from '@/features/plans/components/plans-list';
+import { useStations } from '@/features/stations/api/get-stations';
+
+export const clientLoader =
+  (queryClient: QueryClient) =>
+  async ({ request }: LoaderFunctionArgs) => {
+    await requireUser(queryClient, request);
+    await queryClient.ensureQueryData(getPlansQueryOptions());
+    return null;
+  };
 
 export default function PlansRoute() {
-  return <ComingSoon title="Plans" description="EVA plans by status: draft, in review and approved." />;
+  const plans = usePlans();
+  const stations = useStations();
+  const canEdit = useCan('plans:edit');
+  const navigate = useNavigate();
+  const [creating, setCreating] = useState(false);
+  const choices = (stations.data ?? []).map((s) => ({
+    id: s.id,
+    name: s.name,
+    tetherLengthM: s.settings.tetherLengthM,
+  }));
+
+  return (
+    <>
+      <PageHeader
+        title="Plans"
+        description="EVA plans by status: drafts being sequenced, plans in review and approved plans."
+        actions={
+          canEdit && (
+            <Button onClick={() => setCreating(true)} disabled={!stations.data?.length}>
+              New plan
+            </Button>
+          )
+        }
+      />
+      <Panel>{plans.data ? <PlansList plans={plans.data} /> : <PageSpinner />}</Panel>
+      <Dialog open={creating} title="New plan" onClose={() => setCreating(false)}>
+        <CreatePlanForm
+          stations={choices}
+          onCancel={() => setCreating(false)}
+          onSuccess={(plan) => {
+            setCreating(false);
+            navigate(paths.plan.getHref(plan.id));
+          }}
+        />
+      </Dialog>
+    </>
+  );
 }

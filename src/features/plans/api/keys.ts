@@ -1,0 +1,15 @@
+import type { PlanStatus } from '@shared/schemas/plan';
+
+export interface PlanListFilters {
+  status?: PlanStatus;
+  stationId?: number;
+}
+
+export const planKeys = {
+  all: ['plans'] as const,
+  lists: () => [...planKeys.all, 'list'] as const,
+  list: (filters: PlanListFilters = {}) => [...planKeys.lists(), filters] as const,
+  details: () => [...planKeys.all, 'detail'] as const,
+  detail: (id: number) => [...planKeys.details(), id] as const,
+  timeline: (id: number) => [...planKeys.detail(id), 'timeline'] as const,
+};

@@ -1,0 +1,205 @@
+import { useForm, useWatch, type Control } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { z } from 'zod';
+import { parseLength, formatLength, metresToFeet } from '@shared/compute/units';
+import {
+  CrewSlotSchema,
+  DEFAULT_EGRESS_SECONDS,
+  DEFAULT_INGRESS_SECONDS,
+  DEFAULT_TIME_LIMIT_SECONDS,
+  type CreatePlanInput,
+} from '@shared/schemas/plan';
+import { ROUTE_MODES } from '@shared/schemas/route';
+import { FormActions } from './form-actions';
+import { Field } from '@/components/ui/field';
+import { FormError } from '@/components/ui/form-error';
+import { Input } from '@/components/ui/input';
+import { Select } from '@/components/ui/select';
+import { useCreatePlan } from '../api/create-plan';
+import { durationField, lengthText, numberText, optionalBetaText, planField } from '../lib/form-fields';
+import { durationText } from '../lib/plan-draft';
+import type { PlanView, StationChoice } from '../types';
+import { ROUTE_MODE_LABELS } from './route-mode-labels';
+
+const CreatePlanFormSchema = z.object({
+  title: planField.title,
+  stationId: z.string().min(1, 'pick a station').transform(Number),
+  date: planField.date,
+  ev1Name: CrewSlotSchema.shape.name,
+  ev1Tether: lengthText(CrewSlotSchema.shape.tetherLengthM.unwrap()),
+  ev2Name: CrewSlotSchema.shape.name,
+  ev2Tether: lengthText(CrewSlotSchema.shape.tetherLengthM.unwrap()),
+  routeMode: planField.routeMode,
+  allowRide: z.boolean(),
+  orbitPhaseAtStartDeg: numberText(planField.orbitPhaseAtStartDeg),
+  betaDegOverride: optionalBetaText,
+  timeLimit: durationField(planField.timeLimitSeconds),
+  egress: durationField(planField.egressSeconds),
+  ingress: durationField(planField.ingressSeconds),
+});
+type FormInput = z.input<typeof CreatePlanFormSchema>;
+type FormOutput = z.output<typeof CreatePlanFormSchema>;
+
+const toCreateInput = (v: FormOutput): CreatePlanInput => ({
+  title: v.title,
+  stationId: v.stationId,
+  date: v.date,
+  crew: {
+    EV1: { name: v.ev1Name, tetherLengthM: v.ev1Tether },
+    EV2: { name: v.ev2Name, tetherLengthM: v.ev2Tether },
+  },
+  routeMode: v.routeMode,
+  allowRide: v.allowRide,
+  orbitPhaseAtStartDeg: v.orbitPhaseAtStartDeg,
+  ...(v.betaDegOverride === undefined ? {} : { betaDegOverride: v.betaDegOverride }),
+  timeLimitSeconds: v.timeLimit,
+  egressSeconds: v.egress,
+  ingressSeconds: v.ingress,
+  tasks: [],
+  manifest: [],
+});
+
+/** "= 85.0 ft" beside a tether typed in metres (and the other way round), so both units are in view. */
+function TetherEcho({
+  control,
+  name,
+}: {
+  control: Control<FormInput, unknown, FormOutput>;
+  name: 'ev1Tether' | 'ev2Tether';
+}) {
+  const text = useWatch({ control, name });
+  const parsed = parseLength(text ?? '', 'm');
+  if (!parsed.ok) return <>m or ft, e.g. 25.9 m or 85 ft</>;
+  return (
+    <>
+      = {formatLength(parsed.value, 'm')} = {metresToFeet(parsed.value).toFixed(1)} ft
+    </>
+  );
+}
+
+interface CreatePlanFormProps {
+  stations: StationChoice[];
+  onSuccess: (plan: PlanView) => void;
+  onCancel: () => void;
+}
+
+export function CreatePlanForm({ stations, onSuccess, onCancel }: CreatePlanFormProps) {
+  const create = useCreatePlan({ onSuccess });
+  const first = stations[0];
+  const tether = first ? formatLength(first.tetherLengthM) : '';
+  const {
+    register,
+    handleSubmit,
+    control,
+    setValue,
+    formState: { errors },
+  } = useForm<FormInput, unknown, FormOutput>({
+    resolver: zodResolver(CreatePlanFormSchema),
+    defaultValues: {
+      title: '',
+      stationId: first ? String(first.id) : '',
+      date: new Date().toISOString().slice(0, 10),
+      ev1Name: '',
+      ev1Tether: tether,
+      ev2Name: '',
+      ev2Tether: tether,
+      routeMode: 'balanced',
+      allowRide: false,
+      orbitPhaseAtStartDeg: '0',
+      betaDegOverride: '',
+      timeLimit: durationText(DEFAULT_TIME_LIMIT_SECONDS),
+      egress: durationText(DEFAULT_EGRESS_SECONDS),
+      ingress: durationText(DEFAULT_INGRESS_SECONDS),
+    },
+  });
+  const stationField = register('stationId');
+
+  return (
+    <form noValidate onSubmit={handleSubmit((v) => create.mutate(toCreateInput(v)))} className="space-y-4">
+      <FormError error={create.error} fallback="The plan could not be created." />
+      <Field label="Title" error={errors.title?.message}>
+        <Input autoComplete="off" {...register('title')} />
+      </Field>
+      <div className="grid gap-4 sm:grid-cols-2">
+        <Field label="Station" error={errors.stationId?.message}>
+          <Select
+            options={stations.map((s) => ({ value: String(s.id), label: s.name }))}
+            {...stationField}
+            onChange={(e) => {
+              void stationField.onChange(e);
+              const station = stations.find((s) => String(s.id) === e.target.value);
+              if (station) {
+                setValue('ev1Tether', formatLength(station.tetherLengthM));
+                setValue('ev2Tether', formatLength(station.tetherLengthM));
+              }
+            }}
+          />
+        </Field>
+        <Field label="EVA date" error={errors.date?.message}>
+          <Input type="date" {...register('date')} />
+        </Field>
+      </div>
+      <fieldset className="grid gap-4 sm:grid-cols-2">
+        <legend className="mb-2 text-sm font-semibold text-text-strong">Crew</legend>
+        <Field label="EV1 name" error={errors.ev1Name?.message}>
+          <Input autoComplete="off" {...register('ev1Name')} />
+        </Field>
+        <Field
+          label="EV1 tether length"
+          error={errors.ev1Tether?.message}
+          hint={<TetherEcho control={control} name="ev1Tether" />}
+        >
+          <Input autoComplete="off" {...register('ev1Tether')} />
+        </Field>
+        <Field label="EV2 name" error={errors.ev2Name?.message}>
+          <Input autoComplete="off" {...register('ev2Name')} />
+        </Field>
+        <Field
+          label="EV2 tether length"
+          error={errors.ev2Tether?.message}
+          hint={<TetherEcho control={control} name="ev2Tether" />}
+        >
+          <Input autoComplete="off" {...register('ev2Tether')} />
+        </Field>
+      </fieldset>
+      <div className="grid gap-4 sm:grid-cols-2">
+        <Field label="Route mode" error={errors.routeMode?.message}>
+          <Select
+            options={ROUTE_MODES.map((m) => ({ value: m, label: ROUTE_MODE_LABELS[m] }))}
+            {...register('routeMode')}
+          />
+        </Field>
+        <label className="flex items-center gap-2 self-end pb-2 text-sm font-medium text-text-strong">
+          <input type="checkbox" className="size-4 accent-accent" {...register('allowRide')} />
+          Arm ride allowed
+        </label>
+        <Field
+          label="Orbit phase at start (°)"
+          error={errors.orbitPhaseAtStartDeg?.message}
+          hint="0° = orbital sunrise"
+        >
+          <Input inputMode="decimal" {...register('orbitPhaseAtStartDeg')} />
+        </Field>
+        <Field
+          label="Beta angle override (°)"
+          error={errors.betaDegOverride?.message}
+          hint="Leave blank for the station's beta angle"
+        >
+          <Input inputMode="decimal" {...register('betaDegOverride')} />
+        </Field>
+        <Field label="Time limit (h:mm)" error={errors.timeLimit?.message}>
+          <Input {...register('timeLimit')} />
+        </Field>
+        <div className="grid grid-cols-2 gap-4">
+          <Field label="Egress (h:mm)" error={errors.egress?.message}>
+            <Input {...register('egress')} />
+          </Field>
+          <Field label="Ingress (h:mm)" error={errors.ingress?.message}>
+            <Input {...register('ingress')} />
+          </Field>
+        </div>
+      </div>
+      <FormActions submit="Create plan" onCancel={onCancel} isLoading={create.isPending} />
+    </form>
+  );
+}

@@ -1,0 +1,185 @@
+import type { ReactNode } from 'react';
+import { Link } from 'react-router-dom';
+import type { User } from '@shared/schemas/auth';
+import { can } from '@shared/auth/permissions';
+import { Alert } from '@/components/ui/alert';
+import { focusRing } from '@/components/ui/button';
+import { Panel } from '@/components/ui/card';
+import { FormError } from '@/components/ui/form-error';
+import { PlanningCaution } from '@/components/ui/planning-caution';
+import { PageSpinner } from '@/components/ui/spinner';
+import { cn } from '@/lib/cn';
+import { planExportHref } from '../api/export-plan';
+import { usePlanTimeline } from '../api/get-plan-timeline';
+import { usePlanDraft } from '../lib/use-plan-draft';
+import type { PlanStationNodes, PlanView } from '../types';
+import { ConflictNotice } from './conflict-notice';
+import { CrewEditor, SettingsEditor } from './crew-and-settings';
+import { ManifestEditor, itemRowId } from './manifest-editor';
+import { PlanStatusBadge } from './plan-status-badge';
+import { ReviewPanel } from './review-panel';
+import { SaveIndicator } from './save-indicator';
+import { TasksEditor, taskRowId } from './tasks-editor';
+import { TimelineChart } from './timeline-chart';
+import { TimelineTotals } from './timeline-totals';
+import { WarningsPanel, type WarningTarget } from './warnings-panel';
+
+const TIMELINE_ID = 'plan-timeline';
+
+const LOCKED: Record<string, string> = {
+  'in-review':
+    'This plan is in review, so it is locked. A reviewer approves it or returns it to draft; the author can withdraw it.',
+  approved: 'This plan is approved, so it is locked. A planner must return it to draft before it can change.',
+};
+
+const linkClass = cn(
+  'inline-flex h-8 items-center gap-1.5 rounded-md border border-surface-line bg-surface-panel px-3 text-sm font-medium text-text-strong hover:bg-surface-sunken',
+  focusRing,
+);
+
+function goTo(target: WarningTarget) {
+  const id =
+    target.kind === 'task'
+      ? taskRowId(target.index)
+      : target.kind === 'item'
+        ? itemRowId(target.index)
+        : TIMELINE_ID;
+  const el = document.getElementById(id);
+  el?.scrollIntoView({ block: 'center', behavior: 'smooth' });
+  el?.focus({ preventScroll: true });
+}
+
+interface PlanEditorProps {
+  plan: PlanView;
+  user: User;
+  /** the station's worksites and sockets; undefined while they load */
+  nodes?: PlanStationNodes;
+  /** the walkthrough screen for this plan, composed by the route */
+  rehearseHref: string;
+  /** an optional picker the route composes beside the task list, e.g. a small 3D view */
+  extra?: ReactNode;
+}
+
+export function PlanEditor({ plan, user, nodes, rehearseHref, extra }: PlanEditorProps) {
+  const editable = can(user, 'plans:edit') && plan.status === 'draft';
+  const readOnly = !editable;
+  const { draft, change, save, reload, conflict, state, error, savedVersion } = usePlanDraft(plan, editable);
+  const timeline = usePlanTimeline(plan.id);
+  const tl = timeline.data;
+  const toolNames = [...new Set(draft.manifest.map((m) => m.name))];
+  const places = nodes?.worksites.map((n) => n.key) ?? [];
+  const unsaved = state !== 'saved';
+
+  return (
+    <div className="space-y-5">
+      <header className="flex flex-wrap items-start justify-between gap-4">
+        <div className="space-y-1">
+          <div className="flex flex-wrap items-center gap-3">
+            <h1 className="text-2xl font-semibold tracking-tight text-text-strong">
+              {draft.title || plan.title}
+            </h1>
+            <PlanStatusBadge status={plan.status} />
+          </div>
+          <p className="text-sm text-text-muted">
+            {plan.stationName} · EVA {plan.date} · version {plan.version} · written by{' '}
+            {plan.authorName ?? 'someone no longer here'}
+            {plan.approverName && <> · approved by {plan.approverName}</>}
+          </p>
+        </div>
+        <div className="flex flex-wrap items-center gap-2">
+          {editable && <SaveIndicator state={state} version={savedVersion} onSave={save} />}
+          <a className={linkClass} href={planExportHref(plan.id, 'csv')} download>
+            ⤓ Timeline CSV
+          </a>
+          <a className={linkClass} href={planExportHref(plan.id, 'pdf')} download>
+            ⤓ Cue cards (PDF)
+          </a>
+          <Link className={linkClass} to={rehearseHref}>
+            ▶ Rehearse
+          </Link>
+        </div>
+      </header>
+
+      {LOCKED[plan.status] && (
+        <Alert tone="info" title="Editing is locked">
+          {LOCKED[plan.status]}
+        </Alert>
+      )}
+      {!can(user, 'plans:edit') && plan.status === 'draft' && (
+        <Alert tone="info">Your role reads plans; planners edit them.</Alert>
+      )}
+      {conflict && <ConflictNotice conflict={conflict} onReload={reload} />}
+      {!conflict && <FormError error={error} fallback="The plan could not be saved." />}
+
+      <Panel
+        title="Timeline"
+        actions={
+          tl && (
+            <span className="text-xs text-text-muted">
+              {timeline.isFetching ? 'Recomputing…' : `Computed for version ${tl.planVersion}`}
+              {unsaved && editable && !timeline.isFetching ? ' · recomputes when saved' : ''}
+            </span>
+          )
+        }
+      >
+        <div id={TIMELINE_ID} tabIndex={-1} className="space-y-4 outline-none">
+          <PlanningCaution />
+          {tl ? (
+            <>
+              <TimelineChart timeline={tl} tasks={plan.tasks} />
+              <TimelineTotals timeline={tl} names={{ EV1: plan.crew.EV1.name, EV2: plan.crew.EV2.name }} />
+            </>
+          ) : timeline.error ? (
+            <FormError error={timeline.error} fallback="The timeline could not be computed." />
+          ) : (
+            <PageSpinner />
+          )}
+        </div>
+      </Panel>
+
+      <div className="grid gap-5 lg:grid-cols-3">
+        <div className="space-y-5 lg:col-span-2">
+          <Panel title={`Tasks (${draft.tasks.length})`}>
+            {extra}
+            {nodes ? (
+              <TasksEditor
+                tasks={draft.tasks}
+                onChange={(tasks) => change({ tasks })}
+                readOnly={readOnly}
+                nodes={nodes}
+                toolNames={toolNames}
+                reach={tl && tl.planVersion === savedVersion ? tl.reach : []}
+              />
+            ) : (
+              <PageSpinner />
+            )}
+          </Panel>
+          <Panel title={`Manifest (${draft.manifest.length})`}>
+            <ManifestEditor
+              manifest={draft.manifest}
+              onChange={(manifest) => change({ manifest })}
+              readOnly={readOnly}
+              places={places}
+            />
+          </Panel>
+          <Panel title="Crew">
+            <CrewEditor draft={draft} onChange={change} readOnly={readOnly} />
+          </Panel>
+          <Panel title="EVA settings">
+            <SettingsEditor draft={draft} onChange={change} readOnly={readOnly} />
+          </Panel>
+        </div>
+        <div className="space-y-5">
+          <Panel
+            title={`Warnings${tl ? ` (${tl.warnings.length + tl.reachWarnings.length + tl.inventoryWarnings.length})` : ''}`}
+          >
+            {tl ? <WarningsPanel timeline={tl} onGoTo={goTo} /> : <PageSpinner />}
+          </Panel>
+          <Panel title="Review">
+            <ReviewPanel plan={plan} user={user} unsaved={editable && unsaved} />
+          </Panel>
+        </div>
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,364 @@
+import { useId, useState } from 'react';
+import type { CrewMember, Task } from '@shared/schemas/plan';
+import type { TimelineBlock, TimelineBlockType } from '@shared/compute/timeline';
+import { formatElapsed, formatLength } from '@shared/compute/units';
+import { palette } from '../../../../tailwind.config';
+import type { PlanTimeline } from '../types';
+
+const CREW: CrewMember[] = ['EV1', 'EV2'];
+const W = 1000;
+const LEFT = 56;
+const RIGHT = 16;
+const PLOT = W - LEFT - RIGHT;
+const BAND_TOP = 22;
+const LANE_H = 46;
+const LANE_GAP = 14;
+const laneTop = (i: number) => BAND_TOP + 6 + i * (LANE_H + LANE_GAP);
+const AXIS_Y = laneTop(2) - LANE_GAP + 8;
+const H = AXIS_Y + 26;
+
+export const BLOCK_NAMES: Record<TimelineBlockType, string> = {
+  egress: 'Egress',
+  translate: 'Translate',
+  swap: 'Tether swap',
+  work: 'Work',
+  wait: 'Wait',
+  ingress: 'Ingress',
+};
+
+/** Fill per block type: a pattern as well as a colour, so the kinds differ without colour. */
+const FILL: Record<TimelineBlockType, { fill: string; stroke: string; text: string; dash?: string }> = {
+  work: { fill: palette.accent.DEFAULT, stroke: palette.accent.strong, text: '#ffffff' },
+  translate: { fill: 'url(#tl-hatch)', stroke: palette.ink[700], text: palette.text.strong },
+  swap: { fill: 'url(#tl-cross)', stroke: palette.caution.DEFAULT, text: palette.text.strong },
+  wait: { fill: palette.surface.panel, stroke: palette.text.muted, text: palette.text.muted, dash: '4 3' },
+  egress: { fill: 'url(#tl-stripes)', stroke: palette.ink[700], text: palette.text.strong },
+  ingress: { fill: 'url(#tl-stripes)', stroke: palette.ink[700], text: palette.text.strong },
+};
+
+function tickStep(horizon: number): number {
+  if (horizon <= 3 * 3600) return 15 * 60;
+  if (horizon <= 9 * 3600) return 30 * 60;
+  return 3600;
+}
+
+export interface ActiveBlock {
+  crew: CrewMember;
+  block: TimelineBlock;
+}
+
+function blockTitle(block: TimelineBlock, tasks: readonly Task[]): string {
+  const task = block.taskIndex === undefined ? undefined : tasks[block.taskIndex];
+  if (block.type === 'work') return `Task ${block.taskIndex! + 1}: ${block.label}`;
+  if (task && block.type !== 'translate')
+    return `${block.label} (task ${block.taskIndex! + 1} “${task.title}”)`;
+  return block.label;
+}
+
+function blockLabel(crew: CrewMember, block: TimelineBlock, tasks: readonly Task[]) {
+  const span = `${formatElapsed(block.start)} to ${formatElapsed(block.end)}`;
+  const extra = block.unreached ? ', not reached: see warnings' : '';
+  return `${crew} ${BLOCK_NAMES[block.type]}: ${blockTitle(block, tasks)}, ${span}${extra}`;
+}
+
+/** The translate piece's own stretch of the route, in metres. */
+export function pieceLengthM(block: TimelineBlock): number {
+  const legs = block.route?.legs.slice(block.legStart ?? 0, block.legEnd ?? block.route.legs.length) ?? [];
+  return legs.reduce((s, l) => s + l.lengthM, 0);
+}
+
+export function BlockDetails({ active, tasks }: { active: ActiveBlock | null; tasks: readonly Task[] }) {
+  if (!active) {
+    return <p className="text-sm text-text-muted">Point at or focus a block to see its times and route.</p>;
+  }
+  const { crew, block } = active;
+  const route = block.route;
+  return (
+    <div className="space-y-1 text-sm">
+      <p className="font-semibold text-text-strong">
+        {crew} · {BLOCK_NAMES[block.type]} · {blockTitle(block, tasks)}
+      </p>
+      <p>
+        {formatElapsed(block.start)}–{formatElapsed(block.end)} elapsed (
+        {formatElapsed(block.end - block.start, { withSeconds: true })})
+        {block.unreached && <span className="ml-2 font-semibold text-danger">⚠ worksite not reached</span>}
+      </p>
+      {block.type === 'swap' && block.swapNode && (
+        <p>Clip the new hook at {block.swapNode}, then release the old one.</p>
+      )}
+      {route && (
+        <>
+          <p>
+            This stretch: {block.from} → {block.to}, {formatLength(pieceLengthM(block))}
+          </p>
+          <p>
+            Whole route: {route.nodes[0]} → {route.nodes[route.nodes.length - 1]},{' '}
+            {formatLength(route.lengthM)} ({formatLength(route.lengthM, 'ft')}), {route.swapCount} tether swap
+            {route.swapCount === 1 ? '' : 's'}, most paid out {formatLength(route.maxPaidOutM)} of a{' '}
+            {formatLength(route.tetherLengthM)} tether
+          </p>
+          {route.swaps.length > 0 && (
+            <ul className="list-disc pl-5">
+              {route.swaps.map((s, i) => (
+                <li key={i}>
+                  Swap at {s.node}, {formatLength(s.atM)} along, {formatLength(s.paidOutM)} paid out
+                </li>
+              ))}
+            </ul>
+          )}
+          {route.cautionHazards.length > 0 && (
+            <p className="text-caution">⚠ Passes caution volume {route.cautionHazards.join(', ')}</p>
+          )}
+        </>
+      )}
+    </div>
+  );
+}
+
+function Patterns() {
+  return (
+    <defs>
+      <pattern id="tl-hatch" width="8" height="8" patternUnits="userSpaceOnUse" patternTransform="rotate(45)">
+        <rect width="8" height="8" fill={palette.accent.soft} />
+        <line x1="0" y1="0" x2="0" y2="8" stroke={palette.ink[700]} strokeWidth="2" />
+      </pattern>
+      <pattern id="tl-cross" width="6" height="6" patternUnits="userSpaceOnUse">
+        <rect width="6" height="6" fill={palette.caution.soft} />
+        <path d="M0 0L6 6M6 0L0 6" stroke={palette.caution.DEFAULT} strokeWidth="1" />
+      </pattern>
+      <pattern id="tl-stripes" width="6" height="6" patternUnits="userSpaceOnUse">
+        <rect width="6" height="6" fill={palette.ink[100]} />
+        <line x1="1" y1="0" x2="1" y2="6" stroke={palette.ink[300]} strokeWidth="2" />
+      </pattern>
+    </defs>
+  );
+}
+
+export function TimelineLegend() {
+  const kinds: TimelineBlockType[] = ['egress', 'translate', 'swap', 'work', 'wait'];
+  return (
+    <ul aria-label="Legend" className="flex flex-wrap gap-x-4 gap-y-1 text-xs text-text">
+      {kinds.map((k) => (
+        <li key={k} className="flex items-center gap-1.5">
+          <svg width="22" height="12" aria-hidden="true">
+            <Patterns />
+            <rect
+              x="0.5"
+              y="0.5"
+              width="21"
+              height="11"
+              fill={FILL[k].fill}
+              stroke={FILL[k].stroke}
+              strokeDasharray={FILL[k].dash}
+            />
+          </svg>
+          {k === 'egress' ? 'Egress / ingress' : BLOCK_NAMES[k]}
+        </li>
+      ))}
+      <li className="flex items-center gap-1.5">
+        <svg width="22" height="12" aria-hidden="true">
+          <rect width="22" height="12" fill={palette.ink[900]} fillOpacity="0.16" />
+        </svg>
+        ☾ Orbital night
+      </li>
+      <li className="flex items-center gap-1.5">
+        <svg width="22" height="12" aria-hidden="true">
+          <line
+            x1="11"
+            y1="0"
+            x2="11"
+            y2="12"
+            stroke={palette.danger.DEFAULT}
+            strokeWidth="2"
+            strokeDasharray="3 2"
+          />
+        </svg>
+        Time limit
+      </li>
+      <li className="flex items-center gap-1.5">
+        <svg width="22" height="12" aria-hidden="true">
+          <line x1="11" y1="0" x2="11" y2="12" stroke={palette.ink[700]} strokeWidth="1.5" />
+          <circle cx="11" cy="6" r="2.5" fill={palette.ink[700]} />
+        </svg>
+        Joint task (both crew)
+      </li>
+    </ul>
+  );
+}
+
+/** Task indices worked by both crew members, with the start the two lanes share. */
+function jointStarts(timeline: PlanTimeline): { taskIndex: number; start: number }[] {
+  const ev2 = new Map(
+    timeline.crew.EV2.blocks.filter((b) => b.type === 'work').map((b) => [b.taskIndex, b.start] as const),
+  );
+  return timeline.crew.EV1.blocks
+    .filter((b) => b.type === 'work' && b.taskIndex !== undefined && ev2.get(b.taskIndex) === b.start)
+    .map((b) => ({ taskIndex: b.taskIndex!, start: b.start }));
+}
+
+interface TimelineChartProps {
+  timeline: PlanTimeline;
+  tasks: readonly Task[];
+}
+
+/** The two-person day: one lane per crew member over the orbit's night bands, on elapsed time. */
+export function TimelineChart({ timeline, tasks }: TimelineChartProps) {
+  const [active, setActive] = useState<ActiveBlock | null>(null);
+  const detailsId = useId();
+  const horizon = Math.max(timeline.timeLimitSeconds, timeline.endSeconds, 60) * 1.03;
+  const x = (t: number) => LEFT + (t / horizon) * PLOT;
+  const step = tickStep(horizon);
+  const ticks: number[] = [];
+  for (let t = 0; t <= horizon; t += step) ticks.push(t);
+  const limitX = x(timeline.timeLimitSeconds);
+
+  return (
+    <div className="space-y-3">
+      <svg
+        viewBox={`0 0 ${W} ${H}`}
+        className="w-full select-none"
+        role="group"
+        aria-label={`Timeline: the day ends at ${formatElapsed(timeline.endSeconds)} elapsed, limit ${formatElapsed(timeline.timeLimitSeconds)}`}
+        aria-describedby={detailsId}
+        onMouseLeave={() => setActive(null)}
+      >
+        <Patterns />
+        <g aria-label="Orbital night" role="list">
+          {timeline.nightWindows.map((w, i) => (
+            <g
+              key={i}
+              role="listitem"
+              aria-label={`Night ${formatElapsed(w.start)}–${formatElapsed(w.end)}`}
+              data-night-band=""
+            >
+              <rect
+                x={x(w.start)}
+                y={BAND_TOP}
+                width={Math.max(1, x(w.end) - x(w.start))}
+                height={AXIS_Y - BAND_TOP}
+                fill={palette.ink[900]}
+                fillOpacity="0.16"
+              />
+              {x(w.end) - x(w.start) > 50 && (
+                <text x={x(w.start) + 4} y={BAND_TOP - 6} fontSize="11" fill={palette.ink[800]}>
+                  ☾ Night {formatElapsed(w.start)}–{formatElapsed(w.end)}
+                </text>
+              )}
+            </g>
+          ))}
+        </g>
+        {CREW.map((m, i) => (
+          <text
+            key={m}
+            x={8}
+            y={laneTop(i) + LANE_H / 2 + 4}
+            fontSize="13"
+            fontWeight="600"
+            fill={palette.text.strong}
+          >
+            {m}
+          </text>
+        ))}
+        {jointStarts(timeline).map((j) => (
+          <g key={j.taskIndex} aria-hidden="true">
+            <line
+              x1={x(j.start)}
+              x2={x(j.start)}
+              y1={laneTop(0) + LANE_H}
+              y2={laneTop(1)}
+              stroke={palette.ink[700]}
+              strokeWidth="1.5"
+            />
+            <circle cx={x(j.start)} cy={laneTop(0) + LANE_H + LANE_GAP / 2} r="3" fill={palette.ink[700]} />
+          </g>
+        ))}
+        {CREW.map((m, i) => (
+          <g key={m} role="list" aria-label={`${m} blocks`}>
+            {timeline.crew[m].blocks.map((b, k) => {
+              const look = FILL[b.type];
+              const bx = x(b.start);
+              const bw = Math.max(1, x(b.end) - bx);
+              const label = b.type === 'work' ? `${b.taskIndex! + 1}. ${b.label}` : BLOCK_NAMES[b.type];
+              const fits = label.length * 6.2 < bw - 6;
+              const isActive = active?.crew === m && active.block === b;
+              return (
+                <g
+                  key={k}
+                  role="listitem"
+                  tabIndex={0}
+                  aria-label={blockLabel(m, b, tasks)}
+                  data-block-type={b.type}
+                  className="cursor-pointer outline-none"
+                  onMouseEnter={() => setActive({ crew: m, block: b })}
+                  onFocus={() => setActive({ crew: m, block: b })}
+                >
+                  <rect
+                    x={bx}
+                    y={laneTop(i)}
+                    width={bw}
+                    height={LANE_H}
+                    fill={look.fill}
+                    stroke={
+                      b.unreached ? palette.danger.DEFAULT : isActive ? palette.text.strong : look.stroke
+                    }
+                    strokeWidth={b.unreached || isActive ? 2.5 : 1}
+                    strokeDasharray={b.unreached ? undefined : look.dash}
+                  />
+                  {fits && (
+                    <text
+                      x={bx + 4}
+                      y={laneTop(i) + LANE_H / 2 + 4}
+                      fontSize="11"
+                      fill={look.text}
+                      fontWeight={b.type === 'work' ? 600 : 400}
+                    >
+                      {b.unreached ? `⚠ ${label}` : label}
+                    </text>
+                  )}
+                </g>
+              );
+            })}
+          </g>
+        ))}
+        <g aria-hidden="true">
+          <line
+            x1={limitX}
+            x2={limitX}
+            y1={BAND_TOP - 2}
+            y2={AXIS_Y}
+            stroke={palette.danger.DEFAULT}
+            strokeWidth="2"
+            strokeDasharray="5 3"
+          />
+          <text
+            x={limitX - 4}
+            y={BAND_TOP - 6}
+            fontSize="11"
+            fontWeight="600"
+            textAnchor="end"
+            fill={palette.danger.DEFAULT}
+          >
+            Limit {formatElapsed(timeline.timeLimitSeconds)}
+          </text>
+          <line x1={LEFT} x2={W - RIGHT} y1={AXIS_Y} y2={AXIS_Y} stroke={palette.text.muted} />
+          {ticks.map((t) => (
+            <g key={t}>
+              <line x1={x(t)} x2={x(t)} y1={AXIS_Y} y2={AXIS_Y + 5} stroke={palette.text.muted} />
+              <text x={x(t)} y={AXIS_Y + 18} fontSize="11" textAnchor="middle" fill={palette.text.muted}>
+                {formatElapsed(t)}
+              </text>
+            </g>
+          ))}
+        </g>
+      </svg>
+      <TimelineLegend />
+      <div
+        id={detailsId}
+        aria-live="polite"
+        className="min-h-16 rounded-md border border-surface-line bg-surface-sunken px-4 py-3"
+      >
+        <BlockDetails active={active} tasks={tasks} />
+      </div>
+    </div>
+  );
+}
