@@ -39,7 +39,7 @@ function naiveScene(station: SceneStation): THREE.Group {
     mesh.scale.set(...s.size);
     root.add(mesh);
   }
-  for (const h of station.hazards) root.add(new THREE.Mesh(box, material));
+  for (let i = 0; i < station.hazards.length; i++) root.add(new THREE.Mesh(box, material));
   return root;
 }
 

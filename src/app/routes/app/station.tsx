@@ -1,10 +1,203 @@
-import { ComingSoon } from '@/components/layouts/coming-soon';
+import { useMemo, useRef, useState, type ComponentType, type ReactNode } from 'react';
+import type { QueryClient } from '@tanstack/react-query';
+import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import type { Vec3 } from '@shared/schemas/station';
+import type { StationGraph } from '@shared/schemas/station-edits';
+import { PageHeader } from '@/components/layouts/app-layout';
+import { Alert } from '@/components/ui/alert';
+import { Button } from '@/components/ui/button';
+import { Panel } from '@/components/ui/card';
+import { Dialog } from '@/components/ui/dialog';
+import { PlanningCaution } from '@/components/ui/planning-caution';
+import { PageSpinner } from '@/components/ui/spinner';
+import { apiErrorMessage } from '@/lib/api-client';
+import { useCan } from '@/lib/authorization';
+import { formatDateTime } from '@/lib/format';
+import {
+  ALL_LAYERS_ON,
+  Marker,
+  PathLine,
+  SceneLegend,
+  SceneToolbar,
+  StationScene,
+  TranslucentSphere,
+  type SceneApi,
+  type SceneLayers,
+  type SurfacePick,
+} from '@/features/scene-3d';
+import { downloadStationExport } from '@/features/stations/api/export-station';
+import { getStationGraphQueryOptions, useStationGraph } from '@/features/stations/api/get-station-graph';
+import { ImportStationForm } from '@/features/stations/components/import-station-form';
+import { NodeList } from '@/features/stations/components/node-list';
+import { PanelTabs } from '@/features/stations/components/panel-tabs';
+import { edgesOf, type StationSelection } from '@/features/stations/components/selection';
+import { SelectionDetails } from '@/features/stations/components/selection-details';
+import { StationTables } from '@/features/stations/components/station-tables';
+import { useRouteFinder } from '@/features/routes';
+
+const stationIdOf = (raw: string | undefined) => Number(raw);
+
+export const clientLoader =
+  (queryClient: QueryClient) =>
+  async ({ params }: LoaderFunctionArgs) => {
+    await queryClient.ensureQueryData(getStationGraphQueryOptions(stationIdOf(params.stationId)));
+    return null;
+  };
+
+/** What a plugged-in panel or overlay sees of the Station screen. */
+export interface StationViewContext {
+  graph: StationGraph;
+  selection: StationSelection;
+  select: (selection: StationSelection) => void;
+  /** the last click on a segment surface (the editor snaps new nodes to it) */
+  lastSurfacePick: SurfacePick | null;
+  layers: SceneLayers;
+  sceneApi: SceneApi;
+}
+
+export interface StationPanel {
+  id: string;
+  label: string;
+  render: (ctx: StationViewContext) => ReactNode;
+}
+
+interface StationViewProps {
+  graph: StationGraph;
+  /** extra right-panel tabs after Details: edit mode, annotations, routes */
+  panels?: StationPanel[];
+  /** extra r3f children inside the canvas, given the screen's context as props */
+  Overlays?: ComponentType<StationViewContext>;
+  onPickSurface?: (pick: SurfacePick) => void;
+}
+
+export function StationView({ graph, panels = [], Overlays, onPickSurface }: StationViewProps) {
+  const sceneApi = useRef<SceneApi>(null);
+  const [selection, setSelection] = useState<StationSelection>(null);
+  const [layers, setLayers] = useState<SceneLayers>(ALL_LAYERS_ON);
+  const [lastSurfacePick, setLastSurfacePick] = useState<SurfacePick | null>(null);
+  const [tab, setTab] = useState('details');
+  const api = useMemo<SceneApi>(
+    () => ({
+      fitToView: (points) => sceneApi.current?.fitToView(points),
+      setPresetView: (name) => sceneApi.current?.setPresetView(name),
+    }),
+    [],
+  );
+
+  const positions = useMemo(() => new Map(graph.nodes.map((n) => [n.key, n.position])), [graph]);
+  /** selecting from the list, tables or details also brings the node and its neighbours into view */
+  const focus = (next: StationSelection) => {
+    setSelection(next);
+    if (next?.type !== 'node') return;
+    const near = [next.key, ...edgesOf(graph, next.key).map((e) => (e.from === next.key ? e.to : e.from))];
+    const points = near.map((key) => positions.get(key)).filter((p): p is Vec3 => p !== undefined);
+    if (points.length) api.fitToView(points);
+  };
+
+  const ctx: StationViewContext = { graph, selection, select: focus, lastSurfacePick, layers, sceneApi: api };
+  const tabs = [
+    { id: 'details', label: 'Details', render: () => <SelectionDetails graph={graph} selection={selection} onSelect={focus} /> },
+    ...panels.map((p) => ({ id: p.id, label: p.label, render: () => p.render(ctx) })),
+  ];
+
+  return (
+    <div className="space-y-4">
+      <SceneToolbar api={sceneApi} layers={layers} onLayersChange={setLayers} />
+      <div className="grid gap-4 lg:grid-cols-[15rem_minmax(0,1fr)_22rem]">
+        <div className="flex h-[560px] flex-col">
+          <NodeList nodes={graph.nodes} selectedKey={selection?.type === 'node' ? selection.key : null} onSelect={(key) => focus({ type: 'node', key })} />
+        </div>
+        <StationScene
+          className="h-[560px]"
+          label={`3D view of ${graph.station.name}`}
+          graph={graph}
+          selection={selection}
+          layers={layers}
+          apiRef={sceneApi}
+          onSelectNode={(key) => setSelection({ type: 'node', key })}
+          onSelectHazard={(key) => setSelection({ type: 'hazard', key })}
+          onPickSurface={(pick) => {
+            setLastSurfacePick(pick);
+            onPickSurface?.(pick);
+          }}
+          overlays={Overlays && <Overlays {...ctx} />}
+        />
+        <section aria-label="Selection and tools" className="flex h-[560px] flex-col rounded-lg border border-surface-line bg-surface-panel">
+          <PanelTabs label="Station panels" tabs={tabs} active={tab} onChange={setTab} />
+        </section>
+      </div>
+      <SceneLegend />
+      {(panels.length > 0 || Overlays) && <PlanningCaution />}
+      <Panel title="Tables" level={2}>
+        <StationTables graph={graph} selection={selection} onSelect={focus} />
+      </Panel>
+    </div>
+  );
+}
+
+function StationActions({ graph }: { graph: StationGraph }) {
+  const canImport = useCan('stations:import');
+  const [replacing, setReplacing] = useState(false);
+  const [exportError, setExportError] = useState<unknown>(null);
+  const [exporting, setExporting] = useState(false);
+  const { station } = graph;
+  return (
+    <>
+      <Button
+        variant="secondary"
+        isLoading={exporting}
+        onClick={async () => {
+          setExportError(null);
+          setExporting(true);
+          try {
+            await downloadStationExport(station.id);
+          } catch (error) {
+            setExportError(error);
+          } finally {
+            setExporting(false);
+          }
+        }}
+      >
+        Export JSON
+      </Button>
+      {canImport && (
+        <Button variant="secondary" onClick={() => setReplacing(true)}>
+          Replace model…
+        </Button>
+      )}
+      {exportError != null && <Alert tone="danger">{apiErrorMessage(exportError, 'The export failed.')}</Alert>}
+      <Dialog open={replacing} title={`Replace the model of ${station.name}`} onClose={() => setReplacing(false)}>
+        <ImportStationForm target={{ mode: 'replace', stationId: station.id, version: station.version }} />
+      </Dialog>
+    </>
+  );
+}
+
+const ROUTE_PIECES = { PathLine, Marker, TranslucentSphere };
 
 export default function StationRoute() {
+  const { stationId } = useParams();
+  const graph = useStationGraph(stationIdOf(stationId));
+  const routeFinder = useRouteFinder(
+    graph.data && { ...graph.data.station, tetherLengthM: graph.data.station.settings.tetherLengthM, nodes: graph.data.nodes },
+    ROUTE_PIECES,
+  );
+  if (!graph.data) return <PageSpinner />;
+  const { station } = graph.data;
   return (
-    <ComingSoon
-      title="Station"
-      description="The 3D model, its layers and the tables of nodes, edges and hazards."
-    />
+    <>
+      <PageHeader
+        title={station.name}
+        description={
+          <>
+            Version {station.version} · {station.counts.nodes} nodes, {station.counts.edges} edges, {station.counts.hazards} hazards,{' '}
+            {station.counts.segments} segments · updated {formatDateTime(station.updatedAt)}
+            {station.updatedBy && ` by ${station.updatedBy.name}`}
+          </>
+        }
+        actions={<StationActions graph={graph.data} />}
+      />
+      <StationView graph={graph.data} panels={[routeFinder.tab]} Overlays={routeFinder.Overlays} />
+    </>
   );
 }

@@ -3,6 +3,8 @@ import { EDGE_KINDS, type EdgeKind, type StationNode } from '@shared/schemas/sta
 import { EDGE_COLORS } from './scene-colors';
 
 export interface SceneEdge {
+  /** the graph endpoint's edge id, when there is one */
+  id?: number;
   from: string;
   to: string;
   kind: EdgeKind;

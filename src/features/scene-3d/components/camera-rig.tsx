@@ -1,0 +1,70 @@
+import { useEffect, useImperativeHandle, useMemo, useRef, type Ref } from 'react';
+import { OrbitControls } from '@react-three/drei';
+import { useThree } from '@react-three/fiber';
+import * as THREE from 'three';
+import type { OrbitControls as OrbitControlsImpl } from 'three-stdlib';
+import type { Vec3 } from '@shared/schemas/station';
+import { PRESET_DIRECTIONS, STATION_UP, type PresetView } from '../builders/frame';
+import type { SceneApi } from './scene-api';
+
+const HOME_DIRECTION = new THREE.Vector3(0.55, 0.75, 0.45).normalize();
+
+/**
+ * Where the camera must stand to see a box whole along `direction`. Zenith and nadir views lean a
+ * hair towards fore, so the camera's up (+z) is never parallel to the view.
+ */
+export function framing(box: THREE.Box3, direction: THREE.Vector3, fovDeg: number, aspect: number) {
+  const sphere = box.getBoundingSphere(new THREE.Sphere());
+  const radius = Math.max(sphere.radius, 0.5);
+  const vertical = (fovDeg * Math.PI) / 180;
+  const horizontal = 2 * Math.atan(Math.tan(vertical / 2) * aspect);
+  const distance = (radius / Math.sin(Math.min(vertical, horizontal) / 2)) * 1.05;
+  const dir = direction.clone().normalize();
+  if (Math.abs(dir.dot(new THREE.Vector3(...STATION_UP))) > 0.999) dir.add(new THREE.Vector3(0, 1e-3, 0)).normalize();
+  return { target: sphere.center.clone(), position: sphere.center.clone().addScaledVector(dir, distance), distance, radius };
+}
+
+export function CameraRig({ bounds, apiRef }: { bounds: THREE.Box3; apiRef: Ref<SceneApi> }) {
+  const get = useThree((s) => s.get);
+  const invalidate = useThree((s) => s.invalidate);
+  const controls = useRef<OrbitControlsImpl>(null);
+
+  const api = useMemo<SceneApi>(() => {
+    const frame = (box: THREE.Box3, direction: THREE.Vector3) => {
+      const camera = get().camera as THREE.PerspectiveCamera;
+      const f = framing(box, direction, camera.fov, camera.aspect || 1);
+      camera.position.copy(f.position);
+      camera.near = Math.max(0.01, f.distance / 1000);
+      camera.far = f.distance + f.radius * 20;
+      camera.updateProjectionMatrix();
+      const orbit = controls.current;
+      if (orbit) {
+        orbit.target.copy(f.target);
+        orbit.update();
+      } else camera.lookAt(f.target);
+      invalidate();
+    };
+    const currentDirection = () => {
+      const camera = get().camera;
+      const target = controls.current?.target ?? new THREE.Vector3();
+      const d = camera.position.clone().sub(target);
+      return d.lengthSq() > 0 ? d : HOME_DIRECTION.clone();
+    };
+    return {
+      fitToView(points?: readonly Vec3[]) {
+        const box = points?.length
+          ? new THREE.Box3().setFromPoints(points.map((p) => new THREE.Vector3(...p)))
+          : bounds;
+        frame(box, currentDirection());
+      },
+      setPresetView(name: PresetView | 'home') {
+        frame(bounds, name === 'home' ? HOME_DIRECTION.clone() : new THREE.Vector3(...PRESET_DIRECTIONS[name]));
+      },
+    };
+  }, [bounds, get, invalidate]);
+
+  useImperativeHandle(apiRef, () => api, [api]);
+  useEffect(() => api.setPresetView('home'), [api]);
+
+  return <OrbitControls ref={controls} makeDefault enableDamping={false} />;
+}
