@@ -42,9 +42,9 @@ const NIGHT = '#2b3a8c';
 const MARGIN = 36;
 const FOOTER_H = 40;
 
-/** The shipped Inter subset is Latin only: arrows and Greek letters become words. */
+/** The shipped Inter subset is Basic Latin, Latin-1 and punctuation: arrows and Greek letters become words, anything else "?". */
 export function pdfSafe(text: string): string {
-  return text.replace(/\s*→\s*/g, ' to ').replace(/β/g, 'beta ').replace(/[^\u0000-\u024f\u2000-\u206f°]/g, '?');
+  return text.replace(/\s*→\s*/g, ' to ').replace(/β/g, 'beta ').replace(/[^\t\n\r\u0020-\u00ff\u2000-\u206f]/g, '?');
 }
 
 const KIND_LABEL: Record<CueStep['kind'], string> = {
