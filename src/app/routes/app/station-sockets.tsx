@@ -1,4 +1,4 @@
-import { useCallback } from 'react';
+import { useCallback, useEffect, useRef } from 'react';
 import { useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { PageHeader } from '@/components/layouts/app-layout';
@@ -11,7 +11,7 @@ import { ApiError } from '@/lib/api-client';
 import { requireUser } from '@/lib/authorization';
 import { getPlanQueryOptions } from '@/features/plans/api/get-plan';
 import { usePlans } from '@/features/plans/api/get-plans';
-import { Marker, PathLine, StationScene, TranslucentSphere } from '@/features/scene-3d';
+import { Marker, PathLine, StationScene, TranslucentSphere, type SceneApi } from '@/features/scene-3d';
 import { getStationGraphQueryOptions, useStationGraph } from '@/features/stations/api/get-station-graph';
 import { stationKeys } from '@/features/stations/api/keys';
 import { useSocketPlanner, YawPitchDiagram, type SocketPlannerStation } from '@/features/sockets';
@@ -47,6 +47,7 @@ function SocketPlannerPage({ graph }: { graph: StationGraph }) {
     async (planId: number) => (await queryClient.fetchQuery(getPlanQueryOptions(planId))).tasks.map((t) => t.worksite),
     [queryClient],
   );
+  const sceneApi = useRef<SceneApi>(null);
   const planner = useSocketPlanner(station, PIECES, {
     plans: plans.data ?? [],
     loadPlanWorksites,
@@ -54,6 +55,11 @@ function SocketPlannerPage({ graph }: { graph: StationGraph }) {
     onReload: () => void queryClient.invalidateQueries({ queryKey: stationKeys.graph(stationId) }),
     nodeHref: (key) => `${paths.station.getHref(stationId)}?node=${encodeURIComponent(key)}`,
   });
+
+  const { focus } = planner;
+  useEffect(() => {
+    if (focus) sceneApi.current?.fitToView(focus);
+  }, [focus]);
 
   return (
     <>
@@ -70,6 +76,7 @@ function SocketPlannerPage({ graph }: { graph: StationGraph }) {
         <div className="space-y-3">
           <StationScene
             graph={graph}
+            apiRef={sceneApi}
             label={`3D view of ${graph.station.name} with the planned sockets and their work envelopes`}
             className={planner.picking ? 'h-[560px] cursor-crosshair ring-2 ring-accent' : 'h-[560px]'}
             onPickSurface={(pick) => void planner.pickSurface(pick)}

@@ -1,4 +1,4 @@
-import { useCallback, useMemo, useState, type ReactNode } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState, useSyncExternalStore, type ReactNode } from 'react';
 import type { RouteMode } from '@shared/schemas/route';
 import type { NodeKind, Vec3 } from '@shared/schemas/station';
 import type { LengthUnit } from '@shared/compute/units';
@@ -29,11 +29,18 @@ interface Submitted {
   unit: LengthUnit;
 }
 
+/** What the Station screen tells its panels: the selection, so "pick in 3D" sees node clicks. */
+export interface RouteFinderPanelContext {
+  selection: { type: string; key: string } | null;
+}
+
 export interface RouteFinder {
   /** a right-panel tab for the Station screen */
-  tab: { id: string; label: string; render: () => ReactNode };
+  tab: { id: string; label: string; render: (ctx?: RouteFinderPanelContext) => ReactNode };
   /** r3f children for the station scene */
   overlay: ReactNode;
+  /** the same overlay as a component of stable identity, for screens that take one */
+  Overlays: () => ReactNode;
   /** feed the scene's node clicks here first: true when a "pick in 3D" consumed the click */
   selectNode: (key: string) => boolean;
   picking: boolean;
@@ -55,10 +62,11 @@ export function useRouteFinder(
   const [showReach, setShowReach] = useState(false);
   const comparison = useRouteComparison(station?.id ?? 0, station?.version ?? 0, station ? (submitted?.params ?? null) : null);
 
-  const positions = useMemo(() => new Map(station?.nodes.map((n) => [n.key, n.position]) ?? []), [station]);
+  const nodes = station?.nodes;
+  const positions = useMemo(() => new Map(nodes?.map((n) => [n.key, n.position]) ?? []), [nodes]);
   const options_ = useMemo(
-    () => [...(station?.nodes ?? [])].sort((a, b) => a.key.localeCompare(b.key)).map(({ key, label, kind }) => ({ key, label, kind })),
-    [station],
+    () => [...(nodes ?? [])].sort((a, b) => a.key.localeCompare(b.key)).map(({ key, label, kind }) => ({ key, label, kind })),
+    [nodes],
   );
 
   const chosen = submitted ? comparison.byMode[submitted.mode] : undefined;
@@ -92,11 +100,12 @@ export function useRouteFinder(
     setFormValues((v) => (v ? { ...v, mode } : v));
   };
 
-  const render = () => {
+  const render = (ctx?: RouteFinderPanelContext) => {
     if (!station) return <Spinner label="Loading the station" />;
     const unit = submitted?.unit ?? 'm';
     return (
       <div className="space-y-5">
+        {ctx && <SelectionPick selection={ctx.selection} picking={picking !== null} onNode={selectNode} />}
         <RouteFinderForm
           options={options_}
           defaults={defaults}
@@ -164,10 +173,54 @@ export function useRouteFinder(
     );
   };
 
+  const overlay = useMemo(() => (model ? <RouteOverlay model={model} showReach={showReach} pieces={pieces} /> : null), [model, showReach, pieces]);
+  const [store] = useState(createOverlayStore);
+  useEffect(() => store.set(overlay), [store, overlay]);
+
   return {
     tab: { id: 'route', label: 'Route', render },
-    overlay: model ? <RouteOverlay model={model} showReach={showReach} pieces={pieces} /> : null,
+    overlay,
+    Overlays: store.Component,
     selectNode,
     picking: picking !== null,
+  };
+}
+
+/** While picking, a node newly selected on the screen (a click in 3D) fills the field. */
+function SelectionPick({
+  selection,
+  picking,
+  onNode,
+}: {
+  selection: RouteFinderPanelContext['selection'];
+  picking: boolean;
+  onNode: (key: string) => boolean;
+}) {
+  const key = selection?.type === 'node' ? selection.key : null;
+  const seen = useRef(key);
+  useEffect(() => {
+    if (key === seen.current) return;
+    seen.current = key;
+    if (picking && key) onNode(key);
+  }, [key, picking, onNode]);
+  return null;
+}
+
+function createOverlayStore() {
+  let node: ReactNode = null;
+  const listeners = new Set<() => void>();
+  const subscribe = (l: () => void) => {
+    listeners.add(l);
+    return () => listeners.delete(l);
+  };
+  const get = () => node;
+  return {
+    set(next: ReactNode) {
+      node = next;
+      for (const l of listeners) l();
+    },
+    Component: function RouteFinderOverlays() {
+      return <>{useSyncExternalStore(subscribe, get)}</>;
+    },
   };
 }

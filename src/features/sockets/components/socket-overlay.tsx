@@ -11,7 +11,7 @@ export interface SocketScenePieces {
 }
 
 export const SOCKET_PLAN_COLORS = { existing: '#f5b849', new: '#fb923c', envelope: '#4fd1c5', target: '#ffffff', line: '#4fd1c5' } as const;
-const GLYPH_HEIGHT_M = 0.7;
+const GLYPH_HEIGHT_M = 0.9;
 const UP = new THREE.Vector3(0, 1, 0);
 // beyond this many targets the tags would hide the model
 const MAX_TAGGED_TARGETS = 40;
@@ -21,9 +21,10 @@ function SocketGlyph({ position, normal, color }: { position: Vec3; normal: Vec3
   const quaternion = useMemo(() => new THREE.Quaternion().setFromUnitVectors(UP, new THREE.Vector3(...normal)), [normal]);
   const centre = position.map((p, i) => p + (normal[i] * GLYPH_HEIGHT_M) / 2) as Vec3;
   return (
+    // drawn over the truss surfaces, so a socket on a far face still shows
     <mesh position={centre} quaternion={quaternion} renderOrder={12} raycast={() => null}>
-      <coneGeometry args={[0.22, GLYPH_HEIGHT_M, 16]} />
-      <meshStandardMaterial color={color} emissive={color} emissiveIntensity={0.35} />
+      <coneGeometry args={[0.3, GLYPH_HEIGHT_M, 16]} />
+      <meshBasicMaterial color={color} depthTest={false} transparent />
     </mesh>
   );
 }

@@ -50,6 +50,8 @@ export interface SocketPlanner {
   /** feed the scene's surface picks here: true when picking targets consumed it */
   pickSurface: (pick: { point: Vec3 }) => boolean;
   picking: boolean;
+  /** points to frame in 3D once a plan is shown: the envelopes and their targets */
+  focus: Vec3[] | null;
 }
 
 const checkbox = cn('accent-accent', focusRing);
@@ -80,6 +82,12 @@ export function useSocketPlanner(station: SocketPlannerStation, pieces: SocketSc
     () => (plan.data && run ? plannedSocketViews(plan.data, nodesByKey, station.reach) : []),
     [plan.data, run, nodesByKey, station.reach],
   );
+
+  const focus = useMemo(() => {
+    if (!run || views.length === 0) return null;
+    const box = views.flatMap((v) => [-1, 1].flatMap((d) => [0, 1, 2].map((axis) => v.workPoint.map((c, i) => (i === axis ? c + d * v.radiusM : c)) as Vec3)));
+    return [...box, ...run.targets.map((t) => t.position)];
+  }, [run, views]);
 
   const targets: PlanTarget[] = [
     ...worksites.filter((w) => chosenWorksites.has(w.key)).map((w) => ({ label: w.key, position: w.position, nodeKey: w.key })),
@@ -167,10 +175,9 @@ export function useSocketPlanner(station: SocketPlannerStation, pieces: SocketSc
         <label htmlFor="socket-plan-plan" className="block text-sm font-semibold text-text-strong">
           Targets from a plan&apos;s tasks
         </label>
-        <div className="flex gap-2">
+        <div className="space-y-2">
           <Select
             id="socket-plan-plan"
-            className="flex-1"
             value={planId}
             onChange={(e) => setPlanId(e.target.value)}
             options={[{ value: '', label: options.plans.length ? 'Choose a plan…' : 'No plan uses this station' }, ...options.plans.map((p) => ({ value: String(p.id), label: p.title }))]}
@@ -245,7 +252,7 @@ export function useSocketPlanner(station: SocketPlannerStation, pieces: SocketSc
           Add grid candidates over truss faces
         </label>
         <div className="flex items-center gap-2">
-          <label htmlFor="socket-plan-grid" className="text-sm text-text-strong">
+          <label htmlFor="socket-plan-grid" className="text-sm whitespace-nowrap text-text-strong">
             Grid spacing
           </label>
           <Input id="socket-plan-grid" className="w-24" inputMode="decimal" disabled={!gridOn} value={gridText} onChange={(e) => setGridText(e.target.value)} />
@@ -374,6 +381,7 @@ export function useSocketPlanner(station: SocketPlannerStation, pieces: SocketSc
   );
 
   return {
+    focus,
     controls,
     results,
     overlay,

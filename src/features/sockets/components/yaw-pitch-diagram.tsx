@@ -13,7 +13,7 @@ export function YawPitchDiagram() {
   const target = { x: 232, y: 42 };
   return (
     <figure className="space-y-2">
-      <svg viewBox="0 0 320 210" role="img" aria-labelledby="yaw-pitch-title yaw-pitch-desc" className="w-full max-w-sm rounded-md border border-surface-line bg-surface-panel">
+      <svg viewBox="0 0 320 222" role="img" aria-labelledby="yaw-pitch-title yaw-pitch-desc" className="w-full max-w-sm rounded-md border border-surface-line bg-surface-panel">
         <title id="yaw-pitch-title">Restraint yaw and pitch</title>
         <desc id="yaw-pitch-desc">
           The socket plane with the socket p and its outward normal n. The work point c lies on n at the stand-off. The
@@ -43,7 +43,7 @@ export function YawPitchDiagram() {
           <text x={p.x - 60} y={p.y + 4}>socket p</text>
           <text x={c.x - 92} y={c.y + 4}>work point c</text>
           <text x={c.x + 6} y={c.y - 30}>n (normal)</text>
-          <text x={ref.x - 20} y={ref.y + 22}>ref: station +x on the plane</text>
+          <text x={150} y={218}>ref: station +x on the plane</text>
           <text x={target.x + 8} y={target.y + 4}>target</text>
           <text x={200} y={150} className="fill-caution font-semibold">yaw</text>
           <text x={204} y={64} className="fill-caution font-semibold">pitch</text>

@@ -1,0 +1,161 @@
+import { request, type APIRequestContext, type Page } from 'playwright-core';
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import type { StationGraph, StationSummary } from '@shared/schemas/station-edits';
+import { openBrowser, type BrowserSession } from './browser';
+
+const DEMO_PASSWORD = 'tetherwise-demo';
+const WORKSITES = ['SB3-W01', 'PB2-W01', 'SB1-W01'];
+
+let session: BrowserSession;
+
+beforeEach(async () => {
+  session = await openBrowser();
+});
+
+afterEach(async () => {
+  const errors = [...session.errors];
+  await session.close();
+  expect(errors, 'console errors or page errors during the test').toEqual([]);
+});
+
+async function signIn(role: string) {
+  const { page } = session;
+  await session.goto('/sign-in');
+  await page.getByLabel('E-mail').fill(`${role}@example.org`);
+  await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.getByRole('heading', { level: 1, name: /^Welcome, / }).waitFor();
+}
+
+async function apiAs(role: string): Promise<APIRequestContext> {
+  const api = await request.newContext({ baseURL: session.baseURL });
+  const res = await api.post('/api/auth/sign-in', { data: { email: `${role}@example.org`, password: DEMO_PASSWORD } });
+  expect(res.status()).toBe(200);
+  return api;
+}
+
+/** A copy of the demo station under its own name, so accepting sockets leaves the demo as other tests expect it. */
+async function copyOfKestrel(api: APIRequestContext, name: string): Promise<StationSummary> {
+  const stations = (await (await api.get('/api/stations')).json()) as StationSummary[];
+  const demo = stations.find((s) => s.name === 'Kestrel Station');
+  if (!demo) throw new Error('the demo station is not seeded');
+  const doc = await (await api.get(`/api/stations/${demo.id}/export`)).json();
+  const res = await api.post('/api/stations/import', {
+    multipart: { file: { name: 'copy.json', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify({ ...doc, name })) } },
+  });
+  expect(res.status()).toBe(201);
+  return ((await res.json()) as { station: StationSummary }).station;
+}
+
+/** Pixels of the 3D canvas as RGBA bytes (the scene keeps its drawing buffer). */
+async function canvasPixels(page: Page): Promise<number[]> {
+  return page.getByTestId('station-scene').locator('canvas').first().evaluate((canvas: HTMLCanvasElement) => {
+    const off = document.createElement('canvas');
+    off.width = canvas.width;
+    off.height = canvas.height;
+    const ctx = off.getContext('2d')!;
+    ctx.drawImage(canvas, 0, 0, off.width, off.height);
+    return Array.from(ctx.getImageData(0, 0, off.width, off.height).data);
+  });
+}
+
+const distinctColours = (px: number[]) => {
+  const seen = new Set<number>();
+  for (let i = 0; i < px.length; i += 4) seen.add((px[i] << 16) | (px[i + 1] << 8) | px[i + 2]);
+  return seen.size;
+};
+
+/** Pixels of the new-socket glyph's orange hue (about 27°), which nothing in the model itself uses. */
+const orangePixels = (px: number[]) => {
+  let n = 0;
+  for (let i = 0; i < px.length; i += 4) {
+    const [r, g, b] = [px[i], px[i + 1], px[i + 2]];
+    const max = Math.max(r, g, b);
+    const min = Math.min(r, g, b);
+    if (max < 110 || max - min < 0.5 * max || max !== r) continue;
+    const hue = (60 * (g - b)) / (max - min);
+    if (hue >= 18 && hue <= 33) n++;
+  }
+  return n;
+};
+
+describe('socket planner', () => {
+  it('lets an engineer plan new sockets for three worksites on a grid, see the envelopes, accept them and find them on the station', async () => {
+    const { page } = session;
+    const api = await apiAs('engineer');
+    const station = await copyOfKestrel(api, 'Kestrel Station (socket planning copy)');
+    await signIn('engineer');
+    await session.goto(`/stations/${station.id}/sockets`);
+    await page.getByRole('heading', { level: 1, name: 'Socket planner' }).waitFor();
+    await page.getByTestId('station-scene').locator('canvas').waitFor();
+    await page.waitForTimeout(1500);
+    const before = await canvasPixels(page);
+    expect(distinctColours(before), 'the model is drawn').toBeGreaterThan(20);
+
+    for (const key of WORKSITES) await page.getByRole('checkbox', { name: new RegExp(`^${key}\\b`) }).check();
+    // the demo's existing sockets reach none of these worksites: plan on a 1 m grid over the truss faces
+    await page.getByRole('checkbox', { name: 'Add grid candidates over truss faces' }).check();
+    await page.getByLabel('Grid spacing', { exact: true }).fill('1');
+    await page.getByRole('button', { name: 'Plan sockets for 3 targets' }).click();
+
+    const result = page.getByRole('region', { name: 'Socket plan' });
+    await result.getByText(/^3 sockets for 3 targets: 0 existing, 3 new$/).waitFor();
+    await result.getByText(/^exact: the fewest sockets among \d+ candidates\.$/).waitFor();
+    const rows = result.getByRole('table').getByRole('row');
+    await expect(rows.count()).resolves.toBe(4);
+    for (const key of WORKSITES) {
+      const row = rows.filter({ hasText: key });
+      await expect(row.getByRole('cell').nth(1).textContent()).resolves.toMatch(/^New [123]$/);
+      await expect(row.getByRole('cell').nth(3).textContent()).resolves.toBe('Yes');
+      await expect(row.getByRole('cell').nth(4).textContent()).resolves.toMatch(/^-?\d+\.\d° \/ -?\d+°$/);
+    }
+    await page.waitForTimeout(800);
+    await session.screenshot('socket-planner-result');
+    const after = await canvasPixels(page);
+    console.info(`orange pixels before ${orangePixels(before)}, after ${orangePixels(after)}`);
+    expect(orangePixels(before), 'no new-socket glyph before the run').toBeLessThan(5);
+    expect(orangePixels(after), 'the new-socket glyphs are drawn').toBeGreaterThan(30);
+    await page.getByRole('img', { name: 'Restraint yaw and pitch' }).waitFor();
+    await page.getByLabel('Planning caution').first().waitFor();
+    await session.screenshot('socket-planner-result');
+
+    await result.getByRole('button', { name: 'Accept 3 new sockets' }).click();
+    const success = result.getByText(/^Added 3 sockets \(station version \d+\)$/);
+    await success.waitFor();
+    const links = result.getByRole('link', { name: /^SKT-\d{3}$/ });
+    await expect(links.count()).resolves.toBe(3);
+    const keys = await links.allTextContents();
+    await session.screenshot('socket-planner-accepted');
+
+    // the model now has them, each joined to the handrail network by a hop
+    const graph = (await (await api.get(`/api/stations/${station.id}/graph`)).json()) as StationGraph;
+    for (const key of keys) {
+      expect(graph.nodes.find((n) => n.key === key)?.kind).toBe('socket');
+      expect(graph.edges.some((e) => e.kind === 'hop' && (e.from === key || e.to === key))).toBe(true);
+    }
+
+    // and the Station screen lists them
+    await links.first().click();
+    await page.waitForURL(`**/stations/${station.id}?node=${keys[0]}`);
+    await page.getByTestId('station-scene').waitFor();
+    for (const key of keys) await page.getByText(key, { exact: true }).first().waitFor();
+    await session.screenshot('socket-planner-station');
+    await api.dispose();
+  });
+
+  it('shows a viewer the plan but no Accept', async () => {
+    const { page } = session;
+    const api = await apiAs('admin');
+    const stations = (await (await api.get('/api/stations')).json()) as StationSummary[];
+    const demo = stations.find((s) => s.name === 'Kestrel Station')!;
+    await signIn('viewer');
+    await session.goto(`/stations/${demo.id}/sockets`);
+    await page.getByRole('checkbox', { name: /^CB-W01\b/ }).check();
+    await page.getByRole('checkbox', { name: 'Add grid candidates over truss faces' }).check();
+    await page.getByRole('button', { name: 'Plan sockets for 1 target' }).click();
+    const result = page.getByRole('region', { name: 'Socket plan' });
+    await result.getByText(/^1 socket for 1 target/).waitFor();
+    await expect(result.getByRole('button', { name: /^Accept/ }).count()).resolves.toBe(0);
+    await api.dispose();
+  });
+});
