@@ -148,7 +148,7 @@ export function RouteFinderForm({
             id="route-tether"
             inputMode="decimal"
             autoComplete="off"
-            className="w-28"
+            className="min-w-0 flex-1"
             aria-invalid={errors.tether ? true : undefined}
             aria-describedby="route-tether-error"
             {...register('tether')}
@@ -157,7 +157,7 @@ export function RouteFinderForm({
             control={control}
             name="unit"
             render={({ field: f }) => (
-              <div role="group" aria-label="Tether length unit" className="flex overflow-hidden rounded-md border border-surface-line">
+              <div role="group" aria-label="Tether length unit" className="flex shrink-0 overflow-hidden rounded-md border border-surface-line">
                 {(['m', 'ft'] as const).map((unit) => (
                   <button
                     key={unit}

@@ -1,0 +1,130 @@
+import { request } from 'playwright-core';
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import type { StationSummary } from '@shared/schemas/station-edits';
+import { openBrowser, type BrowserSession } from './browser';
+
+const DEMO_PASSWORD = 'tetherwise-demo';
+// the two worksites at the ends of the long truss: far beyond one 25.9 m tether
+const FROM = 'PB4-W01';
+const TO = 'SB4-W01';
+
+let session: BrowserSession;
+
+beforeEach(async () => {
+  session = await openBrowser();
+});
+
+afterEach(async () => {
+  const errors = [...session.errors];
+  await session.close();
+  expect(errors, 'console errors or page errors during the test').toEqual([]);
+});
+
+async function signIn(role: string) {
+  const { page } = session;
+  await session.goto('/sign-in');
+  await page.getByLabel('E-mail').fill(`${role}@example.org`);
+  await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.getByRole('heading', { level: 1, name: /^Welcome, / }).waitFor();
+}
+
+async function kestrelId(): Promise<number> {
+  const api = await request.newContext({ baseURL: session.baseURL });
+  await api.post('/api/auth/sign-in', { data: { email: 'viewer@example.org', password: DEMO_PASSWORD } });
+  const stations = (await (await api.get('/api/stations')).json()) as StationSummary[];
+  await api.dispose();
+  const station = stations.find((s) => s.name === 'Kestrel Station');
+  if (!station) throw new Error('the demo station is not seeded');
+  return station.id;
+}
+
+/** Counts canvas pixels of the route overlay's colours: lime path (about 83°) and orange swap markers (about 27°). */
+async function overlayPixels(session: BrowserSession) {
+  return session.page.getByTestId('station-scene').locator('canvas').first().evaluate((canvas: HTMLCanvasElement) => {
+    const off = document.createElement('canvas');
+    off.width = canvas.width;
+    off.height = canvas.height;
+    const ctx = off.getContext('2d')!;
+    ctx.drawImage(canvas, 0, 0);
+    const px = ctx.getImageData(0, 0, off.width, off.height).data;
+    let lime = 0;
+    let orange = 0;
+    let colours = new Set<number>();
+    for (let i = 0; i < px.length; i += 4) {
+      const [r, g, b] = [px[i], px[i + 1], px[i + 2]];
+      colours.add((r << 16) | (g << 8) | b);
+      const max = Math.max(r, g, b);
+      const min = Math.min(r, g, b);
+      if (max < 110 || max - min < 0.5 * max) continue;
+      const hue = max === r ? (60 * (g - b)) / (max - min) : max === g ? 120 + (60 * (b - r)) / (max - min) : 240 + (60 * (r - g)) / (max - min);
+      if (hue >= 65 && hue <= 95) lime++;
+      if (hue >= 18 && hue <= 33) orange++;
+    }
+    const distinct = colours.size;
+    colours = new Set();
+    return { lime, orange, distinct };
+  });
+}
+
+async function chooseNode(label: 'From' | 'To', key: string) {
+  const { page } = session;
+  const box = page.getByRole('combobox', { name: label });
+  await box.fill(key.slice(0, 5));
+  await page.getByRole('option', { name: new RegExp(`^${key}\\b`) }).click();
+  await expect(box.inputValue()).resolves.toBe(key);
+}
+
+describe('route finder', () => {
+  it('finds a planner a long route with tether swaps, shows the steps, the swaps in 3D and the three modes compared', async () => {
+    const { page } = session;
+    const id = await kestrelId();
+    await signIn('planner');
+    await session.goto(`/stations/${id}`);
+    await page.getByTestId('station-scene').locator('canvas').waitFor();
+    await page.waitForTimeout(1000);
+    const before = await overlayPixels(session);
+    await page.getByRole('tab', { name: 'Route' }).click();
+    await chooseNode('From', FROM);
+    await chooseNode('To', TO);
+    await page.getByRole('radio', { name: /^Fastest/ }).check();
+    await page.getByRole('button', { name: 'Find route' }).click();
+
+    const result = page.getByRole('region', { name: 'Route result' });
+    const steps = result.getByRole('list', { name: 'Route steps' }).getByRole('listitem');
+    await steps.first().waitFor();
+    const texts = await steps.allTextContents();
+    const swaps = texts.filter((t) => /Tether swap at [A-Z0-9-]+: clip the new hook, then release the old one/.test(t));
+    expect(swaps.length).toBeGreaterThan(0);
+    expect(texts.some((t) => /Translate \d+\.\d m along the handrail to /.test(t))).toBe(true);
+    expect(texts[0]).toContain(`Start at ${FROM}`);
+    expect(texts.at(-1)).toContain(`Arrive at ${TO}`);
+    await result.getByLabel('Route summary').getByText(/^\d+\.\d m \(\d+\.\d ft\)$/).first().waitFor();
+    await page.getByLabel('Planning caution').first().waitFor();
+
+    // the three modes side by side, the chosen one marked
+    const table = result.getByRole('table');
+    const rows = table.getByRole('row');
+    await expect(rows.count()).resolves.toBe(4);
+    await expect(table.locator('tr[aria-current="true"]').textContent()).resolves.toMatch(/^Fastest\s*\(chosen\)/);
+    await table.getByText('(best)').first().waitFor({ state: 'attached' });
+
+    await page.waitForTimeout(1000);
+    await session.screenshot('route-finder-fastest');
+    const drawn = await overlayPixels(session);
+    console.info(`route overlay pixels before ${JSON.stringify(before)}, after ${JSON.stringify(drawn)}`);
+    expect(drawn.distinct, 'a drawn scene').toBeGreaterThan(50);
+    expect(drawn.lime - before.lime, 'the route path').toBeGreaterThan(300);
+    expect(drawn.orange - before.orange, 'the swap markers').toBeGreaterThan(20);
+    await session.screenshot('route-finder-fastest');
+
+    // switching the mode keeps the comparison and moves the mark
+    await page.getByRole('radio', { name: /^Fewest swaps/ }).check();
+    await expect(table.locator('tr[aria-current="true"]').textContent()).resolves.toMatch(/^Fewest swaps\s*\(chosen\)/);
+    const swapCells = await rows.evaluateAll((trs) => trs.slice(1).map((tr) => Number(tr.querySelectorAll('td')[3].textContent!.replace(/\D.*$/, ''))));
+    expect(swapCells[1]).toBeLessThanOrEqual(swapCells[0]);
+    await page.getByRole('checkbox', { name: /Show tether reach in 3D/ }).check();
+    await page.waitForTimeout(600);
+    await session.screenshot('route-finder-fewest-swaps');
+  });
+});
