@@ -122,14 +122,27 @@ function build(): StationDocument {
   addNode('AL', 'socket', v3(0.9, 13.7, 0), { normal: v3(0, 1, 0), label: 'Airlock hatch foot restraint socket' });
   link(hatch, 'AL-S01', 'handrail');
 
-  // Worksites, each joined to the nearest run point and with a socket beside it.
-  const worksite = (bay: string, label: string, position: Vec3, normal: Vec3, socketOffset: Vec3) => {
+  // Worksites, each joined to the nearest run point and with a socket beside it. The task point is on
+  // the unit being worked, 0.8 m proud of the face; the socket sits on the face 0.55 m to the side, so
+  // with the default 1.0 m stand-off and 0.7 m reach the task is within reach (about 0.59 m).
+  const TASK_PROUD_M = 0.8;
+  const SOCKET_SIDE_M = 0.55;
+  const worksite = (bay: string, label: string, surface: Vec3, normal: Vec3, socketSide: Vec3) => {
+    const position = v3(surface[0] + normal[0] * TASK_PROUD_M, surface[1] + normal[1] * TASK_PROUD_M, surface[2] + normal[2] * TASK_PROUD_M);
     const w = addNode(bay, 'worksite', position, { label });
     const nearest = nodes
       .filter((n) => n.kind === 'anchor' || n.kind === 'junction')
       .reduce((best, n) => (dist(n.position, position) < dist(best.position, position) ? n : best));
     link(nearest.key, w, 'handrail');
-    const socketAt = v3(position[0] + socketOffset[0], position[1] + socketOffset[1], position[2] + socketOffset[2]);
+    // the side offset, kept in the face's plane and scaled to SOCKET_SIDE_M
+    const along = socketSide[0] * normal[0] + socketSide[1] * normal[1] + socketSide[2] * normal[2];
+    const side = [0, 1, 2].map((i) => socketSide[i] - along * normal[i]);
+    const len = Math.hypot(side[0], side[1], side[2]) || 1;
+    const socketAt = v3(
+      surface[0] + (side[0] / len) * SOCKET_SIDE_M,
+      surface[1] + (side[1] / len) * SOCKET_SIDE_M,
+      surface[2] + (side[2] / len) * SOCKET_SIDE_M,
+    );
     const s = addNode(bay, 'socket', socketAt, { normal, label: `${label} foot restraint socket` });
     link(nearest.key, s, 'handrail');
     return w;

@@ -28,7 +28,7 @@ describe('demo plans on Kestrel Station', () => {
   });
 
   it.each(['Coolant pump module swap', 'External camera boom install'])(
-    '"%s": both crew reach every worksite, the connector task is in orbital night, the day fits the limit',
+    '"%s": both crew reach every worksite, every restraint reaches its task, the connector task is in orbital night, the day fits the limit',
     async (title) => {
       const viewer = await t.agent('viewer');
       const plan = (await viewer.get('/api/plans')).body.find((p: { title: string }) => p.title === title);
@@ -40,6 +40,10 @@ describe('demo plans on Kestrel Station', () => {
       expect(codes, JSON.stringify(timeline.warnings)).not.toContain('eclipse-only-outside-night');
       expect(timeline.fitsTimeLimit).toBe(true);
       expect(timeline.inventoryWarnings, JSON.stringify(timeline.inventoryWarnings)).toEqual([]);
+      // every task's foot restraint reaches its worksite with the station's default reach settings
+      expect(timeline.reachWarnings, JSON.stringify(timeline.reachWarnings)).toEqual([]);
+      expect(timeline.reach.length).toBeGreaterThan(0);
+      for (const r of timeline.reach) expect(r.reach.reachable, JSON.stringify(r)).toBe(true);
     },
   );
 });

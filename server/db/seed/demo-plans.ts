@@ -22,11 +22,11 @@ export function demoPlanInputs(stationId: number): { draft: CreatePlanInput; app
     routeMode: 'balanced',
     orbitPhaseAtStartDeg: 352,
     tasks: [
-      { title: 'Set up the foot restraint at the pump module', worksite: 'SB3-W01', crew: 'both', durationSeconds: min(20), socket: 'SB3-S01', tools: ['Foot restraint', 'Pistol grip tool'] },
+      { title: 'Set up the foot restraint at the pump module', worksite: 'SB3-W01', crew: 'both', durationSeconds: min(20), socket: 'SB3-S05', tools: ['Foot restraint', 'Pistol grip tool'] },
       { title: 'Demate the pump power connectors', worksite: 'SB1-W01', crew: 'EV1', durationSeconds: min(15), eclipseOnly: true, tools: ['Connector tool'], notes: 'Connectors carry array power: orbital night only.' },
-      { title: 'Remove the failed pump module', worksite: 'SB3-W01', crew: 'both', durationSeconds: min(45), socket: 'SB3-S01', tools: ['Pistol grip tool'] },
+      { title: 'Remove the failed pump module', worksite: 'SB3-W01', crew: 'both', durationSeconds: min(45), socket: 'SB3-S05', tools: ['Pistol grip tool'] },
       { title: 'Stow the failed pump on the platform', worksite: 'CB-W01', crew: 'EV2', durationSeconds: min(25), carrying: true, tools: ['Pump bag'] },
-      { title: 'Install the spare pump module', worksite: 'SB3-W01', crew: 'both', durationSeconds: min(45), socket: 'SB3-S01', carrying: true, tools: ['Pistol grip tool'] },
+      { title: 'Install the spare pump module', worksite: 'SB3-W01', crew: 'both', durationSeconds: min(45), socket: 'SB3-S05', carrying: true, tools: ['Pistol grip tool'] },
     ],
     manifest: [
       { name: 'Pistol grip tool', kind: 'tool', carriedBy: 'EV1', endsAt: 'airlock' },
@@ -43,8 +43,8 @@ export function demoPlanInputs(stationId: number): { draft: CreatePlanInput; app
     routeMode: 'fewest-swaps',
     orbitPhaseAtStartDeg: 348,
     tasks: [
-      { title: 'Carry the camera boom to its mount', worksite: 'PB2-W01', crew: 'both', durationSeconds: min(20), socket: 'PB2-S02', carrying: true, tools: ['Boom bag'] },
-      { title: 'Bolt the boom to the mount', worksite: 'PB2-W01', crew: 'EV1', durationSeconds: min(40), socket: 'PB2-S02', tools: ['Pistol grip tool'] },
+      { title: 'Carry the camera boom to its mount', worksite: 'PB2-W01', crew: 'both', durationSeconds: min(20), socket: 'PB2-S05', carrying: true, tools: ['Boom bag'] },
+      { title: 'Bolt the boom to the mount', worksite: 'PB2-W01', crew: 'EV1', durationSeconds: min(40), socket: 'PB2-S05', tools: ['Pistol grip tool'] },
       { title: 'Mate the camera feed connector', worksite: 'PB3-W01', crew: 'EV2', durationSeconds: min(15), eclipseOnly: true, tools: ['Connector tool'] },
       { title: 'Check the end light and close out', worksite: 'PB4-W01', crew: 'EV2', durationSeconds: min(15) },
     ],
