@@ -261,6 +261,11 @@ export function clipGraphFor(c: CompiledStation, weights: Float64Array, tetherLe
   return cg;
 }
 
+/** Whether the clip graph for these parameters is already built. */
+export function hasClipGraph(weights: Float64Array, tetherLengthM: number, excludeMask: number): boolean {
+  return clipCache.get(weights)?.has(`${tetherLengthM}|${excludeMask}`) ?? false;
+}
+
 /** Per-query arrays over attach points (index A is the target), reset by a stamp. */
 interface ClipQueryState {
   stamp: number;
@@ -273,6 +278,9 @@ interface ClipQueryState {
   h2: Float64Array;
   lastStamp: Int32Array;
   last: Float64Array;
+  lmLo: Int32Array;
+  lmHi: Int32Array;
+  lmOff: Uint8Array;
   heap: MinHeap;
 }
 
@@ -291,6 +299,9 @@ function queryState(cg: ClipGraph): ClipQueryState {
       h2: new Float64Array(A),
       lastStamp: new Int32Array(A),
       last: new Float64Array(A),
+      lmLo: new Int32Array(cg.landmarkCount),
+      lmHi: new Int32Array(cg.landmarkCount),
+      lmOff: new Uint8Array(cg.landmarkCount),
       heap: new MinHeap(1024),
     };
   }
@@ -347,9 +358,10 @@ export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSea
     }
   }
   // per clip landmark: the least and greatest stretch count to those attach points
-  const lmLo = new Int32Array(K).fill(UNREACHED);
-  const lmHi = new Int32Array(K).fill(-1);
-  const lmOff = new Uint8Array(K);
+  const { lmLo, lmHi, lmOff } = q;
+  lmLo.fill(UNREACHED);
+  lmHi.fill(-1);
+  lmOff.fill(0);
   for (let h = 0; h < lastCount; h++) {
     const base = lastList[h] * K;
     for (let k = 0; k < K; k++) {
@@ -425,8 +437,17 @@ export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSea
       else offer(attachIndex[v], -1, lex ? 1 : time + swapCost, lex ? time : 0);
     }
   }
-  let found = false;
-  while (heap.size > 0) {
+  // a stretch straight to t needs no swap: it is the answer for fewest swaps, and for a swap cost
+  // when no route with a swap (at least that cost plus the least time) could be cheaper
+  let direct = Infinity;
+  if (sIdx >= 0 && lastStamp[sIdx] === stamp) direct = f * last[sIdx];
+  else if (sIdx < 0 && seen[A] === stamp) direct = lex ? p2[A] : p1[A];
+  let found = direct < Infinity && (lex || direct <= swapCost + hSeconds[s]);
+  if (found && sIdx >= 0) {
+    seen[A] = stamp;
+    pred[A] = -1;
+  }
+  while (!found && heap.size > 0) {
     const k1 = heap.topKey1();
     const k2 = heap.topKey2();
     const a = heap.pop();
@@ -442,10 +463,20 @@ export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSea
       const time = f * last[a];
       offerTarget(a, lex ? d1 : d1 + time, lex ? d2 + time : 0);
     }
+    // the offer above, inlined: this loop is where the search spends its time
+    const s1 = lex ? d1 + 1 : d1 + swapCost;
     for (let e = offsets[a], end = offsets[a + 1]; e < end; e++) {
-      const time = f * seconds[e];
-      if (lex) offer(targets[e], a, d1 + 1, d2 + time);
-      else offer(targets[e], a, d1 + time + swapCost, 0);
+      const b = targets[e];
+      if (b === tIdx) continue;
+      const q1 = lex ? s1 : s1 + f * seconds[e];
+      const q2 = lex ? d2 + f * seconds[e] : 0;
+      if (seen[b] === stamp && (p1[b] < q1 || (p1[b] === q1 && p2[b] <= q2))) continue;
+      if (!heuristic(b)) continue;
+      seen[b] = stamp;
+      p1[b] = q1;
+      p2[b] = q2;
+      pred[b] = a;
+      heap.push(b, q1 + h1[b], q2 + h2[b]);
     }
   }
   if (!found) return null;
