@@ -1,12 +1,12 @@
-import type { QueryClient } from '@tanstack/react-query';
+import { useQuery, type QueryClient } from '@tanstack/react-query';
 import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { PageSpinner } from '@/components/ui/spinner';
 import { paths } from '@/config/paths';
 import { requireUser, useUser } from '@/lib/authorization';
-import { getPlanQueryOptions, usePlan } from '@/features/plans/api/get-plan';
+import { getPlanQueryOptions } from '@/features/plans/api/get-plan';
 import { PlanEditor } from '@/features/plans/components/plan-editor';
 import type { PlanStationNodes } from '@/features/plans/types';
-import { useStationGraph } from '@/features/stations/api/get-station-graph';
+import { getStationGraphQueryOptions } from '@/features/stations/api/get-station-graph';
 
 export const clientLoader =
   (queryClient: QueryClient) =>
@@ -18,9 +18,11 @@ export const clientLoader =
 
 export default function PlanRoute() {
   const planId = Number(useParams().planId);
-  const plan = usePlan(planId);
   const { data: user } = useUser();
-  const graph = useStationGraph(plan.data?.stationId ?? 0);
+  // signing out clears the cache while this page is still mounted: nothing is fetched without a user
+  const plan = useQuery({ ...getPlanQueryOptions(planId), enabled: !!user });
+  const stationId = plan.data?.stationId ?? 0;
+  const graph = useQuery({ ...getStationGraphQueryOptions(stationId), enabled: !!user && stationId > 0 });
   if (!plan.data || !user) return <PageSpinner />;
   const nodes: PlanStationNodes | undefined = graph.data && {
     worksites: graph.data.nodes.filter((n) => n.kind === 'worksite'),

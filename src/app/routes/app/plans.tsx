@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import type { QueryClient } from '@tanstack/react-query';
+import { useQuery, type QueryClient } from '@tanstack/react-query';
 import { useNavigate, type LoaderFunctionArgs } from 'react-router-dom';
 import { PageHeader } from '@/components/layouts/app-layout';
 import { Button } from '@/components/ui/button';
@@ -7,11 +7,11 @@ import { Panel } from '@/components/ui/card';
 import { Dialog } from '@/components/ui/dialog';
 import { PageSpinner } from '@/components/ui/spinner';
 import { paths } from '@/config/paths';
-import { requireUser, useCan } from '@/lib/authorization';
-import { getPlansQueryOptions, usePlans } from '@/features/plans/api/get-plans';
+import { requireUser, useCan, useUser } from '@/lib/authorization';
+import { getPlansQueryOptions } from '@/features/plans/api/get-plans';
 import { CreatePlanForm } from '@/features/plans/components/create-plan-form';
 import { PlansList } from '@/features/plans/components/plans-list';
-import { useStations } from '@/features/stations/api/get-stations';
+import { getStationsQueryOptions } from '@/features/stations/api/get-stations';
 
 export const clientLoader =
   (queryClient: QueryClient) =>
@@ -22,8 +22,10 @@ export const clientLoader =
   };
 
 export default function PlansRoute() {
-  const plans = usePlans();
-  const stations = useStations();
+  const { data: user } = useUser();
+  // signing out clears the cache while this page is still mounted: nothing is fetched without a user
+  const plans = useQuery({ ...getPlansQueryOptions(), enabled: !!user });
+  const stations = useQuery({ ...getStationsQueryOptions(), enabled: !!user });
   const canEdit = useCan('plans:edit');
   const navigate = useNavigate();
   const [creating, setCreating] = useState(false);

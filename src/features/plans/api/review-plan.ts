@@ -24,6 +24,7 @@ export function useReviewPlan({
     mutationFn: reviewPlan,
     onSuccess: (plan, { step }) => {
       queryClient.setQueryData(planKeys.detail(plan.id), plan);
+      void queryClient.invalidateQueries({ queryKey: planKeys.timeline(plan.id) });
       void queryClient.invalidateQueries({ queryKey: planKeys.lists() });
       onSuccess?.(plan, step);
     },

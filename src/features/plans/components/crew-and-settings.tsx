@@ -44,6 +44,7 @@ export function CrewEditor({ draft, onChange, readOnly }: Props) {
             <legend className="px-1 text-sm font-semibold text-text-strong">{slot}</legend>
             <Field label={`${slot} name`} error={nameError}>
               <Input
+                className="read-only:bg-surface-sunken"
                 value={name}
                 readOnly={readOnly}
                 onChange={(e) => setSlot(slot, { name: e.target.value })}
@@ -72,6 +73,7 @@ export function SettingsEditor({ draft, onChange, readOnly }: Props) {
     <div className="grid gap-4 md:grid-cols-3">
       <Field label="Title" error={titleError}>
         <Input
+          className="read-only:bg-surface-sunken"
           value={draft.title}
           readOnly={readOnly}
           onChange={(e) => onChange({ title: e.target.value })}
@@ -79,6 +81,7 @@ export function SettingsEditor({ draft, onChange, readOnly }: Props) {
       </Field>
       <Field label="EVA date" error={dateOk ? undefined : 'date must be an ISO date (YYYY-MM-DD)'}>
         <Input
+          className="read-only:bg-surface-sunken"
           type="date"
           value={draft.date}
           readOnly={readOnly}

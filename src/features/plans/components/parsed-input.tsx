@@ -32,6 +32,7 @@ export function ParsedInput({ label, hint, value, format, schema, onCommit, read
       <Input
         value={text}
         readOnly={readOnly}
+        className="read-only:bg-surface-sunken"
         autoComplete="off"
         onFocus={() => {
           focused.current = true;

@@ -22,7 +22,7 @@ import { SaveIndicator } from './save-indicator';
 import { TasksEditor, taskRowId } from './tasks-editor';
 import { TimelineChart } from './timeline-chart';
 import { TimelineTotals } from './timeline-totals';
-import { WarningsPanel, type WarningTarget } from './warnings-panel';
+import { WarningsPanel, warningCountsByTask, type WarningTarget } from './warnings-panel';
 
 const TIMELINE_ID = 'plan-timeline';
 
@@ -149,6 +149,7 @@ export function PlanEditor({ plan, user, nodes, rehearseHref, extra }: PlanEdito
                 nodes={nodes}
                 toolNames={toolNames}
                 reach={tl && tl.planVersion === savedVersion ? tl.reach : []}
+                warningCounts={warningCountsByTask(tl && tl.planVersion === savedVersion ? tl : undefined)}
               />
             ) : (
               <PageSpinner />

@@ -33,9 +33,19 @@ interface TasksEditorProps {
   toolNames: string[];
   /** reach of each task's socket, as the server computed it for the saved plan */
   reach: TaskReach[];
+  /** how many warnings of the saved plan name each task, by index */
+  warningCounts: Map<number, number>;
 }
 
-export function TasksEditor({ tasks, onChange, readOnly, nodes, toolNames, reach }: TasksEditorProps) {
+export function TasksEditor({
+  tasks,
+  onChange,
+  readOnly,
+  nodes,
+  toolNames,
+  reach,
+  warningCounts,
+}: TasksEditorProps) {
   const [editing, setEditing] = useState<number | 'new' | null>(null);
   const [announcement, setAnnouncement] = useState('');
   const focusAfterMove = useRef<number | null>(null);
@@ -155,6 +165,11 @@ export function TasksEditor({ tasks, onChange, readOnly, nodes, toolNames, reach
                     {t.eclipseOnly && <Badge tone="accent">☾ Eclipse only</Badge>}
                     {t.carrying && <Badge tone="neutral">Carrying</Badge>}
                     <ReachStatus reach={r} />
+                    {(warningCounts.get(i) ?? 0) > 0 && (
+                      <Badge tone="danger">
+                        ⚠ {warningCounts.get(i)} warning{warningCounts.get(i) === 1 ? '' : 's'}
+                      </Badge>
+                    )}
                     {t.tools.map((tool) => (
                       <Badge key={tool} tone="neutral">
                         🔧 {tool}

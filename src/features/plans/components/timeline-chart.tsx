@@ -15,7 +15,7 @@ const LANE_H = 46;
 const LANE_GAP = 14;
 const laneTop = (i: number) => BAND_TOP + 6 + i * (LANE_H + LANE_GAP);
 const AXIS_Y = laneTop(2) - LANE_GAP + 8;
-const H = AXIS_Y + 26;
+const H = AXIS_Y + 40;
 
 export const BLOCK_NAMES: Record<TimelineBlockType, string> = {
   egress: 'Egress',
@@ -278,8 +278,10 @@ export function TimelineChart({ timeline, tasks }: TimelineChartProps) {
               const look = FILL[b.type];
               const bx = x(b.start);
               const bw = Math.max(1, x(b.end) - bx);
-              const label = b.type === 'work' ? `${b.taskIndex! + 1}. ${b.label}` : BLOCK_NAMES[b.type];
-              const fits = label.length * 6.2 < bw - 6;
+              const long = b.type === 'work' ? `${b.taskIndex! + 1}. ${b.label}` : BLOCK_NAMES[b.type];
+              const short = b.type === 'work' ? String(b.taskIndex! + 1) : '';
+              const label = long.length * 6.2 < bw - 6 ? long : short;
+              const fits = label !== '' && label.length * 6.2 < bw - 6;
               const isActive = active?.crew === m && active.block === b;
               return (
                 <g

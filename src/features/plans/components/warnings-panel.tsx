@@ -92,3 +92,13 @@ export function WarningsPanel({
     </ul>
   );
 }
+
+/** Warnings per task index, for the task list's markers. */
+export function warningCountsByTask(timeline: PlanTimeline | undefined): Map<number, number> {
+  const counts = new Map<number, number>();
+  for (const r of timeline ? warningRows(timeline) : []) {
+    if (r.target?.kind === 'task' && r.severity !== 'note')
+      counts.set(r.target.index, (counts.get(r.target.index) ?? 0) + 1);
+  }
+  return counts;
+}
