@@ -18,9 +18,7 @@ import type { StationDocument } from '@shared/schemas/station';
 import { recordActivity } from '../activity/activity.service';
 import { getCompiledStation, stationVersion } from '../compute/compiled-cache';
 
-/** Shown with every computed route, reach and timeline (DESIGN §6). */
-export const PLANNING_CAUTION =
-  "This is a planning aid. It does not replace the programme's certified procedures, flight rules, hardware data and safety review, and its defaults must be checked against them.";
+export { PLANNING_CAUTION } from '@shared/caution';
 
 export interface PlanView extends Plan {
   stationName: string;

@@ -1,7 +1,7 @@
+import { PLANNING_CAUTION } from '@shared/caution';
 import { cn } from '@/lib/cn';
 
-export const PLANNING_CAUTION_TEXT =
-  "This is a planning aid. It does not replace the programme's certified procedures, flight rules, hardware data and safety review, and its defaults must be checked against them.";
+export const PLANNING_CAUTION_TEXT = PLANNING_CAUTION;
 
 export function PlanningCaution({ className }: { className?: string }) {
   return (
