@@ -1,5 +1,5 @@
 import { useMemo, useRef, useState, type ComponentType, type ReactNode } from 'react';
-import type { QueryClient } from '@tanstack/react-query';
+import { useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import type { Vec3 } from '@shared/schemas/station';
 import type { StationGraph } from '@shared/schemas/station-edits';
@@ -34,6 +34,9 @@ import { edgesOf, type StationSelection } from '@/features/stations/components/s
 import { SelectionDetails } from '@/features/stations/components/selection-details';
 import { StationTables } from '@/features/stations/components/station-tables';
 import { useRouteFinder } from '@/features/routes';
+import { useStationNotes } from '@/features/annotations';
+import { useStationEditor } from '@/features/station-editor';
+import { stationKeys } from '@/features/stations/api/keys';
 
 const stationIdOf = (raw: string | undefined) => Number(raw);
 
@@ -53,6 +56,8 @@ export interface StationViewContext {
   lastSurfacePick: SurfacePick | null;
   layers: SceneLayers;
   sceneApi: SceneApi;
+  /** brings a right-panel tab to the front (a click on a note's pin opens the Annotations tab) */
+  showPanel: (id: string) => void;
 }
 
 export interface StationPanel {
@@ -94,7 +99,7 @@ export function StationView({ graph, panels = [], Overlays, onPickSurface }: Sta
     if (points.length) api.fitToView(points);
   };
 
-  const ctx: StationViewContext = { graph, selection, select: focus, lastSurfacePick, layers, sceneApi: api };
+  const ctx: StationViewContext = { graph, selection, select: focus, lastSurfacePick, layers, sceneApi: api, showPanel: setTab };
   const tabs = [
     { id: 'details', label: 'Details', render: () => <SelectionDetails graph={graph} selection={selection} onSelect={focus} /> },
     ...panels.map((p) => ({ id: p.id, label: p.label, render: () => p.render(ctx) })),
@@ -178,9 +183,26 @@ const ROUTE_PIECES = { PathLine, Marker, TranslucentSphere };
 export default function StationRoute() {
   const { stationId } = useParams();
   const graph = useStationGraph(stationIdOf(stationId));
+  const queryClient = useQueryClient();
+  const editTab = useStationEditor(() => void queryClient.invalidateQueries({ queryKey: stationKeys.graph(stationIdOf(stationId)) }));
+  const notes = useStationNotes(stationIdOf(stationId));
   const routeFinder = useRouteFinder(
     graph.data && { ...graph.data.station, tetherLengthM: graph.data.station.settings.tetherLengthM, nodes: graph.data.nodes },
     ROUTE_PIECES,
+  );
+  const { Overlays: RouteOverlays } = routeFinder;
+  const { Overlays: NoteOverlays } = notes;
+  const Overlays = useMemo(
+    () =>
+      function StationOverlays(ctx: StationViewContext) {
+        return (
+          <>
+            <RouteOverlays />
+            <NoteOverlays {...ctx} />
+          </>
+        );
+      },
+    [RouteOverlays, NoteOverlays],
   );
   if (!graph.data) return <PageSpinner />;
   const { station } = graph.data;
@@ -197,7 +219,7 @@ export default function StationRoute() {
         }
         actions={<StationActions graph={graph.data} />}
       />
-      <StationView graph={graph.data} panels={[routeFinder.tab]} Overlays={routeFinder.Overlays} />
+      <StationView graph={graph.data} panels={[routeFinder.tab, ...(editTab ? [editTab] : []), notes.tab]} Overlays={Overlays} />
     </>
   );
 }
