@@ -1,0 +1,212 @@
+import { act } from 'react';
+import { afterEach, describe, expect, it } from 'vitest';
+import fc from 'fast-check';
+import { computeTimeline, type RouteFn } from '@shared/compute/timeline';
+import { CreatePlanInputSchema, type Task } from '@shared/schemas/plan';
+import type { RouteFeasible } from '@shared/schemas/route';
+import { TimelineChart } from '@/features/plans/components/timeline-chart';
+import { TasksEditor } from '@/features/plans/components/tasks-editor';
+import { describeDifferences, draftChanges, draftFromPlan, moveItem } from '@/features/plans/lib/plan-draft';
+import type { PlanTimeline, PlanView } from '@/features/plans/types';
+import { render, type Rendered } from './render';
+
+/** A station that is one straight handrail along x: node `N<x>` sits at x metres, 0.1 m/s. */
+const straightRoute: RouteFn = (from, to, options) => {
+  const at = (key: string) => (key === 'AL' ? 0 : Number(key.slice(1)));
+  const lengthM = Math.abs(at(to) - at(from));
+  const seconds = lengthM / 0.1;
+  const route: RouteFeasible = {
+    feasible: true,
+    mode: options.mode,
+    nodes: [from, to],
+    legs: [{ from, to, kind: 'handrail', lengthM, seconds, startM: 0 }],
+    lengthM,
+    travelSeconds: seconds,
+    swapCount: 0,
+    swaps: [],
+    swapSeconds: 0,
+    totalSeconds: seconds,
+    tetherLengthM: options.tetherLengthM,
+    maxPaidOutM: lengthM,
+    warnings: [],
+    cautionHazards: [],
+  };
+  return route;
+};
+
+const tasks: Task[] = [
+  {
+    title: 'Mate connectors',
+    worksite: 'N20',
+    crew: 'both',
+    durationSeconds: 1200,
+    eclipseOnly: true,
+    carrying: false,
+    tools: [],
+  },
+  {
+    title: 'Inspect hinge',
+    worksite: 'N40',
+    crew: 'EV1',
+    durationSeconds: 2700,
+    eclipseOnly: false,
+    carrying: false,
+    tools: [],
+  },
+  {
+    title: 'Route cable',
+    worksite: 'N10',
+    crew: 'EV2',
+    durationSeconds: 3600,
+    eclipseOnly: false,
+    carrying: false,
+    tools: [],
+  },
+];
+
+function planView(overrides: Partial<PlanView> = {}): PlanView {
+  const input = CreatePlanInputSchema.parse({
+    title: 'Test EVA',
+    stationId: 1,
+    date: '2026-03-01',
+    crew: { EV1: { name: 'Ada', tetherLengthM: 25.9 }, EV2: { name: 'Lars', tetherLengthM: 16.8 } },
+    tasks,
+  });
+  return {
+    ...input,
+    id: 7,
+    status: 'draft',
+    version: 3,
+    authorId: 1,
+    createdAt: '2026-01-01T00:00:00Z',
+    updatedAt: '2026-01-01T00:00:00Z',
+    reviewComments: [],
+    stationName: 'Line Station',
+    authorName: 'Priya',
+    approverName: null,
+    ...overrides,
+  };
+}
+
+function planTimeline(plan: PlanView): PlanTimeline {
+  const timeline = computeTimeline(
+    { plan, airlockKey: 'AL', orbit: { altitudeKm: 410, betaDeg: 20 } },
+    straightRoute,
+  );
+  return {
+    ...timeline,
+    planId: plan.id,
+    planVersion: plan.version,
+    stationId: 1,
+    stationVersion: 1,
+    airlockKey: 'AL',
+    inventoryWarnings: [],
+    reach: [],
+    reachWarnings: [],
+    caution: '',
+  };
+}
+
+let rendered: Rendered | undefined;
+afterEach(() => {
+  rendered?.unmount();
+  rendered = undefined;
+});
+
+describe('plan draft helpers', () => {
+  it('moveItem keeps every item and puts the moved one where it was asked to go (property)', () => {
+    fc.assert(
+      fc.property(
+        fc
+          .array(fc.integer(), { minLength: 1, maxLength: 20 })
+          .chain((list) => fc.tuple(fc.constant(list), fc.nat(list.length - 1), fc.nat(list.length - 1))),
+        ([list, from, to]) => {
+          const moved = moveItem(list, from, to);
+          expect([...moved].sort((a, b) => a - b)).toEqual([...list].sort((a, b) => a - b));
+          expect(moved[to]).toBe(list[from]);
+          expect(moveItem(moved, to, from)).toEqual(list);
+        },
+      ),
+    );
+  });
+
+  it('sends only the changed fields with the version read, and nothing when nothing changed', () => {
+    const base = draftFromPlan(planView());
+    expect(draftChanges(base, structuredClone(base), 3)).toBeNull();
+    const edited = { ...base, title: 'Renamed', tasks: moveItem(base.tasks, 0, 2) };
+    const body = draftChanges(base, edited, 3);
+    expect(Object.keys(body ?? {}).sort()).toEqual(['tasks', 'title', 'version']);
+    expect(body?.tasks?.map((t) => t.title)).toEqual(['Inspect hinge', 'Route cable', 'Mate connectors']);
+  });
+
+  it('lists, field by field, where the server’s plan differs from the draft', () => {
+    const mine = draftFromPlan(planView());
+    const theirs = structuredClone(mine);
+    theirs.tasks[1].durationSeconds = 3600;
+    theirs.crew.EV2.name = 'Mira';
+    theirs.manifest.push({
+      name: 'Torque wrench',
+      kind: 'tool',
+      quantity: 1,
+      carriedBy: 'EV1',
+      startsAt: 'airlock',
+    });
+    const lines = describeDifferences(mine, theirs);
+    expect(lines).toContain('EV2 name: Lars → Mira');
+    expect(lines).toContain('Task 2 “Inspect hinge”: duration 0:45 → 1:00');
+    expect(lines).toContain('Manifest items: 0 in your copy, 1 now');
+    expect(describeDifferences(mine, structuredClone(mine))).toEqual([]);
+  });
+});
+
+describe('timeline chart', () => {
+  it('draws one band per night window, every block of both lanes, and the route of a focused block', async () => {
+    const plan = planView();
+    const timeline = planTimeline(plan);
+    rendered = await render(<TimelineChart timeline={timeline} tasks={plan.tasks} />);
+    const { container } = rendered;
+    expect(timeline.nightWindows.length).toBeGreaterThan(0);
+    expect(container.querySelectorAll('[data-night-band]').length).toBe(timeline.nightWindows.length);
+    const blocks = timeline.crew.EV1.blocks.length + timeline.crew.EV2.blocks.length;
+    expect(container.querySelectorAll('[data-block-type]').length).toBe(blocks);
+    expect(container.querySelectorAll('[data-block-type="work"]').length).toBe(4);
+
+    const translate = container.querySelector<SVGGElement>('[data-block-type="translate"]')!;
+    await act(async () => translate.focus());
+    expect(container.textContent).toMatch(/Whole route: AL → N20, 20\.0 m/);
+    expect(translate.getAttribute('aria-label')).toMatch(/^EV1 Translate: .* 0:30 to 0:33$/);
+  });
+});
+
+describe('task list reordering', () => {
+  it('moves a focused task with Alt+↑ and announces the move', async () => {
+    let latest: Task[] = tasks;
+    rendered = await render(
+      <TasksEditor
+        tasks={tasks}
+        onChange={(next) => {
+          latest = next;
+        }}
+        readOnly={false}
+        nodes={{ worksites: [], sockets: [] }}
+        toolNames={[]}
+        reach={[]}
+        warningCounts={new Map([[0, 1]])}
+      />,
+    );
+    const row = rendered.container.querySelector<HTMLLIElement>('#plan-task-3')!;
+    await act(async () => {
+      row.focus();
+      row.dispatchEvent(new KeyboardEvent('keydown', { key: 'ArrowUp', altKey: true, bubbles: true }));
+    });
+    expect(latest.map((t) => t.title)).toEqual(['Mate connectors', 'Route cable', 'Inspect hinge']);
+    expect(rendered.container.textContent).toContain('Moved task “Route cable” to position 2 of 3.');
+    expect(rendered.container.querySelector('#plan-task-1')?.textContent).toContain('⚠ 1 warning');
+
+    // without Alt the arrow keys stay with the page
+    await act(async () => {
+      row.dispatchEvent(new KeyboardEvent('keydown', { key: 'ArrowDown', bubbles: true }));
+    });
+    expect(latest.map((t) => t.title)).toEqual(['Mate connectors', 'Route cable', 'Inspect hinge']);
+  });
+});
