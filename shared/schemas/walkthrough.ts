@@ -19,7 +19,9 @@ const NameSchema = z
 const VersionSchema = z.number().int('version must be a whole number').min(1, 'version must be at least 1');
 
 /** Step ids as `shared/compute/walkthrough.ts` makes them: `EV1-3`, `EV2-10`, `r-4`. */
-export const StepIdSchema = z.string().regex(/^(EV1|EV2|r)-[1-9]\d{0,4}$/, 'not a step id (like EV1-3 or r-4)');
+export const StepIdSchema = z
+  .string()
+  .regex(/^(EV1|EV2|r)-[1-9]\d{0,4}$/, 'not a step id (like EV1-3 or r-4)');
 
 /** A route rehearsed on its own: the same body as `POST /api/stations/:id/routes`. */
 export const WalkthroughRouteSpecSchema = RouteRequestSchema;
@@ -39,7 +41,10 @@ export const CreateWalkthroughInputSchema = z
 export type CreateWalkthroughInput = z.infer<typeof CreateWalkthroughInputSchema>;
 
 const NotesSchema = z
-  .record(StepIdSchema, z.string().max(MAX_NOTE_LENGTH, `a note must be at most ${MAX_NOTE_LENGTH} characters`))
+  .record(
+    StepIdSchema,
+    z.string().max(MAX_NOTE_LENGTH, `a note must be at most ${MAX_NOTE_LENGTH} characters`),
+  )
   .refine((v) => Object.keys(v).length <= MAX_NOTES, `at most ${MAX_NOTES} notes`);
 export type WalkthroughNotes = z.infer<typeof NotesSchema>;
 
@@ -56,7 +61,11 @@ export const UpdateWalkthroughInputSchema = z.strictObject({
 export type UpdateWalkthroughInput = z.infer<typeof UpdateWalkthroughInputSchema>;
 
 export const DeleteWalkthroughQuerySchema = z.strictObject({
-  version: z.coerce.number().int('version must be a whole number').min(1, 'version must be at least 1').optional(),
+  version: z.coerce
+    .number()
+    .int('version must be a whole number')
+    .min(1, 'version must be at least 1')
+    .optional(),
 });
 
 export type WalkthroughKind = 'plan' | 'route';

@@ -2,7 +2,12 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Role } from '@shared/auth/permissions';
 import { planWalkthrough, type CrewTrack } from '@shared/compute/walkthrough';
 import type { Vec3 } from '@shared/schemas/station';
-import type { PlanPlayback, RoutePlayback, WalkthroughDetail, WalkthroughSummary } from '@shared/schemas/walkthrough';
+import type {
+  PlanPlayback,
+  RoutePlayback,
+  WalkthroughDetail,
+  WalkthroughSummary,
+} from '@shared/schemas/walkthrough';
 import { buildStationDocument, FIXTURE_KEYS as K, stationDocumentFile } from '../factories/station-document';
 import { makeTestApp, type TestApp } from '../setup/test-app';
 import { DEMO_WALKTHROUGH_PLAN, seedDemoWalkthroughs } from '../../server/db/seed/demo-walkthroughs';
@@ -22,7 +27,13 @@ const planBody = () => ({
   date: '2031-04-02',
   crew: { EV1: { name: 'Ana', tetherLengthM: 7 }, EV2: { name: 'Ben', tetherLengthM: 25.9 } },
   tasks: [
-    { title: 'Open the pump cover', worksite: K.worksite, crew: 'EV1', durationSeconds: 900, socket: K.socket },
+    {
+      title: 'Open the pump cover',
+      worksite: K.worksite,
+      crew: 'EV1',
+      durationSeconds: 900,
+      socket: K.socket,
+    },
     { title: 'Swap the pump', worksite: K.worksite, crew: 'both', durationSeconds: 1200 },
   ],
 });
@@ -30,7 +41,9 @@ const planBody = () => ({
 beforeAll(async () => {
   t = await makeTestApp();
   const engineer = await t.agent('engineer');
-  const imported = await engineer.post('/api/stations/import').attach('file', stationDocumentFile(doc), 'station.json');
+  const imported = await engineer
+    .post('/api/stations/import')
+    .attach('file', stationDocumentFile(doc), 'station.json');
   expect(imported.status).toBe(201);
   stationId = imported.body.station.id;
   const plan = await (await t.agent('planner')).post('/api/plans').send(planBody());
@@ -43,14 +56,30 @@ async function createPlanWalkthrough(role: Role = 'trainer', name = 'Pump day') 
   return (await t.agent(role)).post('/api/walkthroughs').send({ name, stationId, planId });
 }
 
-const stepsOf = (track: CrewTrack) => track.steps.map(({ id, type, start, end, nodeKey, clipKey, releaseKey }) => ({ id, type, start, end, nodeKey, clipKey, releaseKey }));
+const stepsOf = (track: CrewTrack) =>
+  track.steps.map(({ id, type, start, end, nodeKey, clipKey, releaseKey }) => ({
+    id,
+    type,
+    start,
+    end,
+    nodeKey,
+    clipKey,
+    releaseKey,
+  }));
 
 describe('walkthroughs API', () => {
   it('creates a plan walkthrough whose playback is planWalkthrough of the timeline endpoint’s timeline', async () => {
     const res = await createPlanWalkthrough();
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     const detail = res.body as WalkthroughDetail;
-    expect(detail.walkthrough).toMatchObject({ name: 'Pump day', kind: 'plan', planId, stationId, version: 1, notes: {} });
+    expect(detail.walkthrough).toMatchObject({
+      name: 'Pump day',
+      kind: 'plan',
+      planId,
+      stationId,
+      version: 1,
+      notes: {},
+    });
     expect(detail.changedSince).toBe(false);
 
     const timeline = (await (await t.agent('viewer')).get(`/api/plans/${planId}/timeline`)).body;
@@ -69,33 +98,65 @@ describe('walkthroughs API', () => {
     const swaps = playback.crews.EV1.steps.filter((s) => s.type === 'swap');
     expect(swaps.length).toBeGreaterThan(0);
     for (const s of swaps) expect(playback.positions[s.clipKey!]).toEqual(positions.get(s.clipKey!));
-    expect(playback.crews.EV1.steps.some((s) => s.type === 'restraint-in' && s.socketKey === K.socket)).toBe(true);
+    expect(playback.crews.EV1.steps.some((s) => s.type === 'restraint-in' && s.socketKey === K.socket)).toBe(
+      true,
+    );
   });
 
   it('creates a route walkthrough; an infeasible route is a 400 with the reason, an unknown key a 404', async () => {
     const trainer = await t.agent('trainer');
     const ok = await trainer
       .post('/api/walkthroughs')
-      .send({ name: 'To the socket', stationId, route: { from: K.airlock, to: K.socket, mode: 'fewest-swaps', tetherLengthM: 7 } });
+      .send({
+        name: 'To the socket',
+        stationId,
+        route: { from: K.airlock, to: K.socket, mode: 'fewest-swaps', tetherLengthM: 7 },
+      });
     expect(ok.status, JSON.stringify(ok.body)).toBe(201);
     const playback = ok.body.playback as RoutePlayback;
     expect(playback.kind).toBe('route');
-    const route = (await trainer.post(`/api/stations/${stationId}/routes`).send({ from: K.airlock, to: K.socket, mode: 'fewest-swaps', tetherLengthM: 7 })).body;
-    expect(playback.track.steps.filter((s) => s.type === 'swap').map((s) => s.clipKey)).toEqual(route.swaps.map((s: { node: string }) => s.node));
+    const route = (
+      await trainer
+        .post(`/api/stations/${stationId}/routes`)
+        .send({ from: K.airlock, to: K.socket, mode: 'fewest-swaps', tetherLengthM: 7 })
+    ).body;
+    expect(playback.track.steps.filter((s) => s.type === 'swap').map((s) => s.clipKey)).toEqual(
+      route.swaps.map((s: { node: string }) => s.node),
+    );
     expect(playback.endSeconds).toBeCloseTo(route.totalSeconds, 9);
     expect(ok.body.walkthrough.basedOnVersion).toBe(1);
 
     const gap = await trainer
       .post('/api/walkthroughs')
-      .send({ name: 'Too short', stationId, route: { from: K.airlock, to: K.socket, mode: 'fastest', tetherLengthM: 1 } });
+      .send({
+        name: 'Too short',
+        stationId,
+        route: { from: K.airlock, to: K.socket, mode: 'fastest', tetherLengthM: 1 },
+      });
     expect(gap.status).toBe(400);
     expect(gap.body.error.message).toMatch(/tether|anchor/i);
 
-    const unknown = await trainer.post('/api/walkthroughs').send({ name: 'x', stationId, route: { from: K.airlock, to: 'NOPE-1', mode: 'fastest' } });
+    const unknown = await trainer
+      .post('/api/walkthroughs')
+      .send({ name: 'x', stationId, route: { from: K.airlock, to: 'NOPE-1', mode: 'fastest' } });
     expect(unknown.status).toBe(404);
-    expect((await trainer.post('/api/walkthroughs').send({ name: 'x', stationId, planId: 99999 })).status).toBe(404);
-    expect((await trainer.post('/api/walkthroughs').send({ name: 'x', stationId: 99999, route: { from: K.airlock, to: K.socket, mode: 'fastest' } })).status).toBe(404);
-    expect((await trainer.post('/api/walkthroughs').send({ name: 'x', stationId, planId, route: { from: K.airlock, to: K.socket, mode: 'fastest' } })).status).toBe(400);
+    expect(
+      (await trainer.post('/api/walkthroughs').send({ name: 'x', stationId, planId: 99999 })).status,
+    ).toBe(404);
+    expect(
+      (
+        await trainer
+          .post('/api/walkthroughs')
+          .send({ name: 'x', stationId: 99999, route: { from: K.airlock, to: K.socket, mode: 'fastest' } })
+      ).status,
+    ).toBe(404);
+    expect(
+      (
+        await trainer
+          .post('/api/walkthroughs')
+          .send({ name: 'x', stationId, planId, route: { from: K.airlock, to: K.socket, mode: 'fastest' } })
+      ).status,
+    ).toBe(400);
     expect((await trainer.get('/api/walkthroughs/99999')).status).toBe(404);
   });
 
@@ -106,14 +167,20 @@ describe('walkthroughs API', () => {
     for (const role of ['planner', 'engineer', 'viewer'] as const) {
       const agent = await t.agent(role);
       expect((await createPlanWalkthrough(role)).status, role).toBe(403);
-      expect((await agent.patch(`/api/walkthroughs/${id}`).send({ version: 1, name: 'no' })).status, role).toBe(403);
+      expect(
+        (await agent.patch(`/api/walkthroughs/${id}`).send({ version: 1, name: 'no' })).status,
+        role,
+      ).toBe(403);
       expect((await agent.delete(`/api/walkthroughs/${id}`)).status, role).toBe(403);
       expect((await agent.get('/api/walkthroughs')).status, role).toBe(200);
       expect((await agent.get(`/api/walkthroughs/${id}`)).status, role).toBe(200);
     }
     expect((await t.anonymous().get('/api/walkthroughs')).status).toBe(401);
     const trainer = await t.agent('trainer');
-    expect((await trainer.patch(`/api/walkthroughs/${id}`).send({ version: 1, name: 'Renamed by trainer' })).status).toBe(200);
+    expect(
+      (await trainer.patch(`/api/walkthroughs/${id}`).send({ version: 1, name: 'Renamed by trainer' }))
+        .status,
+    ).toBe(200);
     expect((await trainer.delete(`/api/walkthroughs/${id}?version=1`)).status).toBe(409);
     expect((await trainer.delete(`/api/walkthroughs/${id}?version=2`)).status).toBe(204);
     expect((await trainer.get(`/api/walkthroughs/${id}`)).status).toBe(404);
@@ -124,23 +191,44 @@ describe('walkthroughs API', () => {
     const id = created.walkthrough.id;
     const [first, second] = (created.playback as PlanPlayback).crews.EV1.steps;
     const trainer = await t.agent('trainer');
-    const saved = await trainer.patch(`/api/walkthroughs/${id}`).send({ version: 1, notes: { [first.id]: 'Check both hooks', [second.id]: 'Call the time' } });
+    const saved = await trainer
+      .patch(`/api/walkthroughs/${id}`)
+      .send({ version: 1, notes: { [first.id]: 'Check both hooks', [second.id]: 'Call the time' } });
     expect(saved.status).toBe(200);
-    expect(saved.body.walkthrough).toMatchObject({ version: 2, notes: { [first.id]: 'Check both hooks', [second.id]: 'Call the time' } });
+    expect(saved.body.walkthrough).toMatchObject({
+      version: 2,
+      notes: { [first.id]: 'Check both hooks', [second.id]: 'Call the time' },
+    });
 
-    const stale = await (await t.agent('admin')).patch(`/api/walkthroughs/${id}`).send({ version: 1, notes: { [first.id]: 'overwrite' } });
+    const stale = await (
+      await t.agent('admin')
+    )
+      .patch(`/api/walkthroughs/${id}`)
+      .send({ version: 1, notes: { [first.id]: 'overwrite' } });
     expect(stale.status).toBe(409);
     expect(stale.body.error.code).toBe('CONFLICT');
     expect(stale.body.error.message).toMatch(/version 1.*version is 2/);
 
     // an empty note removes it; the other stays
-    const cleared = await trainer.patch(`/api/walkthroughs/${id}`).send({ version: 2, notes: { [second.id]: '  ' } });
+    const cleared = await trainer
+      .patch(`/api/walkthroughs/${id}`)
+      .send({ version: 2, notes: { [second.id]: '  ' } });
     expect(cleared.body.walkthrough.notes).toEqual({ [first.id]: 'Check both hooks' });
-    expect((await trainer.patch(`/api/walkthroughs/${id}`).send({ version: 3, notes: { 'not a step': 'x' } })).status).toBe(400);
+    expect(
+      (await trainer.patch(`/api/walkthroughs/${id}`).send({ version: 3, notes: { 'not a step': 'x' } }))
+        .status,
+    ).toBe(400);
 
     const list = (await (await t.agent('viewer')).get('/api/walkthroughs')).body as WalkthroughSummary[];
     const row = list.find((w) => w.id === id)!;
-    expect(row).toMatchObject({ name: 'Notes test', kind: 'plan', stationId, noteCount: 1, stale: false, authorName: expect.any(String) });
+    expect(row).toMatchObject({
+      name: 'Notes test',
+      kind: 'plan',
+      stationId,
+      noteCount: 1,
+      stale: false,
+      authorName: expect.any(String),
+    });
     expect(row.plan).toMatchObject({ id: planId, title: 'Pump site rehearsal' });
   });
 
@@ -149,7 +237,15 @@ describe('walkthroughs API', () => {
     const id = created.walkthrough.id;
     const planner = await t.agent('planner');
     const plan = (await planner.get(`/api/plans/${planId}`)).body;
-    const edited = await planner.patch(`/api/plans/${planId}`).send({ version: plan.version, tasks: [...planBody().tasks, { title: 'Close out', worksite: K.worksite, crew: 'EV2', durationSeconds: 600 }] });
+    const edited = await planner
+      .patch(`/api/plans/${planId}`)
+      .send({
+        version: plan.version,
+        tasks: [
+          ...planBody().tasks,
+          { title: 'Close out', worksite: K.worksite, crew: 'EV2', durationSeconds: 600 },
+        ],
+      });
     expect(edited.status, JSON.stringify(edited.body)).toBe(200);
 
     const trainer = await t.agent('trainer');
@@ -159,7 +255,9 @@ describe('walkthroughs API', () => {
     expect(after.currentVersion).toBe(edited.body.version);
     // the playback follows the plan as it is now
     expect((after.playback as PlanPlayback).crews.EV2.steps.some((s) => s.title === 'Close out')).toBe(true);
-    const listed = ((await trainer.get('/api/walkthroughs')).body as WalkthroughSummary[]).find((w) => w.id === id)!;
+    const listed = ((await trainer.get('/api/walkthroughs')).body as WalkthroughSummary[]).find(
+      (w) => w.id === id,
+    )!;
     expect(listed.stale).toBe(true);
 
     const rebased = await trainer.patch(`/api/walkthroughs/${id}`).send({ version: 1, rebase: true });
@@ -171,16 +269,26 @@ describe('walkthroughs API', () => {
   it('seeds one walkthrough of the demo plan by the demo trainer, with notes, only when none exists', async () => {
     const fresh = await makeTestApp();
     try {
-      const imported = await (await fresh.agent('engineer')).post('/api/stations/import').attach('file', stationDocumentFile(doc), 'station.json');
-      const plan = await (await fresh.agent('planner')).post('/api/plans').send({ ...planBody(), stationId: imported.body.station.id, title: DEMO_WALKTHROUGH_PLAN });
+      const imported = await (
+        await fresh.agent('engineer')
+      )
+        .post('/api/stations/import')
+        .attach('file', stationDocumentFile(doc), 'station.json');
+      const plan = await (
+        await fresh.agent('planner')
+      )
+        .post('/api/plans')
+        .send({ ...planBody(), stationId: imported.body.station.id, title: DEMO_WALKTHROUGH_PLAN });
       expect(plan.status).toBe(201);
       seedDemoWalkthroughs(fresh.ctx);
       seedDemoWalkthroughs(fresh.ctx);
-      const list = (await (await fresh.agent('viewer')).get('/api/walkthroughs')).body as WalkthroughSummary[];
+      const list = (await (await fresh.agent('viewer')).get('/api/walkthroughs'))
+        .body as WalkthroughSummary[];
       expect(list).toHaveLength(1);
       expect(list[0]).toMatchObject({ kind: 'plan', authorName: 'Jonah Abara', stale: false });
       expect(list[0].plan?.title).toBe(DEMO_WALKTHROUGH_PLAN);
-      const detail = (await (await fresh.agent('viewer')).get(`/api/walkthroughs/${list[0].id}`)).body as WalkthroughDetail;
+      const detail = (await (await fresh.agent('viewer')).get(`/api/walkthroughs/${list[0].id}`))
+        .body as WalkthroughDetail;
       const pb = detail.playback as PlanPlayback;
       const ids = new Set([...pb.crews.EV1.steps, ...pb.crews.EV2.steps].map((st) => st.id));
       expect(Object.keys(detail.walkthrough.notes).length).toBeGreaterThanOrEqual(2);

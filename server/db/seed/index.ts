@@ -2,6 +2,7 @@ import type { AppContext } from '../../context';
 import { seedDemoPlans } from './demo-plans';
 import { seedDemoStation } from './demo-station';
 import { seedDemoUsers } from './demo-users';
+import { seedDemoWalkthroughs } from './demo-walkthroughs';
 
 /**
  * Seeding runs at every start and is idempotent: demo users only into an empty users table, and
@@ -12,6 +13,8 @@ export type SeedStep = (ctx: AppContext) => void | Promise<void>;
 export const demoContentSteps: SeedStep[] = [];
 demoContentSteps.push(seedDemoStation);
 demoContentSteps.push(seedDemoPlans);
+// keep last: it rehearses a demo plan, so it runs after the plans step
+demoContentSteps.push(seedDemoWalkthroughs);
 
 export async function seedDatabase(ctx: AppContext) {
   const addedUsers = seedDemoUsers(ctx.db);

@@ -88,7 +88,10 @@ function toWalkthrough(j: Joined): Walkthrough {
   };
 }
 
-export function listWalkthroughs(db: Db, filter: { planId?: number; stationId?: number } = {}): WalkthroughSummary[] {
+export function listWalkthroughs(
+  db: Db,
+  filter: { planId?: number; stationId?: number } = {},
+): WalkthroughSummary[] {
   const where = and(
     filter.planId ? eq(walkthroughs.planId, filter.planId) : undefined,
     filter.stationId ? eq(walkthroughs.stationId, filter.stationId) : undefined,
@@ -136,7 +139,8 @@ function positionsOf(doc: StationDocument, tracks: readonly CrewTrack[], extra: 
   };
   extra.forEach(add);
   for (const t of tracks) {
-    for (const s of t.steps) [s.nodeKey, s.fromKey, s.anchorKey, s.clipKey, s.releaseKey, s.socketKey].forEach(add);
+    for (const s of t.steps)
+      [s.nodeKey, s.fromKey, s.anchorKey, s.clipKey, s.releaseKey, s.socketKey].forEach(add);
   }
   return out;
 }
@@ -147,7 +151,10 @@ const positionFn = (doc: StationDocument) => {
 };
 
 /** The plan's playback, from the same timeline `GET /api/plans/:id/timeline` returns. */
-export function planPlayback(ctx: AppContext, planId: number): { playback: PlanPlayback; planVersion: number } {
+export function planPlayback(
+  ctx: AppContext,
+  planId: number,
+): { playback: PlanPlayback; planVersion: number } {
   const { plan, timeline } = planTimeline(ctx, planId);
   const { doc } = getCompiledStation(ctx, plan.stationId);
   const walk = planWalkthrough(timeline, plan.tasks, timeline.airlockKey, positionFn(doc));
@@ -161,15 +168,25 @@ export function planPlayback(ctx: AppContext, planId: number): { playback: PlanP
     timeLimitSeconds: timeline.timeLimitSeconds,
     airlockKey: timeline.airlockKey,
     nightWindows: timeline.nightWindows,
-    positions: positionsOf(doc, CREW.map((c) => crews[c]), [timeline.airlockKey]),
+    positions: positionsOf(
+      doc,
+      CREW.map((c) => crews[c]),
+      [timeline.airlockKey],
+    ),
     warnings: [...timeline.warnings.map((w) => w.message), ...timeline.reachWarnings.map((w) => w.message)],
   };
   return { playback, planVersion: plan.version };
 }
 
-type RoutePlaybackResult = { ok: true; playback: RoutePlayback; stationVersion: number } | { ok: false; reason: string; stationVersion: number };
+type RoutePlaybackResult =
+  | { ok: true; playback: RoutePlayback; stationVersion: number }
+  | { ok: false; reason: string; stationVersion: number };
 
-export function routePlayback(ctx: AppContext, stationId: number, spec: WalkthroughRouteSpec): RoutePlaybackResult {
+export function routePlayback(
+  ctx: AppContext,
+  stationId: number,
+  spec: WalkthroughRouteSpec,
+): RoutePlaybackResult {
   const entry = getCompiledStation(ctx, stationId);
   const route = routeOn(entry, spec);
   if (!route.feasible) return { ok: false, reason: route.reason, stationVersion: entry.version };
@@ -218,24 +235,39 @@ export function walkthroughDetail(ctx: AppContext, id: number): WalkthroughDetai
     walkthrough,
     ...detail,
     changedSince,
-    ...(changedSince ? { notice: changeNotice(walkthrough.kind, walkthrough.basedOnVersion, detail.currentVersion) } : {}),
+    ...(changedSince
+      ? { notice: changeNotice(walkthrough.kind, walkthrough.basedOnVersion, detail.currentVersion) }
+      : {}),
     caution: PLANNING_CAUTION,
   };
 }
 
-export function createWalkthrough(ctx: AppContext, input: CreateWalkthroughInput, actor: Actor): WalkthroughDetail {
+export function createWalkthrough(
+  ctx: AppContext,
+  input: CreateWalkthroughInput,
+  actor: Actor,
+): WalkthroughDetail {
   let basedOnVersion: number;
   if (input.planId !== undefined) {
-    const plan = ctx.db.select({ stationId: plans.stationId, version: plans.version }).from(plans).where(eq(plans.id, input.planId)).get();
+    const plan = ctx.db
+      .select({ stationId: plans.stationId, version: plans.version })
+      .from(plans)
+      .where(eq(plans.id, input.planId))
+      .get();
     if (!plan) throw notFound('Plan');
     if (plan.stationId !== input.stationId) {
-      throw badRequest('The plan is on another station.', [{ path: 'body.stationId', message: `the plan is on station ${plan.stationId}` }]);
+      throw badRequest('The plan is on another station.', [
+        { path: 'body.stationId', message: `the plan is on station ${plan.stationId}` },
+      ]);
     }
     // computing it now refuses a plan that cannot be laid out (e.g. a station with no airlock)
     basedOnVersion = planPlayback(ctx, input.planId).planVersion;
   } else {
     const result = routePlayback(ctx, input.stationId, input.route!);
-    if (!result.ok) throw badRequest(`No walkable route: ${result.reason}`, [{ path: 'body.route', message: result.reason }]);
+    if (!result.ok)
+      throw badRequest(`No walkable route: ${result.reason}`, [
+        { path: 'body.route', message: result.reason },
+      ]);
     basedOnVersion = result.stationVersion;
   }
   const row = ctx.db
@@ -268,7 +300,12 @@ function staleError(current: Row, version: number) {
   );
 }
 
-export function updateWalkthrough(ctx: AppContext, id: number, input: UpdateWalkthroughInput, actor: Actor): WalkthroughDetail {
+export function updateWalkthrough(
+  ctx: AppContext,
+  id: number,
+  input: UpdateWalkthroughInput,
+  actor: Actor,
+): WalkthroughDetail {
   const j = findJoined(ctx.db, id);
   const current = j.w;
   if (current.version !== input.version) throw staleError(current, input.version);

@@ -58,7 +58,9 @@ export default function WalkthroughsRoute() {
         description="Saved training playbacks of a plan or a single route: the crew marker, the live tether and every swap, with trainer notes and printable step cards."
         actions={canEdit && <Button onClick={() => setCreating(true)}>New walkthrough</Button>}
       />
-      <Panel>{walkthroughs.data ? <WalkthroughsTable walkthroughs={walkthroughs.data} /> : <PageSpinner />}</Panel>
+      <Panel>
+        {walkthroughs.data ? <WalkthroughsTable walkthroughs={walkthroughs.data} /> : <PageSpinner />}
+      </Panel>
       {creating && (
         <NewWalkthroughDialog
           defaultPlanId={defaultPlanId}

@@ -7,7 +7,9 @@ export function createWalkthrough(input: CreateWalkthroughInput): Promise<Walkth
   return api.post('/walkthroughs', input);
 }
 
-export function useCreateWalkthrough({ onSuccess }: { onSuccess?: (detail: WalkthroughDetail) => void } = {}) {
+export function useCreateWalkthrough({
+  onSuccess,
+}: { onSuccess?: (detail: WalkthroughDetail) => void } = {}) {
   return useInvalidatingMutation({
     mutationFn: createWalkthrough,
     invalidates: [walkthroughKeys.lists()],

@@ -4,11 +4,19 @@ import { api } from '@/lib/api-client';
 import { useInvalidatingMutation } from '@/lib/mutation';
 import { walkthroughKeys } from './keys';
 
-export function updateWalkthrough({ id, data }: { id: number; data: UpdateWalkthroughInput }): Promise<WalkthroughDetail> {
+export function updateWalkthrough({
+  id,
+  data,
+}: {
+  id: number;
+  data: UpdateWalkthroughInput;
+}): Promise<WalkthroughDetail> {
   return api.patch(`/walkthroughs/${id}`, data);
 }
 
-export function useUpdateWalkthrough({ onSuccess }: { onSuccess?: (detail: WalkthroughDetail) => void } = {}) {
+export function useUpdateWalkthrough({
+  onSuccess,
+}: { onSuccess?: (detail: WalkthroughDetail) => void } = {}) {
   const queryClient = useQueryClient();
   return useInvalidatingMutation({
     mutationFn: updateWalkthrough,

@@ -3,7 +3,11 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import type { PlanStatus } from '@shared/schemas/plan';
 import { ROUTE_MODES } from '@shared/schemas/route';
-import { CreateWalkthroughInputSchema, WalkthroughRouteSpecSchema, type WalkthroughDetail } from '@shared/schemas/walkthrough';
+import {
+  CreateWalkthroughInputSchema,
+  WalkthroughRouteSpecSchema,
+  type WalkthroughDetail,
+} from '@shared/schemas/walkthrough';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
 import { FormError } from '@/components/ui/form-error';
@@ -98,16 +102,24 @@ export function NewWalkthroughForm({
       <fieldset className="space-y-2">
         <legend className="text-sm font-medium text-text-strong">Rehearse</legend>
         <label className="flex items-center gap-2 text-sm">
-          <input type="radio" value="plan" {...register('source')} className="accent-accent" /> A whole plan (both crew members, EVA clock)
+          <input type="radio" value="plan" {...register('source')} className="accent-accent" /> A whole plan
+          (both crew members, EVA clock)
         </label>
         <label className="flex items-center gap-2 text-sm">
-          <input type="radio" value="route" {...register('source')} className="accent-accent" /> A single route between two nodes
+          <input type="radio" value="route" {...register('source')} className="accent-accent" /> A single
+          route between two nodes
         </label>
       </fieldset>
       {source === 'plan' ? (
         <Field label="Plan" error={e.planId?.message}>
           <Select
-            options={[{ value: '', label: 'Pick a plan…' }, ...plans.map((p) => ({ value: String(p.id), label: `${p.title} (${p.status}, ${p.stationName})` }))]}
+            options={[
+              { value: '', label: 'Pick a plan…' },
+              ...plans.map((p) => ({
+                value: String(p.id),
+                label: `${p.title} (${p.status}, ${p.stationName})`,
+              })),
+            ]}
             {...register('planId', {
               valueAsNumber: true,
               onChange: (ev) => {
@@ -121,7 +133,10 @@ export function NewWalkthroughForm({
         <>
           <Field label="Station" error={e.stationId?.message}>
             <Select
-              options={[{ value: '', label: 'Pick a station…' }, ...stations.map((s) => ({ value: String(s.id), label: s.name }))]}
+              options={[
+                { value: '', label: 'Pick a station…' },
+                ...stations.map((s) => ({ value: String(s.id), label: s.name })),
+              ]}
               {...register('stationId', { valueAsNumber: true })}
             />
           </Field>
@@ -133,14 +148,27 @@ export function NewWalkthroughForm({
               <Input autoComplete="off" placeholder="e.g. PB3-W1" {...register('route.to')} />
             </Field>
             <Field label="Route mode" error={e.route?.mode?.message}>
-              <Select options={ROUTE_MODES.map((m) => ({ value: m, label: MODE_LABELS[m] }))} {...register('route.mode')} />
+              <Select
+                options={ROUTE_MODES.map((m) => ({ value: m, label: MODE_LABELS[m] }))}
+                {...register('route.mode')}
+              />
             </Field>
-            <Field label="Tether length (m)" hint="Empty: the station's default" error={e.route?.tetherLengthM?.message}>
-              <Input type="number" step="0.1" min="0" {...register('route.tetherLengthM', { valueAsNumber: true })} />
+            <Field
+              label="Tether length (m)"
+              hint="Empty: the station's default"
+              error={e.route?.tetherLengthM?.message}
+            >
+              <Input
+                type="number"
+                step="0.1"
+                min="0"
+                {...register('route.tetherLengthM', { valueAsNumber: true })}
+              />
             </Field>
           </div>
           <label className="flex items-center gap-2 text-sm">
-            <input type="checkbox" {...register('route.carrying')} className="accent-accent" /> Carrying a large item
+            <input type="checkbox" {...register('route.carrying')} className="accent-accent" /> Carrying a
+            large item
           </label>
         </>
       )}

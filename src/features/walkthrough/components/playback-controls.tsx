@@ -57,20 +57,36 @@ export function PlaybackControls({
   };
 
   return (
-    <div className="space-y-3 rounded-lg border border-surface-line bg-surface-panel p-3" role="group" aria-label="Playback">
+    <div
+      className="space-y-3 rounded-lg border border-surface-line bg-surface-panel p-3"
+      role="group"
+      aria-label="Playback"
+    >
       <div className="flex flex-wrap items-center gap-2">
-        <Button size="sm" variant="secondary" onClick={() => jump(previousEventTime(eventTimes, clock.t))} aria-label="Previous step">
-          ⏮ Previous
+        <Button
+          size="sm"
+          variant="secondary"
+          onClick={() => jump(previousEventTime(eventTimes, clock.t))}
+          aria-label="Previous step"
+        >
+          ‹ Previous
         </Button>
         <Button size="sm" onClick={clock.toggle} className="min-w-20">
           {playing ? '❚❚ Pause' : '▶ Play'}
         </Button>
-        <Button size="sm" variant="secondary" onClick={() => jump(nextEventTime(eventTimes, clock.t))} aria-label="Next step">
-          Next ⏭
+        <Button
+          size="sm"
+          variant="secondary"
+          onClick={() => jump(nextEventTime(eventTimes, clock.t))}
+          aria-label="Next step"
+        >
+          Next ›
         </Button>
         <p className="ml-2 font-mono text-sm text-text-strong tabular-nums">
           <span className="sr-only">Elapsed </span>
-          <span ref={elapsed} data-testid="elapsed">0:00:00</span>
+          <span ref={elapsed} data-testid="elapsed">
+            0:00:00
+          </span>
           <span className="text-text-muted"> / {formatElapsed(end, { withSeconds: true })}</span>
         </p>
         {hasClock && (
@@ -88,12 +104,18 @@ export function PlaybackControls({
       </div>
       <div className="relative">
         {hasClock && (
-          <div aria-hidden="true" className="pointer-events-none absolute inset-x-0 top-1/2 h-2 -translate-y-1/2 overflow-hidden rounded bg-caution-soft">
+          <div
+            aria-hidden="true"
+            className="pointer-events-none absolute inset-x-0 top-1/2 h-2 -translate-y-1/2 overflow-hidden rounded bg-caution-soft"
+          >
             {nightWindows.map((w) => (
               <div
                 key={w.start}
                 className="absolute inset-y-0 bg-ink-700"
-                style={{ left: `${(w.start / end) * 100}%`, width: `${((Math.min(w.end, end) - w.start) / end) * 100}%` }}
+                style={{
+                  left: `${(w.start / end) * 100}%`,
+                  width: `${((Math.min(w.end, end) - w.start) / end) * 100}%`,
+                }}
               />
             ))}
           </div>
@@ -173,7 +195,8 @@ export function TetherGauges({ clock, lanes }: { clock: PlaybackClock; lanes: re
               {lane.label} tether
             </span>
             <span className="tabular-nums">
-              <span ref={(el) => void (texts.current[i] = el)} data-testid={`paid-out-${lane.id}`} /> · of {fmt(lane.tetherLengthM)} ({fmtFt(lane.tetherLengthM)})
+              <span ref={(el) => void (texts.current[i] = el)} data-testid={`paid-out-${lane.id}`} /> · of{' '}
+              {fmt(lane.tetherLengthM)} ({fmtFt(lane.tetherLengthM)})
             </span>
           </div>
           <div className="mt-1 h-2.5 overflow-hidden rounded bg-surface-sunken" aria-hidden="true">

@@ -21,9 +21,22 @@ function projector(points: readonly Vec3[]) {
   return (p: Vec3): [number, number] => [ox + (p[0] - x0) * scale, H - (oy + (p[1] - y0) * scale)];
 }
 
-const polyline = (pts: readonly [number, number][]) => pts.map(([x, y]) => `${x.toFixed(1)},${y.toFixed(1)}`).join(' ');
+/** A label beside a point, turned to the left of it near the right edge so it stays inside the card. */
+const labelAt = ([x, y]: [number, number], dy: number) =>
+  x > W * 0.6 ? { x: x - 7, y: y + dy, textAnchor: 'end' as const } : { x: x + 7, y: y + dy };
 
-export function StepDiagram({ lane, step, positions }: { lane: Lane; step: WalkStep; positions: Record<string, Vec3> }) {
+const polyline = (pts: readonly [number, number][]) =>
+  pts.map(([x, y]) => `${x.toFixed(1)},${y.toFixed(1)}`).join(' ');
+
+export function StepDiagram({
+  lane,
+  step,
+  positions,
+}: {
+  lane: Lane;
+  step: WalkStep;
+  positions: Record<string, Vec3>;
+}) {
   const whole = useMemo(() => trackPath(lane.track), [lane.track]);
   const anchor = positions[step.anchorKey];
   const here = positions[step.nodeKey];
@@ -41,12 +54,28 @@ export function StepDiagram({ lane, step, positions }: { lane: Lane; step: WalkS
       aria-label={`Top view: the path so far, the anchor ${step.anchorKey} and ${step.nodeKey}`}
       className="shrink-0 rounded border border-surface-line bg-surface-page"
     >
-      <polyline points={polyline(whole.map(project))} fill="none" stroke="#cfd6df" strokeWidth={2} strokeDasharray="4 3" />
-      {soFar.length > 1 && <polyline points={polyline(soFar)} fill="none" stroke="#0b6b66" strokeWidth={2.5} />}
+      <polyline
+        points={polyline(whole.map(project))}
+        fill="none"
+        stroke="#cfd6df"
+        strokeWidth={2}
+        strokeDasharray="4 3"
+      />
+      {soFar.length > 1 && (
+        <polyline points={polyline(soFar)} fill="none" stroke="#0b6b66" strokeWidth={2.5} />
+      )}
       {anchor && (
         <g>
-          <rect x={project(anchor)[0] - 4.5} y={project(anchor)[1] - 4.5} width={9} height={9} fill="none" stroke="#111826" strokeWidth={2} />
-          <text x={project(anchor)[0] + 7} y={project(anchor)[1] - 6} fontSize={9} fill="#111826">
+          <rect
+            x={project(anchor)[0] - 4.5}
+            y={project(anchor)[1] - 4.5}
+            width={9}
+            height={9}
+            fill="none"
+            stroke="#111826"
+            strokeWidth={2}
+          />
+          <text {...labelAt(project(anchor), -6)} fontSize={9} fill="#111826">
             ⚓ {step.anchorKey}
           </text>
         </g>
@@ -57,7 +86,7 @@ export function StepDiagram({ lane, step, positions }: { lane: Lane; step: WalkS
       {here && (
         <g>
           <circle cx={project(here)[0]} cy={project(here)[1]} r={5} fill="#a3161c" />
-          <text x={project(here)[0] + 7} y={project(here)[1] + 12} fontSize={9} fontWeight={600} fill="#a3161c">
+          <text {...labelAt(project(here), 12)} fontSize={9} fontWeight={600} fill="#a3161c">
             {step.nodeKey}
           </text>
         </g>
@@ -102,7 +131,9 @@ export function StepCards({
             </header>
             <div className="flex gap-3">
               <div className="min-w-0 flex-1">
-                <p className="text-xs font-semibold tracking-wide text-text-muted uppercase">{STEP_TYPE_LABELS[s.step.type]}</p>
+                <p className="text-xs font-semibold tracking-wide text-text-muted uppercase">
+                  {STEP_TYPE_LABELS[s.step.type]}
+                </p>
                 <h3 className="text-sm font-semibold">{stepCallout(s.step)}</h3>
                 <p className="mt-1 text-xs text-text">{s.step.detail}</p>
                 {note && (

@@ -31,7 +31,11 @@ export function StepCallout({ current }: { current: CurrentSteps }) {
         if (!step) return null;
         const style = LANE_STYLES[lane.id];
         return (
-          <div key={lane.id} className="rounded-md border-l-4 bg-ink-900 px-4 py-3 text-ink-100" style={{ borderColor: style.color }}>
+          <div
+            key={lane.id}
+            className="rounded-md border-l-4 bg-ink-900 px-4 py-3 text-ink-100"
+            style={{ borderColor: style.color }}
+          >
             <p className="text-xs font-semibold tracking-wide text-ink-300 uppercase">
               <span aria-hidden="true" style={{ color: style.color }}>
                 {style.glyph}
@@ -100,7 +104,11 @@ function NoteEditor({
           </div>
         </Alert>
       ) : (
-        save.error && <Alert tone="danger">{isApiError(save.error) ? save.error.message : 'The note could not be saved.'}</Alert>
+        save.error && (
+          <Alert tone="danger">
+            {isApiError(save.error) ? save.error.message : 'The note could not be saved.'}
+          </Alert>
+        )
       )}
       <div className="flex gap-2">
         <Button size="sm" type="submit" isLoading={save.isPending}>
@@ -142,7 +150,11 @@ export function StepList({
   }, [firstCurrent]);
 
   return (
-    <ol ref={list} aria-label="Steps" className="max-h-[70vh] divide-y divide-surface-line overflow-y-auto">
+    <ol
+      ref={list}
+      aria-label="Steps"
+      className="relative max-h-[70vh] divide-y divide-surface-line overflow-y-auto"
+    >
       {steps.map((s) => {
         const isCurrent = currentIds.has(s.step.id);
         const note = notes[s.step.id];
@@ -192,7 +204,12 @@ export function StepList({
                   onDone={() => setEditing(null)}
                 />
               ) : (
-                <Button size="sm" variant="ghost" className="mt-1 h-7 px-2 text-xs" onClick={() => setEditing(s.step.id)}>
+                <Button
+                  size="sm"
+                  variant="ghost"
+                  className="mt-1 h-7 px-2 text-xs"
+                  onClick={() => setEditing(s.step.id)}
+                >
                   {note ? 'Edit note' : 'Add note'}
                   <span className="sr-only"> for step {s.number}</span>
                 </Button>

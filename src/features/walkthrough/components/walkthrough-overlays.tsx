@@ -1,5 +1,5 @@
 import { useEffect, useMemo, useRef } from 'react';
-import { Html, Line } from '@react-three/drei';
+import { Line } from '@react-three/drei';
 import { useFrame, useThree } from '@react-three/fiber';
 import * as THREE from 'three';
 import type { Line2, OrbitControls as OrbitControlsImpl } from 'three-stdlib';
@@ -8,8 +8,10 @@ import type { Vec3 } from '@shared/schemas/station';
 import type { PlaybackClock } from '../lib/playback-clock';
 import { trackPath, type Lane, type LaneId } from '../lib/playback-model';
 import { LANE_STYLES } from './lane-styles';
+import { TextSprite } from './text-sprite';
 
 const noRaycast = () => null;
+const FOLLOW_RADIUS_M = 3;
 
 function extentOf(points: readonly Vec3[]): number {
   if (!points.length) return 10;
@@ -21,14 +23,28 @@ function MarkerShape({ lane, size }: { lane: LaneId; size: number }) {
   const style = LANE_STYLES[lane];
   return (
     <mesh renderOrder={14} raycast={noRaycast}>
-      {style.shape === 'octahedron' ? <octahedronGeometry args={[size, 0]} /> : <boxGeometry args={[size * 1.4, size * 1.4, size * 1.4]} />}
+      {style.shape === 'octahedron' ? (
+        <octahedronGeometry args={[size, 0]} />
+      ) : (
+        <boxGeometry args={[size * 1.4, size * 1.4, size * 1.4]} />
+      )}
       <meshBasicMaterial color={style.color} depthTest={false} transparent />
     </mesh>
   );
 }
 
 /** One crew member: the marker moving along the track, the live tether to the current anchor, the anchor ring. */
-function CrewMarker({ lane, clock, positions, size }: { lane: Lane; clock: PlaybackClock; positions: Record<string, Vec3>; size: number }) {
+function CrewMarker({
+  lane,
+  clock,
+  positions,
+  size,
+}: {
+  lane: Lane;
+  clock: PlaybackClock;
+  positions: Record<string, Vec3>;
+  size: number;
+}) {
   const group = useRef<THREE.Group>(null);
   const anchor = useRef<THREE.Mesh>(null);
   const tether = useRef<Line2>(null);
@@ -50,21 +66,27 @@ function CrewMarker({ lane, clock, positions, size }: { lane: Lane; clock: Playb
 
   return (
     <>
-      <Line ref={tether} points={initial} color={style.tether} lineWidth={3} depthTest={false} renderOrder={13} raycast={noRaycast} />
+      <Line
+        ref={tether}
+        points={initial}
+        color={style.tether}
+        lineWidth={3}
+        depthTest={false}
+        renderOrder={13}
+        raycast={noRaycast}
+      />
       <mesh ref={anchor} renderOrder={13} raycast={noRaycast}>
         <torusGeometry args={[size * 0.9, size * 0.22, 8, 24]} />
         <meshBasicMaterial color={style.tether} depthTest={false} transparent />
       </mesh>
       <group ref={group}>
         <MarkerShape lane={lane.id} size={size} />
-        <Html zIndexRange={[30, 0]} style={{ pointerEvents: 'none' }}>
-          <div
-            className="ml-3 -translate-y-1/2 rounded px-1.5 py-0.5 text-xs font-bold whitespace-nowrap shadow"
-            style={{ background: style.color, color: '#0a1220' }}
-          >
-            {style.glyph} {lane.short}
-          </div>
-        </Html>
+        <TextSprite
+          text={`${style.glyph} ${lane.short}`}
+          background={style.color}
+          color="#0a1220"
+          heightPx={20}
+        />
       </group>
     </>
   );
@@ -74,17 +96,35 @@ function LanePath({ lane, size, positions }: { lane: Lane; size: number; positio
   const style = LANE_STYLES[lane.id];
   const path = useMemo(() => trackPath(lane.track), [lane.track]);
   const swaps = useMemo(
-    () => lane.track.steps.filter((s) => s.type === 'swap' && s.clipKey).map((s, i) => ({ id: s.id, key: s.clipKey!, n: i + 1 })),
+    () =>
+      lane.track.steps
+        .filter((s) => s.type === 'swap' && s.clipKey)
+        .map((s, i) => ({ id: s.id, key: s.clipKey!, n: i + 1 })),
     [lane.track],
   );
   return (
     <>
       {path.length >= 2 && (
-        <Line points={path} color={style.color} lineWidth={2} dashed dashSize={size * 1.5} gapSize={size} transparent opacity={0.75} depthTest={false} renderOrder={10} raycast={noRaycast} />
+        <Line
+          points={path}
+          color={style.color}
+          lineWidth={2}
+          dashed
+          dashSize={size * 1.5}
+          gapSize={size}
+          transparent
+          opacity={0.75}
+          depthTest={false}
+          renderOrder={10}
+          raycast={noRaycast}
+        />
       )}
-      {swaps.map((s) => (
-        positions[s.key] && <SwapPoint key={s.id} lane={lane} n={s.n} position={positions[s.key]} size={size} />
-      ))}
+      {swaps.map(
+        (s) =>
+          positions[s.key] && (
+            <SwapPoint key={s.id} lane={lane} n={s.n} position={positions[s.key]} size={size} />
+          ),
+      )}
     </>
   );
 }
@@ -97,26 +137,50 @@ function SwapPoint({ lane, n, position, size }: { lane: Lane; n: number; positio
         <sphereGeometry args={[size * 0.45, 12, 8]} />
         <meshBasicMaterial color={style.color} depthTest={false} transparent />
       </mesh>
-      <Html zIndexRange={[20, 0]} style={{ pointerEvents: 'none' }}>
-        <div className="-translate-x-1/2 -translate-y-[140%] rounded border border-ink-700 bg-white px-1 text-[11px] leading-4 font-semibold whitespace-nowrap text-text-strong">
-          {lane.short} swap {n}
-        </div>
-      </Html>
+      <TextSprite
+        text={`${lane.short} swap ${n}`}
+        background="#ffffff"
+        color="#111826"
+        heightPx={15}
+        shiftX={0.5}
+        shiftY={-0.6}
+      />
     </group>
   );
 }
 
 /** Re-renders the on-demand canvas when the clock moves, and keeps a followed crew member in view. */
-function ClockDriver({ clock, lanes }: { clock: PlaybackClock; lanes: readonly Lane[] }) {
+function ClockDriver({
+  clock,
+  lanes,
+  onFrame,
+}: {
+  clock: PlaybackClock;
+  lanes: readonly Lane[];
+  onFrame?: (points: Vec3[]) => void;
+}) {
   const invalidate = useThree((s) => s.invalidate);
   const camera = useThree((s) => s.camera);
   const controls = useThree((s) => s.controls) as OrbitControlsImpl | null;
   const delta = useMemo(() => new THREE.Vector3(), []);
+  const followed = useRef<string>('free');
   useEffect(() => clock.subscribe(() => invalidate()), [clock, invalidate]);
   useFrame(() => {
-    if (clock.follow === 'free' || !controls) return;
     const lane = lanes.find((l) => l.id === clock.follow);
-    if (!lane) return;
+    if (followed.current !== clock.follow) {
+      followed.current = clock.follow;
+      // starting to follow: come in close enough to see the hooks and the tether
+      if (lane) {
+        const [x, y, z] = sampleTrack(lane.track, clock.t).position;
+        const r = FOLLOW_RADIUS_M;
+        onFrame?.([
+          [x - r, y - r, z - r],
+          [x + r, y + r, z + r],
+        ]);
+      }
+      return;
+    }
+    if (!lane || !controls) return;
     const p = sampleTrack(lane.track, clock.t).position;
     delta.set(p[0], p[1], p[2]).sub(controls.target);
     if (delta.lengthSq() < 1e-10) return;
@@ -132,24 +196,24 @@ export function WalkthroughOverlays({
   clock,
   lanes,
   positions,
-  onReady,
+  onFrame,
 }: {
   clock: PlaybackClock;
   lanes: readonly Lane[];
   positions: Record<string, Vec3>;
-  /** called once with the points of every path, e.g. to frame them */
-  onReady?: (points: Vec3[]) => void;
+  /** asks the scene to frame these points: every path at first, the followed crew member later */
+  onFrame?: (points: Vec3[]) => void;
 }) {
   const points = useMemo(() => lanes.flatMap((l) => trackPath(l.track)), [lanes]);
   const size = Math.min(1.2, Math.max(0.25, extentOf(points) / 90));
   useEffect(() => {
     // after the camera rig's own first framing
-    const id = setTimeout(() => onReady?.(points), 50);
+    const id = setTimeout(() => onFrame?.(points), 50);
     return () => clearTimeout(id);
-  }, [onReady, points]);
+  }, [onFrame, points]);
   return (
     <>
-      <ClockDriver clock={clock} lanes={lanes} />
+      <ClockDriver clock={clock} lanes={lanes} onFrame={onFrame} />
       {lanes.map((lane) => (
         <LanePath key={`path-${lane.id}`} lane={lane} size={size} positions={positions} />
       ))}

@@ -38,7 +38,12 @@ export function createPlaybackClock(endSeconds: number, options: ClockOptions = 
   const cancelFrame = options.cancelFrame ?? ((id) => cancelAnimationFrame(id));
   const listeners = new Set<() => void>();
   const clamp = (t: number) => Math.min(endSeconds, Math.max(0, t));
-  const state = { t: clamp(options.startAt ?? 0), playing: false, speed: options.speed ?? 60, follow: 'free' as FollowTarget };
+  const state = {
+    t: clamp(options.startAt ?? 0),
+    playing: false,
+    speed: options.speed ?? 60,
+    follow: 'free' as FollowTarget,
+  };
   let frame: number | null = null;
   let last = 0;
 
@@ -116,7 +121,10 @@ export function createPlaybackClock(endSeconds: number, options: ClockOptions = 
 }
 
 /** A coarse value derived from the clock; the component re-renders only when it changes. */
-export function useClock<T extends string | number | boolean>(clock: PlaybackClock, select: (c: PlaybackClock) => T): T {
+export function useClock<T extends string | number | boolean>(
+  clock: PlaybackClock,
+  select: (c: PlaybackClock) => T,
+): T {
   return useSyncExternalStore(
     clock.subscribe,
     () => select(clock),

@@ -24,7 +24,15 @@ export interface ListedStep {
 
 export function lanesOf(playback: WalkthroughPlayback): Lane[] {
   if (playback.kind === 'route') {
-    return [{ id: 'crew', label: 'Crew member', short: 'Crew', track: playback.track, tetherLengthM: playback.tetherLengthM }];
+    return [
+      {
+        id: 'crew',
+        label: 'Crew member',
+        short: 'Crew',
+        track: playback.track,
+        tetherLengthM: playback.tetherLengthM,
+      },
+    ];
   }
   return (['EV1', 'EV2'] as const).map((id) => ({
     id,
@@ -75,7 +83,9 @@ export function stepCallout(step: WalkStep): string {
     case 'restraint-out':
       return `Foot restraint out: get out of the restraint on socket ${step.socketKey}`;
     case 'work':
-      return step.socketKey ? `${step.title} — working from the foot restraint on ${step.socketKey}` : step.title;
+      return step.socketKey
+        ? `${step.title} — working from the foot restraint on ${step.socketKey}`
+        : step.title;
     default:
       return step.title;
   }
