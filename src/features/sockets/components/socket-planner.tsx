@@ -83,11 +83,14 @@ export function useSocketPlanner(station: SocketPlannerStation, pieces: SocketSc
     [plan.data, run, nodesByKey, station.reach],
   );
 
+  /** null frames the whole plan; an index frames that socket's envelope and its targets */
+  const [framed, setFramed] = useState<number | null>(null);
   const focus = useMemo(() => {
     if (!run || views.length === 0) return null;
-    const box = views.flatMap((v) => [-1, 1].flatMap((d) => [0, 1, 2].map((axis) => v.workPoint.map((c, i) => (i === axis ? c + d * v.radiusM : c)) as Vec3)));
-    return [...box, ...run.targets.map((t) => t.position)];
-  }, [run, views]);
+    const shown = framed === null ? views : views.filter((v) => v.index === framed);
+    const box = shown.flatMap((v) => [-1, 1].flatMap((d) => [0, 1, 2].map((axis) => v.workPoint.map((c, i) => (i === axis ? c + d * v.radiusM * 2 : c)) as Vec3)));
+    return [...box, ...shown.flatMap((v) => v.targets.map((t) => run.targets[t].position))];
+  }, [run, views, framed]);
 
   const targets: PlanTarget[] = [
     ...worksites.filter((w) => chosenWorksites.has(w.key)).map((w) => ({ label: w.key, position: w.position, nodeKey: w.key })),
@@ -138,6 +141,7 @@ export function useSocketPlanner(station: SocketPlannerStation, pieces: SocketSc
     setProblems(found);
     if (found.length || !checked.success) return;
     setAccepted(null);
+    setFramed(null);
     accept.reset();
     setRun({ request: checked.data, version: station.version, targets, unit });
   };
@@ -315,11 +319,16 @@ export function useSocketPlanner(station: SocketPlannerStation, pieces: SocketSc
           )}
           <ul aria-label="Planned sockets" className="flex flex-wrap gap-2 text-sm">
             {views.map((v) => (
-              <li key={v.index} className="rounded-md border border-surface-line px-2 py-1">
-                <span className="font-mono font-semibold">{v.name}</span>{' '}
-                <span className="text-xs text-text-muted">
-                  {v.isNew ? 'new' : 'existing'} · serves {v.targets.map((t) => run.targets[t].label).join(', ') || 'none'}
+              <li key={v.index} className="flex items-center gap-2 rounded-md border border-surface-line py-1 pr-1 pl-2">
+                <span>
+                  <span className="font-mono font-semibold">{v.name}</span>{' '}
+                  <span className="text-xs text-text-muted">
+                    {v.isNew ? 'new' : 'existing'} · serves {v.targets.map((t) => run.targets[t].label).join(', ') || 'none'}
+                  </span>
                 </span>
+                <Button size="sm" variant="ghost" aria-pressed={framed === v.index} onClick={() => setFramed(framed === v.index ? null : v.index)}>
+                  {framed === v.index ? 'Show all' : `Show ${v.name}`}
+                </Button>
               </li>
             ))}
           </ul>
