@@ -1,8 +1,105 @@
+import { Link } from 'react-router-dom';
+import type { QueryClient } from '@tanstack/react-query';
 import { PERMISSIONS, ROLE_LABELS, ROLE_PERMISSIONS, ROLE_SUMMARIES } from '@shared/auth/permissions';
+import { PLAN_STATUSES, type PlanStatus } from '@shared/schemas/plan';
 import { PageHeader } from '@/components/layouts/app-layout';
 import { Badge } from '@/components/ui/badge';
 import { EmptyState, Panel } from '@/components/ui/card';
+import { Spinner } from '@/components/ui/spinner';
+import { paths } from '@/config/paths';
 import { useUser } from '@/lib/authorization';
+import { formatDateTime } from '@/lib/format';
+import { getActivityQueryOptions } from '@/features/activity/api/get-activity';
+import { ActivityList } from '@/features/activity/components/activity-list';
+import { getPlansQueryOptions, usePlans } from '@/features/plans/api/get-plans';
+import { PlanStatusBadge, STATUS_LABELS } from '@/features/plans/components/plan-status-badge';
+import { getStationsQueryOptions, useStations } from '@/features/stations/api/get-stations';
+
+export const clientLoader = (queryClient: QueryClient) => async () => {
+  // warm the caches in parallel; each panel still handles its own loading and errors
+  void Promise.allSettled([
+    queryClient.ensureQueryData(getStationsQueryOptions()),
+    queryClient.ensureQueryData(getPlansQueryOptions()),
+    queryClient.ensureQueryData(getActivityQueryOptions()),
+  ]);
+  return null;
+};
+
+const linkClass =
+  'rounded-sm font-medium text-accent-strong hover:underline focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-accent';
+
+function StationsPanel() {
+  const { data, isPending, isError } = useStations();
+  return (
+    <Panel title="Stations" actions={<Link to={paths.stations.getHref()} className={linkClass}>All stations</Link>}>
+      {isPending ? (
+        <Spinner />
+      ) : isError ? (
+        <EmptyState>The stations could not be loaded.</EmptyState>
+      ) : data.length === 0 ? (
+        <EmptyState>No stations yet. An engineer can import one from the Stations page.</EmptyState>
+      ) : (
+        <ul className="divide-y divide-surface-line text-sm">
+          {data.map((s) => (
+            <li key={s.id} className="flex flex-wrap items-baseline justify-between gap-x-4 gap-y-1 py-2">
+              <Link to={paths.station.getHref(s.id)} className={linkClass}>
+                {s.name}
+              </Link>
+              <span className="text-text-muted">
+                {s.counts.nodes} nodes · {s.counts.edges} edges · {s.counts.hazards} hazards · version {s.version}
+              </span>
+            </li>
+          ))}
+        </ul>
+      )}
+    </Panel>
+  );
+}
+
+function PlansPanel() {
+  const { data, isPending, isError } = usePlans();
+  return (
+    <Panel title="Plans by status" actions={<Link to={paths.plans.getHref()} className={linkClass}>All plans</Link>}>
+      {isPending ? (
+        <Spinner />
+      ) : isError ? (
+        <EmptyState>The plans could not be loaded.</EmptyState>
+      ) : data.length === 0 ? (
+        <EmptyState>No plans yet. A planner can start one from the Plans page.</EmptyState>
+      ) : (
+        <div className="grid gap-4 sm:grid-cols-3">
+          {PLAN_STATUSES.map((status: PlanStatus) => {
+            const plans = data.filter((p) => p.status === status);
+            return (
+              <section key={status} aria-label={`${STATUS_LABELS[status]} plans`}>
+                <h3 className="mb-2 flex items-center gap-2 text-sm font-semibold text-text-strong">
+                  <PlanStatusBadge status={status} />
+                  <span className="text-text-muted">{plans.length}</span>
+                </h3>
+                {plans.length === 0 ? (
+                  <EmptyState>None.</EmptyState>
+                ) : (
+                  <ul className="space-y-2 text-sm">
+                    {plans.map((p) => (
+                      <li key={p.id}>
+                        <Link to={paths.plan.getHref(p.id)} className={linkClass}>
+                          {p.title}
+                        </Link>
+                        <div className="text-xs text-text-muted">
+                          {p.stationName} · {p.date} · updated {formatDateTime(p.updatedAt)}
+                        </div>
+                      </li>
+                    ))}
+                  </ul>
+                )}
+              </section>
+            );
+          })}
+        </div>
+      )}
+    </Panel>
+  );
+}
 
 export default function HomeRoute() {
   const { data: user } = useUser();
@@ -27,14 +124,10 @@ export default function HomeRoute() {
           </ul>
         </Panel>
         <div className="grid gap-5 lg:col-span-2">
-          <Panel title="Stations">
-            <EmptyState>No stations yet.</EmptyState>
-          </Panel>
-          <Panel title="Plans by status">
-            <EmptyState>No plans yet.</EmptyState>
-          </Panel>
+          <StationsPanel />
+          <PlansPanel />
           <Panel title="Recent activity">
-            <EmptyState>Nothing has happened yet.</EmptyState>
+            <ActivityList />
           </Panel>
         </div>
       </div>
