@@ -147,7 +147,7 @@ describe('socket planner', () => {
     for (const key of keys) await page.getByText(key, { exact: true }).first().waitFor();
     await session.screenshot('socket-planner-station');
     await api.dispose();
-  });
+  }, 240_000);
 
   it('shows a viewer the plan but no Accept', async () => {
     const { page } = session;
