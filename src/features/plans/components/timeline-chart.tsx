@@ -333,8 +333,8 @@ export function TimelineChart({ timeline, tasks }: TimelineChartProps) {
             strokeDasharray="5 3"
           />
           <text
-            x={limitX - 4}
-            y={BAND_TOP - 6}
+            x={limitX + 4}
+            y={AXIS_Y + 34}
             fontSize="11"
             fontWeight="600"
             textAnchor="end"
