@@ -26,7 +26,7 @@ import * as edits from './station-edits.service';
 import {
   exportStationDocument,
   getStation,
-  getStationGraph,
+  getStationGraphJson,
   importStation,
   listStationAudit,
   listStations,
@@ -147,7 +147,15 @@ export function stationsRouter(ctx: AppContext) {
         return importStationCsv(ctx, { stationId: params.id, expectedVersion: body.version ?? query.version, editor: editor(req) }, files);
       },
     }),
-    defineRoute({ method: 'get', path: '/:id/graph', access: 'read', input: idParams, handler: (_req, _res, { params }) => getStationGraph(ctx.db, params.id) }),
+    defineRoute({
+      method: 'get',
+      path: '/:id/graph',
+      access: 'read',
+      input: idParams,
+      handler: (_req, res, { params }) => {
+        res.type('application/json').send(getStationGraphJson(ctx.db, params.id).json);
+      },
+    }),
     defineRoute({
       method: 'get',
       path: '/:id/export',

@@ -237,6 +237,24 @@ export function getStationSnapshot(db: Db, id: number): { stationId: number; ver
   });
 }
 
+/**
+ * The graph endpoint's JSON, serialised once per station version: every write bumps the version,
+ * so a cached body is never stale, and the 3D view's many readers cost one query each.
+ */
+const graphJsonCache = new WeakMap<Db, Map<number, { version: number; json: string }>>();
+
+export function getStationGraphJson(db: Db, id: number): { version: number; json: string } {
+  const version = getStationVersion(db, id);
+  let byStation = graphJsonCache.get(db);
+  if (!byStation) graphJsonCache.set(db, (byStation = new Map()));
+  const hit = byStation.get(id);
+  if (hit && hit.version === version) return hit;
+  const graph = getStationGraph(db, id);
+  const entry = { version: graph.station.version, json: JSON.stringify(graph) };
+  byStation.set(id, entry);
+  return entry;
+}
+
 export function getStationGraph(db: Db, id: number): StationGraph {
   return db.transaction((tx) => {
     const row = findStationRow(tx, id);
