@@ -7,15 +7,17 @@ import type { Vec3 } from '@shared/schemas/station';
 import { PRESET_DIRECTIONS, STATION_UP, type PresetView } from '../builders/frame';
 import type { SceneApi } from './scene-api';
 
+/** Framing a few points keeps a few metres of structure round them, so the view stays readable. */
+const FOCUS_RADIUS_M = 4;
 const HOME_DIRECTION = new THREE.Vector3(0.55, 0.75, 0.45).normalize();
 
 /**
  * Where the camera must stand to see a box whole along `direction`. Zenith and nadir views lean a
  * hair towards fore, so the camera's up (+z) is never parallel to the view.
  */
-export function framing(box: THREE.Box3, direction: THREE.Vector3, fovDeg: number, aspect: number) {
+export function framing(box: THREE.Box3, direction: THREE.Vector3, fovDeg: number, aspect: number, minRadiusM = 0.5) {
   const sphere = box.getBoundingSphere(new THREE.Sphere());
-  const radius = Math.max(sphere.radius, 0.5);
+  const radius = Math.max(sphere.radius, minRadiusM);
   const vertical = (fovDeg * Math.PI) / 180;
   const horizontal = 2 * Math.atan(Math.tan(vertical / 2) * aspect);
   const distance = (radius / Math.sin(Math.min(vertical, horizontal) / 2)) * 1.05;
@@ -30,9 +32,9 @@ export function CameraRig({ bounds, apiRef }: { bounds: THREE.Box3; apiRef: Ref<
   const controls = useRef<OrbitControlsImpl>(null);
 
   const api = useMemo<SceneApi>(() => {
-    const frame = (box: THREE.Box3, direction: THREE.Vector3) => {
+    const frame = (box: THREE.Box3, direction: THREE.Vector3, minRadiusM?: number) => {
       const camera = get().camera as THREE.PerspectiveCamera;
-      const f = framing(box, direction, camera.fov, camera.aspect || 1);
+      const f = framing(box, direction, camera.fov, camera.aspect || 1, minRadiusM);
       camera.position.copy(f.position);
       camera.near = Math.max(0.01, f.distance / 1000);
       camera.far = f.distance + f.radius * 20;
@@ -55,7 +57,7 @@ export function CameraRig({ bounds, apiRef }: { bounds: THREE.Box3; apiRef: Ref<
         const box = points?.length
           ? new THREE.Box3().setFromPoints(points.map((p) => new THREE.Vector3(...p)))
           : bounds;
-        frame(box, currentDirection());
+        frame(box, currentDirection(), points?.length ? FOCUS_RADIUS_M : undefined);
       },
       setPresetView(name: PresetView | 'home') {
         frame(bounds, name === 'home' ? HOME_DIRECTION.clone() : new THREE.Vector3(...PRESET_DIRECTIONS[name]));

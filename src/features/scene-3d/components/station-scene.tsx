@@ -11,7 +11,6 @@ import { DrawCallProbe } from './draw-call-probe';
 import { HoverLabel, NodeLabels, SelectionHighlight, type SceneSelection } from './highlights';
 import { StationModel } from './station-model';
 import { SceneContext, type SceneApi } from './scene-api';
-import { countDrawCalls } from '../builders/draw-calls';
 
 export interface StationSceneProps {
   graph: SceneStation;
@@ -58,12 +57,6 @@ export function StationScene({
   const objects = useMemo(() => buildStationObjects(graph), [graph]);
   useEffect(() => () => objects.dispose(), [objects]);
 
-  // the model's own count, without overlays and gizmo, to set against the renderer's live count
-  const modelCalls = useMemo(() => {
-    void layers;
-    return countDrawCalls(objects.root).drawCalls;
-  }, [objects, layers]);
-
   const api = useMemo<SceneApi>(
     () => ({
       fitToView: (points) => innerApi.current?.fitToView(points),
@@ -78,7 +71,6 @@ export function StationScene({
     <div
       ref={wrapper}
       data-testid="station-scene"
-      data-model-draw-calls={modelCalls}
       data-hovered={hovered ?? ''}
       role="region"
       aria-label={label}
@@ -97,6 +89,7 @@ export function StationScene({
           <StationModel
             objects={objects}
             layers={layers}
+            statsTarget={wrapper}
             onHover={(key) => {
               setHovered(key);
               onHoverNode?.(key);

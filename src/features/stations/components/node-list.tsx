@@ -110,9 +110,9 @@ export function NodeList({
             >
               <span className="truncate">
                 <span className="font-mono">{node.key}</span>
-                {node.label && <span className="ml-1.5 text-text-muted">{node.label}</span>}
+                {node.label && <span className="text-text-muted"> {node.label}</span>}
               </span>
-              <span className="shrink-0 text-xs text-text-muted">{node.kind}</span>
+              <span className="shrink-0 text-xs text-text-muted"> {node.kind}</span>
             </li>
           );
         })}

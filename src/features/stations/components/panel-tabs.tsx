@@ -63,6 +63,7 @@ export function PanelTabs({
       </div>
       {current && (
         <div
+          key={current.id}
           role="tabpanel"
           id={`${base}-panel-${current.id}`}
           aria-labelledby={`${base}-tab-${current.id}`}

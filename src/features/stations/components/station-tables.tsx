@@ -11,7 +11,7 @@ import {
 } from '@tanstack/react-table';
 import { formatLength } from '@shared/compute/units';
 import { EDGE_KINDS, HAZARD_KINDS, NODE_KINDS, type Hazard, type StationNode, type Vec3 } from '@shared/schemas/station';
-import type { GraphEdge, StationGraph } from '@shared/schemas/station-edits';
+import type { GraphEdge } from '@shared/schemas/station-edits';
 import { Button, focusRing } from '@/components/ui/button';
 import { Input } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';

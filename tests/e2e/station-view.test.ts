@@ -1,0 +1,221 @@
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import type { StationGraph, StationSummary } from '@shared/schemas/station-edits';
+import { countDrawCalls } from '@/features/scene-3d/builders/draw-calls';
+import { buildStationObjects } from '@/features/scene-3d/builders/station-objects';
+import { buildStationDocument } from '../factories/station-document';
+import { openBrowser, type BrowserSession } from './browser';
+
+const DEMO_PASSWORD = 'tetherwise-demo';
+const DRAW_CALL_TARGET = 40;
+
+let session: BrowserSession;
+
+beforeEach(async () => {
+  session = await openBrowser();
+});
+
+afterEach(async () => {
+  const errors = [...session.errors];
+  await session.close();
+  expect(errors, 'console errors or page errors during the test').toEqual([]);
+});
+
+async function signIn(role: string) {
+  const { page } = session;
+  await session.goto('/sign-in');
+  await page.getByLabel('E-mail').fill(`${role}@example.org`);
+  await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.getByRole('heading', { level: 1, name: /^Welcome, / }).waitFor();
+}
+
+/** The signed-in page's own fetch, so the test compares with what the server holds right now. */
+async function apiGet<T>(pathname: string): Promise<T> {
+  return session.page.evaluate(async (p) => (await fetch(p)).json(), pathname) as Promise<T>;
+}
+
+const scene = () => session.page.getByTestId('station-scene');
+
+/** Waits until the canvas has drawn a frame since `after` frames. */
+async function frameAfter(after: number) {
+  await session.page.waitForFunction(
+    (n) => Number(document.querySelector<HTMLElement>('[data-testid="station-scene"]')?.dataset.frames ?? 0) > n,
+    after,
+    { timeout: 30_000 },
+  );
+}
+
+const frames = async () => Number((await scene().getAttribute('data-frames')) ?? 0);
+const liveCalls = async () => Number(await scene().getAttribute('data-draw-calls'));
+const modelCalls = async () => Number(await scene().getAttribute('data-model-draw-calls'));
+
+/**
+ * Pixels of the WebGL canvas that differ from the scene background, read back in the page (the
+ * canvas keeps its drawing buffer) and counted on a 2D canvas.
+ */
+async function litPixels(): Promise<{ lit: number; total: number }> {
+  return session.page.evaluate(async () => {
+    const gl = document.querySelector<HTMLCanvasElement>('[data-testid="station-scene"] canvas')!;
+    const img = new Image();
+    img.src = gl.toDataURL('image/png');
+    await img.decode();
+    const c = document.createElement('canvas');
+    c.width = img.width;
+    c.height = img.height;
+    const ctx = c.getContext('2d')!;
+    ctx.drawImage(img, 0, 0);
+    const { data } = ctx.getImageData(0, 0, c.width, c.height);
+    const bg = [data[0], data[1], data[2]];
+    let lit = 0;
+    for (let i = 0; i < data.length; i += 4) {
+      if (Math.abs(data[i] - bg[0]) + Math.abs(data[i + 1] - bg[1]) + Math.abs(data[i + 2] - bg[2]) > 40) lit++;
+    }
+    return { lit, total: data.length / 4 };
+  });
+}
+
+async function openKestrel(): Promise<StationGraph> {
+  const { page } = session;
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Stations' }).click();
+  await page.getByRole('heading', { level: 1, name: 'Stations' }).waitFor();
+  await page.getByRole('table', { name: 'Stations' }).getByRole('link', { name: 'Kestrel Station', exact: true }).click();
+  await scene().waitFor();
+  await frameAfter(0);
+  const stations = await apiGet<StationSummary[]>('/api/stations');
+  const id = stations.find((s) => s.name === 'Kestrel Station')!.id;
+  return apiGet<StationGraph>(`/api/stations/${id}/graph`);
+}
+
+describe('station view: 3D model, selection, layers, tables and import', () => {
+  it('draws Kestrel Station in few draw calls, selects a node from the list and hides glyph layers', async () => {
+    const { page } = session;
+    await signIn('engineer');
+    const graph = await openKestrel();
+
+    const blank = await litPixels();
+    expect(blank.lit / blank.total, 'share of the canvas showing the model').toBeGreaterThan(0.02);
+
+    // the browser's renderer agrees with the builders run here in Node (the benchmark's count)
+    const expected = countDrawCalls(buildStationObjects(graph).root).drawCalls;
+    expect(await modelCalls()).toBe(expected);
+    const live = await liveCalls();
+    expect(live).toBeGreaterThanOrEqual(expected);
+    expect(live).toBeLessThanOrEqual(DRAW_CALL_TARGET);
+    await session.screenshot('station-view');
+
+    // keyboard: search the list, arrow down to the second match, Enter selects it
+    const anchors = graph.nodes.filter((n) => n.kind === 'anchor').map((n) => n.key).sort();
+    const prefix = anchors[0].split('-')[0];
+    const matches = graph.nodes.filter((n) => n.key.toLowerCase().includes(prefix.toLowerCase()) || n.label?.toLowerCase().includes(prefix.toLowerCase()));
+    const search = page.getByLabel('Find a node');
+    await search.fill(prefix);
+    await search.press('ArrowDown');
+    await search.press('Enter');
+    const chosen = matches[1];
+    const details = page.getByRole('tabpanel');
+    await details.getByText(chosen.key, { exact: true }).first().waitFor();
+    await expect(details.getByText('Position (ft)').isVisible()).resolves.toBe(true);
+    const degree = graph.edges.filter((e) => e.from === chosen.key || e.to === chosen.key).length;
+    await expect(details.getByText(`Edges (${degree})`).isVisible()).resolves.toBe(true);
+    // highlighted in 3D: the selection cage's label follows the node inside the canvas
+    await scene().getByText(new RegExp(`^${chosen.key}( —|$)`)).waitFor();
+    await expect(page.getByRole('option', { name: new RegExp(`^${chosen.key}\\b`) }).getAttribute('aria-selected')).resolves.toBe('true');
+    await session.screenshot('station-view-selected');
+
+    // layer toggles: every node kind off leaves fewer draw calls and fewer lit pixels
+    const kinds = new Set(graph.nodes.map((n) => n.kind));
+    let before = await frames();
+    await page.getByRole('button', { name: 'Oblique' }).click();
+    await frameAfter(before);
+    const withGlyphs = await litPixels();
+    const callsWithGlyphs = await liveCalls();
+    for (const label of ['Airlocks', 'Junctions', 'Anchors', 'Sockets', 'Worksites']) {
+      const toggle = page.getByRole('group', { name: 'Nodes layers' }).getByRole('button', { name: label });
+      await toggle.click();
+      await expect(toggle.getAttribute('aria-pressed')).resolves.toBe('false');
+    }
+    before = await frames();
+    await page.getByRole('button', { name: 'Oblique' }).click();
+    await frameAfter(before);
+    expect(await modelCalls()).toBe(expected - kinds.size);
+    expect(await liveCalls()).toBeLessThan(callsWithGlyphs);
+    const withoutGlyphs = await litPixels();
+    expect(withoutGlyphs.lit).toBeLessThan(withGlyphs.lit);
+    await session.screenshot('station-view-no-glyphs');
+  });
+
+  it('filters the node table by key and shows an edge from a row', async () => {
+    const { page } = session;
+    await signIn('viewer');
+    const graph = await openKestrel();
+    const tables = page.getByRole('region', { name: 'Tables' }).or(page.locator('section', { has: page.getByRole('heading', { name: 'Tables' }) }));
+    const key = graph.nodes.find((n) => n.kind === 'worksite')!.key;
+    const expected = graph.nodes.filter((n) => n.key.toLowerCase().includes(key.toLowerCase()));
+    await tables.getByLabel('Search by key').fill(key);
+    await tables.getByText(`${expected.length} of ${graph.nodes.length} shown`).waitFor();
+    const rows = tables.getByRole('table', { name: 'Nodes' }).locator('tbody tr');
+    expect(await rows.count()).toBe(expected.length);
+    for (const text of await rows.locator('td:first-child').allTextContents()) expect(text.toLowerCase()).toContain(key.toLowerCase());
+    await rows.first().getByRole('button').click();
+    await page.getByRole('tabpanel').getByText(expected[0].key, { exact: true }).first().waitFor();
+
+    await tables.getByRole('tab', { name: /^Edges/ }).click();
+    await tables.getByLabel('Kind').selectOption('ride');
+    const rides = graph.edges.filter((e) => e.kind === 'ride');
+    await tables.getByText(`${rides.length} of ${graph.edges.length} shown`).waitFor();
+    await page.getByRole('tab', { name: /^Details/ }).waitFor();
+    await tables.locator('tbody tr').first().getByRole('button').click();
+    await page.getByRole('tabpanel').first().getByText('Length').waitFor();
+    await tables.scrollIntoViewIfNeeded();
+    await session.screenshot('station-table');
+  });
+
+  it('lets the engineer import a new station and see its counts, and lists every problem of a bad file', async () => {
+    const { page } = session;
+    await signIn('engineer');
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'tw-import-'));
+    const name = `Import check ${Date.now()}`;
+    const doc = buildStationDocument({ name });
+    const good = path.join(dir, 'good.station.json');
+    fs.writeFileSync(good, JSON.stringify(doc));
+    const badDoc = buildStationDocument({ name: 'Broken' });
+    badDoc.nodes = [...badDoc.nodes, { ...badDoc.nodes[0] }];
+    badDoc.edges = [...badDoc.edges, { from: 'NOPE-1', to: badDoc.nodes[0].key, kind: 'handrail' }];
+    const bad = path.join(dir, 'bad.station.json');
+    fs.writeFileSync(bad, JSON.stringify(badDoc));
+
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Stations' }).click();
+    await page.getByRole('heading', { level: 1, name: 'Stations' }).waitFor();
+    await page.getByRole('button', { name: 'Import a station' }).click();
+    const dialog = page.getByRole('dialog', { name: 'Import a station' });
+
+    session.expectHttpError('/api/stations/import', 400);
+    await dialog.getByLabel('Station document').setInputFiles(bad);
+    await dialog.getByRole('button', { name: 'Import station' }).click();
+    const problems = dialog.getByRole('list', { name: 'Import problems' });
+    await problems.waitFor();
+    const text = (await problems.allTextContents()).join('\n');
+    expect(text).toContain(`nodes[${badDoc.nodes.length - 1}].key`);
+    expect(text).toContain(`edges[${badDoc.edges.length - 1}].from`);
+    await session.screenshot('station-import-problems');
+
+    await dialog.getByLabel('Station document').setInputFiles(good);
+    await dialog.getByRole('button', { name: 'Import station' }).click();
+    await dialog.getByText(`Imported “${name}”`).waitFor();
+    const counts = dialog.getByLabel('Imported counts');
+    await expect(counts.getByTestId('count-nodes').textContent()).resolves.toBe(String(doc.nodes.length));
+    await expect(counts.getByTestId('count-edges').textContent()).resolves.toBe(String(doc.edges.length));
+    await expect(counts.getByTestId('count-hazards').textContent()).resolves.toBe(String(doc.hazards!.length));
+    await expect(counts.getByTestId('count-segments').textContent()).resolves.toBe(String(doc.segments!.length));
+    await session.screenshot('station-import-done');
+
+    await dialog.getByRole('link', { name: `Open ${name}` }).click();
+    await page.getByRole('heading', { level: 1, name }).waitFor();
+    await scene().waitFor();
+    await frameAfter(0);
+    expect((await litPixels()).lit).toBeGreaterThan(0);
+  });
+});
