@@ -136,6 +136,20 @@ describe('walkthrough: 3D playback, tether swap call-out and printable step card
     await current.getByRole('button', { name: 'Save note' }).click();
     await current.getByText('Trainer note: Partner confirms').waitFor();
 
+    // the shareable link to a step opens the walkthrough at that step
+    const number = await page
+      .getByRole('list', { name: 'Steps' })
+      .locator('[data-step-id]')
+      .evaluateAll(
+        (rows, stepId) => rows.findIndex((r) => r.getAttribute('data-step-id') === stepId) + 1,
+        firstSwap.id,
+      );
+    await session.goto(`/walkthroughs/${id}?step=${number}`);
+    await expect(page.getByTestId('step-callout').textContent()).resolves.toContain(swapText);
+    await expect(page.locator(`[data-step-id="${firstSwap.id}"]`).getAttribute('aria-current')).resolves.toBe(
+      'step',
+    );
+
     await page.getByRole('button', { name: 'Print cards' }).click();
     await page.getByTestId('step-cards').waitFor();
     expect(new URL(page.url()).searchParams.get('print')).toBe('1');
