@@ -224,6 +224,8 @@ const taskName = (task: TimelineTask, i: number) => `Task ${i + 1} "${task.title
 export function computeTimeline(input: TimelineInput, route: RouteFn): Timeline {
   const { plan, airlockKey, hasNode } = input;
   const warnings: TimelineWarning[] = [];
+  /** route starts that are not attach points (typically worksites) */
+  const startsInPlace = new Set<string>();
   const lanes: Record<CrewMember, Lane> = {
     EV1: { crew: 'EV1', at: airlockKey, t: 0, blocks: [] },
     EV2: { crew: 'EV2', at: airlockKey, t: 0, blocks: [] },
@@ -250,7 +252,10 @@ export function computeTimeline(input: TimelineInput, route: RouteFn): Timeline 
       });
       return false;
     }
+    if (result.startNotAttachable) startsInPlace.add(lane.at);
     for (const w of result.warnings) {
+      // said once for the whole plan below, not on every route that leaves a worksite
+      if (result.startNotAttachable && w.startsWith(`${lane.at} is not a tether attach point`)) continue;
       // caution volumes are a safety matter; the route's other remarks are notes
       const caution = result.cautionHazards.some((h) => w.includes(h));
       warnings.push({
@@ -318,6 +323,14 @@ export function computeTimeline(input: TimelineInput, route: RouteFn): Timeline 
   meet(CREW, 'at the airlock');
   for (const m of CREW)
     if (plan.ingressSeconds > 0) push(lanes[m], 'ingress', plan.ingressSeconds, 'Ingress');
+
+  if (startsInPlace.size) {
+    const keys = [...startsInPlace].sort();
+    warnings.push({
+      code: 'route-note',
+      message: `Routes leaving ${keys.join(', ')} assume the crew member clips to a tether point where they stand (${keys.length === 1 ? 'it is' : 'they are'} not attach points in the model). Check the local tether points there, or add an anchor.`,
+    });
+  }
 
   const endSeconds = Math.max(lanes.EV1.t, lanes.EV2.t);
   const marginSeconds = plan.timeLimitSeconds - endSeconds;

@@ -60,6 +60,8 @@ export interface RouteFeasible {
   warnings: string[];
   /** keys of caution hazards the route passes through */
   cautionHazards: string[];
+  /** the start is not an attach point: the route assumes a tether clipped where the crew member stands */
+  startNotAttachable?: boolean;
 }
 
 export interface RouteInfeasible {

@@ -5,6 +5,7 @@ import type { CrewMember } from '@shared/schemas/plan';
 import {
   computeTimeline,
   type RouteFn,
+  type Timeline,
   type TimelinePlan,
   type TimelineTask,
 } from '@shared/compute/timeline';
@@ -89,8 +90,13 @@ function lineRoute(nodes: LineNode[]): RouteFn {
       totalSeconds: travelSeconds + swapSeconds,
       tetherLengthM,
       maxPaidOutM,
-      warnings: cautions.map((h) => `The route passes through caution volume ${h}.`),
+      warnings: [
+        // as the engine says it when a route leaves a node that is not an attach point
+        ...(line[a].attach ? [] : [`${from} is not a tether attach point: the route assumes the tether is clipped where the crew member starts.`]),
+        ...cautions.map((h) => `The route passes through caution volume ${h}.`),
+      ],
       cautionHazards: cautions,
+      ...(line[a].attach ? {} : { startNotAttachable: true }),
     };
     return route;
   };
@@ -130,6 +136,9 @@ function plan(tasks: TimelineTask[], over: Partial<TimelinePlan> = {}): Timeline
     ...over,
   };
 }
+
+/** the warnings other than the plan-level note about routes leaving worksites (tested on its own) */
+const notesAside = (t: Timeline) => t.warnings.filter((w) => w.code !== 'route-note');
 
 const spans = (blocks: { type: string; start: number; end: number }[]) =>
   blocks.map((b) => [b.type, b.start, b.end]);
@@ -192,7 +201,7 @@ describe('computeTimeline, hand-worked example (tether 15 m, 0.1 m/s, 90 s swaps
     expect(tl.endSeconds).toBe(6370);
     expect(tl.marginSeconds).toBe(23400 - 6370);
     expect(tl.fitsTimeLimit).toBe(true);
-    expect(tl.warnings).toEqual([]);
+    expect(notesAside(tl)).toEqual([]);
   });
 
   it('warns when the day runs past the time limit', () => {
@@ -202,8 +211,8 @@ describe('computeTimeline, hand-worked example (tether 15 m, 0.1 m/s, 90 s swaps
     );
     expect(over.fitsTimeLimit).toBe(false);
     expect(over.marginSeconds).toBe(-370);
-    expect(over.warnings.map((w) => w.code)).toEqual(['over-time-limit']);
-    expect(over.warnings[0].message).toContain('1:46');
+    expect(notesAside(over).map((w) => w.code)).toEqual(['over-time-limit']);
+    expect(notesAside(over)[0].message).toContain('1:46');
   });
 
   it('carrying slows only the translation to that task, by the carry factor', () => {
@@ -227,11 +236,11 @@ describe('computeTimeline warnings', () => {
       { plan: plan([task({ worksite: 'W2', crew: 'EV2' })]), airlockKey: 'A', orbit: ORBIT },
       lineRoute(station),
     );
-    expect(tl.warnings.map((w) => [w.code, w.taskIndex, w.crew])).toEqual([
+    expect(notesAside(tl).map((w) => [w.code, w.taskIndex, w.crew])).toEqual([
       ['route-caution', 0, 'EV2'],
       ['route-caution', undefined, 'EV2'],
     ]);
-    expect(tl.warnings[0].message).toContain('ANT-1');
+    expect(notesAside(tl)[0].message).toContain('ANT-1');
   });
 
   it('an unreachable worksite: the reason is shown, the crew member stays put and the work is marked', () => {
@@ -240,11 +249,11 @@ describe('computeTimeline warnings', () => {
       crew: { EV1: { name: 'Ada', tetherLengthM: 8 }, EV2: { name: 'Ben', tetherLengthM: 15 } },
     });
     const tl = computeTimeline({ plan: short, airlockKey: 'A', orbit: ORBIT }, lineRoute(STATION));
-    expect(tl.warnings.map((w) => [w.code, w.taskIndex, w.crew])).toEqual([
+    expect(notesAside(tl).map((w) => [w.code, w.taskIndex, w.crew])).toEqual([
       ['route-infeasible', 0, 'EV1'],
       ['route-infeasible', 1, 'EV1'],
     ]);
-    expect(tl.warnings[0].message).toContain('anchor gap');
+    expect(notesAside(tl)[0].message).toContain('anchor gap');
     expect(spans(tl.crew.EV1.blocks)).toEqual([
       ['egress', 0, 1800],
       ['work', 1800, 2400],
@@ -265,11 +274,11 @@ describe('computeTimeline warnings', () => {
       { plan: plan(tasks), airlockKey: 'A', orbit: ORBIT, hasNode: (k) => keys.has(k) },
       lineRoute(STATION),
     );
-    expect(tl.warnings.map((w) => [w.code, w.taskIndex])).toEqual([
+    expect(notesAside(tl).map((w) => [w.code, w.taskIndex])).toEqual([
       ['unknown-worksite', 0],
       ['unknown-socket', 1],
     ]);
-    expect(tl.warnings[0].message).toContain('PB9-W1');
+    expect(notesAside(tl)[0].message).toContain('PB9-W1');
     expect(tl.crew.EV2.blocks[1]).toMatchObject({ type: 'work', unreached: true, start: 1800 });
   });
 
@@ -286,8 +295,8 @@ describe('computeTimeline warnings', () => {
     ];
     const tl = computeTimeline({ plan: plan(tasks), airlockKey: 'A', orbit: ORBIT }, lineRoute(STATION));
     const sunset = orbitSummary(ORBIT).sunlitSeconds;
-    expect(tl.warnings).toHaveLength(1);
-    const w = tl.warnings[0];
+    expect(notesAside(tl)).toHaveLength(1);
+    const w = notesAside(tl)[0];
     expect(w.code).toBe('eclipse-only-outside-night');
     expect(w.taskIndex).toBe(0);
     expect(w.nextWindow?.start).toBeCloseTo(sunset, 6);
@@ -307,7 +316,7 @@ describe('computeTimeline warnings', () => {
       { plan: plan(tasks, { orbitPhaseAtStartDeg: phase }), airlockKey: 'A', orbit: ORBIT },
       lineRoute(STATION),
     );
-    expect(tl.warnings).toEqual([]);
+    expect(notesAside(tl)).toEqual([]);
     expect(tl.nightWindows[0].start).toBeCloseTo(2100, 6);
   });
 
@@ -319,9 +328,9 @@ describe('computeTimeline warnings', () => {
     );
     expect(tl.orbit.betaDeg).toBe(75);
     expect(tl.nightWindows).toEqual([]);
-    expect(tl.warnings[0].code).toBe('eclipse-only-outside-night');
-    expect(tl.warnings[0].nextWindow).toBeUndefined();
-    expect(tl.warnings[0].message).toContain('no night');
+    expect(notesAside(tl)[0].code).toBe('eclipse-only-outside-night');
+    expect(notesAside(tl)[0].nextWindow).toBeUndefined();
+    expect(notesAside(tl)[0].message).toContain('no night');
   });
 });
 
@@ -526,5 +535,22 @@ describe('computeTimeline with a plan parsed by CreatePlanInputSchema', () => {
       false,
     );
     expect(CreatePlanInputSchema.safeParse({ ...base, tasks: Array(200).fill(t) }).success).toBe(true);
+  });
+});
+
+describe('routes that leave a worksite', () => {
+  it('are noted once for the plan, naming each such start, not once per route', () => {
+    const route = lineRoute(STATION);
+    const tasks = [task({ worksite: 'W1', crew: 'EV1' }), task({ worksite: 'W2', crew: 'EV1' }), task({ worksite: 'W1', crew: 'both' })];
+    const timeline = computeTimeline({ plan: plan(tasks), airlockKey: 'A', orbit: ORBIT }, route);
+    const notes = timeline.warnings.filter((w) => w.code === 'route-note');
+    expect(notes).toHaveLength(1);
+    expect(notes[0].message).toMatch(/Routes leaving W1, W2 assume/);
+    expect(timeline.warnings.some((w) => /is not a tether attach point/.test(w.message))).toBe(false);
+  });
+
+  it('say nothing when every route starts at an attach point', () => {
+    const timeline = computeTimeline({ plan: plan([task({ worksite: 'J2', crew: 'EV2' })]), airlockKey: 'A', orbit: ORBIT }, lineRoute(STATION));
+    expect(timeline.warnings.filter((w) => w.code === 'route-note')).toEqual([]);
   });
 });
