@@ -2,11 +2,11 @@ import type { Annotation } from '@shared/schemas/annotations';
 import { Badge } from '@/components/ui/badge';
 import { formatDateTime } from '@/lib/format';
 
-/** Open and resolved differ by symbol and word, never by colour alone (the 3D pins: cone vs ring). */
+/** Open and resolved differ by symbol and word, never by colour alone (the 3D pins: ball on a stalk vs ring). */
 export function StatusBadge({ status }: { status: Annotation['status'] }) {
   return status === 'open' ? (
     <Badge tone="caution">
-      <span aria-hidden="true">▼&nbsp;</span>open
+      <span aria-hidden="true">●&nbsp;</span>open
     </Badge>
   ) : (
     <Badge tone="approved">

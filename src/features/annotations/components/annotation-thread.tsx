@@ -13,6 +13,9 @@ import { Byline, StatusBadge, pinText } from './annotation-meta';
 
 const MAX_IMAGE_MB = 5;
 
+const sizeText = (bytes: number) =>
+  bytes < 1024 ? `${bytes} B` : bytes < 1024 * 1024 ? `${(bytes / 1024).toFixed(0)} KB` : `${(bytes / 1024 / 1024).toFixed(1)} MB`;
+
 function ReplyForm({ annotationId }: { annotationId: number }) {
   const { register, handleSubmit, reset, formState } = useForm<CreateReplyInput>({
     resolver: zodResolver(CreateReplyInputSchema),
@@ -109,7 +112,7 @@ export function AnnotationThread({ annotation: a, onBack }: AnnotationThreadProp
                 <img src={f.url} alt={f.fileName} className="max-h-40 w-full rounded border border-surface-line object-contain" />
               </a>
               <p className="mt-0.5 truncate text-xs text-text-muted" title={f.fileName}>
-                {f.fileName} · {(f.sizeBytes / 1024).toFixed(0)} KB
+                {f.fileName} · {sizeText(f.sizeBytes)}
               </p>
             </li>
           ))}

@@ -78,7 +78,7 @@ export function AnnotationsPanel({ stationId, selectedNodeKey, pick, openId, onO
         )}
       </div>
       <p className="text-xs text-text-muted">
-        In 3D, an open note is an amber cone pointing at its spot; a resolved one is a grey ring. Click a pin to open
+        In 3D, an open note is a blue ball on a stalk standing on its spot; a resolved one is a grey ring above it. Click a pin to open
         its thread.
       </p>
       <AnnotationList annotations={shown} onOpen={(id) => onOpen(id)} />

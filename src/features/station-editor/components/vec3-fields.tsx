@@ -45,7 +45,7 @@ export function Vec3Fields({
                   <Button
                     size="sm"
                     variant="secondary"
-                    className="flex-1 px-1"
+                    className="h-7! min-w-0 flex-1 px-0! text-xs!"
                     aria-label={`${axis} minus ${NUDGE_M} m`}
                     onClick={() => onNudge(i as 0 | 1 | 2, -NUDGE_M)}
                   >
@@ -54,7 +54,7 @@ export function Vec3Fields({
                   <Button
                     size="sm"
                     variant="secondary"
-                    className="flex-1 px-1"
+                    className="h-7! min-w-0 flex-1 px-0! text-xs!"
                     aria-label={`${axis} plus ${NUDGE_M} m`}
                     onClick={() => onNudge(i as 0 | 1 | 2, NUDGE_M)}
                   >
