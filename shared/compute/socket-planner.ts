@@ -14,7 +14,9 @@ import { REACH_TOLERANCE_M, reachCheck, workPoint } from './reach';
  * bound over bitmasks, seeded with the greedy answer, so a greedy answer that is already optimal is
  * kept; a search that runs past its node budget returns its best cover so far, marked not exact);
  * beyond, it is the classic greedy over every reaching candidate (most newly covered targets;
- * ties by the smaller summed distance to them, then the earlier candidate). Every covered target is
+ * ties: an existing socket before a new one, then the smaller summed distance to them, then the
+ * earlier candidate). Candidates reaching the same targets keep an existing socket over a new one,
+ * so a new socket is only proposed where it reaches something no existing one does. Every covered target is
  * assigned to its nearest chosen socket. Exact answers list sockets in candidate order, greedy ones
  * in pick order.
  */
@@ -113,7 +115,10 @@ function distanceOver(cov: Coverage, c: number, n: number, covered: Uint32Array 
 }
 
 /** Classic greedy over the given candidate indices. */
-function greedyCover(cov: Coverage, n: number, pool: readonly number[]): number[] {
+/** a candidate that is not yet a socket on the station (a grid point): installing one is real work */
+const isNew = (input: PlanSocketsInput, c: number) => input.candidates[c].key === undefined;
+
+function greedyCover(cov: Coverage, n: number, pool: readonly number[], fresh: (c: number) => boolean): number[] {
   const covered = new Uint32Array(cov.words);
   let remaining = gainOver(cov.coverable, covered);
   const chosen: number[] = [];
@@ -130,6 +135,14 @@ function greedyCover(cov: Coverage, n: number, pool: readonly number[]): number[
         bestDistance = NaN;
         continue;
       }
+      // equal gain: an existing socket before a new one, then the nearer
+      if (fresh(c) !== fresh(best)) {
+        if (!fresh(c)) {
+          best = c;
+          bestDistance = NaN;
+        }
+        continue;
+      }
       if (Number.isNaN(bestDistance)) bestDistance = distanceOver(cov, best, n, covered);
       const d = distanceOver(cov, c, n, covered);
       if (d < bestDistance) {
@@ -144,14 +157,19 @@ function greedyCover(cov: Coverage, n: number, pool: readonly number[]): number[
   return chosen;
 }
 
-/** Of candidates reaching the same targets, keeps the one with the smallest total distance (then the first). */
-function mergeEqual(cov: Coverage, n: number, pool: readonly number[]): number[] {
-  const kept = new Map<string, { c: number; total: number }>();
+/**
+ * Of candidates reaching the same targets, keeps an existing socket before a new one, then the one
+ * with the smallest total distance (then the first): a new socket is only proposed where no existing
+ * one reaches the same targets.
+ */
+function mergeEqual(cov: Coverage, n: number, pool: readonly number[], fresh: (c: number) => boolean): number[] {
+  const kept = new Map<string, { c: number; total: number; fresh: boolean }>();
   for (const c of pool) {
     const key = cov.sets[c].join(',');
     const total = distanceOver(cov, c, n, null);
     const seen = kept.get(key);
-    if (!seen || total < seen.total) kept.set(key, { c, total });
+    const better = !seen || (seen.fresh && !fresh(c)) || (seen.fresh === fresh(c) && total < seen.total);
+    if (better) kept.set(key, { c, total, fresh: fresh(c) });
   }
   return [...kept.values()].map((k) => k.c).sort((a, b) => a - b);
 }
@@ -260,10 +278,11 @@ export function planSockets(input: PlanSocketsInput): SocketPlan {
   const method = input.method ?? 'auto';
   const cov = coverage(input);
   const reaching = cov.sets.flatMap((set, c) => (set.some((w) => w !== 0) ? [c] : []));
-  const merged = method === 'greedy' ? reaching : mergeEqual(cov, n, reaching);
+  const fresh = (c: number) => isNew(input, c);
+  const merged = method === 'greedy' ? reaching : mergeEqual(cov, n, reaching, fresh);
   const pool = method !== 'greedy' && merged.length <= DOMINANCE_LIMIT ? undominated(cov, merged) : merged;
   let exact = method === 'exact' || (method === 'auto' && pool.length <= EXACT_CANDIDATE_LIMIT);
-  let chosen = greedyCover(cov, n, exact ? pool : reaching);
+  let chosen = greedyCover(cov, n, exact ? pool : reaching, fresh);
   let nodes = 0;
   if (exact) {
     const result = exactCover(cov, n, pool, chosen, input.nodeBudget ?? SEARCH_NODE_BUDGET);

@@ -203,3 +203,43 @@ describe('socket planner cases', () => {
     expect(planSockets({ ...reach, targets: [], candidates: row(2) })).toMatchObject({ sockets: [], uncovered: [], assignments: [] });
   });
 });
+
+describe('existing sockets before new ones', () => {
+  it('keeps an existing socket that reaches the same targets as a nearer grid point (common practice: new sockets are hardware work)', () => {
+    const target: [number, number, number] = [0, 0, 1.8];
+    const plan = planSockets({
+      targets: [target],
+      candidates: [
+        { position: [0, 0, 0.8], normal: [0, 0, 1] }, // new, right under the task: 0.0 m
+        { key: 'EX-S1', position: [0.5, 0, 0.8], normal: [0, 0, 1] }, // existing, 0.5 m off
+      ],
+      standOffM: 1,
+      radiusM: 0.7,
+    });
+    expect(plan.sockets).toEqual(['EX-S1']);
+    const greedy = planSockets({
+      targets: [target],
+      candidates: [
+        { position: [0, 0, 0.8], normal: [0, 0, 1] },
+        { key: 'EX-S1', position: [0.5, 0, 0.8], normal: [0, 0, 1] },
+      ],
+      standOffM: 1,
+      radiusM: 0.7,
+      method: 'greedy',
+    });
+    expect(greedy.sockets).toEqual(['EX-S1']);
+  });
+
+  it('still proposes a new socket where no existing one reaches', () => {
+    const plan = planSockets({
+      targets: [[0, 0, 1.8], [10, 0, 1.8]],
+      candidates: [
+        { key: 'EX-S1', position: [0.3, 0, 0.8], normal: [0, 0, 1] },
+        { position: [10, 0, 0.8], normal: [0, 0, 1] },
+      ],
+      standOffM: 1,
+      radiusM: 0.7,
+    });
+    expect(plan.sockets).toEqual(['EX-S1', { position: [10, 0, 0.8], normal: [0, 0, 1] }]);
+  });
+});
