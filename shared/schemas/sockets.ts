@@ -13,19 +13,24 @@ export const ReachRequestSchema = z.strictObject({
 export type ReachRequest = z.infer<typeof ReachRequestSchema>;
 
 /** Body of `POST /api/stations/:id/socket-plan` (DESIGN §8). */
-export const SocketPlanRequestSchema = z.strictObject({
+export const SocketPlanRequestSchema = z
+  .strictObject({
   targets: z
     .array(Vec3Schema)
     .min(1, 'give at least one target')
     .max(MAX_PLAN_TARGETS, `at most ${MAX_PLAN_TARGETS} targets`),
-  /** socket node keys; absent means every socket of the station */
-  candidates: z.array(KeySchema).min(1, 'give at least one candidate socket, or leave the list out').max(20000).optional(),
+  /** socket node keys; absent means every socket of the station, empty means none (grid only) */
+  candidates: z.array(KeySchema).max(20000).optional(),
   /** also try candidates on a grid of this spacing over the truss faces */
   gridSpacingM: FiniteSchema.refine(
     (v) => v >= MIN_GRID_SPACING_M && v <= MAX_GRID_SPACING_M,
     `grid spacing must be between ${MIN_GRID_SPACING_M} and ${MAX_GRID_SPACING_M} m`,
   ).optional(),
-});
+  })
+  .refine((r) => !(r.candidates?.length === 0 && r.gridSpacingM === undefined), {
+    path: ['candidates'],
+    message: 'give at least one candidate socket or a grid spacing',
+  });
 export type SocketPlanRequest = z.infer<typeof SocketPlanRequestSchema>;
 
 /** Angles follow the conventions documented in shared/compute/reach.ts. */

@@ -77,6 +77,21 @@ describe('POST /api/stations/:id/socket-plan', () => {
     expect(Math.hypot(c[0] - 5, c[1] - 2.5, c[2])).toBeLessThanOrEqual(0.7);
   });
 
+  it('an empty candidate list with a grid plans new sockets only; without a grid it is a 400', async () => {
+    // the factory's socket reaches this target, so without the empty list it would be chosen
+    const target = [9.2, 2.6, 0.1];
+    const withExisting = await post('socket-plan', { targets: [target], gridSpacingM: 1 });
+    expect(withExisting.status).toBe(200);
+    expect(withExisting.body.sockets).toContain(K.socket);
+    const gridOnly = await post('socket-plan', { targets: [target], candidates: [], gridSpacingM: 1 });
+    expect(gridOnly.status).toBe(200);
+    expect(gridOnly.body.sockets.length).toBeGreaterThan(0);
+    for (const s of gridOnly.body.sockets) expect(typeof s).toBe('object');
+    const nothing = await post('socket-plan', { targets: [target], candidates: [] });
+    expect(nothing.status).toBe(400);
+    expect(nothing.body.error.details[0].path).toBe('body.candidates');
+  });
+
   it('candidate keys: unknown → 404, not a socket → 400; bad bodies → 400', async () => {
     expect((await post('socket-plan', { targets: [[9, 2.5, 0.5]], candidates: ['NOPE-2'] })).status).toBe(404);
     expect((await post('socket-plan', { targets: [[9, 2.5, 0.5]], candidates: [K.worksite] })).status).toBe(400);

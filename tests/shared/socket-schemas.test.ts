@@ -19,6 +19,8 @@ describe('reach and socket-plan request schemas', () => {
     expect(SocketPlanRequestSchema.safeParse({ targets: t(1), gridSpacingM: 0.2 }).success).toBe(false);
     expect(SocketPlanRequestSchema.safeParse({ targets: t(1), gridSpacingM: 50.5 }).success).toBe(false);
     expect(SocketPlanRequestSchema.safeParse({ targets: t(1), candidates: [] }).success).toBe(false);
+    // an empty list with a grid: plan new sockets only, no existing ones
+    expect(SocketPlanRequestSchema.safeParse({ targets: t(1), candidates: [], gridSpacingM: 1 }).success).toBe(true);
     expect(SocketPlanRequestSchema.safeParse({ targets: t(1), mode: 'fast' }).success).toBe(false);
   });
 });

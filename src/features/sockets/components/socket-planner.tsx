@@ -131,7 +131,8 @@ export function useSocketPlanner(station: SocketPlannerStation, pieces: SocketSc
     const request = {
       targets: targets.map((t) => t.position),
       // every socket listed is the same as none listed, and shorter
-      ...(excluded.size > 0 && candidates.length > 0 ? { candidates } : {}),
+      // an empty list with a grid means new sockets only
+      ...(excluded.size > 0 ? { candidates } : {}),
       ...(spacing?.ok ? { gridSpacingM: spacing.value } : {}),
     };
     const checked = SocketPlanRequestSchema.safeParse(request);
