@@ -4,27 +4,13 @@ import { useThree } from '@react-three/fiber';
 import * as THREE from 'three';
 import type { OrbitControls as OrbitControlsImpl } from 'three-stdlib';
 import type { Vec3 } from '@shared/schemas/station';
-import { PRESET_DIRECTIONS, STATION_UP, type PresetView } from '../builders/frame';
+import { PRESET_DIRECTIONS, type PresetView } from '../builders/frame';
+import { framing } from '../builders/framing';
 import type { SceneApi } from './scene-api';
 
 /** Framing a few points keeps a few metres of structure round them, so the view stays readable. */
 const FOCUS_RADIUS_M = 4;
 const HOME_DIRECTION = new THREE.Vector3(0.55, 0.75, 0.45).normalize();
-
-/**
- * Where the camera must stand to see a box whole along `direction`. Zenith and nadir views lean a
- * hair towards fore, so the camera's up (+z) is never parallel to the view.
- */
-export function framing(box: THREE.Box3, direction: THREE.Vector3, fovDeg: number, aspect: number, minRadiusM = 0.5) {
-  const sphere = box.getBoundingSphere(new THREE.Sphere());
-  const radius = Math.max(sphere.radius, minRadiusM);
-  const vertical = (fovDeg * Math.PI) / 180;
-  const horizontal = 2 * Math.atan(Math.tan(vertical / 2) * aspect);
-  const distance = (radius / Math.sin(Math.min(vertical, horizontal) / 2)) * 1.05;
-  const dir = direction.clone().normalize();
-  if (Math.abs(dir.dot(new THREE.Vector3(...STATION_UP))) > 0.999) dir.add(new THREE.Vector3(0, 1e-3, 0)).normalize();
-  return { target: sphere.center.clone(), position: sphere.center.clone().addScaledVector(dir, distance), distance, radius };
-}
 
 export function CameraRig({ bounds, apiRef }: { bounds: THREE.Box3; apiRef: Ref<SceneApi> }) {
   const get = useThree((s) => s.get);
