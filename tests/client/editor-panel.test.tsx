@@ -25,7 +25,12 @@ function graphAt(version: number): StationGraph {
       version,
       orbit: doc.orbit,
       settings: doc.settings,
-      counts: { nodes: doc.nodes.length, edges: doc.edges.length, hazards: doc.hazards.length, segments: doc.segments.length },
+      counts: {
+        nodes: doc.nodes.length,
+        edges: doc.edges.length,
+        hazards: doc.hazards.length,
+        segments: doc.segments.length,
+      },
       createdAt: '2026-01-01T00:00:00.000Z',
       updatedAt: '2026-01-01T00:00:00.000Z',
       updatedBy: null,
@@ -76,7 +81,10 @@ function fakeStationApi(current: { version: number; by: string }) {
       );
     }
     current.version += 1;
-    return Response.json({ version: current.version, node: body.node }, { status: method === 'POST' ? 201 : 200 });
+    return Response.json(
+      { version: current.version, node: body.node },
+      { status: method === 'POST' ? 201 : 200 },
+    );
   });
   vi.stubGlobal('fetch', fetch);
   return sent;
@@ -97,7 +105,9 @@ function field(scope: HTMLElement, label: string): HTMLInputElement {
 
 async function click(scope: HTMLElement, text: string | RegExp) {
   const button = [...scope.querySelectorAll('button')].find((b) =>
-    typeof text === 'string' ? b.textContent === text || b.getAttribute('aria-label') === text : text.test(b.textContent ?? ''),
+    typeof text === 'string'
+      ? b.textContent === text || b.getAttribute('aria-label') === text
+      : text.test(b.textContent ?? ''),
   );
   if (!button) throw new Error(`no button ${text}`);
   await act(async () => button.click());
@@ -106,14 +116,18 @@ async function click(scope: HTMLElement, text: string | RegExp) {
 describe('suggestNodeKey', () => {
   it('suggests a key that is free and one past the highest number on that prefix and kind', () => {
     fc.assert(
-      fc.property(fc.uniqueArray(fc.integer({ min: 1, max: 300 }), { maxLength: 40 }), fc.array(fc.string()), (numbers, others) => {
-        const existing = [...numbers.map((n) => `PB3-A${String(n).padStart(2, '0')}`), ...others];
-        const key = suggestNodeKey(existing, 'PB3', 'anchor');
-        expect(existing).not.toContain(key);
-        const match = /^PB3-A(\d{2,})$/.exec(key);
-        expect(match).not.toBeNull();
-        expect(Number(match![1])).toBeGreaterThan(Math.max(0, ...numbers));
-      }),
+      fc.property(
+        fc.uniqueArray(fc.integer({ min: 1, max: 300 }), { maxLength: 40 }),
+        fc.array(fc.string()),
+        (numbers, others) => {
+          const existing = [...numbers.map((n) => `PB3-A${String(n).padStart(2, '0')}`), ...others];
+          const key = suggestNodeKey(existing, 'PB3', 'anchor');
+          expect(existing).not.toContain(key);
+          const match = /^PB3-A(\d{2,})$/.exec(key);
+          expect(match).not.toBeNull();
+          expect(Number(match![1])).toBeGreaterThan(Math.max(0, ...numbers));
+        },
+      ),
     );
   });
 
@@ -130,7 +144,13 @@ describe('EditPanel', () => {
     const onChanged = vi.fn();
     const onSelectNode = vi.fn();
     rendered = await render(
-      <EditPanel graph={graphAt(3)} selectedKey={null} onSelectNode={onSelectNode} pick={null} onChanged={onChanged} />,
+      <EditPanel
+        graph={graphAt(3)}
+        selectedKey={null}
+        onSelectNode={onSelectNode}
+        pick={null}
+        onChanged={onChanged}
+      />,
     );
     const add = form(rendered.container, 'Add node');
     const kind = add.querySelector('select')!;
@@ -153,7 +173,10 @@ describe('EditPanel', () => {
       {
         method: 'POST',
         path: '/api/stations/1/nodes',
-        body: { version: 3, node: { key: 'T1-S01', kind: 'socket', position: [4.25, -1.5, 0], normal: [0, -1, 0] } },
+        body: {
+          version: 3,
+          node: { key: 'T1-S01', kind: 'socket', position: [4.25, -1.5, 0], normal: [0, -1, 0] },
+        },
       },
     ]);
     expect(onChanged).toHaveBeenCalledTimes(1);
@@ -163,7 +186,13 @@ describe('EditPanel', () => {
   it('moves the selected node by the nudge buttons', async () => {
     const sent = fakeStationApi({ version: 5, by: 'Erin Engineer' });
     rendered = await render(
-      <EditPanel graph={graphAt(5)} selectedKey={FIXTURE_KEYS.junction} onSelectNode={vi.fn()} pick={null} onChanged={vi.fn()} />,
+      <EditPanel
+        graph={graphAt(5)}
+        selectedKey={FIXTURE_KEYS.junction}
+        onSelectNode={vi.fn()}
+        pick={null}
+        onChanged={vi.fn()}
+      />,
     );
     const change = form(rendered.container, `Change node ${FIXTURE_KEYS.junction}`);
     await click(change, 'x plus 0.1 m');
@@ -183,7 +212,13 @@ describe('EditPanel', () => {
     const sent = fakeStationApi(server);
     const onChanged = vi.fn();
     rendered = await render(
-      <EditPanel graph={graphAt(7)} selectedKey={FIXTURE_KEYS.junction} onSelectNode={vi.fn()} pick={null} onChanged={onChanged} />,
+      <EditPanel
+        graph={graphAt(7)}
+        selectedKey={FIXTURE_KEYS.junction}
+        onSelectNode={vi.fn()}
+        pick={null}
+        onChanged={onChanged}
+      />,
     );
     const change = form(rendered.container, `Change node ${FIXTURE_KEYS.junction}`);
     await typeInto(field(change, 'Label'), 'Stanchion 3');

@@ -69,7 +69,9 @@ async function signOut() {
 
 async function apiAs(role: string): Promise<APIRequestContext> {
   const api = await request.newContext({ baseURL: session.baseURL });
-  const res = await api.post('/api/auth/sign-in', { data: { email: `${role}@example.org`, password: DEMO_PASSWORD } });
+  const res = await api.post('/api/auth/sign-in', {
+    data: { email: `${role}@example.org`, password: DEMO_PASSWORD },
+  });
   expect(res.status()).toBe(200);
   return api;
 }
@@ -86,7 +88,10 @@ describe('annotations on the station', () => {
     await session.goto(`/stations/${station.id}`);
     await page.getByTestId('station-scene').waitFor();
     await page.getByLabel('Find a node').fill('PB3-A01');
-    await page.getByRole('option', { name: /^PB3-A01\b/ }).first().click();
+    await page
+      .getByRole('option', { name: /^PB3-A01\b/ })
+      .first()
+      .click();
     await page.getByRole('tab', { name: 'Annotations' }).click();
     await page.getByRole('button', { name: 'New note' }).click();
     const form = page.getByRole('form', { name: 'New note' });
@@ -105,8 +110,13 @@ describe('annotations on the station', () => {
       mimeType: 'image/png',
       buffer: Buffer.from('not really a picture\n'),
     });
-    await thread.getByRole('alert').getByText(/Only PNG or JPE?G images can be attached; this file's content is not an image/).waitFor();
-    await thread.getByLabel('Attach an image').setInputFiles({ name: 'stanchion.png', mimeType: 'image/png', buffer: pngBytes() });
+    await thread
+      .getByRole('alert')
+      .getByText(/Only PNG or JPE?G images can be attached; this file's content is not an image/)
+      .waitFor();
+    await thread
+      .getByLabel('Attach an image')
+      .setInputFiles({ name: 'stanchion.png', mimeType: 'image/png', buffer: pngBytes() });
     const image = thread.getByRole('img', { name: 'stanchion.png' });
     await image.waitFor();
     await thread.getByLabel('Reply').fill('Seen on the last walkdown too.');
@@ -115,9 +125,9 @@ describe('annotations on the station', () => {
     await thread.getByText('1 reply').waitFor();
     await session.screenshot('annotations-trainer-thread');
 
-    const saved = ((await (await api.get(`/api/stations/${station.id}/annotations`)).json()) as Annotation[]).find(
-      (a) => a.title === title,
-    )!;
+    const saved = (
+      (await (await api.get(`/api/stations/${station.id}/annotations`)).json()) as Annotation[]
+    ).find((a) => a.title === title)!;
     expect(saved).toMatchObject({ nodeKey: 'PB3-A01', status: 'open', author: { name: 'Jonah Abara' } });
     expect(saved.replies.map((r) => r.body)).toEqual(['Seen on the last walkdown too.']);
     expect(saved.attachments).toMatchObject([{ fileName: 'stanchion.png', mimeType: 'image/png' }]);
@@ -131,14 +141,18 @@ describe('annotations on the station', () => {
     await item.waitFor();
     expect(await item.textContent()).toContain('1 reply');
     const thumb = item.getByRole('img', { name: 'Thumbnail: stanchion.png' });
-    await expect.poll(() => thumb.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth)).toBe(24);
+    await expect
+      .poll(() => thumb.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth))
+      .toBe(24);
     expect(await page.getByRole('button', { name: 'New note' }).count()).toBe(0);
     await session.screenshot('annotations-viewer-list');
 
     await item.click();
     const viewed = page.getByRole('article', { name: title });
     const full = viewed.getByRole('img', { name: 'stanchion.png' });
-    await expect.poll(() => full.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth)).toBe(24);
+    await expect
+      .poll(() => full.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth))
+      .toBe(24);
     await viewed.getByText('Seen on the last walkdown too.').waitFor();
     for (const control of ['Add reply', 'Resolve', 'Reopen']) {
       expect(await viewed.getByRole('button', { name: control }).count()).toBe(0);

@@ -29,7 +29,9 @@ async function signIn(role: string) {
 /** A second person's session, straight against the API: the "someone else" of a stale edit. */
 async function apiAs(role: string): Promise<APIRequestContext> {
   const api = await request.newContext({ baseURL: session.baseURL });
-  const res = await api.post('/api/auth/sign-in', { data: { email: `${role}@example.org`, password: DEMO_PASSWORD } });
+  const res = await api.post('/api/auth/sign-in', {
+    data: { email: `${role}@example.org`, password: DEMO_PASSWORD },
+  });
   expect(res.status()).toBe(200);
   return api;
 }
@@ -53,20 +55,28 @@ async function openStation(id: number) {
 async function selectFromList(key: string) {
   const { page } = session;
   await page.getByLabel('Find a node').fill(key);
-  await page.getByRole('option', { name: new RegExp(`^${key}\\b`) }).first().click();
+  await page
+    .getByRole('option', { name: new RegExp(`^${key}\\b`) })
+    .first()
+    .click();
+}
+
+/** The engineer on Kestrel Station with the Edit tab's "Add node" section open. */
+async function openAddNodeAsEngineer() {
+  const { page } = session;
+  await signIn('engineer');
+  const api = await apiAs('engineer');
+  const station = await kestrel(api);
+  await openStation(station.id);
+  await page.getByRole('tab', { name: 'Edit' }).click();
+  await page.locator('summary', { hasText: 'Add node' }).click();
+  return { api, station, add: page.getByRole('form', { name: 'Add node' }) };
 }
 
 describe('station edit mode', () => {
   it('lets the engineer add a node by numbers, see it in the list and details, and move it', async () => {
     const { page } = session;
-    await signIn('engineer');
-    const api = await apiAs('engineer');
-    const station = await kestrel(api);
-    await openStation(station.id);
-
-    await page.getByRole('tab', { name: 'Edit' }).click();
-    await page.locator('summary', { hasText: 'Add node' }).click();
-    const add = page.getByRole('form', { name: 'Add node' });
+    const { api, station, add } = await openAddNodeAsEngineer();
     await add.getByLabel('Kind').selectOption('anchor');
     const key = await add.getByLabel('Key').inputValue();
     // the next free anchor key on the first segment
@@ -82,7 +92,11 @@ describe('station edit mode', () => {
     await page.getByText(`Saved: add node ${key}`).waitFor();
 
     const added = (await graphOf(api, station.id)).nodes.find((n) => n.key === key);
-    expect(added).toMatchObject({ kind: 'anchor', label: 'Added in the browser', position: [-20.25, 1.5, 0.5] });
+    expect(added).toMatchObject({
+      kind: 'anchor',
+      label: 'Added in the browser',
+      position: [-20.25, 1.5, 0.5],
+    });
 
     // the new node is selected: the Edit tab shows it, the list and the Details tab know it
     const change = page.getByRole('form', { name: `Change node ${key}` });
@@ -106,13 +120,7 @@ describe('station edit mode', () => {
 
   it('picks a point on the truss to place a new node, snapped to the face', async () => {
     const { page } = session;
-    await signIn('engineer');
-    const api = await apiAs('engineer');
-    const station = await kestrel(api);
-    await openStation(station.id);
-    await page.getByRole('tab', { name: 'Edit' }).click();
-    await page.locator('summary', { hasText: 'Add node' }).click();
-    const add = page.getByRole('form', { name: 'Add node' });
+    const { api, station, add } = await openAddNodeAsEngineer();
     await add.getByRole('button', { name: 'Pick a point on the truss' }).click();
     const canvas = page.getByTestId('station-scene').locator('canvas');
     const box = (await canvas.boundingBox())!;
@@ -122,10 +130,14 @@ describe('station edit mode', () => {
       if (await add.getByText(/Snapped to a face of/).isVisible()) break;
     }
     await add.getByText(/Snapped to a face of (\S+)/).waitFor({ timeout: 5000 });
-    const segmentKey = /of (\S+?);/.exec((await add.getByText(/Snapped to a face of/).textContent()) ?? '')?.[1];
+    const segmentKey = /of (\S+?);/.exec(
+      (await add.getByText(/Snapped to a face of/).textContent()) ?? '',
+    )?.[1];
     const segment = (await graphOf(api, station.id)).segments.find((s) => s.key === segmentKey);
     expect(segment).toBeDefined();
-    const position = await Promise.all(['x (m)', 'y (m)', 'z (m)'].map(async (l) => Number(await add.getByLabel(l).inputValue())));
+    const position = await Promise.all(
+      ['x (m)', 'y (m)', 'z (m)'].map(async (l) => Number(await add.getByLabel(l).inputValue())),
+    );
     // on the face: one coordinate at the box's half size from its centre, the others within it
     const offsets = position.map((p, i) => Math.abs(p - segment!.center[i]) - segment!.size[i] / 2);
     expect(Math.max(...offsets)).toBeCloseTo(0, 2);
@@ -170,7 +182,12 @@ describe('station edit mode', () => {
 
     await alert.getByRole('button', { name: 'Reload the model' }).click();
     await expect
-      .poll(async () => page.getByRole('form', { name: `Change node ${target.key}` }).getByLabel('Label').inputValue())
+      .poll(async () =>
+        page
+          .getByRole('form', { name: `Change node ${target.key}` })
+          .getByLabel('Label')
+          .inputValue(),
+      )
       .toBe('Admin’s label');
     await other.dispose();
   });

@@ -1,3 +1,8 @@
-export { useStationNotes, NOTES_PANEL_ID, type NotesScreenContext, type StationNotes } from './components/use-station-notes';
+export {
+  useStationNotes,
+  NOTES_PANEL_ID,
+  type NotesScreenContext,
+  type StationNotes,
+} from './components/use-station-notes';
 export { AnnotationsPanel } from './components/annotations-panel';
 export { AnnotationPins } from './components/annotation-pins';

@@ -23,14 +23,29 @@ export function addReply({ id, data }: { id: number; data: CreateReplyInput }): 
   return api.post(`/annotations/${id}/replies`, data);
 }
 
-export function updateAnnotation({ id, data }: { id: number; data: UpdateAnnotationInput }): Promise<Annotation> {
+export function updateAnnotation({
+  id,
+  data,
+}: {
+  id: number;
+  data: UpdateAnnotationInput;
+}): Promise<Annotation> {
   return api.patch(`/annotations/${id}`, data);
 }
 
-export async function uploadAttachment({ id, file }: { id: number; file: File }): Promise<AnnotationAttachment> {
+export async function uploadAttachment({
+  id,
+  file,
+}: {
+  id: number;
+  file: File;
+}): Promise<AnnotationAttachment> {
   const form = new FormData();
   form.append('file', file);
-  const { attachment } = await api.post<{ attachment: AnnotationAttachment }>(`/annotations/${id}/attachments`, form);
+  const { attachment } = await api.post<{ attachment: AnnotationAttachment }>(
+    `/annotations/${id}/attachments`,
+    form,
+  );
   return attachment;
 }
 

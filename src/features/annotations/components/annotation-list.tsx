@@ -33,7 +33,8 @@ export function AnnotationList({ annotations, onOpen }: AnnotationListProps) {
             <span className="mt-0.5 block text-xs text-text">
               <span className="font-mono">{pinText(a)}</span> · {a.replies.length}{' '}
               {a.replies.length === 1 ? 'reply' : 'replies'}
-              {a.attachments.length > 0 && ` · ${a.attachments.length} image${a.attachments.length === 1 ? '' : 's'}`}
+              {a.attachments.length > 0 &&
+                ` · ${a.attachments.length} image${a.attachments.length === 1 ? '' : 's'}`}
             </span>
             {a.attachments.length > 0 && (
               <span className="mt-1.5 flex gap-1.5">

@@ -40,14 +40,23 @@ function PinSet({ items, shape, openId, onOpen }: PinSetProps) {
 
   useLayoutEffect(() => invalidate(), [items, openId, invalidate]);
 
-  const scratch = useMemo(() => ({ m: new THREE.Matrix4(), q: new THREE.Quaternion(), p: new THREE.Vector3(), s: new THREE.Vector3() }), []);
+  const scratch = useMemo(
+    () => ({
+      m: new THREE.Matrix4(),
+      q: new THREE.Quaternion(),
+      p: new THREE.Vector3(),
+      s: new THREE.Vector3(),
+    }),
+    [],
+  );
   useFrame(({ camera }) => {
     const mesh = ref.current;
     if (!mesh) return;
     const { m, q, p, s } = scratch;
     items.forEach((a, i) => {
       p.set(...a.position);
-      const h = Math.max(MIN_HEIGHT_M, camera.position.distanceTo(p) * SCREEN_SHARE) * (a.id === openId ? 1.5 : 1);
+      const h =
+        Math.max(MIN_HEIGHT_M, camera.position.distanceTo(p) * SCREEN_SHARE) * (a.id === openId ? 1.5 : 1);
       mesh.setMatrixAt(i, m.compose(p, q, s.set(h, h, h)));
     });
     mesh.count = items.length;
@@ -68,7 +77,11 @@ function PinSet({ items, shape, openId, onOpen }: PinSetProps) {
         if (a) onOpen(a.id);
       }}
     >
-      <meshStandardMaterial color={shape === 'pin' ? OPEN_COLOR : RESOLVED_COLOR} emissive={shape === 'pin' ? OPEN_COLOR : RESOLVED_COLOR} emissiveIntensity={0.35} />
+      <meshStandardMaterial
+        color={shape === 'pin' ? OPEN_COLOR : RESOLVED_COLOR}
+        emissive={shape === 'pin' ? OPEN_COLOR : RESOLVED_COLOR}
+        emissiveIntensity={0.35}
+      />
     </instancedMesh>
   );
 }

@@ -14,7 +14,11 @@ import { Byline, StatusBadge, pinText } from './annotation-meta';
 const MAX_IMAGE_MB = 5;
 
 const sizeText = (bytes: number) =>
-  bytes < 1024 ? `${bytes} B` : bytes < 1024 * 1024 ? `${(bytes / 1024).toFixed(0)} KB` : `${(bytes / 1024 / 1024).toFixed(1)} MB`;
+  bytes < 1024
+    ? `${bytes} B`
+    : bytes < 1024 * 1024
+      ? `${(bytes / 1024).toFixed(0)} KB`
+      : `${(bytes / 1024 / 1024).toFixed(1)} MB`;
 
 function ReplyForm({ annotationId }: { annotationId: number }) {
   const { register, handleSubmit, reset, formState } = useForm<CreateReplyInput>({
@@ -23,7 +27,11 @@ function ReplyForm({ annotationId }: { annotationId: number }) {
   });
   const reply = useAddReply({ onSuccess: () => reset() });
   return (
-    <form noValidate className="space-y-2" onSubmit={handleSubmit((data) => reply.mutate({ id: annotationId, data }))}>
+    <form
+      noValidate
+      className="space-y-2"
+      onSubmit={handleSubmit((data) => reply.mutate({ id: annotationId, data }))}
+    >
       <FormError error={reply.error} fallback="The reply could not be saved." />
       <Field label="Reply" error={formState.errors.body?.message}>
         <textarea rows={3} className={cn(controlClass, 'py-2')} {...register('body')} />
@@ -108,8 +116,17 @@ export function AnnotationThread({ annotation: a, onBack }: AnnotationThreadProp
         <ul className="grid grid-cols-2 gap-2" aria-label="Images">
           {a.attachments.map((f) => (
             <li key={f.id}>
-              <a href={f.url} target="_blank" rel="noreferrer" className="block rounded focus-visible:outline-2 focus-visible:outline-accent">
-                <img src={f.url} alt={f.fileName} className="max-h-40 w-full rounded border border-surface-line object-contain" />
+              <a
+                href={f.url}
+                target="_blank"
+                rel="noreferrer"
+                className="block rounded focus-visible:outline-2 focus-visible:outline-accent"
+              >
+                <img
+                  src={f.url}
+                  alt={f.fileName}
+                  className="max-h-40 w-full rounded border border-surface-line object-contain"
+                />
               </a>
               <p className="mt-0.5 truncate text-xs text-text-muted" title={f.fileName}>
                 {f.fileName} · {sizeText(f.sizeBytes)}

@@ -26,7 +26,13 @@ export interface AnnotationsPanelProps {
   onOpen: (id: number | null) => void;
 }
 
-export function AnnotationsPanel({ stationId, selectedNodeKey, pick, openId, onOpen }: AnnotationsPanelProps) {
+export function AnnotationsPanel({
+  stationId,
+  selectedNodeKey,
+  pick,
+  openId,
+  onOpen,
+}: AnnotationsPanelProps) {
   const canWrite = useCan('annotations:write');
   const [filter, setFilter] = useState<Filter>('open');
   const [composing, setComposing] = useState(false);
@@ -53,12 +59,17 @@ export function AnnotationsPanel({ stationId, selectedNodeKey, pick, openId, onO
     );
   }
 
-  const count = (f: Filter) => (f === 'all' ? notes.data.length : notes.data.filter((a) => a.status === f).length);
+  const count = (f: Filter) =>
+    f === 'all' ? notes.data.length : notes.data.filter((a) => a.status === f).length;
   const shown = filter === 'all' ? notes.data : notes.data.filter((a) => a.status === filter);
   return (
     <div className="space-y-3">
       <div className="flex flex-wrap items-center justify-between gap-2">
-        <div role="group" aria-label="Show notes" className="inline-flex rounded-md border border-surface-line p-0.5">
+        <div
+          role="group"
+          aria-label="Show notes"
+          className="inline-flex rounded-md border border-surface-line p-0.5"
+        >
           {FILTERS.map((f) => (
             <Button
               key={f.value}
@@ -78,8 +89,8 @@ export function AnnotationsPanel({ stationId, selectedNodeKey, pick, openId, onO
         )}
       </div>
       <p className="text-xs text-text-muted">
-        In 3D, an open note is a blue ball on a stalk standing on its spot; a resolved one is a grey ring above it. Click a pin to open
-        its thread.
+        In 3D, an open note is a blue ball on a stalk standing on its spot; a resolved one is a grey ring
+        above it. Click a pin to open its thread.
       </p>
       <AnnotationList annotations={shown} onOpen={(id) => onOpen(id)} />
     </div>

@@ -31,7 +31,13 @@ interface NewAnnotationFormProps {
 
 const round3 = (v: number) => Math.round(v * 1000) / 1000;
 
-export function NewAnnotationForm({ stationId, selectedNodeKey, pick, onCreated, onCancel }: NewAnnotationFormProps) {
+export function NewAnnotationForm({
+  stationId,
+  selectedNodeKey,
+  pick,
+  onCreated,
+  onCancel,
+}: NewAnnotationFormProps) {
   const [pinTo, setPinTo] = useState<'node' | 'point'>(selectedNodeKey ? 'node' : 'point');
   const [point, setPoint] = useState<{ position: Vec3; segmentKey?: string } | null>(null);
   const [armed, setArmed] = useState(!selectedNodeKey);
@@ -50,7 +56,10 @@ export function NewAnnotationForm({ stationId, selectedNodeKey, pick, onCreated,
   useEffect(() => {
     if (!armed || !pick || pick === consumed.current) return;
     consumed.current = pick;
-    setPoint({ position: [round3(pick.point[0]), round3(pick.point[1]), round3(pick.point[2])], segmentKey: pick.segmentKey });
+    setPoint({
+      position: [round3(pick.point[0]), round3(pick.point[1]), round3(pick.point[2])],
+      segmentKey: pick.segmentKey,
+    });
     setArmed(false);
   }, [pick, armed]);
 
@@ -103,8 +112,17 @@ export function NewAnnotationForm({ stationId, selectedNodeKey, pick, onCreated,
           </span>
         </label>
         {pinTo === 'point' && (
-          <Button size="sm" variant={armed ? 'primary' : 'secondary'} aria-pressed={armed} onClick={() => setArmed(!armed)}>
-            {armed ? 'Click a surface in the 3D view… (cancel)' : point ? 'Pick another point' : 'Pick a point'}
+          <Button
+            size="sm"
+            variant={armed ? 'primary' : 'secondary'}
+            aria-pressed={armed}
+            onClick={() => setArmed(!armed)}
+          >
+            {armed
+              ? 'Click a surface in the 3D view… (cancel)'
+              : point
+                ? 'Pick another point'
+                : 'Pick a point'}
           </Button>
         )}
         <p aria-live="polite" className="text-sm text-danger empty:hidden">

@@ -16,18 +16,21 @@ export function describeAuditAction(action: string): string {
 export function AuditList({ stationId }: { stationId: number }) {
   const audit = useStationAudit(stationId);
   if (audit.isPending) return <Spinner label="Loading recent edits" />;
-  if (audit.isError) return <FormError error={audit.error} fallback="The recent edits could not be loaded." />;
+  if (audit.isError)
+    return <FormError error={audit.error} fallback="The recent edits could not be loaded." />;
   if (!audit.data.length) return <EmptyState>No edits yet.</EmptyState>;
   return (
     <ol className="divide-y divide-surface-line text-sm" aria-label="Recent edits">
       {audit.data.map((entry) => (
         <li key={entry.id} className="py-2">
           <p className="text-text-strong">
-            <span className="font-medium">{entry.user?.name ?? 'Someone'}</span> {describeAuditAction(entry.action)}
+            <span className="font-medium">{entry.user?.name ?? 'Someone'}</span>{' '}
+            {describeAuditAction(entry.action)}
             {entry.target && <span className="font-mono"> {entry.target}</span>}
           </p>
           <p className="text-xs text-text-muted">
-            <time dateTime={entry.createdAt}>{formatDateTime(entry.createdAt)}</time> · version {entry.versionAfter}
+            <time dateTime={entry.createdAt}>{formatDateTime(entry.createdAt)}</time> · version{' '}
+            {entry.versionAfter}
           </p>
         </li>
       ))}

@@ -108,7 +108,11 @@ export function ConnectForm({ graph, selectedKey, isSaving, onSubmit }: ConnectF
         <Field label="Kind" error={errors.kind?.message}>
           <Select options={EDGE_KIND_OPTIONS} {...register('kind')} />
         </Field>
-        <Field label="Length (optional)" error={errors.length?.message} hint="Blank: from the positions. 3.2 m or 10.5 ft">
+        <Field
+          label="Length (optional)"
+          error={errors.length?.message}
+          hint="Blank: from the positions. 3.2 m or 10.5 ft"
+        >
           <Input autoComplete="off" {...register('length')} />
         </Field>
       </div>

@@ -23,9 +23,7 @@ export function DeleteNodeButton({ nodeKey, edges, isSaving, onConfirm }: Delete
         <div className="space-y-3 text-sm">
           {going.length ? (
             <>
-              <p>
-                {going.length === 1 ? 'This edge goes' : `These ${going.length} edges go`} with it:
-              </p>
+              <p>{going.length === 1 ? 'This edge goes' : `These ${going.length} edges go`} with it:</p>
               <ul className="max-h-48 list-disc overflow-y-auto pl-5 font-mono text-xs">
                 {going.map((e) => (
                   <li key={e.id}>{describeEdge(e)}</li>

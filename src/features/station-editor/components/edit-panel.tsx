@@ -1,4 +1,4 @@
-import { useState, type ReactNode } from 'react';
+import { useEffect, useRef, useState, type ReactNode } from 'react';
 import type { Vec3 } from '@shared/schemas/station';
 import { Alert } from '@/components/ui/alert';
 import { Badge } from '@/components/ui/badge';
@@ -50,7 +50,9 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
     onChanged,
     onSuccess: (result, { edit }) => {
       if (typeof result?.version === 'number') setSavedVersion(result.version);
-      setSaved(`Saved: ${describeStationEdit(edit)}${result?.version ? ` (version ${result.version})` : ''}.`);
+      setSaved(
+        `Saved: ${describeStationEdit(edit)}${result?.version ? ` (version ${result.version})` : ''}.`,
+      );
       if (edit.type === 'create-node') {
         setCreatedCount((c) => c + 1);
         onSelectNode(edit.node.key);
@@ -65,6 +67,13 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
   };
   const isSaving = mutation.isPending;
   const failedEdit = mutation.isError ? mutation.variables?.edit : undefined;
+  // the outcome shows above the sections; the Save button that caused it may be far below
+  const status = useRef<HTMLDivElement>(null);
+  useEffect(() => {
+    if (!failedEdit && !saved) return;
+    status.current?.scrollIntoView?.({ block: 'nearest' });
+    status.current?.focus({ preventScroll: true });
+  }, [failedEdit, saved]);
   const selected = selectedKey ? graph.nodes.find((n) => n.key === selectedKey) : undefined;
   const around: Vec3 = selected?.position ?? [0, 0, 0];
   const editingHazard = graph.hazards.find((h) => h.key === hazardKey);
@@ -74,19 +83,21 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
       <p className="text-xs text-text-muted">
         Editing version {version}. A change made against an older version is refused, never merged.
       </p>
-      {failedEdit && (
-        <ConflictNotice
-          error={mutation.error}
-          stationId={stationId}
-          what={describeStationEdit(failedEdit)}
-          onReload={() => {
-            mutation.reset();
-            onChanged();
-          }}
-          onReapply={(current) => mutation.mutate({ version: current, edit: failedEdit })}
-        />
-      )}
-      {saved && !mutation.isError && <Alert tone="success">{saved}</Alert>}
+      <div ref={status} tabIndex={-1} className="space-y-2 scroll-mt-4 focus:outline-none">
+        {failedEdit && (
+          <ConflictNotice
+            error={mutation.error}
+            stationId={stationId}
+            what={describeStationEdit(failedEdit)}
+            onReload={() => {
+              mutation.reset();
+              onChanged();
+            }}
+            onReapply={(current) => mutation.mutate({ version: current, edit: failedEdit })}
+          />
+        )}
+        {saved && !mutation.isError && <Alert tone="success">{saved}</Alert>}
+      </div>
 
       <Section title={selected ? `Selected node ${selected.key}` : 'Selected node'} open>
         {selected ? (
@@ -108,7 +119,9 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
             />
           </>
         ) : (
-          <EmptyState>Select a node in the 3D view or the node list to move, change, connect or delete it.</EmptyState>
+          <EmptyState>
+            Select a node in the 3D view or the node list to move, change, connect or delete it.
+          </EmptyState>
         )}
       </Section>
 
@@ -134,7 +147,12 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
               <span className="flex-1 font-mono">{h.key}</span>
               <Badge tone={h.kind === 'keep-out' ? 'danger' : 'caution'}>{h.kind}</Badge>
               <span className="text-xs text-text-muted">{h.shape}</span>
-              <Button size="sm" variant="secondary" aria-label={`Change hazard ${h.key}`} onClick={() => setHazardKey(h.key)}>
+              <Button
+                size="sm"
+                variant="secondary"
+                aria-label={`Change hazard ${h.key}`}
+                onClick={() => setHazardKey(h.key)}
+              >
                 Change
               </Button>
               <Button
@@ -164,7 +182,12 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
       </Section>
 
       <Section title="Station settings and orbit">
-        <SettingsForm key={graph.station.version} station={graph.station} isSaving={isSaving} onSubmit={submit} />
+        <SettingsForm
+          key={graph.station.version}
+          station={graph.station}
+          isSaving={isSaving}
+          onSubmit={submit}
+        />
       </Section>
 
       <Section title="Recent edits" open>

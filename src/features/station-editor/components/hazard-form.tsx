@@ -88,7 +88,10 @@ export function HazardForm({ hazard, existingKeys, around, isSaving, onSubmit, o
   });
   const shape = watch('shape');
   const values = watch();
-  const err = errors as Record<string, { message?: string; [i: number]: { message?: string } | undefined } | undefined>;
+  const err = errors as Record<
+    string,
+    { message?: string; [i: number]: { message?: string } | undefined } | undefined
+  >;
   const vecErrors = (name: string) => [0, 1, 2].map((i) => err[name]?.[i]?.message ?? err[name]?.message);
   const vec = (name: 'center' | 'min' | 'max') =>
     [0, 1, 2].map((i) => register(`${name}.${i as 0 | 1 | 2}`, { valueAsNumber: true })) as never;
@@ -107,7 +110,12 @@ export function HazardForm({ hazard, existingKeys, around, isSaving, onSubmit, o
   });
 
   return (
-    <form noValidate onSubmit={submit} className="space-y-3" aria-label={hazard ? `Change hazard ${hazard.key}` : 'Add hazard'}>
+    <form
+      noValidate
+      onSubmit={submit}
+      className="space-y-3"
+      aria-label={hazard ? `Change hazard ${hazard.key}` : 'Add hazard'}
+    >
       <div className="grid grid-cols-2 gap-2">
         <Field label="Key" error={errors.key?.message}>
           <Input autoComplete="off" readOnly={!!hazard} className="font-mono" {...register('key')} />
@@ -126,19 +134,39 @@ export function HazardForm({ hazard, existingKeys, around, isSaving, onSubmit, o
       </div>
       {shape === 'sphere' ? (
         <>
-          <Vec3Fields legend="Centre" values={values.center} errors={vecErrors('center')} fields={vec('center')} />
+          <Vec3Fields
+            legend="Centre"
+            values={values.center}
+            errors={vecErrors('center')}
+            fields={vec('center')}
+          />
           <Field
             label="Radius (m)"
             error={err.radiusM?.message}
             hint={Number.isFinite(values.radiusM) ? formatLength(values.radiusM, 'ft', 2) : undefined}
           >
-            <Input type="number" step="any" inputMode="decimal" {...register('radiusM', { valueAsNumber: true })} />
+            <Input
+              type="number"
+              step="any"
+              inputMode="decimal"
+              {...register('radiusM', { valueAsNumber: true })}
+            />
           </Field>
         </>
       ) : (
         <>
-          <Vec3Fields legend="Minimum corner" values={values.min} errors={vecErrors('min')} fields={vec('min')} />
-          <Vec3Fields legend="Maximum corner" values={values.max} errors={vecErrors('max')} fields={vec('max')} />
+          <Vec3Fields
+            legend="Minimum corner"
+            values={values.min}
+            errors={vecErrors('min')}
+            fields={vec('min')}
+          />
+          <Vec3Fields
+            legend="Maximum corner"
+            values={values.max}
+            errors={vecErrors('max')}
+            fields={vec('max')}
+          />
         </>
       )}
       <div className="flex justify-end gap-2">

@@ -34,7 +34,9 @@ export function NodeEdges({ nodeKey, edges, isSaving, onSubmit }: NodeEdgesProps
               variant="secondary"
               disabled={isSaving}
               aria-label={`${e.closed ? 'Open' : 'Close'} edge ${name}`}
-              onClick={() => onSubmit({ type: 'update-edge', edgeId: e.id, name, edge: { closed: !e.closed } })}
+              onClick={() =>
+                onSubmit({ type: 'update-edge', edgeId: e.id, name, edge: { closed: !e.closed } })
+              }
             >
               {e.closed ? 'Open' : 'Close'}
             </Button>

@@ -34,7 +34,11 @@ const NodeFormSchema = z
   })
   .superRefine((v, ctx) => {
     if (v.kind === 'socket' && !normalise(v.normal)) {
-      ctx.addIssue({ code: 'custom', path: ['normal', 0], message: 'a socket needs a normal that is not zero' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['normal', 0],
+        message: 'a socket needs a normal that is not zero',
+      });
     }
   });
 type NodeFormValues = z.infer<typeof NodeFormSchema>;
@@ -56,9 +60,7 @@ interface NodeFormProps {
 
 export function NodeForm({ graph, node, selectedKey, pick, isSaving, onSubmit }: NodeFormProps) {
   const isNew = !node;
-  const prefixRef = useRef(
-    (selectedKey && keyPrefix(selectedKey)) ?? graph.segments[0]?.key ?? 'N',
-  );
+  const prefixRef = useRef((selectedKey && keyPrefix(selectedKey)) ?? graph.segments[0]?.key ?? 'N');
   const suggested = useRef('');
   const suggest = (kind: NodeKind) => {
     suggested.current = suggestNodeKey(
@@ -91,7 +93,14 @@ export function NodeForm({ graph, node, selectedKey, pick, isSaving, onSubmit }:
           position: [...node.position],
           normal: node.normal ? [...node.normal] : [0, 0, 1],
         }
-      : { key: suggest('anchor'), kind: 'anchor', label: '', notes: '', position: [0, 0, 0], normal: [0, 0, 1] },
+      : {
+          key: suggest('anchor'),
+          kind: 'anchor',
+          label: '',
+          notes: '',
+          position: [0, 0, 0],
+          normal: [0, 0, 1],
+        },
   });
   const kind = watch('kind');
   const position = watch('position');
@@ -152,7 +161,8 @@ export function NodeForm({ graph, node, selectedKey, pick, isSaving, onSubmit }:
       normal: socketNormal,
     });
     if (!parsed.success) {
-      for (const issue of parsed.error.issues) setError(issue.path.join('.') as 'key', { message: issue.message });
+      for (const issue of parsed.error.issues)
+        setError(issue.path.join('.') as 'key', { message: issue.message });
       return;
     }
     onSubmit({ type: 'create-node', node: parsed.data });
@@ -167,7 +177,12 @@ export function NodeForm({ graph, node, selectedKey, pick, isSaving, onSubmit }:
   const vecErrors = (e: typeof errors.position) => [0, 1, 2].map((i) => e?.[i]?.message ?? e?.message);
 
   return (
-    <form noValidate onSubmit={submit} className="space-y-3" aria-label={isNew ? 'Add node' : `Change node ${node.key}`}>
+    <form
+      noValidate
+      onSubmit={submit}
+      className="space-y-3"
+      aria-label={isNew ? 'Add node' : `Change node ${node.key}`}
+    >
       {isNew && (
         <div className="space-y-1">
           <Button
@@ -188,7 +203,11 @@ export function NodeForm({ graph, node, selectedKey, pick, isSaving, onSubmit }:
         </div>
       )}
       <div className="grid grid-cols-2 gap-2">
-        <Field label="Key" error={errors.key?.message} hint={isNew ? 'Next free key suggested' : 'Keys cannot be renamed'}>
+        <Field
+          label="Key"
+          error={errors.key?.message}
+          hint={isNew ? 'Next free key suggested' : 'Keys cannot be renamed'}
+        >
           <Input autoComplete="off" readOnly={!isNew} className="font-mono" {...register('key')} />
         </Field>
         <Field label="Kind" error={errors.kind?.message}>
@@ -202,7 +221,9 @@ export function NodeForm({ graph, node, selectedKey, pick, isSaving, onSubmit }:
         legend="Position"
         values={position}
         errors={vecErrors(errors.position)}
-        fields={[0, 1, 2].map((i) => register(`position.${i as 0 | 1 | 2}`, { valueAsNumber: true })) as never}
+        fields={
+          [0, 1, 2].map((i) => register(`position.${i as 0 | 1 | 2}`, { valueAsNumber: true })) as never
+        }
         onNudge={nudge}
       />
       {kind === 'socket' && (
@@ -211,7 +232,9 @@ export function NodeForm({ graph, node, selectedKey, pick, isSaving, onSubmit }:
           lengths={false}
           values={normal}
           errors={vecErrors(errors.normal)}
-          fields={[0, 1, 2].map((i) => register(`normal.${i as 0 | 1 | 2}`, { valueAsNumber: true })) as never}
+          fields={
+            [0, 1, 2].map((i) => register(`normal.${i as 0 | 1 | 2}`, { valueAsNumber: true })) as never
+          }
         />
       )}
       <Field label="Notes" error={errors.notes?.message}>

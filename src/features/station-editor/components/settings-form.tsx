@@ -34,7 +34,12 @@ const SettingsOutputSchema = z.object({
 /** The form's tether text becomes metres; the rest goes through the station document's own schemas. */
 function settingsFormSchema(current: StationSettings) {
   return z
-    .object({ name: z.string(), tether: z.string(), settings: z.record(z.string(), z.unknown()), orbit: z.unknown() })
+    .object({
+      name: z.string(),
+      tether: z.string(),
+      settings: z.record(z.string(), z.unknown()),
+      orbit: z.unknown(),
+    })
     .superRefine((v, ctx) => {
       const parsed = parseLength(v.tether);
       if (!parsed.ok) ctx.addIssue({ code: 'custom', path: ['tether'], message: parsed.message });
@@ -88,7 +93,12 @@ export function SettingsForm({ station, isSaving, onSubmit }: SettingsFormProps)
   const reach = watch('settings.reach');
   const e = errors.settings;
   const num = { valueAsNumber: true } as const;
-  const numberInput = { type: 'number', step: 'any', inputMode: 'decimal' as const, className: 'tabular-nums' };
+  const numberInput = {
+    type: 'number',
+    step: 'any',
+    inputMode: 'decimal' as const,
+    className: 'tabular-nums',
+  };
 
   return (
     <form
@@ -105,7 +115,9 @@ export function SettingsForm({ station, isSaving, onSubmit }: SettingsFormProps)
         error={errors.tether?.message}
         hint={
           <>
-            {tether.ok ? `${formatLength(tether.value, 'm', 2)} = ${formatLength(tether.value, 'ft', 1)}. ` : ''}
+            {tether.ok
+              ? `${formatLength(tether.value, 'm', 2)} = ${formatLength(tether.value, 'ft', 1)}. `
+              : ''}
             85 ft (25.9 m) is the commonly reported station safety tether (press reports).
           </>
         }
