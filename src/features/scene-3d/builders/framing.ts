@@ -2,11 +2,11 @@ import * as THREE from 'three';
 import { STATION_UP } from './frame';
 
 /**
- * Where the camera must stand to see a box whole along `direction`: every corner of the box is
- * projected onto the view plane, so a long truss seen end-on or obliquely fills the frame. Zenith
+ * Where the camera must stand to see a box whole along `direction`: every point (the model's
+ * outline points, or a box's corners) is projected onto the view plane, so a long truss seen end-on or obliquely fills the frame. Zenith
  * and nadir views lean a hair towards fore, so the camera's up (+z) is never parallel to the view.
  */
-export function framing(box: THREE.Box3, direction: THREE.Vector3, fovDeg: number, aspect: number, minRadiusM = 0.5) {
+export function framing(subject: THREE.Box3 | readonly THREE.Vector3[], direction: THREE.Vector3, fovDeg: number, aspect: number, minRadiusM = 0.5) {
   const up = new THREE.Vector3(...STATION_UP);
   const dir = direction.clone().normalize();
   if (Math.abs(dir.dot(up)) > 0.999) dir.add(new THREE.Vector3(0, 1e-3, 0)).normalize();
@@ -14,15 +14,24 @@ export function framing(box: THREE.Box3, direction: THREE.Vector3, fovDeg: numbe
   const screenUp = new THREE.Vector3().crossVectors(right, dir.clone().negate()).normalize();
   const tanV = Math.tan((fovDeg * Math.PI) / 360);
   const tanH = tanV * aspect;
+  const points = Array.isArray(subject) ? subject : boxCorners(subject as THREE.Box3);
+  const box = new THREE.Box3().setFromPoints(points);
   const center = box.getCenter(new THREE.Vector3());
   const radius = Math.max(box.getBoundingSphere(new THREE.Sphere()).radius, minRadiusM);
   let distance = minRadiusM / Math.min(tanV, tanH);
   const corner = new THREE.Vector3();
-  for (let i = 0; i < 8; i++) {
-    corner.set(i & 1 ? box.max.x : box.min.x, i & 2 ? box.max.y : box.min.y, i & 4 ? box.max.z : box.min.z).sub(center);
+  for (const point of points) {
+    corner.copy(point).sub(center);
     const toward = corner.dot(dir);
     distance = Math.max(distance, Math.abs(corner.dot(right)) / tanH + toward, Math.abs(corner.dot(screenUp)) / tanV + toward);
   }
   distance *= 1.08;
   return { target: center, position: center.clone().addScaledVector(dir, distance), distance, radius };
+}
+
+export function boxCorners(box: THREE.Box3): THREE.Vector3[] {
+  return Array.from(
+    { length: 8 },
+    (_, i) => new THREE.Vector3(i & 1 ? box.max.x : box.min.x, i & 2 ? box.max.y : box.min.y, i & 4 ? box.max.z : box.min.z),
+  );
 }

@@ -1,10 +1,10 @@
 import * as THREE from 'three';
-import { NODE_KINDS, type Hazard, type NodeKind, type Segment, type StationNode } from '@shared/schemas/station';
+import { NODE_KINDS, type Hazard, type NodeKind, type Segment, type StationNode, type Vec3 } from '@shared/schemas/station';
 import { buildEdgeLines, type SceneEdge } from './edges';
 import { buildGlyphLayers } from './glyphs';
 import { buildHazardMeshes } from './hazards';
 import { SCENE_COLORS } from './scene-colors';
-import { buildSegmentMeshes } from './segments';
+import { buildSegmentMeshes, segmentMatrix } from './segments';
 import { buildTrussGeometry } from './truss';
 
 /** What the scene draws: a station document and the graph endpoint's answer both fit. */
@@ -35,6 +35,8 @@ export interface StationObjects {
   /** node key → its position, kind and instance in its kind's mesh */
   nodeIndex: Map<string, { kind: NodeKind; instance: number; position: THREE.Vector3 }>;
   bounds: THREE.Box3;
+  /** what the camera frames: nodes, segment box corners, hazard extremes */
+  outline: THREE.Vector3[];
   dispose(): void;
 }
 
@@ -72,6 +74,7 @@ export function buildStationObjects(station: SceneStation): StationObjects {
 
   root.add(...truss, ...handrails, ...glyphLayers.map((l) => l.mesh), ...hazards);
   const bounds = stationBounds(station);
+  const outline = stationOutline(station);
   return {
     root,
     truss,
@@ -80,6 +83,7 @@ export function buildStationObjects(station: SceneStation): StationObjects {
     hazards,
     nodeIndex,
     bounds,
+    outline,
     dispose() {
       root.traverse((o) => {
         const drawn = o as THREE.Mesh;
@@ -124,4 +128,28 @@ export function applyLayers(objects: StationObjects, layers: SceneLayers): void 
     const mesh = objects.glyphs[kind];
     if (mesh) mesh.visible = layers[kind];
   }
+}
+
+/** The points a view of the whole station must keep in frame: tighter than the bounding box's corners. */
+export function stationOutline(station: SceneStation): THREE.Vector3[] {
+  const points = station.nodes.map((n) => new THREE.Vector3(...n.position));
+  const m = new THREE.Matrix4();
+  for (const s of station.segments) {
+    segmentMatrix(s, m);
+    for (let i = 0; i < 8; i++) {
+      const sign = (bit: number) => (i & bit ? 0.5 : -0.5);
+      points.push(new THREE.Vector3(sign(1) * s.size[0], sign(2) * s.size[1], sign(4) * s.size[2]).applyMatrix4(m));
+    }
+  }
+  for (const h of station.hazards) {
+    const { min, max } = hazardBox(h);
+    points.push(new THREE.Vector3(...min), new THREE.Vector3(...max));
+  }
+  return points.length ? points : [new THREE.Vector3(-1, -1, -1), new THREE.Vector3(1, 1, 1)];
+}
+
+function hazardBox(h: Hazard): { min: Vec3; max: Vec3 } {
+  if (h.shape === 'box') return { min: h.min, max: h.max };
+  const r = h.radiusM;
+  return { min: [h.center[0] - r, h.center[1] - r, h.center[2] - r], max: [h.center[0] + r, h.center[1] + r, h.center[2] + r] };
 }

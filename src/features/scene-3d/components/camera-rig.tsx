@@ -12,15 +12,15 @@ import type { SceneApi } from './scene-api';
 const FOCUS_RADIUS_M = 4;
 const HOME_DIRECTION = new THREE.Vector3(0.55, 0.75, 0.45).normalize();
 
-export function CameraRig({ bounds, apiRef }: { bounds: THREE.Box3; apiRef: Ref<SceneApi> }) {
+export function CameraRig({ outline, apiRef }: { outline: readonly THREE.Vector3[]; apiRef: Ref<SceneApi> }) {
   const get = useThree((s) => s.get);
   const invalidate = useThree((s) => s.invalidate);
   const controls = useRef<OrbitControlsImpl>(null);
 
   const api = useMemo<SceneApi>(() => {
-    const frame = (box: THREE.Box3, direction: THREE.Vector3, minRadiusM?: number) => {
+    const frame = (subject: readonly THREE.Vector3[], direction: THREE.Vector3, minRadiusM?: number) => {
       const camera = get().camera as THREE.PerspectiveCamera;
-      const f = framing(box, direction, camera.fov, camera.aspect || 1, minRadiusM);
+      const f = framing(subject, direction, camera.fov, camera.aspect || 1, minRadiusM);
       camera.position.copy(f.position);
       camera.near = Math.max(0.01, f.distance / 1000);
       camera.far = f.distance + f.radius * 20;
@@ -40,16 +40,14 @@ export function CameraRig({ bounds, apiRef }: { bounds: THREE.Box3; apiRef: Ref<
     };
     return {
       fitToView(points?: readonly Vec3[]) {
-        const box = points?.length
-          ? new THREE.Box3().setFromPoints(points.map((p) => new THREE.Vector3(...p)))
-          : bounds;
-        frame(box, currentDirection(), points?.length ? FOCUS_RADIUS_M : undefined);
+        const subject = points?.length ? points.map((p) => new THREE.Vector3(...p)) : outline;
+        frame(subject, currentDirection(), points?.length ? FOCUS_RADIUS_M : undefined);
       },
       setPresetView(name: PresetView | 'home') {
-        frame(bounds, name === 'home' ? HOME_DIRECTION.clone() : new THREE.Vector3(...PRESET_DIRECTIONS[name]));
+        frame(outline, name === 'home' ? HOME_DIRECTION.clone() : new THREE.Vector3(...PRESET_DIRECTIONS[name]));
       },
     };
-  }, [bounds, get, invalidate]);
+  }, [outline, get, invalidate]);
 
   useImperativeHandle(apiRef, () => api, [api]);
   useEffect(() => api.setPresetView('home'), [api]);

@@ -106,7 +106,7 @@ export function StationScene({
           )}
           {layers.labels && <NodeLabels station={graph} hidden={selection?.type === 'node' ? selection.key : null} />}
           {overlays}
-          <CameraRig bounds={objects.bounds} apiRef={innerApi} />
+          <CameraRig outline={objects.outline} apiRef={innerApi} />
           <GizmoHelper alignment="bottom-left" margin={[64, 64]}>
             <GizmoViewport labels={['S', 'F', 'Z']} labelColor="#0a1220" axisHeadScale={0.9} />
           </GizmoHelper>
