@@ -4,6 +4,7 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import { StationDocumentSchema } from '@shared/schemas/station';
 import type { StationGraph } from '@shared/schemas/station-edits';
 import { EditPanel } from '@/features/station-editor/components/edit-panel';
+import { changedFields } from '@/features/station-editor/components/node-form';
 import { suggestNodeKey } from '@/features/station-editor/utils/node-keys';
 import { buildStationDocument, FIXTURE_KEYS } from '../factories/station-document';
 import { render, typeInto, until, type Rendered } from './render';
@@ -237,5 +238,25 @@ describe('EditPanel', () => {
     expect(sent[1].body.node).toEqual(sent[0].body.node);
     expect(sent[1].body.node?.label).toBe('Stanchion 3');
     expect(onChanged).toHaveBeenCalled();
+  });
+});
+
+describe('changedFields', () => {
+  it('sends only what differs from the loaded node, so a re-apply leaves others’ fields alone', () => {
+    const node = {
+      key: 'PB3-A07',
+      kind: 'anchor' as const,
+      label: 'Old',
+      position: [1, 2, 3] as [number, number, number],
+    };
+    expect(changedFields(node, { kind: 'anchor', label: 'Old', notes: null, position: [1, 2, 3] })).toEqual(
+      {},
+    );
+    expect(changedFields(node, { kind: 'anchor', label: 'New', notes: null, position: [1, 2, 3.1] })).toEqual(
+      {
+        label: 'New',
+        position: [1, 2, 3.1],
+      },
+    );
   });
 });

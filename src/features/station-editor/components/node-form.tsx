@@ -19,9 +19,12 @@ import { Input, controlClass } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import { cn } from '@/lib/cn';
 import type { StationEdit } from '../api/edit-station';
+import type { NodeChangesSchema } from '@shared/schemas/station-edits';
 import { keyPrefix, normalise, suggestNodeKey } from '../utils/node-keys';
 import type { EditableGraph, SurfacePick } from '../utils/types';
 import { Vec3Fields } from './vec3-fields';
+
+type NodeChanges = z.infer<typeof NodeChangesSchema>;
 
 const NodeFormSchema = z
   .object({
@@ -44,6 +47,17 @@ const NodeFormSchema = z
 type NodeFormValues = z.infer<typeof NodeFormSchema>;
 
 export const KIND_OPTIONS = NODE_KINDS.map((k) => ({ value: k, label: k }));
+/**
+ * Only what the user changed is sent, so re-applying after someone else's edit leaves their other
+ * fields alone.
+ */
+export function changedFields(node: StationNode, next: NodeChanges): NodeChanges {
+  const same = (a: unknown, b: unknown) => JSON.stringify(a ?? null) === JSON.stringify(b ?? null);
+  return Object.fromEntries(
+    Object.entries(next).filter(([k, v]) => !same(node[k as keyof StationNode], v)),
+  ) as NodeChanges;
+}
+
 const round3 = (v: number) => Math.round(v * 1000) / 1000;
 const round3v = (v: Vec3): Vec3 => [round3(v[0]), round3(v[1]), round3(v[2])];
 
@@ -135,17 +149,15 @@ export function NodeForm({ graph, node, selectedKey, pick, isSaving, onSubmit }:
   const submit = handleSubmit((v) => {
     const socketNormal = v.kind === 'socket' ? (normalise(v.normal) ?? undefined) : undefined;
     if (node) {
-      onSubmit({
-        type: 'update-node',
-        key: node.key,
-        node: {
-          kind: v.kind,
-          label: v.label.trim() || null,
-          notes: v.notes.trim() || null,
-          position: v.position,
-          ...(socketNormal ? { normal: socketNormal } : {}),
-        },
+      const changes = changedFields(node, {
+        kind: v.kind,
+        label: v.label.trim() || null,
+        notes: v.notes.trim() || null,
+        position: v.position,
+        ...(socketNormal ? { normal: socketNormal } : {}),
       });
+      if (Object.keys(changes).length) onSubmit({ type: 'update-node', key: node.key, node: changes });
+      else setError('root', { message: 'Nothing changed.' });
       return;
     }
     if (graph.nodes.some((n) => n.key === v.key)) {
@@ -240,7 +252,10 @@ export function NodeForm({ graph, node, selectedKey, pick, isSaving, onSubmit }:
       <Field label="Notes" error={errors.notes?.message}>
         <textarea rows={2} className={cn(controlClass, 'py-2')} {...register('notes')} />
       </Field>
-      <div className="flex justify-end">
+      <div className="flex items-center justify-end gap-3">
+        <p role="status" className="text-sm text-text-muted">
+          {errors.root?.message}
+        </p>
         <Button type="submit" isLoading={isSaving}>
           {isNew ? 'Add node' : 'Save node'}
         </Button>
