@@ -260,3 +260,53 @@ describe('changedFields', () => {
     );
   });
 });
+
+describe('EditPanel settings and hazards', () => {
+  it('reads a tether typed in feet as metres (1 ft = 0.3048 m, NIST SP 811) and sends it with the version', async () => {
+    const sent = fakeStationApi({ version: 2, by: 'Erin Engineer' });
+    rendered = await render(
+      <EditPanel
+        graph={graphAt(2)}
+        selectedKey={null}
+        onSelectNode={vi.fn()}
+        pick={null}
+        onChanged={vi.fn()}
+      />,
+    );
+    const settings = form(rendered.container, 'Station settings');
+    await typeInto(field(settings, 'Default tether length (m, or type ft)'), '85 ft');
+    await until(() => settings.textContent?.includes('25.91 m = 85.0 ft'));
+    await click(settings, 'Save settings');
+    await until(() => sent.length === 1);
+    const body = sent[0].body as { version: number; settings: { tetherLengthM: number; speedsMps: object } };
+    expect(sent[0]).toMatchObject({ method: 'PATCH', path: '/api/stations/1' });
+    expect(body.version).toBe(2);
+    expect(body.settings.tetherLengthM).toBeCloseTo(85 * 0.3048, 9);
+    expect(body.settings.speedsMps).toEqual({ handrail: 0.1, hop: 0.1, ride: 0.05 });
+  });
+
+  it('refuses a box hazard whose max is not above its min, by the station schema, and sends nothing', async () => {
+    const sent = fakeStationApi({ version: 2, by: 'Erin Engineer' });
+    rendered = await render(
+      <EditPanel
+        graph={graphAt(2)}
+        selectedKey={null}
+        onSelectNode={vi.fn()}
+        pick={null}
+        onChanged={vi.fn()}
+      />,
+    );
+    const hazard = form(rendered.container, 'Add hazard');
+    await typeInto(field(hazard, 'Key'), 'PUMP-1');
+    const shape = [...hazard.querySelectorAll('select')][1];
+    await act(async () => {
+      shape.value = 'box';
+      shape.dispatchEvent(new Event('change', { bubbles: true }));
+    });
+    const maxX = [...hazard.querySelectorAll('fieldset')][1].querySelector('input') as HTMLInputElement;
+    await typeInto(maxX, '-5');
+    await click(hazard, 'Add hazard');
+    await until(() => hazard.textContent?.includes('box max must be greater than min on every axis'));
+    expect(sent).toEqual([]);
+  });
+});
