@@ -94,14 +94,15 @@ export async function createApp(options: CreateAppOptions = {}): Promise<AppInst
   app.use('/api', apiNotFound);
 
   const clientDir = config.clientDir;
-  if (clientDir && fs.existsSync(path.join(clientDir, 'index.html'))) {
+  if (clientDir) {
+    const indexHtml = path.join(clientDir, 'index.html');
     app.use('/assets', express.static(path.join(clientDir, 'assets'), { immutable: true, maxAge: '1y', fallthrough: false }));
     app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
-    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html')));
-  } else {
-    app.get('/{*splat}', (_req, res) =>
-      res.status(503).type('text/plain').send('The client is not built yet: run `npm run build` (npm start does it for you).'),
-    );
+    // looked up per request, so a client rebuilt while the server runs is picked up
+    app.get('/{*splat}', (_req, res) => {
+      if (fs.existsSync(indexHtml)) return res.sendFile(indexHtml);
+      res.status(503).type('text/plain').send('The client is not built yet: run `npm run build` (npm start does it for you).');
+    });
   }
   app.use(errorHandler(logger));
 
