@@ -152,8 +152,17 @@ describe('station edit mode', () => {
     await signIn('engineer');
     const other = await apiAs('admin');
     const station = await kestrel(other);
+    // a node of this test's own, so the demo model other tests read keeps its labels
+    const target = {
+      key: `E2E-J${Date.now() % 100000}`,
+      kind: 'junction' as const,
+      position: [0, 5, 5] as const,
+    };
+    const created = await other.post(`/api/stations/${station.id}/nodes`, {
+      data: { version: (await graphOf(other, station.id)).station.version, node: target },
+    });
+    expect(created.status()).toBe(201);
     await openStation(station.id);
-    const target = (await graphOf(other, station.id)).nodes.find((n) => n.kind === 'junction')!;
 
     await page.getByRole('tab', { name: 'Edit' }).click();
     await selectFromList(target.key);
