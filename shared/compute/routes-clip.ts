@@ -28,6 +28,17 @@ export interface ClipGraph {
   buildMs: number;
   memoryBytes: number;
   query: ClipQueryState | null;
+  /** stretches kept for a `sum` search, by swap cost in stretch seconds (see pruneStretches) */
+  pruned: Map<number, ClipRows>;
+  /** the stretches worth a swap at their far end (see swapPointRows) */
+  swapRows: ClipRows;
+}
+
+export interface ClipRows {
+  offsets: Int32Array;
+  targets: Int32Array;
+  seconds: Float64Array;
+  buildMs: number;
 }
 
 const UNREACHED = 0x3fffffff;
@@ -221,6 +232,7 @@ function buildClipGraph(c: CompiledStation, weights: Float64Array, tetherLengthM
   targets = targets.slice(0, m);
   seconds = seconds.slice(0, m);
   const landmarkHops = clipLandmarks(offsets, targets, CLIP_LANDMARKS);
+  const swapRows = swapPointRows(offsets, targets, seconds);
   const cg: ClipGraph = {
     tetherLengthM,
     excludeMask,
@@ -234,10 +246,140 @@ function buildClipGraph(c: CompiledStation, weights: Float64Array, tetherLengthM
     buildMs: 0,
     memoryBytes: 0,
     query: null,
+    pruned: new Map(),
+    swapRows,
   };
-  cg.memoryBytes = [attachNodes, attachIndex, offsets, targets, seconds, landmarkHops].reduce((b, a) => b + a.byteLength, 0);
+  cg.memoryBytes = [attachNodes, attachIndex, offsets, targets, seconds, landmarkHops, swapRows.offsets, swapRows.targets, swapRows.seconds].reduce(
+    (b, a) => b + a.byteLength,
+    0,
+  );
   cg.buildMs = performance.now() - t0;
   return cg;
+}
+
+/**
+ * The stretches a search minimising time + swapCost·swaps needs. A stretch a→c can go when some
+ * attach point b has t(a→b) + swapCost + t(b→c) ≤ t(a→c) with both parts strictly shorter than
+ * t(a→c): the walk a→b→c (one swap at b) fits the tether and costs no more. Exact: by induction
+ * on stretch time every dropped stretch is replaced by a chain of kept ones that costs no more, so
+ * the least cost over the kept stretches is the least over all. `swapCost` is in stretch seconds
+ * (the per-query swap cost over the carrying factor). Rows are kept in time order, as built.
+ */
+export function pruneStretches(cg: ClipGraph, swapCost: number): ClipRows {
+  const cached = cg.pruned.get(swapCost);
+  if (cached) return cached;
+  const { offsets, targets, seconds } = cg;
+  const dropped = new Int32Array(offsets.length - 1);
+  const rows = keepRows(offsets, targets, seconds, (a, mark, inRow, rowTime, keep) => {
+    const from = offsets[a];
+    const end = offsets[a + 1];
+    let maxTime = 0;
+    for (let e = from; e < end; e++) if (seconds[e] > maxTime) maxTime = seconds[e];
+    for (let e = from; e < end; e++) {
+      const viaB = seconds[e] + swapCost;
+      if (viaB >= maxTime) break;
+      const b = targets[e];
+      for (let g = offsets[b], gEnd = offsets[b + 1]; g < gEnd; g++) {
+        const total = viaB + seconds[g];
+        if (total > maxTime) break;
+        const cc = targets[g];
+        if (inRow[cc] !== mark) continue;
+        const direct = rowTime[cc];
+        if (total <= direct && seconds[e] < direct && seconds[g] < direct) dropped[cc] = mark;
+      }
+    }
+    for (let e = from; e < end; e++) keep[e] = dropped[targets[e]] === mark ? 0 : 1;
+  });
+  cg.memoryBytes += rows.offsets.byteLength + rows.targets.byteLength + rows.seconds.byteLength;
+  cg.pruned.set(swapCost, rows);
+  return rows;
+}
+
+/**
+ * Rows of the stretches `decide` keeps: it is called per attach point a with a's row marked
+ * (inRow[c] === mark, rowTime[c] its time) and sets keep[e] for each e of the row.
+ */
+function keepRows(
+  offsets: Int32Array,
+  targets: Int32Array,
+  seconds: Float64Array,
+  decide: (a: number, mark: number, inRow: Int32Array, rowTime: Float64Array, keep: Uint8Array) => void,
+): ClipRows {
+  const t0 = performance.now();
+  const A = offsets.length - 1;
+  const inRow = new Int32Array(A);
+  const rowTime = new Float64Array(A);
+  const keep = new Uint8Array(targets.length);
+  const keptOffsets = new Int32Array(A + 1);
+  let m = 0;
+  for (let a = 0; a < A; a++) {
+    for (let e = offsets[a]; e < offsets[a + 1]; e++) {
+      inRow[targets[e]] = a + 1;
+      rowTime[targets[e]] = seconds[e];
+    }
+    decide(a, a + 1, inRow, rowTime, keep);
+    for (let e = offsets[a]; e < offsets[a + 1]; e++) m += keep[e];
+    keptOffsets[a + 1] = m;
+  }
+  const keptTargets = new Int32Array(m);
+  const keptSeconds = new Float64Array(m);
+  for (let e = 0, k = 0; e < targets.length; e++) {
+    if (!keep[e]) continue;
+    keptTargets[k] = targets[e];
+    keptSeconds[k++] = seconds[e];
+  }
+  return { offsets: keptOffsets, targets: keptTargets, seconds: keptSeconds, buildMs: performance.now() - t0 };
+}
+
+/**
+ * The stretches worth a swap at their far end, for either objective. From a, the swap point c
+ * is dropped when for every stretch c→d (d ≠ a) either a reaches d directly in no more time than
+ * via c (one swap fewer), or some other b from a has a better key t(a→b) + t(b→d), then a farther
+ * b, then a larger index: a walk a→c→d then becomes a→d or a→b→d, with no more time and no more
+ * swaps. Exact: following such replacements from the start of a walk, each step keeps a stretch or
+ * drops a swap (the best b for (a, d) is kept unless a reaches d directly), so every optimum over
+ * all stretches has one as good over the kept ones. Only a walk ending at an attach point can use
+ * them: the stretch to another end is not among c's rows.
+ */
+function swapPointRows(offsets: Int32Array, targets: Int32Array, seconds: Float64Array): ClipRows {
+  const A = offsets.length - 1;
+  const bestStamp = new Int32Array(A);
+  const bestArg = new Int32Array(A);
+  const bestVal = new Float64Array(A);
+  const bestFar = new Float64Array(A);
+  return keepRows(offsets, targets, seconds, (a, mark, inRow, rowTime, keep) => {
+    const from = offsets[a];
+    const end = offsets[a + 1];
+    for (let e = from; e < end; e++) {
+      const b = targets[e];
+      const tab = seconds[e];
+      for (let g = offsets[b], gEnd = offsets[b + 1]; g < gEnd; g++) {
+        const d = targets[g];
+        const v = tab + seconds[g];
+        if (bestStamp[d] === mark) {
+          const bv = bestVal[d];
+          if (v > bv || (v === bv && (tab < bestFar[d] || (tab === bestFar[d] && b < bestArg[d])))) continue;
+        }
+        bestStamp[d] = mark;
+        bestVal[d] = v;
+        bestFar[d] = tab;
+        bestArg[d] = b;
+      }
+    }
+    for (let e = from; e < end; e++) {
+      const cc = targets[e];
+      const tac = seconds[e];
+      keep[e] = 0;
+      for (let g = offsets[cc], gEnd = offsets[cc + 1]; g < gEnd; g++) {
+        const d = targets[g];
+        if (d === a) continue;
+        if (inRow[d] === mark && rowTime[d] <= tac + seconds[g]) continue;
+        if (bestArg[d] !== cc) continue;
+        keep[e] = 1;
+        break;
+      }
+    }
+  });
 }
 
 const clipCache = new WeakMap<Float64Array, Map<string, ClipGraph>>();
@@ -332,10 +474,14 @@ export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSea
   const f = p.secondsFactor;
   const lex = p.objective === 'lex';
   const swapCost = p.swapCost;
+
   const tether = p.tetherLengthM;
   const limit = tether + TETHER_EPS_M;
   const sIdx = attachIndex[s];
   const tIdx = attachIndex[t];
+  // between the first and the last stretch the search needs only the kept ones (the last come
+  // from the full rows, or a search from t)
+  const rows = !lex && swapCost === 0 ? pruneStretches(cg, 0) : tIdx >= 0 ? cg.swapRows : cg;
 
   // last stretches: attach points within one tether of t, and their least time to it
   let lastCount = 0;
@@ -465,11 +611,12 @@ export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSea
     }
     // the offer above, inlined: this loop is where the search spends its time
     const s1 = lex ? d1 + 1 : d1 + swapCost;
-    for (let e = offsets[a], end = offsets[a + 1]; e < end; e++) {
-      const b = targets[e];
+    const { offsets: ro, targets: rt, seconds: rs } = rows;
+    for (let e = ro[a], end = ro[a + 1]; e < end; e++) {
+      const b = rt[e];
       if (b === tIdx) continue;
-      const q1 = lex ? s1 : s1 + f * seconds[e];
-      const q2 = lex ? d2 + f * seconds[e] : 0;
+      const q1 = lex ? s1 : s1 + f * rs[e];
+      const q2 = lex ? d2 + f * rs[e] : 0;
       if (seen[b] === stamp && (p1[b] < q1 || (p1[b] === q1 && p2[b] <= q2))) continue;
       if (!heuristic(b)) continue;
       seen[b] = stamp;

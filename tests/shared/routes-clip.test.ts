@@ -3,7 +3,8 @@ import fc from 'fast-check';
 import type { RouteMode, RouteRequest } from '@shared/schemas/route';
 import { compileStation } from '@shared/compute/compiled-station';
 import { findRoute, type RouteStrategy } from '@shared/compute/routes';
-import { clipGraphFor } from '@shared/compute/routes-clip';
+import { clipGraphFor, pruneStretches, type ClipGraph, type ClipRows } from '@shared/compute/routes-clip';
+import { excludeMaskFor } from '@shared/compute/routes';
 import { generateTrussStation } from '@shared/compute/truss-generator';
 import { smallStationArb } from './routes-oracle';
 
@@ -25,6 +26,93 @@ function compare(c: ReturnType<typeof compileStation>, settings: Parameters<type
     expect(clip.maxPaidOutM).toBeLessThanOrEqual(clip.tetherLengthM + 1e-9);
   }
 }
+
+/**
+ * Best clip-to-clip cost from attach s to attach t: stretches between swaps from `mid`, the last
+ * one from the full rows; `swapCost` Infinity means fewest swaps, then least time. A plain
+ * Dijkstra over (swaps, seconds), quadratic and small on purpose.
+ */
+function bestCost(cg: ClipGraph, mid: ClipRows, s: number, t: number, swapCost: number): [number, number] {
+  const A = cg.offsets.length - 1;
+  const lex = swapCost === Infinity;
+  const key = (sw: number, sec: number): [number, number] => (lex ? [sw, sec] : [sec + swapCost * sw, 0]);
+  const less = (x: [number, number], y: [number, number]) => x[0] < y[0] || (x[0] === y[0] && x[1] < y[1]);
+  const swaps = new Float64Array(A).fill(Infinity);
+  const secs = new Float64Array(A).fill(Infinity);
+  const done = new Uint8Array(A);
+  swaps[s] = 0;
+  secs[s] = 0;
+  let best: [number, number] = [Infinity, Infinity];
+  for (;;) {
+    let a = -1;
+    for (let i = 0; i < A; i++) if (!done[i] && swaps[i] < Infinity && (a < 0 || less(key(swaps[i], secs[i]), key(swaps[a], secs[a])))) a = i;
+    if (a < 0) return best;
+    done[a] = 1;
+    for (let e = cg.offsets[a]; e < cg.offsets[a + 1]; e++) {
+      if (cg.targets[e] !== t) continue;
+      const k = key(swaps[a], secs[a] + cg.seconds[e]);
+      if (less(k, best)) best = k;
+    }
+    for (let e = mid.offsets[a]; e < mid.offsets[a + 1]; e++) {
+      const b = mid.targets[e];
+      if (b === t || done[b]) continue;
+      if (less(key(swaps[a] + 1, secs[a] + mid.seconds[e]), key(swaps[b], secs[b]))) {
+        swaps[b] = swaps[a] + 1;
+        secs[b] = secs[a] + mid.seconds[e];
+      }
+    }
+  }
+}
+
+describe('kept stretches of the clip graph', () => {
+  const doc = generateTrussStation({ nodes: 900, seed: 5 });
+  const c = compileStation(doc);
+  const cases = fc.tuple(fc.nat(), fc.nat(), fc.constantFrom(6, 12, 25.9));
+
+  function isSubsetOfFull(cg: ClipGraph, rows: ClipRows) {
+    for (let a = 0; a + 1 < cg.offsets.length; a++) {
+      const full = new Map<number, number>();
+      for (let e = cg.offsets[a]; e < cg.offsets[a + 1]; e++) full.set(cg.targets[e], cg.seconds[e]);
+      for (let e = rows.offsets[a]; e < rows.offsets[a + 1]; e++) expect(full.get(rows.targets[e])).toBe(rows.seconds[e]);
+    }
+  }
+
+  it('drops most stretches and keeps the fewest swaps and the least swap-costed time between attach points', () => {
+    const cg = clipGraphFor(c, c.arcSeconds, 25.9, excludeMaskFor(false));
+    expect(cg.swapRows.targets.length).toBeLessThan(cg.targets.length / 2);
+    isSubsetOfFull(cg, cg.swapRows);
+    fc.assert(
+      fc.property(cases, fc.constantFrom(Infinity, 0, 7, 90), ([i, j, tether], swapCost) => {
+        const g = clipGraphFor(c, c.arcSeconds, tether, excludeMaskFor(false));
+        const A = g.attachNodes.length;
+        fc.pre(i % A !== j % A);
+        const full = bestCost(g, g, i % A, j % A, swapCost);
+        const kept = bestCost(g, g.swapRows, i % A, j % A, swapCost);
+        expect(kept[0]).toBeCloseTo(full[0], 6);
+        expect(kept[1]).toBeCloseTo(full[1], 6);
+      }),
+      { numRuns: 60 },
+    );
+  });
+
+  it('with free swaps, keeps only a few stretches and the least time between attach points', () => {
+    const cg = clipGraphFor(c, c.arcSeconds, 25.9, excludeMaskFor(false));
+    const rows = pruneStretches(cg, 0);
+    expect(rows.targets.length).toBeLessThan(cg.targets.length / 4);
+    isSubsetOfFull(cg, rows);
+    fc.assert(
+      fc.property(cases, fc.constantFrom(0, 3, 90), ([i, j, tether], swapCost) => {
+        const g = clipGraphFor(c, c.arcSeconds, tether, excludeMaskFor(false));
+        const A = g.attachNodes.length;
+        fc.pre(i % A !== j % A);
+        const full = bestCost(g, g, i % A, j % A, swapCost);
+        const kept = bestCost(g, pruneStretches(g, swapCost), i % A, j % A, swapCost);
+        expect(kept[0]).toBeCloseTo(full[0], 6);
+      }),
+      { numRuns: 60 },
+    );
+  });
+});
 
 describe('clip-graph search against the label-setting search', () => {
   // the sparse zone near the far end has anchors only on dead-end stubs, so long tethers and short
@@ -60,6 +148,16 @@ describe('clip-graph search against the label-setting search', () => {
         compare(c, settings, { from, to, tetherLengthM });
       }),
       { numRuns: 40 },
+    );
+  });
+
+  it('gives the same optimum between attach points at any swap time, free swaps included', () => {
+    fc.assert(
+      fc.property(fc.constantFrom(...attach), fc.constantFrom(...attach), fc.constantFrom(6, 9.5, 25.9), fc.constantFrom(0, 4, 90, 400), (from, to, tetherLengthM, swapSeconds) => {
+        fc.pre(from !== to);
+        compare(c, { ...doc.settings, swapSeconds }, { from, to, tetherLengthM });
+      }),
+      { numRuns: 80 },
     );
   });
 
