@@ -120,8 +120,8 @@ describe('station view: 3D model, selection, layers, tables and import', () => {
     await expect(details.getByText('Position (ft)').isVisible()).resolves.toBe(true);
     const degree = graph.edges.filter((e) => e.from === chosen.key || e.to === chosen.key).length;
     await expect(details.getByText(`Edges (${degree})`).isVisible()).resolves.toBe(true);
-    // highlighted in 3D: the selection cage's label follows the node inside the canvas
-    await scene().getByText(new RegExp(`^${chosen.key}( —|$)`)).waitFor();
+    // highlighted in 3D: the scene holds the selection (its cage and label are drawn in the canvas)
+    await expect.poll(() => scene().getAttribute('data-selected')).toBe(`node:${chosen.key}`);
     await expect(page.getByRole('option', { name: new RegExp(`^${chosen.key}\\b`) }).getAttribute('aria-selected')).resolves.toBe('true');
     await session.screenshot('station-view-selected');
 

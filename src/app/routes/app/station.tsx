@@ -1,6 +1,6 @@
-import { useMemo, useRef, useState, type ComponentType, type ReactNode } from 'react';
+import { useEffect, useMemo, useRef, useState, type ComponentType, type ReactNode } from 'react';
 import { useQueryClient, type QueryClient } from '@tanstack/react-query';
-import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { useParams, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
 import type { Vec3 } from '@shared/schemas/station';
 import type { StationGraph } from '@shared/schemas/station-edits';
 import { PageHeader } from '@/components/layouts/app-layout';
@@ -77,7 +77,12 @@ interface StationViewProps {
 
 export function StationView({ graph, panels = [], Overlays, onPickSurface }: StationViewProps) {
   const sceneApi = useRef<SceneApi>(null);
-  const [selection, setSelection] = useState<StationSelection>(null);
+  // `?node=KEY` (links from other screens, e.g. accepted sockets) opens with that node selected
+  const [searchParams] = useSearchParams();
+  const linkedNode = searchParams.get('node');
+  const [selection, setSelection] = useState<StationSelection>(() =>
+    linkedNode && graph.nodes.some((n) => n.key === linkedNode) ? { type: 'node', key: linkedNode } : null,
+  );
   const [layers, setLayers] = useState<SceneLayers>(ALL_LAYERS_ON);
   const [lastSurfacePick, setLastSurfacePick] = useState<SurfacePick | null>(null);
   const [tab, setTab] = useState('details');
@@ -90,14 +95,22 @@ export function StationView({ graph, panels = [], Overlays, onPickSurface }: Sta
   );
 
   const positions = useMemo(() => new Map(graph.nodes.map((n) => [n.key, n.position])), [graph]);
-  /** selecting from the list, tables or details also brings the node and its neighbours into view */
-  const focus = (next: StationSelection) => {
-    setSelection(next);
-    if (next?.type !== 'node') return;
-    const near = [next.key, ...edgesOf(graph, next.key).map((e) => (e.from === next.key ? e.to : e.from))];
-    const points = near.map((key) => positions.get(key)).filter((p): p is Vec3 => p !== undefined);
+  /** brings a node and its neighbours into view */
+  const frameNode = (key: string) => {
+    const near = [key, ...edgesOf(graph, key).map((e) => (e.from === key ? e.to : e.from))];
+    const points = near.map((k) => positions.get(k)).filter((p): p is Vec3 => p !== undefined);
     if (points.length) api.fitToView(points);
   };
+  /** selecting from the list, tables or details also frames the node */
+  const focus = (next: StationSelection) => {
+    setSelection(next);
+    if (next?.type === 'node') frameNode(next.key);
+  };
+  useEffect(() => {
+    if (linkedNode && positions.has(linkedNode)) frameNode(linkedNode);
+    // once, when the page opens on a linked node
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, []);
 
   const ctx: StationViewContext = { graph, selection, select: focus, lastSurfacePick, layers, sceneApi: api, showPanel: setTab };
   const tabs = [

@@ -1,6 +1,6 @@
-import type { ReactNode } from 'react';
-import { Html, Line } from '@react-three/drei';
+import { Line } from '@react-three/drei';
 import * as THREE from 'three';
+import { TextSprite } from '@/components/scene/text-sprite';
 import type { Vec3 } from '@shared/schemas/station';
 
 /** A polyline through points (a route, a tether run), in screen-space pixels wide. */
@@ -31,20 +31,20 @@ export function PathLine({
   );
 }
 
-/** A small DOM tag that follows a point in the scene; no font is loaded, the page's Inter is used. */
-export function SceneLabel({ position, children, tone = 'dark' }: { position: Vec3; children: ReactNode; tone?: 'dark' | 'light' }) {
+/**
+ * A tag that follows a point in the scene, drawn in the scene itself (a sprite with the page's Inter),
+ * so it goes away with the canvas: DOM tags beside the canvas broke the page when a 3D screen was left.
+ */
+export function SceneLabel({ position, children, tone = 'dark' }: { position: Vec3; children: string; tone?: 'dark' | 'light' }) {
   return (
-    <Html position={position} center={false} zIndexRange={[20, 0]} style={{ pointerEvents: 'none' }}>
-      <div
-        className={
-          tone === 'light'
-            ? 'ml-2 -translate-y-1/2 rounded bg-white px-1.5 py-0.5 text-xs font-semibold whitespace-nowrap text-text-strong shadow'
-            : 'ml-2 -translate-y-1/2 rounded bg-ink-900/85 px-1.5 py-0.5 text-xs font-medium whitespace-nowrap text-ink-100'
-        }
-      >
-        {children}
-      </div>
-    </Html>
+    <group position={position}>
+      <TextSprite
+        text={children}
+        background={tone === 'light' ? '#ffffff' : 'rgba(15, 26, 46, 0.85)'}
+        color={tone === 'light' ? '#111826' : '#e3e9f2'}
+        heightPx={tone === 'light' ? 20 : 18}
+      />
+    </group>
   );
 }
 

@@ -72,6 +72,7 @@ export function StationScene({
       ref={wrapper}
       data-testid="station-scene"
       data-hovered={hovered ?? ''}
+      data-selected={selection ? `${selection.type}:${selection.key}` : ''}
       role="region"
       aria-label={label}
       className={cn('relative overflow-hidden rounded-lg bg-ink-950', className)}

@@ -8,7 +8,7 @@ import type { Vec3 } from '@shared/schemas/station';
 import type { PlaybackClock } from '../lib/playback-clock';
 import { trackPath, type Lane, type LaneId } from '../lib/playback-model';
 import { LANE_STYLES } from './lane-styles';
-import { TextSprite } from './text-sprite';
+import { TextSprite } from '@/components/scene/text-sprite';
 
 const noRaycast = () => null;
 const FOLLOW_RADIUS_M = 3;
