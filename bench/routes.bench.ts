@@ -147,13 +147,17 @@ export async function run(): Promise<boolean> {
     }
 
     const refMedian = summary(times.reference).median;
+    const freeSwaps = clip.pruned.get(0);
     console.log(
       `\n${c.nodeCount} nodes, ${c.edgeCount} edges, ${attach.length} attach points, ${queries.length} attach-to-attach queries`,
     );
     console.log(
       `compile ${compileMs.toFixed(1)} ms; index ${(c.memoryBytes / 1e6).toFixed(2)} MB (${(c.memoryBytes / c.nodeCount).toFixed(0)} B/node); ` +
         `clip graph (${settings.tetherLengthM} m tether) ${clipMs.toFixed(1)} ms, ${(clip.memoryBytes / 1e6).toFixed(2)} MB, ` +
-        `${clip.targets.length} stretches (${(clip.targets.length / Math.max(1, clip.attachNodes.length)).toFixed(1)} per attach point); ` +
+        `${clip.targets.length} stretches (${(clip.targets.length / Math.max(1, clip.attachNodes.length)).toFixed(1)} per attach point), ` +
+        `${clip.swapRows.targets.length} worth a swap (${clip.swapRows.buildMs.toFixed(0)} ms of the build)` +
+        (freeSwaps ? `, ${freeSwaps.targets.length} kept for free swaps (${freeSwaps.buildMs.toFixed(0)} ms, on first use)` : '') +
+        '; ' +
         `fastest needed the tether search on ${fallbacks} queries; ${infeasible} infeasible answers`,
     );
     const rows = Object.entries(times).map(([name, list]) => {

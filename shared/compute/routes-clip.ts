@@ -334,10 +334,10 @@ function keepRows(
 /**
  * The stretches worth a swap at their far end, for either objective. From a, the swap point c
  * is dropped when for every stretch c→d (d ≠ a) either a reaches d directly in no more time than
- * via c (one swap fewer), or some other b from a has a better key t(a→b) + t(b→d), then a farther
- * b, then a larger index: a walk a→c→d then becomes a→d or a→b→d, with no more time and no more
- * swaps. Exact: following such replacements from the start of a walk, each step keeps a stretch or
- * drops a swap (the best b for (a, d) is kept unless a reaches d directly), so every optimum over
+ * via c (one swap fewer), or a does not reach d and some other b from a has a better key
+ * t(a→b) + t(b→d), then a farther b, then a larger index: a walk a→c→d then becomes a→d or a→b→d,
+ * with no more time and no more swaps. Exact: following such replacements from the start of a
+ * walk, each step keeps a stretch or drops a swap (the best b for such a d is kept), so every optimum over
  * all stretches has one as good over the kept ones. Only a walk ending at an attach point can use
  * them: the stretch to another end is not among c's rows.
  */
@@ -355,6 +355,7 @@ function swapPointRows(offsets: Int32Array, targets: Int32Array, seconds: Float6
       const tab = seconds[e];
       for (let g = offsets[b], gEnd = offsets[b + 1]; g < gEnd; g++) {
         const d = targets[g];
+        if (inRow[d] === mark) continue;
         const v = tab + seconds[g];
         if (bestStamp[d] === mark) {
           const bv = bestVal[d];
@@ -373,8 +374,9 @@ function swapPointRows(offsets: Int32Array, targets: Int32Array, seconds: Float6
       for (let g = offsets[cc], gEnd = offsets[cc + 1]; g < gEnd; g++) {
         const d = targets[g];
         if (d === a) continue;
-        if (inRow[d] === mark && rowTime[d] <= tac + seconds[g]) continue;
-        if (bestArg[d] !== cc) continue;
+        if (inRow[d] === mark) {
+          if (rowTime[d] <= tac + seconds[g]) continue;
+        } else if (bestArg[d] !== cc) continue;
         keep[e] = 1;
         break;
       }
