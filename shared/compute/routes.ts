@@ -34,11 +34,12 @@ interface Query {
 }
 
 /**
- * How the engine searches. `clip-graph` (the default) answers the exact modes on the per-tether
- * clip graph and the plain fastest path by A*; `label-search` runs the label-setting search over
- * (node, paid out) and plain Dijkstra. Both are exact; each is the other's independent check.
+ * How the engine searches. `clip-graph` answers the exact modes on the per-tether clip graph and
+ * the plain fastest path by A*; `label-search` runs the label-setting search over (node, paid out)
+ * and plain Dijkstra. Both are exact; each is the other's independent check. `auto` (the default)
+ * uses the clip graph where building it is cheap or it is already built, else the label search.
  */
-export type RouteStrategy = 'clip-graph' | 'label-search';
+export type RouteStrategy = 'auto' | 'clip-graph' | 'label-search';
 
 export interface FindRouteOptions {
   strategy?: RouteStrategy;
@@ -49,18 +50,16 @@ function maxSpeed(settings: StationSettings): number {
 }
 
 /**
- * Building a clip graph costs about a tenth of a millisecond per node: on a large station it is
- * built for the station's own tether length, or once built, and other lengths use the label search.
+ * Building a clip graph grows faster than the station: about 3 s at 10k nodes but most of a minute at
+ * 100k (measured in bench/routes.bench.ts), too long to hold a request. Above this size `auto` uses
+ * the label search unless a clip graph for the query's tether is already built.
  */
 const CLIP_BUILD_FREE_NODES = 20_000;
 
 function useClipGraph(q: Query): boolean {
-  if (q.strategy !== 'clip-graph') return false;
-  return (
-    q.c.nodeCount <= CLIP_BUILD_FREE_NODES ||
-    q.tether === q.settings.tetherLengthM ||
-    hasClipGraph(q.weights, q.tether, q.mask)
-  );
+  if (q.strategy === 'label-search') return false;
+  if (q.strategy === 'clip-graph') return true;
+  return q.c.nodeCount <= CLIP_BUILD_FREE_NODES || hasClipGraph(q.weights, q.tether, q.mask);
 }
 
 function search(q: Query, objective: 'sum' | 'lex', swapCost: number) {
@@ -228,13 +227,14 @@ export function findRoute(
     mask: excludeMaskFor(request.allowRide),
     weights: arcSeconds,
     landmarkTimesValid,
-    strategy: options.strategy ?? 'clip-graph',
+    strategy: options.strategy ?? 'auto',
   };
   if (s === t) return infeasible(q, 'same-node', `The route starts and ends at ${request.from}.`);
 
   if (request.mode === 'fastest') {
+    // the landmark A* needs no clip graph: every strategy but the reference check uses it
     const plain =
-      q.strategy === 'clip-graph'
+      q.strategy !== 'label-search'
         ? fastestPath(c, arcSeconds, s, t, q.mask, maxSpeed(settings), landmarkTimesValid)
         : dijkstraPath(c, arcSeconds, s, t, q.mask);
     if (!plain) return diagnose(q);
