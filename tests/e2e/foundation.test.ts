@@ -125,6 +125,7 @@ describe('foundation: sign-in, home, people and mailbox in the built app', () =>
       'Home',
       'Stations',
       'Plans',
+      'Walkthroughs',
       'People',
       'Mailbox',
     ]);

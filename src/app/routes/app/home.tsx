@@ -1,5 +1,4 @@
 import { Link } from 'react-router-dom';
-import type { QueryClient } from '@tanstack/react-query';
 import { PERMISSIONS, ROLE_LABELS, ROLE_PERMISSIONS, ROLE_SUMMARIES } from '@shared/auth/permissions';
 import { PLAN_STATUSES, type PlanStatus } from '@shared/schemas/plan';
 import { PageHeader } from '@/components/layouts/app-layout';
@@ -9,21 +8,10 @@ import { Spinner } from '@/components/ui/spinner';
 import { paths } from '@/config/paths';
 import { useUser } from '@/lib/authorization';
 import { formatDateTime } from '@/lib/format';
-import { getActivityQueryOptions } from '@/features/activity/api/get-activity';
 import { ActivityList } from '@/features/activity/components/activity-list';
-import { getPlansQueryOptions, usePlans } from '@/features/plans/api/get-plans';
+import { usePlans } from '@/features/plans/api/get-plans';
 import { PlanStatusBadge, STATUS_LABELS } from '@/features/plans/components/plan-status-badge';
-import { getStationsQueryOptions, useStations } from '@/features/stations/api/get-stations';
-
-export const clientLoader = (queryClient: QueryClient) => async () => {
-  // warm the caches in parallel; each panel still handles its own loading and errors
-  void Promise.allSettled([
-    queryClient.ensureQueryData(getStationsQueryOptions()),
-    queryClient.ensureQueryData(getPlansQueryOptions()),
-    queryClient.ensureQueryData(getActivityQueryOptions()),
-  ]);
-  return null;
-};
+import { useStations } from '@/features/stations/api/get-stations';
 
 const linkClass =
   'rounded-sm font-medium text-accent-strong hover:underline focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-accent';
