@@ -146,7 +146,12 @@ describe('socket planner', () => {
     await links.first().click();
     await page.waitForURL(`**/stations/${station.id}?node=${keys[0]}`);
     await page.getByTestId('station-scene').waitFor();
-    for (const key of keys) await page.getByText(key, { exact: true }).first().waitFor();
+    // the linked socket is selected; every new socket is a node of the station now
+    await page.getByRole('tabpanel').getByText(keys[0], { exact: true }).first().waitFor();
+    for (const key of keys) {
+      await page.getByLabel('Find a node').fill(key);
+      await page.getByRole('option', { name: new RegExp(`^${key}\\b`) }).waitFor();
+    }
     await session.screenshot('socket-planner-station');
     await api.dispose();
   }, 240_000);

@@ -1,3 +1,5 @@
+import { useMemo, useRef } from 'react';
+import { useFrame } from '@react-three/fiber';
 import { Line } from '@react-three/drei';
 import * as THREE from 'three';
 import { TextSprite } from '@/components/scene/text-sprite';
@@ -43,12 +45,16 @@ export function SceneLabel({ position, children, tone = 'dark' }: { position: Ve
         background={tone === 'light' ? '#ffffff' : 'rgba(15, 26, 46, 0.85)'}
         color={tone === 'light' ? '#111826' : '#e3e9f2'}
         heightPx={tone === 'light' ? 20 : 18}
+        renderOrder={10}
       />
     </group>
   );
 }
 
-/** A numbered or labelled marker at a point: a ball and a DOM tag (e.g. swap 1, swap 2, a crew member). */
+/** A marker ball never draws smaller than about this many pixels across, however far the camera is. */
+const MARKER_MIN_PX = 12;
+
+/** A numbered or labelled marker at a point: a ball and a tag (e.g. swap 1, swap 2, a crew member). */
 export function Marker({
   position,
   label,
@@ -63,9 +69,22 @@ export function Marker({
   size?: number;
 }) {
   const text = [number !== undefined ? String(number) : null, label].filter(Boolean).join(' · ');
+  const ball = useRef<THREE.Mesh>(null);
+  const at = useMemo(() => new THREE.Vector3(...position), [position]);
+  useFrame(({ camera, size: view, invalidate }) => {
+    if (!ball.current) return;
+    // world size of MARKER_MIN_PX at this distance, for a perspective camera
+    const fov = ((camera as THREE.PerspectiveCamera).fov ?? 45) * (Math.PI / 180);
+    const perPx = (2 * camera.position.distanceTo(at) * Math.tan(fov / 2)) / Math.max(1, view.height);
+    const scale = Math.max(1, ((MARKER_MIN_PX / 2) * perPx) / size);
+    if (Math.abs(scale - ball.current.scale.x) < 1e-3) return;
+    ball.current.scale.setScalar(scale);
+    // drawn on demand: one more frame shows the new size
+    invalidate();
+  });
   return (
     <group position={position}>
-      <mesh renderOrder={11} raycast={() => null}>
+      <mesh ref={ball} renderOrder={11} raycast={() => null}>
         <sphereGeometry args={[size, 16, 12]} />
         <meshBasicMaterial color={color} depthTest={false} transparent />
       </mesh>
