@@ -86,7 +86,7 @@ export function Marker({
     <group position={position}>
       <mesh ref={ball} renderOrder={11} raycast={() => null}>
         <sphereGeometry args={[size, 16, 12]} />
-        <meshBasicMaterial color={color} depthTest={false} transparent />
+        <meshBasicMaterial color={color} depthTest={false} transparent toneMapped={false} />
       </mesh>
       {text && <SceneLabel position={[0, 0, 0]} tone="light">{text}</SceneLabel>}
     </group>
