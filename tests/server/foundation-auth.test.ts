@@ -143,3 +143,19 @@ describe('sign out everywhere', () => {
     expect((await again.get('/api/auth/me')).status).toBe(200);
   });
 });
+
+describe('general API rate limit', () => {
+  it('past the per-minute allowance every API call gets 429 in the error shape', async () => {
+    const limited = await makeTestApp({ apiRequestsPerMinute: 5 });
+    try {
+      const statuses: number[] = [];
+      for (let i = 0; i < 7; i++) statuses.push((await limited.anonymous().get('/api/health')).status);
+      expect(statuses).toEqual([200, 200, 200, 200, 200, 429, 429]);
+      const res = await limited.anonymous().get('/api/stations');
+      expect(res.status).toBe(429);
+      expectErrorShape(res.body, 'RATE_LIMITED');
+    } finally {
+      await limited.close();
+    }
+  });
+});
