@@ -40,6 +40,7 @@ export function TextSprite({
   heightPx = 18,
   shiftX = -0.12,
   shiftY = 0.5,
+  renderOrder = 16,
 }: {
   text: string;
   background: string;
@@ -47,6 +48,8 @@ export function TextSprite({
   heightPx?: number;
   shiftX?: number;
   shiftY?: number;
+  /** drawn after everything with a lower order (labels of a marker sit under the marker itself) */
+  renderOrder?: number;
 }) {
   const label = useMemo(() => labelTexture(text, background, color), [text, background, color]);
   useEffect(() => () => label.texture.dispose(), [label]);
@@ -59,7 +62,7 @@ export function TextSprite({
     <sprite
       scale={[sx, sy, 1]}
       center={new THREE.Vector2(shiftX, shiftY)}
-      renderOrder={16}
+      renderOrder={renderOrder}
       raycast={() => null}
     >
       <spriteMaterial map={label.texture} depthTest={false} sizeAttenuation={false} transparent />
