@@ -66,7 +66,13 @@ describe('the Kestrel demo station', () => {
     const start = g.nodes.find((n) => n.kind === 'airlock')!.key;
     const seen = new Set([start]);
     const queue = [start];
-    while (queue.length) for (const m of adj.get(queue.pop()!) ?? []) if (!seen.has(m)) seen.add(m) && queue.push(m);
+    while (queue.length) {
+      for (const m of adj.get(queue.pop()!) ?? []) {
+        if (seen.has(m)) continue;
+        seen.add(m);
+        queue.push(m);
+      }
+    }
     const worksites = g.nodes.filter((n) => n.kind === 'worksite');
     expect(worksites.every((w) => seen.has(w.key))).toBe(true);
   });

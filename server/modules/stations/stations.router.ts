@@ -10,7 +10,6 @@ import {
   CreateHazardInputSchema,
   CreateNodeInputSchema,
   CreateSegmentInputSchema,
-  OptionalVersionQuerySchema,
   StationEdgeParamsSchema,
   StationIdParamsSchema,
   StationKeyParamsSchema,
