@@ -1,40 +1,14 @@
 import type { AppContext } from '../../context';
 import { badRequest } from '../../lib/http-error';
 import { findRoute } from '@shared/compute/routes';
-import { computeTimeline, type Timeline } from '@shared/compute/timeline';
-import { checkInventory, type InventoryWarning } from '@shared/compute/inventory';
-import type { ReachResult } from '@shared/schemas/sockets';
+import { computeTimeline } from '@shared/compute/timeline';
+import { checkInventory } from '@shared/compute/inventory';
 import { getCompiledStation } from '../compute/compiled-cache';
 import { reachOn } from '../compute/compute.service';
 import { PLANNING_CAUTION, getPlan, type PlanView } from './plans.service';
 
-export interface TaskReach {
-  taskIndex: number;
-  socket: string;
-  worksite: string;
-  /** null when the socket or worksite is not a usable node of the station (see the warnings) */
-  reach: ReachResult | null;
-}
-
-export interface ReachWarning {
-  code: 'socket-out-of-reach' | 'socket-unusable';
-  message: string;
-  taskIndex: number;
-  /** sockets of the station that do reach the worksite, nearest first */
-  reachingSockets?: string[];
-}
-
-export interface PlanTimeline extends Timeline {
-  planId: number;
-  planVersion: number;
-  stationId: number;
-  stationVersion: number;
-  airlockKey: string;
-  inventoryWarnings: InventoryWarning[];
-  reach: TaskReach[];
-  reachWarnings: ReachWarning[];
-  caution: string;
-}
+export type { PlanTimeline, ReachWarning, TaskReach } from '@shared/schemas/plan-views';
+import type { PlanTimeline, ReachWarning, TaskReach } from '@shared/schemas/plan-views';
 
 /**
  * The plan's day on its station's current version: routes from the compiled cache in the plan's

@@ -20,24 +20,8 @@ import { getCompiledStation, stationVersion } from '../compute/compiled-cache';
 
 export { PLANNING_CAUTION } from '@shared/caution';
 
-export interface PlanView extends Plan {
-  stationName: string;
-  authorName: string | null;
-  approverName: string | null;
-}
-
-export interface PlanListItem {
-  id: number;
-  title: string;
-  stationId: number;
-  stationName: string;
-  date: string;
-  status: PlanStatus;
-  version: number;
-  authorId: number | null;
-  authorName: string | null;
-  updatedAt: string;
-}
+export type { PlanListItem, PlanView } from '@shared/schemas/plan-views';
+import type { PlanListItem, PlanView } from '@shared/schemas/plan-views';
 
 export interface Actor {
   id: number;
