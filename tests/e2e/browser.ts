@@ -5,7 +5,8 @@ import { chromium, type BrowserContext, type ConsoleMessage, type Page } from 'p
 import { inject } from 'vitest';
 
 const root = path.resolve(import.meta.dirname, '../..');
-export const SCREENSHOT_DIR = path.join(root, 'screenshots');
+/** Screenshots of each run land here (not tracked); screenshots/ holds the ones kept as evidence. */
+export const SCREENSHOT_DIR = process.env.SCREENSHOT_DIR ?? path.join(root, 'test-results', 'screenshots');
 
 const CHROMIUM_ARGS = [
   '--no-sandbox',
