@@ -1,23 +1,14 @@
 import { deflateSync, crc32 } from 'node:zlib';
 import { request, type APIRequestContext } from 'playwright-core';
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Annotation } from '@shared/schemas/annotations';
 import type { StationSummary } from '@shared/schemas/station-edits';
-import { openBrowser, type BrowserSession } from './browser';
+import { type BrowserSession, openBrowserPerTest, signInAs, DEMO_PASSWORD } from './browser';
 
-const DEMO_PASSWORD = 'tetherwise-demo';
 
 let session: BrowserSession;
 
-beforeEach(async () => {
-  session = await openBrowser();
-});
-
-afterEach(async () => {
-  const errors = [...session.errors];
-  await session.close();
-  expect(errors, 'console errors or page errors during the test').toEqual([]);
-});
+openBrowserPerTest((s) => (session = s));
 
 function chunk(type: string, data: Buffer): Buffer {
   const length = Buffer.alloc(4);
@@ -52,14 +43,7 @@ function pngBytes(size = 24): Buffer {
   ]);
 }
 
-async function signIn(role: string) {
-  const { page } = session;
-  await session.goto('/sign-in');
-  await page.getByLabel('E-mail').fill(`${role}@example.org`);
-  await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.getByRole('heading', { level: 1, name: /^Welcome, / }).waitFor();
-}
+const signIn = (role: string) => signInAs(session, role);
 
 async function signOut() {
   await session.goto('/');

@@ -2,7 +2,7 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { chromium, type BrowserContext, type ConsoleMessage, type Page } from 'playwright-core';
-import { inject } from 'vitest';
+import { afterEach, beforeEach, expect, inject } from 'vitest';
 
 const root = path.resolve(import.meta.dirname, '../..');
 /** Screenshots of each run land here (not tracked); screenshots/ holds the ones kept as evidence. */
@@ -99,3 +99,35 @@ export async function openBrowser(): Promise<BrowserSession> {
     },
   };
 }
+
+/** The one demo password (README). */
+export const DEMO_PASSWORD = 'tetherwise-demo';
+
+/**
+ * A fresh browser for every test of the file, handed to `assign`; after each test the browser closes
+ * and the test fails if any console error or page error happened.
+ */
+export function openBrowserPerTest(assign: (session: BrowserSession) => void) {
+  let current: BrowserSession | undefined;
+  beforeEach(async () => {
+    current = await openBrowser();
+    assign(current);
+  });
+  afterEach(async () => {
+    if (!current) return;
+    const errors = [...current.errors];
+    await current.close();
+    expect(errors, 'console errors or page errors during the test').toEqual([]);
+  });
+}
+
+/** Signs in through the sign-in form as `<role>@example.org` and waits for Home. */
+export async function signInAs(session: BrowserSession, role: string) {
+  const { page } = session;
+  await session.goto('/sign-in');
+  await page.getByLabel('E-mail').fill(`${role}@example.org`);
+  await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.getByRole('heading', { level: 1, name: /^Welcome, / }).waitFor();
+}
+

@@ -1,31 +1,15 @@
 import { request, type APIRequestContext, type Page } from 'playwright-core';
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { StationGraph, StationSummary } from '@shared/schemas/station-edits';
-import { openBrowser, type BrowserSession } from './browser';
+import { type BrowserSession, openBrowserPerTest, signInAs, DEMO_PASSWORD } from './browser';
 
-const DEMO_PASSWORD = 'tetherwise-demo';
 const WORKSITES = ['SB3-W01', 'PB2-W01', 'SB1-W01'];
 
 let session: BrowserSession;
 
-beforeEach(async () => {
-  session = await openBrowser();
-});
+openBrowserPerTest((s) => (session = s));
 
-afterEach(async () => {
-  const errors = [...session.errors];
-  await session.close();
-  expect(errors, 'console errors or page errors during the test').toEqual([]);
-});
-
-async function signIn(role: string) {
-  const { page } = session;
-  await session.goto('/sign-in');
-  await page.getByLabel('E-mail').fill(`${role}@example.org`);
-  await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.getByRole('heading', { level: 1, name: /^Welcome, / }).waitFor();
-}
+const signIn = (role: string) => signInAs(session, role);
 
 async function apiAs(role: string): Promise<APIRequestContext> {
   const api = await request.newContext({ baseURL: session.baseURL });

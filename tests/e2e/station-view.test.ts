@@ -1,36 +1,20 @@
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { StationGraph, StationSummary } from '@shared/schemas/station-edits';
 import { countDrawCalls } from '@/features/scene-3d/builders/draw-calls';
 import { buildStationObjects } from '@/features/scene-3d/builders/station-objects';
 import { buildStationDocument } from '../factories/station-document';
-import { openBrowser, type BrowserSession } from './browser';
+import { type BrowserSession, openBrowserPerTest, signInAs } from './browser';
 
-const DEMO_PASSWORD = 'tetherwise-demo';
 const DRAW_CALL_TARGET = 40;
 
 let session: BrowserSession;
 
-beforeEach(async () => {
-  session = await openBrowser();
-});
+openBrowserPerTest((s) => (session = s));
 
-afterEach(async () => {
-  const errors = [...session.errors];
-  await session.close();
-  expect(errors, 'console errors or page errors during the test').toEqual([]);
-});
-
-async function signIn(role: string) {
-  const { page } = session;
-  await session.goto('/sign-in');
-  await page.getByLabel('E-mail').fill(`${role}@example.org`);
-  await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.getByRole('heading', { level: 1, name: /^Welcome, / }).waitFor();
-}
+const signIn = (role: string) => signInAs(session, role);
 
 /** The signed-in page's own fetch, so the test compares with what the server holds right now. */
 async function apiGet<T>(pathname: string): Promise<T> {
