@@ -1,21 +1,12 @@
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { PERMISSIONS, ROLE_PERMISSIONS, type Permission } from '@shared/auth/permissions';
-import { openBrowser, type BrowserSession } from './browser';
+import { openBrowserPerTest, type BrowserSession, DEMO_PASSWORD } from './browser';
 
-const DEMO_PASSWORD = 'tetherwise-demo';
 const ALL_PERMISSIONS = Object.keys(PERMISSIONS) as Permission[];
 
 let session: BrowserSession;
 
-beforeEach(async () => {
-  session = await openBrowser();
-});
-
-afterEach(async () => {
-  const errors = [...session.errors];
-  await session.close();
-  expect(errors, 'console errors or page errors during the test').toEqual([]);
-});
+openBrowserPerTest((s) => (session = s));
 
 async function signIn(email: string, password: string) {
   const { page } = session;

@@ -1,17 +1,10 @@
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { openBrowser, type BrowserSession } from './browser';
+import { describe, it } from 'vitest';
+import { openBrowserPerTest, type BrowserSession } from './browser';
 
 // Leaving a 3D screen (signing out, or going elsewhere) must take the scene and its labels down
 // cleanly: no page error, and the next screen shows.
 let session: BrowserSession;
-beforeEach(async () => {
-  session = await openBrowser();
-});
-afterEach(async () => {
-  const errors = [...session.errors];
-  await session.close();
-  expect(errors, 'console errors or page errors during the test').toEqual([]);
-});
+openBrowserPerTest((s) => (session = s));
 
 describe('leaving the 3D station view', () => {
   it('signing out from the station screen goes to sign-in without errors, three times over', async () => {

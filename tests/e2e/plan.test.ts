@@ -1,22 +1,13 @@
 import { execFileSync } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { openBrowser, SCREENSHOT_DIR, type BrowserSession } from './browser';
+import { describe, expect, it } from 'vitest';
+import { openBrowserPerTest, SCREENSHOT_DIR, type BrowserSession, DEMO_PASSWORD } from './browser';
 
-const DEMO_PASSWORD = 'tetherwise-demo';
 
 let session: BrowserSession;
 
-beforeEach(async () => {
-  session = await openBrowser();
-});
-
-afterEach(async () => {
-  const errors = [...session.errors];
-  await session.close();
-  expect(errors, 'console errors or page errors during the test').toEqual([]);
-});
+openBrowserPerTest((s) => (session = s));
 
 async function signIn(email: string) {
   const { page } = session;

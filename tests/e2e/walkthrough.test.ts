@@ -1,21 +1,12 @@
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { PlanPlayback, WalkthroughDetail, WalkthroughSummary } from '@shared/schemas/walkthrough';
-import { openBrowser, type BrowserSession } from './browser';
+import { openBrowserPerTest, type BrowserSession, DEMO_PASSWORD } from './browser';
 
-const DEMO_PASSWORD = 'tetherwise-demo';
 const DEMO_PLAN = 'External camera boom install';
 
 let session: BrowserSession;
 
-beforeEach(async () => {
-  session = await openBrowser();
-});
-
-afterEach(async () => {
-  const errors = [...session.errors];
-  await session.close();
-  expect(errors, 'console errors or page errors during the test').toEqual([]);
-});
+openBrowserPerTest((s) => (session = s));
 
 async function apiSignIn(email: string) {
   const res = await session.page.request.post('/api/auth/sign-in', {
