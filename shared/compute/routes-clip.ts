@@ -108,11 +108,25 @@ function stretchScratchFor(c: CompiledStation): StretchScratch {
   return sc;
 }
 
+/** Where a stretch search is headed: its end, and the landmark lower bounds towards it. */
+interface StretchGoal {
+  dst: number;
+  bound: (v: number) => boolean;
+  hSeconds: Float64Array;
+  hMetres: Float64Array;
+}
+
 /**
  * Least-time walks from src with at most `limit` metres, exact: labels (node, time, length) are
  * settled in time order and a label is dropped when a settled one at its node is no longer. The
- * first label settled at a node is its least time within the limit. With `stopAt` ≥ 0 it returns
- * that node's first label; with `record` it lists each attach point (and `extra`) first settled.
+ * first label settled at a node is its least time within the limit.
+ *
+ * Without a goal it lists each attach point (and `extra`) as first settled, with that time, in
+ * hitNode/hitTime, and returns -1. With a goal it returns the label of the least-time walk to
+ * goal.dst (-1 if none), goal-directed: labels settle in order of time plus the landmark lower
+ * bound on time to dst (consistent, so labels at one node still settle in time order and the same
+ * dominance holds), and a label whose length plus the lower bound on metres to dst passes the
+ * limit is never made, so it visits the lens between the two ends instead of the whole ball.
  */
 function stretchSearch(
   c: CompiledStation,
@@ -120,18 +134,19 @@ function stretchSearch(
   excludeMask: number,
   limit: number,
   src: number,
-  stopAt: number,
-  record: boolean,
-  extra: number,
   sc: StretchScratch,
+  goal: StretchGoal | null,
+  extra = -1,
 ): number {
   const stamp = sc.nextStamp();
   const { bestStamp, bestLen, heap, hitNode, hitTime } = sc;
   const { offsets, targets, arcFlags, arcLengthM, isAttach } = c;
+  const dst = goal ? goal.dst : -1;
   sc.size = 0;
   let hits = 0;
   heap.clear();
-  heap.push(sc.add(src, -1, -1, 0, 0), 0, 0);
+  if (goal && !goal.bound(src)) return -1;
+  heap.push(sc.add(src, -1, -1, 0, 0), goal ? goal.hSeconds[src] : 0, 0);
   while (heap.size > 0) {
     const x = heap.pop();
     const v = sc.node[x];
@@ -139,8 +154,8 @@ function stretchSearch(
     if (bestStamp[v] === stamp) {
       if (len >= bestLen[v]) continue;
     } else {
-      if (v === stopAt) return x;
-      if (record && v !== src && (isAttach[v] || v === extra)) {
+      if (v === dst) return x;
+      if (!goal && v !== src && (isAttach[v] || v === extra)) {
         hitNode[hits] = v;
         hitTime[hits++] = sc.time[x];
       }
@@ -155,11 +170,20 @@ function stretchSearch(
       const u = targets[a];
       if (bestStamp[u] === stamp && nl >= bestLen[u]) continue;
       const nt = time + weights[a];
-      heap.push(sc.add(u, x, a, nl, nt), nt, nl);
+      if (!goal) heap.push(sc.add(u, x, a, nl, nt), nt, nl);
+      else if (goal.bound(u) && nl + goal.hMetres[u] <= limit) heap.push(sc.add(u, x, a, nl, nt), nt + goal.hSeconds[u], nl);
     }
   }
   sc.hitCount = hits;
   return -1;
+}
+
+/** The least-time walk src → dst within the tether (the label of its end in `sc`, or -1). */
+function stretchWalk(c: CompiledStation, p: LabelSearchParams, limit: number, src: number, dst: number, sc: StretchScratch): number {
+  const ns = scratchFor(c);
+  const bound = targetBound(c, ns, dst, 1, p.maxSpeedMps, p.landmarkTimesValid);
+  const goal = { dst, bound, hSeconds: ns.hSeconds, hMetres: ns.hMetres };
+  return stretchSearch(c, p.weights, p.excludeMask, limit, src, sc, goal);
 }
 
 /** Farthest-first landmarks over the clip graph, by stretch count (breadth-first). */
@@ -212,7 +236,7 @@ function buildClipGraph(c: CompiledStation, weights: Float64Array, tetherLengthM
   let seconds = new Float64Array(targets.length);
   let m = 0;
   for (let i = 0; i < A; i++) {
-    stretchSearch(c, weights, excludeMask, limit, attachNodes[i], -1, true, -1, sc);
+    stretchSearch(c, weights, excludeMask, limit, attachNodes[i], sc, null);
     const hits = sc.hitCount;
     if (m + hits > targets.length) {
       const cap = Math.max(2 * targets.length, m + hits);
@@ -496,7 +520,7 @@ export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSea
       lastList[lastCount++] = b;
     }
   } else {
-    stretchSearch(c, p.weights, p.excludeMask, limit, t, -1, true, -1, st);
+    stretchSearch(c, p.weights, p.excludeMask, limit, t, st, null);
     lastCount = st.hitCount;
     for (let h = 0; h < lastCount; h++) {
       const b = attachIndex[st.hitNode[h]];
@@ -577,7 +601,7 @@ export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSea
   heap.clear();
   if (sIdx >= 0) offer(sIdx, -1, 0, 0);
   else {
-    stretchSearch(c, p.weights, p.excludeMask, limit, s, -1, true, t, st);
+    stretchSearch(c, p.weights, p.excludeMask, limit, s, st, null, t);
     for (let h = 0; h < st.hitCount; h++) {
       const v = st.hitNode[h];
       const time = f * st.hitTime[h];
@@ -637,7 +661,7 @@ export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSea
   const arcs: number[] = [];
   let total = 0;
   for (let i = 0; i + 1 < clips.length; i++) {
-    let x = stretchSearch(c, p.weights, p.excludeMask, limit, clips[i], clips[i + 1], false, -1, st);
+    let x = stretchWalk(c, p, limit, clips[i], clips[i + 1], st);
     if (x < 0) throw new Error('internal: a clip-graph stretch has no walk');
     total += st.time[x];
     const from = arcs.length;
