@@ -54,7 +54,7 @@ function maxSpeed(settings: StationSettings): number {
  * 100k (measured in bench/routes.bench.ts), too long to hold a request. Above this size `auto` uses
  * the label search unless a clip graph for the query's tether is already built.
  */
-const CLIP_BUILD_FREE_NODES = 20_000;
+export const CLIP_BUILD_FREE_NODES = 20_000;
 
 function useClipGraph(q: Query): boolean {
   if (q.strategy === 'label-search') return false;
