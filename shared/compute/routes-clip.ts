@@ -415,18 +415,52 @@ const clipCache = new WeakMap<Float64Array, Map<string, ClipGraph>>();
  * tether length and exclusions; built on first use and kept for the last few combinations.
  */
 export function clipGraphFor(c: CompiledStation, weights: Float64Array, tetherLengthM: number, excludeMask: number): ClipGraph {
+  const key = `${tetherLengthM}|${excludeMask}`;
+  const held = clipCache.get(weights)?.get(key);
+  return remember(weights, key, held ?? buildClipGraph(c, weights, tetherLengthM, excludeMask));
+}
+
+/** Files a clip graph as the most recent for its weights, dropping the oldest beyond the few kept. */
+function remember(weights: Float64Array, key: string, cg: ClipGraph): ClipGraph {
   let byKey = clipCache.get(weights);
   if (!byKey) clipCache.set(weights, (byKey = new Map()));
-  const key = `${tetherLengthM}|${excludeMask}`;
-  let cg = byKey.get(key);
-  if (cg) {
-    byKey.delete(key);
-  } else {
-    cg = buildClipGraph(c, weights, tetherLengthM, excludeMask);
-    if (byKey.size >= CACHED_PER_WEIGHTS) byKey.delete(byKey.keys().next().value!);
-  }
+  byKey.delete(key);
+  if (byKey.size >= CACHED_PER_WEIGHTS) byKey.delete(byKey.keys().next().value!);
   byKey.set(key, cg);
   return cg;
+}
+
+/** A clip graph as plain data: typed arrays a worker thread can build and hand over without a copy. */
+export type ClipGraphParts = Omit<ClipGraph, 'query' | 'pruned'> & { pruned: [number, ClipRows][] };
+
+/**
+ * The clip graph for these parameters, built with the stretches kept for free swaps (what the
+ * `fastest` fallback uses) as well, as parts and the buffers to transfer.
+ */
+export function buildClipGraphParts(
+  c: CompiledStation,
+  weights: Float64Array,
+  tetherLengthM: number,
+  excludeMask: number,
+): { parts: ClipGraphParts; transfer: ArrayBuffer[] } {
+  const cg = clipGraphFor(c, weights, tetherLengthM, excludeMask);
+  pruneStretches(cg, 0);
+  const { query: _query, pruned, ...rest } = cg;
+  const parts: ClipGraphParts = { ...rest, pruned: [...pruned] };
+  const rows = [parts.swapRows, ...parts.pruned.map(([, r]) => r)];
+  const arrays = [parts.attachNodes, parts.attachIndex, parts.offsets, parts.targets, parts.seconds, parts.landmarkHops];
+  for (const r of rows) arrays.push(r.offsets, r.targets, r.seconds);
+  return { parts, transfer: [...new Set(arrays.map((a) => a.buffer as ArrayBuffer))] };
+}
+
+/**
+ * Files a clip graph built elsewhere (buildClipGraphParts on a station compiled from the same
+ * document) under these weights, so later searches use it. The caller vouches that the weights are
+ * the ones it was built with.
+ */
+export function adoptClipGraph(weights: Float64Array, parts: ClipGraphParts): ClipGraph {
+  const cg: ClipGraph = { ...parts, query: null, pruned: new Map(parts.pruned) };
+  return remember(weights, `${parts.tetherLengthM}|${parts.excludeMask}`, cg);
 }
 
 /** Whether the clip graph for these parameters is already built. */

@@ -31,6 +31,7 @@ interface Query {
   weights: Float64Array;
   landmarkTimesValid: boolean;
   strategy: RouteStrategy;
+  clipBuildFreeNodes: number;
 }
 
 /**
@@ -43,6 +44,8 @@ export type RouteStrategy = 'auto' | 'clip-graph' | 'label-search';
 
 export interface FindRouteOptions {
   strategy?: RouteStrategy;
+  /** `auto` builds a missing clip graph during the query only up to this many nodes */
+  clipBuildFreeNodes?: number;
 }
 
 function maxSpeed(settings: StationSettings): number {
@@ -59,7 +62,26 @@ export const CLIP_BUILD_FREE_NODES = 20_000;
 function useClipGraph(q: Query): boolean {
   if (q.strategy === 'label-search') return false;
   if (q.strategy === 'clip-graph') return true;
-  return q.c.nodeCount <= CLIP_BUILD_FREE_NODES || hasClipGraph(q.weights, q.tether, q.mask);
+  return q.c.nodeCount <= q.clipBuildFreeNodes || hasClipGraph(q.weights, q.tether, q.mask);
+}
+
+/**
+ * Whether `auto` would answer this request with the label search for want of a clip graph: the
+ * cue for a caller to build one off the request path (buildClipGraphParts) and adopt it.
+ */
+export function wantsClipGraph(c: CompiledStation, settings: StationSettings, request: RouteRequest, options: FindRouteOptions = {}) {
+  const { tether, mask, arcSeconds } = searchTerms(c, settings, request);
+  if ((options.strategy ?? 'auto') !== 'auto' || c.nodeCount <= (options.clipBuildFreeNodes ?? CLIP_BUILD_FREE_NODES)) return null;
+  return hasClipGraph(arcSeconds, tether, mask) ? null : { tetherLengthM: tether, excludeMask: mask, weights: arcSeconds };
+}
+
+/** What a request searches with: tether, excluded arcs, arc times and whether the landmark times hold. */
+function searchTerms(c: CompiledStation, settings: StationSettings, request: RouteRequest) {
+  return {
+    tether: request.tetherLengthM ?? settings.tetherLengthM,
+    mask: excludeMaskFor(request.allowRide),
+    ...arcSecondsFor(c, settings),
+  };
 }
 
 function search(q: Query, objective: 'sum' | 'lex', swapCost: number) {
@@ -215,19 +237,20 @@ export function findRoute(
   if (s === undefined || t === undefined) {
     throw new RangeError(`unknown node key "${s === undefined ? request.from : request.to}"`);
   }
-  const { arcSeconds, landmarkTimesValid } = arcSecondsFor(c, settings);
+  const { tether, mask, arcSeconds, landmarkTimesValid } = searchTerms(c, settings, request);
   const q: Query = {
     c,
     settings,
     mode: request.mode,
     s,
     t,
-    tether: request.tetherLengthM ?? settings.tetherLengthM,
+    tether,
     factor: request.carrying ? settings.carryFactor : 1,
-    mask: excludeMaskFor(request.allowRide),
+    mask,
     weights: arcSeconds,
     landmarkTimesValid,
     strategy: options.strategy ?? 'auto',
+    clipBuildFreeNodes: options.clipBuildFreeNodes ?? CLIP_BUILD_FREE_NODES,
   };
   if (s === t) return infeasible(q, 'same-node', `The route starts and ends at ${request.from}.`);
 

@@ -1,0 +1,103 @@
+import { Worker } from 'node:worker_threads';
+import type { CompiledStation } from '@shared/compute/compiled-station';
+import { adoptClipGraph, type ClipGraphParts } from '@shared/compute/routes-clip';
+import { findRoute, wantsClipGraph, type FindRouteOptions } from '@shared/compute/routes';
+import type { RouteRequest, RouteResult } from '@shared/schemas/route';
+import type { StationDocument } from '@shared/schemas/station';
+
+const BOOT = new URL('./ts-worker-boot.mjs', import.meta.url);
+
+/** What a builder thread is given. */
+export interface ClipBuildJob {
+  doc: StationDocument;
+  tetherLengthM: number;
+  excludeMask: number;
+}
+
+export interface ClipBuildEvent {
+  nodes: number;
+  tetherLengthM: number;
+  excludeMask: number;
+  ok: boolean;
+  ms: number;
+  error?: string;
+}
+
+interface Builds {
+  /** `auto` builds a clip graph within the query up to this many nodes; above, a builder thread does */
+  inlineNodes: number;
+  running: Map<Worker, Promise<void>>;
+  onEvent: (e: ClipBuildEvent) => void;
+}
+
+const builds: Builds = { inlineNodes: 20_000, running: new Map(), onEvent: () => {} };
+
+/** Sets the size above which clip graphs are built off the request path, and who hears of builds. */
+export function configureClipBuilds(options: { inlineNodes?: number; onEvent?: (e: ClipBuildEvent) => void }): void {
+  if (options.inlineNodes !== undefined) builds.inlineNodes = options.inlineNodes;
+  if (options.onEvent) builds.onEvent = options.onEvent;
+}
+
+// the clip graphs being built for each compiled station, by `<tether>|<mask>`
+const pending = new WeakMap<CompiledStation, Set<string>>();
+
+/**
+ * A route as findRoute answers it, and on a station too large to build a clip graph during a query,
+ * a builder thread started for the one this request would use (one at a time in the process; a
+ * request while one runs starts none). The query is answered at once by the label search; once
+ * the builder hands its clip graph over, the next queries use it. Both searches are exact: the
+ * answer has the same cost either way, though of two equally good routes they may pick different ones.
+ */
+export function routeOffPath(compiled: CompiledStation, doc: StationDocument, request: RouteRequest): RouteResult {
+  const options: FindRouteOptions = { clipBuildFreeNodes: builds.inlineNodes };
+  const want = wantsClipGraph(compiled, doc.settings, request, options);
+  // a clip graph is filed under the compiled station's own arc times: other settings get none
+  if (want && want.weights === compiled.arcSeconds && builds.running.size === 0) {
+    const key = `${want.tetherLengthM}|${want.excludeMask}`;
+    let keys = pending.get(compiled);
+    if (!keys) pending.set(compiled, (keys = new Set()));
+    if (!keys.has(key)) {
+      keys.add(key);
+      startBuild(compiled, { doc, tetherLengthM: want.tetherLengthM, excludeMask: want.excludeMask }, () => keys.delete(key));
+    }
+  }
+  return findRoute(compiled, doc.settings, request, options);
+}
+
+function startBuild(compiled: CompiledStation, job: ClipBuildJob, done: () => void): void {
+  const started = performance.now();
+  const worker = new Worker(BOOT, { argv: ['./clip-builder-worker.ts'], workerData: job });
+  // a build never keeps the process alive: shutting down simply drops it
+  worker.unref();
+  const finished = new Promise<void>((resolve) => {
+    let settled = false;
+    const finish = (ok: boolean, error?: string) => {
+      if (settled) return;
+      settled = true;
+      builds.running.delete(worker);
+      done();
+      resolve();
+      const event = { nodes: compiled.nodeCount, tetherLengthM: job.tetherLengthM, excludeMask: job.excludeMask, ok };
+      builds.onEvent({ ...event, ms: performance.now() - started, ...(error ? { error } : {}) });
+    };
+    worker.on('message', (parts: ClipGraphParts) => {
+      adoptClipGraph(compiled.arcSeconds, parts);
+      finish(true);
+    });
+    worker.on('error', (err) => finish(false, err.message));
+    worker.on('exit', (code) => finish(false, `the builder stopped (code ${code}) before handing over a clip graph`));
+  });
+  builds.running.set(worker, finished);
+}
+
+/** Stops every builder thread and waits for them to end. */
+export async function stopClipBuilds(): Promise<void> {
+  const running = [...builds.running];
+  for (const [worker] of running) void worker.terminate();
+  await Promise.all(running.map(([, exited]) => exited));
+}
+
+/** Resolves when no builder thread is running (for tests and benchmarks). */
+export async function clipBuildsSettled(): Promise<void> {
+  while (builds.running.size > 0) await Promise.all([...builds.running.values()]);
+}

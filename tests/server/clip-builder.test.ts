@@ -1,0 +1,80 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { compileStation } from '@shared/compute/compiled-station';
+import { excludeMaskFor, findRoute } from '@shared/compute/routes';
+import { hasClipGraph } from '@shared/compute/routes-clip';
+import { generateTrussStation } from '@shared/compute/truss-generator';
+import type { RouteMode } from '@shared/schemas/route';
+import {
+  clipBuildsSettled,
+  configureClipBuilds,
+  routeOffPath,
+  stopClipBuilds,
+  type ClipBuildEvent,
+} from '../../server/modules/compute/clip-builder';
+
+// A 3,000-node truss stands in for a large station: the inline limit is lowered below it.
+const doc = generateTrussStation({ nodes: 3000, seed: 11 });
+const anchors = doc.nodes.filter((n) => n.kind === 'anchor').map((n) => n.key);
+const events: ClipBuildEvent[] = [];
+
+beforeAll(() => configureClipBuilds({ inlineNodes: 100, onEvent: (e) => events.push(e) }));
+afterAll(async () => {
+  await stopClipBuilds();
+  configureClipBuilds({ inlineNodes: 20_000, onEvent: () => {} });
+});
+
+describe('clip graphs built off the request path', () => {
+  it('answers at once, builds in a thread, and then answers from the handed-over clip graph', async () => {
+    const c = compileStation(doc);
+    const tether = doc.settings.tetherLengthM;
+    const mask = excludeMaskFor(false);
+    const req = { from: anchors[0], to: anchors[anchors.length - 1] };
+    const first = routeOffPath(c, doc, { ...req, mode: 'fewest-swaps' });
+    expect(first.feasible).toBe(true);
+    expect(hasClipGraph(c.arcSeconds, tether, mask)).toBe(false);
+    await clipBuildsSettled();
+    expect(events.at(-1)).toMatchObject({ ok: true, nodes: c.nodeCount, tetherLengthM: tether, excludeMask: mask });
+    expect(hasClipGraph(c.arcSeconds, tether, mask)).toBe(true);
+
+    // the handed-over graph answers exactly as one built in this thread on a fresh compile
+    const fresh = compileStation(doc);
+    for (const mode of ['fastest', 'fewest-swaps', 'balanced'] as RouteMode[]) {
+      for (let i = 0; i < 6; i++) {
+        const r = { from: anchors[(i * 37) % anchors.length], to: anchors[(i * 91 + 13) % anchors.length], mode };
+        if (r.from === r.to) continue;
+        const adopted = routeOffPath(c, doc, r);
+        expect(JSON.stringify(adopted)).toBe(JSON.stringify(findRoute(fresh, doc.settings, r, { strategy: 'clip-graph' })));
+      }
+    }
+    // fewest swaps from the label search, before the build, is the same optimum
+    const after = routeOffPath(c, doc, { ...req, mode: 'fewest-swaps' });
+    expect(after.feasible && first.feasible && after.swapCount === first.swapCount).toBe(true);
+  });
+
+  it('runs one build at a time and builds each tether length once', async () => {
+    const c = compileStation(doc);
+    const before = events.length;
+    const req = { from: anchors[3], to: anchors[anchors.length - 4], mode: 'balanced' as const };
+    routeOffPath(c, doc, { ...req, tetherLengthM: 20 });
+    routeOffPath(c, doc, { ...req, tetherLengthM: 20 });
+    routeOffPath(c, doc, { ...req, tetherLengthM: 30 });
+    await clipBuildsSettled();
+    expect(events.slice(before).map((e) => e.tetherLengthM)).toEqual([20]);
+    routeOffPath(c, doc, { ...req, tetherLengthM: 20 });
+    routeOffPath(c, doc, { ...req, tetherLengthM: 30 });
+    await clipBuildsSettled();
+    expect(events.slice(before).map((e) => e.tetherLengthM)).toEqual([20, 30]);
+  });
+
+  it('a stopped build reports itself failed and leaves the label search answering', async () => {
+    const c = compileStation(doc);
+    const before = events.length;
+    const req = { from: anchors[5], to: anchors[anchors.length - 6], mode: 'fewest-swaps' as const, tetherLengthM: 22 };
+    const r = routeOffPath(c, doc, req);
+    await stopClipBuilds();
+    expect(events.slice(before)).toEqual([expect.objectContaining({ ok: false, tetherLengthM: 22 })]);
+    expect(hasClipGraph(c.arcSeconds, 22, excludeMaskFor(false))).toBe(false);
+    expect(JSON.stringify(routeOffPath(c, doc, req))).toBe(JSON.stringify(r));
+    await stopClipBuilds();
+  });
+});
