@@ -11,6 +11,7 @@ export const ERROR_CODES = [
   'UNSUPPORTED_MEDIA_TYPE',
   'RATE_LIMITED',
   'INTERNAL',
+  'UNAVAILABLE',
 ] as const;
 export const ErrorCodeSchema = z.enum(ERROR_CODES);
 export type ErrorCode = z.infer<typeof ErrorCodeSchema>;
@@ -26,6 +27,7 @@ export const ERROR_STATUS: Record<ErrorCode, number> = {
   UNSUPPORTED_MEDIA_TYPE: 415,
   RATE_LIMITED: 429,
   INTERNAL: 500,
+  UNAVAILABLE: 503,
 };
 
 export const ErrorDetailSchema = z.object({ path: z.string(), message: z.string() });

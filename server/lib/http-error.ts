@@ -7,6 +7,8 @@ export class HttpError extends Error {
     readonly code: ErrorCode,
     message: string,
     readonly details?: ErrorDetail[],
+    /** response headers sent with the error body (e.g. Retry-After) */
+    readonly headers?: Record<string, string>,
   ) {
     super(message);
     this.status = ERROR_STATUS[code];
@@ -19,3 +21,6 @@ export const notFound = (what: string) => new HttpError('NOT_FOUND', `${what} no
 export const forbidden = (message = 'Your role does not allow this.') => new HttpError('FORBIDDEN', message);
 export const conflict = (message: string, details?: ErrorDetail[]) => new HttpError('CONFLICT', message, details);
 export const unauthenticated = (message = 'Sign in to continue.') => new HttpError('UNAUTHENTICATED', message);
+/** 503: the server cannot take this now; `Retry-After` tells the client when to try again. */
+export const unavailable = (message: string, retryAfterSeconds = 1) =>
+  new HttpError('UNAVAILABLE', message, undefined, { 'Retry-After': String(retryAfterSeconds) });

@@ -36,10 +36,12 @@ export function toHttpError(err: unknown): HttpError {
 export function errorHandler(logger: Logger): ErrorRequestHandler {
   return (err, req, res, _next) => {
     const httpError = toHttpError(err);
-    if (httpError.status >= 500) logger.error({ err, method: req.method, url: req.originalUrl }, 'unhandled error');
+    // 503 is the server refusing on purpose (busy, shutting down): no stack to log
+    if (httpError.status >= 500 && httpError.code !== 'UNAVAILABLE') logger.error({ err, method: req.method, url: req.originalUrl }, 'unhandled error');
     if (res.headersSent) return res.end();
     const body: ErrorBody = { error: { code: httpError.code, message: httpError.message } };
     if (httpError.details?.length) body.error.details = httpError.details;
+    if (httpError.headers) res.set(httpError.headers);
     res.status(httpError.status).json(body);
   };
 }
