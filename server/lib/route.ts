@@ -29,9 +29,14 @@ export interface RouteDef<S extends InputSchemas = InputSchemas> {
   input?: S;
   /** middleware that runs after the access check and before validation (e.g. a multipart parser) */
   before?: RequestHandler[];
-  /** returns the JSON body (status 200, or `status`), or undefined after writing `res` itself */
+  /** returns the JSON body (status 200, or `status`) or a JsonText, or undefined after writing `res` itself */
   handler: (req: Request, res: Response, input: Parsed<S>) => unknown;
   status?: number;
+}
+
+/** A response body already serialised as JSON (by a worker thread, say): sent as it is. */
+export class JsonText {
+  constructor(readonly text: string) {}
 }
 
 export function defineRoute<S extends InputSchemas>(def: RouteDef<S>): RouteDef<S> {
@@ -68,7 +73,10 @@ export function mountRoutes(base: string, defs: RouteDef<any>[]): express.Router
       const result = await def.handler(req, res, input as never);
       if (res.headersSent) return;
       if (result === undefined) res.status(def.status ?? 204).end();
-      else res.status(def.status ?? 200).json(result);
+      else if (result instanceof JsonText) {
+        res.type('json');
+        res.status(def.status ?? 200).send(result.text);
+      } else res.status(def.status ?? 200).json(result);
     });
   }
   return router;

@@ -7,11 +7,26 @@ import { compileStation, type CompiledStation } from '@shared/compute/compiled-s
 import type { StationDocument } from '@shared/schemas/station';
 import { getStationSnapshot } from '../stations/stations.service';
 
-export interface CompiledEntry {
-  stationId: number;
-  version: number;
-  doc: StationDocument;
-  compiled: CompiledStation;
+/**
+ * One station version: its document, node keys and query index. The index is compiled on first
+ * use, so a caller that only needs the document (or hands routes to the worker pool) never pays
+ * for it on the main thread.
+ */
+export class CompiledEntry {
+  readonly nodeKeys: ReadonlySet<string>;
+  private index: CompiledStation | null = null;
+
+  constructor(
+    readonly stationId: number,
+    readonly version: number,
+    readonly doc: StationDocument,
+  ) {
+    this.nodeKeys = new Set(doc.nodes.map((n) => n.key));
+  }
+
+  get compiled(): CompiledStation {
+    return (this.index ??= compileStation(this.doc));
+  }
 }
 
 /** A few stations at a time: compiling a large truss costs far more than keeping its index. */
@@ -25,7 +40,7 @@ export function stationVersion(db: Db, stationId: number): number | null {
 }
 
 /**
- * The station's document and query index, compiled once per (station, version). Each call costs
+ * The station's document and query index, compiled once per (station, version) when first asked for. Each call costs
  * one version lookup; a new version replaces the station's old entry, and the least recently used
  * station drops out when more than CACHE_STATIONS are held.
  */
@@ -42,12 +57,7 @@ export function getCompiledStation(ctx: AppContext, stationId: number): Compiled
   }
   // document and version from one transaction, so an index is never filed under the wrong version
   const snapshot = getStationSnapshot(ctx.db, stationId);
-  const entry: CompiledEntry = {
-    stationId,
-    version: snapshot.version,
-    doc: snapshot.document,
-    compiled: compileStation(snapshot.document),
-  };
+  const entry = new CompiledEntry(stationId, snapshot.version, snapshot.document);
   cache.delete(stationId);
   cache.set(stationId, entry);
   while (cache.size > CACHE_STATIONS) cache.delete(cache.keys().next().value!);
