@@ -14,6 +14,7 @@ import { createLogger } from './lib/logger';
 import { createMailer } from './lib/mail';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
 import { sessionMiddleware } from './middleware/session';
+import { RoutePool } from './modules/compute/route-pool';
 import { storeMessage } from './modules/mailbox/mailbox.service';
 import { apiModules } from './modules';
 
@@ -56,7 +57,9 @@ export async function createApp(options: CreateAppOptions = {}): Promise<AppInst
     logger,
     onReceive: (mail) => storeMessage(handle.db, mail),
   });
-  const ctx: AppContext = { config, db: handle.db, sqlite: handle.sqlite, logger, mailer };
+  const routePool =
+    config.routeWorkers > 0 ? new RoutePool({ size: config.routeWorkers, queueLimit: config.routeQueueLimit, logger }) : null;
+  const ctx: AppContext = { config, db: handle.db, sqlite: handle.sqlite, logger, mailer, routePool };
   if (options.seed ?? true) await seedDatabase(ctx);
 
   const app = express();
@@ -70,7 +73,8 @@ export async function createApp(options: CreateAppOptions = {}): Promise<AppInst
         res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
       },
       autoLogging: { ignore: (req) => req.url === '/api/health' || !req.url?.startsWith('/api') },
-      customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info'),
+      customLogLevel: (_req, res, err) =>
+        res.statusCode === 503 ? 'warn' : err || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info',
     }),
   );
   app.use(
@@ -110,6 +114,7 @@ export async function createApp(options: CreateAppOptions = {}): Promise<AppInst
     app,
     ctx,
     async close() {
+      await routePool?.close();
       await mailer.close();
       handle.close();
     },

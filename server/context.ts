@@ -3,6 +3,7 @@ import type Database from 'better-sqlite3';
 import type { AppConfig } from './lib/env';
 import type { Logger } from './lib/logger';
 import type { Mailer } from './lib/mail';
+import type { RoutePool } from './modules/compute/route-pool';
 
 /** What every service needs, made once in createApp() and handed to each module. */
 export interface AppContext {
@@ -11,4 +12,6 @@ export interface AppContext {
   sqlite: Database.Database;
   logger: Logger;
   mailer: Mailer;
+  /** route computations off the main thread; null when `routeWorkers` is 0 */
+  routePool: RoutePool | null;
 }

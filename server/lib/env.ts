@@ -1,6 +1,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import crypto from 'node:crypto';
+import os from 'node:os';
 
 export interface AppConfig {
   port: number;
@@ -18,6 +19,10 @@ export interface AppConfig {
   signInWindowMs: number;
   /** requests per minute to the API from one address */
   apiRequestsPerMinute: number;
+  /** route computations on this many worker threads; 0 → on the main thread */
+  routeWorkers: number;
+  /** route computations waiting or running in the worker pool at the most before 503 */
+  routeQueueLimit: number;
   logLevel: string;
   /** folder of the built client; null → API only */
   clientDir: string | null;
@@ -48,6 +53,11 @@ export function resolveJwtSecret(dataDir: string, fromEnv: string | undefined): 
   }
 }
 
+/** One route worker per core beyond the one the main thread needs, at most two (README, Performance). */
+export function defaultRouteWorkers(cores = os.availableParallelism()): number {
+  return Math.max(0, Math.min(2, cores - 1));
+}
+
 export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Partial<AppConfig> = {}): AppConfig {
   const dataDir = path.resolve(overrides.dataDir ?? env.DATA_DIR ?? 'data');
   fs.mkdirSync(dataDir, { recursive: true });
@@ -66,6 +76,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     signInAttempts: overrides.signInAttempts ?? intFromEnv(env.SIGN_IN_ATTEMPTS, 10),
     signInWindowMs: overrides.signInWindowMs ?? intFromEnv(env.SIGN_IN_WINDOW_MS, 15 * 60 * 1000),
     apiRequestsPerMinute: overrides.apiRequestsPerMinute ?? intFromEnv(env.API_REQUESTS_PER_MINUTE, 1200),
+    routeWorkers: overrides.routeWorkers ?? intFromEnv(env.ROUTE_WORKERS, defaultRouteWorkers()),
+    routeQueueLimit: overrides.routeQueueLimit ?? intFromEnv(env.ROUTE_QUEUE_LIMIT, 64),
     logLevel: overrides.logLevel ?? env.LOG_LEVEL ?? 'info',
     clientDir: overrides.clientDir !== undefined ? overrides.clientDir : path.resolve('dist'),
     mailFrom: overrides.mailFrom ?? env.MAIL_FROM ?? 'Tetherwise <no-reply@tetherwise.local>',

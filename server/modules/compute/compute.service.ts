@@ -2,7 +2,8 @@ import { eq, max } from 'drizzle-orm';
 import type { AppContext } from '../../context';
 import { edges, nodes } from '../../db/schema';
 import { HttpError, badRequest } from '../../lib/http-error';
-import { findRoute, hasNodeKey } from '@shared/compute/routes';
+import { JsonText } from '../../lib/route';
+import { findRoute } from '@shared/compute/routes';
 import { reachCheck } from '@shared/compute/reach';
 import { planSockets, type SocketCandidate } from '@shared/compute/socket-planner';
 import { gridCandidates } from '@shared/compute/truss-faces';
@@ -26,13 +27,26 @@ export function socketNode(doc: StationDocument, key: string, path: string): Sta
   return node as StationNode & { normal: Vec3 };
 }
 
+function checkRouteKeys(entry: CompiledEntry, request: RouteRequest) {
+  for (const key of [request.from, request.to]) if (!entry.nodeKeys.has(key)) throw unknownNode(key);
+}
+
+/** A route on the main thread (plans, walkthroughs, and the routes endpoint without a pool). */
 export function routeOn(entry: CompiledEntry, request: RouteRequest): RouteResult {
-  for (const key of [request.from, request.to]) if (!hasNodeKey(entry.compiled, key)) throw unknownNode(key);
+  checkRouteKeys(entry, request);
   return findRoute(entry.compiled, entry.doc.settings, request);
 }
 
-export function computeRoute(ctx: AppContext, stationId: number, request: RouteRequest): RouteResult {
-  return routeOn(getCompiledStation(ctx, stationId), request);
+/**
+ * `POST /api/stations/:id/routes`: on the worker pool when there is one (the answer comes back as
+ * JSON text, sent as it is), else on the main thread.
+ */
+export function computeRoute(ctx: AppContext, stationId: number, request: RouteRequest): RouteResult | Promise<JsonText> {
+  const entry = getCompiledStation(ctx, stationId);
+  if (!ctx.routePool) return routeOn(entry, request);
+  checkRouteKeys(entry, request);
+  const station = `${ctx.config.databaseUrl}#${stationId}`;
+  return ctx.routePool.route({ station, version: entry.version, doc: entry.doc, request }).then((json) => new JsonText(json));
 }
 
 export function reachOn(doc: StationDocument, request: ReachRequest): ReachResult {
