@@ -1,16 +1,25 @@
-// `npm run bench:load`: the real server in its own process on loopback, driven by autocannon.
-// Bounded: each run has a fixed duration; the whole thing stops itself in about two and a half minutes.
-import { spawn } from 'node:child_process';
+// `npm run bench:load`: the real server in its own process on loopback, driven by autocannon: two
+// servers, one computing routes on the main thread (ROUTE_WORKERS=0) and one on the worker pool
+// (LOAD_POOL_WORKERS), with the same seed and the same request bodies, each row measured on one and
+// then on the other; a 60 s soak on the one configured as the default. Bounded: each run has a fixed
+// duration; the whole thing stops itself in about four minutes (LOAD_*_SECONDS shorten it).
+import { spawn, type ChildProcess } from 'node:child_process';
 import fs from 'node:fs';
 import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
 import autocannon from 'autocannon';
 import { generateTrussStation } from '../shared/compute/truss-generator';
+import { defaultRouteWorkers } from '../server/lib/env';
 
 const RUN_SECONDS = Number(process.env.LOAD_RUN_SECONDS ?? 10);
+const WARM_SECONDS = Number(process.env.LOAD_WARM_SECONDS ?? 5);
 const SOAK_SECONDS = Number(process.env.LOAD_SOAK_SECONDS ?? 60);
 const CONNECTIONS = Number(process.env.LOAD_CONNECTIONS ?? 10);
+/** connections of the light endpoint in the mixed run: a few other users while routes are busy */
+const LIGHT_CONNECTIONS = Number(process.env.LOAD_LIGHT_CONNECTIONS ?? 2);
+/** pool size of the pool run; the server's default when that is not 0 */
+const POOL_WORKERS = Number(process.env.LOAD_POOL_WORKERS ?? (defaultRouteWorkers() || 2));
 const PASSWORD = 'tetherwise-demo';
 
 async function freePort(): Promise<number> {
@@ -45,23 +54,21 @@ interface Row {
   rps: number;
   p50: number;
   p99: number;
+  /** transport errors, time-outs and non-2xx answers */
   errors: number;
-  non2xx: number;
-  requests: number;
 }
 
-async function run(name: string, opts: autocannon.Options): Promise<Row> {
-  const result = await autocannon({ connections: CONNECTIONS, duration: RUN_SECONDS, ...opts });
+function toRow(name: string, result: autocannon.Result): Row {
   return {
     name,
     rps: result.requests.average,
     p50: result.latency.p50,
     p99: result.latency.p99,
-    errors: result.errors + result.timeouts,
-    non2xx: result.non2xx,
-    requests: result.requests.total,
+    errors: result.errors + result.timeouts + result.non2xx,
   };
 }
+
+const cannon = (opts: autocannon.Options) => autocannon({ connections: CONNECTIONS, duration: RUN_SECONDS, ...opts });
 
 function routeRequests(keys: string[], count: number, seed: number) {
   let s = seed;
@@ -75,11 +82,18 @@ function routeRequests(keys: string[], count: number, seed: number) {
   });
 }
 
-async function main() {
+interface Server {
+  base: string;
+  process: ChildProcess;
+  /** SIGTERM, then wait for the process to end (so the next server has the machine to itself) */
+  stop(): Promise<void>;
+}
+
+async function startServer(routeWorkers: number): Promise<Server> {
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'tetherwise-load-'));
   const port = await freePort();
   const base = `http://127.0.0.1:${port}`;
-  const server = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
     env: {
       ...process.env,
       PORT: String(port),
@@ -87,23 +101,51 @@ async function main() {
       DATA_DIR: dir,
       SEED_DEMO: '1',
       LOG_LEVEL: 'warn',
+      ROUTE_WORKERS: String(routeWorkers),
       // the limiters would turn a load test into a rate-limit test
       API_REQUESTS_PER_MINUTE: '100000000',
       SIGN_IN_ATTEMPTS: '100000000',
     },
     stdio: ['ignore', 'inherit', 'inherit'],
   });
-  const stop = () => server.kill('SIGTERM');
-  process.on('exit', stop);
-  try {
-    for (let i = 0; i < 200; i++) {
-      try {
-        if ((await fetch(`${base}/api/health`)).ok) break;
-      } catch {
-        /* not up yet */
-      }
-      await new Promise((r) => setTimeout(r, 100));
+  const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
+  const kill = () => child.kill('SIGTERM');
+  process.on('exit', kill);
+  const stop = async () => {
+    kill();
+    await Promise.race([exited, new Promise((r) => setTimeout(r, 10_000))]);
+    fs.rmSync(dir, { recursive: true, force: true });
+  };
+  for (let i = 0; i < 200; i++) {
+    try {
+      if ((await fetch(`${base}/api/health`)).ok) return { base, process: child, stop };
+    } catch {
+      /* not up yet */
     }
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  await stop();
+  throw new Error('the server did not start');
+}
+
+interface Scenario {
+  name: string;
+  /** one row, or two for the mixed run (two autocannon instances at once) */
+  run(): Promise<Row[]>;
+}
+
+/** A started server with its stations imported and warmed, and the runs to measure on it. */
+interface Target {
+  routeWorkers: number;
+  server: Server;
+  scenarios: Scenario[];
+  soak(): Promise<autocannon.Result>;
+}
+
+async function prepare(routeWorkers: number): Promise<Target> {
+  const server = await startServer(routeWorkers);
+  const { base } = server;
+  try {
     const planner = await signIn(base, 'planner@example.org');
     const engineer = await signIn(base, 'engineer@example.org');
     const stations = (await (await fetch(`${base}/api/stations`, { headers: { cookie: planner } })).json()) as { id: number; name: string }[];
@@ -135,54 +177,127 @@ async function main() {
         requests: [{ setupRequest: (req) => ({ ...req, body: bodies[i++ % bodies.length] }) }],
       };
     };
+    const graphOpts: autocannon.Options = { url: `${base}/api/stations/${demo.id}/graph`, headers: { cookie: planner } };
 
-    // warm the compiled-station cache of both stations
+    // warm: compile both stations and build their clip graphs (seconds at 10k), then a short run
+    // under load so that every worker the pool hands a station to has built them too
+    const t0 = performance.now();
     for (const [id, bodies] of [[demo.id, demoBodies], [bigId, bigBodies]] as const) {
-      await fetch(`${base}/api/stations/${id}/routes`, { method: 'POST', headers: { cookie: planner, 'content-type': 'application/json' }, body: bodies[0] });
+      const res = await fetch(`${base}/api/stations/${id}/routes`, {
+        method: 'POST',
+        headers: { cookie: planner, 'content-type': 'application/json' },
+        body: bodies[0],
+      });
+      if (res.status !== 200) throw new Error(`warm-up route: ${res.status} ${await res.text()}`);
+      await cannon({ ...routeOpts(id, bodies), duration: WARM_SECONDS });
     }
+    console.log(`ROUTE_WORKERS=${routeWorkers}: started and warmed in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
 
-    const rows: Row[] = [];
-    rows.push(await run('GET /api/health (reference)', { url: `${base}/api/health` }));
-    rows.push(await run(`POST routes — ${demo.name}`, routeOpts(demo.id, demoBodies)));
-    rows.push(await run('POST routes — 10k-node truss', routeOpts(bigId, bigBodies)));
-    rows.push(await run(`GET graph — ${demo.name}`, { url: `${base}/api/stations/${demo.id}/graph`, headers: { cookie: planner } }));
-    rows.push(
-      await run('POST sign-in (bcrypt cost 10)', {
+    const one = (name: string, opts: autocannon.Options): Scenario => ({ name, run: async () => [toRow(name, await cannon(opts))] });
+    const scenarios: Scenario[] = [
+      one('GET /api/health (reference)', { url: `${base}/api/health` }),
+      one(`POST routes — ${demo.name}`, routeOpts(demo.id, demoBodies)),
+      one('POST routes — 10k-node truss', routeOpts(bigId, bigBodies)),
+      one(`GET graph — ${demo.name}`, graphOpts),
+      one('POST sign-in (bcrypt cost 10)', {
         url: `${base}/api/auth/sign-in`,
         method: 'POST',
         headers: { 'content-type': 'application/json' },
         body: JSON.stringify({ email: 'viewer@example.org', password: PASSWORD }),
       }),
-    );
+      {
+        // route load on the 10k station while a few others open the demo station's graph
+        name: 'mixed',
+        run: async () => {
+          const [routes, graph] = await Promise.all([
+            cannon(routeOpts(bigId, bigBodies)),
+            cannon({ ...graphOpts, connections: LIGHT_CONNECTIONS }),
+          ]);
+          return [toRow('mixed: POST routes — 10k-node truss', routes), toRow(`mixed: GET graph (${LIGHT_CONNECTIONS} conn.)`, graph)];
+        },
+      },
+    ];
+    return { routeWorkers, server, scenarios, soak: () => cannon({ ...routeOpts(bigId, bigBodies), duration: SOAK_SECONDS }) };
+  } catch (err) {
+    await server.stop();
+    throw err;
+  }
+}
 
-    const before = rssMiB(server.pid!);
-    const soak = await autocannon({ ...routeOpts(bigId, bigBodies), connections: CONNECTIONS, duration: SOAK_SECONDS });
-    const after = rssMiB(server.pid!);
+interface Measured {
+  routeWorkers: number;
+  rows: Row[];
+  soak?: { row: Row; beforeMiB: number; afterMiB: number };
+}
 
-    const ref = rows[0].rps;
-    console.log(`\nLoad on loopback: ${os.cpus()[0]?.model} ×${os.cpus().length}, ${CONNECTIONS} connections, ${RUN_SECONDS} s each`);
-    console.log('endpoint'.padEnd(36), 'req/s'.padStart(9), 'p50 ms'.padStart(8), 'p99 ms'.padStart(8), 'errors'.padStart(7), 'non-2xx'.padStart(8), '÷health'.padStart(8));
-    for (const r of rows) {
-      console.log(
-        r.name.padEnd(36),
-        r.rps.toFixed(0).padStart(9),
-        r.p50.toFixed(1).padStart(8),
-        r.p99.toFixed(1).padStart(8),
-        String(r.errors).padStart(7),
-        String(r.non2xx).padStart(8),
-        (r.rps / ref).toFixed(3).padStart(8),
-      );
-    }
+async function soakOn(target: Target): Promise<Measured['soak']> {
+  const pid = target.server.process.pid!;
+  const beforeMiB = rssMiB(pid);
+  const row = toRow(`soak ${SOAK_SECONDS} s: routes — 10k`, await target.soak());
+  return { row, beforeMiB, afterMiB: rssMiB(pid) };
+}
+
+const ms = (v: number) => (v >= 1000 ? `${(v / 1000).toFixed(2)} s` : `${v.toFixed(0)} ms`);
+
+function printComparison(main: Measured, pool: Measured) {
+  const label = (m: Measured) => (m.routeWorkers === 0 ? 'main thread' : `pool of ${m.routeWorkers}`);
+  console.log(
+    `\nLoad on loopback: ${os.cpus()[0]?.model} ×${os.cpus().length}, node ${process.version}, ` +
+      `${CONNECTIONS} connections, ${RUN_SECONDS} s a run; left: ${label(main)}, right: ${label(pool)}`,
+  );
+  const cols = ['req/s', 'p50', 'p99', 'err'];
+  console.log(
+    'endpoint'.padEnd(40),
+    ...cols.map((c) => c.padStart(8)),
+    '│',
+    ...cols.map((c) => c.padStart(8)),
+    '│',
+    'req/s ×'.padStart(8),
+    'p99 ×'.padStart(7),
+  );
+  const cells = (r: Row) => [r.rps.toFixed(0), ms(r.p50), ms(r.p99), String(r.errors)].map((c) => c.padStart(8));
+  const pairs = main.rows.map((r, i) => [r, pool.rows[i]] as const);
+  if (main.soak && pool.soak) pairs.push([main.soak.row, pool.soak.row]);
+  for (const [a, b] of pairs) {
     console.log(
-      `\nSoak ${SOAK_SECONDS} s of routes on the 10k station: ${soak.requests.average.toFixed(0)} req/s, p99 ${soak.latency.p99} ms, ` +
-        `errors ${soak.errors + soak.timeouts}, non-2xx ${soak.non2xx}; server RSS ${before.toFixed(0)} MiB before → ${after.toFixed(0)} MiB after`,
+      a.name.padEnd(40),
+      ...cells(a),
+      '│',
+      ...cells(b),
+      '│',
+      (b.rps / a.rps).toFixed(2).padStart(8),
+      (b.p99 / Math.max(a.p99, 1)).toFixed(2).padStart(7),
     );
-    const bad = rows.some((r) => r.errors > 0 || r.non2xx > 0) || soak.errors > 0 || soak.non2xx > 0;
-    console.log(bad ? 'FAIL: some requests failed' : 'PASS: zero errors');
+  }
+  for (const m of [main, pool]) {
+    if (!m.soak) continue;
+    const { row, beforeMiB, afterMiB } = m.soak;
+    console.log(
+      `\nSoak (${label(m)}, the default here) ${SOAK_SECONDS} s of routes on the 10k station: ${row.rps.toFixed(0)} req/s, ` +
+        `p99 ${ms(row.p99)}, errors ${row.errors}; server RSS ${beforeMiB.toFixed(0)} MiB before → ${afterMiB.toFixed(0)} MiB after`,
+    );
+  }
+}
+
+async function main() {
+  const started = performance.now();
+  const defaultWorkers = defaultRouteWorkers();
+  // both servers run side by side and each row is measured on one, then at once on the other, so
+  // that other work on the machine weighs on both alike; an idle server costs the other nothing
+  const targets = [await prepare(0), await prepare(POOL_WORKERS)];
+  try {
+    const measured: Measured[] = targets.map((t) => ({ routeWorkers: t.routeWorkers, rows: [] }));
+    for (let i = 0; i < targets[0].scenarios.length; i++) {
+      for (const [k, t] of targets.entries()) measured[k].rows.push(...(await t.scenarios[i].run()));
+    }
+    for (const [k, t] of targets.entries()) if (t.routeWorkers === defaultWorkers) measured[k].soak = await soakOn(t);
+    printComparison(measured[0], measured[1]);
+    const all = measured.flatMap((m) => [...m.rows, ...(m.soak ? [m.soak.row] : [])]);
+    const bad = all.some((r) => r.errors > 0);
+    console.log(`\n${bad ? 'FAIL: some requests failed' : 'PASS: zero errors'} (${((performance.now() - started) / 1000).toFixed(0)} s in all)`);
     process.exitCode = bad ? 1 : 0;
   } finally {
-    stop();
-    fs.rmSync(dir, { recursive: true, force: true });
+    await Promise.all(targets.map((t) => t.server.stop()));
   }
 }
 
