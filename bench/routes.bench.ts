@@ -5,7 +5,6 @@ import { compileStation, type CompiledStation } from '@shared/compute/compiled-s
 import { CLIP_BUILD_FREE_NODES, excludeMaskFor, findRoute } from '@shared/compute/routes';
 import { clipGraphFor } from '@shared/compute/routes-clip';
 import { MinHeap } from '@shared/compute/routes-heap';
-
 import { generateTrussStation, seededRandom } from '@shared/compute/truss-generator';
 
 /**
@@ -24,11 +23,13 @@ const LABELS = { strategy: 'label-search' } as const;
  * same compiled graph and queries (the reference), and ngraph.path's NBA* as an outside point of
  * comparison.
  *
- * Spread criterion: random attach-to-attach queries range from neighbours to the whole truss, so
- * raw times (the reference's too) have p95 far above their median. What the engine controls is its
- * cost relative to the plain search on the same query, so the criterion is on the per-query ratio
- * (mode time ÷ reference time): its p95 must be within P95_SPREAD× its median. Raw p95/median is
- * printed beside it for every row.
+ * Targets: `fastest` median within 1.5× the reference's; the exact modes' median within 5× (10k)
+ * and 10× (100k), and for them a spread criterion. Random attach-to-attach queries range from
+ * neighbours to the whole truss, so raw times (the reference's too) have p95 far above their
+ * median. What the engine controls is its cost relative to the plain search on the same query, so
+ * the spread criterion is on the per-query ratio (mode time ÷ reference time): its p95 must be
+ * within P95_SPREAD× its median. Raw p95/median and the per-query ratios are printed for every row,
+ * `fastest`'s too.
  */
 
 const SIZES = [
@@ -193,11 +194,12 @@ export async function run(): Promise<boolean> {
         row['per-query ratio p95'] = r.p95.toFixed(2);
       }
       if (size.targets && ratios[name] && !name.endsWith('(label search)')) {
-        const limit = name === 'fastest' ? size.targets.fastest : size.targets.exact;
+        const fastest = name === 'fastest';
+        const limit = fastest ? size.targets.fastest : size.targets.exact;
         const r = summary(ratios[name]);
         const okRatio = median / refMedian <= limit;
-        const okSpread = r.p95 <= P95_SPREAD * r.median;
-        row.target = `≤${limit}×, ratio p95 ≤${P95_SPREAD}× ratio median`;
+        const okSpread = fastest || r.p95 <= P95_SPREAD * r.median;
+        row.target = fastest ? `≤${limit}×` : `≤${limit}×, ratio p95 ≤${P95_SPREAD}× ratio median`;
         row.result = okRatio && okSpread ? 'PASS' : 'FAIL';
         if (!okRatio || !okSpread) allPass = false;
       }
