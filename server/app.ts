@@ -14,6 +14,7 @@ import { createLogger } from './lib/logger';
 import { createMailer } from './lib/mail';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
 import { sessionMiddleware } from './middleware/session';
+import { configureClipBuilds, logClipBuild, stopClipBuilds } from './modules/compute/clip-builder';
 import { RoutePool } from './modules/compute/route-pool';
 import { storeMessage } from './modules/mailbox/mailbox.service';
 import { apiModules } from './modules';
@@ -57,8 +58,11 @@ export async function createApp(options: CreateAppOptions = {}): Promise<AppInst
     logger,
     onReceive: (mail) => storeMessage(handle.db, mail),
   });
+  configureClipBuilds({ inlineNodes: config.routeClipInlineNodes, onEvent: (e) => logClipBuild(logger, e) });
   const routePool =
-    config.routeWorkers > 0 ? new RoutePool({ size: config.routeWorkers, queueLimit: config.routeQueueLimit, logger }) : null;
+    config.routeWorkers > 0
+      ? new RoutePool({ size: config.routeWorkers, queueLimit: config.routeQueueLimit, clipInlineNodes: config.routeClipInlineNodes, logger })
+      : null;
   const ctx: AppContext = { config, db: handle.db, sqlite: handle.sqlite, logger, mailer, routePool };
   if (options.seed ?? true) await seedDatabase(ctx);
 
@@ -115,6 +119,7 @@ export async function createApp(options: CreateAppOptions = {}): Promise<AppInst
     ctx,
     async close() {
       await routePool?.close();
+      await stopClipBuilds();
       await mailer.close();
       handle.close();
     },

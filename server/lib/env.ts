@@ -2,6 +2,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import crypto from 'node:crypto';
 import os from 'node:os';
+import { CLIP_BUILD_FREE_NODES } from '@shared/compute/routes';
 
 export interface AppConfig {
   port: number;
@@ -23,6 +24,8 @@ export interface AppConfig {
   routeWorkers: number;
   /** route computations waiting or running in the worker pool at the most before 503 */
   routeQueueLimit: number;
+  /** stations up to this many nodes build a clip graph within a route query; larger ones in a builder thread */
+  routeClipInlineNodes: number;
   logLevel: string;
   /** folder of the built client; null → API only */
   clientDir: string | null;
@@ -78,6 +81,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     apiRequestsPerMinute: overrides.apiRequestsPerMinute ?? intFromEnv(env.API_REQUESTS_PER_MINUTE, 1200),
     routeWorkers: overrides.routeWorkers ?? intFromEnv(env.ROUTE_WORKERS, defaultRouteWorkers()),
     routeQueueLimit: overrides.routeQueueLimit ?? intFromEnv(env.ROUTE_QUEUE_LIMIT, 64),
+    routeClipInlineNodes: overrides.routeClipInlineNodes ?? intFromEnv(env.ROUTE_CLIP_INLINE_NODES, CLIP_BUILD_FREE_NODES),
     logLevel: overrides.logLevel ?? env.LOG_LEVEL ?? 'info',
     clientDir: overrides.clientDir !== undefined ? overrides.clientDir : path.resolve('dist'),
     mailFrom: overrides.mailFrom ?? env.MAIL_FROM ?? 'Tetherwise <no-reply@tetherwise.local>',

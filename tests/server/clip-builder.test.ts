@@ -11,6 +11,8 @@ import {
   stopClipBuilds,
   type ClipBuildEvent,
 } from '../../server/modules/compute/clip-builder';
+import { getCompiledStation } from '../../server/modules/compute/compiled-cache';
+import { makeTestApp } from '../setup/test-app';
 
 // A 3,000-node truss stands in for a large station: the inline limit is lowered below it.
 const doc = generateTrussStation({ nodes: 3000, seed: 11 });
@@ -77,4 +79,35 @@ describe('clip graphs built off the request path', () => {
     expect(JSON.stringify(routeOffPath(c, doc, req))).toBe(JSON.stringify(r));
     await stopClipBuilds();
   });
+});
+
+describe('the routes endpoint on a station above the inline limit', () => {
+  for (const routeWorkers of [0, 1]) {
+    it(`builds the clip graph off the request path and keeps answering (${routeWorkers ? 'worker pool' : 'main thread'})`, async () => {
+      const app = await makeTestApp({ seedDemo: true, routeWorkers, routeClipInlineNodes: 100 });
+      try {
+        const viewer = await app.agent('viewer');
+        const stationId = (await viewer.get('/api/stations')).body[0].id as number;
+        const graph = (await viewer.get(`/api/stations/${stationId}/graph`)).body as { nodes: { key: string; kind: string }[] };
+        const attach = graph.nodes.filter((n) => n.kind === 'anchor').map((n) => n.key);
+        const body = { from: attach[0], to: attach[attach.length - 1], mode: 'fewest-swaps' };
+        const first = await viewer.post(`/api/stations/${stationId}/routes`).send(body);
+        expect(first.status).toBe(200);
+        const built = async () =>
+          routeWorkers ? app.ctx.routePool!.stats().some((s) => s.clipBuilds > 0) : (await clipBuildsSettled(), true);
+        for (let i = 0; i < 200 && !(await built()); i++) await new Promise((r) => setTimeout(r, 50));
+        expect(await built()).toBe(true);
+        if (!routeWorkers) {
+          const { compiled, doc } = getCompiledStation(app.ctx, stationId);
+          expect(hasClipGraph(compiled.arcSeconds, doc.settings.tetherLengthM, excludeMaskFor(false))).toBe(true);
+        }
+        const again = await viewer.post(`/api/stations/${stationId}/routes`).send(body);
+        expect(again.status).toBe(200);
+        expect(again.body.swapCount).toBe(first.body.swapCount);
+        expect(again.body.totalSeconds).toBeCloseTo(first.body.totalSeconds, 6);
+      } finally {
+        await app.close();
+      }
+    });
+  }
 });

@@ -1,9 +1,10 @@
 import { Worker } from 'node:worker_threads';
 import type { CompiledStation } from '@shared/compute/compiled-station';
 import { adoptClipGraph, type ClipGraphParts } from '@shared/compute/routes-clip';
-import { findRoute, wantsClipGraph, type FindRouteOptions } from '@shared/compute/routes';
+import { CLIP_BUILD_FREE_NODES, findRoute, wantsClipGraph, type FindRouteOptions } from '@shared/compute/routes';
 import type { RouteRequest, RouteResult } from '@shared/schemas/route';
 import type { StationDocument } from '@shared/schemas/station';
+import type { Logger } from '../../lib/logger';
 
 const BOOT = new URL('./ts-worker-boot.mjs', import.meta.url);
 
@@ -30,7 +31,7 @@ interface Builds {
   onEvent: (e: ClipBuildEvent) => void;
 }
 
-const builds: Builds = { inlineNodes: 20_000, running: new Map(), onEvent: () => {} };
+const builds: Builds = { inlineNodes: CLIP_BUILD_FREE_NODES, running: new Map(), onEvent: () => {} };
 
 /** Sets the size above which clip graphs are built off the request path, and who hears of builds. */
 export function configureClipBuilds(options: { inlineNodes?: number; onEvent?: (e: ClipBuildEvent) => void }): void {
@@ -88,6 +89,13 @@ function startBuild(compiled: CompiledStation, job: ClipBuildJob, done: () => vo
     worker.on('exit', (code) => finish(false, `the builder stopped (code ${code}) before handing over a clip graph`));
   });
   builds.running.set(worker, finished);
+}
+
+/** One log line for a finished build (from this thread, or from route worker `worker`). */
+export function logClipBuild(logger: Logger, e: ClipBuildEvent, worker?: number): void {
+  const fields = { ...e, ms: Math.round(e.ms), ...(worker !== undefined ? { worker } : {}) };
+  if (e.ok) logger.info(fields, 'clip graph built off the request path');
+  else logger.warn(fields, 'clip graph build did not finish; routes on this station use the label search');
 }
 
 /** Stops every builder thread and waits for them to end. */

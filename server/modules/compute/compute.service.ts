@@ -3,7 +3,6 @@ import type { AppContext } from '../../context';
 import { edges, nodes } from '../../db/schema';
 import { HttpError, badRequest } from '../../lib/http-error';
 import { JsonText } from '../../lib/route';
-import { findRoute } from '@shared/compute/routes';
 import { reachCheck } from '@shared/compute/reach';
 import { planSockets, type SocketCandidate } from '@shared/compute/socket-planner';
 import { gridCandidates } from '@shared/compute/truss-faces';
@@ -12,6 +11,7 @@ import type { RouteRequest, RouteResult } from '@shared/schemas/route';
 import type { ReachRequest, ReachResult, SocketPlanRequest, SocketPlanResult } from '@shared/schemas/sockets';
 import type { StationDocument, StationEdge, StationNode, Vec3 } from '@shared/schemas/station';
 import { edgeToRow, findStationRow, loadDocument, nodeToRow, writeStation, type Editor } from '../stations/stations.service';
+import { routeOffPath } from './clip-builder';
 import { getCompiledStation, type CompiledEntry } from './compiled-cache';
 import type { AcceptSocketPlanInput, OrbitQuery } from './compute.schemas';
 
@@ -34,7 +34,7 @@ function checkRouteKeys(entry: CompiledEntry, request: RouteRequest) {
 /** A route on the main thread (plans, walkthroughs, and the routes endpoint without a pool). */
 export function routeOn(entry: CompiledEntry, request: RouteRequest): RouteResult {
   checkRouteKeys(entry, request);
-  return findRoute(entry.compiled, entry.doc.settings, request);
+  return routeOffPath(entry.compiled, entry.doc, request);
 }
 
 /**

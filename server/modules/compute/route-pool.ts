@@ -1,9 +1,11 @@
 import { Worker } from 'node:worker_threads';
+import { CLIP_BUILD_FREE_NODES } from '@shared/compute/routes';
 import type { RouteRequest } from '@shared/schemas/route';
 import type { StationDocument } from '@shared/schemas/station';
 import { unavailable } from '../../lib/http-error';
 import type { Logger } from '../../lib/logger';
-import { WORKER_STATIONS, type RouteMessage, type WorkerReply } from './route-protocol';
+import { logClipBuild } from './clip-builder';
+import { WORKER_STATIONS, type RouteMessage, type RouteWorkerData, type WorkerReply } from './route-protocol';
 
 // registers tsx in the thread, then loads the entry named in argv
 const BOOT = new URL('./ts-worker-boot.mjs', import.meta.url);
@@ -28,6 +30,8 @@ export interface RoutePoolOptions {
   size: number;
   /** route queries waiting or running in the pool at the most; one more is refused with 503 */
   queueLimit: number;
+  /** see AppConfig.routeClipInlineNodes (default CLIP_BUILD_FREE_NODES) */
+  clipInlineNodes?: number;
   logger: Logger;
 }
 
@@ -40,6 +44,8 @@ export interface RouteWorkerStats {
   answered: number;
   /** workers that stopped unexpectedly and were replaced */
   restarts: number;
+  /** clip graphs this slot's workers built off the request path and now use */
+  clipBuilds: number;
 }
 
 interface Pending {
@@ -59,6 +65,7 @@ interface Slot {
   compiles: number;
   answered: number;
   restarts: number;
+  clipBuilds: number;
   respawn: NodeJS.Timeout | null;
 }
 
@@ -94,6 +101,7 @@ export class RoutePool {
       compiles: 0,
       answered: 0,
       restarts: 0,
+      clipBuilds: 0,
       respawn: null,
     }));
   }
@@ -115,6 +123,7 @@ export class RoutePool {
       compiles: s.compiles,
       answered: s.answered,
       restarts: s.restarts,
+      clipBuilds: s.clipBuilds,
     }));
   }
 
@@ -185,6 +194,7 @@ export class RoutePool {
     slot.respawn = null;
     const worker = new Worker(BOOT, {
       argv: ['./route-worker.ts'],
+      workerData: { clipInlineNodes: this.options.clipInlineNodes ?? CLIP_BUILD_FREE_NODES } satisfies RouteWorkerData,
       execArgv: [],
       name: `route-worker-${slot.index}`,
     });
@@ -202,6 +212,11 @@ export class RoutePool {
   private onReply(slot: Slot, reply: WorkerReply) {
     if (reply.kind === 'ready') {
       slot.started = true;
+      return;
+    }
+    if (reply.kind === 'clip-build') {
+      if (reply.event.ok) slot.clipBuilds++;
+      logClipBuild(this.options.logger, reply.event, slot.index);
       return;
     }
     const pending = slot.inFlight.get(reply.id);

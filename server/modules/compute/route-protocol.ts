@@ -1,5 +1,12 @@
 import type { RouteRequest } from '@shared/schemas/route';
 import type { StationDocument } from '@shared/schemas/station';
+import type { ClipBuildEvent } from './clip-builder';
+
+/** What a route worker starts with. */
+export interface RouteWorkerData {
+  /** see AppConfig.routeClipInlineNodes */
+  clipInlineNodes: number;
+}
 
 /** Compiled stations a route worker keeps, least recently used out first (as the main-thread cache). */
 export const WORKER_STATIONS = 4;
@@ -24,4 +31,6 @@ export type WorkerReply =
   | { kind: 'result'; id: number; json: string; compiled: boolean }
   /** the worker does not hold this version (evicted, or never sent): send the document */
   | { kind: 'need-document'; id: number }
+  /** a clip graph built off the request path in this worker finished (or failed) */
+  | { kind: 'clip-build'; event: ClipBuildEvent }
   | { kind: 'error'; id: number; error: { name: string; message: string; stack?: string } };

@@ -1,18 +1,22 @@
 // A route worker thread: compiles stations it is sent and answers findRoute queries, one at a time,
 // each as JSON text (the same text res.json would make of it on the main thread).
-import { parentPort } from 'node:worker_threads';
+import { parentPort, workerData } from 'node:worker_threads';
 import { compileStation, type CompiledStation } from '@shared/compute/compiled-station';
-import { findRoute } from '@shared/compute/routes';
-import type { StationSettings } from '@shared/schemas/station';
-import { WORKER_STATIONS, type RouteMessage, type WorkerReply } from './route-protocol';
+import type { StationDocument } from '@shared/schemas/station';
+import { configureClipBuilds, routeOffPath } from './clip-builder';
+import { WORKER_STATIONS, type RouteMessage, type RouteWorkerData, type WorkerReply } from './route-protocol';
 
 if (!parentPort) throw new Error('route-worker.ts runs as a worker thread (see route-pool.ts)');
 const port = parentPort;
+configureClipBuilds({
+  inlineNodes: (workerData as RouteWorkerData).clipInlineNodes,
+  onEvent: (event) => port.postMessage({ kind: 'clip-build', event } satisfies WorkerReply),
+});
 
 interface Held {
   version: number;
   compiled: CompiledStation;
-  settings: StationSettings;
+  doc: StationDocument;
 }
 
 // keyed by `<database>#<station id>`; one version per station
@@ -23,13 +27,13 @@ function answer(msg: RouteMessage): WorkerReply {
   let compiled = false;
   if (!entry || entry.version !== msg.version) {
     if (!msg.doc) return { kind: 'need-document', id: msg.id };
-    entry = { version: msg.version, compiled: compileStation(msg.doc), settings: msg.doc.settings };
+    entry = { version: msg.version, compiled: compileStation(msg.doc), doc: msg.doc };
     compiled = true;
   }
   held.delete(msg.station);
   held.set(msg.station, entry);
   while (held.size > WORKER_STATIONS) held.delete(held.keys().next().value!);
-  const result = findRoute(entry.compiled, entry.settings, msg.request);
+  const result = routeOffPath(entry.compiled, entry.doc, msg.request);
   return { kind: 'result', id: msg.id, json: JSON.stringify(result), compiled };
 }
 

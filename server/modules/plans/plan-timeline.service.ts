@@ -1,9 +1,9 @@
 import type { AppContext } from '../../context';
 import { badRequest } from '../../lib/http-error';
-import { findRoute } from '@shared/compute/routes';
 import { computeTimeline } from '@shared/compute/timeline';
 import { checkInventory } from '@shared/compute/inventory';
 import { getCompiledStation } from '../compute/compiled-cache';
+import { routeOffPath } from '../compute/clip-builder';
 import { reachOn } from '../compute/compute.service';
 import { PLANNING_CAUTION, getPlan, type PlanView } from './plans.service';
 
@@ -23,7 +23,7 @@ export function planTimeline(ctx: AppContext, planId: number): { plan: PlanView;
   const hasNode = (key: string) => compiled.keyToIndex.has(key);
   const timeline = computeTimeline(
     { plan, airlockKey: airlock.key, orbit: doc.orbit, hasNode },
-    (from, to, options) => findRoute(compiled, doc.settings, { from, to, ...options }),
+    (from, to, options) => routeOffPath(compiled, doc, { from, to, ...options }),
   );
   const inventoryWarnings = checkInventory(plan.manifest, plan.tasks, { airlockKey: airlock.key, hasNode });
 
