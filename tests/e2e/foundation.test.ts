@@ -67,7 +67,9 @@ describe('foundation: sign-in, home, people and mailbox in the built app', () =>
   it('shows the server’s clear message on a wrong password and stays on sign-in', async () => {
     const { page } = session;
     await session.goto('/sign-in');
-    // keyboard only: the form is reachable in order and the focused control shows a ring
+    // keyboard only: the form is reachable in order and the focused control shows a ring. The form
+    // must be on screen first, or its autofocus lands after the click below and Tab starts from it.
+    await page.getByLabel('E-mail', { exact: true }).waitFor();
     await page.locator('body').click({ position: { x: 5, y: 5 } });
     const focused = () =>
       page.evaluate(() => {
