@@ -61,10 +61,15 @@ function maxSpeed(settings: StationSettings): number {
  */
 export const CLIP_BUILD_FREE_NODES = 2_000;
 
+/** `auto` on a station too large to build a clip graph during a query, none built yet for these terms. */
+function clipGraphMissing(c: CompiledStation, limitNodes: number, weights: Float64Array, tether: number, mask: number): boolean {
+  return c.nodeCount > limitNodes && !hasClipGraph(weights, tether, mask);
+}
+
 function useClipGraph(q: Query): boolean {
   if (q.strategy === 'label-search') return false;
   if (q.strategy === 'clip-graph') return true;
-  return q.c.nodeCount <= q.clipBuildFreeNodes || hasClipGraph(q.weights, q.tether, q.mask);
+  return !clipGraphMissing(q.c, q.clipBuildFreeNodes, q.weights, q.tether, q.mask);
 }
 
 /**
@@ -72,9 +77,10 @@ function useClipGraph(q: Query): boolean {
  * cue for a caller to build one off the request path (buildClipGraphParts) and adopt it.
  */
 export function wantsClipGraph(c: CompiledStation, settings: StationSettings, request: RouteRequest, options: FindRouteOptions = {}) {
+  if ((options.strategy ?? 'auto') !== 'auto') return null;
   const { tether, mask, arcSeconds } = searchTerms(c, settings, request);
-  if ((options.strategy ?? 'auto') !== 'auto' || c.nodeCount <= (options.clipBuildFreeNodes ?? CLIP_BUILD_FREE_NODES)) return null;
-  return hasClipGraph(arcSeconds, tether, mask) ? null : { tetherLengthM: tether, excludeMask: mask, weights: arcSeconds };
+  const missing = clipGraphMissing(c, options.clipBuildFreeNodes ?? CLIP_BUILD_FREE_NODES, arcSeconds, tether, mask);
+  return missing ? { tetherLengthM: tether, excludeMask: mask, weights: arcSeconds } : null;
 }
 
 /** What a request searches with: tether, excluded arcs, arc times and whether the landmark times hold. */
