@@ -25,6 +25,14 @@ export interface ClipGraph {
   /** clip landmarks: fewest stretches from landmark k to attach a at a * count + k */
   landmarkCount: number;
   landmarkHops: Int32Array;
+  /**
+   * per attach point t and clip landmark k, over the attach points of t's row (its last
+   * stretches): least stretch count at t * count + k (UNREACHED if none is reached), greatest at
+   * the same place in rowHopsHi (-1 if none), and whether one is not reached in rowHopsOff
+   */
+  rowHopsLo: Int32Array;
+  rowHopsHi: Int32Array;
+  rowHopsOff: Uint8Array;
   buildMs: number;
   memoryBytes: number;
   query: ClipQueryState | null;
@@ -34,6 +42,18 @@ export interface ClipGraph {
   swapRows: ClipRows;
   /** swapRows transposed: for each attach point, the attach points whose swapRows reach it */
   swapRowsIn: { offsets: Int32Array; sources: Int32Array };
+  /** cost landmarks for a `sum` search, by swap cost in stretch seconds (see costMarksFor) */
+  costMarks: Map<number, CostMarks>;
+}
+
+/** Least clip-to-clip cost from a few attach points to every attach point (see costMarksFor). */
+export interface CostMarks {
+  count: number;
+  /** least cost from landmark k to attach point a at a * count + k (Infinity when unreachable) */
+  cost: Float64Array;
+  /** least cost from landmark k to attach point t by a last stretch, at t * count + k */
+  toEnd: Float64Array;
+  buildMs: number;
 }
 
 export interface ClipRows {
@@ -223,6 +243,29 @@ function clipLandmarks(offsets: Int32Array, targets: Int32Array, count: number):
   return hops;
 }
 
+/** Landmark stretch counts of each attach point's row, as ClipGraph.rowHopsLo/Hi/Off. */
+function rowHops(offsets: Int32Array, targets: Int32Array, hops: Int32Array, K: number) {
+  const A = offsets.length - 1;
+  const lo = new Int32Array(A * K).fill(UNREACHED);
+  const hi = new Int32Array(A * K).fill(-1);
+  const off = new Uint8Array(A * K);
+  for (let a = 0; a < A; a++) {
+    const at = a * K;
+    for (let e = offsets[a], end = offsets[a + 1]; e < end; e++) {
+      const base = targets[e] * K;
+      for (let k = 0; k < K; k++) {
+        const v = hops[base + k];
+        if (v === UNREACHED) off[at + k] = 1;
+        else {
+          if (v < lo[at + k]) lo[at + k] = v;
+          if (v > hi[at + k]) hi[at + k] = v;
+        }
+      }
+    }
+  }
+  return { lo, hi, off };
+}
+
 function buildClipGraph(c: CompiledStation, weights: Float64Array, tetherLengthM: number, excludeMask: number): ClipGraph {
   const t0 = performance.now();
   const n = c.nodeCount;
@@ -258,6 +301,7 @@ function buildClipGraph(c: CompiledStation, weights: Float64Array, tetherLengthM
   targets = targets.slice(0, m);
   seconds = seconds.slice(0, m);
   const landmarkHops = clipLandmarks(offsets, targets, CLIP_LANDMARKS);
+  const { lo: rowHopsLo, hi: rowHopsHi, off: rowHopsOff } = rowHops(offsets, targets, landmarkHops, Math.min(CLIP_LANDMARKS, A));
   const swapRows = swapPointRows(offsets, targets, seconds);
   const swapRowsIn = transposeRows(swapRows);
   const cg: ClipGraph = {
@@ -270,12 +314,16 @@ function buildClipGraph(c: CompiledStation, weights: Float64Array, tetherLengthM
     seconds,
     landmarkCount: Math.min(CLIP_LANDMARKS, A),
     landmarkHops,
+    rowHopsLo,
+    rowHopsHi,
+    rowHopsOff,
     buildMs: 0,
     memoryBytes: 0,
     query: null,
     pruned: new Map(),
     swapRows,
     swapRowsIn,
+    costMarks: new Map(),
   };
   cg.memoryBytes = [
     attachNodes,
@@ -284,6 +332,9 @@ function buildClipGraph(c: CompiledStation, weights: Float64Array, tetherLengthM
     targets,
     seconds,
     landmarkHops,
+    rowHopsLo,
+    rowHopsHi,
+    rowHopsOff,
     swapRows.offsets,
     swapRows.targets,
     swapRows.seconds,
@@ -433,6 +484,79 @@ function transposeRows(rows: ClipRows): { offsets: Int32Array; sources: Int32Arr
   return { offsets, sources };
 }
 
+const COST_MARKS = 4;
+
+/**
+ * Cost landmarks for a search minimising time + swapCost·swaps (`swapCost` in stretch seconds):
+ * farthest-first attach points L and, for every attach point a, the least cost of a chain of
+ * stretches from a clip at L to a clip at a, each stretch its time plus the swap at its far end
+ * (Dijkstra over all stretches: the swap rows keep the optima that end at an attach point with a
+ * last stretch from the full rows, not a chain that stops with a swap). For a search towards t,
+ * cost(a → t) ≥ cost(L → t) − cost(L → a) (the triangle inequality; consistent), where
+ * cost(L → t) is the least over t's last stretches. The landmark bound on time plus the one on
+ * swaps takes the two least apart, and where the least-time and the fewest-swap routes part, that
+ * falls short by a share of every stretch; these take the two together.
+ */
+export function costMarksFor(cg: ClipGraph, swapCost: number): CostMarks {
+  const cached = cg.costMarks.get(swapCost);
+  if (cached) return cached;
+  const t0 = performance.now();
+  const { offsets, targets, seconds } = cg;
+  const A = offsets.length - 1;
+  const K = Math.min(COST_MARKS, A);
+  const cost = new Float64Array(A * K);
+  const dist = new Float64Array(A);
+  const nearest = new Float64Array(A).fill(Infinity);
+  const heap = new MinHeap(1024);
+  let next = 0;
+  for (let k = 0; k < K; k++) {
+    dist.fill(Infinity);
+    dist[next] = 0;
+    heap.clear();
+    heap.push(next, 0);
+    while (heap.size > 0) {
+      const d = heap.topKey1();
+      const a = heap.pop();
+      if (d > dist[a]) continue;
+      for (let e = offsets[a], end = offsets[a + 1]; e < end; e++) {
+        const b = targets[e];
+        const nd = d + seconds[e] + swapCost;
+        if (nd < dist[b]) {
+          dist[b] = nd;
+          heap.push(b, nd);
+        }
+      }
+    }
+    // the next landmark: the attach point farthest from all so far (unreached ones first)
+    let far = 0;
+    let farCost = -1;
+    for (let a = 0; a < A; a++) {
+      cost[a * K + k] = dist[a];
+      if (dist[a] < nearest[a]) nearest[a] = dist[a];
+      if (nearest[a] > farCost) {
+        farCost = nearest[a];
+        far = a;
+      }
+    }
+    next = far;
+  }
+  const toEnd = new Float64Array(A * K).fill(Infinity);
+  for (let t = 0; t < A; t++) {
+    const at = t * K;
+    for (let e = offsets[t], end = offsets[t + 1]; e < end; e++) {
+      const base = targets[e] * K;
+      for (let k = 0; k < K; k++) {
+        const v = cost[base + k] + seconds[e];
+        if (v < toEnd[at + k]) toEnd[at + k] = v;
+      }
+    }
+  }
+  const marks: CostMarks = { count: K, cost, toEnd, buildMs: performance.now() - t0 };
+  cg.memoryBytes += cost.byteLength + toEnd.byteLength;
+  cg.costMarks.set(swapCost, marks);
+  return marks;
+}
+
 const clipCache = new WeakMap<Float64Array, Map<string, ClipGraph>>();
 
 /**
@@ -456,22 +580,29 @@ function remember(weights: Float64Array, key: string, cg: ClipGraph): ClipGraph 
 }
 
 /** A clip graph as plain data: typed arrays a worker thread can build and hand over without a copy. */
-export type ClipGraphParts = Omit<ClipGraph, 'query' | 'pruned'> & { pruned: [number, ClipRows][] };
+export type ClipGraphParts = Omit<ClipGraph, 'query' | 'pruned' | 'costMarks'> & {
+  pruned: [number, ClipRows][];
+  costMarks: [number, CostMarks][];
+};
 
 /**
  * The clip graph for these parameters, built with the stretches kept for free swaps (what the
- * `fastest` fallback uses) as well, as parts and the buffers to transfer.
+ * `fastest` fallback uses) and the cost landmarks for each of `swapCosts` (stretch seconds: the
+ * station's swap time, for `balanced` without carrying) as well, as parts and the buffers to
+ * transfer.
  */
 export function buildClipGraphParts(
   c: CompiledStation,
   weights: Float64Array,
   tetherLengthM: number,
   excludeMask: number,
+  swapCosts: readonly number[] = [],
 ): { parts: ClipGraphParts; transfer: ArrayBuffer[] } {
   const cg = clipGraphFor(c, weights, tetherLengthM, excludeMask);
   pruneStretches(cg, 0);
-  const { query: _query, pruned, ...rest } = cg;
-  const parts: ClipGraphParts = { ...rest, pruned: [...pruned] };
+  for (const sc of swapCosts) if (sc > 0) costMarksFor(cg, sc);
+  const { query: _query, pruned, costMarks, ...rest } = cg;
+  const parts: ClipGraphParts = { ...rest, pruned: [...pruned], costMarks: [...costMarks] };
   const rows = [parts.swapRows, ...parts.pruned.map(([, r]) => r)];
   const arrays = [
     parts.attachNodes,
@@ -480,10 +611,14 @@ export function buildClipGraphParts(
     parts.targets,
     parts.seconds,
     parts.landmarkHops,
+    parts.rowHopsLo,
+    parts.rowHopsHi,
+    parts.rowHopsOff,
     parts.swapRowsIn.offsets,
     parts.swapRowsIn.sources,
   ];
   for (const r of rows) arrays.push(r.offsets, r.targets, r.seconds);
+  for (const [, m] of parts.costMarks) arrays.push(m.cost, m.toEnd);
   return { parts, transfer: [...new Set(arrays.map((a) => a.buffer as ArrayBuffer))] };
 }
 
@@ -493,7 +628,7 @@ export function buildClipGraphParts(
  * the ones it was built with.
  */
 export function adoptClipGraph(weights: Float64Array, parts: ClipGraphParts): ClipGraph {
-  const cg: ClipGraph = { ...parts, query: null, pruned: new Map(parts.pruned) };
+  const cg: ClipGraph = { ...parts, query: null, pruned: new Map(parts.pruned), costMarks: new Map(parts.costMarks) };
   return remember(weights, `${parts.tetherLengthM}|${parts.excludeMask}`, cg);
 }
 
@@ -521,6 +656,7 @@ interface ClipQueryState {
   lmLo: Int32Array;
   lmHi: Int32Array;
   lmOff: Uint8Array;
+  markT: Float64Array;
   heap: MinHeap;
 }
 
@@ -546,6 +682,7 @@ function queryState(cg: ClipGraph): ClipQueryState {
       lmLo: new Int32Array(cg.landmarkCount),
       lmHi: new Int32Array(cg.landmarkCount),
       lmOff: new Uint8Array(cg.landmarkCount),
+      markT: new Float64Array(COST_MARKS),
       heap: new MinHeap(1024),
     };
   }
@@ -624,7 +761,13 @@ export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSea
 
   // per clip landmark: the least and greatest stretch count to the last-stretch attach points
   const { lmLo, lmHi, lmOff } = q;
-  if (!found) {
+  if (!found && tIdx >= 0) {
+    for (let k = 0, at = tIdx * K; k < K; k++) {
+      lmLo[k] = cg.rowHopsLo[at + k];
+      lmHi[k] = cg.rowHopsHi[at + k];
+      lmOff[k] = cg.rowHopsOff[at + k];
+    }
+  } else if (!found) {
     lmLo.fill(UNREACHED);
     lmHi.fill(-1);
     lmOff.fill(0);
@@ -637,6 +780,24 @@ export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSea
           if (v < lmLo[k]) lmLo[k] = v;
           if (v > lmHi[k]) lmHi[k] = v;
         }
+      }
+    }
+  }
+
+  // cost landmarks, with a swap cost: the least cost from each to t (stretch seconds)
+  const marks = !found && !lex && swapCost > 0 ? costMarksFor(cg, swapCost / f) : null;
+  const KM = marks ? marks.count : 0;
+  const mc = marks ? marks.cost : null;
+  const { markT } = q;
+  if (marks && tIdx >= 0) for (let k = 0; k < KM; k++) markT[k] = marks.toEnd[tIdx * KM + k];
+  else if (mc) {
+    markT.fill(Infinity);
+    for (let h = 0; h < lastCount; h++) {
+      const b = queue[h];
+      const base = b * KM;
+      for (let k = 0; k < KM; k++) {
+        const v = mc[base + k] + last[b];
+        if (v < markT[k]) markT[k] = v;
       }
     }
   }
@@ -720,10 +881,25 @@ export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSea
     if (lex) {
       h1[a] = sw;
       h2[a] = hSeconds[v];
-    } else {
-      h1[a] = hSeconds[v] + swapCost * sw;
-      h2[a] = 0;
+      return true;
     }
+    let h = hSeconds[v] + swapCost * sw;
+    if (mc) {
+      const base = a * KM;
+      for (let k = 0; k < KM; k++) {
+        const d = mc[base + k];
+        if (d === Infinity) continue;
+        if (markT[k] === Infinity) {
+          h1[a] = Infinity;
+          return false;
+        }
+        // less a hair, so rounding in the sums cannot lift the bound past the cost
+        const lb = f * (markT[k] - d) * (1 - 1e-12) - 1e-9;
+        if (lb > h) h = lb;
+      }
+    }
+    h1[a] = h;
+    h2[a] = 0;
     return true;
   };
   const offerTarget = (from: number, q1: number, q2: number) => {

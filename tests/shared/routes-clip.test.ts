@@ -3,7 +3,7 @@ import fc from 'fast-check';
 import type { RouteMode, RouteRequest } from '@shared/schemas/route';
 import { compileStation } from '@shared/compute/compiled-station';
 import { findRoute, type RouteStrategy } from '@shared/compute/routes';
-import { clipGraphFor, pruneStretches, type ClipGraph, type ClipRows } from '@shared/compute/routes-clip';
+import { clipGraphFor, costMarksFor, pruneStretches, type ClipGraph, type ClipRows } from '@shared/compute/routes-clip';
 import { excludeMaskFor } from '@shared/compute/routes';
 import { generateTrussStation } from '@shared/compute/truss-generator';
 import { smallStationArb } from './routes-oracle';
@@ -110,6 +110,45 @@ describe('kept stretches of the clip graph', () => {
         expect(kept[0]).toBeCloseTo(full[0], 6);
       }),
       { numRuns: 60 },
+    );
+  });
+});
+
+describe('cost landmarks of the clip graph', () => {
+  const doc = generateTrussStation({ nodes: 900, seed: 5 });
+  const c = compileStation(doc);
+
+  it('give the least swap-costed time from each landmark, and a lower bound from any attach point', () => {
+    fc.assert(
+      fc.property(fc.nat(), fc.nat(), fc.constantFrom(6, 12, 25.9), fc.constantFrom(7, 90), (i, j, tether, swapCost) => {
+        const g = clipGraphFor(c, c.arcSeconds, tether, excludeMaskFor(false));
+        const A = g.attachNodes.length;
+        const a = i % A;
+        const t = j % A;
+        fc.pre(a !== t);
+        const marks = costMarksFor(g, swapCost);
+        const K = marks.count;
+        const best = bestCost(g, g, a, t, swapCost)[0];
+        for (let k = 0; k < K; k++) {
+          const fromL = marks.cost[a * K + k];
+          const toT = marks.toEnd[t * K + k];
+          if (fromL === Infinity) continue;
+          // cost(a → t) ≥ cost(L → t) − cost(L → a)
+          if (best === Infinity) expect(toT).toBe(Infinity);
+          else expect(toT - fromL).toBeLessThanOrEqual(best + 1e-6);
+        }
+        // at a landmark itself the bound is the least cost
+        for (let k = 0; k < K; k++) {
+          let L = -1;
+          for (let x = 0; x < A && L < 0; x++) if (marks.cost[x * K + k] === 0) L = x;
+          expect(L).toBeGreaterThanOrEqual(0);
+          if (L === t) continue;
+          const exact = bestCost(g, g, L, t, swapCost)[0];
+          if (exact === Infinity) expect(marks.toEnd[t * K + k]).toBe(Infinity);
+          else expect(marks.toEnd[t * K + k]).toBeCloseTo(exact, 6);
+        }
+      }),
+      { numRuns: 40 },
     );
   });
 });
