@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { compileStation } from '@shared/compute/compiled-station';
 import { excludeMaskFor, findRoute } from '@shared/compute/routes';
-import { hasClipGraph } from '@shared/compute/routes-clip';
+import { clipGraphFor, hasClipGraph } from '@shared/compute/routes-clip';
 import { generateTrussStation } from '@shared/compute/truss-generator';
 import type { RouteMode } from '@shared/schemas/route';
 import {
@@ -37,6 +37,8 @@ describe('clip graphs built off the request path', () => {
     await clipBuildsSettled();
     expect(events.at(-1)).toMatchObject({ ok: true, nodes: c.nodeCount, tetherLengthM: tether, excludeMask: mask });
     expect(hasClipGraph(c.arcSeconds, tether, mask)).toBe(true);
+    // with the cost landmarks for the station's swap time, so `balanced` does not build them
+    expect(clipGraphFor(c, c.arcSeconds, tether, mask).costMarks.has(doc.settings.swapSeconds)).toBe(true);
 
     // the handed-over graph answers exactly as one built in this thread on a fresh compile
     const fresh = compileStation(doc);
