@@ -168,6 +168,7 @@ export async function run(): Promise<boolean> {
 
     const refMedian = summary(times.reference).median;
     const freeSwaps = clip.pruned.get(0);
+    const costMarks = clip.costMarks.get(settings.swapSeconds);
     console.log(
       `\n${c.nodeCount} nodes, ${c.edgeCount} edges, ${attach.length} attach points, ${queries.length} attach-to-attach queries`,
     );
@@ -177,6 +178,7 @@ export async function run(): Promise<boolean> {
         `${clip.targets.length} stretches (${(clip.targets.length / Math.max(1, clip.attachNodes.length)).toFixed(1)} per attach point), ` +
         `${clip.swapRows.targets.length} worth a swap (${clip.swapRows.buildMs.toFixed(0)} ms of the build)` +
         (freeSwaps ? `, ${freeSwaps.targets.length} kept for free swaps (${freeSwaps.buildMs.toFixed(0)} ms, on first use)` : '') +
+        (costMarks ? `, ${costMarks.count} cost landmarks for balanced (${costMarks.buildMs.toFixed(0)} ms, on first use)` : '') +
         '; ' +
         `fastest needed the tether search on ${fallbacks} queries; ${infeasible} infeasible answers`,
     );
