@@ -657,6 +657,7 @@ interface ClipQueryState {
   lmHi: Int32Array;
   lmOff: Uint8Array;
   markT: Float64Array;
+  markR: Float64Array;
   heap: MinHeap;
 }
 
@@ -683,6 +684,7 @@ function queryState(cg: ClipGraph): ClipQueryState {
       lmHi: new Int32Array(cg.landmarkCount),
       lmOff: new Uint8Array(cg.landmarkCount),
       markT: new Float64Array(COST_MARKS),
+      markR: new Float64Array(COST_MARKS),
       heap: new MinHeap(1024),
     };
   }
@@ -788,9 +790,18 @@ export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSea
   const marks = !found && !lex && swapCost > 0 ? costMarksFor(cg, swapCost / f) : null;
   const KM = marks ? marks.count : 0;
   const mc = marks ? marks.cost : null;
-  const { markT } = q;
-  if (marks && tIdx >= 0) for (let k = 0; k < KM; k++) markT[k] = marks.toEnd[tIdx * KM + k];
-  else if (mc) {
+  // and, when t is an attach point, back from t: stretch times are the same both ways, so the
+  // least cost between a clip at L and one at x is the same either way, and a route a → t, a
+  // swap at t and the least chain on to L cost no less than the least chain a → L:
+  // cost(a → t) ≥ cost(a ↔ L) − cost(t ↔ L) − swapCost
+  const { markT, markR } = q;
+  markR.fill(Infinity);
+  if (marks && tIdx >= 0) {
+    for (let k = 0; k < KM; k++) {
+      markT[k] = marks.toEnd[tIdx * KM + k];
+      markR[k] = marks.cost[tIdx * KM + k] + swapCost / f;
+    }
+  } else if (mc) {
     markT.fill(Infinity);
     for (let h = 0; h < lastCount; h++) {
       const b = queue[h];
@@ -896,6 +907,8 @@ export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSea
         // less a hair, so rounding in the sums cannot lift the bound past the cost
         const lb = f * (markT[k] - d) * (1 - 1e-12) - 1e-9;
         if (lb > h) h = lb;
+        const back = f * (d - markR[k]) * (1 - 1e-12) - 1e-9;
+        if (back > h) h = back;
       }
     }
     h1[a] = h;
