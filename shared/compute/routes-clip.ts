@@ -724,6 +724,16 @@ export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSea
   // from the full rows, or a search from t)
   const rows = !lex && swapCost === 0 ? pruneStretches(cg, 0) : tIdx >= 0 ? cg.swapRows : cg;
 
+  // between neighbouring attach points the stretch straight across is often the answer (see
+  // `found` below): look for it before any per-query setup
+  if (sIdx >= 0 && tIdx >= 0) {
+    for (let e = offsets[tIdx], end = offsets[tIdx + 1]; e < end; e++) {
+      if (targets[e] !== sIdx) continue;
+      if (lex || f * seconds[e] <= swapCost + hSeconds[s]) return walkClips(c, p, limit, [s, t], st);
+      break;
+    }
+  }
+
   // last stretches: attach points within one tether of t, and their least time to it; they are
   // also the seeds of the swap levels (no swap to come)
   let lastCount = 0;
@@ -993,7 +1003,11 @@ export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSea
   const clips: number[] = [t];
   for (let a = pred[A]; a !== -1; a = pred[a]) clips.push(attachNodes[a]);
   if (clips[clips.length - 1] !== s) clips.push(s);
-  clips.reverse();
+  return walkClips(c, p, limit, clips.reverse(), st);
+}
+
+/** The walk along a chain of clip points: the least-time walk of each stretch within the tether. */
+function walkClips(c: CompiledStation, p: LabelSearchParams, limit: number, clips: number[], st: StretchScratch): LabelPath {
   const arcs: number[] = [];
   let total = 0;
   for (let i = 0; i + 1 < clips.length; i++) {
@@ -1004,7 +1018,7 @@ export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSea
     for (; st.arc[x] !== -1; x = st.parent[x]) arcs.push(st.arc[x]);
     reverseFrom(arcs, from);
   }
-  return { arcs, swaps: clips.length - 2, seconds: total * f };
+  return { arcs, swaps: clips.length - 2, seconds: total * p.secondsFactor };
 }
 
 function reverseFrom(list: number[], from: number): void {
