@@ -484,7 +484,7 @@ function transposeRows(rows: ClipRows): { offsets: Int32Array; sources: Int32Arr
   return { offsets, sources };
 }
 
-const COST_MARKS = 8;
+const COST_MARKS = 16;
 
 /**
  * Cost landmarks for a search minimising time + swapCost·swaps (`swapCost` in stretch seconds):
