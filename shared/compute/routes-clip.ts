@@ -868,21 +868,27 @@ export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSea
     levelsTo = reached;
   }
 
-  // the cost-landmark bound from attach point a, at least `h`; Infinity when a cannot reach t
+  // the cost-landmark bound from attach point a, at least `h`; Infinity when a cannot reach t.
+  // Both bounds of every landmark in one pass, in stretch seconds. A landmark that reaches a but
+  // not t makes the bound ahead +Infinity, and one that reaches an attach-point t but not a the
+  // bound back, as they should: the rows are symmetric, so a and t are then in different parts.
+  // One that reaches neither makes NaN, which no comparison takes. The factor and the safety
+  // margin (less a hair, so rounding in the sums cannot lift the bound past the cost) go on the
+  // largest once.
   const marksBound = (a: number, h: number): number => {
     if (!mc) return h;
     const base = a * KM;
+    let m = 0;
     for (let k = 0; k < KM; k++) {
       const d = mc[base + k];
-      if (d === Infinity) continue;
-      if (markT[k] === Infinity) return Infinity;
-      // less a hair, so rounding in the sums cannot lift the bound past the cost
-      const lb = f * (markT[k] - d) * (1 - 1e-12) - 1e-9;
-      if (lb > h) h = lb;
-      const back = f * (d - markR[k]) * (1 - 1e-12) - 1e-9;
-      if (back > h) h = back;
+      const ahead = markT[k] - d;
+      if (ahead > m) m = ahead;
+      const back = d - markR[k];
+      if (back > m) m = back;
     }
-    return h;
+    if (m === Infinity) return Infinity;
+    const lb = f * m * (1 - 1e-12) - 1e-9;
+    return lb > h ? lb : h;
   };
   // lower bounds from attach point a (freshly clipped) to t: swaps, then (p1, p2) parts
   const heuristic = (a: number): boolean => {
