@@ -41,7 +41,7 @@ const SIZES = [
  * The p95 of 40 queries is their third worst, and one slow spell of the machine moved it by a
  * quarter between runs; 100 on the largest truss keep it steadier. The outside points of
  * comparison (ngraph.path, and the label search where it is printed) take most of the time per
- * query and have no target, so they run on the first OUTSIDE_QUERIES only.
+ * query and have no target, so on every size they run on the first OUTSIDE_QUERIES only.
  */
 const OUTSIDE_QUERIES = 40;
 const MODES: RouteMode[] = ['fastest', 'fewest-swaps', 'balanced'];
