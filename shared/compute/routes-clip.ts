@@ -867,6 +867,8 @@ export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSea
     }
     levelsTo = reached;
   }
+  // the fewest swaps of any route (from a start off the attach points, the first clip is a swap)
+  const fewest = sIdx >= 0 ? levelsTo : levelsTo + 1;
 
   // the cost-landmark bound from attach point a, at least `h`; Infinity when a cannot reach t.
   // Both bounds of every landmark in one pass, in stretch seconds. A landmark that reaches a but
@@ -1032,6 +1034,9 @@ export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSea
       const q1 = lex ? s1 : s1 + f * rs[e];
       const q2 = lex ? d2 + f * rs[e] : 0;
       if (seen[b] === stamp && (p1[b] < q1 || (p1[b] === q1 && p2[b] <= q2))) continue;
+      // with the levels, a clip at b is on a route with the fewest swaps only if b is levelled and
+      // its level makes up that count; any other b is dropped before its bound is looked up
+      if (levelled && (lvlStamp[b] !== stamp || q1 + lvl[b] > fewest)) continue;
       if (!heuristic(b)) continue;
       seen[b] = stamp;
       p1[b] = q1;
