@@ -13,15 +13,21 @@ const files = fs
   .filter((f) => only.length === 0 || only.some((o) => f.includes(o)))
   .sort();
 
-console.log(`Tetherwise benchmarks — ${os.cpus()[0]?.model ?? 'cpu'} ×${os.cpus().length}, node ${process.version}`);
+console.log(
+  `Tetherwise benchmarks — ${os.cpus()[0]?.model ?? 'cpu'} ×${os.cpus().length}, node ${process.version}`,
+);
 const started = performance.now();
 let failed = false;
 for (const file of files) {
   console.log(`\n━━ ${file.replace('.bench.ts', '')} ━━`);
-  const mod = (await import(pathToFileURL(path.join(here, file)).href)) as { run: () => Promise<boolean | void> };
+  const mod = (await import(pathToFileURL(path.join(here, file)).href)) as {
+    run: () => Promise<boolean | void>;
+  };
   const t0 = performance.now();
   const ok = await mod.run();
   if (ok === false) failed = true;
   console.log(`(${file}: ${((performance.now() - t0) / 1000).toFixed(1)} s)`);
 }
-console.log(`\nAll benchmarks: ${((performance.now() - started) / 1000).toFixed(1)} s${failed ? ' — some targets missed (see FAIL above)' : ''}`);
+console.log(
+  `\nAll benchmarks: ${((performance.now() - started) / 1000).toFixed(1)} s${failed ? ' — some targets missed (see FAIL above)' : ''}`,
+);

@@ -46,7 +46,10 @@ async function signIn(base: string, email: string): Promise<string> {
     body: JSON.stringify({ email, password: PASSWORD }),
   });
   if (res.status !== 200) throw new Error(`sign-in ${email}: ${res.status}`);
-  return res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+  return res.headers
+    .getSetCookie()
+    .map((c) => c.split(';')[0])
+    .join('; ');
 }
 
 interface Row {
@@ -68,7 +71,8 @@ function toRow(name: string, result: autocannon.Result): Row {
   };
 }
 
-const cannon = (opts: autocannon.Options) => autocannon({ connections: CONNECTIONS, duration: RUN_SECONDS, ...opts });
+const cannon = (opts: autocannon.Options) =>
+  autocannon({ connections: CONNECTIONS, duration: RUN_SECONDS, ...opts });
 
 function routeRequests(keys: string[], count: number, seed: number) {
   let s = seed;
@@ -148,7 +152,9 @@ async function prepare(routeWorkers: number): Promise<Target> {
   try {
     const planner = await signIn(base, 'planner@example.org');
     const engineer = await signIn(base, 'engineer@example.org');
-    const stations = (await (await fetch(`${base}/api/stations`, { headers: { cookie: planner } })).json()) as { id: number; name: string }[];
+    const stations = (await (
+      await fetch(`${base}/api/stations`, { headers: { cookie: planner } })
+    ).json()) as { id: number; name: string }[];
     const demo = stations[0];
     if (!demo) throw new Error('no demo station seeded');
 
@@ -156,12 +162,19 @@ async function prepare(routeWorkers: number): Promise<Target> {
     const big = generateTrussStation({ nodes: 10_000, seed: 42 });
     const form = new FormData();
     form.append('file', new Blob([JSON.stringify(big)], { type: 'application/json' }), 'big.tetherwise.json');
-    const imported = await fetch(`${base}/api/stations/import`, { method: 'POST', headers: { cookie: engineer }, body: form });
-    if (imported.status !== 201) throw new Error(`import of the 10k station: ${imported.status} ${await imported.text()}`);
+    const imported = await fetch(`${base}/api/stations/import`, {
+      method: 'POST',
+      headers: { cookie: engineer },
+      body: form,
+    });
+    if (imported.status !== 201)
+      throw new Error(`import of the 10k station: ${imported.status} ${await imported.text()}`);
     const bigId = ((await imported.json()) as { station: { id: number } }).station.id;
 
     const attachKeys = async (id: number) => {
-      const graph = (await (await fetch(`${base}/api/stations/${id}/graph`, { headers: { cookie: planner } })).json()) as {
+      const graph = (await (
+        await fetch(`${base}/api/stations/${id}/graph`, { headers: { cookie: planner } })
+      ).json()) as {
         nodes: { key: string; kind: string }[];
       };
       return graph.nodes.filter((n) => n.kind === 'anchor' || n.kind === 'airlock').map((n) => n.key);
@@ -177,12 +190,18 @@ async function prepare(routeWorkers: number): Promise<Target> {
         requests: [{ setupRequest: (req) => ({ ...req, body: bodies[i++ % bodies.length] }) }],
       };
     };
-    const graphOpts: autocannon.Options = { url: `${base}/api/stations/${demo.id}/graph`, headers: { cookie: planner } };
+    const graphOpts: autocannon.Options = {
+      url: `${base}/api/stations/${demo.id}/graph`,
+      headers: { cookie: planner },
+    };
 
     // warm: compile both stations and build their clip graphs (seconds at 10k), then a short run
     // under load so that every worker the pool hands a station to has built them too
     const t0 = performance.now();
-    for (const [id, bodies] of [[demo.id, demoBodies], [bigId, bigBodies]] as const) {
+    for (const [id, bodies] of [
+      [demo.id, demoBodies],
+      [bigId, bigBodies],
+    ] as const) {
       const res = await fetch(`${base}/api/stations/${id}/routes`, {
         method: 'POST',
         headers: { cookie: planner, 'content-type': 'application/json' },
@@ -191,9 +210,14 @@ async function prepare(routeWorkers: number): Promise<Target> {
       if (res.status !== 200) throw new Error(`warm-up route: ${res.status} ${await res.text()}`);
       await cannon({ ...routeOpts(id, bodies), duration: WARM_SECONDS });
     }
-    console.log(`ROUTE_WORKERS=${routeWorkers}: started and warmed in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
+    console.log(
+      `ROUTE_WORKERS=${routeWorkers}: started and warmed in ${((performance.now() - t0) / 1000).toFixed(1)} s`,
+    );
 
-    const one = (name: string, opts: autocannon.Options): Scenario => ({ name, run: async () => [toRow(name, await cannon(opts))] });
+    const one = (name: string, opts: autocannon.Options): Scenario => ({
+      name,
+      run: async () => [toRow(name, await cannon(opts))],
+    });
     const scenarios: Scenario[] = [
       one('GET /api/health (reference)', { url: `${base}/api/health` }),
       one(`POST routes — ${demo.name}`, routeOpts(demo.id, demoBodies)),
@@ -213,11 +237,19 @@ async function prepare(routeWorkers: number): Promise<Target> {
             cannon(routeOpts(bigId, bigBodies)),
             cannon({ ...graphOpts, connections: LIGHT_CONNECTIONS }),
           ]);
-          return [toRow('mixed: POST routes — 10k-node truss', routes), toRow(`mixed: GET graph (${LIGHT_CONNECTIONS} conn.)`, graph)];
+          return [
+            toRow('mixed: POST routes — 10k-node truss', routes),
+            toRow(`mixed: GET graph (${LIGHT_CONNECTIONS} conn.)`, graph),
+          ];
         },
       },
     ];
-    return { routeWorkers, server, scenarios, soak: () => cannon({ ...routeOpts(bigId, bigBodies), duration: SOAK_SECONDS }) };
+    return {
+      routeWorkers,
+      server,
+      scenarios,
+      soak: () => cannon({ ...routeOpts(bigId, bigBodies), duration: SOAK_SECONDS }),
+    };
   } catch (err) {
     await server.stop();
     throw err;
@@ -255,7 +287,8 @@ function printComparison(main: Measured, pool: Measured) {
     'req/s ×'.padStart(8),
     'p99 ×'.padStart(7),
   );
-  const cells = (r: Row) => [r.rps.toFixed(0), ms(r.p50), ms(r.p99), String(r.errors)].map((c) => c.padStart(8));
+  const cells = (r: Row) =>
+    [r.rps.toFixed(0), ms(r.p50), ms(r.p99), String(r.errors)].map((c) => c.padStart(8));
   const pairs = main.rows.map((r, i) => [r, pool.rows[i]] as const);
   if (main.soak && pool.soak) pairs.push([main.soak.row, pool.soak.row]);
   for (const [a, b] of pairs) {
@@ -290,11 +323,14 @@ async function main() {
     for (let i = 0; i < targets[0].scenarios.length; i++) {
       for (const [k, t] of targets.entries()) measured[k].rows.push(...(await t.scenarios[i].run()));
     }
-    for (const [k, t] of targets.entries()) if (t.routeWorkers === defaultWorkers) measured[k].soak = await soakOn(t);
+    for (const [k, t] of targets.entries())
+      if (t.routeWorkers === defaultWorkers) measured[k].soak = await soakOn(t);
     printComparison(measured[0], measured[1]);
     const all = measured.flatMap((m) => [...m.rows, ...(m.soak ? [m.soak.row] : [])]);
     const bad = all.some((r) => r.errors > 0);
-    console.log(`\n${bad ? 'FAIL: some requests failed' : 'PASS: zero errors'} (${((performance.now() - started) / 1000).toFixed(0)} s in all)`);
+    console.log(
+      `\n${bad ? 'FAIL: some requests failed' : 'PASS: zero errors'} (${((performance.now() - started) / 1000).toFixed(0)} s in all)`,
+    );
     process.exitCode = bad ? 1 : 0;
   } finally {
     await Promise.all(targets.map((t) => t.server.stop()));

@@ -47,7 +47,13 @@ const OUTSIDE_QUERIES = 40;
 const MODES: RouteMode[] = ['fastest', 'fewest-swaps', 'balanced'];
 const P95_SPREAD = 3;
 
-function referenceDijkstra(c: CompiledStation, dist: Float64Array, heap: MinHeap, s: number, t: number): number {
+function referenceDijkstra(
+  c: CompiledStation,
+  dist: Float64Array,
+  heap: MinHeap,
+  s: number,
+  t: number,
+): number {
   dist.fill(Infinity);
   heap.clear();
   dist[s] = 0;
@@ -151,16 +157,25 @@ export async function run(): Promise<boolean> {
     for (let round = 0; round < REPEATS; round++) {
       for (let i = 0; i < queries.length; i++) {
         const [s, t] = queries[i];
-        best(times.reference, i, timed(() => referenceDijkstra(c, dist, heap, s, t)));
+        best(
+          times.reference,
+          i,
+          timed(() => referenceDijkstra(c, dist, heap, s, t)),
+        );
         if (round === 0 && i < OUTSIDE_QUERIES) times['ngraph nba'].push(timed(() => ngFinder.find(s, t)));
         for (const mode of MODES) {
           const request = { from: c.keys[s], to: c.keys[t], mode };
           let r: ReturnType<typeof findRoute> | undefined;
-          best(times[mode], i, timed(() => (r = findRoute(c, settings, request, CLIP))));
+          best(
+            times[mode],
+            i,
+            timed(() => (r = findRoute(c, settings, request, CLIP))),
+          );
           if (!r) continue;
           if (round > 0) continue;
           if (!r.feasible) infeasible++;
-          else if (mode === 'fastest' && r.warnings.some((w) => w.startsWith('The quickest way needs'))) fallbacks++;
+          else if (mode === 'fastest' && r.warnings.some((w) => w.startsWith('The quickest way needs')))
+            fallbacks++;
           if (c.nodeCount > CLIP_BUILD_FREE_NODES && mode !== 'fastest' && i < OUTSIDE_QUERIES) {
             const name = `${mode} (label search)`;
             (times[name] ??= []).push(timed(() => findRoute(c, settings, request, LABELS)));
@@ -178,22 +193,29 @@ export async function run(): Promise<boolean> {
     const costMarks = clip.costMarks.get(settings.swapSeconds);
     console.log(
       `\n${c.nodeCount} nodes, ${c.edgeCount} edges, ${attach.length} attach points, ${queries.length} attach-to-attach queries` +
-        (queries.length > OUTSIDE_QUERIES ? ` (ngraph.path and the label search on the first ${OUTSIDE_QUERIES})` : ''),
+        (queries.length > OUTSIDE_QUERIES
+          ? ` (ngraph.path and the label search on the first ${OUTSIDE_QUERIES})`
+          : ''),
     );
     console.log(
       `compile ${compileMs.toFixed(1)} ms; index ${(c.memoryBytes / 1e6).toFixed(2)} MB (${(c.memoryBytes / c.nodeCount).toFixed(0)} B/node); ` +
         `clip graph (${settings.tetherLengthM} m tether) ${clipMs.toFixed(1)} ms, ${(clip.memoryBytes / 1e6).toFixed(2)} MB, ` +
         `${clip.targets.length} stretches (${(clip.targets.length / Math.max(1, clip.attachNodes.length)).toFixed(1)} per attach point), ` +
         `${clip.swapRows.targets.length} worth a swap (${clip.swapRows.buildMs.toFixed(0)} ms of the build)` +
-        (freeSwaps ? `, ${freeSwaps.targets.length} kept for free swaps (${freeSwaps.buildMs.toFixed(0)} ms, on first use)` : '') +
-        (costMarks ? `, ${costMarks.count} cost landmarks for balanced (${costMarks.buildMs.toFixed(0)} ms, on first use)` : '') +
+        (freeSwaps
+          ? `, ${freeSwaps.targets.length} kept for free swaps (${freeSwaps.buildMs.toFixed(0)} ms, on first use)`
+          : '') +
+        (costMarks
+          ? `, ${costMarks.count} cost landmarks for balanced (${costMarks.buildMs.toFixed(0)} ms, on first use)`
+          : '') +
         '; ' +
         `fastest needed the tether search on ${fallbacks} queries; ${infeasible} infeasible answers`,
     );
     const rows = Object.entries(times).map(([name, list]) => {
       const { median, p95 } = summary(list);
       // the outside points ran on the first queries only: compare them with the same ones
-      const ref = list.length === queries.length ? refMedian : summary(times.reference.slice(0, list.length)).median;
+      const ref =
+        list.length === queries.length ? refMedian : summary(times.reference.slice(0, list.length)).median;
       const row: Record<string, string> = {
         'median ms': ms(median),
         'p95 ms': ms(p95),

@@ -30,7 +30,12 @@ function naiveScene(station: SceneStation): THREE.Group {
   for (const e of station.edges) {
     const a = at.get(e.from)!;
     const b = at.get(e.to)!;
-    root.add(new THREE.Line(new THREE.BufferGeometry().setFromPoints([new THREE.Vector3(...a), new THREE.Vector3(...b)]), lineMaterial));
+    root.add(
+      new THREE.Line(
+        new THREE.BufferGeometry().setFromPoints([new THREE.Vector3(...a), new THREE.Vector3(...b)]),
+        lineMaterial,
+      ),
+    );
   }
   const box = new THREE.BoxGeometry(1, 1, 1);
   for (const s of station.segments) {
@@ -59,7 +64,14 @@ function measure(name: string, station: SceneStation): Row {
   const buildMs = performance.now() - t0;
   const scene = countDrawCalls(objects.root);
   objects.dispose();
-  return { name, nodes: station.nodes.length, edges: station.edges.length, buildMs, scene, naive: countDrawCalls(naiveScene(station)) };
+  return {
+    name,
+    nodes: station.nodes.length,
+    edges: station.edges.length,
+    buildMs,
+    scene,
+    naive: countDrawCalls(naiveScene(station)),
+  };
 }
 
 export async function run(): Promise<boolean> {
@@ -67,14 +79,18 @@ export async function run(): Promise<boolean> {
   if (fs.existsSync(DEMO)) {
     const parsed = parseStationDocument(JSON.parse(fs.readFileSync(DEMO, 'utf8')));
     if (parsed.ok) rows.push(measure(parsed.doc.name, parsed.doc));
-    else console.log(`demo station does not parse: ${parsed.problems[0]?.path} ${parsed.problems[0]?.message}`);
+    else
+      console.log(`demo station does not parse: ${parsed.problems[0]?.path} ${parsed.problems[0]?.message}`);
   } else {
     console.log(`demo station not found at ${path.relative(process.cwd(), DEMO)}; generated stations only`);
   }
-  for (const n of [1000, 10000]) rows.push(measure(`generated ${n}`, generateTrussStation({ nodes: n, seed: 7 })));
+  for (const n of [1000, 10000])
+    rows.push(measure(`generated ${n}`, generateTrussStation({ nodes: n, seed: 7 })));
 
   let ok = true;
-  console.log('station                          nodes  edges  build ms  draw calls  triangles  line segs  naive calls  ratio  target');
+  console.log(
+    'station                          nodes  edges  build ms  draw calls  triangles  line segs  naive calls  ratio  target',
+  );
   for (const r of rows) {
     const pass = r.scene.drawCalls <= DRAW_CALL_TARGET;
     ok &&= pass;

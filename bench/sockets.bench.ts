@@ -133,7 +133,9 @@ function trussInstance(seed: number) {
 
 export async function run(): Promise<void> {
   const runs = 7;
-  console.log(`socket planner (h ${standOffM} m, R ${radiusM} m: planning defaults from memory), median of ${runs} runs`);
+  console.log(
+    `socket planner (h ${standOffM} m, R ${radiusM} m: planning defaults from memory), median of ${runs} runs`,
+  );
 
   const exactCases = [
     ...[1, 2, 3].map((seed) => ({ name: `face cluster #${seed}`, ...faceInstance(seed) })),
@@ -155,12 +157,18 @@ export async function run(): Promise<void> {
     );
   }
 
-  console.log(`  target: 30 candidates exact well under 1 s — slowest median ${slowest.toFixed(2)} ms${slowest < 1000 ? '' : '  FAIL'}`);
+  console.log(
+    `  target: 30 candidates exact well under 1 s — slowest median ${slowest.toFixed(2)} ms${slowest < 1000 ? '' : '  FAIL'}`,
+  );
 
   const g = trussInstance(7);
   const gridMs = time(runs, () => gridCandidates(g.segments, 0.5)).ms;
-  const planned = time(runs, () => planSockets({ targets: g.targets, candidates: g.candidates, standOffM, radiusM }));
-  const greedyOnly = time(runs, () => planSockets({ targets: g.targets, candidates: g.candidates, standOffM, radiusM, method: 'greedy' }));
+  const planned = time(runs, () =>
+    planSockets({ targets: g.targets, candidates: g.candidates, standOffM, radiusM }),
+  );
+  const greedyOnly = time(runs, () =>
+    planSockets({ targets: g.targets, candidates: g.candidates, standOffM, radiusM, method: 'greedy' }),
+  );
   const naive = time(3, () => naiveGreedy(g.candidates, g.targets));
   const p = planned.value;
   console.log(

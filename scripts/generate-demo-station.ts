@@ -12,16 +12,35 @@
  */
 import fs from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { DEFAULT_SETTINGS, parseStationDocument, type Hazard, type Segment, type StationDocument, type StationEdge, type StationNode, type Vec3 } from '../shared/schemas/station';
+import {
+  DEFAULT_SETTINGS,
+  parseStationDocument,
+  type Hazard,
+  type Segment,
+  type StationDocument,
+  type StationEdge,
+  type StationNode,
+  type Vec3,
+} from '../shared/schemas/station';
 
 const HALF = 1.5;
 const round = (v: number) => Math.round(v * 1000) / 1000;
 const v3 = (x: number, y: number, z: number): Vec3 => [round(x), round(y), round(z)];
 
 const BAYS: { key: string; label: string; x0: number; x1: number }[] = [
-  ...[4, 3, 2, 1].map((i) => ({ key: `PB${i}`, label: `Port bay ${i}`, x0: -3 - 7 * i, x1: -3 - 7 * (i - 1) })),
+  ...[4, 3, 2, 1].map((i) => ({
+    key: `PB${i}`,
+    label: `Port bay ${i}`,
+    x0: -3 - 7 * i,
+    x1: -3 - 7 * (i - 1),
+  })),
   { key: 'CB', label: 'Centre bay', x0: -3, x1: 3 },
-  ...[1, 2, 3, 4].map((i) => ({ key: `SB${i}`, label: `Starboard bay ${i}`, x0: 3 + 7 * (i - 1), x1: 3 + 7 * i })),
+  ...[1, 2, 3, 4].map((i) => ({
+    key: `SB${i}`,
+    label: `Starboard bay ${i}`,
+    x0: 3 + 7 * (i - 1),
+    x1: 3 + 7 * i,
+  })),
 ];
 
 /** Two runs per face, 0.75 m either side of the face centre line, with the face's outward normal. */
@@ -46,16 +65,27 @@ function build(): StationDocument {
   const counters = new Map<string, number>();
   const byKey = new Map<string, StationNode>();
 
-  const addNode = (prefix: string, kind: StationNode['kind'], position: Vec3, extra: Partial<StationNode> = {}) => {
+  const addNode = (
+    prefix: string,
+    kind: StationNode['kind'],
+    position: Vec3,
+    extra: Partial<StationNode> = {},
+  ) => {
     const letter = { airlock: 'L', junction: 'J', anchor: 'A', socket: 'S', worksite: 'W' }[kind];
     const n = (counters.get(prefix + letter) ?? 0) + 1;
     counters.set(prefix + letter, n);
-    const node: StationNode = { key: `${prefix}-${letter}${String(n).padStart(2, '0')}`, kind, position, ...extra };
+    const node: StationNode = {
+      key: `${prefix}-${letter}${String(n).padStart(2, '0')}`,
+      kind,
+      position,
+      ...extra,
+    };
     nodes.push(node);
     byKey.set(node.key, node);
     return node.key;
   };
-  const link = (from: string, to: string, kind: StationEdge['kind'], extra: Partial<StationEdge> = {}) => edges.push({ from, to, kind, ...extra });
+  const link = (from: string, to: string, kind: StationEdge['kind'], extra: Partial<StationEdge> = {}) =>
+    edges.push({ from, to, kind, ...extra });
   const bayAt = (x: number) => BAYS.find((b) => x >= b.x0 - 1e-9 && x < b.x1 - 1e-9) ?? BAYS[BAYS.length - 1];
 
   // Stations along x where each run has a point: ~1.4–1.5 m apart, every bay boundary included.
@@ -68,7 +98,8 @@ function build(): StationDocument {
   const boundaries = new Set([...BAYS.map((b) => b.x0), BAYS[BAYS.length - 1].x1]);
 
   const gap = (face: string, side: number, x: number) =>
-    (face === 'nadir' && side === 1 && x > 3 && x < 31) || (face === 'fore' && side === 1 && x > -24 && x < -8);
+    (face === 'nadir' && side === 1 && x > 3 && x < 31) ||
+    (face === 'fore' && side === 1 && x > -24 && x < -8);
 
   /** runs[face][side][i] = key of the point at xs[i] */
   const runs = new Map<string, string[]>();
@@ -77,7 +108,11 @@ function build(): StationDocument {
       const keys: string[] = [];
       xs.forEach((x, i) => {
         const anchor = (i % 3 === 0 && !gap(f.face, s, x)) || i === xs.length - 1;
-        keys.push(addNode(bayAt(x).key, anchor ? 'anchor' : 'junction', f.at(x, s), { label: `${f.face} run ${s > 0 ? 'A' : 'B'}, x ${x.toFixed(1)} m` }));
+        keys.push(
+          addNode(bayAt(x).key, anchor ? 'anchor' : 'junction', f.at(x, s), {
+            label: `${f.face} run ${s > 0 ? 'A' : 'B'}, x ${x.toFixed(1)} m`,
+          }),
+        );
         if (i > 0) link(keys[i - 1], keys[i], 'handrail');
       });
       runs.set(`${f.face}${s}`, keys);
@@ -95,7 +130,10 @@ function build(): StationDocument {
     const mid = (b.x0 + b.x1) / 2;
     const i = xs.reduce((best, x, k) => (Math.abs(x - mid) < Math.abs(xs[best] - mid) ? k : best), 0);
     for (const f of FACES) {
-      const key = addNode(b.key, 'socket', f.at(xs[i], 0), { normal: f.normal, label: `${b.label} ${f.face} foot restraint socket` });
+      const key = addNode(b.key, 'socket', f.at(xs[i], 0), {
+        normal: f.normal,
+        label: `${b.label} ${f.face} foot restraint socket`,
+      });
       link(runs.get(`${f.face}1`)![i], key, 'handrail');
     }
   }
@@ -106,7 +144,11 @@ function build(): StationDocument {
     const keys: string[] = [];
     for (let k = 0; k <= 6; k++) {
       const y = 1.8 + k * 1.45;
-      keys.push(addNode('CORE', k % 3 === 0 ? 'anchor' : 'junction', v3(1.1 * s, y, 2.2), { label: `core zenith run ${s > 0 ? 'A' : 'B'}` }));
+      keys.push(
+        addNode('CORE', k % 3 === 0 ? 'anchor' : 'junction', v3(1.1 * s, y, 2.2), {
+          label: `core zenith run ${s > 0 ? 'A' : 'B'}`,
+        }),
+      );
       if (k > 0) link(keys[k - 1], keys[k], 'handrail');
     }
     coreRuns.push(keys);
@@ -119,7 +161,10 @@ function build(): StationDocument {
   link(hatch, alTop, 'handrail');
   link(alTop, alAft, 'handrail');
   for (const run of coreRuns) link(alAft, run[run.length - 1], 'hop', { label: 'airlock to core' });
-  addNode('AL', 'socket', v3(0.9, 13.7, 0), { normal: v3(0, 1, 0), label: 'Airlock hatch foot restraint socket' });
+  addNode('AL', 'socket', v3(0.9, 13.7, 0), {
+    normal: v3(0, 1, 0),
+    label: 'Airlock hatch foot restraint socket',
+  });
   link(hatch, 'AL-S01', 'handrail');
 
   // Worksites, each joined to the nearest run point and with a socket beside it. The task point is on
@@ -128,7 +173,11 @@ function build(): StationDocument {
   const TASK_PROUD_M = 0.8;
   const SOCKET_SIDE_M = 0.55;
   const worksite = (bay: string, label: string, surface: Vec3, normal: Vec3, socketSide: Vec3) => {
-    const position = v3(surface[0] + normal[0] * TASK_PROUD_M, surface[1] + normal[1] * TASK_PROUD_M, surface[2] + normal[2] * TASK_PROUD_M);
+    const position = v3(
+      surface[0] + normal[0] * TASK_PROUD_M,
+      surface[1] + normal[1] * TASK_PROUD_M,
+      surface[2] + normal[2] * TASK_PROUD_M,
+    );
     const w = addNode(bay, 'worksite', position, { label });
     const nearest = nodes
       .filter((n) => n.kind === 'anchor' || n.kind === 'junction')
@@ -160,15 +209,41 @@ function build(): StationDocument {
   link(coreRuns[0][3], runs.get('zenith1')![xs.length - 1], 'ride', { label: 'Robotic arm ride' });
 
   const segments: Segment[] = [
-    ...BAYS.map((b) => ({ key: b.key, label: b.label, kind: 'truss' as const, center: v3((b.x0 + b.x1) / 2, 0, 0), size: v3(b.x1 - b.x0, 3, 3) })),
+    ...BAYS.map((b) => ({
+      key: b.key,
+      label: b.label,
+      kind: 'truss' as const,
+      center: v3((b.x0 + b.x1) / 2, 0, 0),
+      size: v3(b.x1 - b.x0, 3, 3),
+    })),
     { key: 'CORE', label: 'Core module', kind: 'module', center: v3(0, 6, 0), size: v3(4.4, 9, 4.4) },
     { key: 'AL', label: 'Airlock module', kind: 'module', center: v3(0, 12.1, 0), size: v3(3.2, 3.2, 3.2) },
-    { key: 'ESP', label: 'Stowage platform', kind: 'platform', center: v3(0, 0, -2.6), size: v3(3, 2.4, 0.6) },
+    {
+      key: 'ESP',
+      label: 'Stowage platform',
+      kind: 'platform',
+      center: v3(0, 0, -2.6),
+      size: v3(3, 2.4, 0.6),
+    },
     { key: 'RAD', label: 'Starboard radiator', kind: 'platform', center: v3(17, -3, 0), size: v3(6, 3, 0.2) },
   ];
   const hazards: Hazard[] = [
-    { key: 'RAD-1', kind: 'keep-out', label: 'Starboard radiator panel (keep out)', shape: 'box', min: v3(14, -4.6, -1.2), max: v3(19.5, -1.2, 1.2) },
-    { key: 'ANT-1', kind: 'caution', label: 'Antenna radiation field (caution)', shape: 'sphere', center: v3(-19, 0, 3), radiusM: 2 },
+    {
+      key: 'RAD-1',
+      kind: 'keep-out',
+      label: 'Starboard radiator panel (keep out)',
+      shape: 'box',
+      min: v3(14, -4.6, -1.2),
+      max: v3(19.5, -1.2, 1.2),
+    },
+    {
+      key: 'ANT-1',
+      kind: 'caution',
+      label: 'Antenna radiation field (caution)',
+      shape: 'sphere',
+      center: v3(-19, 0, 3),
+      radiusM: 2,
+    },
   ];
 
   return {
@@ -191,7 +266,8 @@ function dist(a: Vec3, b: Vec3) {
 export function generateKestrelStation(): StationDocument {
   const doc = build();
   const checked = parseStationDocument(doc);
-  if (!checked.ok) throw new Error(`generated station is not valid: ${JSON.stringify(checked.problems.slice(0, 5))}`);
+  if (!checked.ok)
+    throw new Error(`generated station is not valid: ${JSON.stringify(checked.problems.slice(0, 5))}`);
   return doc;
 }
 
@@ -199,5 +275,7 @@ if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
   const out = fileURLToPath(new URL('../server/db/seed/kestrel-station.json', import.meta.url));
   const doc = generateKestrelStation();
   fs.writeFileSync(out, JSON.stringify(doc, null, 1) + '\n');
-  console.log(`wrote ${out}: ${doc.nodes.length} nodes, ${doc.edges.length} edges, ${doc.hazards.length} hazards, ${doc.segments.length} segments`);
+  console.log(
+    `wrote ${out}: ${doc.nodes.length} nodes, ${doc.edges.length} edges, ${doc.hazards.length} hazards, ${doc.segments.length} segments`,
+  );
 }

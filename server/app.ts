@@ -61,24 +61,41 @@ export async function createApp(options: CreateAppOptions = {}): Promise<AppInst
   configureClipBuilds({ inlineNodes: config.routeClipInlineNodes, onEvent: (e) => logClipBuild(logger, e) });
   const routePool =
     config.routeWorkers > 0
-      ? new RoutePool({ size: config.routeWorkers, queueLimit: config.routeQueueLimit, clipInlineNodes: config.routeClipInlineNodes, logger })
+      ? new RoutePool({
+          size: config.routeWorkers,
+          queueLimit: config.routeQueueLimit,
+          clipInlineNodes: config.routeClipInlineNodes,
+          logger,
+        })
       : null;
   const ctx: AppContext = { config, db: handle.db, sqlite: handle.sqlite, logger, mailer, routePool };
   if (options.seed ?? true) await seedDatabase(ctx);
 
   const app = express();
   app.disable('x-powered-by');
-  app.use(helmet({ contentSecurityPolicy: { directives: CSP_DIRECTIVES }, crossOriginEmbedderPolicy: false }));
+  app.use(
+    helmet({ contentSecurityPolicy: { directives: CSP_DIRECTIVES }, crossOriginEmbedderPolicy: false }),
+  );
   app.use(
     pinoHttp({
       logger,
       serializers: {
-        req: (req: { id: unknown; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
+        req: (req: { id: unknown; method: string; url: string }) => ({
+          id: req.id,
+          method: req.method,
+          url: req.url,
+        }),
         res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
       },
       autoLogging: { ignore: (req) => req.url === '/api/health' || !req.url?.startsWith('/api') },
       customLogLevel: (_req, res, err) =>
-        res.statusCode === 503 ? 'warn' : err || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info',
+        res.statusCode === 503
+          ? 'warn'
+          : err || res.statusCode >= 500
+            ? 'error'
+            : res.statusCode >= 400
+              ? 'warn'
+              : 'info',
     }),
   );
   app.use(
@@ -88,7 +105,8 @@ export async function createApp(options: CreateAppOptions = {}): Promise<AppInst
       limit: config.apiRequestsPerMinute,
       standardHeaders: 'draft-8',
       legacyHeaders: false,
-      handler: (_req, _res, next) => next(new HttpError('RATE_LIMITED', 'Too many requests. Slow down and try again in a minute.')),
+      handler: (_req, _res, next) =>
+        next(new HttpError('RATE_LIMITED', 'Too many requests. Slow down and try again in a minute.')),
     }),
   );
   app.use('/api', (_req, res, next) => {
@@ -104,12 +122,18 @@ export async function createApp(options: CreateAppOptions = {}): Promise<AppInst
   const clientDir = config.clientDir;
   if (clientDir) {
     const indexHtml = path.join(clientDir, 'index.html');
-    app.use('/assets', express.static(path.join(clientDir, 'assets'), { immutable: true, maxAge: '1y', fallthrough: false }));
+    app.use(
+      '/assets',
+      express.static(path.join(clientDir, 'assets'), { immutable: true, maxAge: '1y', fallthrough: false }),
+    );
     app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
     // looked up per request, so a client rebuilt while the server runs is picked up
     app.get('/{*splat}', (_req, res) => {
       if (fs.existsSync(indexHtml)) return res.sendFile(indexHtml);
-      res.status(503).type('text/plain').send('The client is not built yet: run `npm run build` (npm start does it for you).');
+      res
+        .status(503)
+        .type('text/plain')
+        .send('The client is not built yet: run `npm run build` (npm start does it for you).');
     });
   }
   app.use(errorHandler(logger));

@@ -11,13 +11,19 @@ function ensureChromium() {
   const isRoot = typeof process.getuid === 'function' && process.getuid() === 0;
   const hasApt = spawnSync('sh', ['-c', 'command -v apt-get'], { stdio: 'ignore' }).status === 0;
   if (!isRoot || !hasApt) {
-    console.error(`Chromium is missing at ${CHROMIUM}: install it with "sudo apt-get install -y chromium" (or set CHROMIUM_PATH), then run npm test again.`);
+    console.error(
+      `Chromium is missing at ${CHROMIUM}: install it with "sudo apt-get install -y chromium" (or set CHROMIUM_PATH), then run npm test again.`,
+    );
     process.exit(1);
   }
   console.log('Installing Debian chromium for the browser tests…');
-  execFileSync('sh', ['-c', 'apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium'], {
-    stdio: 'inherit',
-  });
+  execFileSync(
+    'sh',
+    ['-c', 'apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium'],
+    {
+      stdio: 'inherit',
+    },
+  );
 }
 
 ensureChromium();

@@ -11,7 +11,9 @@ if (args[0] === '--restore') {
   console.log(`restored ${args[1]} over ${databaseUrl}`);
 } else {
   const stamp = new Date().toISOString().replace(/[:.]/g, '-');
-  const target = path.resolve(args[0] ?? path.join(path.dirname(databaseUrl), 'backups', `tetherwise-${stamp}.db`));
+  const target = path.resolve(
+    args[0] ?? path.join(path.dirname(databaseUrl), 'backups', `tetherwise-${stamp}.db`),
+  );
   const { pages, bytes } = await backupDatabase(databaseUrl, target);
   console.log(`backed up ${databaseUrl} → ${target} (${pages} pages, ${(bytes / 1024).toFixed(0)} KiB)`);
 }

@@ -6,7 +6,10 @@ import Database from 'better-sqlite3';
  * An online backup with SQLite's backup API: consistent while the server keeps writing (WAL), unlike
  * copying the file. Restore = stop the server, replace the database file with the backup, start.
  */
-export async function backupDatabase(sourceFile: string, targetFile: string): Promise<{ pages: number; bytes: number }> {
+export async function backupDatabase(
+  sourceFile: string,
+  targetFile: string,
+): Promise<{ pages: number; bytes: number }> {
   fs.mkdirSync(path.dirname(targetFile), { recursive: true });
   const db = new Database(sourceFile, { readonly: true, fileMustExist: true });
   try {

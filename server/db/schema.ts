@@ -176,7 +176,9 @@ export const annotations = sqliteTable(
     z: real('z').notNull(),
     title: text('title').notNull(),
     body: text('body').notNull(),
-    status: text('status', { enum: ['open', 'resolved'] }).notNull().default('open'),
+    status: text('status', { enum: ['open', 'resolved'] })
+      .notNull()
+      .default('open'),
     authorId: integer('author_id').references(() => users.id, { onDelete: 'set null' }),
     resolvedBy: integer('resolved_by').references(() => users.id, { onDelete: 'set null' }),
     ...timestamps,
@@ -227,7 +229,9 @@ export const plans = sqliteTable(
       .references(() => stations.id, { onDelete: 'restrict' }),
     title: text('title').notNull(),
     date: text('date').notNull(),
-    status: text('status', { enum: ['draft', 'in-review', 'approved'] }).notNull().default('draft'),
+    status: text('status', { enum: ['draft', 'in-review', 'approved'] })
+      .notNull()
+      .default('draft'),
     version: integer('version').notNull().default(1),
     authorId: integer('author_id').references(() => users.id, { onDelete: 'set null' }),
     approverId: integer('approver_id').references(() => users.id, { onDelete: 'set null' }),

@@ -61,10 +61,15 @@ export function defaultRouteWorkers(cores = os.availableParallelism()): number {
   return Math.max(0, Math.min(2, cores - 1));
 }
 
-export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Partial<AppConfig> = {}): AppConfig {
+export function loadConfig(
+  env: NodeJS.ProcessEnv = process.env,
+  overrides: Partial<AppConfig> = {},
+): AppConfig {
   const dataDir = path.resolve(overrides.dataDir ?? env.DATA_DIR ?? 'data');
   fs.mkdirSync(dataDir, { recursive: true });
-  const databaseUrl = path.resolve(overrides.databaseUrl ?? env.DATABASE_URL ?? path.join('data', 'tetherwise.db'));
+  const databaseUrl = path.resolve(
+    overrides.databaseUrl ?? env.DATABASE_URL ?? path.join('data', 'tetherwise.db'),
+  );
   const port = overrides.port ?? intFromEnv(env.PORT, 3000);
   return {
     port,
@@ -81,7 +86,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     apiRequestsPerMinute: overrides.apiRequestsPerMinute ?? intFromEnv(env.API_REQUESTS_PER_MINUTE, 1200),
     routeWorkers: overrides.routeWorkers ?? intFromEnv(env.ROUTE_WORKERS, defaultRouteWorkers()),
     routeQueueLimit: overrides.routeQueueLimit ?? intFromEnv(env.ROUTE_QUEUE_LIMIT, 64),
-    routeClipInlineNodes: overrides.routeClipInlineNodes ?? intFromEnv(env.ROUTE_CLIP_INLINE_NODES, CLIP_BUILD_FREE_NODES),
+    routeClipInlineNodes:
+      overrides.routeClipInlineNodes ?? intFromEnv(env.ROUTE_CLIP_INLINE_NODES, CLIP_BUILD_FREE_NODES),
     logLevel: overrides.logLevel ?? env.LOG_LEVEL ?? 'info',
     clientDir: overrides.clientDir !== undefined ? overrides.clientDir : path.resolve('dist'),
     mailFrom: overrides.mailFrom ?? env.MAIL_FROM ?? 'Tetherwise <no-reply@tetherwise.local>',

@@ -5,6 +5,9 @@ export type Logger = pino.Logger;
 export function createLogger(level: string): Logger {
   return pino({
     level,
-    redact: { paths: ['req.headers.cookie', 'res.headers["set-cookie"]', 'password', '*.password'], remove: true },
+    redact: {
+      paths: ['req.headers.cookie', 'res.headers["set-cookie"]', 'password', '*.password'],
+      remove: true,
+    },
   });
 }

@@ -44,7 +44,10 @@ const FOOTER_H = 40;
 
 /** The shipped Inter subset is Basic Latin, Latin-1 and punctuation: arrows and Greek letters become words, anything else "?". */
 export function pdfSafe(text: string): string {
-  return text.replace(/\s*→\s*/g, ' to ').replace(/β/g, 'beta ').replace(/[^\t\n\r\u0020-\u00ff\u2000-\u206f]/g, '?');
+  return text
+    .replace(/\s*→\s*/g, ' to ')
+    .replace(/β/g, 'beta ')
+    .replace(/[^\t\n\r\u0020-\u00ff\u2000-\u206f]/g, '?');
 }
 
 const KIND_LABEL: Record<CueStep['kind'], string> = {
@@ -88,21 +91,42 @@ export function buildCueCardPdf(input: CueCardDocument): Promise<Buffer> {
     doc.font('Inter-Bold').fontSize(14).fillColor(INK).text(pdfSafe(input.title), { width });
     doc.font('Inter').fontSize(8.5).fillColor(MUTED).text(pdfSafe(input.subtitle), { width });
     doc.moveDown(0.6);
-    doc.font('Inter-Bold').fontSize(12).fillColor(INK).text(pdfSafe(`${card.member}  ${card.name}`), { width });
+    doc
+      .font('Inter-Bold')
+      .fontSize(12)
+      .fillColor(INK)
+      .text(pdfSafe(`${card.member}  ${card.name}`), { width });
     doc.font('Inter').fontSize(8.5).fillColor(MUTED);
-    doc.text(pdfSafe(`Safety tether ${card.tetherLengthM.toFixed(1)} m. Orbital night (elapsed): ${nights}.`), { width });
+    doc.text(
+      pdfSafe(`Safety tether ${card.tetherLengthM.toFixed(1)} m. Orbital night (elapsed): ${nights}.`),
+      { width },
+    );
     doc.text(pdfSafe(`Tools: ${card.tools.length ? card.tools.join(', ') : 'none listed'}.`), { width });
     doc.moveDown(0.6);
     for (const step of card.steps) {
       const y = doc.y;
       if (y > doc.page.height - doc.page.margins.bottom - 30) doc.addPage();
       const top = doc.y;
-      doc.font('Inter-Bold').fontSize(9).fillColor(step.night ? NIGHT : INK);
+      doc
+        .font('Inter-Bold')
+        .fontSize(9)
+        .fillColor(step.night ? NIGHT : INK);
       doc.text(`${t(step.start)}–${t(step.end)}`, MARGIN, top, { width: 62 });
-      doc.font('Inter-Bold').fontSize(7).fillColor(MUTED).text(KIND_LABEL[step.kind] + (step.night ? ' · NIGHT' : ''), MARGIN, top + 11, { width: 62 });
-      doc.font('Inter').fontSize(9).fillColor(INK).text(pdfSafe(step.text), MARGIN + 66, top, { width: width - 66 });
+      doc
+        .font('Inter-Bold')
+        .fontSize(7)
+        .fillColor(MUTED)
+        .text(KIND_LABEL[step.kind] + (step.night ? ' · NIGHT' : ''), MARGIN, top + 11, { width: 62 });
+      doc
+        .font('Inter')
+        .fontSize(9)
+        .fillColor(INK)
+        .text(pdfSafe(step.text), MARGIN + 66, top, { width: width - 66 });
       for (const d of step.details ?? []) {
-        doc.fontSize(8).fillColor(MUTED).text(pdfSafe(d), MARGIN + 74, doc.y, { width: width - 74 });
+        doc
+          .fontSize(8)
+          .fillColor(MUTED)
+          .text(pdfSafe(d), MARGIN + 74, doc.y, { width: width - 74 });
       }
       doc.x = MARGIN;
       doc.y = Math.max(doc.y, top + 20) + 4;
@@ -124,7 +148,10 @@ export function buildCueCardPdf(input: CueCardDocument): Promise<Buffer> {
     doc.page.margins.bottom = 0;
     doc.font('Inter').fontSize(7).fillColor(MUTED);
     doc.text(pdfSafe(input.caution), MARGIN, doc.page.height - MARGIN - FOOTER_H + 8, { width: width - 40 });
-    doc.text(`${p + 1} / ${range.count}`, MARGIN + width - 36, doc.page.height - MARGIN - FOOTER_H + 8, { width: 36, align: 'right' });
+    doc.text(`${p + 1} / ${range.count}`, MARGIN + width - 36, doc.page.height - MARGIN - FOOTER_H + 8, {
+      width: 36,
+      align: 'right',
+    });
     doc.page.margins.bottom = bottom;
   }
   doc.end();

@@ -12,7 +12,10 @@ export const MB = 1024 * 1024;
  * the error handler). Files are checked by content and written to disk by the caller, never as sent.
  */
 export function memoryUpload(maxBytes: number, maxFiles = 2) {
-  return multer({ storage: multer.memoryStorage(), limits: { fileSize: maxBytes, files: maxFiles, fields: 20, fieldSize: 64 * 1024 } });
+  return multer({
+    storage: multer.memoryStorage(),
+    limits: { fileSize: maxBytes, files: maxFiles, fields: 20, fieldSize: 64 * 1024 },
+  });
 }
 
 export interface DetectedType {
@@ -29,10 +32,15 @@ export async function sniffFileType(buffer: Uint8Array): Promise<DetectedType | 
 export const IMAGE_TYPES: Record<string, string> = { 'image/png': 'png', 'image/jpeg': 'jpg' };
 
 /** Refuses anything whose content is not one of `allowed` (the name and the sent mime type are ignored). */
-export async function requireImage(buffer: Uint8Array, allowed: Record<string, string> = IMAGE_TYPES): Promise<DetectedType> {
+export async function requireImage(
+  buffer: Uint8Array,
+  allowed: Record<string, string> = IMAGE_TYPES,
+): Promise<DetectedType> {
   const found = await sniffFileType(buffer);
   if (!found || !(found.mime in allowed)) {
-    const kinds = Object.values(allowed).map((e) => e.toUpperCase()).join(' or ');
+    const kinds = Object.values(allowed)
+      .map((e) => e.toUpperCase())
+      .join(' or ');
     throw new HttpError(
       'UNSUPPORTED_MEDIA_TYPE',
       `Only ${kinds} images can be attached; this file's content is ${found ? found.mime : 'not an image'}.`,
@@ -48,9 +56,13 @@ export async function requireImage(buffer: Uint8Array, allowed: Record<string, s
 export async function readTextUpload(buffer: Buffer, what: string): Promise<string> {
   const found = await sniffFileType(buffer);
   if (found) {
-    throw new HttpError('UNSUPPORTED_MEDIA_TYPE', `The ${what} must be a text file; this one is ${found.mime} (.${found.ext}).`);
+    throw new HttpError(
+      'UNSUPPORTED_MEDIA_TYPE',
+      `The ${what} must be a text file; this one is ${found.mime} (.${found.ext}).`,
+    );
   }
-  if (buffer.includes(0)) throw new HttpError('UNSUPPORTED_MEDIA_TYPE', `The ${what} must be a text file; this one is binary.`);
+  if (buffer.includes(0))
+    throw new HttpError('UNSUPPORTED_MEDIA_TYPE', `The ${what} must be a text file; this one is binary.`);
   try {
     const text = new TextDecoder('utf-8', { fatal: true }).decode(buffer);
     return text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;

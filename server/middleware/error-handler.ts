@@ -13,16 +13,23 @@ export const apiNotFound: RequestHandler = (req, _res, next) => {
 /** Maps anything thrown to an HttpError: the one converter. */
 export function toHttpError(err: unknown): HttpError {
   if (err instanceof HttpError) return err;
-  if (err instanceof ZodError) return new HttpError('VALIDATION_FAILED', 'The request is not valid.', zodDetails(err, 'body'));
+  if (err instanceof ZodError)
+    return new HttpError('VALIDATION_FAILED', 'The request is not valid.', zodDetails(err, 'body'));
   if (err instanceof MulterError) {
-    if (err.code === 'LIMIT_FILE_SIZE') return new HttpError('PAYLOAD_TOO_LARGE', 'The file is larger than allowed.');
-    return new HttpError('VALIDATION_FAILED', `Upload refused: ${err.message}${err.field ? ` (field "${err.field}")` : ''}.`);
+    if (err.code === 'LIMIT_FILE_SIZE')
+      return new HttpError('PAYLOAD_TOO_LARGE', 'The file is larger than allowed.');
+    return new HttpError(
+      'VALIDATION_FAILED',
+      `Upload refused: ${err.message}${err.field ? ` (field "${err.field}")` : ''}.`,
+    );
   }
   const e = err as { type?: string; status?: number; statusCode?: number; message?: string };
   // body-parser and raw-body errors carry a `type`
   if (e && typeof e === 'object') {
-    if (e.type === 'entity.parse.failed') return new HttpError('VALIDATION_FAILED', 'The request body is not valid JSON.');
-    if (e.type === 'entity.too.large') return new HttpError('PAYLOAD_TOO_LARGE', 'The request body is larger than allowed.');
+    if (e.type === 'entity.parse.failed')
+      return new HttpError('VALIDATION_FAILED', 'The request body is not valid JSON.');
+    if (e.type === 'entity.too.large')
+      return new HttpError('PAYLOAD_TOO_LARGE', 'The request body is larger than allowed.');
     if (e.type === 'charset.unsupported' || e.type === 'encoding.unsupported')
       return new HttpError('UNSUPPORTED_MEDIA_TYPE', 'The request body encoding is not supported.');
     const status = e.status ?? e.statusCode;
@@ -37,7 +44,8 @@ export function errorHandler(logger: Logger): ErrorRequestHandler {
   return (err, req, res, _next) => {
     const httpError = toHttpError(err);
     // 503 is the server refusing on purpose (busy, shutting down): no stack to log
-    if (httpError.status >= 500 && httpError.code !== 'UNAVAILABLE') logger.error({ err, method: req.method, url: req.originalUrl }, 'unhandled error');
+    if (httpError.status >= 500 && httpError.code !== 'UNAVAILABLE')
+      logger.error({ err, method: req.method, url: req.originalUrl }, 'unhandled error');
     if (res.headersSent) return res.end();
     const body: ErrorBody = { error: { code: httpError.code, message: httpError.message } };
     if (httpError.details?.length) body.error.details = httpError.details;

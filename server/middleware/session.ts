@@ -11,11 +11,15 @@ interface SessionClaims {
 }
 
 export function issueSession(ctx: AppContext, res: Response, user: { id: number; tokenVersion: number }) {
-  const token = jwt.sign({ tv: user.tokenVersion } satisfies Omit<SessionClaims, 'sub'>, ctx.config.jwtSecret, {
-    subject: String(user.id),
-    expiresIn: `${ctx.config.sessionHours}h`,
-    algorithm: 'HS256',
-  });
+  const token = jwt.sign(
+    { tv: user.tokenVersion } satisfies Omit<SessionClaims, 'sub'>,
+    ctx.config.jwtSecret,
+    {
+      subject: String(user.id),
+      expiresIn: `${ctx.config.sessionHours}h`,
+      algorithm: 'HS256',
+    },
+  );
   res.cookie(SESSION_COOKIE, token, {
     httpOnly: true,
     sameSite: 'lax',
@@ -26,7 +30,12 @@ export function issueSession(ctx: AppContext, res: Response, user: { id: number;
 }
 
 export function clearSession(ctx: AppContext, res: Response) {
-  res.clearCookie(SESSION_COOKIE, { httpOnly: true, sameSite: 'lax', secure: ctx.config.cookieSecure, path: '/' });
+  res.clearCookie(SESSION_COOKIE, {
+    httpOnly: true,
+    sameSite: 'lax',
+    secure: ctx.config.cookieSecure,
+    path: '/',
+  });
 }
 
 /**

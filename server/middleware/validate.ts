@@ -25,7 +25,11 @@ export function parseInput(schemas: InputSchemas, req: Request) {
     else details.push(...zodDetails(parsed.error, where));
   }
   if (details.length) {
-    throw new HttpError('VALIDATION_FAILED', `The request is not valid: ${details[0].path} ${details[0].message}`, details);
+    throw new HttpError(
+      'VALIDATION_FAILED',
+      `The request is not valid: ${details[0].path} ${details[0].message}`,
+      details,
+    );
   }
   return out;
 }

@@ -60,7 +60,12 @@ export function speedOf(kind: EdgeKind, settings: StationSettings): number {
 }
 
 /** Translation time of one edge (DESIGN §3). */
-export function edgeSeconds(kind: EdgeKind, lengthM: number, settings: StationSettings, carrying = false): number {
+export function edgeSeconds(
+  kind: EdgeKind,
+  lengthM: number,
+  settings: StationSettings,
+  carrying = false,
+): number {
   const base = lengthM / speedOf(kind, settings) + (kind === 'hop' ? settings.hopSeconds : 0);
   return carrying ? base * settings.carryFactor : base;
 }
@@ -114,7 +119,13 @@ export function arcSecondsFor(
 }
 
 /** Single-source Dijkstra over every arc (no exclusions): landmark distances. */
-function dijkstraAll(c: CompiledStation, weights: Float64Array, source: number, out: Float64Array, heap: MinHeap) {
+function dijkstraAll(
+  c: CompiledStation,
+  weights: Float64Array,
+  source: number,
+  out: Float64Array,
+  heap: MinHeap,
+) {
   out.fill(Infinity);
   out[source] = 0;
   heap.clear();
@@ -197,7 +208,8 @@ function flagHazards(doc: StationDocument, c: CompiledStation): void {
 function approxMapBytes(c: CompiledStation): number {
   let bytes = 0;
   for (const k of c.keys) bytes += 48 + 2 * k.length; // string + Map entry, V8-ish
-  for (const m of [c.keepOutByEdge, c.cautionByEdge]) for (const list of m.values()) bytes += 40 + 8 * list.length;
+  for (const m of [c.keepOutByEdge, c.cautionByEdge])
+    for (const list of m.values()) bytes += 40 + 8 * list.length;
   return bytes;
 }
 
@@ -271,7 +283,12 @@ export function compileStation(doc: StationDocument, options: CompileOptions = {
     keepOutByEdge: new Map(),
     cautionByEdge: new Map(),
     settings: doc.settings,
-    landmarks: { count: 0, nodes: new Int32Array(0), seconds: new Float64Array(0), metres: new Float64Array(0) },
+    landmarks: {
+      count: 0,
+      nodes: new Int32Array(0),
+      seconds: new Float64Array(0),
+      metres: new Float64Array(0),
+    },
     memoryBytes: 0,
   };
   flagHazards(doc, c);

@@ -58,7 +58,8 @@ const toDeg = (rad: number) => (rad * 180) / Math.PI;
 
 function unit(v: Vec3): Vec3 {
   const len = Math.hypot(v[0], v[1], v[2]);
-  if (!(len > 0) || !Number.isFinite(len)) throw new RangeError('a socket normal must be a non-zero finite vector');
+  if (!(len > 0) || !Number.isFinite(len))
+    throw new RangeError('a socket normal must be a non-zero finite vector');
   return [v[0] / len, v[1] / len, v[2] / len];
 }
 
@@ -103,7 +104,11 @@ export function normalizeYawDeg(deg: number): number {
 }
 
 /** Raw yaw and pitch (degrees) facing `target` from a restraint at work point `c` with frame `f`. */
-export function restraintAngles(f: RestraintFrame, c: Vec3, target: Vec3): { yawDeg: number; pitchDeg: number } {
+export function restraintAngles(
+  f: RestraintFrame,
+  c: Vec3,
+  target: Vec3,
+): { yawDeg: number; pitchDeg: number } {
   const d: Vec3 = [target[0] - c[0], target[1] - c[1], target[2] - c[2]];
   const x = dot(d, f.ref);
   const y = dot(d, f.side);

@@ -193,7 +193,8 @@ function stretchSearch(
       if (bestStamp[u] === stamp && nl >= bestLen[u]) continue;
       const nt = time + weights[a];
       if (!goal) heap.push(sc.add(u, x, a, nl, nt), nt, nl);
-      else if (goal.bound(u) && nl + goal.hMetres[u] <= limit) heap.push(sc.add(u, x, a, nl, nt), nt + goal.hSeconds[u], nl);
+      else if (goal.bound(u) && nl + goal.hMetres[u] <= limit)
+        heap.push(sc.add(u, x, a, nl, nt), nt + goal.hSeconds[u], nl);
     }
   }
   sc.hitCount = hits;
@@ -201,7 +202,14 @@ function stretchSearch(
 }
 
 /** The least-time walk src → dst within the tether (the label of its end in `sc`, or -1). */
-function stretchWalk(c: CompiledStation, p: LabelSearchParams, limit: number, src: number, dst: number, sc: StretchScratch): number {
+function stretchWalk(
+  c: CompiledStation,
+  p: LabelSearchParams,
+  limit: number,
+  src: number,
+  dst: number,
+  sc: StretchScratch,
+): number {
   const ns = scratchFor(c);
   const bound = targetBound(c, ns, dst, 1, p.maxSpeedMps, p.landmarkTimesValid);
   const goal = { dst, bound, hSeconds: ns.hSeconds, hMetres: ns.hMetres };
@@ -266,7 +274,12 @@ function rowHops(offsets: Int32Array, targets: Int32Array, hops: Int32Array, K: 
   return { lo, hi, off };
 }
 
-function buildClipGraph(c: CompiledStation, weights: Float64Array, tetherLengthM: number, excludeMask: number): ClipGraph {
+function buildClipGraph(
+  c: CompiledStation,
+  weights: Float64Array,
+  tetherLengthM: number,
+  excludeMask: number,
+): ClipGraph {
   const t0 = performance.now();
   const n = c.nodeCount;
   const attachIndex = new Int32Array(n).fill(-1);
@@ -301,7 +314,11 @@ function buildClipGraph(c: CompiledStation, weights: Float64Array, tetherLengthM
   targets = targets.slice(0, m);
   seconds = seconds.slice(0, m);
   const landmarkHops = clipLandmarks(offsets, targets, CLIP_LANDMARKS);
-  const { lo: rowHopsLo, hi: rowHopsHi, off: rowHopsOff } = rowHops(offsets, targets, landmarkHops, Math.min(CLIP_LANDMARKS, A));
+  const {
+    lo: rowHopsLo,
+    hi: rowHopsHi,
+    off: rowHopsOff,
+  } = rowHops(offsets, targets, landmarkHops, Math.min(CLIP_LANDMARKS, A));
   const swapRows = swapPointRows(offsets, targets, seconds);
   const swapRowsIn = transposeRows(swapRows);
   const cg: ClipGraph = {
@@ -416,7 +433,12 @@ function keepRows(
     keptTargets[k] = targets[e];
     keptSeconds[k++] = seconds[e];
   }
-  return { offsets: keptOffsets, targets: keptTargets, seconds: keptSeconds, buildMs: performance.now() - t0 };
+  return {
+    offsets: keptOffsets,
+    targets: keptTargets,
+    seconds: keptSeconds,
+    buildMs: performance.now() - t0,
+  };
 }
 
 /**
@@ -480,7 +502,8 @@ function transposeRows(rows: ClipRows): { offsets: Int32Array; sources: Int32Arr
   for (let b = 0; b < A; b++) offsets[b + 1] += offsets[b];
   const fill = offsets.slice(0, A);
   const sources = new Int32Array(rows.targets.length);
-  for (let a = 0; a < A; a++) for (let e = rows.offsets[a]; e < rows.offsets[a + 1]; e++) sources[fill[rows.targets[e]]++] = a;
+  for (let a = 0; a < A; a++)
+    for (let e = rows.offsets[a]; e < rows.offsets[a + 1]; e++) sources[fill[rows.targets[e]]++] = a;
   return { offsets, sources };
 }
 
@@ -563,7 +586,12 @@ const clipCache = new WeakMap<Float64Array, Map<string, ClipGraph>>();
  * The clip graph for these arc weights (not carrying: carrying scales every stretch alike),
  * tether length and exclusions; built on first use and kept for the last few combinations.
  */
-export function clipGraphFor(c: CompiledStation, weights: Float64Array, tetherLengthM: number, excludeMask: number): ClipGraph {
+export function clipGraphFor(
+  c: CompiledStation,
+  weights: Float64Array,
+  tetherLengthM: number,
+  excludeMask: number,
+): ClipGraph {
   const key = `${tetherLengthM}|${excludeMask}`;
   const held = clipCache.get(weights)?.get(key);
   return remember(weights, key, held ?? buildClipGraph(c, weights, tetherLengthM, excludeMask));
@@ -628,7 +656,12 @@ export function buildClipGraphParts(
  * the ones it was built with.
  */
 export function adoptClipGraph(weights: Float64Array, parts: ClipGraphParts): ClipGraph {
-  const cg: ClipGraph = { ...parts, query: null, pruned: new Map(parts.pruned), costMarks: new Map(parts.costMarks) };
+  const cg: ClipGraph = {
+    ...parts,
+    query: null,
+    pruned: new Map(parts.pruned),
+    costMarks: new Map(parts.costMarks),
+  };
   return remember(weights, `${parts.tetherLengthM}|${parts.excludeMask}`, cg);
 }
 
@@ -1056,7 +1089,13 @@ export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSea
 }
 
 /** The walk along a chain of clip points: the least-time walk of each stretch within the tether. */
-function walkClips(c: CompiledStation, p: LabelSearchParams, limit: number, clips: number[], st: StretchScratch): LabelPath {
+function walkClips(
+  c: CompiledStation,
+  p: LabelSearchParams,
+  limit: number,
+  clips: number[],
+  st: StretchScratch,
+): LabelPath {
   const arcs: number[] = [];
   let total = 0;
   for (let i = 0; i + 1 < clips.length; i++) {

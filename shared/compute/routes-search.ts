@@ -50,7 +50,19 @@ class LabelStore {
 
   private grow(): void {
     const cap = this.node.length * 2;
-    for (const k of ['node', 'parent', 'arc', 'next', 'swaps', 'swapped', 'dead', 'seconds', 'paid', 'p1', 'p2'] as const) {
+    for (const k of [
+      'node',
+      'parent',
+      'arc',
+      'next',
+      'swaps',
+      'swapped',
+      'dead',
+      'seconds',
+      'paid',
+      'p1',
+      'p2',
+    ] as const) {
       const old = this[k];
       const arr = new (old.constructor as new (n: number) => typeof old)(cap);
       arr.set(old as never);
@@ -151,7 +163,7 @@ export function dijkstraPath(
 
 function predArcsPath(c: CompiledStation, predArc: Int32Array, s: number, t: number): number[] {
   const arcs: number[] = [];
-  for (let v = t; v !== s; ) {
+  for (let v = t; v !== s;) {
     const a = predArc[v];
     arcs.push(a);
     v = arcSource(c, a);
@@ -309,9 +321,15 @@ export interface LabelPath {
  * a bound on the swaps still needed. Labels at a node that are no better in (p1, p2) and in paid-out
  * than another are dropped.
  */
-export function labelSearch(c: CompiledStation, s: number, t: number, p: LabelSearchParams): LabelPath | null {
+export function labelSearch(
+  c: CompiledStation,
+  s: number,
+  t: number,
+  p: LabelSearchParams,
+): LabelPath | null {
   // Short queries finish before the layered swap bound would pay for itself; long ones restart with it.
-  if (p.swapCost === 0 && p.objective === 'sum') return runLabels(c, s, t, p, false, Infinity) as LabelPath | null;
+  if (p.swapCost === 0 && p.objective === 'sum')
+    return runLabels(c, s, t, p, false, Infinity) as LabelPath | null;
   const quick = runLabels(c, s, t, p, false, QUICK_LABELS);
   return quick === 'cap' ? (runLabels(c, s, t, p, true, Infinity) as LabelPath | null) : quick;
 }
@@ -349,7 +367,15 @@ function runLabels(
   };
 
   // adds a label unless dominated; prunes the labels it dominates
-  const offer = (v: number, parent: number, arc: number, swaps: number, seconds: number, paid: number, swapped: number) => {
+  const offer = (
+    v: number,
+    parent: number,
+    arc: number,
+    swaps: number,
+    seconds: number,
+    paid: number,
+    swapped: number,
+  ) => {
     const p1 = lex ? swaps : seconds + swapCost * swaps;
     const p2 = lex ? seconds : 0;
     if (headStamp[v] !== stamp) {
@@ -357,7 +383,7 @@ function runLabels(
       head[v] = -1;
     }
     let prev = -1;
-    for (let y = head[v]; y !== -1; ) {
+    for (let y = head[v]; y !== -1;) {
       const nextY = L.next[y];
       const yp1 = L.p1[y];
       if ((yp1 < p1 || (yp1 === p1 && L.p2[y] <= p2)) && L.paid[y] <= paid) return;
@@ -422,7 +448,13 @@ function runLabels(
  * Whether some walk s → t fits a tether of this length when swaps are free: the least paid-out
  * at each node, with attach points resetting it, by a label-correcting pass on a heap.
  */
-export function fitsTether(c: CompiledStation, s: number, t: number, tetherLengthM: number, excludeMask: number): boolean {
+export function fitsTether(
+  c: CompiledStation,
+  s: number,
+  t: number,
+  tetherLengthM: number,
+  excludeMask: number,
+): boolean {
   const sc = scratchFor(c);
   const { seen, dist, heap } = sc;
   const stamp = sc.stamp;
@@ -461,7 +493,14 @@ export function fitsTether(c: CompiledStation, s: number, t: number, tetherLengt
  * reaches s; nodes not reached by then need more. Returns that last layer, or -1 when s is out of
  * reach at any number of swaps.
  */
-function swapLayers(c: CompiledStation, sc: Scratch, s: number, t: number, tether: number, excludeMask: number): number {
+function swapLayers(
+  c: CompiledStation,
+  sc: Scratch,
+  s: number,
+  t: number,
+  tether: number,
+  excludeMask: number,
+): number {
   const { layerSeen, layerDist, swapStamp, swapLayer, swapReach, sources } = sc;
   const heap = sc.heap2;
   const stamp = sc.stamp;

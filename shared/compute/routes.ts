@@ -1,4 +1,11 @@
-import type { RouteFeasible, RouteInfeasible, RouteLeg, RouteMode, RouteRequest, RouteResult } from '../schemas/route';
+import type {
+  RouteFeasible,
+  RouteInfeasible,
+  RouteLeg,
+  RouteMode,
+  RouteRequest,
+  RouteResult,
+} from '../schemas/route';
 import type { StationSettings } from '../schemas/station';
 import {
   EDGE_CLOSED,
@@ -62,7 +69,13 @@ function maxSpeed(settings: StationSettings): number {
 export const CLIP_BUILD_FREE_NODES = 2_000;
 
 /** `auto` on a station too large to build a clip graph during a query, none built yet for these terms. */
-function clipGraphMissing(c: CompiledStation, limitNodes: number, weights: Float64Array, tether: number, mask: number): boolean {
+function clipGraphMissing(
+  c: CompiledStation,
+  limitNodes: number,
+  weights: Float64Array,
+  tether: number,
+  mask: number,
+): boolean {
   return c.nodeCount > limitNodes && !hasClipGraph(weights, tether, mask);
 }
 
@@ -76,10 +89,21 @@ function useClipGraph(q: Query): boolean {
  * Whether `auto` would answer this request with the label search for want of a clip graph: the
  * cue for a caller to build one off the request path (buildClipGraphParts) and adopt it.
  */
-export function wantsClipGraph(c: CompiledStation, settings: StationSettings, request: RouteRequest, options: FindRouteOptions = {}) {
+export function wantsClipGraph(
+  c: CompiledStation,
+  settings: StationSettings,
+  request: RouteRequest,
+  options: FindRouteOptions = {},
+) {
   if ((options.strategy ?? 'auto') !== 'auto') return null;
   const { tether, mask, arcSeconds } = searchTerms(c, settings, request);
-  const missing = clipGraphMissing(c, options.clipBuildFreeNodes ?? CLIP_BUILD_FREE_NODES, arcSeconds, tether, mask);
+  const missing = clipGraphMissing(
+    c,
+    options.clipBuildFreeNodes ?? CLIP_BUILD_FREE_NODES,
+    arcSeconds,
+    tether,
+    mask,
+  );
   return missing ? { tetherLengthM: tether, excludeMask: mask, weights: arcSeconds } : null;
 }
 
@@ -121,7 +145,14 @@ function buildRoute(q: Query, arcs: number[], extraWarnings: string[]): RouteRes
     const e = c.arcEdge[a];
     const lengthM = c.edgeLengthM[e];
     const seconds = q.weights[a] * q.factor;
-    legs.push({ from: c.keys[from], to: c.keys[to], kind: edgeKindName(c.edgeKind[e]), lengthM, seconds, startM: pos });
+    legs.push({
+      from: c.keys[from],
+      to: c.keys[to],
+      kind: edgeKindName(c.edgeKind[e]),
+      lengthM,
+      seconds,
+      startM: pos,
+    });
     for (const h of c.cautionByEdge.get(e) ?? []) caution.add(h);
     lengths.push(lengthM);
     nodes.push(to);
@@ -163,8 +194,19 @@ function buildRoute(q: Query, arcs: number[], extraWarnings: string[]): RouteRes
   return result;
 }
 
-function infeasible(q: Query, reasonCode: RouteInfeasible['reasonCode'], reason: string, blockingHazards?: string[]): RouteInfeasible {
-  return { feasible: false, mode: q.mode, reason, reasonCode, ...(blockingHazards ? { blockingHazards } : {}) };
+function infeasible(
+  q: Query,
+  reasonCode: RouteInfeasible['reasonCode'],
+  reason: string,
+  blockingHazards?: string[],
+): RouteInfeasible {
+  return {
+    feasible: false,
+    mode: q.mode,
+    reason,
+    reasonCode,
+    ...(blockingHazards ? { blockingHazards } : {}),
+  };
 }
 
 /** Smallest tether (to the centimetre) for which some walk exists, by bisection on fitsTether. */

@@ -81,7 +81,9 @@ function coverage(input: PlanSocketsInput): Coverage {
     const c = workPoint(cand.position, cand.normal, input.standOffM);
     const set = new Uint32Array(words);
     input.targets.forEach((t, ti) => {
-      const dx = t[0] - c[0], dy = t[1] - c[1], dz = t[2] - c[2];
+      const dx = t[0] - c[0],
+        dy = t[1] - c[1],
+        dz = t[2] - c[2];
       const d = Math.sqrt(dx * dx + dy * dy + dz * dz);
       distance[ci * n + ti] = d;
       if (d <= limit) set[ti >>> 5] |= 1 << (ti & 31);
@@ -118,7 +120,12 @@ function distanceOver(cov: Coverage, c: number, n: number, covered: Uint32Array 
 /** a candidate that is not yet a socket on the station (a grid point): installing one is real work */
 const isNew = (input: PlanSocketsInput, c: number) => input.candidates[c].key === undefined;
 
-function greedyCover(cov: Coverage, n: number, pool: readonly number[], fresh: (c: number) => boolean): number[] {
+function greedyCover(
+  cov: Coverage,
+  n: number,
+  pool: readonly number[],
+  fresh: (c: number) => boolean,
+): number[] {
   const covered = new Uint32Array(cov.words);
   let remaining = gainOver(cov.coverable, covered);
   const chosen: number[] = [];
@@ -162,7 +169,12 @@ function greedyCover(cov: Coverage, n: number, pool: readonly number[], fresh: (
  * with the smallest total distance (then the first): a new socket is only proposed where no existing
  * one reaches the same targets.
  */
-function mergeEqual(cov: Coverage, n: number, pool: readonly number[], fresh: (c: number) => boolean): number[] {
+function mergeEqual(
+  cov: Coverage,
+  n: number,
+  pool: readonly number[],
+  fresh: (c: number) => boolean,
+): number[] {
   const kept = new Map<string, { c: number; total: number; fresh: boolean }>();
   for (const c of pool) {
     const key = cov.sets[c].join(',');
@@ -241,9 +253,17 @@ function exactHittingSet(
   return { best, nodes: Math.min(nodes, nodeBudget), complete: nodes <= nodeBudget };
 }
 
-function exactCover(cov: Coverage, n: number, pool: readonly number[], seed: readonly number[], nodeBudget: number) {
+function exactCover(
+  cov: Coverage,
+  n: number,
+  pool: readonly number[],
+  seed: readonly number[],
+  nodeBudget: number,
+) {
   if (pool.length > EXACT_CANDIDATE_LIMIT) {
-    throw new RangeError(`exact planning takes at most ${EXACT_CANDIDATE_LIMIT} useful candidates (got ${pool.length})`);
+    throw new RangeError(
+      `exact planning takes at most ${EXACT_CANDIDATE_LIMIT} useful candidates (got ${pool.length})`,
+    );
   }
   const unique = new Set<number>();
   for (let t = 0; t < n; t++) {

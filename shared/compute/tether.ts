@@ -28,7 +28,10 @@ export type SwapPlan =
     };
 
 /** Longest stretch between consecutive attach points (start and end count as ends of stretches). */
-export function longestAttachGap(legs: readonly number[], isAttach: readonly boolean[]): { startIndex: number; startM: number; gapM: number } {
+export function longestAttachGap(
+  legs: readonly number[],
+  isAttach: readonly boolean[],
+): { startIndex: number; startM: number; gapM: number } {
   let best = { startIndex: 0, startM: 0, gapM: 0 };
   let startIndex = 0;
   let startM = 0;
@@ -49,7 +52,11 @@ export function longestAttachGap(legs: readonly number[], isAttach: readonly boo
  * pass the tether length (the classic refuelling argument makes this optimal).
  * `legs[i]` is the length from walk node i to i + 1; `isAttach` has one entry per walk node.
  */
-export function placeSwapsGreedy(legs: readonly number[], isAttach: readonly boolean[], tetherLengthM: number): SwapPlan {
+export function placeSwapsGreedy(
+  legs: readonly number[],
+  isAttach: readonly boolean[],
+  tetherLengthM: number,
+): SwapPlan {
   const swaps: PlannedSwap[] = [];
   let clipM = 0;
   let lastAttach = -1;

@@ -56,11 +56,22 @@ export interface GridOptions {
 function rotationMatrix(deg: Vec3 | undefined): Mat3 {
   if (!deg) return [1, 0, 0, 0, 1, 0, 0, 0, 1];
   const [a, b, c] = deg.map((d) => (d * Math.PI) / 180);
-  const cx = Math.cos(a), sx = Math.sin(a), cy = Math.cos(b), sy = Math.sin(b), cz = Math.cos(c), sz = Math.sin(c);
+  const cx = Math.cos(a),
+    sx = Math.sin(a),
+    cy = Math.cos(b),
+    sy = Math.sin(b),
+    cz = Math.cos(c),
+    sz = Math.sin(c);
   return [
-    cy * cz, -cy * sz, sy,
-    cx * sz + sx * sy * cz, cx * cz - sx * sy * sz, -sx * cy,
-    sx * sz - cx * sy * cz, sx * cz + cx * sy * sz, cx * cy,
+    cy * cz,
+    -cy * sz,
+    sy,
+    cx * sz + sx * sy * cz,
+    cx * cz - sx * sy * sz,
+    -sx * cy,
+    sx * sz - cx * sy * cz,
+    sx * cz + cx * sy * sz,
+    cx * cy,
   ];
 }
 
@@ -175,7 +186,8 @@ class SegmentHash {
   private aabbHalf(b: PlacedBox): Vec3 {
     const { m, half } = b;
     return [0, 1, 2].map(
-      (r) => Math.abs(m[3 * r]) * half[0] + Math.abs(m[3 * r + 1]) * half[1] + Math.abs(m[3 * r + 2]) * half[2],
+      (r) =>
+        Math.abs(m[3 * r]) * half[0] + Math.abs(m[3 * r + 1]) * half[1] + Math.abs(m[3 * r + 2]) * half[2],
     ) as Vec3;
   }
 
@@ -202,8 +214,13 @@ class SegmentHash {
  * the surface of another segment are skipped, so the faces two bays share and faces buried in a
  * neighbour yield nothing; a face only partly covered keeps its exposed points.
  */
-export function gridCandidates(segments: readonly Segment[], spacingM: number, options: GridOptions = {}): FaceCandidate[] {
-  if (!(spacingM > 0) || !Number.isFinite(spacingM)) throw new RangeError('grid spacing must be a positive number');
+export function gridCandidates(
+  segments: readonly Segment[],
+  spacingM: number,
+  options: GridOptions = {},
+): FaceCandidate[] {
+  if (!(spacingM > 0) || !Number.isFinite(spacingM))
+    throw new RangeError('grid spacing must be a positive number');
   const { near, withinM = Infinity } = options;
   const hash = new SegmentHash(segments);
   const out: FaceCandidate[] = [];

@@ -56,7 +56,13 @@ export function generateTrussStation({ nodes: wanted, seed }: TrussOptions): Sta
         return [c, -h];
     }
   };
-  const outward = (face: number): Vec3 => [[0, 1, 0], [0, 0, 1], [0, -1, 0], [0, 0, -1]][face] as Vec3;
+  const outward = (face: number): Vec3 =>
+    [
+      [0, 1, 0],
+      [0, 0, 1],
+      [0, -1, 0],
+      [0, 0, -1],
+    ][face] as Vec3;
 
   const sparseFrom = Math.floor(slices * 0.9);
   const sparseTo = sparseFrom + 6 * STEPS_PER_BAY;
@@ -74,7 +80,8 @@ export function generateTrussStation({ nodes: wanted, seed }: TrussOptions): Sta
   const edges: StationEdge[] = [];
   const keyAt = (face: number, run: number, i: number) => `S${i}-${face}.${run}`;
   const add = (n: StationNode) => nodes.push(n);
-  const link = (from: string, to: string, kind: StationEdge['kind'] = 'handrail') => edges.push({ from, to, kind });
+  const link = (from: string, to: string, kind: StationEdge['kind'] = 'handrail') =>
+    edges.push({ from, to, kind });
 
   add({ key: 'AL', kind: 'airlock', label: 'Airlock', position: [-2, 0, 0] });
   for (let i = 0; i < slices; i++) {
@@ -124,11 +131,19 @@ export function generateTrussStation({ nodes: wanted, seed }: TrussOptions): Sta
   }
 
   const rideTo = keyAt(1, 0, Math.min(slices - 1, 3 * ANCHOR_EVERY + 1));
-  if (nodes.some((n) => n.key === rideTo)) edges.push({ from: 'AL', to: rideTo, kind: 'ride', label: 'Arm ride' });
+  if (nodes.some((n) => n.key === rideTo))
+    edges.push({ from: 'AL', to: rideTo, kind: 'ride', label: 'Arm ride' });
 
   const length = slices * STEP_M;
   const hazards: Hazard[] = [
-    { key: 'KO-1', kind: 'keep-out', label: 'Radiator keep-out', shape: 'sphere', center: [length * 0.6, 0, h], radiusM: 1.2 },
+    {
+      key: 'KO-1',
+      kind: 'keep-out',
+      label: 'Radiator keep-out',
+      shape: 'sphere',
+      center: [length * 0.6, 0, h],
+      radiusM: 1.2,
+    },
     {
       key: 'CA-1',
       kind: 'caution',
@@ -140,7 +155,12 @@ export function generateTrussStation({ nodes: wanted, seed }: TrussOptions): Sta
   ];
   const segments: Segment[] = [];
   for (let b = 0; b < bays; b++) {
-    segments.push({ key: `B${b}`, kind: 'truss', center: [b * BAY_M + BAY_M / 2, 0, 0], size: [BAY_M, width, width] });
+    segments.push({
+      key: `B${b}`,
+      kind: 'truss',
+      center: [b * BAY_M + BAY_M / 2, 0, 0],
+      size: [BAY_M, width, width],
+    });
   }
   return {
     format: 'tetherwise.station',

@@ -100,10 +100,19 @@ function hold(b: Builder, t0: number, t1: number) {
   b.pieces.push({ t0, t1, from: p, to: p, anchorKey: b.anchorKey, paid0: b.paid, paid1: b.paid });
 }
 
-const legWord = (kind: string) => (kind === 'ride' ? 'ride the arm' : kind === 'hop' ? 'hop' : 'along the handrail');
+const legWord = (kind: string) =>
+  kind === 'ride' ? 'ride the arm' : kind === 'hop' ? 'hop' : 'along the handrail';
 
 /** Lays the legs `[legStart, legEnd)` of `route` over `[t0, t1]`, time shared by each leg's seconds. */
-function translate(b: Builder, route: RouteFeasible, legStart: number, legEnd: number, t0: number, t1: number, taskIndex?: number) {
+function translate(
+  b: Builder,
+  route: RouteFeasible,
+  legStart: number,
+  legEnd: number,
+  t0: number,
+  t1: number,
+  taskIndex?: number,
+) {
   const legs = route.legs.slice(legStart, legEnd);
   if (legs.length === 0) return;
   b.route = route;
@@ -118,7 +127,15 @@ function translate(b: Builder, route: RouteFeasible, legStart: number, legEnd: n
     const dt = total > 0 ? ((t1 - t0) * leg.seconds) / total : (t1 - t0) / legs.length;
     const paid0 = leg.startM - b.anchorAtM;
     const paid1 = leg.startM + leg.lengthM - b.anchorAtM;
-    b.pieces.push({ t0: t, t1: t + dt, from: b.position(leg.from), to: b.position(leg.to), anchorKey: b.anchorKey, paid0, paid1 });
+    b.pieces.push({
+      t0: t,
+      t1: t + dt,
+      from: b.position(leg.from),
+      to: b.position(leg.to),
+      anchorKey: b.anchorKey,
+      paid0,
+      paid1,
+    });
     t += dt;
     b.paid = paid1;
   }
@@ -166,12 +183,31 @@ function swap(b: Builder, route: RouteFeasible, node: string, t0: number, t1: nu
 }
 
 function newBuilder(start: string, position: PositionOf, prefix: string, crew?: CrewMember): Builder {
-  return { crew, prefix, steps: [], pieces: [], at: start, anchorKey: start, anchorAtM: 0, paid: 0, position };
+  return {
+    crew,
+    prefix,
+    steps: [],
+    pieces: [],
+    at: start,
+    anchorKey: start,
+    anchorAtM: 0,
+    paid: 0,
+    position,
+  };
 }
 
 /** The route's steps in the order the crew member meets them, swaps placed where the engine put them. */
-function routeBlocks(route: RouteFeasible, swapSecondsEach: number): { type: 'translate' | 'swap'; legStart: number; legEnd: number; seconds: number; node?: string }[] {
-  const out: { type: 'translate' | 'swap'; legStart: number; legEnd: number; seconds: number; node?: string }[] = [];
+function routeBlocks(
+  route: RouteFeasible,
+  swapSecondsEach: number,
+): { type: 'translate' | 'swap'; legStart: number; legEnd: number; seconds: number; node?: string }[] {
+  const out: {
+    type: 'translate' | 'swap';
+    legStart: number;
+    legEnd: number;
+    seconds: number;
+    node?: string;
+  }[] = [];
   let pieceStart = 0;
   let seconds = 0;
   let s = 0;
@@ -182,11 +218,18 @@ function routeBlocks(route: RouteFeasible, swapSecondsEach: number): { type: 'tr
       if (i + 1 > pieceStart) out.push({ type: 'translate', legStart: pieceStart, legEnd: i + 1, seconds });
       pieceStart = i + 1;
       seconds = 0;
-      out.push({ type: 'swap', legStart: i + 1, legEnd: i + 1, seconds: swapSecondsEach, node: route.swaps[s].node });
+      out.push({
+        type: 'swap',
+        legStart: i + 1,
+        legEnd: i + 1,
+        seconds: swapSecondsEach,
+        node: route.swaps[s].node,
+      });
       s++;
     }
   });
-  if (route.legs.length > pieceStart) out.push({ type: 'translate', legStart: pieceStart, legEnd: route.legs.length, seconds });
+  if (route.legs.length > pieceStart)
+    out.push({ type: 'translate', legStart: pieceStart, legEnd: route.legs.length, seconds });
   return out;
 }
 
@@ -346,7 +389,11 @@ export function sampleTrack(track: CrewTrack, t: number): TrackSample {
   const p = pieces[lo];
   const f = p.t1 > p.t0 ? Math.min(1, Math.max(0, (t - p.t0) / (p.t1 - p.t0))) : 1;
   return {
-    position: [p.from[0] + (p.to[0] - p.from[0]) * f, p.from[1] + (p.to[1] - p.from[1]) * f, p.from[2] + (p.to[2] - p.from[2]) * f],
+    position: [
+      p.from[0] + (p.to[0] - p.from[0]) * f,
+      p.from[1] + (p.to[1] - p.from[1]) * f,
+      p.from[2] + (p.to[2] - p.from[2]) * f,
+    ],
     anchorKey: p.anchorKey,
     paidOutM: p.paid0 + (p.paid1 - p.paid0) * f,
     stepIndex,

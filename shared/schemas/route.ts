@@ -40,7 +40,8 @@ export interface RouteLeg {
   startM: number;
 }
 
-export type InfeasibleReason = 'same-node' | 'disconnected' | 'blocked-by-hazard' | 'anchor-gap' | 'start-not-attachable';
+export type InfeasibleReason =
+  'same-node' | 'disconnected' | 'blocked-by-hazard' | 'anchor-gap' | 'start-not-attachable';
 
 export interface RouteFeasible {
   feasible: true;

@@ -15,17 +15,17 @@ export type ReachRequest = z.infer<typeof ReachRequestSchema>;
 /** Body of `POST /api/stations/:id/socket-plan` (DESIGN §8). */
 export const SocketPlanRequestSchema = z
   .strictObject({
-  targets: z
-    .array(Vec3Schema)
-    .min(1, 'give at least one target')
-    .max(MAX_PLAN_TARGETS, `at most ${MAX_PLAN_TARGETS} targets`),
-  /** socket node keys; absent means every socket of the station, empty means none (grid only) */
-  candidates: z.array(KeySchema).max(20000).optional(),
-  /** also try candidates on a grid of this spacing over the truss faces */
-  gridSpacingM: FiniteSchema.refine(
-    (v) => v >= MIN_GRID_SPACING_M && v <= MAX_GRID_SPACING_M,
-    `grid spacing must be between ${MIN_GRID_SPACING_M} and ${MAX_GRID_SPACING_M} m`,
-  ).optional(),
+    targets: z
+      .array(Vec3Schema)
+      .min(1, 'give at least one target')
+      .max(MAX_PLAN_TARGETS, `at most ${MAX_PLAN_TARGETS} targets`),
+    /** socket node keys; absent means every socket of the station, empty means none (grid only) */
+    candidates: z.array(KeySchema).max(20000).optional(),
+    /** also try candidates on a grid of this spacing over the truss faces */
+    gridSpacingM: FiniteSchema.refine(
+      (v) => v >= MIN_GRID_SPACING_M && v <= MAX_GRID_SPACING_M,
+      `grid spacing must be between ${MIN_GRID_SPACING_M} and ${MAX_GRID_SPACING_M} m`,
+    ).optional(),
   })
   .refine((r) => !(r.candidates?.length === 0 && r.gridSpacingM === undefined), {
     path: ['candidates'],
@@ -53,7 +53,10 @@ export const ReachResultSchema = z.object({
 export type ReachResult = z.infer<typeof ReachResultSchema>;
 
 /** A socket the plan uses: an existing socket by key, or a new one on a truss face. */
-export const PlannedSocketSchema = z.union([KeySchema, z.object({ position: Vec3Schema, normal: Vec3Schema })]);
+export const PlannedSocketSchema = z.union([
+  KeySchema,
+  z.object({ position: Vec3Schema, normal: Vec3Schema }),
+]);
 export type PlannedSocket = z.infer<typeof PlannedSocketSchema>;
 
 export const SocketAssignmentSchema = z.object({

@@ -27,21 +27,37 @@ interface Table {
   rows: { line: number; cells: Record<string, string> }[];
 }
 
-const where = (file: string, line: number, column?: string) => `${file} line ${line}${column ? `, column ${column}` : ''}`;
+const where = (file: string, line: number, column?: string) =>
+  `${file} line ${line}${column ? `, column ${column}` : ''}`;
 
-function readTable(text: string, file: string, columns: readonly string[], required: readonly string[], problems: DocumentProblem[]): Table | null {
+function readTable(
+  text: string,
+  file: string,
+  columns: readonly string[],
+  required: readonly string[],
+  problems: DocumentProblem[],
+): Table | null {
   const result = Papa.parse<string[]>(text, { header: false, skipEmptyLines: false, delimiter: ',' });
   const data = result.data;
   const rowLines = rowStartLines(text);
-  for (const e of result.errors) problems.push({ path: where(file, rowLines[e.row ?? 0] ?? 1), message: e.message });
+  for (const e of result.errors)
+    problems.push({ path: where(file, rowLines[e.row ?? 0] ?? 1), message: e.message });
   if (!data.length || data[0].every((c) => c.trim() === '')) {
-    problems.push({ path: where(file, 1), message: `the header row is missing (expected ${columns.join(',')})` });
+    problems.push({
+      path: where(file, 1),
+      message: `the header row is missing (expected ${columns.join(',')})`,
+    });
     return null;
   }
   const header = data[0].map((h) => h.trim());
   header.forEach((h, i) => {
-    if (!columns.includes(h)) problems.push({ path: where(file, 1, h || `#${i + 1}`), message: `unknown column (expected ${columns.join(', ')})` });
-    else if (header.indexOf(h) !== i) problems.push({ path: where(file, 1, h), message: 'column appears twice' });
+    if (!columns.includes(h))
+      problems.push({
+        path: where(file, 1, h || `#${i + 1}`),
+        message: `unknown column (expected ${columns.join(', ')})`,
+      });
+    else if (header.indexOf(h) !== i)
+      problems.push({ path: where(file, 1, h), message: 'column appears twice' });
   });
   const missing = required.filter((r) => !header.includes(r));
   for (const r of missing) problems.push({ path: where(file, 1, r), message: 'required column is missing' });
@@ -53,7 +69,10 @@ function readTable(text: string, file: string, columns: readonly string[], requi
     const rowLine = rowLines[i] ?? rowLines[rowLines.length - 1] + 1;
     if (cells.every((c) => c.trim() === '')) continue;
     if (cells.length > header.length) {
-      problems.push({ path: where(file, rowLine), message: `has ${cells.length} cells but the header has ${header.length}` });
+      problems.push({
+        path: where(file, rowLine),
+        message: `has ${cells.length} cells but the header has ${header.length}`,
+      });
       continue;
     }
     const record: Record<string, string> = {};
@@ -88,7 +107,13 @@ function nextRowOffset(text: string, offset: number): number {
   return text.length;
 }
 
-function number(cells: Record<string, string>, column: string, file: string, line: number, problems: DocumentProblem[]): number | undefined {
+function number(
+  cells: Record<string, string>,
+  column: string,
+  file: string,
+  line: number,
+  problems: DocumentProblem[],
+): number | undefined {
   const raw = cells[column] ?? '';
   if (raw === '') return undefined;
   const v = Number(raw);
@@ -107,7 +132,10 @@ function nodeColumn(path: ReadonlyArray<PropertyKey>): string {
   return String(field ?? 'key');
 }
 
-export function parseNodesCsv(text: string, file = 'nodes.csv'): { rows: CsvRow<StationNode>[]; problems: DocumentProblem[] } {
+export function parseNodesCsv(
+  text: string,
+  file = 'nodes.csv',
+): { rows: CsvRow<StationNode>[]; problems: DocumentProblem[] } {
   const problems: DocumentProblem[] = [];
   const table = readTable(text, file, NODE_COLUMNS, REQUIRED.nodes, problems);
   const rows: CsvRow<StationNode>[] = [];
@@ -116,9 +144,11 @@ export function parseNodesCsv(text: string, file = 'nodes.csv'): { rows: CsvRow<
     const before = problems.length;
     const n = (c: string) => number(cells, c, file, line, problems);
     const [x, y, z, nx, ny, nz] = ['x', 'y', 'z', 'nx', 'ny', 'nz'].map(n);
-    for (const c of ['x', 'y', 'z'] as const) if (cells[c] === '') problems.push({ path: where(file, line, c), message: 'required' });
+    for (const c of ['x', 'y', 'z'] as const)
+      if (cells[c] === '') problems.push({ path: where(file, line, c), message: 'required' });
     const normalCells = [nx, ny, nz].filter((v) => v !== undefined).length;
-    if (normalCells > 0 && normalCells < 3) problems.push({ path: where(file, line, 'nx'), message: 'a normal needs all of nx, ny and nz' });
+    if (normalCells > 0 && normalCells < 3)
+      problems.push({ path: where(file, line, 'nx'), message: 'a normal needs all of nx, ny and nz' });
     if (problems.length > before) continue;
     const candidate = {
       key: cells.key,
@@ -130,7 +160,8 @@ export function parseNodesCsv(text: string, file = 'nodes.csv'): { rows: CsvRow<
     };
     const parsed = NodeSchema.safeParse(candidate);
     if (!parsed.success) {
-      for (const issue of parsed.error.issues) problems.push({ path: where(file, line, nodeColumn(issue.path)), message: issue.message });
+      for (const issue of parsed.error.issues)
+        problems.push({ path: where(file, line, nodeColumn(issue.path)), message: issue.message });
       continue;
     }
     rows.push({ line, value: parsed.data });
@@ -138,9 +169,20 @@ export function parseNodesCsv(text: string, file = 'nodes.csv'): { rows: CsvRow<
   return { rows, problems };
 }
 
-const BOOLEAN: Record<string, boolean> = { '': false, true: true, false: false, yes: true, no: false, '1': true, '0': false };
+const BOOLEAN: Record<string, boolean> = {
+  '': false,
+  true: true,
+  false: false,
+  yes: true,
+  no: false,
+  '1': true,
+  '0': false,
+};
 
-export function parseEdgesCsv(text: string, file = 'edges.csv'): { rows: CsvRow<StationEdge>[]; problems: DocumentProblem[] } {
+export function parseEdgesCsv(
+  text: string,
+  file = 'edges.csv',
+): { rows: CsvRow<StationEdge>[]; problems: DocumentProblem[] } {
   const problems: DocumentProblem[] = [];
   const table = readTable(text, file, EDGE_COLUMNS, REQUIRED.edges, problems);
   const rows: CsvRow<StationEdge>[] = [];
@@ -149,7 +191,11 @@ export function parseEdgesCsv(text: string, file = 'edges.csv'): { rows: CsvRow<
     const before = problems.length;
     const lengthM = number(cells, 'lengthM', file, line, problems);
     const closed = BOOLEAN[(cells.closed ?? '').toLowerCase()];
-    if (closed === undefined) problems.push({ path: where(file, line, 'closed'), message: 'must be true or false (or yes/no, 1/0, or empty)' });
+    if (closed === undefined)
+      problems.push({
+        path: where(file, line, 'closed'),
+        message: 'must be true or false (or yes/no, 1/0, or empty)',
+      });
     if (problems.length > before) continue;
     const candidate = {
       from: cells.from,
@@ -160,7 +206,8 @@ export function parseEdgesCsv(text: string, file = 'edges.csv'): { rows: CsvRow<
     };
     const parsed = EdgeSchema.safeParse(candidate);
     if (!parsed.success) {
-      for (const issue of parsed.error.issues) problems.push({ path: where(file, line, String(issue.path[0] ?? 'from')), message: issue.message });
+      for (const issue of parsed.error.issues)
+        problems.push({ path: where(file, line, String(issue.path[0] ?? 'from')), message: issue.message });
       continue;
     }
     rows.push({ line, value: parsed.data });
@@ -181,7 +228,12 @@ export function mergeCsvIntoDocument(
   nodeRows: CsvRow<StationNode>[],
   edgeRows: CsvRow<StationEdge>[],
   files = { nodes: 'nodes.csv', edges: 'edges.csv' },
-): { doc: StationDocument; problems: DocumentProblem[]; added: { nodes: number; edges: number }; updated: { nodes: number; edges: number } } {
+): {
+  doc: StationDocument;
+  problems: DocumentProblem[];
+  added: { nodes: number; edges: number };
+  updated: { nodes: number; edges: number };
+} {
   const problems: DocumentProblem[] = [];
   const nodesOut = [...doc.nodes];
   const nodeIndex = new Map(nodesOut.map((n, i) => [n.key, i]));
@@ -191,7 +243,10 @@ export function mergeCsvIntoDocument(
   for (const { line, value } of nodeRows) {
     const first = csvKeys.get(value.key);
     if (first !== undefined) {
-      problems.push({ path: where(files.nodes, line, 'key'), message: `key "${value.key}" already appears on line ${first}` });
+      problems.push({
+        path: where(files.nodes, line, 'key'),
+        message: `key "${value.key}" already appears on line ${first}`,
+      });
       continue;
     }
     csvKeys.set(value.key, line);
@@ -217,13 +272,19 @@ export function mergeCsvIntoDocument(
       }
     }
     if (value.from === value.to) {
-      problems.push({ path: where(files.edges, line, 'to'), message: `an edge cannot join "${value.from}" to itself` });
+      problems.push({
+        path: where(files.edges, line, 'to'),
+        message: `an edge cannot join "${value.from}" to itself`,
+      });
       bad = true;
     }
     const pair = pairKey(value);
     const first = csvPairs.get(pair);
     if (first !== undefined) {
-      problems.push({ path: where(files.edges, line), message: `the same ${value.kind} edge already appears on line ${first}` });
+      problems.push({
+        path: where(files.edges, line),
+        message: `the same ${value.kind} edge already appears on line ${first}`,
+      });
       bad = true;
     }
     if (bad) continue;

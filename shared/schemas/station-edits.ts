@@ -27,11 +27,15 @@ import {
 export const StationVersionSchema = z.number().int().positive();
 /** For DELETE, where the version travels in the query string. */
 export const VersionQuerySchema = z.object({ version: z.coerce.number().int().positive() });
-export const OptionalVersionQuerySchema = z.object({ version: z.coerce.number().int().positive().optional() });
+export const OptionalVersionQuerySchema = z.object({
+  version: z.coerce.number().int().positive().optional(),
+});
 
 export const StationIdParamsSchema = z.object({ id: z.coerce.number().int().positive() });
 export const StationKeyParamsSchema = StationIdParamsSchema.extend({ key: KeySchema });
-export const StationEdgeParamsSchema = StationIdParamsSchema.extend({ edgeId: z.coerce.number().int().positive() });
+export const StationEdgeParamsSchema = StationIdParamsSchema.extend({
+  edgeId: z.coerce.number().int().positive(),
+});
 
 const label = z.string().max(200);
 const notes = z.string().max(4000);
@@ -48,7 +52,10 @@ export const NodeChangesSchema = z.strictObject({
   normal: Vec3Schema.nullable().optional(),
   notes: notes.nullable().optional(),
 });
-export const UpdateNodeInputSchema = z.strictObject({ version: StationVersionSchema, node: NodeChangesSchema });
+export const UpdateNodeInputSchema = z.strictObject({
+  version: StationVersionSchema,
+  node: NodeChangesSchema,
+});
 export type UpdateNodeInput = z.infer<typeof UpdateNodeInputSchema>;
 
 export const CreateEdgeInputSchema = z.strictObject({ version: StationVersionSchema, edge: EdgeSchema });
@@ -59,14 +66,22 @@ export const EdgeChangesSchema = z.strictObject({
   to: KeySchema.optional(),
   kind: EdgeKindSchema.optional(),
   /** null: derive the length from the node positions again */
-  lengthM: FiniteSchema.refine((v) => v >= 0, 'length must not be negative').nullable().optional(),
+  lengthM: FiniteSchema.refine((v) => v >= 0, 'length must not be negative')
+    .nullable()
+    .optional(),
   closed: z.boolean().optional(),
   label: label.nullable().optional(),
 });
-export const UpdateEdgeInputSchema = z.strictObject({ version: StationVersionSchema, edge: EdgeChangesSchema });
+export const UpdateEdgeInputSchema = z.strictObject({
+  version: StationVersionSchema,
+  edge: EdgeChangesSchema,
+});
 export type UpdateEdgeInput = z.infer<typeof UpdateEdgeInputSchema>;
 
-export const CreateHazardInputSchema = z.strictObject({ version: StationVersionSchema, hazard: HazardSchema });
+export const CreateHazardInputSchema = z.strictObject({
+  version: StationVersionSchema,
+  hazard: HazardSchema,
+});
 export type CreateHazardInput = z.infer<typeof CreateHazardInputSchema>;
 
 /** Changing `shape` needs the new shape's fields (center and radiusM, or min and max). */
@@ -79,10 +94,16 @@ export const HazardChangesSchema = z.strictObject({
   min: Vec3Schema.optional(),
   max: Vec3Schema.optional(),
 });
-export const UpdateHazardInputSchema = z.strictObject({ version: StationVersionSchema, hazard: HazardChangesSchema });
+export const UpdateHazardInputSchema = z.strictObject({
+  version: StationVersionSchema,
+  hazard: HazardChangesSchema,
+});
 export type UpdateHazardInput = z.infer<typeof UpdateHazardInputSchema>;
 
-export const CreateSegmentInputSchema = z.strictObject({ version: StationVersionSchema, segment: SegmentSchema });
+export const CreateSegmentInputSchema = z.strictObject({
+  version: StationVersionSchema,
+  segment: SegmentSchema,
+});
 export type CreateSegmentInput = z.infer<typeof CreateSegmentInputSchema>;
 
 export const SegmentChangesSchema = z.strictObject({
@@ -92,7 +113,10 @@ export const SegmentChangesSchema = z.strictObject({
   size: Vec3Schema.optional(),
   rotationDeg: Vec3Schema.nullable().optional(),
 });
-export const UpdateSegmentInputSchema = z.strictObject({ version: StationVersionSchema, segment: SegmentChangesSchema });
+export const UpdateSegmentInputSchema = z.strictObject({
+  version: StationVersionSchema,
+  segment: SegmentChangesSchema,
+});
 export type UpdateSegmentInput = z.infer<typeof UpdateSegmentInputSchema>;
 
 /** Name, orbit and settings; nested settings objects may be partial (merged over the current ones). */
@@ -103,12 +127,20 @@ export const UpdateStationInputSchema = z.strictObject({
   settings: z
     .strictObject({
       tetherLengthM: FiniteSchema.optional(),
-      speedsMps: z.strictObject({ handrail: FiniteSchema, hop: FiniteSchema, ride: FiniteSchema }).partial().optional(),
+      speedsMps: z
+        .strictObject({ handrail: FiniteSchema, hop: FiniteSchema, ride: FiniteSchema })
+        .partial()
+        .optional(),
       hopSeconds: FiniteSchema.optional(),
       swapSeconds: FiniteSchema.optional(),
       carryFactor: FiniteSchema.optional(),
       reach: z
-        .strictObject({ standOffM: FiniteSchema, radiusM: FiniteSchema, yawStepDeg: FiniteSchema, pitchStepDeg: FiniteSchema })
+        .strictObject({
+          standOffM: FiniteSchema,
+          radiusM: FiniteSchema,
+          yawStepDeg: FiniteSchema,
+          pitchStepDeg: FiniteSchema,
+        })
         .partial()
         .optional(),
     })
@@ -151,7 +183,10 @@ export function mergeHazardChanges(hazard: Hazard, changes: Record<string, unkno
   return withoutNulls(merged);
 }
 
-export function mergeStationSettings(settings: StationSettings, changes: UpdateStationInput['settings']): unknown {
+export function mergeStationSettings(
+  settings: StationSettings,
+  changes: UpdateStationInput['settings'],
+): unknown {
   if (!changes) return settings;
   return {
     ...settings,

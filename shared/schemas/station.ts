@@ -31,7 +31,10 @@ export const KeySchema = z
   .string()
   .min(1, 'must not be empty')
   .max(64, 'must be at most 64 characters')
-  .regex(/^[A-Za-z0-9][A-Za-z0-9_.:-]*$/, 'letters, digits, and _ . : - only, starting with a letter or digit');
+  .regex(
+    /^[A-Za-z0-9][A-Za-z0-9_.:-]*$/,
+    'letters, digits, and _ . : - only, starting with a letter or digit',
+  );
 
 const positive = (what: string) => FiniteSchema.refine((v) => v > 0, `${what} must be greater than 0`);
 const nonNegative = (what: string) => FiniteSchema.refine((v) => v >= 0, `${what} must not be negative`);
@@ -149,7 +152,11 @@ export const HazardSchema = z.discriminatedUnion('shape', [
     .superRefine((h, ctx) => {
       for (let i = 0; i < 3; i++) {
         if (!(h.max[i] > h.min[i])) {
-          ctx.addIssue({ code: 'custom', path: ['max', i], message: 'box max must be greater than min on every axis' });
+          ctx.addIssue({
+            code: 'custom',
+            path: ['max', i],
+            message: 'box max must be greater than min on every axis',
+          });
         }
       }
     }),
@@ -186,28 +193,39 @@ export function checkStationGraphRules(doc: StationDocument): DocumentProblem[] 
   doc.nodes.forEach((n, i) => {
     const first = seen.get(n.key);
     if (first !== undefined) {
-      problems.push({ path: `nodes[${i}].key`, message: `duplicate node key "${n.key}" (first at nodes[${first}])` });
+      problems.push({
+        path: `nodes[${i}].key`,
+        message: `duplicate node key "${n.key}" (first at nodes[${first}])`,
+      });
     } else seen.set(n.key, i);
   });
   const segKeys = new Map<string, number>();
   doc.segments.forEach((s, i) => {
     const first = segKeys.get(s.key);
     if (first !== undefined) {
-      problems.push({ path: `segments[${i}].key`, message: `duplicate segment key "${s.key}" (first at segments[${first}])` });
+      problems.push({
+        path: `segments[${i}].key`,
+        message: `duplicate segment key "${s.key}" (first at segments[${first}])`,
+      });
     } else segKeys.set(s.key, i);
   });
   const hazKeys = new Map<string, number>();
   doc.hazards.forEach((h, i) => {
     const first = hazKeys.get(h.key);
     if (first !== undefined) {
-      problems.push({ path: `hazards[${i}].key`, message: `duplicate hazard key "${h.key}" (first at hazards[${first}])` });
+      problems.push({
+        path: `hazards[${i}].key`,
+        message: `duplicate hazard key "${h.key}" (first at hazards[${first}])`,
+      });
     } else hazKeys.set(h.key, i);
   });
   const pairs = new Map<string, number>();
   doc.edges.forEach((e, i) => {
-    if (!seen.has(e.from)) problems.push({ path: `edges[${i}].from`, message: `unknown node key "${e.from}"` });
+    if (!seen.has(e.from))
+      problems.push({ path: `edges[${i}].from`, message: `unknown node key "${e.from}"` });
     if (!seen.has(e.to)) problems.push({ path: `edges[${i}].to`, message: `unknown node key "${e.to}"` });
-    if (e.from === e.to) problems.push({ path: `edges[${i}]`, message: `an edge cannot join "${e.from}" to itself` });
+    if (e.from === e.to)
+      problems.push({ path: `edges[${i}]`, message: `an edge cannot join "${e.from}" to itself` });
     const pair = [e.from, e.to].sort().join('\u0000') + '\u0000' + e.kind;
     const first = pairs.get(pair);
     if (first !== undefined) {

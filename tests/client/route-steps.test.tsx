@@ -20,7 +20,13 @@ const compiled = compileStation(doc);
 const keys = doc.nodes.map((n) => n.key);
 const positions = new Map(doc.nodes.map((n) => [n.key, n.position]));
 
-function route(from: string, to: string, mode: RouteMode, tetherLengthM: number, allowRide: boolean): RouteFeasible | null {
+function route(
+  from: string,
+  to: string,
+  mode: RouteMode,
+  tetherLengthM: number,
+  allowRide: boolean,
+): RouteFeasible | null {
   const r = findRoute(compiled, doc.settings, { from, to, mode, tetherLengthM, allowRide });
   return r.feasible ? r : null;
 }
@@ -50,7 +56,8 @@ describe('route steps in the trade’s words', () => {
         const swaps = steps.filter((s) => s.kind === 'swap');
         expect(swaps.map((s) => s.nodeKey)).toEqual(r.swaps.map((s) => s.node));
         expect(swaps.map((s) => s.swapNumber)).toEqual(r.swaps.map((_, i) => i + 1));
-        for (const s of swaps) expect(s.text).toBe(`Tether swap at ${s.nodeKey}: clip the new hook, then release the old one`);
+        for (const s of swaps)
+          expect(s.text).toBe(`Tether swap at ${s.nodeKey}: clip the new hook, then release the old one`);
         expect(steps[0].kind).toBe('start');
         expect(steps.at(-1)).toMatchObject({ kind: 'arrive', nodeKey: r.nodes.at(-1) });
       }),
@@ -65,17 +72,24 @@ describe('route steps in the trade’s words', () => {
         const moves = steps.filter((s) => s.kind === 'handrail' || s.kind === 'hop' || s.kind === 'ride');
         const total = moves.reduce((sum, s) => sum + metresIn(s.text), 0);
         // each shown length is rounded to 0.1 of its unit
-        expect(Math.abs(total - r.lengthM)).toBeLessThanOrEqual(moves.length * 0.05 * (unit === 'ft' ? METRES_PER_FOOT : 1) + 1e-9);
+        expect(Math.abs(total - r.lengthM)).toBeLessThanOrEqual(
+          moves.length * 0.05 * (unit === 'ft' ? METRES_PER_FOOT : 1) + 1e-9,
+        );
         for (let i = 1; i < steps.length; i++) {
           const [a, b] = [steps[i - 1], steps[i]];
-          if (a.kind !== 'swap' && b.kind !== 'swap') expect(a.kind === b.kind && a.kind !== 'start').toBe(false);
+          if (a.kind !== 'swap' && b.kind !== 'swap')
+            expect(a.kind === b.kind && a.kind !== 'start').toBe(false);
         }
         // a hop or ride leg in the route shows as a step of that kind
         for (const kind of ['hop', 'ride'] as const) {
           expect(moves.some((m) => m.kind === kind)).toBe(r.legs.some((l) => l.kind === kind));
         }
         for (const m of moves) {
-          const word = { handrail: /^Translate .* along the handrail to /, hop: /^Hop /, ride: /^Ride the arm / }[m.kind as 'hop'];
+          const word = {
+            handrail: /^Translate .* along the handrail to /,
+            hop: /^Hop /,
+            ride: /^Ride the arm /,
+          }[m.kind as 'hop'];
           expect(m.text).toMatch(word);
           expect(m.text.endsWith(` to ${m.nodeKey}`)).toBe(true);
         }
@@ -117,13 +131,16 @@ describe('mode comparison', () => {
           ROUTE_MODES.forEach((m, i) => {
             if (rs[i]) results[m] = rs[i];
           });
-          if (oneInfeasible) results.balanced = { feasible: false, mode: 'balanced', reason: 'x', reasonCode: 'disconnected' };
+          if (oneInfeasible)
+            results.balanced = { feasible: false, mode: 'balanced', reason: 'x', reasonCode: 'disconnected' };
           const best = bestPerColumn(results);
           for (const c of COMPARISON_COLUMNS) {
             const feasible = ROUTE_MODES.filter((m) => results[m]?.feasible);
             const values = feasible.map((m) => (results[m] as RouteFeasible)[c]);
             const least = Math.min(...values);
-            expect(best[c]).toEqual(feasible.filter((m) => (results[m] as RouteFeasible)[c] <= least + 1e-6 * Math.max(1, least)));
+            expect(best[c]).toEqual(
+              feasible.filter((m) => (results[m] as RouteFeasible)[c] <= least + 1e-6 * Math.max(1, least)),
+            );
             if (oneInfeasible) expect(best[c]).not.toContain('balanced');
           }
         },
@@ -133,7 +150,9 @@ describe('mode comparison', () => {
   });
 
   it('on the demo station the fewest-swaps mode never has more swaps than fastest (PB4-W01 → SB4-W01)', () => {
-    const results = Object.fromEntries(ROUTE_MODES.map((m) => [m, route('PB4-W01', 'SB4-W01', m, 25.9, false)!]));
+    const results = Object.fromEntries(
+      ROUTE_MODES.map((m) => [m, route('PB4-W01', 'SB4-W01', m, 25.9, false)!]),
+    );
     const best = bestPerColumn(results);
     expect(best.swapCount).toContain('fewest-swaps');
     expect(best.travelSeconds).toContain('fastest');

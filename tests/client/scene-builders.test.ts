@@ -3,12 +3,21 @@ import * as THREE from 'three';
 import { describe, expect, it } from 'vitest';
 import { generateTrussStation } from '@shared/compute/truss-generator';
 import { nearestFacePoint } from '@shared/compute/truss-faces';
-import { NODE_KINDS, parseStationDocument, type Segment, type StationDocument } from '@shared/schemas/station';
+import {
+  NODE_KINDS,
+  parseStationDocument,
+  type Segment,
+  type StationDocument,
+} from '@shared/schemas/station';
 import { countDrawCalls } from '@/features/scene-3d/builders/draw-calls';
 import { framing } from '@/features/scene-3d/builders/framing';
 import { glyphGeometry } from '@/features/scene-3d/builders/glyphs';
 import { resolvePick } from '@/features/scene-3d/builders/picking';
-import { ALL_LAYERS_ON, applyLayers, buildStationObjects } from '@/features/scene-3d/builders/station-objects';
+import {
+  ALL_LAYERS_ON,
+  applyLayers,
+  buildStationObjects,
+} from '@/features/scene-3d/builders/station-objects';
 import { buildTrussGeometry, trussMemberCount } from '@/features/scene-3d/builders/truss';
 import { buildStationDocument, FIXTURE_KEYS } from '../factories/station-document';
 
@@ -18,7 +27,8 @@ const fixture = (): StationDocument => {
   return parsed.doc;
 };
 
-const trianglesOf = (g: THREE.BufferGeometry) => (g.index ? g.index.count : g.getAttribute('position').count) / 3;
+const trianglesOf = (g: THREE.BufferGeometry) =>
+  (g.index ? g.index.count : g.getAttribute('position').count) / 3;
 
 describe('scene builders', () => {
   it('keeps draw calls flat from 1k to 10k nodes while the drawn triangles grow with the nodes', () => {
@@ -43,7 +53,9 @@ describe('scene builders', () => {
       const p = new THREE.Vector3();
       mesh.getMatrixAt(ofKind.length - 1, m);
       p.setFromMatrixPosition(m);
-      expect(p.toArray().map((v) => +v.toFixed(4))).toEqual(ofKind[ofKind.length - 1].position.map((v) => +v.toFixed(4)));
+      expect(p.toArray().map((v) => +v.toFixed(4))).toEqual(
+        ofKind[ofKind.length - 1].position.map((v) => +v.toFixed(4)),
+      );
       expectedTriangles += trianglesOf(glyphGeometry(kind)) * ofKind.length;
     }
     const glyphsOnly = new THREE.Group();
@@ -53,27 +65,42 @@ describe('scene builders', () => {
 
   it('builds each truss bay from four longerons, a frame per bay station and a brace per bay face', () => {
     fc.assert(
-      fc.property(fc.double({ min: 2, max: 60, noNaN: true }), fc.double({ min: 1, max: 5, noNaN: true }), (length, width) => {
-        const segment: Segment = { key: 'T', kind: 'truss', center: [0, 0, 0], size: [length, width, width] };
-        const { bays, members } = trussMemberCount(segment);
-        expect(bays).toBe(Math.max(1, Math.round(length / width)));
-        expect(members).toBe(4 + 4 * (bays + 1) + 4 * bays);
-        const positions = buildTrussGeometry([segment]).getAttribute('position');
-        expect(positions.count).toBe(2 * members);
-        // every member end lies on the segment's box
-        for (let i = 0; i < positions.count; i++) {
-          expect(Math.abs(positions.getX(i))).toBeLessThanOrEqual(length / 2 + 1e-4);
-          const y = Math.abs(positions.getY(i));
-          const z = Math.abs(positions.getZ(i));
-          expect(Math.abs(y - width / 2) < 1e-4 && Math.abs(z - width / 2) < 1e-4).toBe(true);
-        }
-      }),
+      fc.property(
+        fc.double({ min: 2, max: 60, noNaN: true }),
+        fc.double({ min: 1, max: 5, noNaN: true }),
+        (length, width) => {
+          const segment: Segment = {
+            key: 'T',
+            kind: 'truss',
+            center: [0, 0, 0],
+            size: [length, width, width],
+          };
+          const { bays, members } = trussMemberCount(segment);
+          expect(bays).toBe(Math.max(1, Math.round(length / width)));
+          expect(members).toBe(4 + 4 * (bays + 1) + 4 * bays);
+          const positions = buildTrussGeometry([segment]).getAttribute('position');
+          expect(positions.count).toBe(2 * members);
+          // every member end lies on the segment's box
+          for (let i = 0; i < positions.count; i++) {
+            expect(Math.abs(positions.getX(i))).toBeLessThanOrEqual(length / 2 + 1e-4);
+            const y = Math.abs(positions.getY(i));
+            const z = Math.abs(positions.getZ(i));
+            expect(Math.abs(y - width / 2) < 1e-4 && Math.abs(z - width / 2) < 1e-4).toBe(true);
+          }
+        },
+      ),
       { numRuns: 50 },
     );
   });
 
   it('turns a rotated truss segment the way truss-faces.ts reads it', () => {
-    const segment: Segment = { key: 'R', kind: 'truss', center: [3, -2, 1], size: [10, 2, 2], rotationDeg: [0, 0, 90] };
+    const segment: Segment = {
+      key: 'R',
+      kind: 'truss',
+      center: [3, -2, 1],
+      size: [10, 2, 2],
+      rotationDeg: [0, 0, 90],
+    };
     const positions = buildTrussGeometry([segment]).getAttribute('position');
     for (let i = 0; i < positions.count; i++) {
       const p: [number, number, number] = [positions.getX(i), positions.getY(i), positions.getZ(i)];
@@ -103,7 +130,10 @@ describe('scene picking', () => {
   it('picks a node glyph through the translucent truss box round it', () => {
     const anchor = fixture().nodes.find((n) => n.key === FIXTURE_KEYS.anchorNear)!;
     const target = new THREE.Vector3(...anchor.position);
-    expect(cast(target.clone().add(new THREE.Vector3(0, 0, 20)), target)).toEqual({ type: 'node', key: anchor.key });
+    expect(cast(target.clone().add(new THREE.Vector3(0, 0, 20)), target)).toEqual({
+      type: 'node',
+      key: anchor.key,
+    });
   });
 
   it('reports a segment surface hit with the world point and the outward face normal', () => {
@@ -133,22 +163,43 @@ describe('camera framing', () => {
 
   it('puts every corner of the box inside the view frustum, from any direction', () => {
     fc.assert(
-      fc.property(coord, coord, coord, size, size, size, unit, unit, unit, fc.double({ min: 0.5, max: 2.5, noNaN: true }), (x, y, z, sx, sy, sz, dx, dy, dz, aspect) => {
-        fc.pre(Math.hypot(dx, dy, dz) > 0.1);
-        const box = new THREE.Box3(new THREE.Vector3(x, y, z), new THREE.Vector3(x + sx, y + sy, z + sz));
-        const f = framing(box, new THREE.Vector3(dx, dy, dz), 45, aspect);
-        const camera = new THREE.PerspectiveCamera(45, aspect, f.distance / 1000, f.distance + f.radius * 20);
-        camera.up.set(0, 0, 1);
-        camera.position.copy(f.position);
-        camera.lookAt(f.target);
-        camera.updateMatrixWorld();
-        const p = new THREE.Vector3();
-        for (let i = 0; i < 8; i++) {
-          p.set(i & 1 ? box.max.x : box.min.x, i & 2 ? box.max.y : box.min.y, i & 4 ? box.max.z : box.min.z).project(camera);
-          expect(Math.abs(p.x)).toBeLessThanOrEqual(1 + 1e-6);
-          expect(Math.abs(p.y)).toBeLessThanOrEqual(1 + 1e-6);
-        }
-      }),
+      fc.property(
+        coord,
+        coord,
+        coord,
+        size,
+        size,
+        size,
+        unit,
+        unit,
+        unit,
+        fc.double({ min: 0.5, max: 2.5, noNaN: true }),
+        (x, y, z, sx, sy, sz, dx, dy, dz, aspect) => {
+          fc.pre(Math.hypot(dx, dy, dz) > 0.1);
+          const box = new THREE.Box3(new THREE.Vector3(x, y, z), new THREE.Vector3(x + sx, y + sy, z + sz));
+          const f = framing(box, new THREE.Vector3(dx, dy, dz), 45, aspect);
+          const camera = new THREE.PerspectiveCamera(
+            45,
+            aspect,
+            f.distance / 1000,
+            f.distance + f.radius * 20,
+          );
+          camera.up.set(0, 0, 1);
+          camera.position.copy(f.position);
+          camera.lookAt(f.target);
+          camera.updateMatrixWorld();
+          const p = new THREE.Vector3();
+          for (let i = 0; i < 8; i++) {
+            p.set(
+              i & 1 ? box.max.x : box.min.x,
+              i & 2 ? box.max.y : box.min.y,
+              i & 4 ? box.max.z : box.min.z,
+            ).project(camera);
+            expect(Math.abs(p.x)).toBeLessThanOrEqual(1 + 1e-6);
+            expect(Math.abs(p.y)).toBeLessThanOrEqual(1 + 1e-6);
+          }
+        },
+      ),
       { numRuns: 200 },
     );
   });

@@ -5,7 +5,6 @@ import type { Annotation } from '@shared/schemas/annotations';
 import type { StationSummary } from '@shared/schemas/station-edits';
 import { type BrowserSession, openBrowserPerTest, signInAs, DEMO_PASSWORD } from './browser';
 
-
 let session: BrowserSession;
 
 openBrowserPerTest((s) => (session = s));

@@ -130,4 +130,3 @@ export async function signInAs(session: BrowserSession, role: string) {
   await page.getByRole('button', { name: 'Sign in' }).click();
   await page.getByRole('heading', { level: 1, name: /^Welcome, / }).waitFor();
 }
-

@@ -41,7 +41,12 @@ describe('foundation: sign-in, home, people and mailbox in the built app', () =>
       expect(actions).not.toContain(PERMISSIONS[missing]);
     }
     const nav = page.getByRole('navigation', { name: 'Main' });
-    expect(await nav.getByRole('link').allTextContents()).toEqual(['Home', 'Stations', 'Plans', 'Walkthroughs']);
+    expect(await nav.getByRole('link').allTextContents()).toEqual([
+      'Home',
+      'Stations',
+      'Plans',
+      'Walkthroughs',
+    ]);
     await expect(page.getByRole('banner').getByText('Planner', { exact: true }).isVisible()).resolves.toBe(
       true,
     );

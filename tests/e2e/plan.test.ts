@@ -4,7 +4,6 @@ import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { openBrowserPerTest, SCREENSHOT_DIR, type BrowserSession, DEMO_PASSWORD } from './browser';
 
-
 let session: BrowserSession;
 
 openBrowserPerTest((s) => (session = s));

@@ -25,30 +25,39 @@ async function kestrelId(): Promise<number> {
 
 /** Counts canvas pixels of the route overlay's colours: lime path (about 83°) and orange swap markers (about 27°). */
 async function overlayPixels(session: BrowserSession) {
-  return session.page.getByTestId('station-scene').locator('canvas').first().evaluate((canvas: HTMLCanvasElement) => {
-    const off = document.createElement('canvas');
-    off.width = canvas.width;
-    off.height = canvas.height;
-    const ctx = off.getContext('2d')!;
-    ctx.drawImage(canvas, 0, 0);
-    const px = ctx.getImageData(0, 0, off.width, off.height).data;
-    let lime = 0;
-    let orange = 0;
-    let colours = new Set<number>();
-    for (let i = 0; i < px.length; i += 4) {
-      const [r, g, b] = [px[i], px[i + 1], px[i + 2]];
-      colours.add((r << 16) | (g << 8) | b);
-      const max = Math.max(r, g, b);
-      const min = Math.min(r, g, b);
-      if (max < 110 || max - min < 0.5 * max) continue;
-      const hue = max === r ? (60 * (g - b)) / (max - min) : max === g ? 120 + (60 * (b - r)) / (max - min) : 240 + (60 * (r - g)) / (max - min);
-      if (hue >= 65 && hue <= 95) lime++;
-      if (hue >= 18 && hue <= 33) orange++;
-    }
-    const distinct = colours.size;
-    colours = new Set();
-    return { lime, orange, distinct };
-  });
+  return session.page
+    .getByTestId('station-scene')
+    .locator('canvas')
+    .first()
+    .evaluate((canvas: HTMLCanvasElement) => {
+      const off = document.createElement('canvas');
+      off.width = canvas.width;
+      off.height = canvas.height;
+      const ctx = off.getContext('2d')!;
+      ctx.drawImage(canvas, 0, 0);
+      const px = ctx.getImageData(0, 0, off.width, off.height).data;
+      let lime = 0;
+      let orange = 0;
+      let colours = new Set<number>();
+      for (let i = 0; i < px.length; i += 4) {
+        const [r, g, b] = [px[i], px[i + 1], px[i + 2]];
+        colours.add((r << 16) | (g << 8) | b);
+        const max = Math.max(r, g, b);
+        const min = Math.min(r, g, b);
+        if (max < 110 || max - min < 0.5 * max) continue;
+        const hue =
+          max === r
+            ? (60 * (g - b)) / (max - min)
+            : max === g
+              ? 120 + (60 * (b - r)) / (max - min)
+              : 240 + (60 * (r - g)) / (max - min);
+        if (hue >= 65 && hue <= 95) lime++;
+        if (hue >= 18 && hue <= 33) orange++;
+      }
+      const distinct = colours.size;
+      colours = new Set();
+      return { lime, orange, distinct };
+    });
 }
 
 async function chooseNode(label: 'From' | 'To', key: string) {
@@ -78,19 +87,27 @@ describe('route finder', () => {
     const steps = result.getByRole('list', { name: 'Route steps' }).getByRole('listitem');
     await steps.first().waitFor();
     const texts = await steps.allTextContents();
-    const swaps = texts.filter((t) => /Tether swap at [A-Z0-9-]+: clip the new hook, then release the old one/.test(t));
+    const swaps = texts.filter((t) =>
+      /Tether swap at [A-Z0-9-]+: clip the new hook, then release the old one/.test(t),
+    );
     expect(swaps.length).toBeGreaterThan(0);
     expect(texts.some((t) => /Translate \d+\.\d m along the handrail to /.test(t))).toBe(true);
     expect(texts[0]).toContain(`Start at ${FROM}`);
     expect(texts.at(-1)).toContain(`Arrive at ${TO}`);
-    await result.getByLabel('Route summary').getByText(/^\d+\.\d m \(\d+\.\d ft\)$/).first().waitFor();
+    await result
+      .getByLabel('Route summary')
+      .getByText(/^\d+\.\d m \(\d+\.\d ft\)$/)
+      .first()
+      .waitFor();
     await page.getByLabel('Planning caution').first().waitFor();
 
     // the three modes side by side, the chosen one marked
     const table = result.getByRole('table');
     const rows = table.getByRole('row');
     await expect(rows.count()).resolves.toBe(4);
-    await expect(table.locator('tr[aria-current="true"]').textContent()).resolves.toMatch(/^Fastest\s*\(chosen\)/);
+    await expect(table.locator('tr[aria-current="true"]').textContent()).resolves.toMatch(
+      /^Fastest\s*\(chosen\)/,
+    );
     await table.getByText('(best)').first().waitFor({ state: 'attached' });
 
     await page.waitForTimeout(1000);
@@ -104,8 +121,12 @@ describe('route finder', () => {
 
     // switching the mode keeps the comparison and moves the mark
     await page.getByRole('radio', { name: /^Fewest swaps/ }).check();
-    await expect(table.locator('tr[aria-current="true"]').textContent()).resolves.toMatch(/^Fewest swaps\s*\(chosen\)/);
-    const swapCells = await rows.evaluateAll((trs) => trs.slice(1).map((tr) => Number(tr.querySelectorAll('td')[3].textContent!.replace(/\D.*$/, ''))));
+    await expect(table.locator('tr[aria-current="true"]').textContent()).resolves.toMatch(
+      /^Fewest swaps\s*\(chosen\)/,
+    );
+    const swapCells = await rows.evaluateAll((trs) =>
+      trs.slice(1).map((tr) => Number(tr.querySelectorAll('td')[3].textContent!.replace(/\D.*$/, ''))),
+    );
     expect(swapCells[1]).toBeLessThanOrEqual(swapCells[0]);
     await page.getByRole('checkbox', { name: /Show tether reach in 3D/ }).check();
     await page.waitForTimeout(600);

@@ -13,7 +13,9 @@ const signIn = (role: string) => signInAs(session, role);
 
 async function apiAs(role: string): Promise<APIRequestContext> {
   const api = await request.newContext({ baseURL: session.baseURL });
-  const res = await api.post('/api/auth/sign-in', { data: { email: `${role}@example.org`, password: DEMO_PASSWORD } });
+  const res = await api.post('/api/auth/sign-in', {
+    data: { email: `${role}@example.org`, password: DEMO_PASSWORD },
+  });
   expect(res.status()).toBe(200);
   return api;
 }
@@ -25,7 +27,13 @@ async function copyOfKestrel(api: APIRequestContext, name: string): Promise<Stat
   if (!demo) throw new Error('the demo station is not seeded');
   const doc = await (await api.get(`/api/stations/${demo.id}/export`)).json();
   const res = await api.post('/api/stations/import', {
-    multipart: { file: { name: 'copy.json', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify({ ...doc, name })) } },
+    multipart: {
+      file: {
+        name: 'copy.json',
+        mimeType: 'application/json',
+        buffer: Buffer.from(JSON.stringify({ ...doc, name })),
+      },
+    },
   });
   expect(res.status()).toBe(201);
   return ((await res.json()) as { station: StationSummary }).station;
@@ -33,14 +41,18 @@ async function copyOfKestrel(api: APIRequestContext, name: string): Promise<Stat
 
 /** Pixels of the 3D canvas as RGBA bytes (the scene keeps its drawing buffer). */
 async function canvasPixels(page: Page): Promise<number[]> {
-  return page.getByTestId('station-scene').locator('canvas').first().evaluate((canvas: HTMLCanvasElement) => {
-    const off = document.createElement('canvas');
-    off.width = canvas.width;
-    off.height = canvas.height;
-    const ctx = off.getContext('2d')!;
-    ctx.drawImage(canvas, 0, 0, off.width, off.height);
-    return Array.from(ctx.getImageData(0, 0, off.width, off.height).data);
-  });
+  return page
+    .getByTestId('station-scene')
+    .locator('canvas')
+    .first()
+    .evaluate((canvas: HTMLCanvasElement) => {
+      const off = document.createElement('canvas');
+      off.width = canvas.width;
+      off.height = canvas.height;
+      const ctx = off.getContext('2d')!;
+      ctx.drawImage(canvas, 0, 0, off.width, off.height);
+      return Array.from(ctx.getImageData(0, 0, off.width, off.height).data);
+    });
 }
 
 const distinctColours = (px: number[]) => {
@@ -104,7 +116,9 @@ describe('socket planner', () => {
     await page.waitForTimeout(800);
     await session.screenshot('socket-planner-framed');
     const framed = await canvasPixels(page);
-    console.info(`orange pixels before ${orangePixels(before)}, whole plan ${orangePixels(after)}, framed ${orangePixels(framed)}`);
+    console.info(
+      `orange pixels before ${orangePixels(before)}, whole plan ${orangePixels(after)}, framed ${orangePixels(framed)}`,
+    );
     expect(orangePixels(framed), 'the new-socket glyph is drawn').toBeGreaterThan(orangePixels(before) + 100);
     await result.getByRole('button', { name: 'Show all' }).click();
     await page.getByRole('img', { name: 'Restraint yaw and pitch' }).waitFor();

@@ -3,7 +3,6 @@ import { describe, expect, it } from 'vitest';
 import type { StationGraph, StationSummary } from '@shared/schemas/station-edits';
 import { type BrowserSession, openBrowserPerTest, signInAs, DEMO_PASSWORD } from './browser';
 
-
 let session: BrowserSession;
 
 openBrowserPerTest((s) => (session = s));

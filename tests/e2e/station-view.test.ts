@@ -26,7 +26,8 @@ const scene = () => session.page.getByTestId('station-scene');
 /** Waits until the canvas has drawn a frame since `after` frames. */
 async function frameAfter(after: number) {
   await session.page.waitForFunction(
-    (n) => Number(document.querySelector<HTMLElement>('[data-testid="station-scene"]')?.dataset.frames ?? 0) > n,
+    (n) =>
+      Number(document.querySelector<HTMLElement>('[data-testid="station-scene"]')?.dataset.frames ?? 0) > n,
     after,
     { timeout: 30_000 },
   );
@@ -55,7 +56,8 @@ async function litPixels(): Promise<{ lit: number; total: number }> {
     const bg = [data[0], data[1], data[2]];
     let lit = 0;
     for (let i = 0; i < data.length; i += 4) {
-      if (Math.abs(data[i] - bg[0]) + Math.abs(data[i + 1] - bg[1]) + Math.abs(data[i + 2] - bg[2]) > 40) lit++;
+      if (Math.abs(data[i] - bg[0]) + Math.abs(data[i + 1] - bg[1]) + Math.abs(data[i + 2] - bg[2]) > 40)
+        lit++;
     }
     return { lit, total: data.length / 4 };
   });
@@ -65,7 +67,10 @@ async function openKestrel(): Promise<StationGraph> {
   const { page } = session;
   await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Stations' }).click();
   await page.getByRole('heading', { level: 1, name: 'Stations' }).waitFor();
-  await page.getByRole('table', { name: 'Stations' }).getByRole('link', { name: 'Kestrel Station', exact: true }).click();
+  await page
+    .getByRole('table', { name: 'Stations' })
+    .getByRole('link', { name: 'Kestrel Station', exact: true })
+    .click();
   await scene().waitFor();
   await frameAfter(0);
   const stations = await apiGet<StationSummary[]>('/api/stations');
@@ -91,9 +96,16 @@ describe('station view: 3D model, selection, layers, tables and import', () => {
     await session.screenshot('station-view');
 
     // keyboard: search the list, arrow down to the second match, Enter selects it
-    const anchors = graph.nodes.filter((n) => n.kind === 'anchor').map((n) => n.key).sort();
+    const anchors = graph.nodes
+      .filter((n) => n.kind === 'anchor')
+      .map((n) => n.key)
+      .sort();
     const prefix = anchors[0].split('-')[0];
-    const matches = graph.nodes.filter((n) => n.key.toLowerCase().includes(prefix.toLowerCase()) || n.label?.toLowerCase().includes(prefix.toLowerCase()));
+    const matches = graph.nodes.filter(
+      (n) =>
+        n.key.toLowerCase().includes(prefix.toLowerCase()) ||
+        n.label?.toLowerCase().includes(prefix.toLowerCase()),
+    );
     const search = page.getByLabel('Find a node');
     await search.fill(prefix);
     await search.press('ArrowDown');
@@ -106,7 +118,9 @@ describe('station view: 3D model, selection, layers, tables and import', () => {
     await expect(details.getByText(`Edges (${degree})`).isVisible()).resolves.toBe(true);
     // highlighted in 3D: the scene holds the selection (its cage and label are drawn in the canvas)
     await expect.poll(() => scene().getAttribute('data-selected')).toBe(`node:${chosen.key}`);
-    await expect(page.getByRole('option', { name: new RegExp(`^${chosen.key}\\b`) }).getAttribute('aria-selected')).resolves.toBe('true');
+    await expect(
+      page.getByRole('option', { name: new RegExp(`^${chosen.key}\\b`) }).getAttribute('aria-selected'),
+    ).resolves.toBe('true');
     await session.screenshot('station-view-selected');
 
     // layer toggles: every node kind off leaves fewer draw calls and fewer lit pixels
@@ -135,14 +149,17 @@ describe('station view: 3D model, selection, layers, tables and import', () => {
     const { page } = session;
     await signIn('viewer');
     const graph = await openKestrel();
-    const tables = page.getByRole('region', { name: 'Tables' }).or(page.locator('section', { has: page.getByRole('heading', { name: 'Tables' }) }));
+    const tables = page
+      .getByRole('region', { name: 'Tables' })
+      .or(page.locator('section', { has: page.getByRole('heading', { name: 'Tables' }) }));
     const key = graph.nodes.find((n) => n.kind === 'worksite')!.key;
     const expected = graph.nodes.filter((n) => n.key.toLowerCase().includes(key.toLowerCase()));
     await tables.getByLabel('Search by key').fill(key);
     await tables.getByText(`${expected.length} of ${graph.nodes.length} shown`).waitFor();
     const rows = tables.getByRole('table', { name: 'Nodes' }).locator('tbody tr');
     expect(await rows.count()).toBe(expected.length);
-    for (const text of await rows.locator('td:first-child').allTextContents()) expect(text.toLowerCase()).toContain(key.toLowerCase());
+    for (const text of await rows.locator('td:first-child').allTextContents())
+      expect(text.toLowerCase()).toContain(key.toLowerCase());
     await rows.first().getByRole('button').click();
     await page.getByRole('tabpanel').getByText(expected[0].key, { exact: true }).first().waitFor();
 
@@ -192,8 +209,12 @@ describe('station view: 3D model, selection, layers, tables and import', () => {
     const counts = dialog.getByLabel('Imported counts');
     await expect(counts.getByTestId('count-nodes').textContent()).resolves.toBe(String(doc.nodes.length));
     await expect(counts.getByTestId('count-edges').textContent()).resolves.toBe(String(doc.edges.length));
-    await expect(counts.getByTestId('count-hazards').textContent()).resolves.toBe(String(doc.hazards!.length));
-    await expect(counts.getByTestId('count-segments').textContent()).resolves.toBe(String(doc.segments!.length));
+    await expect(counts.getByTestId('count-hazards').textContent()).resolves.toBe(
+      String(doc.hazards!.length),
+    );
+    await expect(counts.getByTestId('count-segments').textContent()).resolves.toBe(
+      String(doc.segments!.length),
+    );
     await session.screenshot('station-import-done');
 
     await dialog.getByRole('link', { name: `Open ${name}` }).click();

@@ -31,7 +31,14 @@ export function buildStationDocument(overrides: Partial<StationDocumentInput> = 
     settings: structuredClone(DEFAULT_SETTINGS) as StationDocument['settings'],
     segments: [
       { key: K.segment, label: 'Test truss bay 1', kind: 'truss', center: [5, 0, 0], size: [10, 3, 3] },
-      { key: 'LAB', label: 'Test module', kind: 'module', center: [-4, 0, 0], size: [6, 4, 4], rotationDeg: [0, 0, 90] },
+      {
+        key: 'LAB',
+        label: 'Test module',
+        kind: 'module',
+        center: [-4, 0, 0],
+        size: [6, 4, 4],
+        rotationDeg: [0, 0, 90],
+      },
     ],
     nodes: [
       { key: K.airlock, kind: 'airlock', label: 'Airlock hatch', position: [0, 0, 1.5] },
@@ -39,7 +46,13 @@ export function buildStationDocument(overrides: Partial<StationDocumentInput> = 
       { key: K.junction, kind: 'junction', position: [5, 0, 1.5], notes: 'mid-run handrail stanchion' },
       { key: K.anchorFar, kind: 'anchor', position: [8, 0, 1.5] },
       { key: K.anchorOtherFace, kind: 'anchor', position: [8, 1.5, 0] },
-      { key: K.socket, kind: 'socket', label: 'Foot restraint socket', position: [9, 1.5, 0], normal: [0, 1, 0] },
+      {
+        key: K.socket,
+        kind: 'socket',
+        label: 'Foot restraint socket',
+        position: [9, 1.5, 0],
+        normal: [0, 1, 0],
+      },
       { key: K.worksite, kind: 'worksite', label: 'Pump site', position: [9.5, 1.6, 0.4] },
       { key: K.rideEnd, kind: 'anchor', position: [30, 0, 1.5] },
     ],
@@ -53,7 +66,14 @@ export function buildStationDocument(overrides: Partial<StationDocumentInput> = 
       { from: K.airlock, to: K.rideEnd, kind: 'ride' },
     ],
     hazards: [
-      { key: K.keepOut, kind: 'keep-out', label: 'Radiator', shape: 'sphere', center: [20, 0, 1.5], radiusM: 2 },
+      {
+        key: K.keepOut,
+        kind: 'keep-out',
+        label: 'Radiator',
+        shape: 'sphere',
+        center: [20, 0, 1.5],
+        radiusM: 2,
+      },
       { key: K.caution, kind: 'caution', label: 'Antenna', shape: 'box', min: [4, -1, 2], max: [6, 1, 3] },
     ],
     ...overrides,

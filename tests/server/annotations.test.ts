@@ -6,8 +6,15 @@ import { buildStationDocument, FIXTURE_KEYS as K, stationDocumentFile } from '..
 import { makeTestApp, type TestAgent, type TestApp } from '../setup/test-app';
 
 /** A 1×1 PNG and the smallest JPEG header file-type recognises: real magic bytes, not names. */
-const PNG_1X1 = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNkYPhfDwAChwGA60e6kgAAAABJRU5ErkJggg==', 'base64');
-const JPEG_START = Buffer.concat([Buffer.from([0xff, 0xd8, 0xff, 0xe0, 0x00, 0x10]), Buffer.from('JFIF\0'), Buffer.alloc(64)]);
+const PNG_1X1 = Buffer.from(
+  'iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNkYPhfDwAChwGA60e6kgAAAABJRU5ErkJggg==',
+  'base64',
+);
+const JPEG_START = Buffer.concat([
+  Buffer.from([0xff, 0xd8, 0xff, 0xe0, 0x00, 0x10]),
+  Buffer.from('JFIF\0'),
+  Buffer.alloc(64),
+]);
 
 let t: TestApp;
 let trainer: TestAgent;
@@ -17,7 +24,9 @@ beforeAll(async () => {
   t = await makeTestApp();
   trainer = await t.agent('trainer');
   const engineer = await t.agent('engineer');
-  const res = await engineer.post('/api/stations/import').attach('file', stationDocumentFile(buildStationDocument()), 's.json');
+  const res = await engineer
+    .post('/api/stations/import')
+    .attach('file', stationDocumentFile(buildStationDocument()), 's.json');
   stationId = res.body.station.id;
 });
 afterAll(() => t.close());
@@ -28,10 +37,22 @@ async function createNote(body: object, agent = trainer) {
 
 describe('annotations', () => {
   it('a note on a node takes the node position; a note on a point keeps its own', async () => {
-    const onNode = await createNote({ nodeKey: K.socket, title: 'Check socket', body: 'Socket looks worn in the last survey photo.' });
+    const onNode = await createNote({
+      nodeKey: K.socket,
+      title: 'Check socket',
+      body: 'Socket looks worn in the last survey photo.',
+    });
     expect(onNode.status).toBe(201);
     const socket = buildStationDocument().nodes.find((n) => n.key === K.socket)!;
-    expect(onNode.body).toMatchObject({ nodeKey: K.socket, position: socket.position, title: 'Check socket', status: 'open', author: { name: 'Jonah Abara' }, replies: [], attachments: [] });
+    expect(onNode.body).toMatchObject({
+      nodeKey: K.socket,
+      position: socket.position,
+      title: 'Check socket',
+      status: 'open',
+      author: { name: 'Jonah Abara' },
+      replies: [],
+      attachments: [],
+    });
 
     const onPoint = await createNote({ position: [1.25, -2, 3.5], title: 'Sharp edge here' });
     expect(onPoint.status).toBe(201);
@@ -54,19 +75,32 @@ describe('annotations', () => {
   it('reply, resolve and reopen', async () => {
     const note = (await createNote({ nodeKey: K.worksite, title: 'Pump bolts' })).body;
     const planner = await t.agent('planner');
-    const replied = await planner.post(`/api/annotations/${note.id}/replies`).send({ body: 'Torque values are in the task card.' });
+    const replied = await planner
+      .post(`/api/annotations/${note.id}/replies`)
+      .send({ body: 'Torque values are in the task card.' });
     expect(replied.status).toBe(201);
-    expect(replied.body.replies).toEqual([expect.objectContaining({ body: 'Torque values are in the task card.', author: { id: expect.any(Number), name: 'Priya Lindqvist' } })]);
+    expect(replied.body.replies).toEqual([
+      expect.objectContaining({
+        body: 'Torque values are in the task card.',
+        author: { id: expect.any(Number), name: 'Priya Lindqvist' },
+      }),
+    ]);
 
     const resolved = await planner.patch(`/api/annotations/${note.id}`).send({ status: 'resolved' });
     expect(resolved.body).toMatchObject({ status: 'resolved', resolvedBy: { name: 'Priya Lindqvist' } });
-    expect((await trainer.get(`/api/stations/${stationId}/annotations?status=open`)).body.some((a: { id: number }) => a.id === note.id)).toBe(false);
+    expect(
+      (await trainer.get(`/api/stations/${stationId}/annotations?status=open`)).body.some(
+        (a: { id: number }) => a.id === note.id,
+      ),
+    ).toBe(false);
     const reopened = await trainer.patch(`/api/annotations/${note.id}`).send({ status: 'open' });
     expect(reopened.body).toMatchObject({ status: 'open', resolvedBy: null });
 
     // rewording is for the author (or an admin)
     expect((await planner.patch(`/api/annotations/${note.id}`).send({ title: 'Hijacked' })).status).toBe(403);
-    expect((await trainer.patch(`/api/annotations/${note.id}`).send({ title: 'Pump bolts (4)' })).body.title).toBe('Pump bolts (4)');
+    expect(
+      (await trainer.patch(`/api/annotations/${note.id}`).send({ title: 'Pump bolts (4)' })).body.title,
+    ).toBe('Pump bolts (4)');
     expect((await trainer.patch(`/api/annotations/${note.id}`).send({})).status).toBe(400);
   });
 
@@ -74,10 +108,15 @@ describe('annotations', () => {
     const viewer = await t.agent('viewer');
     const note = (await createNote({ position: [0, 0, 0], title: 'Read me' })).body;
     expect((await viewer.get(`/api/annotations/${note.id}`)).status).toBe(200);
-    expect((await viewer.post(`/api/stations/${stationId}/annotations`).send({ position: [0, 0, 0], title: 'x' })).status).toBe(403);
+    expect(
+      (await viewer.post(`/api/stations/${stationId}/annotations`).send({ position: [0, 0, 0], title: 'x' }))
+        .status,
+    ).toBe(403);
     expect((await viewer.post(`/api/annotations/${note.id}/replies`).send({ body: 'x' })).status).toBe(403);
     expect((await viewer.patch(`/api/annotations/${note.id}`).send({ status: 'resolved' })).status).toBe(403);
-    expect((await viewer.post(`/api/annotations/${note.id}/attachments`).attach('file', PNG_1X1, 'a.png')).status).toBe(403);
+    expect(
+      (await viewer.post(`/api/annotations/${note.id}/attachments`).attach('file', PNG_1X1, 'a.png')).status,
+    ).toBe(403);
     expect((await t.anonymous().get(`/api/stations/${stationId}/annotations`)).status).toBe(401);
   });
 });
@@ -85,10 +124,16 @@ describe('annotations', () => {
 describe('image attachments', () => {
   it('a PNG is stored under a random name and served only to signed-in users, with nosniff', async () => {
     const note = (await createNote({ position: [0, 0, 0], title: 'Photo' })).body;
-    const up = await trainer.post(`/api/annotations/${note.id}/attachments`).attach('file', PNG_1X1, '../../etc/"evil"\r\nname.png');
+    const up = await trainer
+      .post(`/api/annotations/${note.id}/attachments`)
+      .attach('file', PNG_1X1, '../../etc/"evil"\r\nname.png');
     expect(up.status).toBe(201);
     const att = up.body.attachment;
-    expect(att).toMatchObject({ mimeType: 'image/png', sizeBytes: PNG_1X1.length, url: `/api/attachments/${att.id}` });
+    expect(att).toMatchObject({
+      mimeType: 'image/png',
+      sizeBytes: PNG_1X1.length,
+      url: `/api/attachments/${att.id}`,
+    });
     expect(att.fileName).not.toMatch(/[/\\"\r\n]/);
 
     const stored = fs.readdirSync(path.join(t.dir, 'uploads'));
@@ -110,18 +155,29 @@ describe('image attachments', () => {
 
   it('a JPEG is accepted by its content whatever its name', async () => {
     const note = (await createNote({ position: [0, 0, 0], title: 'JPEG' })).body;
-    const up = await trainer.post(`/api/annotations/${note.id}/attachments`).attach('file', JPEG_START, 'photo.bin');
+    const up = await trainer
+      .post(`/api/annotations/${note.id}/attachments`)
+      .attach('file', JPEG_START, 'photo.bin');
     expect(up.status).toBe(201);
     expect(up.body.attachment).toMatchObject({ mimeType: 'image/jpeg', fileName: 'photo.jpg' });
   });
 
   it('a text file named .png is refused (415) and nothing is stored', async () => {
     const note = (await createNote({ position: [0, 0, 0], title: 'Fake' })).body;
-    const before = fs.existsSync(path.join(t.dir, 'uploads')) ? fs.readdirSync(path.join(t.dir, 'uploads')).length : 0;
-    const res = await trainer.post(`/api/annotations/${note.id}/attachments`).attach('file', Buffer.from('<svg onload="alert(1)"></svg>'), { filename: 'x.png', contentType: 'image/png' });
+    const before = fs.existsSync(path.join(t.dir, 'uploads'))
+      ? fs.readdirSync(path.join(t.dir, 'uploads')).length
+      : 0;
+    const res = await trainer
+      .post(`/api/annotations/${note.id}/attachments`)
+      .attach('file', Buffer.from('<svg onload="alert(1)"></svg>'), {
+        filename: 'x.png',
+        contentType: 'image/png',
+      });
     expect(res.status).toBe(415);
     expect(res.body.error.code).toBe('UNSUPPORTED_MEDIA_TYPE');
-    const after = fs.existsSync(path.join(t.dir, 'uploads')) ? fs.readdirSync(path.join(t.dir, 'uploads')).length : 0;
+    const after = fs.existsSync(path.join(t.dir, 'uploads'))
+      ? fs.readdirSync(path.join(t.dir, 'uploads')).length
+      : 0;
     expect(after).toBe(before);
     expect((await trainer.get(`/api/annotations/${note.id}`)).body.attachments).toEqual([]);
   });

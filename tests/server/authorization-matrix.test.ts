@@ -109,8 +109,14 @@ async function call(role: Role | null, method: string, path: string) {
 describe('authorisation matrix', () => {
   it('every mounted route has a row, and every row a route (deny by default: no rule, no route)', () => {
     const mounted = routeTable.map(ruleKey).sort();
-    expect(mounted.filter((k) => !(k in MATRIX)), 'routes without a row in MATRIX').toEqual([]);
-    expect(Object.keys(MATRIX).filter((k) => !mounted.includes(k)), 'rows without a route').toEqual([]);
+    expect(
+      mounted.filter((k) => !(k in MATRIX)),
+      'routes without a row in MATRIX',
+    ).toEqual([]);
+    expect(
+      Object.keys(MATRIX).filter((k) => !mounted.includes(k)),
+      'rows without a route',
+    ).toEqual([]);
   });
 
   // sign-out-everywhere and the mailbox clear change state for later calls: run them last

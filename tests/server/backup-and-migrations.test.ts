@@ -21,7 +21,9 @@ function dumpTables(file: string) {
     const tables = db
       .prepare("select name from sqlite_master where type='table' and name not like 'sqlite_%' order by name")
       .all() as { name: string }[];
-    return Object.fromEntries(tables.map((t) => [t.name, db.prepare(`select * from "${t.name}" order by rowid`).all()]));
+    return Object.fromEntries(
+      tables.map((t) => [t.name, db.prepare(`select * from "${t.name}" order by rowid`).all()]),
+    );
   } finally {
     db.close();
   }
@@ -31,15 +33,21 @@ describe('migrations', () => {
   it('a second start on an existing database applies no migration again and keeps the data', () => {
     const file = path.join(tmp(), 'm.db');
     const first = openDatabase(file);
-    first.sqlite.prepare("insert into users (email, name, role) values ('keep@example.org', 'Keep Me', 'viewer')").run();
-    const applied = first.sqlite.prepare('select count(*) n from __drizzle_migrations').get() as { n: number };
+    first.sqlite
+      .prepare("insert into users (email, name, role) values ('keep@example.org', 'Keep Me', 'viewer')")
+      .run();
+    const applied = first.sqlite.prepare('select count(*) n from __drizzle_migrations').get() as {
+      n: number;
+    };
     first.close();
     const expected = fs.readdirSync(MIGRATIONS_FOLDER).filter((f) => f.endsWith('.sql')).length;
     expect(applied.n).toBe(expected);
 
     const second = openDatabase(file);
     const again = second.sqlite.prepare('select count(*) n from __drizzle_migrations').get() as { n: number };
-    const kept = second.sqlite.prepare("select name from users where email = 'keep@example.org'").get() as { name: string };
+    const kept = second.sqlite.prepare("select name from users where email = 'keep@example.org'").get() as {
+      name: string;
+    };
     second.close();
     expect(again.n).toBe(expected);
     expect(kept.name).toBe('Keep Me');
@@ -58,16 +66,22 @@ describe('online backup and restore', () => {
     const t = await makeTestApp();
     try {
       const admin = await t.agent('admin');
-      await admin.post('/api/users/invite').send({ email: 'backup.me@example.org', name: 'Backup Me', role: 'viewer' });
+      await admin
+        .post('/api/users/invite')
+        .send({ email: 'backup.me@example.org', name: 'Backup Me', role: 'viewer' });
       const target = path.join(tmp(), 'backup.db');
       const { bytes } = await backupDatabase(t.ctx.config.databaseUrl, target);
       expect(bytes).toBeGreaterThan(0);
 
       // the live database moves on after the backup
-      await admin.post('/api/users/invite').send({ email: 'after.backup@example.org', name: 'After', role: 'viewer' });
+      await admin
+        .post('/api/users/invite')
+        .send({ email: 'after.backup@example.org', name: 'After', role: 'viewer' });
       const atBackup = dumpTables(target);
       expect((atBackup.users as { email: string }[]).map((u) => u.email)).toContain('backup.me@example.org');
-      expect((atBackup.users as { email: string }[]).map((u) => u.email)).not.toContain('after.backup@example.org');
+      expect((atBackup.users as { email: string }[]).map((u) => u.email)).not.toContain(
+        'after.backup@example.org',
+      );
 
       const restoredFile = path.join(tmp(), 'restored.db');
       fs.writeFileSync(restoredFile, 'an old damaged file');

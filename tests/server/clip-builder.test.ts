@@ -35,7 +35,12 @@ describe('clip graphs built off the request path', () => {
     expect(first.feasible).toBe(true);
     expect(hasClipGraph(c.arcSeconds, tether, mask)).toBe(false);
     await clipBuildsSettled();
-    expect(events.at(-1)).toMatchObject({ ok: true, nodes: c.nodeCount, tetherLengthM: tether, excludeMask: mask });
+    expect(events.at(-1)).toMatchObject({
+      ok: true,
+      nodes: c.nodeCount,
+      tetherLengthM: tether,
+      excludeMask: mask,
+    });
     expect(hasClipGraph(c.arcSeconds, tether, mask)).toBe(true);
     // with the cost landmarks for the station's swap time, so `balanced` does not build them
     expect(clipGraphFor(c, c.arcSeconds, tether, mask).costMarks.has(doc.settings.swapSeconds)).toBe(true);
@@ -44,10 +49,16 @@ describe('clip graphs built off the request path', () => {
     const fresh = compileStation(doc);
     for (const mode of ['fastest', 'fewest-swaps', 'balanced'] as RouteMode[]) {
       for (let i = 0; i < 6; i++) {
-        const r = { from: anchors[(i * 37) % anchors.length], to: anchors[(i * 91 + 13) % anchors.length], mode };
+        const r = {
+          from: anchors[(i * 37) % anchors.length],
+          to: anchors[(i * 91 + 13) % anchors.length],
+          mode,
+        };
         if (r.from === r.to) continue;
         const adopted = routeOffPath(c, doc, r);
-        expect(JSON.stringify(adopted)).toBe(JSON.stringify(findRoute(fresh, doc.settings, r, { strategy: 'clip-graph' })));
+        expect(JSON.stringify(adopted)).toBe(
+          JSON.stringify(findRoute(fresh, doc.settings, r, { strategy: 'clip-graph' })),
+        );
       }
     }
     // fewest swaps from the label search, before the build, is the same optimum
@@ -73,7 +84,12 @@ describe('clip graphs built off the request path', () => {
   it('a stopped build reports itself failed and leaves the label search answering', async () => {
     const c = compileStation(doc);
     const before = events.length;
-    const req = { from: anchors[5], to: anchors[anchors.length - 6], mode: 'fewest-swaps' as const, tetherLengthM: 22 };
+    const req = {
+      from: anchors[5],
+      to: anchors[anchors.length - 6],
+      mode: 'fewest-swaps' as const,
+      tetherLengthM: 22,
+    };
     const r = routeOffPath(c, doc, req);
     await stopClipBuilds();
     expect(events.slice(before)).toEqual([expect.objectContaining({ ok: false, tetherLengthM: 22 })]);
@@ -90,18 +106,24 @@ describe('the routes endpoint on a station above the inline limit', () => {
       try {
         const viewer = await app.agent('viewer');
         const stationId = (await viewer.get('/api/stations')).body[0].id as number;
-        const graph = (await viewer.get(`/api/stations/${stationId}/graph`)).body as { nodes: { key: string; kind: string }[] };
+        const graph = (await viewer.get(`/api/stations/${stationId}/graph`)).body as {
+          nodes: { key: string; kind: string }[];
+        };
         const attach = graph.nodes.filter((n) => n.kind === 'anchor').map((n) => n.key);
         const body = { from: attach[0], to: attach[attach.length - 1], mode: 'fewest-swaps' };
         const first = await viewer.post(`/api/stations/${stationId}/routes`).send(body);
         expect(first.status).toBe(200);
         const built = async () =>
-          routeWorkers ? app.ctx.routePool!.stats().some((s) => s.clipBuilds > 0) : (await clipBuildsSettled(), true);
+          routeWorkers
+            ? app.ctx.routePool!.stats().some((s) => s.clipBuilds > 0)
+            : (await clipBuildsSettled(), true);
         for (let i = 0; i < 200 && !(await built()); i++) await new Promise((r) => setTimeout(r, 50));
         expect(await built()).toBe(true);
         if (!routeWorkers) {
           const { compiled, doc } = getCompiledStation(app.ctx, stationId);
-          expect(hasClipGraph(compiled.arcSeconds, doc.settings.tetherLengthM, excludeMaskFor(false))).toBe(true);
+          expect(hasClipGraph(compiled.arcSeconds, doc.settings.tetherLengthM, excludeMaskFor(false))).toBe(
+            true,
+          );
         }
         const again = await viewer.post(`/api/stations/${stationId}/routes`).send(body);
         expect(again.status).toBe(200);

@@ -24,7 +24,10 @@ describe('health and the fixed auth interface', () => {
   });
 
   it('sign-in returns {user:{id,email,name,role}} and an httpOnly SameSite=Lax cookie with an expiry', async () => {
-    const res = await t.anonymous().post('/api/auth/sign-in').send({ email: 'planner@example.org', password: 'tetherwise-demo' });
+    const res = await t
+      .anonymous()
+      .post('/api/auth/sign-in')
+      .send({ email: 'planner@example.org', password: 'tetherwise-demo' });
     expect(res.status).toBe(200);
     expect(Object.keys(res.body.user).sort()).toEqual(['email', 'id', 'name', 'role']);
     expect(res.body.user).toMatchObject({ email: 'planner@example.org', role: 'planner' });
@@ -36,13 +39,22 @@ describe('health and the fixed auth interface', () => {
   });
 
   it('e-mail is matched case-insensitively', async () => {
-    const res = await t.anonymous().post('/api/auth/sign-in').send({ email: ' Planner@Example.ORG ', password: 'tetherwise-demo' });
+    const res = await t
+      .anonymous()
+      .post('/api/auth/sign-in')
+      .send({ email: ' Planner@Example.ORG ', password: 'tetherwise-demo' });
     expect(res.status).toBe(200);
   });
 
   it('wrong password and unknown e-mail → 401 in the error shape, same message', async () => {
-    const a = await t.anonymous().post('/api/auth/sign-in').send({ email: 'planner@example.org', password: 'nope' });
-    const b = await t.anonymous().post('/api/auth/sign-in').send({ email: 'nobody@example.org', password: 'nope' });
+    const a = await t
+      .anonymous()
+      .post('/api/auth/sign-in')
+      .send({ email: 'planner@example.org', password: 'nope' });
+    const b = await t
+      .anonymous()
+      .post('/api/auth/sign-in')
+      .send({ email: 'nobody@example.org', password: 'nope' });
     expect(a.status).toBe(401);
     expect(b.status).toBe(401);
     expectErrorShape(a.body, 'UNAUTHENTICATED');
@@ -114,11 +126,17 @@ describe('sign-in rate limit', () => {
   it('repeated failures → 429 in the error shape; the right password does not count', async () => {
     const limited = await makeTestApp({ signInAttempts: 3 });
     try {
-      const good = await limited.anonymous().post('/api/auth/sign-in').send({ email: 'admin@example.org', password: 'tetherwise-demo' });
+      const good = await limited
+        .anonymous()
+        .post('/api/auth/sign-in')
+        .send({ email: 'admin@example.org', password: 'tetherwise-demo' });
       expect(good.status).toBe(200);
       const statuses: number[] = [];
       for (let i = 0; i < 5; i++) {
-        const r = await limited.anonymous().post('/api/auth/sign-in').send({ email: 'admin@example.org', password: 'wrong' });
+        const r = await limited
+          .anonymous()
+          .post('/api/auth/sign-in')
+          .send({ email: 'admin@example.org', password: 'wrong' });
         statuses.push(r.status);
         if (r.status === 429) expectErrorShape(r.body, 'RATE_LIMITED');
       }
@@ -133,7 +151,10 @@ describe('sign out everywhere', () => {
   it('ends every session of the user, not just this one', async () => {
     const a = request.agent(t.app);
     const b = request.agent(t.app);
-    for (const agent of [a, b]) await agent.post('/api/auth/sign-in').send({ email: 'trainer@example.org', password: 'tetherwise-demo' });
+    for (const agent of [a, b])
+      await agent
+        .post('/api/auth/sign-in')
+        .send({ email: 'trainer@example.org', password: 'tetherwise-demo' });
     expect((await b.get('/api/auth/me')).status).toBe(200);
     expect((await a.post('/api/auth/sign-out-everywhere')).status).toBe(204);
     expect((await a.get('/api/auth/me')).status).toBe(401);

@@ -40,31 +40,49 @@ describe('people and invitations (admin)', () => {
     const { user, token } = await inviteAndGetToken('new.person@example.org');
     expect(user).toMatchObject({ email: 'new.person@example.org', role: 'trainer', invitePending: true });
     // cannot sign in before setting a password
-    expect((await t.anonymous().post('/api/auth/sign-in').send({ email: 'new.person@example.org', password: 'x' })).status).toBe(401);
+    expect(
+      (await t.anonymous().post('/api/auth/sign-in').send({ email: 'new.person@example.org', password: 'x' }))
+        .status,
+    ).toBe(401);
 
     const inv = await t.anonymous().get(`/api/auth/invitations/${token}`);
     expect(inv.status).toBe(200);
     expect(inv.body).toEqual({ email: 'new.person@example.org', name: 'Rin Test' });
 
     const agent = request.agent(t.app);
-    const set = await agent.post('/api/auth/set-password').send({ token, password: 'a long enough passphrase' });
+    const set = await agent
+      .post('/api/auth/set-password')
+      .send({ token, password: 'a long enough passphrase' });
     expect(set.status).toBe(200);
     expect(set.body.user.email).toBe('new.person@example.org');
     expect((await agent.get('/api/auth/me')).body.user.role).toBe('trainer');
 
     // single use
-    const again = await t.anonymous().post('/api/auth/set-password').send({ token, password: 'another passphrase!' });
+    const again = await t
+      .anonymous()
+      .post('/api/auth/set-password')
+      .send({ token, password: 'another passphrase!' });
     expect(again.status).toBe(404);
     expect((await t.anonymous().get(`/api/auth/invitations/${token}`)).status).toBe(404);
 
-    const signIn = await t.anonymous().post('/api/auth/sign-in').send({ email: 'new.person@example.org', password: 'a long enough passphrase' });
+    const signIn = await t
+      .anonymous()
+      .post('/api/auth/sign-in')
+      .send({ email: 'new.person@example.org', password: 'a long enough passphrase' });
     expect(signIn.status).toBe(200);
   });
 
   it('an expired link is refused', async () => {
     const { token, user } = await inviteAndGetToken('late.person@example.org');
-    t.ctx.db.update(passwordTokens).set({ expiresAt: new Date(Date.now() - 1000).toISOString() }).where(eq(passwordTokens.userId, user.id)).run();
-    const res = await t.anonymous().post('/api/auth/set-password').send({ token, password: 'a long enough passphrase' });
+    t.ctx.db
+      .update(passwordTokens)
+      .set({ expiresAt: new Date(Date.now() - 1000).toISOString() })
+      .where(eq(passwordTokens.userId, user.id))
+      .run();
+    const res = await t
+      .anonymous()
+      .post('/api/auth/set-password')
+      .send({ token, password: 'a long enough passphrase' });
     expect(res.status).toBe(404);
     expect(res.body.error.message).toMatch(/expired|used/);
   });
@@ -78,8 +96,19 @@ describe('people and invitations (admin)', () => {
 
   it('inviting an existing e-mail → 409; bad invite bodies → 400', async () => {
     const admin = await t.agent('admin');
-    expect((await admin.post('/api/users/invite').send({ email: 'PLANNER@example.org', name: 'X', role: 'viewer' })).status).toBe(409);
-    for (const body of [{}, { email: 'x', name: 'X', role: 'viewer' }, { email: 'a@b.co', name: '', role: 'viewer' }, { email: 'a@b.co', name: 'A', role: 'pilot' }]) {
+    expect(
+      (
+        await admin
+          .post('/api/users/invite')
+          .send({ email: 'PLANNER@example.org', name: 'X', role: 'viewer' })
+      ).status,
+    ).toBe(409);
+    for (const body of [
+      {},
+      { email: 'x', name: 'X', role: 'viewer' },
+      { email: 'a@b.co', name: '', role: 'viewer' },
+      { email: 'a@b.co', name: 'A', role: 'pilot' },
+    ]) {
       const res = await admin.post('/api/users/invite').send(body);
       expect(res.status).toBe(400);
       expect(res.body.error.code).toBe('VALIDATION_FAILED');
@@ -91,7 +120,9 @@ describe('people and invitations (admin)', () => {
     const users = (await admin.get('/api/users')).body as { id: number; email: string }[];
     const viewer = users.find((u) => u.email === 'viewer@example.org')!;
     const session = request.agent(t.app);
-    await session.post('/api/auth/sign-in').send({ email: 'viewer@example.org', password: 'tetherwise-demo' });
+    await session
+      .post('/api/auth/sign-in')
+      .send({ email: 'viewer@example.org', password: 'tetherwise-demo' });
     expect((await session.get('/api/auth/me')).status).toBe(200);
 
     const promoted = await admin.patch(`/api/users/${viewer.id}`).send({ role: 'trainer' });
@@ -99,16 +130,30 @@ describe('people and invitations (admin)', () => {
     expect(promoted.body.user.role).toBe('trainer');
     expect((await session.get('/api/auth/me')).status).toBe(401);
 
-    await session.post('/api/auth/sign-in').send({ email: 'viewer@example.org', password: 'tetherwise-demo' });
+    await session
+      .post('/api/auth/sign-in')
+      .send({ email: 'viewer@example.org', password: 'tetherwise-demo' });
     expect((await session.get('/api/auth/me')).body.user.role).toBe('trainer');
     expect((await admin.patch(`/api/users/${viewer.id}`).send({ disabled: true })).status).toBe(200);
     expect((await session.get('/api/auth/me')).status).toBe(401);
-    const refused = await t.anonymous().post('/api/auth/sign-in').send({ email: 'viewer@example.org', password: 'tetherwise-demo' });
+    const refused = await t
+      .anonymous()
+      .post('/api/auth/sign-in')
+      .send({ email: 'viewer@example.org', password: 'tetherwise-demo' });
     expect(refused.status).toBe(401);
     expect(refused.body.error.message).toMatch(/disabled/);
 
-    expect((await admin.patch(`/api/users/${viewer.id}`).send({ disabled: false, role: 'viewer' })).status).toBe(200);
-    expect((await t.anonymous().post('/api/auth/sign-in').send({ email: 'viewer@example.org', password: 'tetherwise-demo' })).status).toBe(200);
+    expect(
+      (await admin.patch(`/api/users/${viewer.id}`).send({ disabled: false, role: 'viewer' })).status,
+    ).toBe(200);
+    expect(
+      (
+        await t
+          .anonymous()
+          .post('/api/auth/sign-in')
+          .send({ email: 'viewer@example.org', password: 'tetherwise-demo' })
+      ).status,
+    ).toBe(200);
   });
 
   it('an admin cannot disable or demote themselves; unknown ids 404; bad ids 400', async () => {
@@ -127,7 +172,9 @@ describe('people and invitations (admin)', () => {
     const before = (await admin.get('/api/mailbox')).body.length;
     expect((await admin.post(`/api/users/${user.id}/resend-invite`)).status).toBe(204);
     expect((await admin.get('/api/mailbox')).body.length).toBe(before + 1);
-    const planner = (await admin.get('/api/users')).body.find((u: { email: string }) => u.email === 'planner@example.org');
+    const planner = (await admin.get('/api/users')).body.find(
+      (u: { email: string }) => u.email === 'planner@example.org',
+    );
     expect((await admin.post(`/api/users/${planner.id}/resend-invite`)).status).toBe(400);
   });
 });

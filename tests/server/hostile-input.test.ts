@@ -55,7 +55,14 @@ const jsonish = fc.letrec((tie) => ({
     fc.boolean(),
     fc.constant(null),
     fc.array(tie('value'), { maxLength: 5 }),
-    fc.dictionary(fc.oneof(nasty, fc.constantFrom('version', 'from', 'to', 'mode', 'email', 'targets', 'tasks', '__proto__')), tie('value'), { maxKeys: 5 }),
+    fc.dictionary(
+      fc.oneof(
+        nasty,
+        fc.constantFrom('version', 'from', 'to', 'mode', 'email', 'targets', 'tasks', '__proto__'),
+      ),
+      tie('value'),
+      { maxKeys: 5 },
+    ),
   ),
 })).value;
 
@@ -63,11 +70,17 @@ function deepNest(depth: number) {
   return '['.repeat(depth) + ']'.repeat(depth);
 }
 
-const inputRoutes = routeTable.filter((r) => r.method !== 'GET' || /:\w+/.test(r.path) || r.path.includes('orbit'));
+const inputRoutes = routeTable.filter(
+  (r) => r.method !== 'GET' || /:\w+/.test(r.path) || r.path.includes('orbit'),
+);
 
 function expectSafe(status: number, body: unknown, what: string) {
   expect(status, what).toBeLessThan(500);
-  if (status >= 400) expect(ErrorBodySchema.safeParse(body).success, `${what}: error shape ${JSON.stringify(body).slice(0, 200)}`).toBe(true);
+  if (status >= 400)
+    expect(
+      ErrorBodySchema.safeParse(body).success,
+      `${what}: error shape ${JSON.stringify(body).slice(0, 200)}`,
+    ).toBe(true);
 }
 
 describe('hostile input never breaks the server', () => {
@@ -84,7 +97,10 @@ describe('hostile input never breaks the server', () => {
             `?version=${encodeURIComponent(query)}&altitudeKm=${encodeURIComponent(query)}&q=${encodeURIComponent(query)}`;
           const m = route.method.toLowerCase() as 'get' | 'post' | 'put' | 'patch' | 'delete';
           const req = admin[m](url).timeout({ response: 10_000 });
-          const res = route.method === 'GET' ? await req : await req.set('Content-Type', 'application/json').send(JSON.stringify(body));
+          const res =
+            route.method === 'GET'
+              ? await req
+              : await req.set('Content-Type', 'application/json').send(JSON.stringify(body));
           expectSafe(res.status, res.body, `${key} ${JSON.stringify(body).slice(0, 120)}`);
         }),
         { numRuns: 12, endOnFailure: true },
@@ -94,15 +110,27 @@ describe('hostile input never breaks the server', () => {
 
   it('deeply nested JSON, a huge body, a wrong content type and a non-JSON body are 4xx', async () => {
     const admin = await t.agent('admin');
-    const deep = await admin.post('/api/plans').set('Content-Type', 'application/json').send(deepNest(100_000));
+    const deep = await admin
+      .post('/api/plans')
+      .set('Content-Type', 'application/json')
+      .send(deepNest(100_000));
     expectSafe(deep.status, deep.body, 'deep');
     expect(deep.status).toBeGreaterThanOrEqual(400);
-    const huge = await admin.post('/api/plans').set('Content-Type', 'application/json').send(`{"title":"${'x'.repeat(3 * 1024 * 1024)}"}`);
+    const huge = await admin
+      .post('/api/plans')
+      .set('Content-Type', 'application/json')
+      .send(`{"title":"${'x'.repeat(3 * 1024 * 1024)}"}`);
     expect(huge.status).toBe(413);
     expect(huge.body.error.code).toBe('PAYLOAD_TOO_LARGE');
-    const text = await admin.post('/api/stations/1/routes').set('Content-Type', 'text/plain').send('from=a&to=b');
+    const text = await admin
+      .post('/api/stations/1/routes')
+      .set('Content-Type', 'text/plain')
+      .send('from=a&to=b');
     expect(text.status).toBe(400);
-    const inf = await admin.post('/api/stations/1/routes').set('Content-Type', 'application/json').send('{"from":"a","to":"b","mode":"fastest","tetherLengthM":1e999}');
+    const inf = await admin
+      .post('/api/stations/1/routes')
+      .set('Content-Type', 'application/json')
+      .send('{"from":"a","to":"b","mode":"fastest","tetherLengthM":1e999}');
     expect(inf.status).toBe(400);
   });
 });

@@ -28,7 +28,8 @@ async function expectRefused(bytes: Buffer, status: number, expectedPath?: strin
   expect(res.status).toBe(status);
   expect(res.body.error).toBeDefined();
   expect(res.body.error.message).not.toMatch(/at .*\.ts:\d+/);
-  if (expectedPath) expect(res.body.error.details.map((d: { path: string }) => d.path)).toContain(expectedPath);
+  if (expectedPath)
+    expect(res.body.error.details.map((d: { path: string }) => d.path)).toContain(expectedPath);
   expect(await stationCount()).toBe(before);
   return res.body.error as { code: string; message: string; details?: { path: string; message: string }[] };
 }
@@ -50,7 +51,11 @@ describe('bad station documents: 400 naming the problem, nothing written', () =>
   });
 
   it('wrong format', async () => {
-    const error = await expectRefused(stationDocumentFile({ ...doc(), format: 'something.else' }), 400, 'format');
+    const error = await expectRefused(
+      stationDocumentFile({ ...doc(), format: 'something.else' }),
+      400,
+      'format',
+    );
     expect(error.details).toHaveLength(1);
   });
 
@@ -76,8 +81,14 @@ describe('bad station documents: 400 naming the problem, nothing written', () =>
     const text = JSON.stringify(doc()).replace('"position":[2,0,1.5]', '"position":[2,1e999,1.5]');
     expect(text).toContain('1e999');
     const error = await expectRefused(Buffer.from(text), 400, 'nodes[1].position[1]');
-    expect(error.details!.find((d) => d.path === 'nodes[1].position[1]')!.message).toBe('must be a finite number');
-    await expectRefused(stationDocumentFile(withNode(2, { position: [5, '0', 1.5] })), 400, 'nodes[2].position[1]');
+    expect(error.details!.find((d) => d.path === 'nodes[1].position[1]')!.message).toBe(
+      'must be a finite number',
+    );
+    await expectRefused(
+      stationDocumentFile(withNode(2, { position: [5, '0', 1.5] })),
+      400,
+      'nodes[2].position[1]',
+    );
   });
 
   it('a negative length', async () => {
@@ -93,7 +104,11 @@ describe('bad station documents: 400 naming the problem, nothing written', () =>
     d.nodes[socketIndex] = bare as (typeof d.nodes)[number];
     const missing = await expectRefused(stationDocumentFile(d), 400, `nodes[${socketIndex}].normal`);
     expect(missing.details![0].message).toContain('unit normal');
-    const long = await expectRefused(stationDocumentFile(withNode(socketIndex, { normal: [0, 2, 0] })), 400, `nodes[${socketIndex}].normal`);
+    const long = await expectRefused(
+      stationDocumentFile(withNode(socketIndex, { normal: [0, 2, 0] })),
+      400,
+      `nodes[${socketIndex}].normal`,
+    );
     expect(long.details![0].message).toContain('2.0000');
   });
 
@@ -104,7 +119,9 @@ describe('bad station documents: 400 naming the problem, nothing written', () =>
   it('a hazard box whose min is not below its max', async () => {
     const d = doc();
     const i = d.hazards!.findIndex((h) => h.shape === 'box');
-    d.hazards![i] = { ...d.hazards![i], min: [0, 0, 0], max: [1, 0, 1] } as NonNullable<typeof d.hazards>[number];
+    d.hazards![i] = { ...d.hazards![i], min: [0, 0, 0], max: [1, 0, 1] } as NonNullable<
+      typeof d.hazards
+    >[number];
     await expectRefused(stationDocumentFile(d), 400, `hazards[${i}].max[1]`);
   });
 
@@ -112,7 +129,9 @@ describe('bad station documents: 400 naming the problem, nothing written', () =>
     const d = withNode(0, { kind: 'hatch' });
     d.edges[1] = { ...d.edges[1], lengthM: -1 };
     const error = await expectRefused(stationDocumentFile(d), 400);
-    expect(error.details!.map((x) => x.path)).toEqual(expect.arrayContaining(['nodes[0].kind', 'edges[1].lengthM']));
+    expect(error.details!.map((x) => x.path)).toEqual(
+      expect.arrayContaining(['nodes[0].kind', 'edges[1].lengthM']),
+    );
   });
 });
 

@@ -13,7 +13,9 @@ beforeAll(async () => {
 afterAll(() => t.close());
 
 async function newStation() {
-  const res = await engineer.post('/api/stations/import').attach('file', stationDocumentFile(buildStationDocument()), 's.json');
+  const res = await engineer
+    .post('/api/stations/import')
+    .attach('file', stationDocumentFile(buildStationDocument()), 's.json');
   expect(res.status).toBe(201);
   return res.body.station.id as number;
 }
@@ -33,8 +35,17 @@ describe('POST /api/stations/:id/import-csv', () => {
       'CSV-A1,anchor,New anchor,11,0,1.5,,,,',
       'CSV-S1,socket,"Socket, fore",11,1.5,0,0,1,0,',
     );
-    const edges = csv('from,to,kind,lengthM,closed', `${FIXTURE_KEYS.anchorFar},CSV-A1,handrail,3.1,`, 'CSV-A1,CSV-S1,hop,,yes', `${FIXTURE_KEYS.anchorNear},${FIXTURE_KEYS.junction},handrail,,true`);
-    const res = await engineer.post(`/api/stations/${id}/import-csv`).field('version', '1').attach('nodes', nodes, 'nodes.csv').attach('edges', edges, 'edges.csv');
+    const edges = csv(
+      'from,to,kind,lengthM,closed',
+      `${FIXTURE_KEYS.anchorFar},CSV-A1,handrail,3.1,`,
+      'CSV-A1,CSV-S1,hop,,yes',
+      `${FIXTURE_KEYS.anchorNear},${FIXTURE_KEYS.junction},handrail,,true`,
+    );
+    const res = await engineer
+      .post(`/api/stations/${id}/import-csv`)
+      .field('version', '1')
+      .attach('nodes', nodes, 'nodes.csv')
+      .attach('edges', edges, 'edges.csv');
     expect(res.status).toBe(200);
     expect(res.body.station.version).toBe(2);
     expect(res.body.added).toEqual({ nodes: 2, edges: 2 });
@@ -49,13 +60,32 @@ describe('POST /api/stations/:id/import-csv', () => {
       position: [5, 0.5, 1.5],
       notes: 'now an anchor',
     });
-    expect(g.nodes.find((n) => n.key === 'CSV-S1')).toMatchObject({ label: 'Socket, fore', normal: [0, 1, 0] });
-    expect(g.edges.find((e) => e.from === 'CSV-A1' && e.to === 'CSV-S1')).toMatchObject({ kind: 'hop', closed: true, lengthGiven: false, lengthM: Math.hypot(1.5, 1.5) });
-    expect(g.edges.find((e) => e.from === FIXTURE_KEYS.anchorNear && e.to === FIXTURE_KEYS.junction)).toMatchObject({ closed: true });
-    expect(g.edges.filter((e) => [e.from, e.to].sort().join() === [FIXTURE_KEYS.anchorNear, FIXTURE_KEYS.junction].sort().join())).toHaveLength(1);
+    expect(g.nodes.find((n) => n.key === 'CSV-S1')).toMatchObject({
+      label: 'Socket, fore',
+      normal: [0, 1, 0],
+    });
+    expect(g.edges.find((e) => e.from === 'CSV-A1' && e.to === 'CSV-S1')).toMatchObject({
+      kind: 'hop',
+      closed: true,
+      lengthGiven: false,
+      lengthM: Math.hypot(1.5, 1.5),
+    });
+    expect(
+      g.edges.find((e) => e.from === FIXTURE_KEYS.anchorNear && e.to === FIXTURE_KEYS.junction),
+    ).toMatchObject({ closed: true });
+    expect(
+      g.edges.filter(
+        (e) =>
+          [e.from, e.to].sort().join() === [FIXTURE_KEYS.anchorNear, FIXTURE_KEYS.junction].sort().join(),
+      ),
+    ).toHaveLength(1);
 
     const audit = await engineer.get(`/api/stations/${id}/audit`);
-    expect(audit.body.items[0]).toMatchObject({ action: 'station.import-csv', versionAfter: 2, user: { name: 'Mei Hartmann' } });
+    expect(audit.body.items[0]).toMatchObject({
+      action: 'station.import-csv',
+      versionAfter: 2,
+      user: { name: 'Mei Hartmann' },
+    });
   });
 
   it('reports a bad line by line and column and writes nothing', async () => {
@@ -73,7 +103,11 @@ describe('POST /api/stations/:id/import-csv', () => {
       'BAD-3,hatch,1,2,3,,,',
     );
     const edges = csv('from,to,kind', 'OK-1,NOWHERE,handrail');
-    const res = await engineer.post(`/api/stations/${id}/import-csv`).field('version', '1').attach('nodes', nodes, 'nodes.csv').attach('edges', edges, 'edges.csv');
+    const res = await engineer
+      .post(`/api/stations/${id}/import-csv`)
+      .field('version', '1')
+      .attach('nodes', nodes, 'nodes.csv')
+      .attach('edges', edges, 'edges.csv');
     expect(res.status).toBe(400);
     expect(res.body.error.message).toContain('nodes.csv line 7, column x: must be a finite number');
     expect(res.body.error.details).toEqual(
@@ -93,32 +127,58 @@ describe('POST /api/stations/:id/import-csv', () => {
     const id = await newStation();
     const nodes = csv('key,kind,x,y,z', 'NEW-1,anchor,1,2,3');
     const edges = csv('from,to,kind,lengthM', 'NEW-1,AL-1,handrail,2', 'NEW-1,GHOST,handrail,1');
-    const res = await engineer.post(`/api/stations/${id}/import-csv?version=1`).attach('nodes', nodes, 'nodes.csv').attach('edges', edges, 'edges.csv');
+    const res = await engineer
+      .post(`/api/stations/${id}/import-csv?version=1`)
+      .attach('nodes', nodes, 'nodes.csv')
+      .attach('edges', edges, 'edges.csv');
     expect(res.status).toBe(400);
-    expect(res.body.error.details).toEqual([{ path: 'edges.csv line 3, column to', message: 'unknown node key "GHOST"' }]);
+    expect(res.body.error.details).toEqual([
+      { path: 'edges.csv line 3, column to', message: 'unknown node key "GHOST"' },
+    ]);
     expect((await graph(id)).nodes.some((n) => n.key === 'NEW-1')).toBe(false);
   });
 
   it('counts lines from the text, so a quoted field over two lines does not shift later reports', async () => {
     const id = await newStation();
-    const nodes = csv('key,kind,x,y,z,notes', 'Q-1,anchor,1,2,3,"first line', 'second line"', 'Q-2,anchor,1,2,oops,');
-    const res = await engineer.post(`/api/stations/${id}/import-csv?version=1`).attach('nodes', nodes, 'nodes.csv');
+    const nodes = csv(
+      'key,kind,x,y,z,notes',
+      'Q-1,anchor,1,2,3,"first line',
+      'second line"',
+      'Q-2,anchor,1,2,oops,',
+    );
+    const res = await engineer
+      .post(`/api/stations/${id}/import-csv?version=1`)
+      .attach('nodes', nodes, 'nodes.csv');
     expect(res.status).toBe(400);
-    expect(res.body.error.details).toEqual([{ path: 'nodes.csv line 4, column z', message: 'must be a finite number' }]);
+    expect(res.body.error.details).toEqual([
+      { path: 'nodes.csv line 4, column z', message: 'must be a finite number' },
+    ]);
   });
 
   it('an unknown column, a stale version, a missing file and a viewer are refused', async () => {
     const id = await newStation();
-    const unknown = await engineer.post(`/api/stations/${id}/import-csv?version=1`).attach('nodes', csv('key,kind,x,y,z,colour', 'U-1,anchor,1,2,3,red'), 'nodes.csv');
+    const unknown = await engineer
+      .post(`/api/stations/${id}/import-csv?version=1`)
+      .attach('nodes', csv('key,kind,x,y,z,colour', 'U-1,anchor,1,2,3,red'), 'nodes.csv');
     expect(unknown.status).toBe(400);
     expect(unknown.body.error.details[0].path).toBe('nodes.csv line 1, column colour');
 
-    const stale = await engineer.post(`/api/stations/${id}/import-csv?version=7`).attach('nodes', csv('key,kind,x,y,z', 'U-1,anchor,1,2,3'), 'nodes.csv');
+    const stale = await engineer
+      .post(`/api/stations/${id}/import-csv?version=7`)
+      .attach('nodes', csv('key,kind,x,y,z', 'U-1,anchor,1,2,3'), 'nodes.csv');
     expect(stale.status).toBe(409);
 
-    expect((await engineer.post(`/api/stations/${id}/import-csv?version=1`).field('x', '1')).status).toBe(400);
+    expect((await engineer.post(`/api/stations/${id}/import-csv?version=1`).field('x', '1')).status).toBe(
+      400,
+    );
     const viewer = await t.agent('viewer');
-    expect((await viewer.post(`/api/stations/${id}/import-csv?version=1`).attach('nodes', csv('key,kind,x,y,z', 'U-1,anchor,1,2,3'), 'nodes.csv')).status).toBe(403);
+    expect(
+      (
+        await viewer
+          .post(`/api/stations/${id}/import-csv?version=1`)
+          .attach('nodes', csv('key,kind,x,y,z', 'U-1,anchor,1,2,3'), 'nodes.csv')
+      ).status,
+    ).toBe(403);
     expect((await graph(id)).station.version).toBe(1);
   });
 });

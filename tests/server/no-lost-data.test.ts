@@ -10,7 +10,9 @@ let stationId: number;
 beforeAll(async () => {
   t = await makeTestApp();
   const engineer = await t.agent('engineer');
-  const res = await engineer.post('/api/stations/import').attach('file', stationDocumentFile(), 'station.tetherwise.json');
+  const res = await engineer
+    .post('/api/stations/import')
+    .attach('file', stationDocumentFile(), 'station.tetherwise.json');
   expect(res.status).toBe(201);
   stationId = res.body.station.id;
 });
@@ -37,7 +39,9 @@ describe('concurrent edits', () => {
     const winner = results.findIndex((r) => r.status === 200);
     const after = await graphOf();
     expect(after.station.version).toBe(version + 1);
-    expect(after.nodes.find((n: { key: string }) => n.key === FIXTURE_KEYS.anchorNear).label).toBe(`edit ${winner}`);
+    expect(after.nodes.find((n: { key: string }) => n.key === FIXTURE_KEYS.anchorNear).label).toBe(
+      `edit ${winner}`,
+    );
   });
 
   it('eight concurrent plan edits of one version: one wins, seven 409', async () => {
@@ -52,7 +56,9 @@ describe('concurrent edits', () => {
     const id = created.body.id ?? created.body.plan?.id;
     const version = created.body.version ?? created.body.plan?.version;
     const results = await Promise.all(
-      Array.from({ length: 8 }, (_, i) => planner.patch(`/api/plans/${id}`).send({ version, title: `Title ${i}` })),
+      Array.from({ length: 8 }, (_, i) =>
+        planner.patch(`/api/plans/${id}`).send({ version, title: `Title ${i}` }),
+      ),
     );
     expect(results.map((r) => r.status).sort()).toEqual([200, 409, 409, 409, 409, 409, 409, 409]);
   });
@@ -63,7 +69,15 @@ describe('a crash in the middle of an import', () => {
     const before = await graphOf();
     const child = spawnSync(
       process.execPath,
-      ['--import', 'tsx', path.join(__dirname, 'fixtures', 'crash-mid-import.ts'), t.ctx.config.databaseUrl, t.dir, String(stationId), String(before.station.version)],
+      [
+        '--import',
+        'tsx',
+        path.join(__dirname, 'fixtures', 'crash-mid-import.ts'),
+        t.ctx.config.databaseUrl,
+        t.dir,
+        String(stationId),
+        String(before.station.version),
+      ],
       { encoding: 'utf8', timeout: 60_000 },
     );
     expect(child.signal, child.stdout + child.stderr).toBe('SIGKILL');

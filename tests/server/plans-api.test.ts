@@ -13,7 +13,9 @@ let stationId: number;
 /** The factory station with the worksite's edge open and a second worksite in reach of the socket. */
 function planStation() {
   const doc = buildStationDocument();
-  doc.edges = doc.edges.map((e) => (e.from === K.socket && e.to === K.worksite ? { ...e, closed: false } : e));
+  doc.edges = doc.edges.map((e) =>
+    e.from === K.socket && e.to === K.worksite ? { ...e, closed: false } : e,
+  );
   doc.nodes.push({ key: NEAR_SITE, kind: 'worksite', label: 'Valve panel', position: [9, 2.5, 0.4] });
   doc.edges.push({ from: K.socket, to: NEAR_SITE, kind: 'handrail' });
   return doc;
@@ -24,11 +26,35 @@ function planBody(overrides: Record<string, unknown> = {}) {
     title: 'Pump module swap, test',
     stationId,
     date: '2031-03-14',
-    crew: { EV1: { name: 'Ana Vidal', tetherLengthM: 25.9 }, EV2: { name: 'Bo Lindgren', tetherLengthM: 25.9 } },
+    crew: {
+      EV1: { name: 'Ana Vidal', tetherLengthM: 25.9 },
+      EV2: { name: 'Bo Lindgren', tetherLengthM: 25.9 },
+    },
     tasks: [
-      { title: 'Demate power connectors', worksite: K.worksite, crew: 'EV1', durationSeconds: 600, eclipseOnly: true, tools: ['Torque wrench'] },
-      { title: 'Swap pump, "main" unit', worksite: NEAR_SITE, crew: 'both', durationSeconds: 1800, socket: K.socket, carrying: true, tools: ['Pump bag'] },
-      { title: 'Inspect pump site', worksite: K.worksite, crew: 'EV2', durationSeconds: 300, socket: K.socket },
+      {
+        title: 'Demate power connectors',
+        worksite: K.worksite,
+        crew: 'EV1',
+        durationSeconds: 600,
+        eclipseOnly: true,
+        tools: ['Torque wrench'],
+      },
+      {
+        title: 'Swap pump, "main" unit',
+        worksite: NEAR_SITE,
+        crew: 'both',
+        durationSeconds: 1800,
+        socket: K.socket,
+        carrying: true,
+        tools: ['Pump bag'],
+      },
+      {
+        title: 'Inspect pump site',
+        worksite: K.worksite,
+        crew: 'EV2',
+        durationSeconds: 300,
+        socket: K.socket,
+      },
     ],
     manifest: [
       { name: 'Torque wrench', kind: 'tool', carriedBy: 'EV1', endsAt: 'airlock' },
@@ -41,13 +67,20 @@ function planBody(overrides: Record<string, unknown> = {}) {
 
 beforeAll(async () => {
   t = await makeTestApp({ publicOrigin: ORIGIN });
-  const res = await (await t.agent('engineer')).post('/api/stations/import').attach('file', stationDocumentFile(planStation()), 'station.json');
+  const res = await (
+    await t.agent('engineer')
+  )
+    .post('/api/stations/import')
+    .attach('file', stationDocumentFile(planStation()), 'station.json');
   expect(res.status, JSON.stringify(res.body)).toBe(201);
   stationId = res.body.station.id;
 });
 afterAll(() => t.close());
 
-async function createPlan(overrides: Record<string, unknown> = {}, role: 'planner' | 'planner2' | 'admin' = 'planner') {
+async function createPlan(
+  overrides: Record<string, unknown> = {},
+  role: 'planner' | 'planner2' | 'admin' = 'planner',
+) {
   const res = await (await t.agent(role)).post('/api/plans').send(planBody(overrides));
   expect(res.status, JSON.stringify(res.body)).toBe(201);
   return res.body;
@@ -60,17 +93,33 @@ async function mailbox(): Promise<{ to: string; subject: string; text: string }[
   return res.body;
 }
 
-const review = async (agent: TestAgent, id: number, action: string, body: object) => agent.post(`/api/plans/${id}/${action}`).send(body);
+const review = async (agent: TestAgent, id: number, action: string, body: object) =>
+  agent.post(`/api/plans/${id}/${action}`).send(body);
 
 describe('plans CRUD', () => {
   it('a planner creates a draft; GET returns crew, tasks in order, manifest, author', async () => {
     const created = await createPlan();
-    expect(created).toMatchObject({ status: 'draft', version: 1, authorName: 'Priya Lindqvist', stationId, routeMode: 'balanced' });
+    expect(created).toMatchObject({
+      status: 'draft',
+      version: 1,
+      authorName: 'Priya Lindqvist',
+      stationId,
+      routeMode: 'balanced',
+    });
     const got = (await (await t.agent('viewer')).get(`/api/plans/${created.id}`)).body;
     expect(got.crew.EV2).toEqual({ name: 'Bo Lindgren', tetherLengthM: 25.9 });
     expect(got.tasks.map((x: { title: string }) => x.title)).toEqual(planBody().tasks.map((x) => x.title));
-    expect(got.tasks[1]).toMatchObject({ socket: K.socket, crew: 'both', carrying: true, tools: ['Pump bag'] });
-    expect(got.manifest.map((m: { name: string }) => m.name)).toEqual(['Torque wrench', 'Pump bag', 'Spare tether']);
+    expect(got.tasks[1]).toMatchObject({
+      socket: K.socket,
+      crew: 'both',
+      carrying: true,
+      tools: ['Pump bag'],
+    });
+    expect(got.manifest.map((m: { name: string }) => m.name)).toEqual([
+      'Torque wrench',
+      'Pump bag',
+      'Spare tether',
+    ]);
     expect(got.reviewComments).toEqual([]);
   });
 
@@ -85,21 +134,33 @@ describe('plans CRUD', () => {
       stationName: 'Test Station',
       authorName: 'Priya Lindqvist',
     });
-    expect((await viewer.get('/api/plans?status=draft')).body.some((p: { id: number }) => p.id === created.id)).toBe(true);
-    expect((await viewer.get('/api/plans?status=approved')).body.some((p: { id: number }) => p.id === created.id)).toBe(false);
+    expect(
+      (await viewer.get('/api/plans?status=draft')).body.some((p: { id: number }) => p.id === created.id),
+    ).toBe(true);
+    expect(
+      (await viewer.get('/api/plans?status=approved')).body.some((p: { id: number }) => p.id === created.id),
+    ).toBe(false);
     expect((await viewer.get('/api/plans?status=done')).status).toBe(400);
   });
 
   it('checks worksite and socket keys against the station, naming the task path', async () => {
     const planner = await t.agent('planner');
     const tasks = planBody().tasks;
-    const unknown = await planner.post('/api/plans').send(planBody({ tasks: [tasks[0], { ...tasks[1], worksite: 'NOWHERE-9' }] }));
+    const unknown = await planner
+      .post('/api/plans')
+      .send(planBody({ tasks: [tasks[0], { ...tasks[1], worksite: 'NOWHERE-9' }] }));
     expect(unknown.status).toBe(400);
-    expect(unknown.body.error.details).toEqual([{ path: 'body.tasks.1.worksite', message: expect.stringContaining('NOWHERE-9') }]);
-    const notSocket = await planner.post('/api/plans').send(planBody({ tasks: [{ ...tasks[0], socket: K.anchorFar }] }));
+    expect(unknown.body.error.details).toEqual([
+      { path: 'body.tasks.1.worksite', message: expect.stringContaining('NOWHERE-9') },
+    ]);
+    const notSocket = await planner
+      .post('/api/plans')
+      .send(planBody({ tasks: [{ ...tasks[0], socket: K.anchorFar }] }));
     expect(notSocket.status).toBe(400);
     expect(notSocket.body.error.details[0].path).toBe('body.tasks.0.socket');
-    const notWorksite = await planner.post('/api/plans').send(planBody({ tasks: [{ ...tasks[0], worksite: K.anchorNear }] }));
+    const notWorksite = await planner
+      .post('/api/plans')
+      .send(planBody({ tasks: [{ ...tasks[0], worksite: K.anchorNear }] }));
     expect(notWorksite.body.error.details[0].path).toBe('body.tasks.0.worksite');
     expect((await planner.post('/api/plans').send(planBody({ stationId: 9999 }))).status).toBe(400);
     expect((await planner.post('/api/plans').send(planBody({ colour: 'red' }))).status).toBe(400);
@@ -111,7 +172,10 @@ describe('plans CRUD', () => {
     for (const role of ['viewer', 'trainer', 'engineer'] as const) {
       const agent = await t.agent(role);
       expect((await agent.post('/api/plans').send(planBody())).status, role).toBe(403);
-      expect((await agent.patch(`/api/plans/${created.id}`).send({ version: 1, title: 'x' })).status, role).toBe(403);
+      expect(
+        (await agent.patch(`/api/plans/${created.id}`).send({ version: 1, title: 'x' })).status,
+        role,
+      ).toBe(403);
       expect((await agent.delete(`/api/plans/${created.id}?version=1`)).status, role).toBe(403);
     }
     expect((await t.anonymous().get('/api/plans')).status).toBe(401);
@@ -120,13 +184,17 @@ describe('plans CRUD', () => {
   it('PATCH replaces tasks and bumps the version; a stale PATCH is 409, names the change, and changes nothing', async () => {
     const created = await createPlan();
     const planner2 = await t.agent('planner2');
-    const first = await planner2.patch(`/api/plans/${created.id}`).send({ version: 1, title: 'Renamed', tasks: [planBody().tasks[1]] });
+    const first = await planner2
+      .patch(`/api/plans/${created.id}`)
+      .send({ version: 1, title: 'Renamed', tasks: [planBody().tasks[1]] });
     expect(first.status, JSON.stringify(first.body)).toBe(200);
     expect(first.body).toMatchObject({ version: 2, title: 'Renamed' });
     expect(first.body.tasks).toHaveLength(1);
 
     const planner = await t.agent('planner');
-    const stale = await planner.patch(`/api/plans/${created.id}`).send({ version: 1, title: 'Lost update', tasks: [] });
+    const stale = await planner
+      .patch(`/api/plans/${created.id}`)
+      .send({ version: 1, title: 'Lost update', tasks: [] });
     expect(stale.status).toBe(409);
     expect(stale.body.error.code).toBe('CONFLICT');
     expect(stale.body.error.message).toContain('version 2');
@@ -135,12 +203,17 @@ describe('plans CRUD', () => {
     expect(now).toMatchObject({ version: 2, title: 'Renamed' });
     expect(now.tasks).toHaveLength(1);
 
-    const bad = await planner.patch(`/api/plans/${created.id}`).send({ version: 2, tasks: [{ ...planBody().tasks[0], worksite: 'NOPE-3' }] });
+    const bad = await planner
+      .patch(`/api/plans/${created.id}`)
+      .send({ version: 2, tasks: [{ ...planBody().tasks[0], worksite: 'NOPE-3' }] });
     expect(bad.status).toBe(400);
     expect((await planner.patch(`/api/plans/${created.id}`).send({ title: 'no version' })).status).toBe(400);
     const cleared = await planner.patch(`/api/plans/${created.id}`).send({ version: 2, betaDegOverride: 55 });
     expect(cleared.body.betaDegOverride).toBe(55);
-    expect((await planner.patch(`/api/plans/${created.id}`).send({ version: 3, betaDegOverride: null })).body.betaDegOverride).toBeNull();
+    expect(
+      (await planner.patch(`/api/plans/${created.id}`).send({ version: 3, betaDegOverride: null })).body
+        .betaDegOverride,
+    ).toBeNull();
   });
 
   it('DELETE needs the current version and a draft', async () => {
@@ -162,7 +235,9 @@ describe('review: submit, approve, return', () => {
     const created = await createPlan({ title: 'Review mail plan' });
     const planner = await t.agent('planner');
     for (const role of ['viewer', 'trainer', 'engineer'] as const) {
-      expect((await review(await t.agent(role), created.id, 'submit', { version: 1 })).status, role).toBe(403);
+      expect((await review(await t.agent(role), created.id, 'submit', { version: 1 })).status, role).toBe(
+        403,
+      );
     }
     const res = await review(planner, created.id, 'submit', { version: 1, comment: 'ready for a look' });
     expect(res.status, JSON.stringify(res.body)).toBe(200);
@@ -189,7 +264,9 @@ describe('review: submit, approve, return', () => {
     expect(own.status).toBe(403);
     expect(own.body.error.message).toMatch(/another planner/i);
     for (const role of ['viewer', 'trainer', 'engineer'] as const) {
-      expect((await review(await t.agent(role), created.id, 'approve', { version: 2 })).status, role).toBe(403);
+      expect((await review(await t.agent(role), created.id, 'approve', { version: 2 })).status, role).toBe(
+        403,
+      );
     }
     const planner2 = await t.agent('planner2');
     expect((await review(planner2, created.id, 'approve', { version: 1 })).status).toBe(409);
@@ -198,30 +275,46 @@ describe('review: submit, approve, return', () => {
     expect(ok.body).toMatchObject({ status: 'approved', approverName: 'Tomas Reyes', version: 3 });
     const mails = await mailbox();
     expect(mails).toHaveLength(1);
-    expect(mails[0]).toMatchObject({ to: 'planner@example.org', subject: expect.stringContaining('Approval plan') });
+    expect(mails[0]).toMatchObject({
+      to: 'planner@example.org',
+      subject: expect.stringContaining('Approval plan'),
+    });
     expect(mails[0].text).toContain(`${ORIGIN}/plans/${created.id}`);
 
-    expect((await planner.patch(`/api/plans/${created.id}`).send({ version: 3, title: 'x' })).status).toBe(409);
+    expect((await planner.patch(`/api/plans/${created.id}`).send({ version: 3, title: 'x' })).status).toBe(
+      409,
+    );
     // an admin may reopen an approved plan, with a reason; the author hears of it
-    const reopened = await review(await t.agent('admin'), created.id, 'return', { version: 3, comment: 'station model changed' });
+    const reopened = await review(await t.agent('admin'), created.id, 'return', {
+      version: 3,
+      comment: 'station model changed',
+    });
     expect(reopened.body).toMatchObject({ status: 'draft', approverId: null });
     const back = await mailbox();
     expect(back).toHaveLength(1);
     expect(back[0].to).toBe('planner@example.org');
     expect(back[0].text).toContain('station model changed');
-    expect(reopened.body.reviewComments.map((c: { action: string }) => c.action)).toEqual(['submit', 'approve', 'return']);
+    expect(reopened.body.reviewComments.map((c: { action: string }) => c.action)).toEqual([
+      'submit',
+      'approve',
+      'return',
+    ]);
   });
 
-  it('an admin can approve a planner\'s plan; return needs a comment; the author may withdraw their own plan', async () => {
+  it("an admin can approve a planner's plan; return needs a comment; the author may withdraw their own plan", async () => {
     const a = await createPlan({ title: 'Admin approves' });
     const planner = await t.agent('planner');
     await review(planner, a.id, 'submit', { version: 1 });
-    expect((await review(await t.agent('admin'), a.id, 'approve', { version: 2 })).body.status).toBe('approved');
+    expect((await review(await t.agent('admin'), a.id, 'approve', { version: 2 })).body.status).toBe(
+      'approved',
+    );
 
     const b = await createPlan({ title: 'Withdrawn' });
     await review(planner, b.id, 'submit', { version: 1 });
     expect((await review(await t.agent('planner2'), b.id, 'return', { version: 2 })).status).toBe(400);
-    expect((await review(await t.agent('planner2'), b.id, 'return', { version: 2, comment: '  ' })).status).toBe(400);
+    expect(
+      (await review(await t.agent('planner2'), b.id, 'return', { version: 2, comment: '  ' })).status,
+    ).toBe(400);
     await mailbox();
     const withdrawn = await review(planner, b.id, 'return', { version: 2, comment: 'forgot the bag' });
     expect(withdrawn.body).toMatchObject({ status: 'draft', version: 3 });
@@ -255,14 +348,19 @@ describe('timeline and exports', () => {
       expect(types.at(-1), m).toBe('ingress');
       expect(types).toContain('translate');
     }
-    const work = (m: 'EV1' | 'EV2') => timeline.crew[m].blocks.filter((b) => b.type === 'work').map((b) => b.taskIndex);
+    const work = (m: 'EV1' | 'EV2') =>
+      timeline.crew[m].blocks.filter((b) => b.type === 'work').map((b) => b.taskIndex);
     expect(work('EV1')).toEqual([0, 1]);
     expect(work('EV2')).toEqual([1, 2]);
   });
 
   it('warns about the eclipse-only task scheduled in daylight (orbit phase 0 is sunrise)', () => {
-    expect(timeline.warnings.some((w) => w.code === 'eclipse-only-outside-night' && w.taskIndex === 0)).toBe(true);
-    expect(timeline.warnings.some((w) => w.code === 'eclipse-only-outside-night' && w.taskIndex !== 0)).toBe(false);
+    expect(timeline.warnings.some((w) => w.code === 'eclipse-only-outside-night' && w.taskIndex === 0)).toBe(
+      true,
+    );
+    expect(timeline.warnings.some((w) => w.code === 'eclipse-only-outside-night' && w.taskIndex !== 0)).toBe(
+      false,
+    );
   });
 
   it('reports reach per task with a socket and warns where the socket does not reach the worksite', () => {
@@ -270,11 +368,15 @@ describe('timeline and exports', () => {
       [1, true],
       [2, false],
     ]);
-    expect(timeline.reachWarnings).toEqual([expect.objectContaining({ code: 'socket-out-of-reach', taskIndex: 2 })]);
+    expect(timeline.reachWarnings).toEqual([
+      expect.objectContaining({ code: 'socket-out-of-reach', taskIndex: 2 }),
+    ]);
   });
 
   it('carries the inventory warnings and the planning-aid caution', () => {
-    expect(timeline.inventoryWarnings).toContainEqual(expect.objectContaining({ code: 'missing-end', item: 'Spare tether' }));
+    expect(timeline.inventoryWarnings).toContainEqual(
+      expect.objectContaining({ code: 'missing-end', item: 'Spare tether' }),
+    );
     expect(timeline.caution).toMatch(/planning aid/);
   });
 
@@ -295,7 +397,9 @@ describe('timeline and exports', () => {
   });
 
   it('PDF: a cue-card document in Inter with the crew steps and the caution', async () => {
-    const res = await (await t.agent('trainer'))
+    const res = await (
+      await t.agent('trainer')
+    )
       .get(`/api/plans/${planId}/export.pdf`)
       .buffer(true)
       .parse((r, cb) => {
@@ -335,7 +439,10 @@ function pdfText(pdf: Buffer): string {
     for (const r of body.matchAll(/<([0-9a-f]{4})> <([0-9a-f]{4})> \[([^\]]*)\]/gi)) {
       const start = parseInt(r[1], 16);
       [...r[3].matchAll(/<([0-9a-f ]*)>/gi)].forEach((e, i) => {
-        const chars = e[1].split(' ').filter(Boolean).map((h) => String.fromCodePoint(parseInt(h, 16)));
+        const chars = e[1]
+          .split(' ')
+          .filter(Boolean)
+          .map((h) => String.fromCodePoint(parseInt(h, 16)));
         map.set((start + i).toString(16).padStart(4, '0'), chars.join(''));
       });
     }

@@ -18,8 +18,15 @@ describe('demo plans on Kestrel Station', () => {
     const viewer = await t.agent('viewer');
     const list = (await viewer.get('/api/plans')).body;
     const byTitle = Object.fromEntries(list.map((p: { title: string }) => [p.title, p]));
-    expect(byTitle['Coolant pump module swap']).toMatchObject({ status: 'draft', authorName: 'Priya Lindqvist', stationName: 'Kestrel Station' });
-    expect(byTitle['External camera boom install']).toMatchObject({ status: 'approved', authorName: 'Priya Lindqvist' });
+    expect(byTitle['Coolant pump module swap']).toMatchObject({
+      status: 'draft',
+      authorName: 'Priya Lindqvist',
+      stationName: 'Kestrel Station',
+    });
+    expect(byTitle['External camera boom install']).toMatchObject({
+      status: 'approved',
+      authorName: 'Priya Lindqvist',
+    });
     const camera = (await viewer.get(`/api/plans/${byTitle['External camera boom install'].id}`)).body;
     expect(camera.approverName).toBe('Tomas Reyes');
     expect(camera.reviewComments.map((c: { action: string }) => c.action)).toEqual(['submit', 'approve']);

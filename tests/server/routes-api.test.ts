@@ -8,7 +8,9 @@ let stationId: number;
 
 async function importStation(doc: unknown = buildStationDocument()): Promise<number> {
   const engineer = await t.agent('engineer');
-  const res = await engineer.post('/api/stations/import').attach('file', stationDocumentFile(doc), 'station.json');
+  const res = await engineer
+    .post('/api/stations/import')
+    .attach('file', stationDocumentFile(doc), 'station.json');
   expect(res.status).toBe(201);
   return res.body.station.id;
 }
@@ -31,11 +33,27 @@ describe('POST /api/stations/:id/routes (DESIGN §8)', () => {
     const res = await route({ from: K.airlock, to: K.socket, mode: 'fastest' });
     expect(res.status).toBe(200);
     const body = res.body;
-    for (const field of ['feasible', 'nodes', 'lengthM', 'travelSeconds', 'swapCount', 'swaps', 'totalSeconds', 'warnings']) {
+    for (const field of [
+      'feasible',
+      'nodes',
+      'lengthM',
+      'travelSeconds',
+      'swapCount',
+      'swaps',
+      'totalSeconds',
+      'warnings',
+    ]) {
       expect(body).toHaveProperty(field);
     }
     expect(body.feasible).toBe(true);
-    expect(body.nodes).toEqual([K.airlock, K.anchorNear, K.junction, K.anchorFar, K.anchorOtherFace, K.socket]);
+    expect(body.nodes).toEqual([
+      K.airlock,
+      K.anchorNear,
+      K.junction,
+      K.anchorFar,
+      K.anchorOtherFace,
+      K.socket,
+    ]);
     expect(body.lengthM).toBeCloseTo(TO_SOCKET_M, 9);
     // handrail and hop at 0.1 m/s plus the 30 s hop overhead (factory uses the default settings)
     expect(body.travelSeconds).toBeCloseTo(TO_SOCKET_M / 0.1 + 30, 6);
@@ -74,10 +92,17 @@ describe('POST /api/stations/:id/routes (DESIGN §8)', () => {
 
   it('every signed-in role may compute; signed out is 401', async () => {
     for (const role of ['admin', 'planner', 'planner2', 'engineer', 'trainer', 'viewer'] as const) {
-      const res = await (await t.agent(role)).post(`/api/stations/${stationId}/routes`).send({ from: K.airlock, to: K.socket, mode: 'fastest' });
+      const res = await (
+        await t.agent(role)
+      )
+        .post(`/api/stations/${stationId}/routes`)
+        .send({ from: K.airlock, to: K.socket, mode: 'fastest' });
       expect(res.status, role).toBe(200);
     }
-    const anon = await t.anonymous().post(`/api/stations/${stationId}/routes`).send({ from: K.airlock, to: K.socket, mode: 'fastest' });
+    const anon = await t
+      .anonymous()
+      .post(`/api/stations/${stationId}/routes`)
+      .send({ from: K.airlock, to: K.socket, mode: 'fastest' });
     expect(anon.status).toBe(401);
   });
 
@@ -111,7 +136,15 @@ describe('POST /api/stations/:id/routes (DESIGN §8)', () => {
   });
 
   it('400 for a station id that is not a number', async () => {
-    expect((await (await t.agent('viewer')).post('/api/stations/abc/routes').send({ from: K.airlock, to: K.socket, mode: 'fastest' })).status).toBe(400);
+    expect(
+      (
+        await (
+          await t.agent('viewer')
+        )
+          .post('/api/stations/abc/routes')
+          .send({ from: K.airlock, to: K.socket, mode: 'fastest' })
+      ).status,
+    ).toBe(400);
   });
 });
 
@@ -129,7 +162,9 @@ describe('compiled-station cache', () => {
 
     const engineer = await t.agent('engineer');
     const graph = (await engineer.get(`/api/stations/${stationId}/graph`)).body;
-    const edge = graph.edges.find((e: { from: string; to: string }) => e.from === K.socket && e.to === K.worksite);
+    const edge = graph.edges.find(
+      (e: { from: string; to: string }) => e.from === K.socket && e.to === K.worksite,
+    );
     const patch = await engineer
       .patch(`/api/stations/${stationId}/edges/${edge.id}`)
       .send({ version: graph.station.version, edge: { closed: false } });
@@ -160,7 +195,8 @@ describe('compiled-station cache', () => {
 
   it('keeps a few stations, least recently used out first; another app has its own cache', async () => {
     const ids = [stationId];
-    for (let i = 0; i < 5; i++) ids.push(await importStation(buildStationDocument({ name: `Cache station ${i}` })));
+    for (let i = 0; i < 5; i++)
+      ids.push(await importStation(buildStationDocument({ name: `Cache station ${i}` })));
     for (const id of ids) getCompiledStation(t.ctx, id);
     const held = cachedStationIds(t.ctx);
     expect(held.length).toBe(4);

@@ -7,7 +7,9 @@ let stationId: number;
 
 beforeAll(async () => {
   t = await makeTestApp();
-  const res = await (await t.agent('engineer'))
+  const res = await (
+    await t.agent('engineer')
+  )
     .post('/api/stations/import')
     .attach('file', stationDocumentFile(buildStationDocument()), 'station.json');
   expect(res.status).toBe(201);
@@ -57,7 +59,13 @@ describe('POST /api/stations/:id/reach', () => {
 
 describe('POST /api/stations/:id/socket-plan', () => {
   it('picks the existing socket that reaches the targets and lists uncovered ones by index', async () => {
-    const res = await post('socket-plan', { targets: [[9, 2.5, 0.5], [100, 100, 100], [9.3, 2.5, 0]] });
+    const res = await post('socket-plan', {
+      targets: [
+        [9, 2.5, 0.5],
+        [100, 100, 100],
+        [9.3, 2.5, 0],
+      ],
+    });
     expect(res.status).toBe(200);
     expect(res.body).toMatchObject({ sockets: [K.socket], exact: true, uncovered: [1] });
     expect(res.body.assignments.map((a: { target: number }) => a.target)).toEqual([0, 2]);
@@ -93,8 +101,12 @@ describe('POST /api/stations/:id/socket-plan', () => {
   });
 
   it('candidate keys: unknown → 404, not a socket → 400; bad bodies → 400', async () => {
-    expect((await post('socket-plan', { targets: [[9, 2.5, 0.5]], candidates: ['NOPE-2'] })).status).toBe(404);
-    expect((await post('socket-plan', { targets: [[9, 2.5, 0.5]], candidates: [K.worksite] })).status).toBe(400);
+    expect((await post('socket-plan', { targets: [[9, 2.5, 0.5]], candidates: ['NOPE-2'] })).status).toBe(
+      404,
+    );
+    expect((await post('socket-plan', { targets: [[9, 2.5, 0.5]], candidates: [K.worksite] })).status).toBe(
+      400,
+    );
     expect((await post('socket-plan', { targets: [] })).status).toBe(400);
     expect((await post('socket-plan', { targets: [[9, 2.5, 0.5]], gridSpacingM: 0 })).status).toBe(400);
     expect((await post('socket-plan', { targets: [[9, 2.5, 0.5]], gridSpacingM: 'NaN' })).status).toBe(400);
@@ -108,10 +120,18 @@ describe('POST /api/stations/:id/socket-plan/accept', () => {
     const plan = await post('socket-plan', { targets: [[5, 2.5, 0]], gridSpacingM: 1 });
     const planned = plan.body.sockets[0];
 
-    const denied = await post('socket-plan/accept', { version: before.station.version, sockets: [planned] }, 'planner');
+    const denied = await post(
+      'socket-plan/accept',
+      { version: before.station.version, sockets: [planned] },
+      'planner',
+    );
     expect(denied.status).toBe(403);
 
-    const res = await post('socket-plan/accept', { version: before.station.version, sockets: [planned] }, 'engineer');
+    const res = await post(
+      'socket-plan/accept',
+      { version: before.station.version, sockets: [planned] },
+      'engineer',
+    );
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body.version).toBe(before.station.version + 1);
     const [saved] = res.body.sockets;
@@ -120,8 +140,16 @@ describe('POST /api/stations/:id/socket-plan/accept', () => {
     expect(saved.joinedTo).toBe(K.junction);
 
     const after = (await engineer.get(`/api/stations/${stationId}/graph`)).body;
-    expect(after.nodes.find((n: { key: string }) => n.key === 'SKT-001')).toMatchObject({ kind: 'socket', normal: [0, 1, 0] });
-    expect(after.edges.some((e: { from: string; to: string; kind: string }) => e.from === K.junction && e.to === 'SKT-001' && e.kind === 'hop')).toBe(true);
+    expect(after.nodes.find((n: { key: string }) => n.key === 'SKT-001')).toMatchObject({
+      kind: 'socket',
+      normal: [0, 1, 0],
+    });
+    expect(
+      after.edges.some(
+        (e: { from: string; to: string; kind: string }) =>
+          e.from === K.junction && e.to === 'SKT-001' && e.kind === 'hop',
+      ),
+    ).toBe(true);
     const audit = (await engineer.get(`/api/stations/${stationId}/audit`)).body;
     expect(JSON.stringify(audit)).toContain('sockets.accept');
 
@@ -135,11 +163,26 @@ describe('POST /api/stations/:id/socket-plan/accept', () => {
   it('a stale version is 409 and adds nothing; a duplicate key is 400', async () => {
     const engineer = await t.agent('engineer');
     const graph = (await engineer.get(`/api/stations/${stationId}/graph`)).body;
-    const stale = await post('socket-plan/accept', { version: graph.station.version - 1, sockets: [{ position: [2, 1.5, 0], normal: [0, 1, 0] }] }, 'engineer');
+    const stale = await post(
+      'socket-plan/accept',
+      { version: graph.station.version - 1, sockets: [{ position: [2, 1.5, 0], normal: [0, 1, 0] }] },
+      'engineer',
+    );
     expect(stale.status).toBe(409);
-    const dup = await post('socket-plan/accept', { version: graph.station.version, sockets: [{ position: [2, 1.5, 0], normal: [0, 1, 0], key: K.socket }] }, 'engineer');
+    const dup = await post(
+      'socket-plan/accept',
+      {
+        version: graph.station.version,
+        sockets: [{ position: [2, 1.5, 0], normal: [0, 1, 0], key: K.socket }],
+      },
+      'engineer',
+    );
     expect(dup.status).toBe(400);
-    const zero = await post('socket-plan/accept', { version: graph.station.version, sockets: [{ position: [2, 1.5, 0], normal: [0, 0, 0] }] }, 'engineer');
+    const zero = await post(
+      'socket-plan/accept',
+      { version: graph.station.version, sockets: [{ position: [2, 1.5, 0], normal: [0, 0, 0] }] },
+      'engineer',
+    );
     expect(zero.status).toBe(400);
     const again = (await engineer.get(`/api/stations/${stationId}/graph`)).body;
     expect(again.station.version).toBe(graph.station.version);

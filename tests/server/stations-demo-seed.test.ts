@@ -38,20 +38,36 @@ describe('the Kestrel demo station', () => {
 
   it('has the parts the demo needs: modules, port and starboard bays, worksites with sockets, a ride', () => {
     const segKeys = g.segments.map((s) => s.key);
-    expect(segKeys).toEqual(expect.arrayContaining(['CB', 'PB1', 'PB2', 'PB3', 'PB4', 'SB1', 'SB2', 'SB3', 'SB4']));
+    expect(segKeys).toEqual(
+      expect.arrayContaining(['CB', 'PB1', 'PB2', 'PB3', 'PB4', 'SB1', 'SB2', 'SB3', 'SB4']),
+    );
     expect(g.segments.filter((s) => s.kind === 'module').length).toBeGreaterThanOrEqual(2);
     expect(g.nodes.filter((n) => n.kind === 'airlock')).toHaveLength(1);
     expect(g.nodes.some((n) => /^PB\d-A\d\d$/.test(n.key))).toBe(true);
     const worksites = g.nodes.filter((n) => n.kind === 'worksite').map((n) => n.label);
-    expect(worksites).toEqual(expect.arrayContaining(['Coolant pump module site', 'External camera boom mount', 'Power connector panel']));
-    for (const s of g.nodes.filter((n) => n.kind === 'socket')) expect(Math.hypot(...s.normal!)).toBeCloseTo(1, 9);
+    expect(worksites).toEqual(
+      expect.arrayContaining([
+        'Coolant pump module site',
+        'External camera boom mount',
+        'Power connector panel',
+      ]),
+    );
+    for (const s of g.nodes.filter((n) => n.kind === 'socket'))
+      expect(Math.hypot(...s.normal!)).toBeCloseTo(1, 9);
     expect(g.edges.filter((e) => e.kind === 'ride')).toHaveLength(1);
     expect(g.edges.filter((e) => e.kind === 'hop').length).toBeGreaterThan(10);
   });
 
   it('the radiator keep-out cuts handrails and the antenna caution crosses some; the graph stays connected', () => {
     const pos = new Map(g.nodes.map((n) => [n.key, n.position]));
-    const crossing = (key: string) => g.edges.filter((e) => segmentIntersectsHazard(pos.get(e.from)!, pos.get(e.to)!, g.hazards.find((h) => h.key === key)!));
+    const crossing = (key: string) =>
+      g.edges.filter((e) =>
+        segmentIntersectsHazard(
+          pos.get(e.from)!,
+          pos.get(e.to)!,
+          g.hazards.find((h) => h.key === key)!,
+        ),
+      );
     const keepOut = g.hazards.find((h) => h.kind === 'keep-out')!;
     const caution = g.hazards.find((h) => h.kind === 'caution')!;
     expect(crossing(keepOut.key).filter((e) => e.kind === 'handrail').length).toBeGreaterThan(4);
@@ -79,7 +95,10 @@ describe('the Kestrel demo station', () => {
 
   it('has one anchor gap longer than a 25.9 m tether and one between 55 ft and 85 ft (planning-interest stretches)', () => {
     const anchorGaps = (y: number, z: number) => {
-      const xs = g.nodes.filter((n) => n.kind === 'anchor' && n.position[1] === y && n.position[2] === z).map((n) => n.position[0]).sort((a, b) => a - b);
+      const xs = g.nodes
+        .filter((n) => n.kind === 'anchor' && n.position[1] === y && n.position[2] === z)
+        .map((n) => n.position[0])
+        .sort((a, b) => a - b);
       return Math.max(...xs.slice(1).map((x, i) => x - xs[i]));
     };
     expect(anchorGaps(0.75, -1.5)).toBeGreaterThan(25.9);

@@ -43,7 +43,9 @@ beforeAll(async () => {
 afterAll(() => t.close());
 
 async function importDoc(doc: unknown, agent = engineer) {
-  return agent.post('/api/stations/import').attach('file', stationDocumentFile(doc), 'station.tetherwise.json');
+  return agent
+    .post('/api/stations/import')
+    .attach('file', stationDocumentFile(doc), 'station.tetherwise.json');
 }
 
 async function graphOf(id: number): Promise<StationGraph> {
@@ -76,17 +78,41 @@ describe('POST /api/stations/import (DESIGN §8)', () => {
     expect(list.body.map((s: { id: number }) => s.id)).toContain(res.body.station.id);
 
     const g = await graphOf(res.body.station.id);
-    expect(g.station).toMatchObject({ id: res.body.station.id, name: 'Design example', version: 1, orbit: { altitudeKm: 410, betaDeg: 20 } });
+    expect(g.station).toMatchObject({
+      id: res.body.station.id,
+      name: 'Design example',
+      version: 1,
+      orbit: { altitudeKm: 410, betaDeg: 20 },
+    });
     expect(g.station.settings.reach).toMatchObject({ standOffM: 1, radiusM: 0.7 });
-    expect(g.nodes.find((n) => n.key === 'PB3-S1')).toEqual({ key: 'PB3-S1', kind: 'socket', position: [1, 2, 3], normal: [0, 0, 1] });
+    expect(g.nodes.find((n) => n.key === 'PB3-S1')).toEqual({
+      key: 'PB3-S1',
+      kind: 'socket',
+      position: [1, 2, 3],
+      normal: [0, 0, 1],
+    });
     // no length given: derived from the positions [1,2,3] → [4,2,3]
     expect(g.edges).toEqual([
-      { id: expect.any(Number), from: 'PB3-A07', to: 'PB3-J02', kind: 'handrail', lengthM: 3, lengthGiven: false, closed: false },
+      {
+        id: expect.any(Number),
+        from: 'PB3-A07',
+        to: 'PB3-J02',
+        kind: 'handrail',
+        lengthM: 3,
+        lengthGiven: false,
+        closed: false,
+      },
     ]);
   });
 
   it('fills the optional parts with their defaults', async () => {
-    const minimal = { format: 'tetherwise.station', version: 1, name: 'Bare', nodes: [{ key: 'A', kind: 'airlock', position: [0, 0, 0] }], edges: [] };
+    const minimal = {
+      format: 'tetherwise.station',
+      version: 1,
+      name: 'Bare',
+      nodes: [{ key: 'A', kind: 'airlock', position: [0, 0, 0] }],
+      edges: [],
+    };
     const res = await importDoc(minimal);
     expect(res.status).toBe(201);
     expect(res.body.counts).toEqual({ nodes: 1, edges: 0, hazards: 0, segments: 0 });
@@ -98,7 +124,10 @@ describe('POST /api/stations/import (DESIGN §8)', () => {
     for (const role of ['viewer', 'planner', 'trainer'] as const) {
       expect((await importDoc(DESIGN_EXAMPLE, await t.agent(role))).status).toBe(403);
     }
-    const anon = await t.anonymous().post('/api/stations/import').attach('file', stationDocumentFile(DESIGN_EXAMPLE), 'x.json');
+    const anon = await t
+      .anonymous()
+      .post('/api/stations/import')
+      .attach('file', stationDocumentFile(DESIGN_EXAMPLE), 'x.json');
     expect(anon.status).toBe(401);
   });
 
@@ -118,8 +147,13 @@ describe('GET /api/stations/:id/export', () => {
     const parsed = parseStationDocument(res.body);
     expect(parsed.ok).toBe(true);
     const given = res.body.edges.filter((e: { lengthM?: number }) => e.lengthM !== undefined);
-    expect(given).toEqual([{ from: FIXTURE_KEYS.junction, to: FIXTURE_KEYS.anchorFar, kind: 'handrail', lengthM: 3.2 }]);
-    expect(res.body.edges.find((e: { closed?: boolean }) => e.closed)).toMatchObject({ from: FIXTURE_KEYS.socket, to: FIXTURE_KEYS.worksite });
+    expect(given).toEqual([
+      { from: FIXTURE_KEYS.junction, to: FIXTURE_KEYS.anchorFar, kind: 'handrail', lengthM: 3.2 },
+    ]);
+    expect(res.body.edges.find((e: { closed?: boolean }) => e.closed)).toMatchObject({
+      from: FIXTURE_KEYS.socket,
+      to: FIXTURE_KEYS.worksite,
+    });
   });
 
   it('404 for a station that does not exist', async () => {
@@ -135,7 +169,9 @@ describe('GET /api/stations/:id/export', () => {
     const exported = await engineer.get(`/api/stations/${first.body.station.id}/export`);
     const second = await importDoc(exported.body);
     expect(second.status).toBe(201);
-    expect(comparable(await graphOf(second.body.station.id))).toEqual(comparable(await graphOf(first.body.station.id)));
+    expect(comparable(await graphOf(second.body.station.id))).toEqual(
+      comparable(await graphOf(first.body.station.id)),
+    );
   });
 });
 
@@ -144,7 +180,11 @@ describe('GET /api/stations/:id/export', () => {
 const coord = fc.double({ min: -500, max: 500, noNaN: true, noDefaultInfinity: true }).map((v) => v + 0);
 const vec = fc.tuple(coord, coord, coord);
 const unitNormal = fc
-  .tuple(fc.double({ min: -1, max: 1, noNaN: true }), fc.double({ min: -1, max: 1, noNaN: true }), fc.double({ min: -1, max: 1, noNaN: true }))
+  .tuple(
+    fc.double({ min: -1, max: 1, noNaN: true }),
+    fc.double({ min: -1, max: 1, noNaN: true }),
+    fc.double({ min: -1, max: 1, noNaN: true }),
+  )
   .filter(([x, y, z]) => Math.hypot(x, y, z) > 0.1)
   .map(([x, y, z]) => {
     const l = Math.hypot(x, y, z);
@@ -179,12 +219,33 @@ const documentArb: fc.Arbitrary<StationDocumentInput> = fc
     ),
     hazards: fc.array(
       fc.oneof(
-        fc.record({ kind: fc.constantFrom('keep-out', 'caution'), shape: fc.constant('sphere'), center: vec, radiusM: fc.double({ min: 0.1, max: 20, noNaN: true }) }),
-        fc.record({ kind: fc.constantFrom('keep-out', 'caution'), shape: fc.constant('box'), min: vec, size: fc.tuple(fc.integer({ min: 1, max: 9 }), fc.integer({ min: 1, max: 9 }), fc.integer({ min: 1, max: 9 })) }),
+        fc.record({
+          kind: fc.constantFrom('keep-out', 'caution'),
+          shape: fc.constant('sphere'),
+          center: vec,
+          radiusM: fc.double({ min: 0.1, max: 20, noNaN: true }),
+        }),
+        fc.record({
+          kind: fc.constantFrom('keep-out', 'caution'),
+          shape: fc.constant('box'),
+          min: vec,
+          size: fc.tuple(
+            fc.integer({ min: 1, max: 9 }),
+            fc.integer({ min: 1, max: 9 }),
+            fc.integer({ min: 1, max: 9 }),
+          ),
+        }),
       ),
       { maxLength: 4 },
     ),
-    segments: fc.array(fc.record({ kind: fc.constantFrom('truss', 'module', 'platform'), center: vec, rotated: fc.option(vec, { nil: undefined }) }), { maxLength: 4 }),
+    segments: fc.array(
+      fc.record({
+        kind: fc.constantFrom('truss', 'module', 'platform'),
+        center: vec,
+        rotated: fc.option(vec, { nil: undefined }),
+      }),
+      { maxLength: 4 },
+    ),
   })
   .map(({ nodeCount, nodeSpecs, edgeSpecs, hazards, segments }) => {
     const nodes = nodeSpecs.slice(0, nodeCount).map((s, i) => ({
@@ -202,7 +263,16 @@ const documentArb: fc.Arbitrary<StationDocumentInput> = fc
       const pair = [from, to].sort().join('|') + e.kind;
       if (from === to || seen.has(pair)) return [];
       seen.add(pair);
-      return [{ from, to, kind: e.kind, ...(e.lengthM !== undefined ? { lengthM: e.lengthM } : {}), ...(e.closed ? { closed: true } : {}), ...(e.label !== undefined ? { label: e.label } : {}) }];
+      return [
+        {
+          from,
+          to,
+          kind: e.kind,
+          ...(e.lengthM !== undefined ? { lengthM: e.lengthM } : {}),
+          ...(e.closed ? { closed: true } : {}),
+          ...(e.label !== undefined ? { label: e.label } : {}),
+        },
+      ];
     });
     return {
       format: 'tetherwise.station' as const,
@@ -213,9 +283,21 @@ const documentArb: fc.Arbitrary<StationDocumentInput> = fc
       hazards: hazards.map((h, i) =>
         h.shape === 'sphere'
           ? { key: `H${i}`, kind: h.kind, shape: 'sphere' as const, center: h.center, radiusM: h.radiusM }
-          : { key: `H${i}`, kind: h.kind, shape: 'box' as const, min: h.min, max: h.min.map((m, j) => m + h.size[j]) as [number, number, number] },
+          : {
+              key: `H${i}`,
+              kind: h.kind,
+              shape: 'box' as const,
+              min: h.min,
+              max: h.min.map((m, j) => m + h.size[j]) as [number, number, number],
+            },
       ),
-      segments: segments.map((s, i) => ({ key: `S${i}`, kind: s.kind, center: s.center, size: [3, 3, 5] as [number, number, number], ...(s.rotated ? { rotationDeg: s.rotated } : {}) })),
+      segments: segments.map((s, i) => ({
+        key: `S${i}`,
+        kind: s.kind,
+        center: s.center,
+        size: [3, 3, 5] as [number, number, number],
+        ...(s.rotated ? { rotationDeg: s.rotated } : {}),
+      })),
     };
   });
 
@@ -224,12 +306,15 @@ describe('export → re-import keeps the graph (property)', () => {
     await fc.assert(
       fc.asyncProperty(documentArb, async (doc) => {
         const parsed = parseStationDocument(doc);
-        if (!parsed.ok) throw new Error(`generator made an invalid document: ${JSON.stringify(parsed.problems)}`);
+        if (!parsed.ok)
+          throw new Error(`generator made an invalid document: ${JSON.stringify(parsed.problems)}`);
         const first = await importDoc(doc);
         expect(first.status).toBe(201);
         const g1 = await graphOf(first.body.station.id);
         expect(comparable({ ...g1, edges: [] })).toEqual(comparable({ ...parsed.doc, edges: [] }));
-        expect(g1.edges.map((e) => ({ ...e, lengthM: e.lengthGiven ? e.lengthM : undefined }))).toHaveLength(parsed.doc.edges.length);
+        expect(g1.edges.map((e) => ({ ...e, lengthM: e.lengthGiven ? e.lengthM : undefined }))).toHaveLength(
+          parsed.doc.edges.length,
+        );
         for (const e of parsed.doc.edges) {
           const stored = g1.edges.find((x) => x.from === e.from && x.to === e.to && x.kind === e.kind)!;
           expect(stored.lengthGiven).toBe(e.lengthM !== undefined);
@@ -250,12 +335,17 @@ describe('PUT /api/stations/:id/import', () => {
   it('replaces the model, bumps the version, and refuses a stale version with 409', async () => {
     const created = await importDoc(buildStationDocument({ name: 'Replace Me' }));
     const id = created.body.station.id;
-    const replaced = await engineer.put(`/api/stations/${id}/import`).field('version', '1').attach('file', stationDocumentFile(DESIGN_EXAMPLE), 'x.json');
+    const replaced = await engineer
+      .put(`/api/stations/${id}/import`)
+      .field('version', '1')
+      .attach('file', stationDocumentFile(DESIGN_EXAMPLE), 'x.json');
     expect(replaced.status).toBe(200);
     expect(replaced.body.station).toMatchObject({ id, name: 'Design example', version: 2 });
     expect(replaced.body.counts).toEqual({ nodes: 3, edges: 1, hazards: 2, segments: 1 });
 
-    const stale = await engineer.put(`/api/stations/${id}/import?version=1`).attach('file', stationDocumentFile(buildStationDocument()), 'x.json');
+    const stale = await engineer
+      .put(`/api/stations/${id}/import?version=1`)
+      .attach('file', stationDocumentFile(buildStationDocument()), 'x.json');
     expect(stale.status).toBe(409);
     expect(stale.body.error.code).toBe('CONFLICT');
     expect(stale.body.error.message).toContain('version 2');
@@ -263,7 +353,9 @@ describe('PUT /api/stations/:id/import', () => {
     expect((await graphOf(id)).nodes.map((n) => n.key).sort()).toEqual(['PB3-A07', 'PB3-J02', 'PB3-S1']);
 
     // without a version the latest model is replaced
-    const latest = await engineer.put(`/api/stations/${id}/import`).attach('file', stationDocumentFile(buildStationDocument({ name: 'Again' })), 'x.json');
+    const latest = await engineer
+      .put(`/api/stations/${id}/import`)
+      .attach('file', stationDocumentFile(buildStationDocument({ name: 'Again' })), 'x.json');
     expect(latest.status).toBe(200);
     expect(latest.body.station.version).toBe(3);
   });
@@ -273,9 +365,14 @@ describe('PUT /api/stations/:id/import', () => {
     const id = created.body.station.id;
     const before = await graphOf(id);
     const bad = { ...DESIGN_EXAMPLE, edges: [{ from: 'PB3-A07', to: 'NOPE', kind: 'handrail' }] };
-    const res = await engineer.put(`/api/stations/${id}/import?version=1`).attach('file', stationDocumentFile(bad), 'x.json');
+    const res = await engineer
+      .put(`/api/stations/${id}/import?version=1`)
+      .attach('file', stationDocumentFile(bad), 'x.json');
     expect(res.status).toBe(400);
-    expect(res.body.error.details).toContainEqual({ path: 'edges[0].to', message: 'unknown node key "NOPE"' });
+    expect(res.body.error.details).toContainEqual({
+      path: 'edges[0].to',
+      message: 'unknown node key "NOPE"',
+    });
     const after = await graphOf(id);
     expect(after.station.version).toBe(1);
     expect(comparable(after)).toEqual(comparable(before));

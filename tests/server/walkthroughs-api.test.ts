@@ -105,13 +105,11 @@ describe('walkthroughs API', () => {
 
   it('creates a route walkthrough; an infeasible route is a 400 with the reason, an unknown key a 404', async () => {
     const trainer = await t.agent('trainer');
-    const ok = await trainer
-      .post('/api/walkthroughs')
-      .send({
-        name: 'To the socket',
-        stationId,
-        route: { from: K.airlock, to: K.socket, mode: 'fewest-swaps', tetherLengthM: 7 },
-      });
+    const ok = await trainer.post('/api/walkthroughs').send({
+      name: 'To the socket',
+      stationId,
+      route: { from: K.airlock, to: K.socket, mode: 'fewest-swaps', tetherLengthM: 7 },
+    });
     expect(ok.status, JSON.stringify(ok.body)).toBe(201);
     const playback = ok.body.playback as RoutePlayback;
     expect(playback.kind).toBe('route');
@@ -126,13 +124,11 @@ describe('walkthroughs API', () => {
     expect(playback.endSeconds).toBeCloseTo(route.totalSeconds, 9);
     expect(ok.body.walkthrough.basedOnVersion).toBe(1);
 
-    const gap = await trainer
-      .post('/api/walkthroughs')
-      .send({
-        name: 'Too short',
-        stationId,
-        route: { from: K.airlock, to: K.socket, mode: 'fastest', tetherLengthM: 1 },
-      });
+    const gap = await trainer.post('/api/walkthroughs').send({
+      name: 'Too short',
+      stationId,
+      route: { from: K.airlock, to: K.socket, mode: 'fastest', tetherLengthM: 1 },
+    });
     expect(gap.status).toBe(400);
     expect(gap.body.error.message).toMatch(/tether|anchor/i);
 
@@ -237,15 +233,13 @@ describe('walkthroughs API', () => {
     const id = created.walkthrough.id;
     const planner = await t.agent('planner');
     const plan = (await planner.get(`/api/plans/${planId}`)).body;
-    const edited = await planner
-      .patch(`/api/plans/${planId}`)
-      .send({
-        version: plan.version,
-        tasks: [
-          ...planBody().tasks,
-          { title: 'Close out', worksite: K.worksite, crew: 'EV2', durationSeconds: 600 },
-        ],
-      });
+    const edited = await planner.patch(`/api/plans/${planId}`).send({
+      version: plan.version,
+      tasks: [
+        ...planBody().tasks,
+        { title: 'Close out', worksite: K.worksite, crew: 'EV2', durationSeconds: 600 },
+      ],
+    });
     expect(edited.status, JSON.stringify(edited.body)).toBe(200);
 
     const trainer = await t.agent('trainer');

@@ -48,8 +48,11 @@ export async function makeTestApp(overrides: Partial<AppConfig> = {}): Promise<T
       const cached = agents.get(role);
       if (cached) return cached;
       const agent = request.agent(instance.app);
-      const res = await agent.post('/api/auth/sign-in').send({ email: `${role}@example.org`, password: DEMO_PASSWORD });
-      if (res.status !== 200) throw new Error(`sign-in as ${role} failed: ${res.status} ${JSON.stringify(res.body)}`);
+      const res = await agent
+        .post('/api/auth/sign-in')
+        .send({ email: `${role}@example.org`, password: DEMO_PASSWORD });
+      if (res.status !== 200)
+        throw new Error(`sign-in as ${role} failed: ${res.status} ${JSON.stringify(res.body)}`);
       agents.set(role, agent);
       return agent;
     },

@@ -1,5 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { distancePointToSegment, segmentIntersectsAabb, segmentIntersectsSphere } from '@shared/compute/geometry';
+import {
+  distancePointToSegment,
+  segmentIntersectsAabb,
+  segmentIntersectsSphere,
+} from '@shared/compute/geometry';
 
 // Hand-worked: the segment (0,0,0)→(10,0,0) passes 3 m from (5,3,0) at its midpoint.
 describe('hazard intersection geometry', () => {

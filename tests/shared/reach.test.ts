@@ -16,7 +16,11 @@ const at = (socketNormal: Vec3, target: Vec3, socketPosition: Vec3 = [0, 0, 0]) 
   reachCheck({ ...base, socketPosition, socketNormal, target });
 
 const dot = (a: Vec3, b: Vec3) => a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
-const cross = (a: Vec3, b: Vec3): Vec3 => [a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]];
+const cross = (a: Vec3, b: Vec3): Vec3 => [
+  a[1] * b[2] - a[2] * b[1],
+  a[2] * b[0] - a[0] * b[2],
+  a[0] * b[1] - a[1] * b[0],
+];
 const rad = (d: number) => (d * Math.PI) / 180;
 
 describe('reach envelope (hand-worked, socket at the origin, normal +z, h 1, R 0.7)', () => {
@@ -83,12 +87,19 @@ describe('restraint yaw and pitch conventions', () => {
     [[1, 0, 0], [2, 0, 0], 90],
     [[-1, 0, 0], [-1, 1, 0], 0],
     [[0, -1, 0], [0, 0, 0], -90],
-  ] as [Vec3, Vec3, number][])('normal %j: pitch to %j is %d° (positive away from the structure)', (normal, target, pitch) => {
-    expect(at(normal, target).pitchDeg).toBeCloseTo(pitch, 10);
-  });
+  ] as [Vec3, Vec3, number][])(
+    'normal %j: pitch to %j is %d° (positive away from the structure)',
+    (normal, target, pitch) => {
+      expect(at(normal, target).pitchDeg).toBeCloseTo(pitch, 10);
+    },
+  );
 
   it('yaw and pitch rebuild the direction from the work point (Rodrigues rotation about n)', () => {
-    const vec = fc.tuple(fc.double({ min: -3, max: 3, noNaN: true }), fc.double({ min: -3, max: 3, noNaN: true }), fc.double({ min: -3, max: 3, noNaN: true }));
+    const vec = fc.tuple(
+      fc.double({ min: -3, max: 3, noNaN: true }),
+      fc.double({ min: -3, max: 3, noNaN: true }),
+      fc.double({ min: -3, max: 3, noNaN: true }),
+    );
     fc.assert(
       fc.property(vec, vec, vec, (n0, p, t) => {
         fc.pre(Math.hypot(...n0) > 0.1);
@@ -122,7 +133,13 @@ describe('restraint yaw and pitch conventions', () => {
   });
 
   it('the restraint frame is orthonormal and right-handed', () => {
-    for (const n of [[0, 0, 1], [1, 0, 0], [-1, 0, 0], [0.3, -0.4, 0.866], [0, -1, 0]] as Vec3[]) {
+    for (const n of [
+      [0, 0, 1],
+      [1, 0, 0],
+      [-1, 0, 0],
+      [0.3, -0.4, 0.866],
+      [0, -1, 0],
+    ] as Vec3[]) {
       const f = restraintFrame(n);
       expect(dot(f.ref, f.up)).toBeCloseTo(0, 12);
       expect(dot(f.side, f.up)).toBeCloseTo(0, 12);
@@ -175,7 +192,13 @@ describe('setting steps', () => {
   });
 
   it('pitch keeps to the largest step multiple within ±90', () => {
-    const r = reachCheck({ ...base, pitchStepDeg: 25, socketPosition: [0, 0, 0], socketNormal: [0, 0, 1], target: [0.01, 0, 1.5] });
+    const r = reachCheck({
+      ...base,
+      pitchStepDeg: 25,
+      socketPosition: [0, 0, 0],
+      socketNormal: [0, 0, 1],
+      target: [0.01, 0, 1.5],
+    });
     expect(r.pitchDeg).toBeGreaterThan(88);
     expect(r.pitchSetDeg).toBe(75);
     expect(at([0, 0, 1], [0, 0, 1.5]).pitchSetDeg).toBe(90);

@@ -3,14 +3,24 @@ import fc from 'fast-check';
 import type { RouteMode, RouteRequest } from '@shared/schemas/route';
 import { compileStation } from '@shared/compute/compiled-station';
 import { findRoute, type RouteStrategy } from '@shared/compute/routes';
-import { clipGraphFor, costMarksFor, pruneStretches, type ClipGraph, type ClipRows } from '@shared/compute/routes-clip';
+import {
+  clipGraphFor,
+  costMarksFor,
+  pruneStretches,
+  type ClipGraph,
+  type ClipRows,
+} from '@shared/compute/routes-clip';
 import { excludeMaskFor } from '@shared/compute/routes';
 import { generateTrussStation } from '@shared/compute/truss-generator';
 import { smallStationArb } from './routes-oracle';
 
 const MODES: RouteMode[] = ['fastest', 'fewest-swaps', 'balanced'];
 
-function compare(c: ReturnType<typeof compileStation>, settings: Parameters<typeof findRoute>[1], req: Omit<RouteRequest, 'mode'>) {
+function compare(
+  c: ReturnType<typeof compileStation>,
+  settings: Parameters<typeof findRoute>[1],
+  req: Omit<RouteRequest, 'mode'>,
+) {
   for (const mode of MODES) {
     const run = (strategy: RouteStrategy) => findRoute(c, settings, { ...req, mode }, { strategy });
     const clip = run('clip-graph');
@@ -45,7 +55,9 @@ function bestCost(cg: ClipGraph, mid: ClipRows, s: number, t: number, swapCost: 
   let best: [number, number] = [Infinity, Infinity];
   for (;;) {
     let a = -1;
-    for (let i = 0; i < A; i++) if (!done[i] && swaps[i] < Infinity && (a < 0 || less(key(swaps[i], secs[i]), key(swaps[a], secs[a])))) a = i;
+    for (let i = 0; i < A; i++)
+      if (!done[i] && swaps[i] < Infinity && (a < 0 || less(key(swaps[i], secs[i]), key(swaps[a], secs[a]))))
+        a = i;
     if (a < 0) return best;
     done[a] = 1;
     for (let e = cg.offsets[a]; e < cg.offsets[a + 1]; e++) {
@@ -73,7 +85,8 @@ describe('kept stretches of the clip graph', () => {
     for (let a = 0; a + 1 < cg.offsets.length; a++) {
       const full = new Map<number, number>();
       for (let e = cg.offsets[a]; e < cg.offsets[a + 1]; e++) full.set(cg.targets[e], cg.seconds[e]);
-      for (let e = rows.offsets[a]; e < rows.offsets[a + 1]; e++) expect(full.get(rows.targets[e])).toBe(rows.seconds[e]);
+      for (let e = rows.offsets[a]; e < rows.offsets[a + 1]; e++)
+        expect(full.get(rows.targets[e])).toBe(rows.seconds[e]);
     }
   }
 
@@ -120,42 +133,48 @@ describe('cost landmarks of the clip graph', () => {
 
   it('give the least swap-costed time from each landmark, and lower bounds both ways from any attach point', () => {
     fc.assert(
-      fc.property(fc.nat(), fc.nat(), fc.constantFrom(2.5, 6, 12, 25.9), fc.constantFrom(7, 90), (i, j, tether, swapCost) => {
-        const g = clipGraphFor(c, c.arcSeconds, tether, excludeMaskFor(false));
-        const A = g.attachNodes.length;
-        const a = i % A;
-        const t = j % A;
-        fc.pre(a !== t);
-        const marks = costMarksFor(g, swapCost);
-        const K = marks.count;
-        const best = bestCost(g, g, a, t, swapCost)[0];
-        for (let k = 0; k < K; k++) {
-          const fromL = marks.cost[a * K + k];
-          const toT = marks.toEnd[t * K + k];
-          // the rows are symmetric: a landmark that reaches t but not a says a cannot reach t
-          if (fromL === Infinity) {
-            if (marks.cost[t * K + k] < Infinity) expect(best).toBe(Infinity);
-            continue;
+      fc.property(
+        fc.nat(),
+        fc.nat(),
+        fc.constantFrom(2.5, 6, 12, 25.9),
+        fc.constantFrom(7, 90),
+        (i, j, tether, swapCost) => {
+          const g = clipGraphFor(c, c.arcSeconds, tether, excludeMaskFor(false));
+          const A = g.attachNodes.length;
+          const a = i % A;
+          const t = j % A;
+          fc.pre(a !== t);
+          const marks = costMarksFor(g, swapCost);
+          const K = marks.count;
+          const best = bestCost(g, g, a, t, swapCost)[0];
+          for (let k = 0; k < K; k++) {
+            const fromL = marks.cost[a * K + k];
+            const toT = marks.toEnd[t * K + k];
+            // the rows are symmetric: a landmark that reaches t but not a says a cannot reach t
+            if (fromL === Infinity) {
+              if (marks.cost[t * K + k] < Infinity) expect(best).toBe(Infinity);
+              continue;
+            }
+            // cost(a → t) ≥ cost(L → t) − cost(L → a), and (times the same both ways)
+            // cost(a → t) ≥ cost(L → a) − cost(L → t) − swapCost
+            if (best === Infinity) expect(toT).toBe(Infinity);
+            else {
+              expect(toT - fromL).toBeLessThanOrEqual(best + 1e-6);
+              expect(fromL - marks.cost[t * K + k] - swapCost).toBeLessThanOrEqual(best + 1e-6);
+            }
           }
-          // cost(a → t) ≥ cost(L → t) − cost(L → a), and (times the same both ways)
-          // cost(a → t) ≥ cost(L → a) − cost(L → t) − swapCost
-          if (best === Infinity) expect(toT).toBe(Infinity);
-          else {
-            expect(toT - fromL).toBeLessThanOrEqual(best + 1e-6);
-            expect(fromL - marks.cost[t * K + k] - swapCost).toBeLessThanOrEqual(best + 1e-6);
+          // at a landmark itself the bound is the least cost
+          for (let k = 0; k < K; k++) {
+            let L = -1;
+            for (let x = 0; x < A && L < 0; x++) if (marks.cost[x * K + k] === 0) L = x;
+            expect(L).toBeGreaterThanOrEqual(0);
+            if (L === t) continue;
+            const exact = bestCost(g, g, L, t, swapCost)[0];
+            if (exact === Infinity) expect(marks.toEnd[t * K + k]).toBe(Infinity);
+            else expect(marks.toEnd[t * K + k]).toBeCloseTo(exact, 6);
           }
-        }
-        // at a landmark itself the bound is the least cost
-        for (let k = 0; k < K; k++) {
-          let L = -1;
-          for (let x = 0; x < A && L < 0; x++) if (marks.cost[x * K + k] === 0) L = x;
-          expect(L).toBeGreaterThanOrEqual(0);
-          if (L === t) continue;
-          const exact = bestCost(g, g, L, t, swapCost)[0];
-          if (exact === Infinity) expect(marks.toEnd[t * K + k]).toBe(Infinity);
-          else expect(marks.toEnd[t * K + k]).toBeCloseTo(exact, 6);
-        }
-      }),
+        },
+      ),
       { numRuns: 40 },
     );
   });
@@ -168,7 +187,9 @@ describe('clip-graph search against the label-setting search', () => {
   const c = compileStation(doc);
   const keys = doc.nodes.map((n) => n.key);
   const attach = doc.nodes.filter((n) => n.kind === 'anchor' || n.kind === 'airlock').map((n) => n.key);
-  const sparse = doc.nodes.filter((n) => n.position[0] > 0.85 * Math.max(...doc.nodes.map((m) => m.position[0]))).map((n) => n.key);
+  const sparse = doc.nodes
+    .filter((n) => n.position[0] > 0.85 * Math.max(...doc.nodes.map((m) => m.position[0])))
+    .map((n) => n.key);
 
   it('gives the same optimum on a generated truss for random queries and tether lengths', () => {
     fc.assert(
@@ -188,33 +209,61 @@ describe('clip-graph search against the label-setting search', () => {
   });
 
   it('gives the same optimum with station settings other than the compiled ones', () => {
-    const settings = { ...doc.settings, hopSeconds: 2, swapSeconds: 20, speedsMps: { handrail: 0.2, hop: 0.05, ride: 0.3 } };
+    const settings = {
+      ...doc.settings,
+      hopSeconds: 2,
+      swapSeconds: 20,
+      speedsMps: { handrail: 0.2, hop: 0.05, ride: 0.3 },
+    };
     fc.assert(
-      fc.property(fc.constantFrom(...attach), fc.constantFrom(...sparse, ...attach), fc.constantFrom(8, 25.9), (from, to, tetherLengthM) => {
-        fc.pre(from !== to);
-        compare(c, settings, { from, to, tetherLengthM });
-      }),
+      fc.property(
+        fc.constantFrom(...attach),
+        fc.constantFrom(...sparse, ...attach),
+        fc.constantFrom(8, 25.9),
+        (from, to, tetherLengthM) => {
+          fc.pre(from !== to);
+          compare(c, settings, { from, to, tetherLengthM });
+        },
+      ),
       { numRuns: 40 },
     );
   });
 
   it('gives the same optimum between attach points at any swap time, free swaps included', () => {
     fc.assert(
-      fc.property(fc.constantFrom(...attach), fc.constantFrom(...attach), fc.constantFrom(6, 9.5, 25.9), fc.constantFrom(0, 4, 90, 400), (from, to, tetherLengthM, swapSeconds) => {
-        fc.pre(from !== to);
-        compare(c, { ...doc.settings, swapSeconds }, { from, to, tetherLengthM });
-      }),
+      fc.property(
+        fc.constantFrom(...attach),
+        fc.constantFrom(...attach),
+        fc.constantFrom(6, 9.5, 25.9),
+        fc.constantFrom(0, 4, 90, 400),
+        (from, to, tetherLengthM, swapSeconds) => {
+          fc.pre(from !== to);
+          compare(c, { ...doc.settings, swapSeconds }, { from, to, tetherLengthM });
+        },
+      ),
       { numRuns: 80 },
     );
   });
 
   it('gives the same optimum on small random stations', () => {
     fc.assert(
-      fc.property(smallStationArb, fc.nat(), fc.nat(), fc.boolean(), fc.boolean(), (small, a, b, allowRide, carrying) => {
-        const n = small.nodes.length;
-        fc.pre(a % n !== b % n);
-        compare(compileStation(small), small.settings, { from: small.nodes[a % n].key, to: small.nodes[b % n].key, allowRide, carrying });
-      }),
+      fc.property(
+        smallStationArb,
+        fc.nat(),
+        fc.nat(),
+        fc.boolean(),
+        fc.boolean(),
+        (small, a, b, allowRide, carrying) => {
+          const n = small.nodes.length;
+          fc.pre(a % n !== b % n);
+          compare(compileStation(small), small.settings, {
+            from: small.nodes[a % n].key,
+            to: small.nodes[b % n].key,
+            allowRide,
+            carrying,
+          });
+        },
+      ),
       { numRuns: 400 },
     );
   });

@@ -41,7 +41,8 @@ export function adjacency(
     const b = index.get(e.to)!;
     const pa = doc.nodes[a].position;
     const pb = doc.nodes[b].position;
-    const lengthM = e.lengthM ?? Math.sqrt((pa[0] - pb[0]) ** 2 + (pa[1] - pb[1]) ** 2 + (pa[2] - pb[2]) ** 2);
+    const lengthM =
+      e.lengthM ?? Math.sqrt((pa[0] - pb[0]) ** 2 + (pa[1] - pb[1]) ** 2 + (pa[2] - pb[2]) ** 2);
     const speed = doc.settings.speedsMps[e.kind];
     let seconds = lengthM / speed + (e.kind === 'hop' ? doc.settings.hopSeconds : 0);
     if (opts.carrying) seconds *= doc.settings.carryFactor;
@@ -59,7 +60,8 @@ export function minSwapsDp(positions: number[], attach: boolean[], tether: numbe
   for (let j = 1; j < k; j++) {
     if (!attach[j]) continue;
     for (let i = 0; i < j; i++) {
-      if (dp[i] !== Infinity && positions[j] - positions[i] <= tether + EPS) dp[j] = Math.min(dp[j], dp[i] + 1);
+      if (dp[i] !== Infinity && positions[j] - positions[i] <= tether + EPS)
+        dp[j] = Math.min(dp[j], dp[i] + 1);
     }
   }
   let best = Infinity;
@@ -89,7 +91,8 @@ export function exhaustive(
       const edges = positions.length - 1;
       if (!res.fastest || seconds < res.fastest.seconds) res.fastest = { seconds, swaps, edges };
       const f = res.fewestSwaps;
-      if (!f || swaps < f.swaps || (swaps === f.swaps && seconds < f.seconds)) res.fewestSwaps = { seconds, swaps, edges };
+      if (!f || swaps < f.swaps || (swaps === f.swaps && seconds < f.seconds))
+        res.fewestSwaps = { seconds, swaps, edges };
       const total = seconds + swaps * swapSeconds;
       if (!res.balanced || total < res.balanced.total) res.balanced = { seconds, swaps, edges, total };
       return;
@@ -111,7 +114,8 @@ export function exhaustive(
 }
 
 // integers scaled down: fc.double favours 0 and the bounds, which piles nodes on top of each other
-const decimal = (min: number, max: number) => fc.integer({ min: min * 100, max: max * 100 }).map((v) => v / 100);
+const decimal = (min: number, max: number) =>
+  fc.integer({ min: min * 100, max: max * 100 }).map((v) => v / 100);
 const coord = decimal(-4, 4);
 
 /** Small random stations: 4–7 nodes, a spanning tree plus extra edges, mixed kinds and settings. */
@@ -119,11 +123,17 @@ export const smallStationArb = fc
   .record({
     n: fc.integer({ min: 4, max: 7 }),
     positions: fc.array(fc.tuple(coord, coord, coord), { minLength: 7, maxLength: 7 }),
-    kinds: fc.array(fc.constantFrom('anchor', 'anchor', 'anchor', 'junction', 'junction', 'airlock', 'worksite'), { minLength: 7, maxLength: 7 }),
+    kinds: fc.array(
+      fc.constantFrom('anchor', 'anchor', 'anchor', 'junction', 'junction', 'airlock', 'worksite'),
+      { minLength: 7, maxLength: 7 },
+    ),
     parents: fc.array(fc.nat(), { minLength: 7, maxLength: 7 }),
-    extra: fc.array(fc.tuple(fc.nat(), fc.nat(), fc.constantFrom('handrail', 'handrail', 'hop', 'ride'), fc.boolean()), {
-      maxLength: 8,
-    }),
+    extra: fc.array(
+      fc.tuple(fc.nat(), fc.nat(), fc.constantFrom('handrail', 'handrail', 'hop', 'ride'), fc.boolean()),
+      {
+        maxLength: 8,
+      },
+    ),
     givenLength: fc.array(fc.option(decimal(0.5, 5), { nil: undefined }), {
       minLength: 12,
       maxLength: 12,
@@ -149,7 +159,8 @@ export const smallStationArb = fc
       edges.push({ from: keys[a], to: keys[b], kind, closed, ...(lengthM !== undefined ? { lengthM } : {}) });
     };
     for (let i = 1; i < r.n; i++) addEdge(i, r.parents[i] % i, 'handrail');
-    for (const [a, b, kind, closed] of r.extra) addEdge(a % r.n, b % r.n, kind, closed && kind !== 'handrail');
+    for (const [a, b, kind, closed] of r.extra)
+      addEdge(a % r.n, b % r.n, kind, closed && kind !== 'handrail');
     const hazards: StationDocumentInput['hazards'] = [];
     if (r.keepOut) {
       const [x, y, z, radiusM] = r.keepOut;

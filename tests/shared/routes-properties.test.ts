@@ -15,8 +15,14 @@ const kindOf = new Map(doc.nodes.map((n) => [n.key, n.kind]));
 const closed = new Set(doc.edges.filter((e) => e.closed).map((e) => [e.from, e.to].sort().join('|')));
 
 function checkRoute(r: RouteFeasible, allowRide: boolean) {
-  expect(r.lengthM).toBeCloseTo(r.legs.reduce((s, l) => s + l.lengthM, 0), 9);
-  expect(r.travelSeconds).toBeCloseTo(r.legs.reduce((s, l) => s + l.seconds, 0), 9);
+  expect(r.lengthM).toBeCloseTo(
+    r.legs.reduce((s, l) => s + l.lengthM, 0),
+    9,
+  );
+  expect(r.travelSeconds).toBeCloseTo(
+    r.legs.reduce((s, l) => s + l.seconds, 0),
+    9,
+  );
   expect(r.totalSeconds).toBeCloseTo(r.travelSeconds + r.swapCount * doc.settings.swapSeconds, 9);
   expect(r.maxPaidOutM).toBeLessThanOrEqual(r.tetherLengthM + 1e-9);
   r.swaps.forEach((s, i) => {
@@ -28,7 +34,8 @@ function checkRoute(r: RouteFeasible, allowRide: boolean) {
     if (!allowRide) expect(l.kind).not.toBe('ride');
     expect(closed.has([l.from, l.to].sort().join('|'))).toBe(false);
     for (const h of doc.hazards) {
-      if (h.kind === 'keep-out') expect(segmentIntersectsHazard(pos.get(l.from)!, pos.get(l.to)!, h)).toBe(false);
+      if (h.kind === 'keep-out')
+        expect(segmentIntersectsHazard(pos.get(l.from)!, pos.get(l.to)!, h)).toBe(false);
     }
   }
 }

@@ -5,7 +5,11 @@ import { dijkstra } from 'graphology-shortest-path';
 import createGraph from 'ngraph.graph';
 import { nba } from 'ngraph.path';
 import type { RouteFeasible, RouteMode, RouteResult } from '@shared/schemas/route';
-import { StationDocumentSchema, type StationDocument, type StationDocumentInput } from '@shared/schemas/station';
+import {
+  StationDocumentSchema,
+  type StationDocument,
+  type StationDocumentInput,
+} from '@shared/schemas/station';
 import { compileStation, edgeSeconds } from '@shared/compute/compiled-station';
 import { findRoute, hasNodeKey } from '@shared/compute/routes';
 import { segmentIntersectsHazard } from '@shared/compute/geometry';
@@ -23,7 +27,11 @@ function keepOutEdges(doc: StationDocument): Set<number> {
   const pos = new Map(doc.nodes.map((n) => [n.key, n.position]));
   const blocked = new Set<number>();
   doc.edges.forEach((e, i) => {
-    if (doc.hazards.some((h) => h.kind === 'keep-out' && segmentIntersectsHazard(pos.get(e.from)!, pos.get(e.to)!, h))) {
+    if (
+      doc.hazards.some(
+        (h) => h.kind === 'keep-out' && segmentIntersectsHazard(pos.get(e.from)!, pos.get(e.to)!, h),
+      )
+    ) {
       blocked.add(i);
     }
   });
@@ -45,12 +53,19 @@ describe('fastest route distances', () => {
     ];
     const doc = station({
       settings: { tetherLengthM: 1000, speedsMps: { handrail: 1, hop: 1, ride: 1 }, hopSeconds: 0 },
-      nodes: ['s', 't', 'x', 'y', 'z'].map((key, i) => ({ key, kind: 'anchor' as const, position: [i, 0, 0] as [number, number, number] })),
+      nodes: ['s', 't', 'x', 'y', 'z'].map((key, i) => ({
+        key,
+        kind: 'anchor' as const,
+        position: [i, 0, 0] as [number, number, number],
+      })),
       edges: edges.map(([from, to, lengthM]) => ({ from, to, lengthM, kind: 'handrail' as const })),
     });
     const c = compileStation(doc);
     const got = Object.fromEntries(
-      ['t', 'x', 'y', 'z'].map((k) => [k, feasible(findRoute(c, doc.settings, { from: 's', to: k, mode: 'fastest' })).travelSeconds]),
+      ['t', 'x', 'y', 'z'].map((k) => [
+        k,
+        feasible(findRoute(c, doc.settings, { from: 's', to: k, mode: 'fastest' })).travelSeconds,
+      ]),
     );
     expect(got).toEqual({ t: 7, x: 8, y: 5, z: 7 });
   });
@@ -59,7 +74,9 @@ describe('fastest route distances', () => {
     fc.assert(
       fc.property(
         fc.integer({ min: 2, max: 40 }),
-        fc.array(fc.tuple(fc.nat(), fc.nat(), fc.double({ min: 0, max: 50, noNaN: true }), fc.boolean()), { maxLength: 120 }),
+        fc.array(fc.tuple(fc.nat(), fc.nat(), fc.double({ min: 0, max: 50, noNaN: true }), fc.boolean()), {
+          maxLength: 120,
+        }),
         fc.nat(),
         fc.nat(),
         (n, extra, a, b) => {
@@ -75,7 +92,11 @@ describe('fastest route distances', () => {
           }
           const doc = station({
             settings: { tetherLengthM: 1000, hopSeconds: 7 },
-            nodes: keys.map((key, i) => ({ key, kind: 'junction' as const, position: [i, i % 3, 0] as [number, number, number] })),
+            nodes: keys.map((key, i) => ({
+              key,
+              kind: 'junction' as const,
+              position: [i, i % 3, 0] as [number, number, number],
+            })),
             edges,
           });
           const s = keys[a % n];
@@ -88,7 +109,8 @@ describe('fastest route distances', () => {
             const w = edgeSeconds(e.kind, e.lengthM!, doc.settings);
             weight.set(pairKey(e.from, e.to), Math.min(weight.get(pairKey(e.from, e.to)) ?? Infinity, w));
           }
-          const pathCost = (path: string[]) => path.slice(1).reduce((sum, v, i) => sum + weight.get(pairKey(path[i], v))!, 0);
+          const pathCost = (path: string[]) =>
+            path.slice(1).reduce((sum, v, i) => sum + weight.get(pairKey(path[i], v))!, 0);
 
           const g = new UndirectedGraph();
           keys.forEach((k) => g.addNode(k));
@@ -104,7 +126,9 @@ describe('fastest route distances', () => {
             const [u, v] = pair.split('|');
             ng.addLink(u, v, { w });
           }
-          const nPath = nba(ng, { distance: (_f, _t, link) => link.data.w }).find(s, t).map((node) => String(node.id));
+          const nPath = nba(ng, { distance: (_f, _t, link) => link.data.w })
+            .find(s, t)
+            .map((node) => String(node.id));
 
           const r = findRoute(compileStation(doc), doc.settings, { from: s, to: t, mode: 'fastest' });
           if (!gPath) {
@@ -128,42 +152,60 @@ describe('exact modes against exhaustive walk search', () => {
 
   it('finds the best walk in every mode on small random stations', () => {
     fc.assert(
-      fc.property(smallStationArb, fc.nat(), fc.nat(), fc.boolean(), fc.boolean(), (doc, a, b, allowRide, carrying) => {
-        const n = doc.nodes.length;
-        const s = a % n;
-        const t = b % n;
-        fc.pre(s !== t);
-        const c = compileStation(doc);
-        const adj = adjacency(doc, { allowRide, carrying, blocked: keepOutEdges(doc) });
-        const best = exhaustive(doc, adj, s, t, doc.settings.tetherLengthM, MAX_EDGES);
-        for (const mode of modes) {
-          const r = findRoute(c, doc.settings, { from: doc.nodes[s].key, to: doc.nodes[t].key, mode, allowRide, carrying });
-          if (!r.feasible) {
-            expect(best.fastest, `${mode}: oracle found a walk the engine missed (${r.reason})`).toBeNull();
-            continue;
-          }
-          // the engine's own walk, checked independently: legs exist, the DP agrees on its swaps
-          const positions = [0, ...r.legs.map((l) => l.startM + l.lengthM)];
-          const attach = r.nodes.map((k) => ['anchor', 'airlock'].includes(doc.nodes.find((x) => x.key === k)!.kind));
-          expect(minSwapsDp(positions, attach, r.tetherLengthM)).toBe(r.swapCount);
-          const short = r.legs.length <= MAX_EDGES;
-          if (mode === 'fastest') {
-            expect(best.fastest === null || r.travelSeconds <= best.fastest.seconds + 1e-6).toBe(true);
-            if (short) expect(r.travelSeconds).toBeCloseTo(best.fastest!.seconds, 6);
-          } else if (mode === 'fewest-swaps') {
-            const o = best.fewestSwaps;
-            if (o) expect(r.swapCount < o.swaps || (r.swapCount === o.swaps && r.travelSeconds <= o.seconds + 1e-6)).toBe(true);
-            if (short) {
-              expect(r.swapCount).toBe(o!.swaps);
-              expect(r.travelSeconds).toBeCloseTo(o!.seconds, 6);
+      fc.property(
+        smallStationArb,
+        fc.nat(),
+        fc.nat(),
+        fc.boolean(),
+        fc.boolean(),
+        (doc, a, b, allowRide, carrying) => {
+          const n = doc.nodes.length;
+          const s = a % n;
+          const t = b % n;
+          fc.pre(s !== t);
+          const c = compileStation(doc);
+          const adj = adjacency(doc, { allowRide, carrying, blocked: keepOutEdges(doc) });
+          const best = exhaustive(doc, adj, s, t, doc.settings.tetherLengthM, MAX_EDGES);
+          for (const mode of modes) {
+            const r = findRoute(c, doc.settings, {
+              from: doc.nodes[s].key,
+              to: doc.nodes[t].key,
+              mode,
+              allowRide,
+              carrying,
+            });
+            if (!r.feasible) {
+              expect(best.fastest, `${mode}: oracle found a walk the engine missed (${r.reason})`).toBeNull();
+              continue;
             }
-          } else {
-            const o = best.balanced;
-            if (o) expect(r.totalSeconds).toBeLessThanOrEqual(o.total + 1e-6);
-            if (short) expect(r.totalSeconds).toBeCloseTo(o!.total, 6);
+            // the engine's own walk, checked independently: legs exist, the DP agrees on its swaps
+            const positions = [0, ...r.legs.map((l) => l.startM + l.lengthM)];
+            const attach = r.nodes.map((k) =>
+              ['anchor', 'airlock'].includes(doc.nodes.find((x) => x.key === k)!.kind),
+            );
+            expect(minSwapsDp(positions, attach, r.tetherLengthM)).toBe(r.swapCount);
+            const short = r.legs.length <= MAX_EDGES;
+            if (mode === 'fastest') {
+              expect(best.fastest === null || r.travelSeconds <= best.fastest.seconds + 1e-6).toBe(true);
+              if (short) expect(r.travelSeconds).toBeCloseTo(best.fastest!.seconds, 6);
+            } else if (mode === 'fewest-swaps') {
+              const o = best.fewestSwaps;
+              if (o)
+                expect(
+                  r.swapCount < o.swaps || (r.swapCount === o.swaps && r.travelSeconds <= o.seconds + 1e-6),
+                ).toBe(true);
+              if (short) {
+                expect(r.swapCount).toBe(o!.swaps);
+                expect(r.travelSeconds).toBeCloseTo(o!.seconds, 6);
+              }
+            } else {
+              const o = best.balanced;
+              if (o) expect(r.totalSeconds).toBeLessThanOrEqual(o.total + 1e-6);
+              if (short) expect(r.totalSeconds).toBeCloseTo(o!.total, 6);
+            }
           }
-        }
-      }),
+        },
+      ),
       { numRuns: 600 },
     );
   });
@@ -192,7 +234,12 @@ describe('exact modes against exhaustive walk search', () => {
       expect(r.lengthM).toBeCloseTo(22, 9);
       expect(r.maxPaidOutM).toBeCloseTo(11, 9);
     }
-    const tooShort = findRoute(c, doc.settings, { from: 's', to: 't', mode: 'balanced', tetherLengthM: 10.5 });
+    const tooShort = findRoute(c, doc.settings, {
+      from: 's',
+      to: 't',
+      mode: 'balanced',
+      tetherLengthM: 10.5,
+    });
     expect(tooShort).toMatchObject({ feasible: false, reasonCode: 'anchor-gap' });
     expect(tooShort.feasible === false && tooShort.reason).toContain('11 m');
   });
@@ -215,13 +262,17 @@ describe('route exclusions and reasons', () => {
     });
 
   it('names the keep-out hazard that blocks every route', () => {
-    const doc = line({ hazards: [{ key: 'RAD-1', kind: 'keep-out', shape: 'sphere', center: [3, 0.5, 0], radiusM: 1 }] });
+    const doc = line({
+      hazards: [{ key: 'RAD-1', kind: 'keep-out', shape: 'sphere', center: [3, 0.5, 0], radiusM: 1 }],
+    });
     const r = findRoute(compileStation(doc), doc.settings, { from: 'A', to: 'C', mode: 'balanced' });
     expect(r).toMatchObject({ feasible: false, reasonCode: 'blocked-by-hazard', blockingHazards: ['RAD-1'] });
   });
 
   it('lists caution volumes the route passes', () => {
-    const doc = line({ hazards: [{ key: 'ANT-1', kind: 'caution', shape: 'box', min: [0.5, -1, -1], max: [1, 1, 1] }] });
+    const doc = line({
+      hazards: [{ key: 'ANT-1', kind: 'caution', shape: 'box', min: [0.5, -1, -1], max: [1, 1, 1] }],
+    });
     const r = feasible(findRoute(compileStation(doc), doc.settings, { from: 'A', to: 'C', mode: 'fastest' }));
     expect(r.cautionHazards).toEqual(['ANT-1']);
     expect(r.warnings.join(' ')).toContain('ANT-1');
@@ -236,23 +287,39 @@ describe('route exclusions and reasons', () => {
       ],
     });
     const c = compileStation(doc);
-    expect(findRoute(c, doc.settings, { from: 'A', to: 'X', mode: 'fastest' })).toMatchObject({ reasonCode: 'disconnected' });
-    expect(findRoute(c, doc.settings, { from: 'A', to: 'A', mode: 'fastest' })).toMatchObject({ reasonCode: 'same-node' });
+    expect(findRoute(c, doc.settings, { from: 'A', to: 'X', mode: 'fastest' })).toMatchObject({
+      reasonCode: 'disconnected',
+    });
+    expect(findRoute(c, doc.settings, { from: 'A', to: 'A', mode: 'fastest' })).toMatchObject({
+      reasonCode: 'same-node',
+    });
     const closed = findRoute(c, doc.settings, { from: 'A', to: 'C', mode: 'fewest-swaps' });
     expect(closed).toMatchObject({ feasible: false, reasonCode: 'disconnected' });
-    const ride = feasible(findRoute(c, doc.settings, { from: 'A', to: 'C', mode: 'fewest-swaps', allowRide: true }));
+    const ride = feasible(
+      findRoute(c, doc.settings, { from: 'A', to: 'C', mode: 'fewest-swaps', allowRide: true }),
+    );
     expect(ride.legs.map((l) => l.kind)).toEqual(['ride']);
     expect(ride.travelSeconds).toBeCloseTo(4 / doc.settings.speedsMps.ride, 9);
     expect(hasNodeKey(c, 'B')).toBe(true);
     expect(hasNodeKey(c, 'nope')).toBe(false);
-    expect(() => findRoute(c, doc.settings, { from: 'A', to: 'nope', mode: 'fastest' })).toThrow(/unknown node key/);
+    expect(() => findRoute(c, doc.settings, { from: 'A', to: 'nope', mode: 'fastest' })).toThrow(
+      /unknown node key/,
+    );
   });
 
   it('warns when the start is not an attach point and multiplies time when carrying', () => {
-    const doc = line({ nodes: [{ key: 'A', kind: 'junction', position: [0, 0, 0] }, { key: 'B', kind: 'anchor', position: [2, 0, 0] }, { key: 'C', kind: 'anchor', position: [4, 0, 0] }] });
+    const doc = line({
+      nodes: [
+        { key: 'A', kind: 'junction', position: [0, 0, 0] },
+        { key: 'B', kind: 'anchor', position: [2, 0, 0] },
+        { key: 'C', kind: 'anchor', position: [4, 0, 0] },
+      ],
+    });
     const c = compileStation(doc);
     const plain = feasible(findRoute(c, doc.settings, { from: 'A', to: 'C', mode: 'fastest' }));
-    const carried = feasible(findRoute(c, doc.settings, { from: 'A', to: 'C', mode: 'fastest', carrying: true }));
+    const carried = feasible(
+      findRoute(c, doc.settings, { from: 'A', to: 'C', mode: 'fastest', carrying: true }),
+    );
     expect(plain.warnings[0]).toMatch(/not a tether attach point/);
     expect(carried.travelSeconds).toBeCloseTo(plain.travelSeconds * doc.settings.carryFactor, 9);
   });

@@ -67,13 +67,17 @@ describe('socket planner against brute force', () => {
 
   it('uncovered is exactly the targets no candidate reaches', () => {
     fc.assert(
-      fc.property(instance(12, 14), fc.constantFrom('auto', 'greedy') as fc.Arbitrary<'auto' | 'greedy'>, (inst, method) => {
-        const plan = planSockets({ ...inst, method });
-        const cov = coverOf(inst.candidates, inst.targets, inst.standOffM, inst.radiusM);
-        const expected = inst.targets.map((_, t) => t).filter((t) => !cov.some((row) => row[t]));
-        expect(plan.uncovered).toEqual(expected);
-        expect(plan.assignments.map((a) => a.target)).toEqual(coverable(cov, inst.targets.length));
-      }),
+      fc.property(
+        instance(12, 14),
+        fc.constantFrom('auto', 'greedy') as fc.Arbitrary<'auto' | 'greedy'>,
+        (inst, method) => {
+          const plan = planSockets({ ...inst, method });
+          const cov = coverOf(inst.candidates, inst.targets, inst.standOffM, inst.radiusM);
+          const expected = inst.targets.map((_, t) => t).filter((t) => !cov.some((row) => row[t]));
+          expect(plan.uncovered).toEqual(expected);
+          expect(plan.assignments.map((a) => a.target)).toEqual(coverable(cov, inst.targets.length));
+        },
+      ),
       { numRuns: 300 },
     );
   });
@@ -87,7 +91,9 @@ describe('socket planner against brute force', () => {
         expect(greedy.exact).toBe(false);
         for (const t of coverable(cov, inst.targets.length)) expect(covers(cov, greedy.chosen, t)).toBe(true);
         expect(greedy.chosen.length).toBeGreaterThanOrEqual(exact.chosen.length);
-        expect(greedy.chosen.length).toBeLessThanOrEqual((Math.log(inst.targets.length) + 1) * exact.chosen.length + 1e-9);
+        expect(greedy.chosen.length).toBeLessThanOrEqual(
+          (Math.log(inst.targets.length) + 1) * exact.chosen.length + 1e-9,
+        );
       }),
       { numRuns: 300 },
     );
@@ -101,7 +107,11 @@ describe('socket planner against brute force', () => {
           const t = inst.targets[a.target];
           const dist = plan.chosen.map((c) => {
             const { position: p, normal: n } = inst.candidates[c];
-            return Math.hypot(t[0] - p[0] - n[0] * inst.standOffM, t[1] - p[1] - n[1] * inst.standOffM, t[2] - p[2] - n[2] * inst.standOffM);
+            return Math.hypot(
+              t[0] - p[0] - n[0] * inst.standOffM,
+              t[1] - p[1] - n[1] * inst.standOffM,
+              t[2] - p[2] - n[2] * inst.standOffM,
+            );
           });
           expect(a.distanceM).toBeCloseTo(Math.min(...dist), 9);
           expect(a.distanceM).toBeLessThanOrEqual(inst.radiusM + 1e-9);
@@ -117,20 +127,34 @@ describe('socket planner cases', () => {
   const up: Vec3 = [0, 0, 1];
   // a row of sockets 1 m apart along x; h 1, R 0.7 (planning defaults from memory)
   const row = (count: number, key = true): SocketCandidate[] =>
-    Array.from({ length: count }, (_, i) => ({ ...(key ? { key: `S${i}` } : {}), position: [i, 0, 0] as Vec3, normal: up }));
+    Array.from({ length: count }, (_, i) => ({
+      ...(key ? { key: `S${i}` } : {}),
+      position: [i, 0, 0] as Vec3,
+      normal: up,
+    }));
   const reach = { standOffM: 1, radiusM: 0.7 };
 
   it('picks the one socket that reaches two targets over two that reach one each', () => {
-    const targets: Vec3[] = [[0.4, 0, 1], [0.6, 0, 1]];
+    const targets: Vec3[] = [
+      [0.4, 0, 1],
+      [0.6, 0, 1],
+    ];
     const plan = planSockets({ ...reach, targets, candidates: row(3) });
     expect(plan.sockets).toEqual(['S0']);
     expect(plan.exact).toBe(true);
     expect(plan.uncovered).toEqual([]);
-    expect(plan.assignments.map((a) => [a.target, a.socket])).toEqual([[0, 0], [1, 0]]);
+    expect(plan.assignments.map((a) => [a.target, a.socket])).toEqual([
+      [0, 0],
+      [1, 0],
+    ]);
   });
 
   it('reports unreachable targets and names new sockets by position and normal', () => {
-    const targets: Vec3[] = [[0, 0, 1.2], [50, 0, 0], [3, 0, 1]];
+    const targets: Vec3[] = [
+      [0, 0, 1.2],
+      [50, 0, 0],
+      [3, 0, 1],
+    ];
     const plan = planSockets({ ...reach, targets, candidates: row(4, false) });
     expect(plan.uncovered).toEqual([1]);
     expect(plan.sockets).toEqual([
@@ -166,7 +190,9 @@ describe('socket planner cases', () => {
     const plan = planSockets({ ...reach, targets, candidates });
     expect(plan.exact).toBe(false);
     expect(plan.sockets).toHaveLength(n);
-    expect(planSockets({ ...reach, targets: targets.slice(1), candidates: candidates.slice(1) }).exact).toBe(true);
+    expect(planSockets({ ...reach, targets: targets.slice(1), candidates: candidates.slice(1) }).exact).toBe(
+      true,
+    );
     expect(() => planSockets({ ...reach, targets, candidates, method: 'exact' })).toThrow(RangeError);
   });
 
@@ -199,8 +225,16 @@ describe('socket planner cases', () => {
   });
 
   it('handles no candidates and no targets', () => {
-    expect(planSockets({ ...reach, targets: [[0, 0, 0]], candidates: [] })).toMatchObject({ sockets: [], uncovered: [0], exact: true });
-    expect(planSockets({ ...reach, targets: [], candidates: row(2) })).toMatchObject({ sockets: [], uncovered: [], assignments: [] });
+    expect(planSockets({ ...reach, targets: [[0, 0, 0]], candidates: [] })).toMatchObject({
+      sockets: [],
+      uncovered: [0],
+      exact: true,
+    });
+    expect(planSockets({ ...reach, targets: [], candidates: row(2) })).toMatchObject({
+      sockets: [],
+      uncovered: [],
+      assignments: [],
+    });
   });
 });
 
@@ -232,7 +266,10 @@ describe('existing sockets before new ones', () => {
 
   it('still proposes a new socket where no existing one reaches', () => {
     const plan = planSockets({
-      targets: [[0, 0, 1.8], [10, 0, 1.8]],
+      targets: [
+        [0, 0, 1.8],
+        [10, 0, 1.8],
+      ],
       candidates: [
         { key: 'EX-S1', position: [0.3, 0, 0.8], normal: [0, 0, 1] },
         { position: [10, 0, 0.8], normal: [0, 0, 1] },

@@ -1,7 +1,13 @@
 import fc from 'fast-check';
 import { Euler, Matrix4, Vector3 } from 'three';
 import { describe, expect, it } from 'vitest';
-import { faceDistance, gridCandidates, nearestFacePoint, segmentFaces, trussFaces } from '@shared/compute/truss-faces';
+import {
+  faceDistance,
+  gridCandidates,
+  nearestFacePoint,
+  segmentFaces,
+  trussFaces,
+} from '@shared/compute/truss-faces';
 import type { Segment, Vec3 } from '@shared/schemas/station';
 
 const box = (center: Vec3, size: Vec3, rotationDeg?: Vec3, key = 'B'): Segment => ({
@@ -15,7 +21,11 @@ const box = (center: Vec3, size: Vec3, rotationDeg?: Vec3, key = 'B'): Segment =
 const expectVec = (actual: Vec3, expected: Vec3, digits = 9) => {
   for (let i = 0; i < 3; i++) expect(actual[i]).toBeCloseTo(expected[i], digits);
 };
-const cross = (a: Vec3, b: Vec3): Vec3 => [a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]];
+const cross = (a: Vec3, b: Vec3): Vec3 => [
+  a[1] * b[2] - a[2] * b[1],
+  a[2] * b[0] - a[0] * b[2],
+  a[0] * b[1] - a[1] * b[0],
+];
 
 describe('segment faces', () => {
   it('a unit cube has six faces with outward normals, u × v = normal', () => {
@@ -45,13 +55,18 @@ describe('segment faces', () => {
     const deg = fc.double({ min: -180, max: 180, noNaN: true });
     fc.assert(
       fc.property(deg, deg, deg, (a, b, c) => {
-        const m = new Matrix4().makeRotationFromEuler(new Euler((a * Math.PI) / 180, (b * Math.PI) / 180, (c * Math.PI) / 180, 'XYZ'));
+        const m = new Matrix4().makeRotationFromEuler(
+          new Euler((a * Math.PI) / 180, (b * Math.PI) / 180, (c * Math.PI) / 180, 'XYZ'),
+        );
         const size: Vec3 = [3, 2, 1];
         for (const f of segmentFaces(box([1, 2, 3], size, [a, b, c]))) {
           const local = new Vector3(0, 0, 0).setComponent(f.axis, f.sign);
           const n = local.clone().applyMatrix4(m);
           expectVec(f.normal, [n.x, n.y, n.z]);
-          const centre = local.multiplyScalar(size[f.axis] / 2).applyMatrix4(m).add(new Vector3(1, 2, 3));
+          const centre = local
+            .multiplyScalar(size[f.axis] / 2)
+            .applyMatrix4(m)
+            .add(new Vector3(1, 2, 3));
           expectVec(f.center, [centre.x, centre.y, centre.z]);
         }
       }),
@@ -144,7 +159,9 @@ describe('nearest face point', () => {
         const brute = Math.min(...samples.map((s) => Math.hypot(s[0] - x, s[1] - y, s[2] - z)));
         expect(r.distanceM).toBeLessThanOrEqual(brute + 1e-9);
         // the snapped point is on the surface: no farther than the sampling pitch from a sample
-        const gap = Math.min(...samples.map((s) => Math.hypot(s[0] - r.point[0], s[1] - r.point[1], s[2] - r.point[2])));
+        const gap = Math.min(
+          ...samples.map((s) => Math.hypot(s[0] - r.point[0], s[1] - r.point[1], s[2] - r.point[2])),
+        );
         expect(gap).toBeLessThan(0.1);
         expect(Math.hypot(...r.normal)).toBeCloseTo(1, 12);
       }),

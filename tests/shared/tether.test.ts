@@ -11,12 +11,21 @@ describe('greedy tether swaps on a fixed walk', () => {
   });
   it('reports a stretch longer than the tether', () => {
     const plan = placeSwapsGreedy([5, 12, 3], [true, true, false, true], 10);
-    expect(plan).toMatchObject({ feasible: false, gapStartIndex: 1, gapStartM: 5, gapM: 15, requiredTetherM: 15 });
+    expect(plan).toMatchObject({
+      feasible: false,
+      gapStartIndex: 1,
+      gapStartM: 5,
+      gapM: 15,
+      requiredTetherM: 15,
+    });
   });
   it('matches a dynamic programme over clip points on random walks', () => {
     fc.assert(
       fc.property(
-        fc.array(fc.integer({ min: 0, max: 900 }).map((v) => v / 100), { minLength: 1, maxLength: 14 }),
+        fc.array(
+          fc.integer({ min: 0, max: 900 }).map((v) => v / 100),
+          { minLength: 1, maxLength: 14 },
+        ),
         fc.array(fc.boolean(), { minLength: 15, maxLength: 15 }),
         fc.integer({ min: 100, max: 1500 }).map((v) => v / 100),
         (legs, attach, tether) => {

@@ -92,7 +92,11 @@ function lineRoute(nodes: LineNode[]): RouteFn {
       maxPaidOutM,
       warnings: [
         // as the engine says it when a route leaves a node that is not an attach point
-        ...(line[a].attach ? [] : [`${from} is not a tether attach point: the route assumes the tether is clipped where the crew member starts.`]),
+        ...(line[a].attach
+          ? []
+          : [
+              `${from} is not a tether attach point: the route assumes the tether is clipped where the crew member starts.`,
+            ]),
         ...cautions.map((h) => `The route passes through caution volume ${h}.`),
       ],
       cautionHazards: cautions,
@@ -541,7 +545,11 @@ describe('computeTimeline with a plan parsed by CreatePlanInputSchema', () => {
 describe('routes that leave a worksite', () => {
   it('are noted once for the plan, naming each such start, not once per route', () => {
     const route = lineRoute(STATION);
-    const tasks = [task({ worksite: 'W1', crew: 'EV1' }), task({ worksite: 'W2', crew: 'EV1' }), task({ worksite: 'W1', crew: 'both' })];
+    const tasks = [
+      task({ worksite: 'W1', crew: 'EV1' }),
+      task({ worksite: 'W2', crew: 'EV1' }),
+      task({ worksite: 'W1', crew: 'both' }),
+    ];
     const timeline = computeTimeline({ plan: plan(tasks), airlockKey: 'A', orbit: ORBIT }, route);
     const notes = timeline.warnings.filter((w) => w.code === 'route-note');
     expect(notes).toHaveLength(1);
@@ -550,7 +558,10 @@ describe('routes that leave a worksite', () => {
   });
 
   it('say nothing when every route starts at an attach point', () => {
-    const timeline = computeTimeline({ plan: plan([task({ worksite: 'J2', crew: 'EV2' })]), airlockKey: 'A', orbit: ORBIT }, lineRoute(STATION));
+    const timeline = computeTimeline(
+      { plan: plan([task({ worksite: 'J2', crew: 'EV2' })]), airlockKey: 'A', orbit: ORBIT },
+      lineRoute(STATION),
+    );
     expect(timeline.warnings.filter((w) => w.code === 'route-note')).toEqual([]);
   });
 });

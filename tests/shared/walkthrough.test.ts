@@ -17,7 +17,12 @@ const attach = doc.nodes.filter((n) => n.kind === 'anchor' || n.kind === 'airloc
 const airlock = doc.nodes.find((n) => n.kind === 'airlock')!.key;
 const dist = (a: Vec3, b: Vec3) => Math.hypot(a[0] - b[0], a[1] - b[1], a[2] - b[2]);
 
-function feasibleRoute(from: string, to: string, mode: 'fastest' | 'fewest-swaps' | 'balanced', tether: number) {
+function feasibleRoute(
+  from: string,
+  to: string,
+  mode: 'fastest' | 'fewest-swaps' | 'balanced',
+  tether: number,
+) {
   const r = findRoute(compiled, doc.settings, { from, to, mode, tetherLengthM: tether });
   return r.feasible ? r : null;
 }
@@ -43,7 +48,9 @@ describe('route walkthrough', () => {
           const clips = [r.nodes[0], ...r.swaps.map((s) => s.node)];
           swaps.forEach((s, i) => expect(s.releaseKey).toBe(clips[i]));
           // translate steps cover the whole route length; the track lasts the route's total time
-          const translated = track.steps.filter((s) => s.type === 'translate').reduce((a, s) => a + (s.lengthM ?? 0), 0);
+          const translated = track.steps
+            .filter((s) => s.type === 'translate')
+            .reduce((a, s) => a + (s.lengthM ?? 0), 0);
           expect(translated).toBeCloseTo(r.lengthM, 6);
           expect(track.endSeconds).toBeCloseTo(r.totalSeconds, 6);
           expect(track.steps[0].type).toBe('start');
@@ -62,7 +69,10 @@ describe('route walkthrough', () => {
   });
 
   it('samples move continuously along the legs and hold still during a swap', () => {
-    const r = [...attach].reverse().map((to) => feasibleRoute(airlock, to, 'fastest', 10)).find((x) => x && x.swapCount >= 2)!;
+    const r = [...attach]
+      .reverse()
+      .map((to) => feasibleRoute(airlock, to, 'fastest', 10))
+      .find((x) => x && x.swapCount >= 2)!;
     expect(r).toBeTruthy();
     const track = routeWalkthrough(r, position);
     const swap = track.steps.find((s) => s.type === 'swap')!;
@@ -84,9 +94,31 @@ describe('plan walkthrough', () => {
   const worksites = doc.nodes.filter((n) => n.kind === 'worksite');
   const sockets = doc.nodes.filter((n) => n.kind === 'socket');
   const tasks = [
-    { title: 'Unbolt', worksite: worksites[0].key, crew: 'EV1' as const, durationSeconds: 1200, eclipseOnly: false, carrying: false, socket: sockets[0]?.key },
-    { title: 'Carry', worksite: worksites[1 % worksites.length].key, crew: 'both' as const, durationSeconds: 900, eclipseOnly: false, carrying: true },
-    { title: 'Mate', worksite: worksites[0].key, crew: 'EV2' as const, durationSeconds: 600, eclipseOnly: true, carrying: false },
+    {
+      title: 'Unbolt',
+      worksite: worksites[0].key,
+      crew: 'EV1' as const,
+      durationSeconds: 1200,
+      eclipseOnly: false,
+      carrying: false,
+      socket: sockets[0]?.key,
+    },
+    {
+      title: 'Carry',
+      worksite: worksites[1 % worksites.length].key,
+      crew: 'both' as const,
+      durationSeconds: 900,
+      eclipseOnly: false,
+      carrying: true,
+    },
+    {
+      title: 'Mate',
+      worksite: worksites[0].key,
+      crew: 'EV2' as const,
+      durationSeconds: 600,
+      eclipseOnly: true,
+      carrying: false,
+    },
   ];
   const timeline = computeTimeline(
     {
@@ -103,14 +135,24 @@ describe('plan walkthrough', () => {
       airlockKey: airlock,
       orbit: doc.orbit,
     },
-    (from, to, o) => findRoute(compiled, doc.settings, { from, to, mode: o.mode, tetherLengthM: o.tetherLengthM, carrying: o.carrying, allowRide: o.allowRide }),
+    (from, to, o) =>
+      findRoute(compiled, doc.settings, {
+        from,
+        to,
+        mode: o.mode,
+        tetherLengthM: o.tetherLengthM,
+        carrying: o.carrying,
+        allowRide: o.allowRide,
+      }),
   );
   const walk = planWalkthrough(timeline, tasks, airlock, position);
 
   it('each crew member’s steps match their timeline blocks one to one (plus restraint call-outs)', () => {
     for (const crew of ['EV1', 'EV2'] as const) {
       const blocks = timeline.crew[crew].blocks;
-      const steps = walk.crews[crew].steps.filter((s) => s.type !== 'restraint-in' && s.type !== 'restraint-out');
+      const steps = walk.crews[crew].steps.filter(
+        (s) => s.type !== 'restraint-in' && s.type !== 'restraint-out',
+      );
       expect(steps.map((s) => s.type)).toEqual(blocks.map((b) => b.type));
       steps.forEach((s, i) => {
         expect(s.start).toBeCloseTo(blocks[i].start, 9);
@@ -124,7 +166,8 @@ describe('plan walkthrough', () => {
   });
 
   it('both crew start the shared task at the same elapsed time and end in the airlock', () => {
-    const shared = (crew: 'EV1' | 'EV2') => walk.crews[crew].steps.find((s) => s.type === 'work' && s.taskIndex === 1)!;
+    const shared = (crew: 'EV1' | 'EV2') =>
+      walk.crews[crew].steps.find((s) => s.type === 'work' && s.taskIndex === 1)!;
     expect(shared('EV1').start).toBeCloseTo(shared('EV2').start, 9);
     for (const crew of ['EV1', 'EV2'] as const) {
       const end = sampleTrack(walk.crews[crew], walk.endSeconds);

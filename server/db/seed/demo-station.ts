@@ -14,7 +14,12 @@ export const KESTREL_STATION_FILE = fileURLToPath(new URL('./kestrel-station.jso
 export function seedDemoStation(ctx: AppContext) {
   const existing = ctx.db.select({ n: count() }).from(stations).get()?.n ?? 0;
   if (existing > 0) return;
-  const admin = ctx.db.select({ id: users.id, name: users.name }).from(users).where(eq(users.email, 'admin@example.org')).get() ?? null;
+  const admin =
+    ctx.db
+      .select({ id: users.id, name: users.name })
+      .from(users)
+      .where(eq(users.email, 'admin@example.org'))
+      .get() ?? null;
   const doc = parseStationDocumentText(fs.readFileSync(KESTREL_STATION_FILE, 'utf8'));
   const { counts } = importStation(ctx, doc, admin);
   ctx.logger.info({ counts }, `seeded the demo station ${doc.name}`);

@@ -19,11 +19,18 @@ export const DEMO_USERS: { email: string; name: string; role: Role }[] = [
 
 /** Adds the demo users to an empty database only: an existing team's people are never touched. */
 export function seedDemoUsers(db: Db): boolean {
-  const count = db.select({ n: sql<number>`count(*)` }).from(users).get()?.n ?? 0;
+  const count =
+    db
+      .select({ n: sql<number>`count(*)` })
+      .from(users)
+      .get()?.n ?? 0;
   if (count > 0) return false;
   const hash = bcrypt.hashSync(DEMO_PASSWORD, BCRYPT_COST);
   db.transaction((tx) => {
-    for (const u of DEMO_USERS) tx.insert(users).values({ ...u, passwordHash: hash }).run();
+    for (const u of DEMO_USERS)
+      tx.insert(users)
+        .values({ ...u, passwordHash: hash })
+        .run();
   });
   return true;
 }

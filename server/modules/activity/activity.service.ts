@@ -10,12 +10,20 @@ export interface ActivityInput {
 }
 
 export function recordActivity(db: Db, entry: ActivityInput) {
-  db.insert(activity).values({ ...entry, link: entry.link ?? null }).run();
+  db.insert(activity)
+    .values({ ...entry, link: entry.link ?? null })
+    .run();
 }
 
 export function recentActivity(db: Db, limit = 20) {
   return db
-    .select({ id: activity.id, kind: activity.kind, summary: activity.summary, link: activity.link, createdAt: activity.createdAt })
+    .select({
+      id: activity.id,
+      kind: activity.kind,
+      summary: activity.summary,
+      link: activity.link,
+      createdAt: activity.createdAt,
+    })
     .from(activity)
     .orderBy(desc(activity.id))
     .limit(limit)

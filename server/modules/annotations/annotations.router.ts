@@ -11,7 +11,15 @@ import {
   UpdateAnnotationInputSchema,
 } from '@shared/schemas/annotations';
 import { StationIdParamsSchema } from '@shared/schemas/station-edits';
-import { addAttachment, addReply, createAnnotation, getAnnotation, listAnnotations, openAttachment, updateAnnotation } from './annotations.service';
+import {
+  addAttachment,
+  addReply,
+  createAnnotation,
+  getAnnotation,
+  listAnnotations,
+  openAttachment,
+  updateAnnotation,
+} from './annotations.service';
 
 export const ATTACHMENT_MAX_BYTES = 5 * MB;
 
@@ -65,9 +73,19 @@ export function annotationsRouter(ctx: AppContext) {
       before: [imageUpload],
       input: { params: IdParamsSchema },
       handler: async (req, _res, { params }) => {
-        if (!req.file) throw badRequest('Attach the image as the multipart field "file".', [{ path: 'file', message: 'required' }]);
+        if (!req.file)
+          throw badRequest('Attach the image as the multipart field "file".', [
+            { path: 'file', message: 'required' },
+          ]);
         const type = await requireImage(req.file.buffer);
-        return { attachment: addAttachment(ctx, params.id, { buffer: req.file.buffer, originalName: req.file.originalname, type }, author(req)) };
+        return {
+          attachment: addAttachment(
+            ctx,
+            params.id,
+            { buffer: req.file.buffer, originalName: req.file.originalname, type },
+            author(req),
+          ),
+        };
       },
     }),
     defineRoute({
@@ -81,7 +99,9 @@ export function annotationsRouter(ctx: AppContext) {
           res.setHeader('X-Content-Type-Options', 'nosniff');
           res.setHeader('Content-Type', file.mimeType);
           res.setHeader('Content-Disposition', contentDisposition('inline', file.fileName));
-          res.sendFile(file.path, { headers: { 'Content-Type': file.mimeType } }, (err) => (err ? reject(err) : resolve()));
+          res.sendFile(file.path, { headers: { 'Content-Type': file.mimeType } }, (err) =>
+            err ? reject(err) : resolve(),
+          );
         }),
     }),
   ]);

@@ -4,7 +4,13 @@ import type { AppContext } from '../../context';
 import type { Db } from '../../db/client';
 import { annotationReplies, annotations, attachments, nodes, users } from '../../db/schema';
 import { badRequest, forbidden, notFound } from '../../lib/http-error';
-import { removeStoredUpload, sanitizeFileName, storeUpload, storedUploadPath, type DetectedType } from '../../lib/uploads';
+import {
+  removeStoredUpload,
+  sanitizeFileName,
+  storeUpload,
+  storedUploadPath,
+  type DetectedType,
+} from '../../lib/uploads';
 import type { Role } from '@shared/auth/permissions';
 import type {
   Annotation,
@@ -28,14 +34,31 @@ type AnnotationRow = typeof annotations.$inferSelect;
 function peopleById(db: Db, ids: (number | null)[]): Map<number, PersonRef> {
   const wanted = [...new Set(ids.filter((id): id is number => id !== null))];
   if (!wanted.length) return new Map();
-  return new Map(db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, wanted)).all().map((u) => [u.id, u]));
+  return new Map(
+    db
+      .select({ id: users.id, name: users.name })
+      .from(users)
+      .where(inArray(users.id, wanted))
+      .all()
+      .map((u) => [u.id, u]),
+  );
 }
 
 function toAnnotations(db: Db, rows: AnnotationRow[]): Annotation[] {
   if (!rows.length) return [];
   const ids = rows.map((r) => r.id);
-  const replies = db.select().from(annotationReplies).where(inArray(annotationReplies.annotationId, ids)).orderBy(asc(annotationReplies.id)).all();
-  const files = db.select().from(attachments).where(inArray(attachments.annotationId, ids)).orderBy(asc(attachments.id)).all();
+  const replies = db
+    .select()
+    .from(annotationReplies)
+    .where(inArray(annotationReplies.annotationId, ids))
+    .orderBy(asc(annotationReplies.id))
+    .all();
+  const files = db
+    .select()
+    .from(attachments)
+    .where(inArray(attachments.annotationId, ids))
+    .orderBy(asc(attachments.id))
+    .all();
   const people = peopleById(db, [
     ...rows.flatMap((r) => [r.authorId, r.resolvedBy]),
     ...replies.map((r) => r.authorId),
@@ -83,56 +106,110 @@ export function getAnnotation(db: Db, id: number): Annotation {
 
 export function listAnnotations(db: Db, stationId: number, status?: AnnotationStatus): Annotation[] {
   findStationRow(db, stationId);
-  const where = status ? and(eq(annotations.stationId, stationId), eq(annotations.status, status)) : eq(annotations.stationId, stationId);
+  const where = status
+    ? and(eq(annotations.stationId, stationId), eq(annotations.status, status))
+    : eq(annotations.stationId, stationId);
   return toAnnotations(db, db.select().from(annotations).where(where).orderBy(desc(annotations.id)).all());
 }
 
-const annotationLink = (r: { stationId: number; id: number }) => `/stations/${r.stationId}?annotation=${r.id}`;
+const annotationLink = (r: { stationId: number; id: number }) =>
+  `/stations/${r.stationId}?annotation=${r.id}`;
 
-export function createAnnotation(ctx: AppContext, stationId: number, input: CreateAnnotationInput, author: Author): Annotation {
+export function createAnnotation(
+  ctx: AppContext,
+  stationId: number,
+  input: CreateAnnotationInput,
+  author: Author,
+): Annotation {
   const station = findStationRow(ctx.db, stationId);
   let position = input.position;
   if (input.nodeKey !== undefined) {
-    const node = ctx.db.select().from(nodes).where(and(eq(nodes.stationId, stationId), eq(nodes.key, input.nodeKey))).get();
-    if (!node) throw badRequest(`Unknown node key "${input.nodeKey}"`, [{ path: 'body.nodeKey', message: `no node "${input.nodeKey}" in ${station.name}` }]);
+    const node = ctx.db
+      .select()
+      .from(nodes)
+      .where(and(eq(nodes.stationId, stationId), eq(nodes.key, input.nodeKey)))
+      .get();
+    if (!node)
+      throw badRequest(`Unknown node key "${input.nodeKey}"`, [
+        { path: 'body.nodeKey', message: `no node "${input.nodeKey}" in ${station.name}` },
+      ]);
     position = [node.x, node.y, node.z];
   }
   const [x, y, z] = position!;
   const row = ctx.db
     .insert(annotations)
-    .values({ stationId, nodeKey: input.nodeKey ?? null, x, y, z, title: input.title, body: input.body, authorId: author.id })
+    .values({
+      stationId,
+      nodeKey: input.nodeKey ?? null,
+      x,
+      y,
+      z,
+      title: input.title,
+      body: input.body,
+      authorId: author.id,
+    })
     .returning()
     .get();
-  recordActivity(ctx.db, { userId: author.id, kind: 'annotation.create', summary: `${author.name} pinned a note "${row.title}" on ${station.name}`, link: annotationLink(row) });
+  recordActivity(ctx.db, {
+    userId: author.id,
+    kind: 'annotation.create',
+    summary: `${author.name} pinned a note "${row.title}" on ${station.name}`,
+    link: annotationLink(row),
+  });
   return getAnnotation(ctx.db, row.id);
 }
 
-export function addReply(ctx: AppContext, annotationId: number, input: CreateReplyInput, author: Author): Annotation {
+export function addReply(
+  ctx: AppContext,
+  annotationId: number,
+  input: CreateReplyInput,
+  author: Author,
+): Annotation {
   const row = findAnnotationRow(ctx.db, annotationId);
   ctx.db.insert(annotationReplies).values({ annotationId, body: input.body, authorId: author.id }).run();
-  recordActivity(ctx.db, { userId: author.id, kind: 'annotation.reply', summary: `${author.name} replied to "${row.title}"`, link: annotationLink(row) });
+  recordActivity(ctx.db, {
+    userId: author.id,
+    kind: 'annotation.reply',
+    summary: `${author.name} replied to "${row.title}"`,
+    link: annotationLink(row),
+  });
   return getAnnotation(ctx.db, annotationId);
 }
 
 /** Anyone who may write annotations may resolve or reopen one; only its author or an admin may reword it. */
-export function updateAnnotation(ctx: AppContext, annotationId: number, input: UpdateAnnotationInput, editor: Author): Annotation {
+export function updateAnnotation(
+  ctx: AppContext,
+  annotationId: number,
+  input: UpdateAnnotationInput,
+  editor: Author,
+): Annotation {
   const row = findAnnotationRow(ctx.db, annotationId);
-  const rewording = (input.title !== undefined && input.title !== row.title) || (input.body !== undefined && input.body !== row.body);
-  if (rewording && row.authorId !== editor.id && editor.role !== 'admin') throw forbidden('Only the author of a note (or an admin) can change its title or text.');
+  const rewording =
+    (input.title !== undefined && input.title !== row.title) ||
+    (input.body !== undefined && input.body !== row.body);
+  if (rewording && row.authorId !== editor.id && editor.role !== 'admin')
+    throw forbidden('Only the author of a note (or an admin) can change its title or text.');
   const statusChange = input.status !== undefined && input.status !== row.status;
   ctx.db
     .update(annotations)
     .set({
       ...(input.title !== undefined ? { title: input.title } : {}),
       ...(input.body !== undefined ? { body: input.body } : {}),
-      ...(statusChange ? { status: input.status, resolvedBy: input.status === 'resolved' ? editor.id : null } : {}),
+      ...(statusChange
+        ? { status: input.status, resolvedBy: input.status === 'resolved' ? editor.id : null }
+        : {}),
       updatedAt: new Date().toISOString(),
     })
     .where(eq(annotations.id, annotationId))
     .run();
   if (statusChange) {
     const verb = input.status === 'resolved' ? 'resolved' : 'reopened';
-    recordActivity(ctx.db, { userId: editor.id, kind: `annotation.${verb}`, summary: `${editor.name} ${verb} "${row.title}"`, link: annotationLink(row) });
+    recordActivity(ctx.db, {
+      userId: editor.id,
+      kind: `annotation.${verb}`,
+      summary: `${editor.name} ${verb} "${row.title}"`,
+      link: annotationLink(row),
+    });
   }
   return getAnnotation(ctx.db, annotationId);
 }
@@ -147,8 +224,13 @@ export function addAttachment(
   uploader: Author,
 ) {
   findAnnotationRow(ctx.db, annotationId);
-  const existing = ctx.db.select({ id: attachments.id }).from(attachments).where(eq(attachments.annotationId, annotationId)).all();
-  if (existing.length >= MAX_ATTACHMENTS_PER_ANNOTATION) throw badRequest(`A note can carry at most ${MAX_ATTACHMENTS_PER_ANNOTATION} images.`);
+  const existing = ctx.db
+    .select({ id: attachments.id })
+    .from(attachments)
+    .where(eq(attachments.annotationId, annotationId))
+    .all();
+  if (existing.length >= MAX_ATTACHMENTS_PER_ANNOTATION)
+    throw badRequest(`A note can carry at most ${MAX_ATTACHMENTS_PER_ANNOTATION} images.`);
   const storedName = storeUpload(ctx.config.dataDir, file.buffer, file.type.ext);
   try {
     const stem = sanitizeFileName(file.originalName, 'image').replace(/\.[A-Za-z0-9]{1,5}$/, '');

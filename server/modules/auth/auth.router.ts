@@ -5,7 +5,13 @@ import { HttpError } from '../../lib/http-error';
 import { defineRoute, mountRoutes } from '../../lib/route';
 import { clearSession, issueSession } from '../../middleware/session';
 import { SetPasswordInputSchema, SignInInputSchema } from '@shared/schemas/auth';
-import { endAllSessions, getInvitation, setPasswordWithToken, toPublicUser, verifyCredentials } from './auth.service';
+import {
+  endAllSessions,
+  getInvitation,
+  setPasswordWithToken,
+  toPublicUser,
+  verifyCredentials,
+} from './auth.service';
 
 export function authRouter(ctx: AppContext) {
   // failed attempts only: a team signing in all morning from one office is not throttled
@@ -16,7 +22,9 @@ export function authRouter(ctx: AppContext) {
     standardHeaders: 'draft-8',
     legacyHeaders: false,
     handler: (_req, _res, next) =>
-      next(new HttpError('RATE_LIMITED', 'Too many failed sign-in attempts. Wait a few minutes and try again.')),
+      next(
+        new HttpError('RATE_LIMITED', 'Too many failed sign-in attempts. Wait a few minutes and try again.'),
+      ),
   });
 
   return mountRoutes('/api/auth', [

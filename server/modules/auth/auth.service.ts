@@ -29,7 +29,8 @@ export async function verifyCredentials(db: Db, email: string, password: string)
   const u = db.select().from(users).where(eq(users.email, email)).get();
   const ok = await bcrypt.compare(password, u?.passwordHash ?? DUMMY_HASH);
   if (!u || !u.passwordHash || !ok) throw new HttpError('UNAUTHENTICATED', 'Wrong e-mail or password.');
-  if (u.disabled) throw new HttpError('UNAUTHENTICATED', 'This account is disabled. Ask your team lead to enable it.');
+  if (u.disabled)
+    throw new HttpError('UNAUTHENTICATED', 'This account is disabled. Ask your team lead to enable it.');
   return u;
 }
 
@@ -60,7 +61,11 @@ function findLiveToken(db: Db, token: string) {
 export function getInvitation(db: Db, token: string) {
   const row = findLiveToken(db, token);
   const u = row && db.select().from(users).where(eq(users.id, row.userId)).get();
-  if (!row || !u || u.disabled) throw new HttpError('NOT_FOUND', 'This link has expired or has already been used. Ask your team lead for a new one.');
+  if (!row || !u || u.disabled)
+    throw new HttpError(
+      'NOT_FOUND',
+      'This link has expired or has already been used. Ask your team lead for a new one.',
+    );
   return { email: u.email, name: u.name };
 }
 
@@ -70,7 +75,11 @@ export async function setPasswordWithToken(db: Db, token: string, password: stri
   return db.transaction((tx) => {
     const row = findLiveToken(tx as unknown as Db, token);
     const u = row && tx.select().from(users).where(eq(users.id, row.userId)).get();
-    if (!row || !u || u.disabled) throw new HttpError('NOT_FOUND', 'This link has expired or has already been used. Ask your team lead for a new one.');
+    if (!row || !u || u.disabled)
+      throw new HttpError(
+        'NOT_FOUND',
+        'This link has expired or has already been used. Ask your team lead for a new one.',
+      );
     const now = new Date().toISOString();
     tx.update(passwordTokens).set({ usedAt: now }).where(eq(passwordTokens.id, row.id)).run();
     tx.update(users)

@@ -10,7 +10,11 @@ import type { ClipBuildJob } from './clip-builder';
 if (!parentPort) throw new Error('clip-builder-worker.ts runs as a worker thread (see clip-builder.ts)');
 const job = workerData as ClipBuildJob;
 const compiled = compileStation(job.doc);
-const { parts, transfer } = buildClipGraphParts(compiled, compiled.arcSeconds, job.tetherLengthM, job.excludeMask, [
-  job.doc.settings.swapSeconds,
-]);
+const { parts, transfer } = buildClipGraphParts(
+  compiled,
+  compiled.arcSeconds,
+  job.tetherLengthM,
+  job.excludeMask,
+  [job.doc.settings.swapSeconds],
+);
 parentPort.postMessage(parts, transfer);

@@ -1,7 +1,12 @@
 import { Worker } from 'node:worker_threads';
 import type { CompiledStation } from '@shared/compute/compiled-station';
 import { adoptClipGraph, type ClipGraphParts } from '@shared/compute/routes-clip';
-import { CLIP_BUILD_FREE_NODES, findRoute, wantsClipGraph, type FindRouteOptions } from '@shared/compute/routes';
+import {
+  CLIP_BUILD_FREE_NODES,
+  findRoute,
+  wantsClipGraph,
+  type FindRouteOptions,
+} from '@shared/compute/routes';
 import type { RouteRequest, RouteResult } from '@shared/schemas/route';
 import type { StationDocument } from '@shared/schemas/station';
 import type { Logger } from '../../lib/logger';
@@ -34,7 +39,10 @@ interface Builds {
 const builds: Builds = { inlineNodes: CLIP_BUILD_FREE_NODES, running: new Map(), onEvent: () => {} };
 
 /** Sets the size above which clip graphs are built off the request path, and who hears of builds. */
-export function configureClipBuilds(options: { inlineNodes?: number; onEvent?: (e: ClipBuildEvent) => void }): void {
+export function configureClipBuilds(options: {
+  inlineNodes?: number;
+  onEvent?: (e: ClipBuildEvent) => void;
+}): void {
   if (options.inlineNodes !== undefined) builds.inlineNodes = options.inlineNodes;
   if (options.onEvent) builds.onEvent = options.onEvent;
 }
@@ -49,7 +57,11 @@ const pending = new WeakMap<CompiledStation, Set<string>>();
  * the builder hands its clip graph over, the next queries use it. Both searches are exact: the
  * answer has the same cost either way, though of two equally good routes they may pick different ones.
  */
-export function routeOffPath(compiled: CompiledStation, doc: StationDocument, request: RouteRequest): RouteResult {
+export function routeOffPath(
+  compiled: CompiledStation,
+  doc: StationDocument,
+  request: RouteRequest,
+): RouteResult {
   const options: FindRouteOptions = { clipBuildFreeNodes: builds.inlineNodes };
   const want = wantsClipGraph(compiled, doc.settings, request, options);
   // a clip graph is filed under the compiled station's own arc times: other settings get none
@@ -59,7 +71,9 @@ export function routeOffPath(compiled: CompiledStation, doc: StationDocument, re
     if (!keys) pending.set(compiled, (keys = new Set()));
     if (!keys.has(key)) {
       keys.add(key);
-      startBuild(compiled, { doc, tetherLengthM: want.tetherLengthM, excludeMask: want.excludeMask }, () => keys.delete(key));
+      startBuild(compiled, { doc, tetherLengthM: want.tetherLengthM, excludeMask: want.excludeMask }, () =>
+        keys.delete(key),
+      );
     }
   }
   return findRoute(compiled, doc.settings, request, options);
@@ -78,7 +92,12 @@ function startBuild(compiled: CompiledStation, job: ClipBuildJob, done: () => vo
       builds.running.delete(worker);
       done();
       resolve();
-      const event = { nodes: compiled.nodeCount, tetherLengthM: job.tetherLengthM, excludeMask: job.excludeMask, ok };
+      const event = {
+        nodes: compiled.nodeCount,
+        tetherLengthM: job.tetherLengthM,
+        excludeMask: job.excludeMask,
+        ok,
+      };
       builds.onEvent({ ...event, ms: performance.now() - started, ...(error ? { error } : {}) });
     };
     worker.on('message', (parts: ClipGraphParts) => {
@@ -86,7 +105,9 @@ function startBuild(compiled: CompiledStation, job: ClipBuildJob, done: () => vo
       finish(true);
     });
     worker.on('error', (err) => finish(false, err.message));
-    worker.on('exit', (code) => finish(false, `the builder stopped (code ${code}) before handing over a clip graph`));
+    worker.on('exit', (code) =>
+      finish(false, `the builder stopped (code ${code}) before handing over a clip graph`),
+    );
   });
   builds.running.set(worker, finished);
 }

@@ -36,7 +36,10 @@ export const CACHE_STATIONS = 4;
 const caches = new WeakMap<Db, Map<number, CompiledEntry>>();
 
 export function stationVersion(db: Db, stationId: number): number | null {
-  return db.select({ version: stations.version }).from(stations).where(eq(stations.id, stationId)).get()?.version ?? null;
+  return (
+    db.select({ version: stations.version }).from(stations).where(eq(stations.id, stationId)).get()
+      ?.version ?? null
+  );
 }
 
 /**

@@ -8,7 +8,11 @@ import { AcceptSocketPlanInputSchema, OrbitQuerySchema } from './compute.schemas
 import { acceptSocketPlan, computeReach, computeRoute, computeSocketPlan, orbitFor } from './compute.service';
 
 /** A computation on one station, open to every signed-in role: the body is parsed with `body`. */
-function onStation<S extends z.ZodType>(path: string, body: S, compute: (stationId: number, body: z.infer<S>) => unknown) {
+function onStation<S extends z.ZodType>(
+  path: string,
+  body: S,
+  compute: (stationId: number, body: z.infer<S>) => unknown,
+) {
   return defineRoute({
     method: 'post',
     path: `/stations/:id/${path}`,

@@ -16,7 +16,10 @@ export const OrbitQuerySchema = z.object({
 });
 export type OrbitQuery = z.infer<typeof OrbitQuerySchema>;
 
-const NonZeroVec3Schema = Vec3Schema.refine((v) => Math.hypot(...v) > 1e-9, 'a normal must not be the zero vector');
+const NonZeroVec3Schema = Vec3Schema.refine(
+  (v) => Math.hypot(...v) > 1e-9,
+  'a normal must not be the zero vector',
+);
 
 /** Body of `POST /api/stations/:id/socket-plan/accept`: the planned sockets to add to the model. */
 export const AcceptSocketPlanInputSchema = z.strictObject({

@@ -10,19 +10,29 @@ import { orbitSummary } from '@shared/compute/orbit';
 import type { RouteRequest, RouteResult } from '@shared/schemas/route';
 import type { ReachRequest, ReachResult, SocketPlanRequest, SocketPlanResult } from '@shared/schemas/sockets';
 import type { StationDocument, StationEdge, StationNode, Vec3 } from '@shared/schemas/station';
-import { edgeToRow, findStationRow, loadDocument, nodeToRow, writeStation, type Editor } from '../stations/stations.service';
+import {
+  edgeToRow,
+  findStationRow,
+  loadDocument,
+  nodeToRow,
+  writeStation,
+  type Editor,
+} from '../stations/stations.service';
 import { routeOffPath } from './clip-builder';
 import { getCompiledStation, type CompiledEntry } from './compiled-cache';
 import type { AcceptSocketPlanInput, OrbitQuery } from './compute.schemas';
 
-const unknownNode = (key: string, what = 'node') => new HttpError('NOT_FOUND', `The station has no ${what} "${key}".`);
+const unknownNode = (key: string, what = 'node') =>
+  new HttpError('NOT_FOUND', `The station has no ${what} "${key}".`);
 
 /** A socket by key: 404 when the station has no such node, 400 when the node is not a socket. */
 export function socketNode(doc: StationDocument, key: string, path: string): StationNode & { normal: Vec3 } {
   const node = doc.nodes.find((n) => n.key === key);
   if (!node) throw unknownNode(key);
   if (node.kind !== 'socket' || !node.normal) {
-    throw badRequest(`"${key}" is a ${node.kind}, not a foot-restraint socket.`, [{ path, message: 'not a socket' }]);
+    throw badRequest(`"${key}" is a ${node.kind}, not a foot-restraint socket.`, [
+      { path, message: 'not a socket' },
+    ]);
   }
   return node as StationNode & { normal: Vec3 };
 }
@@ -41,12 +51,18 @@ export function routeOn(entry: CompiledEntry, request: RouteRequest): RouteResul
  * `POST /api/stations/:id/routes`: on the worker pool when there is one (the answer comes back as
  * JSON text, sent as it is), else on the main thread.
  */
-export function computeRoute(ctx: AppContext, stationId: number, request: RouteRequest): RouteResult | Promise<JsonText> {
+export function computeRoute(
+  ctx: AppContext,
+  stationId: number,
+  request: RouteRequest,
+): RouteResult | Promise<JsonText> {
   const entry = getCompiledStation(ctx, stationId);
   if (!ctx.routePool) return routeOn(entry, request);
   checkRouteKeys(entry, request);
   const station = `${ctx.config.databaseUrl}#${stationId}`;
-  return ctx.routePool.route({ station, version: entry.version, doc: entry.doc, request }).then((json) => new JsonText(json));
+  return ctx.routePool
+    .route({ station, version: entry.version, doc: entry.doc, request })
+    .then((json) => new JsonText(json));
 }
 
 export function reachOn(doc: StationDocument, request: ReachRequest): ReachResult {
@@ -70,13 +86,23 @@ export function computeReach(ctx: AppContext, stationId: number, request: ReachR
   return reachOn(getCompiledStation(ctx, stationId).doc, request);
 }
 
-export function computeSocketPlan(ctx: AppContext, stationId: number, request: SocketPlanRequest): SocketPlanResult {
+export function computeSocketPlan(
+  ctx: AppContext,
+  stationId: number,
+  request: SocketPlanRequest,
+): SocketPlanResult {
   const { doc } = getCompiledStation(ctx, stationId);
   const { reach } = doc.settings;
   const listed: SocketCandidate[] = request.candidates
     ? request.candidates.map((key, i) => socketNode(doc, key, `body.candidates.${i}`))
-    : doc.nodes.filter((n) => n.kind === 'socket' && n.normal).map((n) => n as StationNode & { normal: Vec3 });
-  const candidates: SocketCandidate[] = listed.map(({ key, position, normal }) => ({ key, position, normal }));
+    : doc.nodes
+        .filter((n) => n.kind === 'socket' && n.normal)
+        .map((n) => n as StationNode & { normal: Vec3 });
+  const candidates: SocketCandidate[] = listed.map(({ key, position, normal }) => ({
+    key,
+    position,
+    normal,
+  }));
   if (request.gridSpacingM !== undefined) {
     // only faces a target could be reached from: keeps the candidate count to what matters
     const grid = gridCandidates(doc.segments, request.gridSpacingM, {
@@ -85,7 +111,12 @@ export function computeSocketPlan(ctx: AppContext, stationId: number, request: S
     });
     candidates.push(...grid.map(({ position, normal }) => ({ position, normal })));
   }
-  const { chosen: _chosen, usefulCandidateCount: _useful, searchNodes: _nodes, ...plan } = planSockets({
+  const {
+    chosen: _chosen,
+    usefulCandidateCount: _useful,
+    searchNodes: _nodes,
+    ...plan
+  } = planSockets({
     targets: request.targets,
     candidates,
     standOffM: reach.standOffM,
@@ -111,7 +142,12 @@ function nextSocketKey(taken: Set<string>): string {
  * (a junction, anchor or worksite on a handrail edge), through the stations module's one write
  * path: one transaction, version checked and bumped, audited.
  */
-export function acceptSocketPlan(ctx: AppContext, stationId: number, input: AcceptSocketPlanInput, editor: Editor) {
+export function acceptSocketPlan(
+  ctx: AppContext,
+  stationId: number,
+  input: AcceptSocketPlanInput,
+  editor: Editor,
+) {
   return writeStation(ctx, { stationId, expectedVersion: input.version, editor }, (tx) => {
     const doc = loadDocument(tx, findStationRow(tx, stationId));
     const onHandrail = new Set(doc.edges.filter((e) => e.kind === 'handrail').flatMap((e) => [e.from, e.to]));
@@ -120,14 +156,19 @@ export function acceptSocketPlan(ctx: AppContext, stationId: number, input: Acce
     const taken = new Set(doc.nodes.map((n) => n.key));
     const details: { path: string; message: string }[] = [];
     const added = input.sockets.map((s, i) => {
-      if (s.key && taken.has(s.key)) details.push({ path: `body.sockets.${i}.key`, message: `the key "${s.key}" is already used` });
+      if (s.key && taken.has(s.key))
+        details.push({ path: `body.sockets.${i}.key`, message: `the key "${s.key}" is already used` });
       const key = s.key ?? nextSocketKey(taken);
       taken.add(key);
       const len = Math.hypot(...s.normal);
       let nearest = joinable[0];
       let best = Infinity;
       for (const n of joinable) {
-        const d = Math.hypot(n.position[0] - s.position[0], n.position[1] - s.position[1], n.position[2] - s.position[2]);
+        const d = Math.hypot(
+          n.position[0] - s.position[0],
+          n.position[1] - s.position[1],
+          n.position[2] - s.position[2],
+        );
         if (d < best) [nearest, best] = [n, d];
       }
       const node: StationNode = {
@@ -140,14 +181,23 @@ export function acceptSocketPlan(ctx: AppContext, stationId: number, input: Acce
       const edge: StationEdge = { from: nearest.key, to: key, kind: 'hop' };
       return { node, edge, hopM: best };
     });
-    if (details.length) throw badRequest(`The request is not valid: ${details[0].path} ${details[0].message}`, details);
+    if (details.length)
+      throw badRequest(`The request is not valid: ${details[0].path} ${details[0].message}`, details);
     const ord = (table: typeof nodes | typeof edges) =>
-      (tx.select({ m: max(table.ord) }).from(table).where(eq(table.stationId, stationId)).get()?.m ?? -1) + 1;
+      (tx
+        .select({ m: max(table.ord) })
+        .from(table)
+        .where(eq(table.stationId, stationId))
+        .get()?.m ?? -1) + 1;
     const nodeOrd = ord(nodes);
     const edgeOrd = ord(edges);
     added.forEach((a, i) => {
-      tx.insert(nodes).values(nodeToRow(stationId, a.node, nodeOrd + i)).run();
-      tx.insert(edges).values(edgeToRow(stationId, a.edge, edgeOrd + i)).run();
+      tx.insert(nodes)
+        .values(nodeToRow(stationId, a.node, nodeOrd + i))
+        .run();
+      tx.insert(edges)
+        .values(edgeToRow(stationId, a.edge, edgeOrd + i))
+        .run();
     });
     const keys = added.map((a) => a.node.key);
     return {
@@ -163,6 +213,7 @@ export function acceptSocketPlan(ctx: AppContext, stationId: number, input: Acce
 }
 
 export function orbitFor(query: OrbitQuery) {
-  const { periodSeconds, eclipseSeconds, sunlitSeconds, criticalBetaDeg, eclipseFraction } = orbitSummary(query);
+  const { periodSeconds, eclipseSeconds, sunlitSeconds, criticalBetaDeg, eclipseFraction } =
+    orbitSummary(query);
   return { periodSeconds, eclipseSeconds, sunlitSeconds, criticalBetaDeg, eclipseFraction, ...query };
 }

@@ -194,7 +194,9 @@ export class RoutePool {
     slot.respawn = null;
     const worker = new Worker(BOOT, {
       argv: ['./route-worker.ts'],
-      workerData: { clipInlineNodes: this.options.clipInlineNodes ?? CLIP_BUILD_FREE_NODES } satisfies RouteWorkerData,
+      workerData: {
+        clipInlineNodes: this.options.clipInlineNodes ?? CLIP_BUILD_FREE_NODES,
+      } satisfies RouteWorkerData,
       execArgv: [],
       name: `route-worker-${slot.index}`,
     });

@@ -5,12 +5,24 @@ import type { TimelineBlock } from '@shared/compute/timeline';
 import type { PlanView } from './plans.service';
 import type { PlanTimeline } from './plan-timeline.service';
 
-export const CSV_HEADER = ['crew', 'type', 'start', 'end', 'duration_min', 'task', 'from', 'to', 'swaps', 'notes'];
+export const CSV_HEADER = [
+  'crew',
+  'type',
+  'start',
+  'end',
+  'duration_min',
+  'task',
+  'from',
+  'to',
+  'swaps',
+  'notes',
+];
 
 function blockNotes(block: TimelineBlock): string {
   const notes: string[] = [];
   if (block.type === 'wait' || block.type === 'translate') notes.push(block.label);
-  if (block.type === 'swap' && block.swapNode) notes.push(`clip the new hook at ${block.swapNode}, then release the old one`);
+  if (block.type === 'swap' && block.swapNode)
+    notes.push(`clip the new hook at ${block.swapNode}, then release the old one`);
   if (block.unreached) notes.push('worksite not reached: see the plan warnings');
   return notes.join('; ');
 }
@@ -41,7 +53,12 @@ export function timelineCsv(plan: PlanView, timeline: PlanTimeline): string {
 
 /** A file name from the plan title: letters, digits and dashes only. */
 export function exportFileName(plan: PlanView, ext: string): string {
-  const slug = plan.title.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 60) || 'plan';
+  const slug =
+    plan.title
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, '-')
+      .replace(/^-+|-+$/g, '')
+      .slice(0, 60) || 'plan';
   return `${slug}-v${plan.version}.${ext}`;
 }
 
@@ -54,7 +71,15 @@ function cueStep(plan: PlanView, b: TimelineBlock, timeline: PlanTimeline): CueS
   if (b.type === 'translate' && b.route) {
     const legs = b.route.legs.slice(b.legStart ?? 0, b.legEnd ?? b.route.legs.length);
     const metres = legs.reduce((s, l) => s + l.lengthM, 0);
-    const via = legs.length > 1 ? [`via ${legs.slice(0, -1).map((l) => l.to).join(', ')}`] : [];
+    const via =
+      legs.length > 1
+        ? [
+            `via ${legs
+              .slice(0, -1)
+              .map((l) => l.to)
+              .join(', ')}`,
+          ]
+        : [];
     return { ...base, text: `Translate ${b.from} → ${b.to}, ${metres.toFixed(1)} m`, details: via };
   }
   if (b.type === 'swap' && b.swapNode) {
@@ -71,7 +96,9 @@ function cueStep(plan: PlanView, b: TimelineBlock, timeline: PlanTimeline): CueS
     const details = [
       `at ${task.worksite}`,
       ...(task.socket
-        ? [`foot restraint on ${task.socket}${reach ? `, yaw ${reach.yawSetDeg}°, pitch ${reach.pitchSetDeg}°` : ''}`]
+        ? [
+            `foot restraint on ${task.socket}${reach ? `, yaw ${reach.yawSetDeg}°, pitch ${reach.pitchSetDeg}°` : ''}`,
+          ]
         : []),
       ...(task.tools.length ? [`tools: ${task.tools.join(', ')}`] : []),
       ...(task.eclipseOnly ? ['ECLIPSE ONLY: do this in orbital night'] : []),
@@ -86,7 +113,9 @@ function cueStep(plan: PlanView, b: TimelineBlock, timeline: PlanTimeline): CueS
 /** The cue-card model of the plan's timeline: one card per crew member. */
 export function cueCardDocument(plan: PlanView, timeline: PlanTimeline): CueCardDocument {
   const cards = (['EV1', 'EV2'] as const).map((member) => {
-    const tools = plan.manifest.filter((m) => m.carriedBy === member).map((m) => (m.quantity > 1 ? `${m.name} ×${m.quantity}` : m.name));
+    const tools = plan.manifest
+      .filter((m) => m.carriedBy === member)
+      .map((m) => (m.quantity > 1 ? `${m.name} ×${m.quantity}` : m.name));
     return {
       member,
       name: plan.crew[member].name,
@@ -101,7 +130,9 @@ export function cueCardDocument(plan: PlanView, timeline: PlanTimeline): CueCard
     caution: timeline.caution,
     cards,
     nightWindows: timeline.nightWindows,
-    warnings: [...timeline.warnings, ...timeline.reachWarnings, ...timeline.inventoryWarnings].map((w) => w.message),
+    warnings: [...timeline.warnings, ...timeline.reachWarnings, ...timeline.inventoryWarnings].map(
+      (w) => w.message,
+    ),
     formatTime: (s) => formatElapsed(s),
   };
 }

@@ -19,7 +19,8 @@ export function planTimeline(ctx: AppContext, planId: number): { plan: PlanView;
   const plan = getPlan(ctx.db, planId);
   const { doc, compiled, version } = getCompiledStation(ctx, plan.stationId);
   const airlock = doc.nodes.find((n) => n.kind === 'airlock');
-  if (!airlock) throw badRequest(`The station "${doc.name}" has no airlock, so no EVA day can be laid out on it.`);
+  if (!airlock)
+    throw badRequest(`The station "${doc.name}" has no airlock, so no EVA day can be laid out on it.`);
   const hasNode = (key: string) => compiled.keyToIndex.has(key);
   const timeline = computeTimeline(
     { plan, airlockKey: airlock.key, orbit: doc.orbit, hasNode },

@@ -93,14 +93,19 @@ export function plansRouter(ctx: AppContext) {
         deletePlan(ctx, params.id, query.version, req.user!);
       },
     }),
-    reviewRoute('submit', 'plans:submit', (req, id, body) => submitPlan(ctx, id, body.version, body.comment || undefined, req.user!)),
-    reviewRoute('approve', 'plans:review', (req, id, body) => approvePlan(ctx, id, body.version, body.comment || undefined, req.user!)),
+    reviewRoute('submit', 'plans:submit', (req, id, body) =>
+      submitPlan(ctx, id, body.version, body.comment || undefined, req.user!),
+    ),
+    reviewRoute('approve', 'plans:review', (req, id, body) =>
+      approvePlan(ctx, id, body.version, body.comment || undefined, req.user!),
+    ),
     defineRoute({
       method: 'post',
       path: '/:id/return',
       access: 'plans:review',
       input: { params: IdParamsSchema, body: ReturnBodySchema },
-      handler: (req, _res, { params, body }) => returnPlan(ctx, params.id, body.version, body.comment, req.user!),
+      handler: (req, _res, { params, body }) =>
+        returnPlan(ctx, params.id, body.version, body.comment, req.user!),
     }),
     defineRoute({
       method: 'get',
@@ -116,7 +121,10 @@ export function plansRouter(ctx: AppContext) {
       input: { params: IdParamsSchema },
       handler: (_req, res, { params }) => {
         const { plan, timeline } = planTimeline(ctx, params.id);
-        res.type('text/csv; charset=utf-8').attachment(exportFileName(plan, 'csv')).send(timelineCsv(plan, timeline));
+        res
+          .type('text/csv; charset=utf-8')
+          .attachment(exportFileName(plan, 'csv'))
+          .send(timelineCsv(plan, timeline));
       },
     }),
     defineRoute({

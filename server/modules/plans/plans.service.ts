@@ -2,7 +2,16 @@ import { and, asc, desc, eq, inArray, ne } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
 import type { AppContext } from '../../context';
 import type { Db } from '../../db/client';
-import { crewSlots, manifestItems, planAudit, plans, reviewComments, stations, tasks, users } from '../../db/schema';
+import {
+  crewSlots,
+  manifestItems,
+  planAudit,
+  plans,
+  reviewComments,
+  stations,
+  tasks,
+  users,
+} from '../../db/schema';
 import { badRequest, conflict, forbidden, notFound } from '../../lib/http-error';
 import type { ErrorDetail } from '@shared/errors';
 import type {
@@ -98,7 +107,12 @@ export function getPlan(db: Db, id: number): PlanView {
     return { name: c?.name ?? s, tetherLengthM: c?.tetherLengthM ?? 0 };
   };
   const taskRows = db.select().from(tasks).where(eq(tasks.planId, id)).orderBy(asc(tasks.ord)).all();
-  const itemRows = db.select().from(manifestItems).where(eq(manifestItems.planId, id)).orderBy(asc(manifestItems.ord)).all();
+  const itemRows = db
+    .select()
+    .from(manifestItems)
+    .where(eq(manifestItems.planId, id))
+    .orderBy(asc(manifestItems.ord))
+    .all();
   const comments: ReviewComment[] = db
     .select({
       id: reviewComments.id,
@@ -122,32 +136,28 @@ export function getPlan(db: Db, id: number): PlanView {
     date: p.date,
     crew: { EV1: slot('EV1'), EV2: slot('EV2') },
     ...settings,
-    tasks: taskRows.map(
-      (t): Task => ({
-        id: t.id,
-        title: t.title,
-        worksite: t.worksiteKey,
-        crew: t.crew,
-        durationSeconds: t.durationSeconds,
-        eclipseOnly: t.eclipseOnly,
-        carrying: t.carrying,
-        ...(t.socketKey ? { socket: t.socketKey } : {}),
-        tools: JSON.parse(t.toolsJson) as string[],
-        ...(t.notes ? { notes: t.notes } : {}),
-      }),
-    ),
-    manifest: itemRows.map(
-      (m): ManifestItem => ({
-        id: m.id,
-        name: m.name,
-        kind: m.kind,
-        quantity: m.quantity,
-        carriedBy: m.carriedBy,
-        startsAt: m.startsAt,
-        ...(m.endsAt ? { endsAt: m.endsAt } : {}),
-        ...(m.notes ? { notes: m.notes } : {}),
-      }),
-    ),
+    tasks: taskRows.map((t): Task => ({
+      id: t.id,
+      title: t.title,
+      worksite: t.worksiteKey,
+      crew: t.crew,
+      durationSeconds: t.durationSeconds,
+      eclipseOnly: t.eclipseOnly,
+      carrying: t.carrying,
+      ...(t.socketKey ? { socket: t.socketKey } : {}),
+      tools: JSON.parse(t.toolsJson) as string[],
+      ...(t.notes ? { notes: t.notes } : {}),
+    })),
+    manifest: itemRows.map((m): ManifestItem => ({
+      id: m.id,
+      name: m.name,
+      kind: m.kind,
+      quantity: m.quantity,
+      carriedBy: m.carriedBy,
+      startsAt: m.startsAt,
+      ...(m.endsAt ? { endsAt: m.endsAt } : {}),
+      ...(m.notes ? { notes: m.notes } : {}),
+    })),
     status: p.status,
     version: p.version,
     authorId: p.authorId,
@@ -163,7 +173,10 @@ export function getPlan(db: Db, id: number): PlanView {
 }
 
 /** Worksites and sockets the tasks name must be nodes of that kind on the plan's station. */
-export function checkTaskKeys(doc: StationDocument, planTasks: readonly Pick<Task, 'worksite' | 'socket'>[]): ErrorDetail[] {
+export function checkTaskKeys(
+  doc: StationDocument,
+  planTasks: readonly Pick<Task, 'worksite' | 'socket'>[],
+): ErrorDetail[] {
   const kindOf = new Map(doc.nodes.map((n) => [n.key, n.kind]));
   const details: ErrorDetail[] = [];
   const check = (key: string, wanted: 'worksite' | 'socket', path: string) => {
@@ -180,20 +193,25 @@ export function checkTaskKeys(doc: StationDocument, planTasks: readonly Pick<Tas
 
 function stationDocFor(ctx: AppContext, stationId: number): StationDocument {
   if (stationVersion(ctx.db, stationId) === null) {
-    throw badRequest(`There is no station ${stationId}.`, [{ path: 'body.stationId', message: 'no such station' }]);
+    throw badRequest(`There is no station ${stationId}.`, [
+      { path: 'body.stationId', message: 'no such station' },
+    ]);
   }
   return getCompiledStation(ctx, stationId).doc;
 }
 
 function assertKeys(doc: StationDocument, planTasks: readonly Task[]) {
   const details = checkTaskKeys(doc, planTasks);
-  if (details.length) throw badRequest(`Task ${details[0].path.replace('body.', '')}: ${details[0].message}`, details);
+  if (details.length)
+    throw badRequest(`Task ${details[0].path.replace('body.', '')}: ${details[0].message}`, details);
 }
 
 function writeCrew(db: Db, planId: number, crew: CreatePlanInput['crew']) {
   db.delete(crewSlots).where(eq(crewSlots.planId, planId)).run();
   for (const slot of ['EV1', 'EV2'] as const) {
-    db.insert(crewSlots).values({ planId, slot, name: crew[slot].name, tetherLengthM: crew[slot].tetherLengthM }).run();
+    db.insert(crewSlots)
+      .values({ planId, slot, name: crew[slot].name, tetherLengthM: crew[slot].tetherLengthM })
+      .run();
   }
 }
 
@@ -239,7 +257,14 @@ function writeManifest(db: Db, planId: number, list: readonly ManifestItem[]) {
   );
 }
 
-function audit(db: Db, planId: number, userId: number | null, action: string, before: PlanView | null, after: PlanView | null) {
+function audit(
+  db: Db,
+  planId: number,
+  userId: number | null,
+  action: string,
+  before: PlanView | null,
+  after: PlanView | null,
+) {
   db.insert(planAudit)
     .values({
       planId,
@@ -286,7 +311,12 @@ export function createPlan(ctx: AppContext, input: CreatePlanInput, actor: Actor
     audit(db, row.id, actor.id, 'create', null, created);
     return created;
   });
-  recordActivity(ctx.db, { userId: actor.id, kind: 'plan.created', summary: `${actor.name} started the plan "${plan.title}"`, link: `/plans/${plan.id}` });
+  recordActivity(ctx.db, {
+    userId: actor.id,
+    kind: 'plan.created',
+    summary: `${actor.name} started the plan "${plan.title}"`,
+    link: `/plans/${plan.id}`,
+  });
   return plan;
 }
 
@@ -333,10 +363,12 @@ export function updatePlan(ctx: AppContext, id: number, input: UpdatePlanInput, 
   if (current.status !== 'draft') throw conflict(LOCKED_MESSAGE[current.status]);
   const stationId = input.stationId ?? current.stationId;
   const nextTasks = input.tasks ?? current.tasks;
-  if (input.stationId !== undefined || input.tasks !== undefined) assertKeys(stationDocFor(ctx, stationId), nextTasks);
+  if (input.stationId !== undefined || input.tasks !== undefined)
+    assertKeys(stationDocFor(ctx, stationId), nextTasks);
 
   const settings: PlanSettings = { ...pickSettings(current) };
-  for (const k of SETTING_KEYS) if (input[k] !== undefined) (settings as unknown as Record<string, unknown>)[k] = input[k];
+  for (const k of SETTING_KEYS)
+    if (input[k] !== undefined) (settings as unknown as Record<string, unknown>)[k] = input[k];
   const plan = ctx.db.transaction((tx) => {
     const db = tx as unknown as Db;
     const before = getPlan(db, id);
@@ -375,11 +407,16 @@ export function deletePlan(ctx: AppContext, id: number, version: number, actor: 
     const db = tx as unknown as Db;
     const before = getPlan(db, id);
     assertVersion(db, before, version);
-    if (before.status !== 'draft') throw conflict(`Only draft plans can be deleted. ${LOCKED_MESSAGE[before.status]}`);
+    if (before.status !== 'draft')
+      throw conflict(`Only draft plans can be deleted. ${LOCKED_MESSAGE[before.status]}`);
     db.delete(plans).where(eq(plans.id, id)).run();
     return before.title;
   });
-  recordActivity(ctx.db, { userId: actor.id, kind: 'plan.deleted', summary: `${actor.name} deleted the draft plan "${title}"` });
+  recordActivity(ctx.db, {
+    userId: actor.id,
+    kind: 'plan.deleted',
+    summary: `${actor.name} deleted the draft plan "${title}"`,
+  });
 }
 
 export type ReviewAction = 'submit' | 'approve' | 'return';
@@ -391,10 +428,21 @@ const TRANSITIONS: Record<ReviewAction, { from: PlanStatus[]; to: PlanStatus; ve
   return: { from: ['in-review', 'approved'], to: 'draft', verb: 'returned to draft' },
 };
 
-const STATUS_WORDS: Record<PlanStatus, string> = { draft: 'a draft', 'in-review': 'in review', approved: 'approved' };
+const STATUS_WORDS: Record<PlanStatus, string> = {
+  draft: 'a draft',
+  'in-review': 'in review',
+  approved: 'approved',
+};
 
 /** One review step in one transaction (status, review comment, audit), without the e-mails. */
-export function reviewTransition(ctx: AppContext, id: number, action: ReviewAction, version: number, comment: string | undefined, actor: Actor) {
+export function reviewTransition(
+  ctx: AppContext,
+  id: number,
+  action: ReviewAction,
+  version: number,
+  comment: string | undefined,
+  actor: Actor,
+) {
   const rule = TRANSITIONS[action];
   return ctx.db.transaction((tx) => {
     const db = tx as unknown as Db;
@@ -413,7 +461,9 @@ export function reviewTransition(ctx: AppContext, id: number, action: ReviewActi
       ...(action === 'approve' ? { approverId: actor.id, approvedAt: now } : {}),
       ...(action === 'return' ? { approverId: null, approvedAt: null } : {}),
     });
-    db.insert(reviewComments).values({ planId: id, authorId: actor.id, action, body: comment ?? '' }).run();
+    db.insert(reviewComments)
+      .values({ planId: id, authorId: actor.id, action, body: comment ?? '' })
+      .run();
     const after = getPlan(db, id);
     audit(db, id, actor.id, action, before, after);
     return after;
@@ -431,15 +481,33 @@ async function sendQuietly(ctx: AppContext, mail: { to: string; subject: string;
 
 function authorOf(db: Db, plan: PlanView) {
   if (plan.authorId === null) return null;
-  return db.select({ email: users.email, name: users.name, disabled: users.disabled }).from(users).where(eq(users.id, plan.authorId)).get() ?? null;
+  return (
+    db
+      .select({ email: users.email, name: users.name, disabled: users.disabled })
+      .from(users)
+      .where(eq(users.id, plan.authorId))
+      .get() ?? null
+  );
 }
 
-export async function submitPlan(ctx: AppContext, id: number, version: number, comment: string | undefined, actor: Actor) {
+export async function submitPlan(
+  ctx: AppContext,
+  id: number,
+  version: number,
+  comment: string | undefined,
+  actor: Actor,
+) {
   const plan = reviewTransition(ctx, id, 'submit', version, comment, actor);
   const reviewers = ctx.db
     .select({ email: users.email, name: users.name })
     .from(users)
-    .where(and(inArray(users.role, ['planner', 'admin']), eq(users.disabled, false), plan.authorId === null ? undefined : ne(users.id, plan.authorId)))
+    .where(
+      and(
+        inArray(users.role, ['planner', 'admin']),
+        eq(users.disabled, false),
+        plan.authorId === null ? undefined : ne(users.id, plan.authorId),
+      ),
+    )
     .all();
   for (const r of reviewers) {
     await sendQuietly(ctx, {
@@ -455,32 +523,86 @@ export async function submitPlan(ctx: AppContext, id: number, version: number, c
       ].join('\n'),
     });
   }
-  recordActivity(ctx.db, { userId: actor.id, kind: 'plan.submitted', summary: `${actor.name} submitted "${plan.title}" for review`, link: `/plans/${id}` });
+  recordActivity(ctx.db, {
+    userId: actor.id,
+    kind: 'plan.submitted',
+    summary: `${actor.name} submitted "${plan.title}" for review`,
+    link: `/plans/${id}`,
+  });
   return plan;
 }
 
-export async function approvePlan(ctx: AppContext, id: number, version: number, comment: string | undefined, actor: Actor) {
+export async function approvePlan(
+  ctx: AppContext,
+  id: number,
+  version: number,
+  comment: string | undefined,
+  actor: Actor,
+) {
   const plan = reviewTransition(ctx, id, 'approve', version, comment, actor);
-  await mailAuthor(ctx, plan, actor, `Approved: "${plan.title}"`, `${actor.name} has approved your EVA plan "${plan.title}".`, comment);
-  recordActivity(ctx.db, { userId: actor.id, kind: 'plan.approved', summary: `${actor.name} approved "${plan.title}"`, link: `/plans/${id}` });
+  await mailAuthor(
+    ctx,
+    plan,
+    actor,
+    `Approved: "${plan.title}"`,
+    `${actor.name} has approved your EVA plan "${plan.title}".`,
+    comment,
+  );
+  recordActivity(ctx.db, {
+    userId: actor.id,
+    kind: 'plan.approved',
+    summary: `${actor.name} approved "${plan.title}"`,
+    link: `/plans/${id}`,
+  });
   return plan;
 }
 
-export async function returnPlan(ctx: AppContext, id: number, version: number, comment: string, actor: Actor) {
+export async function returnPlan(
+  ctx: AppContext,
+  id: number,
+  version: number,
+  comment: string,
+  actor: Actor,
+) {
   const plan = reviewTransition(ctx, id, 'return', version, comment, actor);
-  await mailAuthor(ctx, plan, actor, `Returned to draft: "${plan.title}"`, `${actor.name} has returned your EVA plan "${plan.title}" to draft.`, comment);
-  recordActivity(ctx.db, { userId: actor.id, kind: 'plan.returned', summary: `${actor.name} returned "${plan.title}" to draft`, link: `/plans/${id}` });
+  await mailAuthor(
+    ctx,
+    plan,
+    actor,
+    `Returned to draft: "${plan.title}"`,
+    `${actor.name} has returned your EVA plan "${plan.title}" to draft.`,
+    comment,
+  );
+  recordActivity(ctx.db, {
+    userId: actor.id,
+    kind: 'plan.returned',
+    summary: `${actor.name} returned "${plan.title}" to draft`,
+    link: `/plans/${id}`,
+  });
   return plan;
 }
 
-async function mailAuthor(ctx: AppContext, plan: PlanView, actor: Actor, subject: string, first: string, comment?: string) {
+async function mailAuthor(
+  ctx: AppContext,
+  plan: PlanView,
+  actor: Actor,
+  subject: string,
+  first: string,
+  comment?: string,
+) {
   const to = authorOf(ctx.db, plan);
   // an author withdrawing their own plan needs no mail about it
   if (!to || to.disabled || plan.authorId === actor.id) return;
   await sendQuietly(ctx, {
     to: to.email,
     subject,
-    text: [`Hello ${to.name},`, '', first, ...(comment ? ['', `Comment: ${comment}`] : []), '', `Open the plan: ${planLink(ctx, plan.id)}`].join('\n'),
+    text: [
+      `Hello ${to.name},`,
+      '',
+      first,
+      ...(comment ? ['', `Comment: ${comment}`] : []),
+      '',
+      `Open the plan: ${planLink(ctx, plan.id)}`,
+    ].join('\n'),
   });
 }
-

@@ -4,7 +4,15 @@ import { edges, nodes } from '../../db/schema';
 import { badRequest } from '../../lib/http-error';
 import { parseStationDocument, type DocumentProblem } from '@shared/schemas/station';
 import { mergeCsvIntoDocument, parseEdgesCsv, parseNodesCsv } from '@shared/schemas/station-csv';
-import { edgeToRow, getStation, loadDocument, nodeToRow, problemsError, writeStation, type WriteRequest } from './stations.service';
+import {
+  edgeToRow,
+  getStation,
+  loadDocument,
+  nodeToRow,
+  problemsError,
+  writeStation,
+  type WriteRequest,
+} from './stations.service';
 
 export interface CsvFiles {
   nodes?: { text: string; name: string };
@@ -37,21 +45,33 @@ export function importStationCsv(ctx: AppContext, req: WriteRequest, files: CsvF
     for (const { value } of parsedNodes.rows) {
       if (existingNodes.has(value.key)) {
         const { ord: _keep, ...changes } = nodeToRow(row.id, value, 0);
-        tx.update(nodes).set(changes).where(and(eq(nodes.stationId, row.id), eq(nodes.key, value.key))).run();
-      } else tx.insert(nodes).values(nodeToRow(row.id, value, ord++)).run();
+        tx.update(nodes)
+          .set(changes)
+          .where(and(eq(nodes.stationId, row.id), eq(nodes.key, value.key)))
+          .run();
+      } else
+        tx.insert(nodes)
+          .values(nodeToRow(row.id, value, ord++))
+          .run();
     }
     let edgeOrd = current.edges.length;
     for (const { value } of parsedEdges.rows) {
       const samePair = and(
         eq(edges.stationId, row.id),
         eq(edges.kind, value.kind),
-        or(and(eq(edges.fromKey, value.from), eq(edges.toKey, value.to)), and(eq(edges.fromKey, value.to), eq(edges.toKey, value.from))),
+        or(
+          and(eq(edges.fromKey, value.from), eq(edges.toKey, value.to)),
+          and(eq(edges.fromKey, value.to), eq(edges.toKey, value.from)),
+        ),
       );
       const existing = tx.select({ id: edges.id }).from(edges).where(samePair).get();
       if (existing) {
         const { ord: _keep, ...changes } = edgeToRow(row.id, value, 0);
         tx.update(edges).set(changes).where(eq(edges.id, existing.id)).run();
-      } else tx.insert(edges).values(edgeToRow(row.id, value, edgeOrd++)).run();
+      } else
+        tx.insert(edges)
+          .values(edgeToRow(row.id, value, edgeOrd++))
+          .run();
     }
     const counts = { added: merged.added, updated: merged.updated };
     return {

@@ -57,11 +57,21 @@ function checked<S extends z.ZodType>(schema: S, value: unknown, where: string):
 
 type OrdTable = typeof nodes | typeof edges | typeof hazards | typeof segments;
 function nextOrd(tx: Tx, table: OrdTable, stationId: number) {
-  return (tx.select({ m: max(table.ord) }).from(table).where(eq(table.stationId, stationId)).get()?.m ?? -1) + 1;
+  return (
+    (tx
+      .select({ m: max(table.ord) })
+      .from(table)
+      .where(eq(table.stationId, stationId))
+      .get()?.m ?? -1) + 1
+  );
 }
 
 function findNode(tx: Tx, stationId: number, key: string) {
-  return tx.select().from(nodes).where(and(eq(nodes.stationId, stationId), eq(nodes.key, key))).get();
+  return tx
+    .select()
+    .from(nodes)
+    .where(and(eq(nodes.stationId, stationId), eq(nodes.key, key)))
+    .get();
 }
 
 function requireNode(tx: Tx, stationId: number, key: string) {
@@ -74,10 +84,15 @@ function requireNode(tx: Tx, stationId: number, key: string) {
 function checkEdgeEnds(tx: Tx, stationId: number, e: StationEdge, ignoreId?: number) {
   for (const end of ['from', 'to'] as const) {
     if (!findNode(tx, stationId, e[end])) {
-      throw badRequest(`Unknown node key "${e[end]}"`, [{ path: `body.edge.${end}`, message: `unknown node key "${e[end]}"` }]);
+      throw badRequest(`Unknown node key "${e[end]}"`, [
+        { path: `body.edge.${end}`, message: `unknown node key "${e[end]}"` },
+      ]);
     }
   }
-  if (e.from === e.to) throw badRequest(`An edge cannot join "${e.from}" to itself`, [{ path: 'body.edge', message: 'self-loop' }]);
+  if (e.from === e.to)
+    throw badRequest(`An edge cannot join "${e.from}" to itself`, [
+      { path: 'body.edge', message: 'self-loop' },
+    ]);
   const twins = tx
     .select({ id: edges.id })
     .from(edges)
@@ -85,16 +100,26 @@ function checkEdgeEnds(tx: Tx, stationId: number, e: StationEdge, ignoreId?: num
       and(
         eq(edges.stationId, stationId),
         eq(edges.kind, e.kind),
-        or(and(eq(edges.fromKey, e.from), eq(edges.toKey, e.to)), and(eq(edges.fromKey, e.to), eq(edges.toKey, e.from))),
+        or(
+          and(eq(edges.fromKey, e.from), eq(edges.toKey, e.to)),
+          and(eq(edges.fromKey, e.to), eq(edges.toKey, e.from)),
+        ),
       ),
     )
     .all()
     .filter((t) => t.id !== ignoreId);
-  if (twins.length) throw conflict(`There is already a ${e.kind} edge between "${e.from}" and "${e.to}" (edge ${twins[0].id}).`);
+  if (twins.length)
+    throw conflict(
+      `There is already a ${e.kind} edge between "${e.from}" and "${e.to}" (edge ${twins[0].id}).`,
+    );
 }
 
 function requireEdge(tx: Tx, stationId: number, edgeId: number) {
-  const row = tx.select().from(edges).where(and(eq(edges.stationId, stationId), eq(edges.id, edgeId))).get();
+  const row = tx
+    .select()
+    .from(edges)
+    .where(and(eq(edges.stationId, stationId), eq(edges.id, edgeId)))
+    .get();
   if (!row) throw notFound(`Edge ${edgeId}`);
   return row;
 }
@@ -106,19 +131,49 @@ const edgeName = (e: StationEdge) => `${e.from} ↔ ${e.to} (${e.kind})`;
 export function createNode(ctx: AppContext, stationId: number, input: CreateNodeInput, editor: Editor) {
   const node = input.node;
   return writeStation(ctx, { stationId, expectedVersion: input.version, editor }, (tx) => {
-    if (findNode(tx, stationId, node.key)) throw conflict(`A node with key "${node.key}" already exists.`, [{ path: 'body.node.key', message: 'duplicate key' }]);
-    tx.insert(nodes).values(nodeToRow(stationId, node, nextOrd(tx, nodes, stationId))).run();
-    return { action: 'node.create', target: node.key, before: undefined, after: node, summary: `added node ${node.key}`, result: { node }, revalidate: true };
+    if (findNode(tx, stationId, node.key))
+      throw conflict(`A node with key "${node.key}" already exists.`, [
+        { path: 'body.node.key', message: 'duplicate key' },
+      ]);
+    tx.insert(nodes)
+      .values(nodeToRow(stationId, node, nextOrd(tx, nodes, stationId)))
+      .run();
+    return {
+      action: 'node.create',
+      target: node.key,
+      before: undefined,
+      after: node,
+      summary: `added node ${node.key}`,
+      result: { node },
+      revalidate: true,
+    };
   });
 }
 
-export function updateNode(ctx: AppContext, stationId: number, key: string, input: UpdateNodeInput, editor: Editor) {
+export function updateNode(
+  ctx: AppContext,
+  stationId: number,
+  key: string,
+  input: UpdateNodeInput,
+  editor: Editor,
+) {
   return writeStation(ctx, { stationId, expectedVersion: input.version, editor }, (tx) => {
     const row = requireNode(tx, stationId, key);
     const before = nodeFromRow(row);
     const node = checked(NodeSchema, mergeNodeChanges(before, input.node), 'body.node');
-    tx.update(nodes).set(nodeToRow(stationId, node, row.ord)).where(eq(nodes.id, row.id)).run();
-    return { action: 'node.update', target: key, before, after: node, summary: `changed node ${key}`, result: { node }, revalidate: true };
+    tx.update(nodes)
+      .set(nodeToRow(stationId, node, row.ord))
+      .where(eq(nodes.id, row.id))
+      .run();
+    return {
+      action: 'node.update',
+      target: key,
+      before,
+      after: node,
+      summary: `changed node ${key}`,
+      result: { node },
+      revalidate: true,
+    };
   });
 }
 
@@ -150,98 +205,239 @@ export function createEdge(ctx: AppContext, stationId: number, input: CreateEdge
   const edge = input.edge;
   return writeStation(ctx, { stationId, expectedVersion: input.version, editor }, (tx) => {
     checkEdgeEnds(tx, stationId, edge);
-    const { id } = tx.insert(edges).values(edgeToRow(stationId, edge, nextOrd(tx, edges, stationId))).returning({ id: edges.id }).get();
-    return { action: 'edge.create', target: edgeName(edge), before: undefined, after: edge, summary: `connected ${edgeName(edge)}`, result: { edge: graphEdge(id, edge) }, revalidate: true };
+    const { id } = tx
+      .insert(edges)
+      .values(edgeToRow(stationId, edge, nextOrd(tx, edges, stationId)))
+      .returning({ id: edges.id })
+      .get();
+    return {
+      action: 'edge.create',
+      target: edgeName(edge),
+      before: undefined,
+      after: edge,
+      summary: `connected ${edgeName(edge)}`,
+      result: { edge: graphEdge(id, edge) },
+      revalidate: true,
+    };
   });
 }
 
-export function updateEdge(ctx: AppContext, stationId: number, edgeId: number, input: UpdateEdgeInput, editor: Editor) {
+export function updateEdge(
+  ctx: AppContext,
+  stationId: number,
+  edgeId: number,
+  input: UpdateEdgeInput,
+  editor: Editor,
+) {
   return writeStation(ctx, { stationId, expectedVersion: input.version, editor }, (tx) => {
     const row = requireEdge(tx, stationId, edgeId);
     const before = edgeFromRow(row);
     const edge = checked(EdgeSchema, mergeEdgeChanges(before, input.edge), 'body.edge');
     checkEdgeEnds(tx, stationId, edge, edgeId);
-    tx.update(edges).set(edgeToRow(stationId, edge, row.ord)).where(eq(edges.id, row.id)).run();
-    const what = before.closed !== edge.closed && Object.keys(input.edge).every((k) => k === 'closed') ? (edge.closed ? 'closed' : 'opened') : 'changed';
-    return { action: 'edge.update', target: edgeName(edge), before, after: edge, summary: `${what} edge ${edgeName(edge)}`, result: { edge: graphEdge(edgeId, edge) }, revalidate: true };
+    tx.update(edges)
+      .set(edgeToRow(stationId, edge, row.ord))
+      .where(eq(edges.id, row.id))
+      .run();
+    const what =
+      before.closed !== edge.closed && Object.keys(input.edge).every((k) => k === 'closed')
+        ? edge.closed
+          ? 'closed'
+          : 'opened'
+        : 'changed';
+    return {
+      action: 'edge.update',
+      target: edgeName(edge),
+      before,
+      after: edge,
+      summary: `${what} edge ${edgeName(edge)}`,
+      result: { edge: graphEdge(edgeId, edge) },
+      revalidate: true,
+    };
   });
 }
 
-export function deleteEdge(ctx: AppContext, stationId: number, edgeId: number, version: number, editor: Editor) {
+export function deleteEdge(
+  ctx: AppContext,
+  stationId: number,
+  edgeId: number,
+  version: number,
+  editor: Editor,
+) {
   return writeStation(ctx, { stationId, expectedVersion: version, editor }, (tx) => {
     const before = edgeFromRow(requireEdge(tx, stationId, edgeId));
     tx.delete(edges).where(eq(edges.id, edgeId)).run();
-    return { action: 'edge.delete', target: edgeName(before), before, after: undefined, summary: `disconnected ${edgeName(before)}`, result: { removed: graphEdge(edgeId, before) } };
+    return {
+      action: 'edge.delete',
+      target: edgeName(before),
+      before,
+      after: undefined,
+      summary: `disconnected ${edgeName(before)}`,
+      result: { removed: graphEdge(edgeId, before) },
+    };
   });
 }
 
 // ── Hazards and segments (keyed items) ──────────────────────────────────────────────────────────
 
 function findHazard(tx: Tx, stationId: number, key: string) {
-  return tx.select().from(hazards).where(and(eq(hazards.stationId, stationId), eq(hazards.key, key))).get();
+  return tx
+    .select()
+    .from(hazards)
+    .where(and(eq(hazards.stationId, stationId), eq(hazards.key, key)))
+    .get();
 }
 
 export function createHazard(ctx: AppContext, stationId: number, input: CreateHazardInput, editor: Editor) {
   const hazard = input.hazard;
   return writeStation(ctx, { stationId, expectedVersion: input.version, editor }, (tx) => {
-    if (findHazard(tx, stationId, hazard.key)) throw conflict(`A hazard with key "${hazard.key}" already exists.`, [{ path: 'body.hazard.key', message: 'duplicate key' }]);
-    tx.insert(hazards).values(hazardToRow(stationId, hazard, nextOrd(tx, hazards, stationId))).run();
-    return { action: 'hazard.create', target: hazard.key, before: undefined, after: hazard, summary: `added ${hazard.kind} hazard ${hazard.key}`, result: { hazard }, revalidate: true };
+    if (findHazard(tx, stationId, hazard.key))
+      throw conflict(`A hazard with key "${hazard.key}" already exists.`, [
+        { path: 'body.hazard.key', message: 'duplicate key' },
+      ]);
+    tx.insert(hazards)
+      .values(hazardToRow(stationId, hazard, nextOrd(tx, hazards, stationId)))
+      .run();
+    return {
+      action: 'hazard.create',
+      target: hazard.key,
+      before: undefined,
+      after: hazard,
+      summary: `added ${hazard.kind} hazard ${hazard.key}`,
+      result: { hazard },
+      revalidate: true,
+    };
   });
 }
 
-export function updateHazard(ctx: AppContext, stationId: number, key: string, input: UpdateHazardInput, editor: Editor) {
+export function updateHazard(
+  ctx: AppContext,
+  stationId: number,
+  key: string,
+  input: UpdateHazardInput,
+  editor: Editor,
+) {
   return writeStation(ctx, { stationId, expectedVersion: input.version, editor }, (tx) => {
     const row = findHazard(tx, stationId, key);
     if (!row) throw notFound(`Hazard "${key}"`);
     const before = hazardFromRow(row);
     const hazard = checked(HazardSchema, mergeHazardChanges(before, input.hazard), 'body.hazard');
-    tx.update(hazards).set(hazardToRow(stationId, hazard, row.ord)).where(eq(hazards.id, row.id)).run();
-    return { action: 'hazard.update', target: key, before, after: hazard, summary: `changed hazard ${key}`, result: { hazard }, revalidate: true };
+    tx.update(hazards)
+      .set(hazardToRow(stationId, hazard, row.ord))
+      .where(eq(hazards.id, row.id))
+      .run();
+    return {
+      action: 'hazard.update',
+      target: key,
+      before,
+      after: hazard,
+      summary: `changed hazard ${key}`,
+      result: { hazard },
+      revalidate: true,
+    };
   });
 }
 
-export function deleteHazard(ctx: AppContext, stationId: number, key: string, version: number, editor: Editor) {
+export function deleteHazard(
+  ctx: AppContext,
+  stationId: number,
+  key: string,
+  version: number,
+  editor: Editor,
+) {
   return writeStation(ctx, { stationId, expectedVersion: version, editor }, (tx) => {
     const row = findHazard(tx, stationId, key);
     if (!row) throw notFound(`Hazard "${key}"`);
     tx.delete(hazards).where(eq(hazards.id, row.id)).run();
     const before = hazardFromRow(row);
-    return { action: 'hazard.delete', target: key, before, after: undefined, summary: `deleted hazard ${key}`, result: { removed: before } };
+    return {
+      action: 'hazard.delete',
+      target: key,
+      before,
+      after: undefined,
+      summary: `deleted hazard ${key}`,
+      result: { removed: before },
+    };
   });
 }
 
 function findSegment(tx: Tx, stationId: number, key: string) {
-  return tx.select().from(segments).where(and(eq(segments.stationId, stationId), eq(segments.key, key))).get();
+  return tx
+    .select()
+    .from(segments)
+    .where(and(eq(segments.stationId, stationId), eq(segments.key, key)))
+    .get();
 }
 
 export function createSegment(ctx: AppContext, stationId: number, input: CreateSegmentInput, editor: Editor) {
   const segment = input.segment;
   return writeStation(ctx, { stationId, expectedVersion: input.version, editor }, (tx) => {
-    if (findSegment(tx, stationId, segment.key)) throw conflict(`A segment with key "${segment.key}" already exists.`, [{ path: 'body.segment.key', message: 'duplicate key' }]);
-    tx.insert(segments).values(segmentToRow(stationId, segment, nextOrd(tx, segments, stationId))).run();
-    return { action: 'segment.create', target: segment.key, before: undefined, after: segment, summary: `added segment ${segment.key}`, result: { segment }, revalidate: true };
+    if (findSegment(tx, stationId, segment.key))
+      throw conflict(`A segment with key "${segment.key}" already exists.`, [
+        { path: 'body.segment.key', message: 'duplicate key' },
+      ]);
+    tx.insert(segments)
+      .values(segmentToRow(stationId, segment, nextOrd(tx, segments, stationId)))
+      .run();
+    return {
+      action: 'segment.create',
+      target: segment.key,
+      before: undefined,
+      after: segment,
+      summary: `added segment ${segment.key}`,
+      result: { segment },
+      revalidate: true,
+    };
   });
 }
 
-export function updateSegment(ctx: AppContext, stationId: number, key: string, input: UpdateSegmentInput, editor: Editor) {
+export function updateSegment(
+  ctx: AppContext,
+  stationId: number,
+  key: string,
+  input: UpdateSegmentInput,
+  editor: Editor,
+) {
   return writeStation(ctx, { stationId, expectedVersion: input.version, editor }, (tx) => {
     const row = findSegment(tx, stationId, key);
     if (!row) throw notFound(`Segment "${key}"`);
     const before = segmentFromRow(row);
     const segment = checked(SegmentSchema, mergeSegmentChanges(before, input.segment), 'body.segment');
-    tx.update(segments).set(segmentToRow(stationId, segment, row.ord)).where(eq(segments.id, row.id)).run();
-    return { action: 'segment.update', target: key, before, after: segment, summary: `changed segment ${key}`, result: { segment }, revalidate: true };
+    tx.update(segments)
+      .set(segmentToRow(stationId, segment, row.ord))
+      .where(eq(segments.id, row.id))
+      .run();
+    return {
+      action: 'segment.update',
+      target: key,
+      before,
+      after: segment,
+      summary: `changed segment ${key}`,
+      result: { segment },
+      revalidate: true,
+    };
   });
 }
 
-export function deleteSegment(ctx: AppContext, stationId: number, key: string, version: number, editor: Editor) {
+export function deleteSegment(
+  ctx: AppContext,
+  stationId: number,
+  key: string,
+  version: number,
+  editor: Editor,
+) {
   return writeStation(ctx, { stationId, expectedVersion: version, editor }, (tx) => {
     const row = findSegment(tx, stationId, key);
     if (!row) throw notFound(`Segment "${key}"`);
     tx.delete(segments).where(eq(segments.id, row.id)).run();
     const before = segmentFromRow(row);
-    return { action: 'segment.delete', target: key, before, after: undefined, summary: `deleted segment ${key}`, result: { removed: before } };
+    return {
+      action: 'segment.delete',
+      target: key,
+      before,
+      after: undefined,
+      summary: `deleted segment ${key}`,
+      result: { removed: before },
+    };
   });
 }
 
@@ -252,10 +448,19 @@ export function updateStation(ctx: AppContext, stationId: number, input: UpdateS
     const beforeOrbit = { altitudeKm: row.altitudeKm, betaDeg: row.betaDeg };
     const beforeSettings = StationSettingsSchema.parse(JSON.parse(row.settingsJson));
     const orbit = checked(OrbitSettingsSchema, mergeOrbit(beforeOrbit, input.orbit), 'body.orbit');
-    const settings = checked(StationSettingsSchema, mergeStationSettings(beforeSettings, input.settings), 'body.settings');
+    const settings = checked(
+      StationSettingsSchema,
+      mergeStationSettings(beforeSettings, input.settings),
+      'body.settings',
+    );
     const name = input.name ?? row.name;
     tx.update(stations)
-      .set({ name, altitudeKm: orbit.altitudeKm, betaDeg: orbit.betaDeg, settingsJson: JSON.stringify(settings) })
+      .set({
+        name,
+        altitudeKm: orbit.altitudeKm,
+        betaDeg: orbit.betaDeg,
+        settingsJson: JSON.stringify(settings),
+      })
       .where(eq(stations.id, row.id))
       .run();
     return {

@@ -49,14 +49,21 @@ function uploadedFile(req: Request, field: string): Express.Multer.File | undefi
 
 async function stationDocumentFrom(req: Request) {
   const file = uploadedFile(req, 'file');
-  if (!file) throw badRequest('Attach the station document as the multipart field "file".', [{ path: 'file', message: 'required' }]);
+  if (!file)
+    throw badRequest('Attach the station document as the multipart field "file".', [
+      { path: 'file', message: 'required' },
+    ]);
   return parseStationDocumentText(await readTextUpload(file.buffer, 'station document'));
 }
 
 const editor = (req: Request): Editor => ({ id: req.user!.id, name: req.user!.name });
 
 /** POST a new item, PATCH one (version in the body), DELETE one (`?version=`): the edit routes of one collection. */
-function itemRoutes<P extends z.ZodObject<{ id: z.ZodType<number> }>, C extends z.ZodType, U extends z.ZodType>(
+function itemRoutes<
+  P extends z.ZodObject<{ id: z.ZodType<number> }>,
+  C extends z.ZodType,
+  U extends z.ZodType,
+>(
   collection: string,
   item: string,
   params: P,
@@ -82,14 +89,26 @@ function itemRoutes<P extends z.ZodObject<{ id: z.ZodType<number> }>, C extends 
       path: `/:id/${collection}/${item}`,
       access: 'stations:edit',
       input: { params, body: updateBody },
-      handler: (req, _res, input) => ops.update((input.params as z.infer<P>).id, input.params as z.infer<P>, input.body as z.infer<U>, editor(req)),
+      handler: (req, _res, input) =>
+        ops.update(
+          (input.params as z.infer<P>).id,
+          input.params as z.infer<P>,
+          input.body as z.infer<U>,
+          editor(req),
+        ),
     }),
     defineRoute({
       method: 'delete',
       path: `/:id/${collection}/${item}`,
       access: 'stations:edit',
       input: { params, query: VersionQuerySchema },
-      handler: (req, _res, input) => ops.remove((input.params as z.infer<P>).id, input.params as z.infer<P>, input.query.version, editor(req)),
+      handler: (req, _res, input) =>
+        ops.remove(
+          (input.params as z.infer<P>).id,
+          input.params as z.infer<P>,
+          input.query.version,
+          editor(req),
+        ),
     }),
   ];
 }
@@ -112,7 +131,13 @@ export function stationsRouter(ctx: AppContext) {
       before: [documentUpload],
       handler: async (req) => importStation(ctx, await stationDocumentFrom(req), editor(req)),
     }),
-    defineRoute({ method: 'get', path: '/:id', access: 'read', input: idParams, handler: (_req, _res, { params }) => getStation(ctx.db, params.id) }),
+    defineRoute({
+      method: 'get',
+      path: '/:id',
+      access: 'read',
+      input: idParams,
+      handler: (_req, _res, { params }) => getStation(ctx.db, params.id),
+    }),
     defineRoute({
       method: 'patch',
       path: '/:id',
@@ -128,7 +153,11 @@ export function stationsRouter(ctx: AppContext) {
       input: { params: StationIdParamsSchema, query: MultipartVersionSchema, body: MultipartVersionSchema },
       handler: async (req, _res, { params, query, body }) => {
         const doc = await stationDocumentFrom(req);
-        return replaceStationModel(ctx, { stationId: params.id, expectedVersion: body.version ?? query.version, editor: editor(req) }, doc);
+        return replaceStationModel(
+          ctx,
+          { stationId: params.id, expectedVersion: body.version ?? query.version, editor: editor(req) },
+          doc,
+        );
       },
     }),
     defineRoute({
@@ -140,10 +169,16 @@ export function stationsRouter(ctx: AppContext) {
       handler: async (req, _res, { params, query, body }) => {
         const read = async (field: 'nodes' | 'edges') => {
           const f = uploadedFile(req, field);
-          return f ? { name: f.originalname || `${field}.csv`, text: await readTextUpload(f.buffer, `${field} CSV`) } : undefined;
+          return f
+            ? { name: f.originalname || `${field}.csv`, text: await readTextUpload(f.buffer, `${field} CSV`) }
+            : undefined;
         };
         const files = { nodes: await read('nodes'), edges: await read('edges') };
-        return importStationCsv(ctx, { stationId: params.id, expectedVersion: body.version ?? query.version, editor: editor(req) }, files);
+        return importStationCsv(
+          ctx,
+          { stationId: params.id, expectedVersion: body.version ?? query.version, editor: editor(req) },
+          files,
+        );
       },
     }),
     defineRoute({
@@ -171,7 +206,8 @@ export function stationsRouter(ctx: AppContext) {
       path: '/:id/audit',
       access: 'read',
       input: { params: StationIdParamsSchema, query: AuditQuerySchema },
-      handler: (_req, _res, { params, query }) => listStationAudit(ctx.db, params.id, query.page, query.pageSize),
+      handler: (_req, _res, { params, query }) =>
+        listStationAudit(ctx.db, params.id, query.page, query.pageSize),
     }),
 
     ...itemRoutes('nodes', ':key', StationKeyParamsSchema, CreateNodeInputSchema, UpdateNodeInputSchema, {
@@ -184,15 +220,29 @@ export function stationsRouter(ctx: AppContext) {
       update: (id, p, body, ed) => edits.updateEdge(ctx, id, p.edgeId, body, ed),
       remove: (id, p, version, ed) => edits.deleteEdge(ctx, id, p.edgeId, version, ed),
     }),
-    ...itemRoutes('hazards', ':key', StationKeyParamsSchema, CreateHazardInputSchema, UpdateHazardInputSchema, {
-      create: (id, body, ed) => edits.createHazard(ctx, id, body, ed),
-      update: (id, p, body, ed) => edits.updateHazard(ctx, id, p.key, body, ed),
-      remove: (id, p, version, ed) => edits.deleteHazard(ctx, id, p.key, version, ed),
-    }),
-    ...itemRoutes('segments', ':key', StationKeyParamsSchema, CreateSegmentInputSchema, UpdateSegmentInputSchema, {
-      create: (id, body, ed) => edits.createSegment(ctx, id, body, ed),
-      update: (id, p, body, ed) => edits.updateSegment(ctx, id, p.key, body, ed),
-      remove: (id, p, version, ed) => edits.deleteSegment(ctx, id, p.key, version, ed),
-    }),
+    ...itemRoutes(
+      'hazards',
+      ':key',
+      StationKeyParamsSchema,
+      CreateHazardInputSchema,
+      UpdateHazardInputSchema,
+      {
+        create: (id, body, ed) => edits.createHazard(ctx, id, body, ed),
+        update: (id, p, body, ed) => edits.updateHazard(ctx, id, p.key, body, ed),
+        remove: (id, p, version, ed) => edits.deleteHazard(ctx, id, p.key, version, ed),
+      },
+    ),
+    ...itemRoutes(
+      'segments',
+      ':key',
+      StationKeyParamsSchema,
+      CreateSegmentInputSchema,
+      UpdateSegmentInputSchema,
+      {
+        create: (id, body, ed) => edits.createSegment(ctx, id, body, ed),
+        update: (id, p, body, ed) => edits.updateSegment(ctx, id, p.key, body, ed),
+        remove: (id, p, version, ed) => edits.deleteSegment(ctx, id, p.key, version, ed),
+      },
+    ),
   ]);
 }

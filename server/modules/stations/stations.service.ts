@@ -118,8 +118,18 @@ export function hazardFromRow(r: typeof hazards.$inferSelect): Hazard {
 }
 
 export function hazardToRow(stationId: number, h: Hazard, ord: number) {
-  const shape = h.shape === 'sphere' ? { shape: h.shape, center: h.center, radiusM: h.radiusM } : { shape: h.shape, min: h.min, max: h.max };
-  return { stationId, key: h.key, kind: h.kind, label: h.label ?? null, shapeJson: JSON.stringify(shape), ord };
+  const shape =
+    h.shape === 'sphere'
+      ? { shape: h.shape, center: h.center, radiusM: h.radiusM }
+      : { shape: h.shape, min: h.min, max: h.max };
+  return {
+    stationId,
+    key: h.key,
+    kind: h.kind,
+    label: h.label ?? null,
+    shapeJson: JSON.stringify(shape),
+    ord,
+  };
 }
 
 export function segmentFromRow(r: typeof segments.$inferSelect): Segment {
@@ -188,7 +198,12 @@ function toSummary(db: Tx, row: StationRow): StationSummary {
 }
 
 export function listStations(db: Db): StationSummary[] {
-  return db.select().from(stations).orderBy(asc(stations.name), asc(stations.id)).all().map((r) => toSummary(db, r));
+  return db
+    .select()
+    .from(stations)
+    .orderBy(asc(stations.name), asc(stations.id))
+    .all()
+    .map((r) => toSummary(db, r));
 }
 
 export function getStation(db: Db, id: number): StationSummary {
@@ -201,10 +216,30 @@ export function getStationVersion(db: Db, id: number): number {
 
 function loadRows(db: Tx, stationId: number) {
   return {
-    segments: db.select().from(segments).where(eq(segments.stationId, stationId)).orderBy(asc(segments.ord), asc(segments.id)).all(),
-    nodes: db.select().from(nodes).where(eq(nodes.stationId, stationId)).orderBy(asc(nodes.ord), asc(nodes.id)).all(),
-    edges: db.select().from(edges).where(eq(edges.stationId, stationId)).orderBy(asc(edges.ord), asc(edges.id)).all(),
-    hazards: db.select().from(hazards).where(eq(hazards.stationId, stationId)).orderBy(asc(hazards.ord), asc(hazards.id)).all(),
+    segments: db
+      .select()
+      .from(segments)
+      .where(eq(segments.stationId, stationId))
+      .orderBy(asc(segments.ord), asc(segments.id))
+      .all(),
+    nodes: db
+      .select()
+      .from(nodes)
+      .where(eq(nodes.stationId, stationId))
+      .orderBy(asc(nodes.ord), asc(nodes.id))
+      .all(),
+    edges: db
+      .select()
+      .from(edges)
+      .where(eq(edges.stationId, stationId))
+      .orderBy(asc(edges.ord), asc(edges.id))
+      .all(),
+    hazards: db
+      .select()
+      .from(hazards)
+      .where(eq(hazards.stationId, stationId))
+      .orderBy(asc(hazards.ord), asc(hazards.id))
+      .all(),
   };
 }
 
@@ -230,7 +265,10 @@ export function getStationDocument(db: Db, id: number): StationDocument {
 }
 
 /** The document together with the version it was read at, read in one transaction. */
-export function getStationSnapshot(db: Db, id: number): { stationId: number; version: number; document: StationDocument } {
+export function getStationSnapshot(
+  db: Db,
+  id: number,
+): { stationId: number; version: number; document: StationDocument } {
   return db.transaction((tx) => {
     const row = findStationRow(tx, id);
     return { stationId: id, version: row.version, document: loadDocument(tx, row) };
@@ -322,7 +360,10 @@ function staleVersion(db: Tx, row: StationRow, expected: number): HttpError {
 
 export function problemsError(message: string, problems: DocumentProblem[]): HttpError {
   const first = problems[0];
-  return badRequest(`${message}: ${first.path}: ${first.message}${problems.length > 1 ? ` (and ${problems.length - 1} more)` : ''}`, problems);
+  return badRequest(
+    `${message}: ${first.path}: ${first.message}${problems.length > 1 ? ` (and ${problems.length - 1} more)` : ''}`,
+    problems,
+  );
 }
 
 /**
@@ -330,10 +371,15 @@ export function problemsError(message: string, problems: DocumentProblem[]): Htt
  * the change, optionally re-check the whole stored model, bump the version and write the audit row.
  * Any throw rolls everything back.
  */
-export function writeStation<R>(ctx: AppContext, req: WriteRequest, change: (tx: Tx, row: StationRow) => WriteOutcome<R>) {
+export function writeStation<R>(
+  ctx: AppContext,
+  req: WriteRequest,
+  change: (tx: Tx, row: StationRow) => WriteOutcome<R>,
+) {
   const { outcome, version, name } = ctx.db.transaction((tx) => {
     const row = findStationRow(tx, req.stationId);
-    if (req.expectedVersion !== undefined && req.expectedVersion !== row.version) throw staleVersion(tx, row, req.expectedVersion);
+    if (req.expectedVersion !== undefined && req.expectedVersion !== row.version)
+      throw staleVersion(tx, row, req.expectedVersion);
     const outcome = change(tx, row);
     if (outcome.revalidate) {
       const current = findStationRow(tx, req.stationId);
@@ -376,14 +422,27 @@ function insertChunked<T>(rows: T[], insert: (chunk: T[]) => void) {
 }
 
 function insertModel(tx: Tx, stationId: number, doc: StationDocument) {
-  insertChunked(doc.segments.map((s, i) => segmentToRow(stationId, s, i)), (c) => tx.insert(segments).values(c).run());
-  insertChunked(doc.nodes.map((n, i) => nodeToRow(stationId, n, i)), (c) => tx.insert(nodes).values(c).run());
-  insertChunked(doc.edges.map((e, i) => edgeToRow(stationId, e, i)), (c) => tx.insert(edges).values(c).run());
-  insertChunked(doc.hazards.map((h, i) => hazardToRow(stationId, h, i)), (c) => tx.insert(hazards).values(c).run());
+  insertChunked(
+    doc.segments.map((s, i) => segmentToRow(stationId, s, i)),
+    (c) => tx.insert(segments).values(c).run(),
+  );
+  insertChunked(
+    doc.nodes.map((n, i) => nodeToRow(stationId, n, i)),
+    (c) => tx.insert(nodes).values(c).run(),
+  );
+  insertChunked(
+    doc.edges.map((e, i) => edgeToRow(stationId, e, i)),
+    (c) => tx.insert(edges).values(c).run(),
+  );
+  insertChunked(
+    doc.hazards.map((h, i) => hazardToRow(stationId, h, i)),
+    (c) => tx.insert(hazards).values(c).run(),
+  );
 }
 
 function deleteModel(tx: Tx, stationId: number) {
-  for (const table of [edges, nodes, hazards, segments]) tx.delete(table).where(eq(table.stationId, stationId)).run();
+  for (const table of [edges, nodes, hazards, segments])
+    tx.delete(table).where(eq(table.stationId, stationId)).run();
 }
 
 const docCounts = (doc: StationDocument): StationCounts => ({
@@ -418,7 +477,11 @@ export function parseStationDocumentText(text: string): StationDocument {
 }
 
 /** Creates a station from a checked document, all in one transaction. */
-export function importStation(ctx: AppContext, doc: StationDocument, editor: Editor | null): ImportStationResult {
+export function importStation(
+  ctx: AppContext,
+  doc: StationDocument,
+  editor: Editor | null,
+): ImportStationResult {
   const id = ctx.db.transaction((tx) => {
     const row = tx
       .insert(stations)
@@ -461,12 +524,21 @@ export function importStation(ctx: AppContext, doc: StationDocument, editor: Edi
  * checked document. Annotations, plans and the audit log stay: they belong to the station, not to
  * one model version. With no `expectedVersion` the latest version is replaced.
  */
-export function replaceStationModel(ctx: AppContext, req: WriteRequest, doc: StationDocument): ImportStationResult {
+export function replaceStationModel(
+  ctx: AppContext,
+  req: WriteRequest,
+  doc: StationDocument,
+): ImportStationResult {
   writeStation(ctx, req, (tx, row) => {
     const before = { name: row.name, counts: countsOf(tx, row.id) };
     deleteModel(tx, row.id);
     tx.update(stations)
-      .set({ name: doc.name, altitudeKm: doc.orbit.altitudeKm, betaDeg: doc.orbit.betaDeg, settingsJson: JSON.stringify(doc.settings) })
+      .set({
+        name: doc.name,
+        altitudeKm: doc.orbit.altitudeKm,
+        betaDeg: doc.orbit.betaDeg,
+        settingsJson: JSON.stringify(doc.settings),
+      })
       .where(eq(stations.id, row.id))
       .run();
     insertModel(tx, row.id, doc);
@@ -485,7 +557,8 @@ export function replaceStationModel(ctx: AppContext, req: WriteRequest, doc: Sta
 
 export function listStationAudit(db: Db, stationId: number, page: number, pageSize: number) {
   findStationRow(db, stationId);
-  const total = db.select({ n: count() }).from(stationAudit).where(eq(stationAudit.stationId, stationId)).get()?.n ?? 0;
+  const total =
+    db.select({ n: count() }).from(stationAudit).where(eq(stationAudit.stationId, stationId)).get()?.n ?? 0;
   const rows = db
     .select({ a: stationAudit, userName: users.name })
     .from(stationAudit)

@@ -37,7 +37,12 @@ function createPasswordToken(db: Db, userId: number, createdBy: number) {
   return token;
 }
 
-async function sendInvitation(ctx: AppContext, user: { email: string; name: string }, token: string, inviter: string) {
+async function sendInvitation(
+  ctx: AppContext,
+  user: { email: string; name: string },
+  token: string,
+  inviter: string,
+) {
   const link = `${ctx.config.publicOrigin}/set-password?token=${encodeURIComponent(token)}`;
   await ctx.mailer.send({
     to: user.email,
@@ -55,23 +60,43 @@ async function sendInvitation(ctx: AppContext, user: { email: string; name: stri
   });
 }
 
-export async function inviteUser(ctx: AppContext, input: InviteUserInput, inviter: { id: number; name: string }) {
+export async function inviteUser(
+  ctx: AppContext,
+  input: InviteUserInput,
+  inviter: { id: number; name: string },
+) {
   const { user, token } = ctx.db.transaction((tx) => {
     const existing = tx.select({ id: users.id }).from(users).where(eq(users.email, input.email)).get();
-    if (existing) throw new HttpError('CONFLICT', `Someone with the e-mail ${input.email} is already on the team.`);
-    const created = tx.insert(users).values({ email: input.email, name: input.name, role: input.role }).returning().get();
+    if (existing)
+      throw new HttpError('CONFLICT', `Someone with the e-mail ${input.email} is already on the team.`);
+    const created = tx
+      .insert(users)
+      .values({ email: input.email, name: input.name, role: input.role })
+      .returning()
+      .get();
     return { user: created, token: createPasswordToken(tx as unknown as Db, created.id, inviter.id) };
   });
-  recordActivity(ctx.db, { userId: inviter.id, kind: 'user.invited', summary: `${inviter.name} invited ${user.name} (${user.role})`, link: '/people' });
+  recordActivity(ctx.db, {
+    userId: inviter.id,
+    kind: 'user.invited',
+    summary: `${inviter.name} invited ${user.name} (${user.role})`,
+    link: '/people',
+  });
   await sendInvitation(ctx, user, token, inviter.name);
   return toAdminView(user);
 }
 
-export async function resendInvitation(ctx: AppContext, userId: number, inviter: { id: number; name: string }) {
+export async function resendInvitation(
+  ctx: AppContext,
+  userId: number,
+  inviter: { id: number; name: string },
+) {
   const u = ctx.db.select().from(users).where(eq(users.id, userId)).get();
   if (!u) throw new HttpError('NOT_FOUND', 'No such person.');
-  if (u.passwordHash !== null) throw new HttpError('VALIDATION_FAILED', `${u.name} has already set a password.`);
-  if (u.disabled) throw new HttpError('VALIDATION_FAILED', `${u.name} is disabled; enable the account first.`);
+  if (u.passwordHash !== null)
+    throw new HttpError('VALIDATION_FAILED', `${u.name} has already set a password.`);
+  if (u.disabled)
+    throw new HttpError('VALIDATION_FAILED', `${u.name} is disabled; enable the account first.`);
   const token = createPasswordToken(ctx.db, u.id, inviter.id);
   await sendInvitation(ctx, u, token, inviter.name);
 }
@@ -89,7 +114,8 @@ export function updateUser(db: Db, userId: number, input: UpdateUserInput, actor
         .from(users)
         .where(sql`${users.role} = 'admin' and ${users.disabled} = 0`)
         .get();
-      if ((admins?.n ?? 0) <= 1) throw new HttpError('VALIDATION_FAILED', 'The team needs at least one enabled admin.');
+      if ((admins?.n ?? 0) <= 1)
+        throw new HttpError('VALIDATION_FAILED', 'The team needs at least one enabled admin.');
     }
     // a role change or disabling ends the person's sessions, so the new rights apply at once
     const endSessions = (input.role !== undefined && input.role !== u.role) || input.disabled === true;

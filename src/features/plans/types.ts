@@ -1,4 +1,10 @@
-export type { PlanListItem, PlanTimeline, PlanView, ReachWarning, TaskReach } from '@shared/schemas/plan-views';
+export type {
+  PlanListItem,
+  PlanTimeline,
+  PlanView,
+  ReachWarning,
+  TaskReach,
+} from '@shared/schemas/plan-views';
 
 /** What the plan screens need to know about the plan's station; the route module supplies it. */
 export interface StationChoice {

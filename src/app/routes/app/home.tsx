@@ -19,7 +19,14 @@ const linkClass =
 function StationsPanel() {
   const { data, isPending, isError } = useStations();
   return (
-    <Panel title="Stations" actions={<Link to={paths.stations.getHref()} className={linkClass}>All stations</Link>}>
+    <Panel
+      title="Stations"
+      actions={
+        <Link to={paths.stations.getHref()} className={linkClass}>
+          All stations
+        </Link>
+      }
+    >
       {isPending ? (
         <Spinner />
       ) : isError ? (
@@ -34,7 +41,8 @@ function StationsPanel() {
                 {s.name}
               </Link>
               <span className="text-text-muted">
-                {s.counts.nodes} nodes · {s.counts.edges} edges · {s.counts.hazards} hazards · version {s.version}
+                {s.counts.nodes} nodes · {s.counts.edges} edges · {s.counts.hazards} hazards · version{' '}
+                {s.version}
               </span>
             </li>
           ))}
@@ -47,7 +55,14 @@ function StationsPanel() {
 function PlansPanel() {
   const { data, isPending, isError } = usePlans();
   return (
-    <Panel title="Plans by status" actions={<Link to={paths.plans.getHref()} className={linkClass}>All plans</Link>}>
+    <Panel
+      title="Plans by status"
+      actions={
+        <Link to={paths.plans.getHref()} className={linkClass}>
+          All plans
+        </Link>
+      }
+    >
       {isPending ? (
         <Spinner />
       ) : isError ? (

@@ -44,7 +44,8 @@ function SocketPlannerPage({ graph }: { graph: StationGraph }) {
     nodes: graph.nodes,
   };
   const loadPlanWorksites = useCallback(
-    async (planId: number) => (await queryClient.fetchQuery(getPlanQueryOptions(planId))).tasks.map((t) => t.worksite),
+    async (planId: number) =>
+      (await queryClient.fetchQuery(getPlanQueryOptions(planId))).tasks.map((t) => t.worksite),
     [queryClient],
   );
   const sceneApi = useRef<SceneApi>(null);
@@ -68,7 +69,8 @@ function SocketPlannerPage({ graph }: { graph: StationGraph }) {
         description={
           <>
             The fewest foot-restraint sockets that bring every chosen target within reach on{' '}
-            <TextLink to={paths.station.getHref(stationId)}>{graph.station.name}</TextLink> (version {graph.station.version}).
+            <TextLink to={paths.station.getHref(stationId)}>{graph.station.name}</TextLink> (version{' '}
+            {graph.station.version}).
           </>
         }
       />
@@ -92,7 +94,11 @@ function SocketPlannerPage({ graph }: { graph: StationGraph }) {
       </div>
       <div className="mt-6 grid gap-6 lg:grid-cols-[minmax(0,1fr)_380px]">
         <Panel title="Result">
-          {planner.results || <p className="text-sm text-text-muted">Choose targets and plan: the result shows here and in 3D.</p>}
+          {planner.results || (
+            <p className="text-sm text-text-muted">
+              Choose targets and plan: the result shows here and in 3D.
+            </p>
+          )}
         </Panel>
         <Panel title="Restraint angles">
           <YawPitchDiagram />
@@ -100,7 +106,8 @@ function SocketPlannerPage({ graph }: { graph: StationGraph }) {
       </div>
       <PlanningCaution className="mt-6" />
       <p className="mt-2 text-xs text-text-muted">
-        The reach stand-off and radius are planning defaults from memory, not verified suited work-envelope dimensions.
+        The reach stand-off and radius are planning defaults from memory, not verified suited work-envelope
+        dimensions.
       </p>
     </>
   );

@@ -112,9 +112,21 @@ export function StationView({ graph, panels = [], Overlays, onPickSurface }: Sta
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, []);
 
-  const ctx: StationViewContext = { graph, selection, select: focus, lastSurfacePick, layers, sceneApi: api, showPanel: setTab };
+  const ctx: StationViewContext = {
+    graph,
+    selection,
+    select: focus,
+    lastSurfacePick,
+    layers,
+    sceneApi: api,
+    showPanel: setTab,
+  };
   const tabs = [
-    { id: 'details', label: 'Details', render: () => <SelectionDetails graph={graph} selection={selection} onSelect={focus} /> },
+    {
+      id: 'details',
+      label: 'Details',
+      render: () => <SelectionDetails graph={graph} selection={selection} onSelect={focus} />,
+    },
     ...panels.map((p) => ({ id: p.id, label: p.label, render: () => p.render(ctx) })),
   ];
 
@@ -123,7 +135,11 @@ export function StationView({ graph, panels = [], Overlays, onPickSurface }: Sta
       <SceneToolbar api={sceneApi} layers={layers} onLayersChange={setLayers} />
       <div className="grid gap-4 lg:grid-cols-[15rem_minmax(0,1fr)_22rem]">
         <div className="flex h-[560px] flex-col">
-          <NodeList nodes={graph.nodes} selectedKey={selection?.type === 'node' ? selection.key : null} onSelect={(key) => focus({ type: 'node', key })} />
+          <NodeList
+            nodes={graph.nodes}
+            selectedKey={selection?.type === 'node' ? selection.key : null}
+            onSelect={(key) => focus({ type: 'node', key })}
+          />
         </div>
         <StationScene
           className="h-[560px]"
@@ -140,7 +156,10 @@ export function StationView({ graph, panels = [], Overlays, onPickSurface }: Sta
           }}
           overlays={Overlays && <Overlays {...ctx} />}
         />
-        <section aria-label="Selection and tools" className="flex h-[560px] flex-col rounded-lg border border-surface-line bg-surface-panel">
+        <section
+          aria-label="Selection and tools"
+          className="flex h-[560px] flex-col rounded-lg border border-surface-line bg-surface-panel"
+        >
           <PanelTabs label="Station panels" tabs={tabs} active={tab} onChange={setTab} />
         </section>
       </div>
@@ -183,8 +202,14 @@ function StationActions({ graph }: { graph: StationGraph }) {
           Replace model…
         </Button>
       )}
-      {exportError != null && <Alert tone="danger">{apiErrorMessage(exportError, 'The export failed.')}</Alert>}
-      <Dialog open={replacing} title={`Replace the model of ${station.name}`} onClose={() => setReplacing(false)}>
+      {exportError != null && (
+        <Alert tone="danger">{apiErrorMessage(exportError, 'The export failed.')}</Alert>
+      )}
+      <Dialog
+        open={replacing}
+        title={`Replace the model of ${station.name}`}
+        onClose={() => setReplacing(false)}
+      >
         <ImportStationForm target={{ mode: 'replace', stationId: station.id, version: station.version }} />
       </Dialog>
     </>
@@ -197,10 +222,16 @@ export default function StationRoute() {
   const { stationId } = useParams();
   const graph = useStationGraph(stationIdOf(stationId));
   const queryClient = useQueryClient();
-  const editTab = useStationEditor(() => void queryClient.invalidateQueries({ queryKey: stationKeys.graph(stationIdOf(stationId)) }));
+  const editTab = useStationEditor(
+    () => void queryClient.invalidateQueries({ queryKey: stationKeys.graph(stationIdOf(stationId)) }),
+  );
   const notes = useStationNotes(stationIdOf(stationId));
   const routeFinder = useRouteFinder(
-    graph.data && { ...graph.data.station, tetherLengthM: graph.data.station.settings.tetherLengthM, nodes: graph.data.nodes },
+    graph.data && {
+      ...graph.data.station,
+      tetherLengthM: graph.data.station.settings.tetherLengthM,
+      nodes: graph.data.nodes,
+    },
     ROUTE_PIECES,
   );
   const { Overlays: RouteOverlays } = routeFinder;
@@ -225,14 +256,19 @@ export default function StationRoute() {
         title={station.name}
         description={
           <>
-            Version {station.version} · {station.counts.nodes} nodes, {station.counts.edges} edges, {station.counts.hazards} hazards,{' '}
-            {station.counts.segments} segments · updated {formatDateTime(station.updatedAt)}
+            Version {station.version} · {station.counts.nodes} nodes, {station.counts.edges} edges,{' '}
+            {station.counts.hazards} hazards, {station.counts.segments} segments · updated{' '}
+            {formatDateTime(station.updatedAt)}
             {station.updatedBy && ` by ${station.updatedBy.name}`}
           </>
         }
         actions={<StationActions graph={graph.data} />}
       />
-      <StationView graph={graph.data} panels={[routeFinder.tab, ...(editTab ? [editTab] : []), notes.tab]} Overlays={Overlays} />
+      <StationView
+        graph={graph.data}
+        panels={[routeFinder.tab, ...(editTab ? [editTab] : []), notes.tab]}
+        Overlays={Overlays}
+      />
     </>
   );
 }

@@ -19,7 +19,11 @@ export function getActivity(limit = 12): Promise<ActivityEntry[]> {
 }
 
 export const getActivityQueryOptions = (limit = 12) =>
-  queryOptions({ queryKey: activityKeys.recent(limit), queryFn: () => getActivity(limit), staleTime: 15_000 });
+  queryOptions({
+    queryKey: activityKeys.recent(limit),
+    queryFn: () => getActivity(limit),
+    staleTime: 15_000,
+  });
 
 export function useActivity(limit = 12) {
   return useQuery(getActivityQueryOptions(limit));

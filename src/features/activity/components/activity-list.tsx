@@ -14,7 +14,10 @@ export function ActivityList({ limit = 12 }: { limit?: number }) {
       {data.map((entry) => (
         <li key={entry.id} className="flex flex-wrap items-baseline justify-between gap-x-4 gap-y-1 py-2">
           {entry.link ? (
-            <Link to={entry.link} className="rounded-sm text-text hover:underline focus-visible:outline-2 focus-visible:outline-accent focus-visible:outline-offset-2">
+            <Link
+              to={entry.link}
+              className="rounded-sm text-text hover:underline focus-visible:outline-2 focus-visible:outline-accent focus-visible:outline-offset-2"
+            >
               {entry.summary}
             </Link>
           ) : (

@@ -5,7 +5,11 @@ import { routeKeys } from './keys';
 
 export type RouteParams = Omit<RouteRequest, 'mode'>;
 
-export function getRoute(stationId: number, request: RouteRequest, signal?: AbortSignal): Promise<RouteResult> {
+export function getRoute(
+  stationId: number,
+  request: RouteRequest,
+  signal?: AbortSignal,
+): Promise<RouteResult> {
   return api.post(`/stations/${stationId}/routes`, request, { signal });
 }
 

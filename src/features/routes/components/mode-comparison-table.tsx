@@ -4,7 +4,12 @@ import { Table, Td, Th } from '@/components/ui/table';
 import { focusRing } from '@/components/ui/button';
 import { cn } from '@/lib/cn';
 import { formatDuration } from '../lib/format-route';
-import { bestPerColumn, COMPARISON_COLUMNS, MODE_LABELS, type ComparisonColumn } from '../lib/mode-comparison';
+import {
+  bestPerColumn,
+  COMPARISON_COLUMNS,
+  MODE_LABELS,
+  type ComparisonColumn,
+} from '../lib/mode-comparison';
 
 const HEADINGS: Record<ComparisonColumn, string> = {
   lengthM: 'Length',
@@ -47,21 +52,33 @@ export function ModeComparisonTable({ results, chosen, unit, onChoose }: ModeCom
           const r = results[mode];
           const isChosen = mode === chosen;
           return (
-            <tr key={mode} aria-current={isChosen ? 'true' : undefined} className={cn(isChosen && 'bg-accent-soft')}>
+            <tr
+              key={mode}
+              aria-current={isChosen ? 'true' : undefined}
+              className={cn(isChosen && 'bg-accent-soft')}
+            >
               <Td className={cn(isChosen && 'border-l-4 border-l-accent')}>
                 <button
                   type="button"
                   onClick={() => onChoose(mode)}
-                  className={cn('rounded text-left font-medium text-text-strong underline-offset-2 hover:underline', focusRing)}
+                  className={cn(
+                    'rounded text-left font-medium text-text-strong underline-offset-2 hover:underline',
+                    focusRing,
+                  )}
                 >
                   {MODE_LABELS[mode]}
                 </button>
-                {isChosen && <span className="ml-1.5 text-xs font-semibold text-accent-strong">(chosen)</span>}
+                {isChosen && (
+                  <span className="ml-1.5 text-xs font-semibold text-accent-strong">(chosen)</span>
+                )}
               </Td>
               {COMPARISON_COLUMNS.map((c) => {
                 const isBest = best[c].includes(mode);
                 return (
-                  <Td key={c} className={cn('text-right tabular-nums', isBest && 'font-semibold text-text-strong')}>
+                  <Td
+                    key={c}
+                    className={cn('text-right tabular-nums', isBest && 'font-semibold text-text-strong')}
+                  >
                     {cell(r, c)}
                     {isBest && (
                       <span className="ml-1 text-accent-strong" title="best in this column">

@@ -37,7 +37,15 @@ interface NodePickerProps {
 }
 
 /** A type-ahead over node keys and labels (ARIA combobox), with "pick in 3D" for the next clicked node. */
-export function NodePicker({ label, value, onChange, options, error, picking, onTogglePick }: NodePickerProps) {
+export function NodePicker({
+  label,
+  value,
+  onChange,
+  options,
+  error,
+  picking,
+  onTogglePick,
+}: NodePickerProps) {
   const id = useId();
   const [open, setOpen] = useState(false);
   const [active, setActive] = useState(0);

@@ -157,7 +157,11 @@ export function RouteFinderForm({
             control={control}
             name="unit"
             render={({ field: f }) => (
-              <div role="group" aria-label="Tether length unit" className="flex shrink-0 overflow-hidden rounded-md border border-surface-line">
+              <div
+                role="group"
+                aria-label="Tether length unit"
+                className="flex shrink-0 overflow-hidden rounded-md border border-surface-line"
+              >
                 {(['m', 'ft'] as const).map((unit) => (
                   <button
                     key={unit}
@@ -167,7 +171,9 @@ export function RouteFinderForm({
                     className={cn(
                       'h-10 px-3 text-sm font-medium',
                       focusRing,
-                      f.value === unit ? 'bg-accent text-white' : 'bg-surface-panel text-text-strong hover:bg-surface-sunken',
+                      f.value === unit
+                        ? 'bg-accent text-white'
+                        : 'bg-surface-panel text-text-strong hover:bg-surface-sunken',
                     )}
                   >
                     {unit}

@@ -1,4 +1,12 @@
-import { useCallback, useEffect, useMemo, useRef, useState, useSyncExternalStore, type ReactNode } from 'react';
+import {
+  useCallback,
+  useEffect,
+  useMemo,
+  useRef,
+  useState,
+  useSyncExternalStore,
+  type ReactNode,
+} from 'react';
 import type { RouteMode } from '@shared/schemas/route';
 import type { NodeKind, Vec3 } from '@shared/schemas/station';
 import type { LengthUnit } from '@shared/compute/units';
@@ -60,18 +68,28 @@ export function useRouteFinder(
   const [submitted, setSubmitted] = useState<Submitted | null>(null);
   const [formValues, setFormValues] = useState<RouteFormValues | null>(null);
   const [showReach, setShowReach] = useState(false);
-  const comparison = useRouteComparison(station?.id ?? 0, station?.version ?? 0, station ? (submitted?.params ?? null) : null);
+  const comparison = useRouteComparison(
+    station?.id ?? 0,
+    station?.version ?? 0,
+    station ? (submitted?.params ?? null) : null,
+  );
 
   const nodes = station?.nodes;
   const positions = useMemo(() => new Map(nodes?.map((n) => [n.key, n.position]) ?? []), [nodes]);
   const options_ = useMemo(
-    () => [...(nodes ?? [])].sort((a, b) => a.key.localeCompare(b.key)).map(({ key, label, kind }) => ({ key, label, kind })),
+    () =>
+      [...(nodes ?? [])]
+        .sort((a, b) => a.key.localeCompare(b.key))
+        .map(({ key, label, kind }) => ({ key, label, kind })),
     [nodes],
   );
 
   const chosen = submitted ? comparison.byMode[submitted.mode] : undefined;
   const route = chosen?.data;
-  const model = useMemo(() => (route?.feasible ? routeOverlayModel(route, (k) => positions.get(k)) : null), [route, positions]);
+  const model = useMemo(
+    () => (route?.feasible ? routeOverlayModel(route, (k) => positions.get(k)) : null),
+    [route, positions],
+  );
 
   const selectNode = useCallback(
     (key: string) => {
@@ -138,7 +156,9 @@ export function useRouteFinder(
         {submitted && (
           <section aria-label="Route result" className="space-y-4 border-t border-surface-line pt-4">
             {chosen?.isPending && <Spinner label="Computing the route" />}
-            {chosen?.error && <Alert tone="danger">{apiErrorMessage(chosen.error, 'The route could not be computed.')}</Alert>}
+            {chosen?.error && (
+              <Alert tone="danger">{apiErrorMessage(chosen.error, 'The route could not be computed.')}</Alert>
+            )}
             {route?.feasible === false && <RouteInfeasibleView route={route} />}
             {route?.feasible && (
               <>
@@ -173,7 +193,10 @@ export function useRouteFinder(
     );
   };
 
-  const overlay = useMemo(() => (model ? <RouteOverlay model={model} showReach={showReach} pieces={pieces} /> : null), [model, showReach, pieces]);
+  const overlay = useMemo(
+    () => (model ? <RouteOverlay model={model} showReach={showReach} pieces={pieces} /> : null),
+    [model, showReach, pieces],
+  );
   const [store] = useState(createOverlayStore);
   useEffect(() => store.set(overlay), [store, overlay]);
 

@@ -22,7 +22,10 @@ function Summary({ route, unit }: { route: RouteFeasible; unit: LengthUnit }) {
     ['Travel time', formatDuration(route.travelSeconds)],
     ['Tether swaps', `${route.swapCount} (${formatDuration(route.swapSeconds)})`],
     ['Total time', formatDuration(route.totalSeconds)],
-    ['Most tether out', `${formatBothLengths(route.maxPaidOutM, unit)} of ${formatBothLengths(route.tetherLengthM, unit)}`],
+    [
+      'Most tether out',
+      `${formatBothLengths(route.maxPaidOutM, unit)} of ${formatBothLengths(route.tetherLengthM, unit)}`,
+    ],
   ];
   return (
     <dl aria-label="Route summary" className="grid grid-cols-2 gap-x-4 gap-y-2 text-sm">
@@ -36,7 +39,15 @@ function Summary({ route, unit }: { route: RouteFeasible; unit: LengthUnit }) {
   );
 }
 
-export function RouteSteps({ route, unit, onFocusNode }: { route: RouteFeasible; unit: LengthUnit; onFocusNode?: (key: string) => void }) {
+export function RouteSteps({
+  route,
+  unit,
+  onFocusNode,
+}: {
+  route: RouteFeasible;
+  unit: LengthUnit;
+  onFocusNode?: (key: string) => void;
+}) {
   const steps = routeSteps(route, unit);
   return (
     <ol aria-label="Route steps" className="space-y-2">
@@ -45,7 +56,9 @@ export function RouteSteps({ route, unit, onFocusNode }: { route: RouteFeasible;
           key={i}
           className={cn(
             'rounded-md border px-3 py-2 text-sm',
-            step.kind === 'swap' ? 'border-caution/50 bg-caution-soft' : 'border-surface-line bg-surface-panel',
+            step.kind === 'swap'
+              ? 'border-caution/50 bg-caution-soft'
+              : 'border-surface-line bg-surface-panel',
           )}
         >
           <div className="flex items-baseline gap-2">
@@ -73,7 +86,15 @@ export function RouteSteps({ route, unit, onFocusNode }: { route: RouteFeasible;
   );
 }
 
-export function RouteFeasibleView({ route, unit, onFocusNode }: { route: RouteFeasible; unit: LengthUnit; onFocusNode?: (key: string) => void }) {
+export function RouteFeasibleView({
+  route,
+  unit,
+  onFocusNode,
+}: {
+  route: RouteFeasible;
+  unit: LengthUnit;
+  onFocusNode?: (key: string) => void;
+}) {
   return (
     <div className="space-y-4">
       <Summary route={route} unit={unit} />
@@ -95,7 +116,9 @@ export function RouteInfeasibleView({ route }: { route: RouteInfeasible }) {
   return (
     <Alert tone="danger" title={`No route: ${reasonTitle(route).toLowerCase()}`}>
       <p>{route.reason}</p>
-      {route.blockingHazards?.length ? <p className="mt-1">Blocking: {route.blockingHazards.join(', ')}.</p> : null}
+      {route.blockingHazards?.length ? (
+        <p className="mt-1">Blocking: {route.blockingHazards.join(', ')}.</p>
+      ) : null}
     </Alert>
   );
 }

@@ -18,11 +18,16 @@ export function routeFormSchema(knownKeys: ReadonlySet<string>) {
       allowRide: z.boolean(),
     })
     .superRefine((v, ctx) => {
-      if (v.from === v.to) ctx.addIssue({ code: 'custom', path: ['to'], message: 'choose a node other than From' });
+      if (v.from === v.to)
+        ctx.addIssue({ code: 'custom', path: ['to'], message: 'choose a node other than From' });
       const metres = toMetres(Number(v.tether), v.unit);
       const checked = RouteRequestSchema.shape.tetherLengthM.safeParse(metres);
       if (!checked.success) {
-        ctx.addIssue({ code: 'custom', path: ['tether'], message: checked.error.issues[0]?.message ?? 'enter a number' });
+        ctx.addIssue({
+          code: 'custom',
+          path: ['tether'],
+          message: checked.error.issues[0]?.message ?? 'enter a number',
+        });
       }
     });
 }
@@ -43,4 +48,5 @@ export function toRouteParams(v: RouteFormValues): { params: RouteParams; mode: 
 }
 
 /** A tether length for the field, in `unit`, to a tenth. */
-export const tetherText = (metres: number, unit: LengthUnit) => String(Math.round(fromMetres(metres, unit) * 10) / 10);
+export const tetherText = (metres: number, unit: LengthUnit) =>
+  String(Math.round(fromMetres(metres, unit) * 10) / 10);

@@ -31,7 +31,12 @@ function moveStep(legs: readonly RouteLeg[], unit: LengthUnit): RouteStep {
   const to = legs[legs.length - 1].to;
   const via = legs.length > 1 ? `, ${legs.length} legs from ${legs[0].from}` : ` from ${legs[0].from}`;
   const extra = kind === 'hop' ? ', including the fixed hop time' : '';
-  return { kind, text: moveText(kind, lengthM, to, unit), detail: `${formatDuration(seconds)}${via}${extra}`, nodeKey: to };
+  return {
+    kind,
+    text: moveText(kind, lengthM, to, unit),
+    detail: `${formatDuration(seconds)}${via}${extra}`,
+    nodeKey: to,
+  };
 }
 
 function swapStep(swap: TetherSwap, number: number, releasedAt: string, unit: LengthUnit): RouteStep {

@@ -24,7 +24,10 @@ export const EDGE_PATTERNS: Record<EdgeLayerId, { dash?: number; gap?: number; d
 const noRaycast = () => {};
 
 /** Edges as at most four line-segment objects, one per kind plus one for closed edges. */
-export function buildEdgeLines(nodes: readonly StationNode[], edges: readonly SceneEdge[]): THREE.LineSegments[] {
+export function buildEdgeLines(
+  nodes: readonly StationNode[],
+  edges: readonly SceneEdge[],
+): THREE.LineSegments[] {
   const at = new Map(nodes.map((n) => [n.key, n.position]));
   const groups = new Map<EdgeLayerId, number[]>();
   for (const e of edges) {

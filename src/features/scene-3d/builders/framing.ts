@@ -6,7 +6,13 @@ import { STATION_UP } from './frame';
  * outline points, or a box's corners) is projected onto the view plane, so a long truss seen end-on or obliquely fills the frame. Zenith
  * and nadir views lean a hair towards fore, so the camera's up (+z) is never parallel to the view.
  */
-export function framing(subject: THREE.Box3 | readonly THREE.Vector3[], direction: THREE.Vector3, fovDeg: number, aspect: number, minRadiusM = 0.5) {
+export function framing(
+  subject: THREE.Box3 | readonly THREE.Vector3[],
+  direction: THREE.Vector3,
+  fovDeg: number,
+  aspect: number,
+  minRadiusM = 0.5,
+) {
   const up = new THREE.Vector3(...STATION_UP);
   const dir = direction.clone().normalize();
   if (Math.abs(dir.dot(up)) > 0.999) dir.add(new THREE.Vector3(0, 1e-3, 0)).normalize();
@@ -23,7 +29,11 @@ export function framing(subject: THREE.Box3 | readonly THREE.Vector3[], directio
   for (const point of points) {
     corner.copy(point).sub(center);
     const toward = corner.dot(dir);
-    distance = Math.max(distance, Math.abs(corner.dot(right)) / tanH + toward, Math.abs(corner.dot(screenUp)) / tanV + toward);
+    distance = Math.max(
+      distance,
+      Math.abs(corner.dot(right)) / tanH + toward,
+      Math.abs(corner.dot(screenUp)) / tanV + toward,
+    );
   }
   distance *= 1.08;
   return { target: center, position: center.clone().addScaledVector(dir, distance), distance, radius };
@@ -32,6 +42,11 @@ export function framing(subject: THREE.Box3 | readonly THREE.Vector3[], directio
 export function boxCorners(box: THREE.Box3): THREE.Vector3[] {
   return Array.from(
     { length: 8 },
-    (_, i) => new THREE.Vector3(i & 1 ? box.max.x : box.min.x, i & 2 ? box.max.y : box.min.y, i & 4 ? box.max.z : box.min.z),
+    (_, i) =>
+      new THREE.Vector3(
+        i & 1 ? box.max.x : box.min.x,
+        i & 2 ? box.max.y : box.min.y,
+        i & 4 ? box.max.z : box.min.z,
+      ),
   );
 }

@@ -61,7 +61,11 @@ export function buildGlyphLayers(nodes: readonly StationNode[]): GlyphLayer[] {
   for (const kind of NODE_KINDS) {
     const ofKind = nodes.filter((node) => node.kind === kind);
     if (ofKind.length === 0) continue;
-    const material = new THREE.MeshStandardMaterial({ color: NODE_COLORS[kind], roughness: 0.55, metalness: 0.1 });
+    const material = new THREE.MeshStandardMaterial({
+      color: NODE_COLORS[kind],
+      roughness: 0.55,
+      metalness: 0.1,
+    });
     const mesh = new THREE.InstancedMesh(glyphGeometry(kind), material, ofKind.length);
     mesh.name = `nodes:${kind}`;
     ofKind.forEach((node, i) => {

@@ -16,7 +16,8 @@ export function buildHazardMeshes(hazards: readonly Hazard[]): THREE.InstancedMe
     for (const shape of ['sphere', 'box'] as const) {
       const list = hazards.filter((h) => h.kind === kind && h.shape === shape);
       if (list.length === 0) continue;
-      const geometry = shape === 'sphere' ? new THREE.SphereGeometry(1, 24, 16) : new THREE.BoxGeometry(1, 1, 1);
+      const geometry =
+        shape === 'sphere' ? new THREE.SphereGeometry(1, 24, 16) : new THREE.BoxGeometry(1, 1, 1);
       const fill = new THREE.MeshStandardMaterial({
         color: HAZARD_COLORS[kind],
         transparent: true,

@@ -9,9 +9,7 @@ export interface SurfacePick {
 }
 
 export type ScenePick =
-  | { type: 'node'; key: string }
-  | { type: 'hazard'; key: string }
-  | ({ type: 'segment' } & SurfacePick);
+  { type: 'node'; key: string } | { type: 'hazard'; key: string } | ({ type: 'segment' } & SurfacePick);
 
 function shown(o: THREE.Object3D | null): boolean {
   for (let p = o; p; p = p.parent) if (!p.visible) return false;

@@ -1,5 +1,12 @@
 import * as THREE from 'three';
-import { NODE_KINDS, type Hazard, type NodeKind, type Segment, type StationNode, type Vec3 } from '@shared/schemas/station';
+import {
+  NODE_KINDS,
+  type Hazard,
+  type NodeKind,
+  type Segment,
+  type StationNode,
+  type Vec3,
+} from '@shared/schemas/station';
 import { buildEdgeLines, type SceneEdge } from './edges';
 import { buildGlyphLayers } from './glyphs';
 import { buildHazardMeshes } from './hazards';
@@ -138,7 +145,9 @@ export function stationOutline(station: SceneStation): THREE.Vector3[] {
     segmentMatrix(s, m);
     for (let i = 0; i < 8; i++) {
       const sign = (bit: number) => (i & bit ? 0.5 : -0.5);
-      points.push(new THREE.Vector3(sign(1) * s.size[0], sign(2) * s.size[1], sign(4) * s.size[2]).applyMatrix4(m));
+      points.push(
+        new THREE.Vector3(sign(1) * s.size[0], sign(2) * s.size[1], sign(4) * s.size[2]).applyMatrix4(m),
+      );
     }
   }
   for (const h of station.hazards) {
@@ -151,5 +160,8 @@ export function stationOutline(station: SceneStation): THREE.Vector3[] {
 function hazardBox(h: Hazard): { min: Vec3; max: Vec3 } {
   if (h.shape === 'box') return { min: h.min, max: h.max };
   const r = h.radiusM;
-  return { min: [h.center[0] - r, h.center[1] - r, h.center[2] - r], max: [h.center[0] + r, h.center[1] + r, h.center[2] + r] };
+  return {
+    min: [h.center[0] - r, h.center[1] - r, h.center[2] - r],
+    max: [h.center[0] + r, h.center[1] + r, h.center[2] + r],
+  };
 }

@@ -44,7 +44,10 @@ export function CameraRig({ outline, apiRef }: { outline: readonly THREE.Vector3
         frame(subject, currentDirection(), points?.length ? FOCUS_RADIUS_M : undefined);
       },
       setPresetView(name: PresetView | 'home') {
-        frame(outline, name === 'home' ? HOME_DIRECTION.clone() : new THREE.Vector3(...PRESET_DIRECTIONS[name]));
+        frame(
+          outline,
+          name === 'home' ? HOME_DIRECTION.clone() : new THREE.Vector3(...PRESET_DIRECTIONS[name]),
+        );
       },
     };
   }, [outline, get, invalidate]);

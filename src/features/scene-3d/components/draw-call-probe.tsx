@@ -24,7 +24,8 @@ function publish(el: HTMLElement | null, info: THREE.WebGLInfo) {
   el.dataset.drawCalls = String(info.render.calls);
   el.dataset.triangles = String(info.render.triangles);
   el.dataset.frames = String(frames);
-  if (import.meta.env.DEV) window.__twScene = { calls: info.render.calls, triangles: info.render.triangles, frames };
+  if (import.meta.env.DEV)
+    window.__twScene = { calls: info.render.calls, triangles: info.render.triangles, frames };
 }
 
 /**

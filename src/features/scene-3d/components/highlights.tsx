@@ -8,9 +8,11 @@ import { PathLine, SceneLabel } from './pieces';
 export type SceneSelection = { type: 'node' | 'edge' | 'hazard'; key: string } | null;
 
 /** An edge's selection key: its id from the graph endpoint, else its place in the list. */
-export const edgeSelectionKey = (edge: { id?: number }, index: number) => (edge.id !== undefined ? String(edge.id) : `#${index}`);
+export const edgeSelectionKey = (edge: { id?: number }, index: number) =>
+  edge.id !== undefined ? String(edge.id) : `#${index}`;
 
-const nodeText = (node: StationNode | undefined, key: string) => (node?.label ? `${key} — ${node.label}` : key);
+const nodeText = (node: StationNode | undefined, key: string) =>
+  node?.label ? `${key} — ${node.label}` : key;
 
 function HazardCage({ hazard }: { hazard: Hazard }) {
   const [position, scale] = useMemo((): [Vec3, Vec3] => {
@@ -20,7 +22,11 @@ function HazardCage({ hazard }: { hazard: Hazard }) {
   }, [hazard]);
   return (
     <mesh position={position} scale={scale} renderOrder={12} raycast={() => null}>
-      {hazard.shape === 'sphere' ? <sphereGeometry args={[1.02, 24, 16]} /> : <boxGeometry args={[1.02, 1.02, 1.02]} />}
+      {hazard.shape === 'sphere' ? (
+        <sphereGeometry args={[1.02, 24, 16]} />
+      ) : (
+        <boxGeometry args={[1.02, 1.02, 1.02]} />
+      )}
       <meshBasicMaterial color={SCENE_COLORS.selection} wireframe depthTest={false} transparent />
     </mesh>
   );
@@ -64,7 +70,13 @@ export function SelectionHighlight({
   const a = edge && objects.nodeIndex.get(edge.from);
   const b = edge && objects.nodeIndex.get(edge.to);
   if (!a || !b) return null;
-  return <PathLine points={[a.position.toArray() as Vec3, b.position.toArray() as Vec3]} color={SCENE_COLORS.selection} width={5} />;
+  return (
+    <PathLine
+      points={[a.position.toArray() as Vec3, b.position.toArray() as Vec3]}
+      color={SCENE_COLORS.selection}
+      width={5}
+    />
+  );
 }
 
 const LABELLED_KINDS = new Set(['airlock', 'worksite']);
@@ -89,7 +101,15 @@ export function NodeLabels({ station, hidden }: { station: SceneStation; hidden?
   );
 }
 
-export function HoverLabel({ station, objects, nodeKey }: { station: SceneStation; objects: StationObjects; nodeKey: string | null }) {
+export function HoverLabel({
+  station,
+  objects,
+  nodeKey,
+}: {
+  station: SceneStation;
+  objects: StationObjects;
+  nodeKey: string | null;
+}) {
   const at = nodeKey ? objects.nodeIndex.get(nodeKey) : undefined;
   if (!nodeKey || !at) return null;
   return (

@@ -37,7 +37,15 @@ export function PathLine({
  * A tag that follows a point in the scene, drawn in the scene itself (a sprite with the page's Inter),
  * so it goes away with the canvas: DOM tags beside the canvas broke the page when a 3D screen was left.
  */
-export function SceneLabel({ position, children, tone = 'dark' }: { position: Vec3; children: string; tone?: 'dark' | 'light' }) {
+export function SceneLabel({
+  position,
+  children,
+  tone = 'dark',
+}: {
+  position: Vec3;
+  children: string;
+  tone?: 'dark' | 'light';
+}) {
   return (
     <group position={position}>
       <TextSprite
@@ -88,7 +96,11 @@ export function Marker({
         <sphereGeometry args={[size, 16, 12]} />
         <meshBasicMaterial color={color} depthTest={false} transparent toneMapped={false} />
       </mesh>
-      {text && <SceneLabel position={[0, 0, 0]} tone="light">{text}</SceneLabel>}
+      {text && (
+        <SceneLabel position={[0, 0, 0]} tone="light">
+          {text}
+        </SceneLabel>
+      )}
     </group>
   );
 }
@@ -110,7 +122,14 @@ export function TranslucentSphere({
   return (
     <mesh position={center} renderOrder={3} raycast={() => null}>
       <sphereGeometry args={[radius, 24, 16]} />
-      <meshStandardMaterial color={color} transparent opacity={opacity} depthWrite={false} side={THREE.DoubleSide} wireframe={wire} />
+      <meshStandardMaterial
+        color={color}
+        transparent
+        opacity={opacity}
+        depthWrite={false}
+        side={THREE.DoubleSide}
+        wireframe={wire}
+      />
     </mesh>
   );
 }

@@ -67,23 +67,36 @@ export function SceneLegend() {
       </ul>
       <ul className="space-y-1.5" aria-label="Edge lines">
         {(Object.keys(EDGE_NAMES) as EdgeLayerId[]).map((id) => (
-          <Item key={id} icon={<LinePattern id={id} />} name={EDGE_NAMES[id]} detail={EDGE_PATTERNS[id].description} />
+          <Item
+            key={id}
+            icon={<LinePattern id={id} />}
+            name={EDGE_NAMES[id]}
+            detail={EDGE_PATTERNS[id].description}
+          />
         ))}
       </ul>
       <ul className="space-y-1.5" aria-label="Hazards and axes">
         <Item
-          icon={<span className="size-5 shrink-0 rounded border-2 border-dashed" style={{ borderColor: HAZARD_COLORS['keep-out'], background: `${HAZARD_COLORS['keep-out']}55` }} />}
+          icon={
+            <span
+              className="size-5 shrink-0 rounded border-2 border-dashed"
+              style={{ borderColor: HAZARD_COLORS['keep-out'], background: `${HAZARD_COLORS['keep-out']}55` }}
+            />
+          }
           name="Keep-out"
           detail="volume with a wire cage; no route enters"
         />
         <Item
-          icon={<span className="size-5 shrink-0 rounded" style={{ background: `${HAZARD_COLORS.caution}55` }} />}
+          icon={
+            <span className="size-5 shrink-0 rounded" style={{ background: `${HAZARD_COLORS.caution}55` }} />
+          }
           name="Caution"
           detail="plain volume; routes through it are warned"
         />
         <li className="pt-1 text-text-muted">
-          Axes: <b className="text-text-strong">S</b> +x starboard, <b className="text-text-strong">F</b> +y fore,{' '}
-          <b className="text-text-strong">Z</b> +z zenith. Drag to orbit, right-drag to pan, scroll to zoom.
+          Axes: <b className="text-text-strong">S</b> +x starboard, <b className="text-text-strong">F</b> +y
+          fore, <b className="text-text-strong">Z</b> +z zenith. Drag to orbit, right-drag to pan, scroll to
+          zoom.
         </li>
       </ul>
     </div>

@@ -74,10 +74,22 @@ export function SceneToolbar({
       </div>
       <div className="flex flex-wrap items-center gap-x-4 gap-y-1.5">
         {LAYER_GROUPS.map(([group, ids]) => (
-          <div key={group} role="group" aria-label={`${group} layers`} className="flex flex-wrap items-center gap-1.5">
-            <span className="mr-1 text-xs font-semibold tracking-wide text-text-muted uppercase">{group}</span>
+          <div
+            key={group}
+            role="group"
+            aria-label={`${group} layers`}
+            className="flex flex-wrap items-center gap-1.5"
+          >
+            <span className="mr-1 text-xs font-semibold tracking-wide text-text-muted uppercase">
+              {group}
+            </span>
             {ids.map((id) => (
-              <LayerToggle key={id} id={id} on={layers[id]} onToggle={() => onLayersChange({ ...layers, [id]: !layers[id] })} />
+              <LayerToggle
+                key={id}
+                id={id}
+                on={layers[id]}
+                onToggle={() => onLayersChange({ ...layers, [id]: !layers[id] })}
+              />
             ))}
           </div>
         ))}

@@ -5,7 +5,12 @@ import { cn } from '@/lib/cn';
 import { STATION_UP } from '../builders/frame';
 import type { SurfacePick } from '../builders/picking';
 import { SCENE_COLORS } from '../builders/scene-colors';
-import { ALL_LAYERS_ON, buildStationObjects, type SceneLayers, type SceneStation } from '../builders/station-objects';
+import {
+  ALL_LAYERS_ON,
+  buildStationObjects,
+  type SceneLayers,
+  type SceneStation,
+} from '../builders/station-objects';
 import { CameraRig } from './camera-rig';
 import { DrawCallProbe } from './draw-call-probe';
 import { HoverLabel, NodeLabels, SelectionHighlight, type SceneSelection } from './highlights';
@@ -105,7 +110,9 @@ export function StationScene({
           {hovered && hovered !== (selection?.type === 'node' ? selection.key : null) && (
             <HoverLabel station={graph} objects={objects} nodeKey={hovered} />
           )}
-          {layers.labels && <NodeLabels station={graph} hidden={selection?.type === 'node' ? selection.key : null} />}
+          {layers.labels && (
+            <NodeLabels station={graph} hidden={selection?.type === 'node' ? selection.key : null} />
+          )}
           {overlays}
           <CameraRig outline={objects.outline} apiRef={innerApi} />
           <GizmoHelper alignment="bottom-left" margin={[64, 64]}>

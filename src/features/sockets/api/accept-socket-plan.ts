@@ -21,7 +21,10 @@ export interface AcceptSocketPlanResult {
   sockets: AcceptedSocket[];
 }
 
-export function acceptSocketPlan({ stationId, ...body }: AcceptSocketPlanInput): Promise<AcceptSocketPlanResult> {
+export function acceptSocketPlan({
+  stationId,
+  ...body
+}: AcceptSocketPlanInput): Promise<AcceptSocketPlanResult> {
   return api.post(`/stations/${stationId}/socket-plan/accept`, body);
 }
 

@@ -3,7 +3,11 @@ import type { SocketPlanRequest, SocketPlanResult } from '@shared/schemas/socket
 import { api } from '@/lib/api-client';
 import { socketKeys } from './keys';
 
-export function getSocketPlan(stationId: number, request: SocketPlanRequest, signal?: AbortSignal): Promise<SocketPlanResult> {
+export function getSocketPlan(
+  stationId: number,
+  request: SocketPlanRequest,
+  signal?: AbortSignal,
+): Promise<SocketPlanResult> {
   return api.post(`/stations/${stationId}/socket-plan`, request, { signal });
 }
 

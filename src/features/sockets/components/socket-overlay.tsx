@@ -7,10 +7,22 @@ import type { PlannedSocketView, PlanTarget } from '../lib/planned-sockets';
 export interface SocketScenePieces {
   PathLine: ComponentType<{ points: readonly Vec3[]; color?: string; width?: number; dashed?: boolean }>;
   Marker: ComponentType<{ position: Vec3; label?: string; number?: number; color?: string; size?: number }>;
-  TranslucentSphere: ComponentType<{ center: Vec3; radius: number; color?: string; opacity?: number; wire?: boolean }>;
+  TranslucentSphere: ComponentType<{
+    center: Vec3;
+    radius: number;
+    color?: string;
+    opacity?: number;
+    wire?: boolean;
+  }>;
 }
 
-export const SOCKET_PLAN_COLORS = { existing: '#f5b849', new: '#fb923c', envelope: '#4fd1c5', target: '#ffffff', line: '#4fd1c5' } as const;
+export const SOCKET_PLAN_COLORS = {
+  existing: '#f5b849',
+  new: '#fb923c',
+  envelope: '#4fd1c5',
+  target: '#ffffff',
+  line: '#4fd1c5',
+} as const;
 const GLYPH_HEIGHT_M = 0.9;
 const UP = new THREE.Vector3(0, 1, 0);
 // beyond this many targets the tags would hide the model
@@ -18,7 +30,10 @@ const MAX_TAGGED_TARGETS = 40;
 
 /** A cone standing on the socket along its normal: the direction the crew member faces out. */
 function SocketGlyph({ position, normal, color }: { position: Vec3; normal: Vec3; color: string }) {
-  const quaternion = useMemo(() => new THREE.Quaternion().setFromUnitVectors(UP, new THREE.Vector3(...normal)), [normal]);
+  const quaternion = useMemo(
+    () => new THREE.Quaternion().setFromUnitVectors(UP, new THREE.Vector3(...normal)),
+    [normal],
+  );
   const centre = position.map((p, i) => p + (normal[i] * GLYPH_HEIGHT_M) / 2) as Vec3;
   return (
     // drawn over the truss surfaces, so a socket on a far face still shows
@@ -43,17 +58,34 @@ export function SocketPlanOverlay({
   return (
     <group name="socket-plan-overlay">
       {targets.map((t, i) => (
-        <Marker key={`t-${i}`} position={t.position} label={tagged ? t.label : undefined} color={SOCKET_PLAN_COLORS.target} size={0.16} />
+        <Marker
+          key={`t-${i}`}
+          position={t.position}
+          label={tagged ? t.label : undefined}
+          color={SOCKET_PLAN_COLORS.target}
+          size={0.16}
+        />
       ))}
       {sockets.map((s) => {
         const color = s.isNew ? SOCKET_PLAN_COLORS.new : SOCKET_PLAN_COLORS.existing;
         return (
           <group key={s.index} name={`planned-socket-${s.name}`}>
             <SocketGlyph position={s.position} normal={s.normal} color={color} />
-            <TranslucentSphere center={s.workPoint} radius={s.radiusM} color={SOCKET_PLAN_COLORS.envelope} opacity={0.28} />
+            <TranslucentSphere
+              center={s.workPoint}
+              radius={s.radiusM}
+              color={SOCKET_PLAN_COLORS.envelope}
+              opacity={0.28}
+            />
             <Marker position={s.position} label={s.name} color={color} size={0.12} />
             {s.targets.map((t) => (
-              <PathLine key={t} points={[s.workPoint, targets[t].position]} color={SOCKET_PLAN_COLORS.line} width={2} dashed />
+              <PathLine
+                key={t}
+                points={[s.workPoint, targets[t].position]}
+                color={SOCKET_PLAN_COLORS.line}
+                width={2}
+                dashed
+              />
             ))}
           </group>
         );
@@ -63,7 +95,13 @@ export function SocketPlanOverlay({
 }
 
 /** Points picked on the model before a run. */
-export function PickedPointsOverlay({ points, pieces }: { points: readonly PlanTarget[]; pieces: SocketScenePieces }) {
+export function PickedPointsOverlay({
+  points,
+  pieces,
+}: {
+  points: readonly PlanTarget[];
+  pieces: SocketScenePieces;
+}) {
   const { Marker } = pieces;
   return (
     <group name="picked-points">

@@ -23,8 +23,12 @@ export function SocketPlanTable({ rows, unit }: { rows: readonly AssignmentRow[]
           <tr key={r.target}>
             <Td className="font-medium text-text-strong">{r.targetLabel}</Td>
             <Td className="font-mono">{r.socketName ?? 'none reaches it'}</Td>
-            <Td className="text-right tabular-nums">{r.distanceM === null ? '–' : formatLength(r.distanceM, unit, 2)}</Td>
-            <Td className={r.reachable ? 'text-status-approved' : 'font-semibold text-danger'}>{r.reachable ? 'Yes' : 'No'}</Td>
+            <Td className="text-right tabular-nums">
+              {r.distanceM === null ? '–' : formatLength(r.distanceM, unit, 2)}
+            </Td>
+            <Td className={r.reachable ? 'text-status-approved' : 'font-semibold text-danger'}>
+              {r.reachable ? 'Yes' : 'No'}
+            </Td>
             <Td className="text-right tabular-nums">
               {deg(r.yawDeg)} / <span className="font-semibold">{setDeg(r.yawSetDeg)}</span>
             </Td>

@@ -13,7 +13,13 @@ import { useCan } from '@/lib/authorization';
 import { cn } from '@/lib/cn';
 import { useAcceptSocketPlan, type AcceptSocketPlanResult } from '../api/accept-socket-plan';
 import { useSocketPlan } from '../api/get-socket-plan';
-import { assignmentRows, exactnessText, newSocketsToAccept, plannedSocketViews, type PlanTarget } from '../lib/planned-sockets';
+import {
+  assignmentRows,
+  exactnessText,
+  newSocketsToAccept,
+  plannedSocketViews,
+  type PlanTarget,
+} from '../lib/planned-sockets';
 import { PickedPointsOverlay, SocketPlanOverlay, type SocketScenePieces } from './socket-overlay';
 import { SocketPlanTable } from './socket-plan-table';
 
@@ -56,10 +62,17 @@ export interface SocketPlanner {
 
 const checkbox = cn('accent-accent', focusRing);
 
-export function useSocketPlanner(station: SocketPlannerStation, pieces: SocketScenePieces, options: SocketPlannerOptions): SocketPlanner {
+export function useSocketPlanner(
+  station: SocketPlannerStation,
+  pieces: SocketScenePieces,
+  options: SocketPlannerOptions,
+): SocketPlanner {
   const canSave = useCan('sockets:save');
   const worksites = useMemo(() => station.nodes.filter((n) => n.kind === 'worksite'), [station.nodes]);
-  const sockets = useMemo(() => station.nodes.filter((n) => n.kind === 'socket' && n.normal), [station.nodes]);
+  const sockets = useMemo(
+    () => station.nodes.filter((n) => n.kind === 'socket' && n.normal),
+    [station.nodes],
+  );
   const nodesByKey = useMemo(() => new Map(station.nodes.map((n) => [n.key, n])), [station.nodes]);
 
   const [chosenWorksites, setChosenWorksites] = useState<ReadonlySet<string>>(new Set());
@@ -88,12 +101,18 @@ export function useSocketPlanner(station: SocketPlannerStation, pieces: SocketSc
   const focus = useMemo(() => {
     if (!run || views.length === 0) return null;
     const shown = framed === null ? views : views.filter((v) => v.index === framed);
-    const box = shown.flatMap((v) => [-1, 1].flatMap((d) => [0, 1, 2].map((axis) => v.workPoint.map((c, i) => (i === axis ? c + d * v.radiusM * 2 : c)) as Vec3)));
+    const box = shown.flatMap((v) =>
+      [-1, 1].flatMap((d) =>
+        [0, 1, 2].map((axis) => v.workPoint.map((c, i) => (i === axis ? c + d * v.radiusM * 2 : c)) as Vec3),
+      ),
+    );
     return [...box, ...shown.flatMap((v) => v.targets.map((t) => run.targets[t].position))];
   }, [run, views, framed]);
 
   const targets: PlanTarget[] = [
-    ...worksites.filter((w) => chosenWorksites.has(w.key)).map((w) => ({ label: w.key, position: w.position, nodeKey: w.key })),
+    ...worksites
+      .filter((w) => chosenWorksites.has(w.key))
+      .map((w) => ({ label: w.key, position: w.position, nodeKey: w.key })),
     ...picked,
   ];
 
@@ -127,7 +146,8 @@ export function useSocketPlanner(station: SocketPlannerStation, pieces: SocketSc
     const found: string[] = [];
     if (spacing && !spacing.ok) found.push(`Grid spacing: ${spacing.message}.`);
     const candidates = sockets.filter((s) => !excluded.has(s.key)).map((s) => s.key);
-    if (candidates.length === 0 && !gridOn) found.push('Choose at least one candidate socket, or add grid candidates.');
+    if (candidates.length === 0 && !gridOn)
+      found.push('Choose at least one candidate socket, or add grid candidates.');
     const request = {
       targets: targets.map((t) => t.position),
       // every socket listed is the same as none listed, and shorter
@@ -137,7 +157,10 @@ export function useSocketPlanner(station: SocketPlannerStation, pieces: SocketSc
     };
     const checked = SocketPlanRequestSchema.safeParse(request);
     if (!checked.success) {
-      for (const issue of checked.error.issues) found.push(issue.path[0] === 'gridSpacingM' ? `Grid spacing: ${issue.message}.` : `${issue.message}.`);
+      for (const issue of checked.error.issues)
+        found.push(
+          issue.path[0] === 'gridSpacingM' ? `Grid spacing: ${issue.message}.` : `${issue.message}.`,
+        );
     }
     setProblems(found);
     if (found.length || !checked.success) return;
@@ -155,7 +178,9 @@ export function useSocketPlanner(station: SocketPlannerStation, pieces: SocketSc
       <fieldset className="space-y-2">
         <legend className="text-sm font-semibold text-text-strong">Targets: worksites</legend>
         {worksites.length === 0 ? (
-          <p className="text-sm text-text-muted">This station has no worksites; pick points on the model instead.</p>
+          <p className="text-sm text-text-muted">
+            This station has no worksites; pick points on the model instead.
+          </p>
         ) : (
           <ul className="max-h-48 space-y-1 overflow-y-auto">
             {worksites.map((w) => (
@@ -185,7 +210,10 @@ export function useSocketPlanner(station: SocketPlannerStation, pieces: SocketSc
             id="socket-plan-plan"
             value={planId}
             onChange={(e) => setPlanId(e.target.value)}
-            options={[{ value: '', label: options.plans.length ? 'Choose a plan…' : 'No plan uses this station' }, ...options.plans.map((p) => ({ value: String(p.id), label: p.title }))]}
+            options={[
+              { value: '', label: options.plans.length ? 'Choose a plan…' : 'No plan uses this station' },
+              ...options.plans.map((p) => ({ value: String(p.id), label: p.title })),
+            ]}
           />
           <Button variant="secondary" disabled={!planId} onClick={() => void addPlanWorksites()}>
             Add its worksites
@@ -201,7 +229,12 @@ export function useSocketPlanner(station: SocketPlannerStation, pieces: SocketSc
       <div className="space-y-2">
         <div className="flex items-center justify-between gap-2">
           <span className="text-sm font-semibold text-text-strong">Targets: points on the model</span>
-          <Button size="sm" variant={picking ? 'primary' : 'secondary'} aria-pressed={picking} onClick={() => setPicking((p) => !p)}>
+          <Button
+            size="sm"
+            variant={picking ? 'primary' : 'secondary'}
+            aria-pressed={picking}
+            onClick={() => setPicking((p) => !p)}
+          >
             {picking ? 'Picking: click the model' : 'Pick points'}
           </Button>
         </div>
@@ -211,9 +244,16 @@ export function useSocketPlanner(station: SocketPlannerStation, pieces: SocketSc
               <li key={p.label} className="flex items-center justify-between gap-2 text-sm">
                 <span>
                   <span className="font-semibold">{p.label}</span>{' '}
-                  <span className="text-xs text-text-muted tabular-nums">({p.position.map((v) => v.toFixed(2)).join(', ')}) m</span>
+                  <span className="text-xs text-text-muted tabular-nums">
+                    ({p.position.map((v) => v.toFixed(2)).join(', ')}) m
+                  </span>
                 </span>
-                <Button size="sm" variant="ghost" aria-label={`Remove ${p.label}`} onClick={() => setPicked((ps) => ps.filter((_, j) => j !== i))}>
+                <Button
+                  size="sm"
+                  variant="ghost"
+                  aria-label={`Remove ${p.label}`}
+                  onClick={() => setPicked((ps) => ps.filter((_, j) => j !== i))}
+                >
                   Remove
                 </Button>
               </li>
@@ -230,7 +270,11 @@ export function useSocketPlanner(station: SocketPlannerStation, pieces: SocketSc
           <Button size="sm" variant="secondary" onClick={() => setExcluded(new Set())}>
             All
           </Button>
-          <Button size="sm" variant="secondary" onClick={() => setExcluded(new Set(sockets.map((s) => s.key)))}>
+          <Button
+            size="sm"
+            variant="secondary"
+            onClick={() => setExcluded(new Set(sockets.map((s) => s.key)))}
+          >
             None
           </Button>
         </div>
@@ -253,14 +297,26 @@ export function useSocketPlanner(station: SocketPlannerStation, pieces: SocketSc
 
       <div className="space-y-1.5">
         <label className="flex items-center gap-2 text-sm font-semibold text-text-strong">
-          <input type="checkbox" className={checkbox} checked={gridOn} onChange={(e) => setGridOn(e.target.checked)} />
+          <input
+            type="checkbox"
+            className={checkbox}
+            checked={gridOn}
+            onChange={(e) => setGridOn(e.target.checked)}
+          />
           Add grid candidates over truss faces
         </label>
         <div className="flex items-center gap-2">
           <label htmlFor="socket-plan-grid" className="text-sm whitespace-nowrap text-text-strong">
             Grid spacing
           </label>
-          <Input id="socket-plan-grid" className="w-24" inputMode="decimal" disabled={!gridOn} value={gridText} onChange={(e) => setGridText(e.target.value)} />
+          <Input
+            id="socket-plan-grid"
+            className="w-24"
+            inputMode="decimal"
+            disabled={!gridOn}
+            value={gridText}
+            onChange={(e) => setGridText(e.target.value)}
+          />
           <Select
             aria-label="Grid spacing unit"
             className="w-20"
@@ -294,40 +350,58 @@ export function useSocketPlanner(station: SocketPlannerStation, pieces: SocketSc
   const results = run && (
     <section aria-label="Socket plan" className="space-y-4">
       {plan.isPending && <Spinner label="Planning sockets" />}
-      {plan.error && <Alert tone="danger">{apiErrorMessage(plan.error, 'The socket plan could not be computed.')}</Alert>}
+      {plan.error && (
+        <Alert tone="danger">{apiErrorMessage(plan.error, 'The socket plan could not be computed.')}</Alert>
+      )}
       {plan.data && (
         <>
           <div className="space-y-1">
             <p className="text-base font-semibold text-text-strong">
-              {views.length} socket{views.length === 1 ? '' : 's'} for {run.targets.length} target{run.targets.length === 1 ? '' : 's'}:{' '}
-              {views.length - newCount} existing, {newCount} new
+              {views.length} socket{views.length === 1 ? '' : 's'} for {run.targets.length} target
+              {run.targets.length === 1 ? '' : 's'}: {views.length - newCount} existing, {newCount} new
             </p>
             <p className="text-sm text-text-strong">{exactnessText(plan.data)}.</p>
             <p className="text-xs text-text-muted">
-              Work envelope: a sphere of radius {formatLength(station.reach.radiusM, run.unit, 2)} around the work point{' '}
-              {formatLength(station.reach.standOffM, run.unit, 2)} out along each socket&apos;s normal (station reach settings,
-              planning defaults from memory). Computed on station version {run.version}.
+              Work envelope: a sphere of radius {formatLength(station.reach.radiusM, run.unit, 2)} around the
+              work point {formatLength(station.reach.standOffM, run.unit, 2)} out along each socket&apos;s
+              normal (station reach settings, planning defaults from memory). Computed on station version{' '}
+              {run.version}.
             </p>
           </div>
           {plan.data.uncovered.length > 0 && (
-            <Alert tone="caution" title={`${plan.data.uncovered.length} target${plan.data.uncovered.length === 1 ? '' : 's'} out of reach of every candidate`}>
+            <Alert
+              tone="caution"
+              title={`${plan.data.uncovered.length} target${plan.data.uncovered.length === 1 ? '' : 's'} out of reach of every candidate`}
+            >
               <ul className="list-disc pl-4">
                 {plan.data.uncovered.map((i) => (
-                  <li key={i}>{run.targets[i].label}: no candidate socket brings it within reach. Add grid candidates or another socket.</li>
+                  <li key={i}>
+                    {run.targets[i].label}: no candidate socket brings it within reach. Add grid candidates or
+                    another socket.
+                  </li>
                 ))}
               </ul>
             </Alert>
           )}
           <ul aria-label="Planned sockets" className="flex flex-wrap gap-2 text-sm">
             {views.map((v) => (
-              <li key={v.index} className="flex items-center gap-2 rounded-md border border-surface-line py-1 pr-1 pl-2">
+              <li
+                key={v.index}
+                className="flex items-center gap-2 rounded-md border border-surface-line py-1 pr-1 pl-2"
+              >
                 <span>
                   <span className="font-mono font-semibold">{v.name}</span>{' '}
                   <span className="text-xs text-text-muted">
-                    {v.isNew ? 'new' : 'existing'} · serves {v.targets.map((t) => run.targets[t].label).join(', ') || 'none'}
+                    {v.isNew ? 'new' : 'existing'} · serves{' '}
+                    {v.targets.map((t) => run.targets[t].label).join(', ') || 'none'}
                   </span>
                 </span>
-                <Button size="sm" variant="ghost" aria-pressed={framed === v.index} onClick={() => setFramed(framed === v.index ? null : v.index)}>
+                <Button
+                  size="sm"
+                  variant="ghost"
+                  aria-pressed={framed === v.index}
+                  onClick={() => setFramed(framed === v.index ? null : v.index)}
+                >
                   {framed === v.index ? 'Show all' : `Show ${v.name}`}
                 </Button>
               </li>
@@ -338,14 +412,24 @@ export function useSocketPlanner(station: SocketPlannerStation, pieces: SocketSc
             <div className="flex items-center gap-3">
               <Button
                 isLoading={accept.isPending}
-                onClick={() => accept.mutate({ stationId: station.id, version: run.version, sockets: newSocketsToAccept(views, run.targets) })}
+                onClick={() =>
+                  accept.mutate({
+                    stationId: station.id,
+                    version: run.version,
+                    sockets: newSocketsToAccept(views, run.targets),
+                  })
+                }
               >
                 Accept {newCount} new socket{newCount === 1 ? '' : 's'}
               </Button>
-              <span className="text-xs text-text-muted">Adds them to the station model, each joined by a hop to the nearest handrail node.</span>
+              <span className="text-xs text-text-muted">
+                Adds them to the station model, each joined by a hop to the nearest handrail node.
+              </span>
             </div>
           )}
-          {canSave && newCount === 0 && <p className="text-sm text-text-muted">Every chosen socket already exists: nothing to add.</p>}
+          {canSave && newCount === 0 && (
+            <p className="text-sm text-text-muted">Every chosen socket already exists: nothing to add.</p>
+          )}
           {conflict && (
             <Alert tone="danger" title="The station changed since this plan was computed">
               <p>{accept.error?.message} Reload the station and plan again; nothing was saved.</p>
@@ -363,13 +447,21 @@ export function useSocketPlanner(station: SocketPlannerStation, pieces: SocketSc
               </Button>
             </Alert>
           )}
-          {accept.error && !conflict && <Alert tone="danger">{apiErrorMessage(accept.error, 'The sockets could not be saved.')}</Alert>}
+          {accept.error && !conflict && (
+            <Alert tone="danger">{apiErrorMessage(accept.error, 'The sockets could not be saved.')}</Alert>
+          )}
           {accepted && (
-            <Alert tone="success" title={`Added ${accepted.sockets.length} socket${accepted.sockets.length === 1 ? '' : 's'} (station version ${accepted.version})`}>
+            <Alert
+              tone="success"
+              title={`Added ${accepted.sockets.length} socket${accepted.sockets.length === 1 ? '' : 's'} (station version ${accepted.version})`}
+            >
               <ul className="mt-1 space-y-0.5">
                 {accepted.sockets.map((s) => (
                   <li key={s.key}>
-                    <a className={cn('font-mono font-semibold underline', focusRing)} href={options.nodeHref(s.key)}>
+                    <a
+                      className={cn('font-mono font-semibold underline', focusRing)}
+                      href={options.nodeHref(s.key)}
+                    >
                       {s.key}
                     </a>{' '}
                     joined to {s.joinedTo} by a {formatLength(s.hopM, run.unit)} hop

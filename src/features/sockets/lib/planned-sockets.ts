@@ -50,7 +50,8 @@ export function plannedSocketViews(
   let newCount = 0;
   return result.sockets.map((s, index) => {
     const existing = typeof s === 'string' ? nodes.get(s) : undefined;
-    if (typeof s === 'string' && !existing?.normal) throw new Error(`the plan names socket ${s}, which the loaded model does not have`);
+    if (typeof s === 'string' && !existing?.normal)
+      throw new Error(`the plan names socket ${s}, which the loaded model does not have`);
     const position = typeof s === 'string' ? existing!.position : s.position;
     const normal = unit(typeof s === 'string' ? existing!.normal! : s.normal);
     const name = typeof s === 'string' ? s : `New ${++newCount}`;
@@ -110,7 +111,10 @@ export function newSocketsToAccept(sockets: readonly PlannedSocketView[], target
     .map((s) => ({
       position: s.position,
       normal: s.normal,
-      label: `Planned socket for ${s.targets.map((t) => targets[t].label).join(', ') || 'no target'}`.slice(0, 200),
+      label: `Planned socket for ${s.targets.map((t) => targets[t].label).join(', ') || 'no target'}`.slice(
+        0,
+        200,
+      ),
     }));
 }
 

@@ -6,7 +6,13 @@ export function exportStation(id: number): Promise<StationDocument> {
 }
 
 export const exportFileName = (name: string) =>
-  `${name.trim().toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'station'}.station.json`;
+  `${
+    name
+      .trim()
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, '-')
+      .replace(/^-|-$/g, '') || 'station'
+  }.station.json`;
 
 /** Saves the station document as a JSON file the browser downloads. */
 export async function downloadStationExport(id: number): Promise<string> {

@@ -7,7 +7,8 @@ export function getStations(): Promise<StationSummary[]> {
   return api.get('/stations');
 }
 
-export const getStationsQueryOptions = () => queryOptions({ queryKey: stationKeys.list(), queryFn: getStations });
+export const getStationsQueryOptions = () =>
+  queryOptions({ queryKey: stationKeys.list(), queryFn: getStations });
 
 export function useStations() {
   return useQuery(getStationsQueryOptions());

@@ -36,7 +36,9 @@ export function useImportStation({ onSuccess }: { onSuccess?: (result: ImportSta
   });
 }
 
-export function useReplaceStationModel({ onSuccess }: { onSuccess?: (result: ImportStationResult) => void } = {}) {
+export function useReplaceStationModel({
+  onSuccess,
+}: { onSuccess?: (result: ImportStationResult) => void } = {}) {
   return useInvalidatingMutation({
     mutationFn: replaceStationModel,
     invalidates: [stationKeys.all],

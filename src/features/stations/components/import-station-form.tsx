@@ -13,7 +13,10 @@ const MAX_BYTES = 50 * 1024 * 1024;
 
 const ImportFormSchema = z.object({
   file: z
-    .custom<FileList>((v) => typeof FileList !== 'undefined' && v instanceof FileList && v.length === 1, 'Choose one station document file (.json).')
+    .custom<FileList>(
+      (v) => typeof FileList !== 'undefined' && v instanceof FileList && v.length === 1,
+      'Choose one station document file (.json).',
+    )
     .refine((files) => files[0].size <= MAX_BYTES, 'The file is larger than 50 MB.'),
 });
 type ImportFormValues = z.infer<typeof ImportFormSchema>;
@@ -45,7 +48,10 @@ export function ImportProblems({ error }: { error: unknown }) {
           <p className="mt-2 font-medium">
             {details.length} problem{details.length === 1 ? '' : 's'}:
           </p>
-          <ol className="mt-1 max-h-56 list-decimal space-y-0.5 overflow-y-auto pl-6" aria-label="Import problems">
+          <ol
+            className="mt-1 max-h-56 list-decimal space-y-0.5 overflow-y-auto pl-6"
+            aria-label="Import problems"
+          >
             {details.map((d, i) => (
               <li key={i}>
                 <code className="font-mono font-semibold">{d.path}</code> — {d.message}
@@ -100,12 +106,19 @@ export function ImportStationForm({
       </Field>
       <ImportProblems error={mutation.error} />
       {mutation.isSuccess && (
-        <Alert tone="success" title={target.mode === 'new' ? `Imported “${mutation.data.station.name}”` : 'Model replaced'}>
+        <Alert
+          tone="success"
+          title={target.mode === 'new' ? `Imported “${mutation.data.station.name}”` : 'Model replaced'}
+        >
           <CountsSummary counts={mutation.data.counts} />
         </Alert>
       )}
       <div className="flex justify-end">
-        <Button type="submit" variant={target.mode === 'new' ? 'primary' : 'danger'} isLoading={mutation.isPending}>
+        <Button
+          type="submit"
+          variant={target.mode === 'new' ? 'primary' : 'danger'}
+          isLoading={mutation.isPending}
+        >
           {target.mode === 'new' ? 'Import station' : 'Replace model'}
         </Button>
       </div>

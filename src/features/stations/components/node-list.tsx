@@ -24,7 +24,9 @@ export function NodeList({
   const listRef = useRef<HTMLUListElement>(null);
   const matches = useMemo(() => {
     const q = query.trim().toLowerCase();
-    return q ? nodes.filter((n) => n.key.toLowerCase().includes(q) || n.label?.toLowerCase().includes(q)) : nodes;
+    return q
+      ? nodes.filter((n) => n.key.toLowerCase().includes(q) || n.label?.toLowerCase().includes(q))
+      : nodes;
   }, [nodes, query]);
   const shown = matches.slice(0, SHOWN);
 
@@ -41,7 +43,12 @@ export function NodeList({
 
   const onKeyDown = (e: KeyboardEvent) => {
     const last = shown.length - 1;
-    const moves: Record<string, number> = { ArrowDown: active + 1, ArrowUp: active - 1, PageDown: active + 10, PageUp: active - 10 };
+    const moves: Record<string, number> = {
+      ArrowDown: active + 1,
+      ArrowUp: active - 1,
+      PageDown: active + 10,
+      PageUp: active - 10,
+    };
     // in the search box Home and End move the caret; in the list they jump to its ends
     if (e.currentTarget.tagName !== 'INPUT') Object.assign(moves, { Home: 0, End: last });
     const to = moves[e.key];
@@ -76,7 +83,9 @@ export function NodeList({
         onKeyDown={onKeyDown}
       />
       <p className="text-xs text-text-muted" aria-live="polite">
-        {matches.length === nodes.length ? `${nodes.length} nodes` : `${matches.length} of ${nodes.length} nodes match`}
+        {matches.length === nodes.length
+          ? `${nodes.length} nodes`
+          : `${matches.length} of ${nodes.length} nodes match`}
         {matches.length > SHOWN && ` — first ${SHOWN} shown, type more to narrow`}
       </p>
       <ul
@@ -116,7 +125,9 @@ export function NodeList({
             </li>
           );
         })}
-        {shown.length === 0 && <li className="px-2.5 py-2 text-sm text-text-muted">No node matches “{query}”.</li>}
+        {shown.length === 0 && (
+          <li className="px-2.5 py-2 text-sm text-text-muted">No node matches “{query}”.</li>
+        )}
       </ul>
     </div>
   );

@@ -53,7 +53,9 @@ export function PanelTabs({
               className={cn(
                 '-mb-px rounded-t-md border-b-2 px-3 py-2 text-sm font-medium',
                 focusRing,
-                selected ? 'border-accent text-accent-strong' : 'border-transparent text-text-muted hover:text-text-strong',
+                selected
+                  ? 'border-accent text-accent-strong'
+                  : 'border-transparent text-text-muted hover:text-text-strong',
               )}
             >
               {tab.label}

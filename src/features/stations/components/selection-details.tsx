@@ -28,7 +28,10 @@ function LinkButton({ onClick, children }: { onClick: () => void; children: Reac
     <button
       type="button"
       onClick={onClick}
-      className={cn('rounded-sm font-mono text-accent underline underline-offset-2 hover:text-accent-strong', focusRing)}
+      className={cn(
+        'rounded-sm font-mono text-accent underline underline-offset-2 hover:text-accent-strong',
+        focusRing,
+      )}
     >
       {children}
     </button>
@@ -63,10 +66,20 @@ function edgeHazards(graph: StationGraph, edge: GraphEdge): Hazard[] {
   return a && b ? graph.hazards.filter((h) => segmentIntersectsHazard(a, b, h)) : [];
 }
 
-function NodeDetails({ graph, node, onSelect }: { graph: StationGraph; node: StationNode; onSelect: (s: StationSelection) => void }) {
+function NodeDetails({
+  graph,
+  node,
+  onSelect,
+}: {
+  graph: StationGraph;
+  node: StationNode;
+  onSelect: (s: StationSelection) => void;
+}) {
   const edges = edgesOf(graph, node.key);
   const inside = graph.hazards.filter((h) => pointInHazard(node.position, h));
-  const crossed = [...new Set(edges.flatMap((e) => edgeHazards(graph, e)))].filter((h) => !inside.includes(h));
+  const crossed = [...new Set(edges.flatMap((e) => edgeHazards(graph, e)))].filter(
+    (h) => !inside.includes(h),
+  );
   return (
     <dl>
       <Row label="Key">
@@ -82,7 +95,13 @@ function NodeDetails({ graph, node, onSelect }: { graph: StationGraph; node: Sta
       <Row label="Position (ft)">
         <span className="font-mono">{vecFeet(node.position)}</span>
       </Row>
-      <Row label="Normal">{node.normal ? <span className="font-mono">{vec(node.normal)}</span> : <span className="text-text-muted">—</span>}</Row>
+      <Row label="Normal">
+        {node.normal ? (
+          <span className="font-mono">{vec(node.normal)}</span>
+        ) : (
+          <span className="text-text-muted">—</span>
+        )}
+      </Row>
       <Row label="Notes">{node.notes ?? <span className="text-text-muted">—</span>}</Row>
       <Row label={`Edges (${edges.length})`}>
         {edges.length === 0 ? (
@@ -115,7 +134,15 @@ function NodeDetails({ graph, node, onSelect }: { graph: StationGraph; node: Sta
   );
 }
 
-function EdgeDetails({ graph, edge, onSelect }: { graph: StationGraph; edge: GraphEdge; onSelect: (s: StationSelection) => void }) {
+function EdgeDetails({
+  graph,
+  edge,
+  onSelect,
+}: {
+  graph: StationGraph;
+  edge: GraphEdge;
+  onSelect: (s: StationSelection) => void;
+}) {
   return (
     <dl>
       <Row label="Edge">
@@ -132,7 +159,8 @@ function EdgeDetails({ graph, edge, onSelect }: { graph: StationGraph; edge: Gra
         )}
       </Row>
       <Row label="Length">
-        {bothUnits(edge.lengthM)} <span className="text-text-muted">({edge.lengthGiven ? 'given' : 'from the node positions'})</span>
+        {bothUnits(edge.lengthM)}{' '}
+        <span className="text-text-muted">({edge.lengthGiven ? 'given' : 'from the node positions'})</span>
       </Row>
       <Row label="Label">{edge.label ?? <span className="text-text-muted">—</span>}</Row>
       <Row label="Crosses hazards">
@@ -195,8 +223,8 @@ export function SelectionDetails({ graph, selection, onSelect }: SelectionViewPr
   }
   return (
     <EmptyState>
-      Nothing selected. Click a glyph in the 3D view, choose a node from the list (arrow keys and Enter), or pick a row in
-      the tables below.
+      Nothing selected. Click a glyph in the 3D view, choose a node from the list (arrow keys and Enter), or
+      pick a row in the tables below.
     </EmptyState>
   );
 }

@@ -10,7 +10,14 @@ import {
   type SortingState,
 } from '@tanstack/react-table';
 import { formatLength } from '@shared/compute/units';
-import { EDGE_KINDS, HAZARD_KINDS, NODE_KINDS, type Hazard, type StationNode, type Vec3 } from '@shared/schemas/station';
+import {
+  EDGE_KINDS,
+  HAZARD_KINDS,
+  NODE_KINDS,
+  type Hazard,
+  type StationNode,
+  type Vec3,
+} from '@shared/schemas/station';
 import type { GraphEdge } from '@shared/schemas/station-edits';
 import { Button, focusRing } from '@/components/ui/button';
 import { Input } from '@/components/ui/input';
@@ -67,7 +74,12 @@ function DataTable<T extends Row>({ caption, rows, columns, kinds, selection, on
       <div className="flex flex-wrap items-end gap-3">
         <label className="block w-64 space-y-1 text-sm font-medium text-text-strong">
           <span>Search by key</span>
-          <Input type="search" value={search} onChange={(e) => setSearch(e.target.value)} placeholder="e.g. PB3" />
+          <Input
+            type="search"
+            value={search}
+            onChange={(e) => setSearch(e.target.value)}
+            placeholder="e.g. PB3"
+          />
         </label>
         <label className="block w-48 space-y-1 text-sm font-medium text-text-strong">
           <span>Kind</span>
@@ -88,7 +100,10 @@ function DataTable<T extends Row>({ caption, rows, columns, kinds, selection, on
               {group.headers.map((header) => {
                 const sorted = header.column.getIsSorted();
                 return (
-                  <Th key={header.id} aria-sort={sorted ? (sorted === 'asc' ? 'ascending' : 'descending') : undefined}>
+                  <Th
+                    key={header.id}
+                    aria-sort={sorted ? (sorted === 'asc' ? 'ascending' : 'descending') : undefined}
+                  >
                     <button
                       type="button"
                       onClick={header.column.getToggleSortingHandler()}
@@ -119,7 +134,10 @@ function DataTable<T extends Row>({ caption, rows, columns, kinds, selection, on
                     {i === 0 ? (
                       <button
                         type="button"
-                        className={cn('rounded-sm text-left font-medium text-accent underline-offset-2 hover:underline', focusRing)}
+                        className={cn(
+                          'rounded-sm text-left font-medium text-accent underline-offset-2 hover:underline',
+                          focusRing,
+                        )}
                         aria-label={`Select ${s.type} ${row.original.searchKey}`}
                       >
                         {flexRender(cell.column.columnDef.cell, cell.getContext())}
@@ -143,13 +161,23 @@ function DataTable<T extends Row>({ caption, rows, columns, kinds, selection, on
       </Table>
       {pages > 1 && (
         <div className="flex items-center justify-end gap-2 text-sm">
-          <Button size="sm" variant="secondary" disabled={!table.getCanPreviousPage()} onClick={() => table.previousPage()}>
+          <Button
+            size="sm"
+            variant="secondary"
+            disabled={!table.getCanPreviousPage()}
+            onClick={() => table.previousPage()}
+          >
             Previous
           </Button>
           <span className="text-text-muted">
             Page {pageIndex + 1} of {pages}
           </span>
-          <Button size="sm" variant="secondary" disabled={!table.getCanNextPage()} onClick={() => table.nextPage()}>
+          <Button
+            size="sm"
+            variant="secondary"
+            disabled={!table.getCanNextPage()}
+            onClick={() => table.nextPage()}
+          >
             Next
           </Button>
         </div>
@@ -166,9 +194,24 @@ const nodeColumns: ColumnDef<NodeRow, unknown>[] = [
   { id: 'key', header: 'Key', accessorFn: (r) => r.node.key },
   { id: 'kind', header: 'Kind', accessorFn: (r) => r.node.kind },
   { id: 'label', header: 'Label', accessorFn: (r) => r.node.label ?? '' },
-  { id: 'x', header: 'x (m)', accessorFn: (r) => r.node.position[0], cell: (c) => (c.getValue() as number).toFixed(2) },
-  { id: 'y', header: 'y (m)', accessorFn: (r) => r.node.position[1], cell: (c) => (c.getValue() as number).toFixed(2) },
-  { id: 'z', header: 'z (m)', accessorFn: (r) => r.node.position[2], cell: (c) => (c.getValue() as number).toFixed(2) },
+  {
+    id: 'x',
+    header: 'x (m)',
+    accessorFn: (r) => r.node.position[0],
+    cell: (c) => (c.getValue() as number).toFixed(2),
+  },
+  {
+    id: 'y',
+    header: 'y (m)',
+    accessorFn: (r) => r.node.position[1],
+    cell: (c) => (c.getValue() as number).toFixed(2),
+  },
+  {
+    id: 'z',
+    header: 'z (m)',
+    accessorFn: (r) => r.node.position[2],
+    cell: (c) => (c.getValue() as number).toFixed(2),
+  },
   { id: 'degree', header: 'Edges', accessorFn: (r) => r.degree },
 ];
 
@@ -179,7 +222,8 @@ const edgeColumns: ColumnDef<EdgeRow, unknown>[] = [
     id: 'length',
     header: 'Length',
     accessorFn: (r) => r.edge.lengthM,
-    cell: (c) => `${formatLength(c.getValue() as number, 'm', 2)} · ${formatLength(c.getValue() as number, 'ft', 1)}`,
+    cell: (c) =>
+      `${formatLength(c.getValue() as number, 'm', 2)} · ${formatLength(c.getValue() as number, 'ft', 1)}`,
   },
   { id: 'closed', header: 'State', accessorFn: (r) => (r.edge.closed ? 'closed' : 'open') },
   { id: 'label', header: 'Label', accessorFn: (r) => r.edge.label ?? '' },
@@ -193,7 +237,9 @@ const hazardColumns: ColumnDef<HazardRow, unknown>[] = [
     id: 'where',
     header: 'Where (m)',
     accessorFn: (r) =>
-      r.hazard.shape === 'sphere' ? `centre ${xyz(r.hazard.center)}, r ${r.hazard.radiusM}` : `${xyz(r.hazard.min)} to ${xyz(r.hazard.max)}`,
+      r.hazard.shape === 'sphere'
+        ? `centre ${xyz(r.hazard.center)}, r ${r.hazard.radiusM}`
+        : `${xyz(r.hazard.min)} to ${xyz(r.hazard.max)}`,
   },
   { id: 'label', header: 'Label', accessorFn: (r) => r.hazard.label ?? '' },
 ];
@@ -226,7 +272,13 @@ export function StationTables({ graph, selection, onSelect }: SelectionViewProps
     [graph],
   );
   const hazardRows = useMemo<HazardRow[]>(
-    () => graph.hazards.map((hazard) => ({ hazard, searchKey: hazard.key, kind: hazard.kind, selection: { type: 'hazard', key: hazard.key } })),
+    () =>
+      graph.hazards.map((hazard) => ({
+        hazard,
+        searchKey: hazard.key,
+        kind: hazard.kind,
+        selection: { type: 'hazard', key: hazard.key },
+      })),
     [graph],
   );
 
@@ -240,21 +292,42 @@ export function StationTables({ graph, selection, onSelect }: SelectionViewProps
           id: 'nodes',
           label: `Nodes (${graph.nodes.length})`,
           render: () => (
-            <DataTable caption="Nodes" rows={nodeRows} columns={nodeColumns} kinds={NODE_KINDS} selection={selection} onSelect={onSelect} />
+            <DataTable
+              caption="Nodes"
+              rows={nodeRows}
+              columns={nodeColumns}
+              kinds={NODE_KINDS}
+              selection={selection}
+              onSelect={onSelect}
+            />
           ),
         },
         {
           id: 'edges',
           label: `Edges (${graph.edges.length})`,
           render: () => (
-            <DataTable caption="Edges" rows={edgeRows} columns={edgeColumns} kinds={EDGE_KINDS} selection={selection} onSelect={onSelect} />
+            <DataTable
+              caption="Edges"
+              rows={edgeRows}
+              columns={edgeColumns}
+              kinds={EDGE_KINDS}
+              selection={selection}
+              onSelect={onSelect}
+            />
           ),
         },
         {
           id: 'hazards',
           label: `Hazards (${graph.hazards.length})`,
           render: () => (
-            <DataTable caption="Hazards" rows={hazardRows} columns={hazardColumns} kinds={HAZARD_KINDS} selection={selection} onSelect={onSelect} />
+            <DataTable
+              caption="Hazards"
+              rows={hazardRows}
+              columns={hazardColumns}
+              kinds={HAZARD_KINDS}
+              selection={selection}
+              onSelect={onSelect}
+            />
           ),
         },
       ]}
