@@ -241,14 +241,12 @@ describe('hazard, segment and station edits', () => {
 
   it('station name, orbit and settings (nested settings merged)', async () => {
     const id = await newStation();
-    const res = await engineer
-      .patch(`/api/stations/${id}`)
-      .send({
-        version: 1,
-        name: 'Renamed',
-        orbit: { betaDeg: 55 },
-        settings: { tetherLengthM: 16.8, speedsMps: { hop: 0.2 } },
-      });
+    const res = await engineer.patch(`/api/stations/${id}`).send({
+      version: 1,
+      name: 'Renamed',
+      orbit: { betaDeg: 55 },
+      settings: { tetherLengthM: 16.8, speedsMps: { hop: 0.2 } },
+    });
     expect(res.status).toBe(200);
     expect(res.body.version).toBe(2);
     expect(res.body.station).toMatchObject({ name: 'Renamed', orbit: { altitudeKm: 410, betaDeg: 55 } });
@@ -296,12 +294,10 @@ describe('concurrency and permissions', () => {
         .post(`/api/stations/${id}/nodes`)
         .send({ version, node: { key: `R-${version}`, kind: 'anchor', position: [0, 0, 0] } }),
       agent.patch(`/api/stations/${id}/edges/1`).send({ version, edge: { closed: true } }),
-      agent
-        .post(`/api/stations/${id}/hazards`)
-        .send({
-          version,
-          hazard: { key: `HZ-${version}`, kind: 'caution', shape: 'sphere', center: [0, 0, 0], radiusM: 1 },
-        }),
+      agent.post(`/api/stations/${id}/hazards`).send({
+        version,
+        hazard: { key: `HZ-${version}`, kind: 'caution', shape: 'sphere', center: [0, 0, 0], radiusM: 1 },
+      }),
       agent.patch(`/api/stations/${id}`).send({ version, name: `Name ${version}` }),
       agent.delete(`/api/stations/${id}/segments/${K.segment}?version=${version}`),
     ];
