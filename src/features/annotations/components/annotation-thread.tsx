@@ -1,9 +1,8 @@
 import { useId, useRef } from 'react';
-import { useForm } from 'react-hook-form';
-import { zodResolver } from '@hookform/resolvers/zod';
-import { CreateReplyInputSchema, type Annotation, type CreateReplyInput } from '@shared/schemas/annotations';
+import { CreateReplyInputSchema, type Annotation } from '@shared/schemas/annotations';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
+import { Form, FormActions, useZodForm } from '@/components/ui/form';
 import { FormError } from '@/components/ui/form-error';
 import { controlClass } from '@/components/ui/input';
 import { useCan } from '@/lib/authorization';
@@ -21,27 +20,17 @@ const sizeText = (bytes: number) =>
       : `${(bytes / 1024 / 1024).toFixed(1)} MB`;
 
 function ReplyForm({ annotationId }: { annotationId: number }) {
-  const { register, handleSubmit, reset, formState } = useForm<CreateReplyInput>({
-    resolver: zodResolver(CreateReplyInputSchema),
-    defaultValues: { body: '' },
-  });
+  const form = useZodForm(CreateReplyInputSchema, { defaultValues: { body: '' } });
+  const { register, reset, formState } = form;
   const reply = useAddReply({ onSuccess: () => reset() });
   return (
-    <form
-      noValidate
-      className="space-y-2"
-      onSubmit={handleSubmit((data) => reply.mutate({ id: annotationId, data }))}
-    >
+    <Form form={form} className="space-y-2" onSubmit={(data) => reply.mutate({ id: annotationId, data })}>
       <FormError error={reply.error} fallback="The reply could not be saved." />
       <Field label="Reply" error={formState.errors.body?.message}>
         <textarea rows={3} className={cn(controlClass, 'py-2')} {...register('body')} />
       </Field>
-      <div className="flex justify-end">
-        <Button type="submit" size="sm" isLoading={reply.isPending}>
-          Add reply
-        </Button>
-      </div>
-    </form>
+      <FormActions submit="Add reply" size="sm" isLoading={reply.isPending} />
+    </Form>
   );
 }
 

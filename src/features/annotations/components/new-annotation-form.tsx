@@ -1,11 +1,9 @@
 import { useEffect, useRef, useState } from 'react';
-import { useForm } from 'react-hook-form';
-import { zodResolver } from '@hookform/resolvers/zod';
-import { z } from 'zod';
 import { CreateAnnotationInputSchema, type Annotation } from '@shared/schemas/annotations';
 import type { Vec3 } from '@shared/schemas/station';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
+import { Form, FormActions, useZodForm } from '@/components/ui/form';
 import { FormError } from '@/components/ui/form-error';
 import { Input, controlClass } from '@/components/ui/input';
 import { cn } from '@/lib/cn';
@@ -17,9 +15,6 @@ export interface PointPick {
   point: Vec3;
   segmentKey?: string;
 }
-
-type FormInput = z.input<typeof CreateAnnotationInputSchema>;
-type FormOutput = z.output<typeof CreateAnnotationInputSchema>;
 
 interface NewAnnotationFormProps {
   stationId: number;
@@ -43,15 +38,12 @@ export function NewAnnotationForm({
   const [armed, setArmed] = useState(!selectedNodeKey);
   const consumed = useRef(pick);
   const create = useCreateAnnotation({ onSuccess: onCreated });
+  const form = useZodForm(CreateAnnotationInputSchema, { defaultValues: { title: '', body: '' } });
   const {
     register,
-    handleSubmit,
     setValue,
     formState: { errors },
-  } = useForm<FormInput, unknown, FormOutput>({
-    resolver: zodResolver(CreateAnnotationInputSchema),
-    defaultValues: { title: '', body: '' },
-  });
+  } = form;
 
   useEffect(() => {
     if (!armed || !pick || pick === consumed.current) return;
@@ -63,16 +55,20 @@ export function NewAnnotationForm({
     setArmed(false);
   }, [pick, armed]);
 
-  const submit = (e: React.FormEvent) => {
-    // the pin is chosen outside the inputs; it joins the values just before validation
+  // the pin is chosen outside the inputs; the form holds it so the schema checks it with the rest
+  useEffect(() => {
     setValue('nodeKey', pinTo === 'node' ? (selectedNodeKey ?? '') : undefined);
     setValue('position', pinTo === 'point' ? point?.position : undefined);
-    return handleSubmit((data) => create.mutate({ stationId, data }))(e);
-  };
+  }, [pinTo, selectedNodeKey, point, setValue]);
   const pinError = errors.nodeKey?.message ?? errors.position?.message;
 
   return (
-    <form noValidate onSubmit={submit} className="space-y-3" aria-label="New note">
+    <Form
+      form={form}
+      onSubmit={(data) => create.mutate({ stationId, data })}
+      className="space-y-3"
+      aria-label="New note"
+    >
       <FormError error={create.error} fallback="The note could not be saved." />
       <fieldset className="space-y-2">
         <legend className="text-sm font-semibold text-text-strong">Pin to</legend>
@@ -135,14 +131,7 @@ export function NewAnnotationForm({
       <Field label="Note" error={errors.body?.message}>
         <textarea rows={4} className={cn(controlClass, 'py-2')} {...register('body')} />
       </Field>
-      <div className="flex justify-end gap-2">
-        <Button variant="secondary" onClick={onCancel}>
-          Cancel
-        </Button>
-        <Button type="submit" isLoading={create.isPending}>
-          Pin note
-        </Button>
-      </div>
-    </form>
+      <FormActions submit="Pin note" onCancel={onCancel} isLoading={create.isPending} />
+    </Form>
   );
 }

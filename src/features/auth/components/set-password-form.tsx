@@ -1,9 +1,8 @@
-import { useForm } from 'react-hook-form';
 import { z } from 'zod';
-import { zodResolver } from '@hookform/resolvers/zod';
 import { PasswordSchema, type User } from '@shared/schemas/auth';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
+import { Form, useZodForm } from '@/components/ui/form';
 import { FormError } from '@/components/ui/form-error';
 import { Input } from '@/components/ui/input';
 import { useSetPassword } from '../api/set-password';
@@ -11,7 +10,6 @@ import { useSetPassword } from '../api/set-password';
 const SetPasswordFormSchema = z
   .object({ password: PasswordSchema, confirm: z.string() })
   .refine((v) => v.password === v.confirm, { path: ['confirm'], message: 'the two passwords differ' });
-type SetPasswordFormValues = z.infer<typeof SetPasswordFormSchema>;
 
 interface SetPasswordFormProps {
   token: string;
@@ -21,21 +19,14 @@ interface SetPasswordFormProps {
 
 export function SetPasswordForm({ token, email, onSuccess }: SetPasswordFormProps) {
   const setPassword = useSetPassword({ onSuccess });
+  const form = useZodForm(SetPasswordFormSchema, { defaultValues: { password: '', confirm: '' } });
   const {
     register,
-    handleSubmit,
     formState: { errors },
-  } = useForm<SetPasswordFormValues>({
-    resolver: zodResolver(SetPasswordFormSchema),
-    defaultValues: { password: '', confirm: '' },
-  });
+  } = form;
 
   return (
-    <form
-      noValidate
-      onSubmit={handleSubmit(({ password }) => setPassword.mutate({ token, password }))}
-      className="space-y-4"
-    >
+    <Form form={form} onSubmit={({ password }) => setPassword.mutate({ token, password })}>
       <FormError error={setPassword.error} fallback="Setting the password failed. Retry in a moment." />
       {/* lets password managers file the new password under the right account */}
       <input type="email" name="email" autoComplete="username" value={email} readOnly hidden />
@@ -52,6 +43,6 @@ export function SetPasswordForm({ token, email, onSuccess }: SetPasswordFormProp
       <Button type="submit" className="w-full" isLoading={setPassword.isPending}>
         Set password and sign in
       </Button>
-    </form>
+    </Form>
   );
 }

@@ -1,25 +1,21 @@
-import { useForm } from 'react-hook-form';
-import { zodResolver } from '@hookform/resolvers/zod';
-import { SignInInputSchema, type SignInInput, type User } from '@shared/schemas/auth';
+import { SignInInputSchema, type User } from '@shared/schemas/auth';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
+import { Form, useZodForm } from '@/components/ui/form';
 import { FormError } from '@/components/ui/form-error';
 import { Input } from '@/components/ui/input';
 import { useSignIn } from '../api/sign-in';
 
 export function SignInForm({ onSuccess }: { onSuccess: (user: User) => void }) {
   const signIn = useSignIn({ onSuccess });
+  const form = useZodForm(SignInInputSchema, { defaultValues: { email: '', password: '' } });
   const {
     register,
-    handleSubmit,
     formState: { errors },
-  } = useForm<SignInInput>({
-    resolver: zodResolver(SignInInputSchema),
-    defaultValues: { email: '', password: '' },
-  });
+  } = form;
 
   return (
-    <form noValidate onSubmit={handleSubmit((values) => signIn.mutate(values))} className="space-y-4">
+    <Form form={form} onSubmit={(values) => signIn.mutate(values)}>
       <FormError error={signIn.error} fallback="Signing in failed. Retry in a moment." />
       <Field label="E-mail" error={errors.email?.message}>
         <Input type="email" autoComplete="username" autoFocus {...register('email')} />
@@ -30,6 +26,6 @@ export function SignInForm({ onSuccess }: { onSuccess: (user: User) => void }) {
       <Button type="submit" className="w-full" isLoading={signIn.isPending}>
         Sign in
       </Button>
-    </form>
+    </Form>
   );
 }

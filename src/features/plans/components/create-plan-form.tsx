@@ -1,5 +1,4 @@
-import { useForm, useWatch, type Control } from 'react-hook-form';
-import { zodResolver } from '@hookform/resolvers/zod';
+import { useWatch, type Control } from 'react-hook-form';
 import { z } from 'zod';
 import { parseLength, formatLength, metresToFeet } from '@shared/compute/units';
 import {
@@ -10,8 +9,8 @@ import {
   type CreatePlanInput,
 } from '@shared/schemas/plan';
 import { ROUTE_MODES } from '@shared/schemas/route';
-import { FormActions } from './form-actions';
 import { Field } from '@/components/ui/field';
+import { Form, FormActions, useZodForm } from '@/components/ui/form';
 import { FormError } from '@/components/ui/form-error';
 import { Input } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
@@ -87,14 +86,7 @@ export function CreatePlanForm({ stations, onSuccess, onCancel }: CreatePlanForm
   const create = useCreatePlan({ onSuccess });
   const first = stations[0];
   const tether = first ? formatLength(first.tetherLengthM) : '';
-  const {
-    register,
-    handleSubmit,
-    control,
-    setValue,
-    formState: { errors },
-  } = useForm<FormInput, unknown, FormOutput>({
-    resolver: zodResolver(CreatePlanFormSchema),
+  const form = useZodForm(CreatePlanFormSchema, {
     defaultValues: {
       title: '',
       stationId: first ? String(first.id) : '',
@@ -112,10 +104,16 @@ export function CreatePlanForm({ stations, onSuccess, onCancel }: CreatePlanForm
       ingress: durationText(DEFAULT_INGRESS_SECONDS),
     },
   });
+  const {
+    register,
+    control,
+    setValue,
+    formState: { errors },
+  } = form;
   const stationField = register('stationId');
 
   return (
-    <form noValidate onSubmit={handleSubmit((v) => create.mutate(toCreateInput(v)))} className="space-y-4">
+    <Form form={form} onSubmit={(v) => create.mutate(toCreateInput(v))}>
       <FormError error={create.error} fallback="The plan could not be created." />
       <Field label="Title" error={errors.title?.message}>
         <Input autoComplete="off" {...register('title')} />
@@ -200,6 +198,6 @@ export function CreatePlanForm({ stations, onSuccess, onCancel }: CreatePlanForm
         </div>
       </div>
       <FormActions submit="Create plan" onCancel={onCancel} isLoading={create.isPending} />
-    </form>
+    </Form>
   );
 }

@@ -1,6 +1,4 @@
 import { useId, useState } from 'react';
-import { useForm } from 'react-hook-form';
-import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import {
   AIRLOCK_LOCATION,
@@ -12,8 +10,8 @@ import {
 import { Button } from '@/components/ui/button';
 import { EmptyState } from '@/components/ui/card';
 import { Dialog } from '@/components/ui/dialog';
-import { FormActions } from './form-actions';
 import { Field } from '@/components/ui/field';
+import { Form, FormActions, useZodForm } from '@/components/ui/form';
 import { Input } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import { Table, Td, Th } from '@/components/ui/table';
@@ -29,8 +27,6 @@ const ItemFormSchema = z.object({
   startsAt: ManifestItemSchema.shape.startsAt.unwrap(),
   endsAt: z.union([z.literal('').transform(() => undefined), ManifestItemSchema.shape.endsAt.unwrap()]),
 });
-type FormInput = z.input<typeof ItemFormSchema>;
-type FormOutput = z.output<typeof ItemFormSchema>;
 
 interface ItemFormProps {
   item?: ManifestItem;
@@ -42,12 +38,7 @@ interface ItemFormProps {
 
 function ItemForm({ item, places, onSubmit, onCancel }: ItemFormProps) {
   const listId = useId();
-  const {
-    register,
-    handleSubmit,
-    formState: { errors },
-  } = useForm<FormInput, unknown, FormOutput>({
-    resolver: zodResolver(ItemFormSchema),
+  const form = useZodForm(ItemFormSchema, {
     defaultValues: {
       name: item?.name ?? '',
       kind: item?.kind ?? 'tool',
@@ -57,11 +48,14 @@ function ItemForm({ item, places, onSubmit, onCancel }: ItemFormProps) {
       endsAt: item ? (item.endsAt ?? '') : AIRLOCK_LOCATION,
     },
   });
+  const {
+    register,
+    formState: { errors },
+  } = form;
   return (
-    <form
-      noValidate
-      className="space-y-4"
-      onSubmit={handleSubmit((v) =>
+    <Form
+      form={form}
+      onSubmit={(v) =>
         onSubmit({
           ...(item?.id === undefined ? {} : { id: item.id }),
           ...(item?.notes ? { notes: item.notes } : {}),
@@ -71,8 +65,8 @@ function ItemForm({ item, places, onSubmit, onCancel }: ItemFormProps) {
           carriedBy: v.carriedBy,
           startsAt: v.startsAt,
           ...(v.endsAt ? { endsAt: v.endsAt } : {}),
-        }),
-      )}
+        })
+      }
     >
       <datalist id={listId}>
         {[AIRLOCK_LOCATION, ...places].map((p) => (
@@ -118,7 +112,7 @@ function ItemForm({ item, places, onSubmit, onCancel }: ItemFormProps) {
         </Field>
       </div>
       <FormActions submit={item ? 'Apply changes' : 'Add item'} onCancel={onCancel} />
-    </form>
+    </Form>
   );
 }
 

@@ -1,12 +1,11 @@
 import { useMemo, useState } from 'react';
-import { Controller, useForm, useWatch } from 'react-hook-form';
-import { zodResolver } from '@hookform/resolvers/zod';
+import { Controller, useWatch } from 'react-hook-form';
 import { z } from 'zod';
 import { TaskCrewSchema, TaskSchema, type Task } from '@shared/schemas/plan';
 import { focusRing } from '@/components/ui/button';
 import { controlClass, Input } from '@/components/ui/input';
-import { FormActions } from './form-actions';
 import { Field } from '@/components/ui/field';
+import { Form, FormActions, useZodForm } from '@/components/ui/form';
 import { Select } from '@/components/ui/select';
 import { cn } from '@/lib/cn';
 import { durationField } from '../lib/form-fields';
@@ -24,8 +23,6 @@ const TaskFormSchema = z.object({
   tools: TaskSchema.shape.tools.unwrap(),
   notes: z.string().max(4000),
 });
-type FormInput = z.input<typeof TaskFormSchema>;
-type FormOutput = z.output<typeof TaskFormSchema>;
 
 const nodeLabel = (n: StationNodeOption) => (n.label ? `${n.key} — ${n.label}` : n.key);
 const distance = (a: StationNodeOption['position'], b: StationNodeOption['position']) =>
@@ -42,13 +39,7 @@ interface TaskFormProps {
 /** Add or edit one task; the worksite comes from a searchable list of the station's worksites. */
 export function TaskForm({ task, nodes, toolNames, onSubmit, onCancel }: TaskFormProps) {
   const [search, setSearch] = useState('');
-  const {
-    register,
-    handleSubmit,
-    control,
-    formState: { errors },
-  } = useForm<FormInput, unknown, FormOutput>({
-    resolver: zodResolver(TaskFormSchema),
+  const form = useZodForm(TaskFormSchema, {
     defaultValues: {
       title: task?.title ?? '',
       worksite: task?.worksite ?? '',
@@ -61,6 +52,11 @@ export function TaskForm({ task, nodes, toolNames, onSubmit, onCancel }: TaskFor
       notes: task?.notes ?? '',
     },
   });
+  const {
+    register,
+    control,
+    formState: { errors },
+  } = form;
   const worksite = useWatch({ control, name: 'worksite' });
   const needle = search.trim().toLowerCase();
   const worksites = nodes.worksites.filter(
@@ -82,10 +78,9 @@ export function TaskForm({ task, nodes, toolNames, onSubmit, onCancel }: TaskFor
   const chips = [...new Set([...toolNames, ...(task?.tools ?? [])])];
 
   return (
-    <form
-      noValidate
-      className="space-y-4"
-      onSubmit={handleSubmit((v) =>
+    <Form
+      form={form}
+      onSubmit={(v) =>
         onSubmit({
           ...(task?.id === undefined ? {} : { id: task.id }),
           title: v.title,
@@ -97,8 +92,8 @@ export function TaskForm({ task, nodes, toolNames, onSubmit, onCancel }: TaskFor
           ...(v.socket ? { socket: v.socket } : {}),
           tools: v.tools,
           ...(v.notes.trim() ? { notes: v.notes } : {}),
-        }),
-      )}
+        })
+      }
     >
       <Field label="Task title" error={errors.title?.message}>
         <Input autoComplete="off" {...register('title')} />
@@ -216,6 +211,6 @@ export function TaskForm({ task, nodes, toolNames, onSubmit, onCancel }: TaskFor
         <textarea rows={2} className={cn(controlClass, 'py-2')} {...register('notes')} />
       </Field>
       <FormActions submit={task ? 'Apply changes' : 'Add task'} onCancel={onCancel} />
-    </form>
+    </Form>
   );
 }

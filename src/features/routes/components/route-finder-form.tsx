@@ -1,9 +1,9 @@
 import { useEffect, useMemo } from 'react';
-import { Controller, useForm } from 'react-hook-form';
-import { zodResolver } from '@hookform/resolvers/zod';
+import { Controller } from 'react-hook-form';
 import { ROUTE_MODES, type RouteMode } from '@shared/schemas/route';
 import { toMetres, type LengthUnit } from '@shared/compute/units';
 import { Button, focusRing } from '@/components/ui/button';
+import { Form, useZodForm } from '@/components/ui/form';
 import { Input } from '@/components/ui/input';
 import { cn } from '@/lib/cn';
 import { MODE_LABELS } from '../lib/mode-comparison';
@@ -55,14 +55,14 @@ export function RouteFinderForm({
 }: RouteFinderFormProps) {
   const keys = useMemo(() => new Set(options.map((o) => o.key)), [options]);
   const schema = useMemo(() => routeFormSchema(keys), [keys]);
+  const form = useZodForm(schema, { defaultValues: defaults });
   const {
     control,
     register,
-    handleSubmit,
     setValue,
     getValues,
     formState: { errors },
-  } = useForm<RouteFormValues>({ resolver: zodResolver(schema), defaultValues: defaults });
+  } = form;
 
   useEffect(() => {
     if (!picked) return;
@@ -82,14 +82,13 @@ export function RouteFinderForm({
   };
 
   return (
-    <form
-      noValidate
+    <Form
+      form={form}
       aria-label="Route finder"
-      className="space-y-4"
-      onSubmit={handleSubmit((v) => {
+      onSubmit={(v) => {
         const { params, mode } = toRouteParams(v);
         onSubmit(params, mode, v.unit);
-      })}
+      }}
     >
       {(['from', 'to'] as const).map((field) => (
         <Controller
@@ -202,6 +201,6 @@ export function RouteFinderForm({
       <Button type="submit" isLoading={isFetching}>
         Find route
       </Button>
-    </form>
+    </Form>
   );
 }

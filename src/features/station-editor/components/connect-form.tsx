@@ -1,11 +1,10 @@
 import { useEffect, useId, useRef, useState } from 'react';
-import { useForm } from 'react-hook-form';
-import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import { EDGE_KINDS, EdgeKindSchema, KeySchema } from '@shared/schemas/station';
 import { parseLength } from '@shared/compute/units';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
+import { Form, FormActions, useZodForm } from '@/components/ui/form';
 import { Input } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import type { StationEdit } from '../api/edit-station';
@@ -25,7 +24,6 @@ const ConnectFormSchema = z
       if (!parsed.ok) ctx.addIssue({ code: 'custom', path: ['length'], message: parsed.message });
     }
   });
-type ConnectFormValues = z.infer<typeof ConnectFormSchema>;
 
 const EDGE_KIND_OPTIONS = EDGE_KINDS.map((k) => ({ value: k, label: k }));
 
@@ -41,16 +39,15 @@ export function ConnectForm({ graph, selectedKey, isSaving, onSubmit }: ConnectF
   const listId = useId();
   const [picking, setPicking] = useState(false);
   const pickingRef = useRef(false);
+  const form = useZodForm(ConnectFormSchema, {
+    defaultValues: { from: selectedKey ?? '', to: '', kind: 'handrail', length: '' },
+  });
   const {
     register,
-    handleSubmit,
     setValue,
     setError,
     formState: { errors },
-  } = useForm<ConnectFormValues>({
-    resolver: zodResolver(ConnectFormSchema),
-    defaultValues: { from: selectedKey ?? '', to: '', kind: 'handrail', length: '' },
-  });
+  } = form;
 
   useEffect(() => {
     if (!selectedKey) return;
@@ -62,7 +59,7 @@ export function ConnectForm({ graph, selectedKey, isSaving, onSubmit }: ConnectF
   }, [selectedKey, setValue]);
 
   const known = new Set(graph.nodes.map((n) => n.key));
-  const submit = handleSubmit((v) => {
+  const submit = (v: z.output<typeof ConnectFormSchema>) => {
     let bad = false;
     for (const end of ['from', 'to'] as const) {
       if (!known.has(v[end])) {
@@ -76,10 +73,10 @@ export function ConnectForm({ graph, selectedKey, isSaving, onSubmit }: ConnectF
       type: 'create-edge',
       edge: { from: v.from, to: v.to, kind: v.kind, ...(length?.ok ? { lengthM: length.value } : {}) },
     });
-  });
+  };
 
   return (
-    <form noValidate onSubmit={submit} className="space-y-3" aria-label="Connect nodes">
+    <Form form={form} onSubmit={submit} className="space-y-3" aria-label="Connect nodes">
       <datalist id={listId}>
         {graph.nodes.map((n) => (
           <option key={n.key} value={n.key} />
@@ -116,11 +113,7 @@ export function ConnectForm({ graph, selectedKey, isSaving, onSubmit }: ConnectF
           <Input autoComplete="off" {...register('length')} />
         </Field>
       </div>
-      <div className="flex justify-end">
-        <Button type="submit" isLoading={isSaving}>
-          Connect
-        </Button>
-      </div>
-    </form>
+      <FormActions submit="Connect" isLoading={isSaving} />
+    </Form>
   );
 }

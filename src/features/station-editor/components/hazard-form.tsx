@@ -1,10 +1,9 @@
-import { useForm } from 'react-hook-form';
-import { zodResolver } from '@hookform/resolvers/zod';
+import { useWatch } from 'react-hook-form';
 import { z } from 'zod';
 import { HAZARD_KINDS, HazardSchema, type Hazard, type Vec3 } from '@shared/schemas/station';
 import { formatLength } from '@shared/compute/units';
-import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
+import { Form, FormActions, useZodForm } from '@/components/ui/form';
 import { Input } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import type { StationEdit } from '../api/edit-station';
@@ -17,10 +16,10 @@ const HazardFormSchema = z
     kind: z.string(),
     label: z.string(),
     shape: z.enum(['sphere', 'box']),
-    center: z.unknown(),
-    radiusM: z.unknown(),
-    min: z.unknown(),
-    max: z.unknown(),
+    center: z.custom<Vec3>(),
+    radiusM: z.custom<number>(),
+    min: z.custom<Vec3>(),
+    max: z.custom<Vec3>(),
   })
   .transform(({ key, kind, label, shape, center, radiusM, min, max }) => ({
     key,
@@ -31,16 +30,7 @@ const HazardFormSchema = z
   }))
   .pipe(HazardSchema);
 
-interface HazardFormValues {
-  key: string;
-  kind: string;
-  label: string;
-  shape: 'sphere' | 'box';
-  center: Vec3;
-  radiusM: number;
-  min: Vec3;
-  max: Vec3;
-}
+type HazardFormValues = z.input<typeof HazardFormSchema>;
 
 const KIND_OPTIONS = HAZARD_KINDS.map((k) => ({ value: k, label: k }));
 const SHAPE_OPTIONS = [
@@ -76,18 +66,17 @@ interface HazardFormProps {
 }
 
 export function HazardForm({ hazard, existingKeys, around, isSaving, onSubmit, onCancel }: HazardFormProps) {
+  const form = useZodForm(HazardFormSchema, { defaultValues: defaults(hazard, around) });
   const {
     register,
-    handleSubmit,
-    watch,
+    control,
     setError,
     formState: { errors },
-  } = useForm<HazardFormValues, unknown, Hazard>({
-    resolver: zodResolver(HazardFormSchema) as never,
-    defaultValues: defaults(hazard, around),
+  } = form;
+  const [shape, center, radiusM, min, max] = useWatch({
+    control,
+    name: ['shape', 'center', 'radiusM', 'min', 'max'],
   });
-  const shape = watch('shape');
-  const values = watch();
   const err = errors as Record<
     string,
     { message?: string; [i: number]: { message?: string } | undefined } | undefined
@@ -96,7 +85,7 @@ export function HazardForm({ hazard, existingKeys, around, isSaving, onSubmit, o
   const vec = (name: 'center' | 'min' | 'max') =>
     [0, 1, 2].map((i) => register(`${name}.${i as 0 | 1 | 2}`, { valueAsNumber: true })) as never;
 
-  const submit = handleSubmit((h) => {
+  const submit = (h: Hazard) => {
     if (!hazard) {
       if (existingKeys.includes(h.key)) {
         setError('key', { message: `${h.key} is already used on this station` });
@@ -107,11 +96,11 @@ export function HazardForm({ hazard, existingKeys, around, isSaving, onSubmit, o
     }
     const { key: _key, label, ...rest } = h;
     onSubmit({ type: 'update-hazard', key: hazard.key, hazard: { ...rest, label: label ?? null } });
-  });
+  };
 
   return (
-    <form
-      noValidate
+    <Form
+      form={form}
       onSubmit={submit}
       className="space-y-3"
       aria-label={hazard ? `Change hazard ${hazard.key}` : 'Add hazard'}
@@ -134,16 +123,11 @@ export function HazardForm({ hazard, existingKeys, around, isSaving, onSubmit, o
       </div>
       {shape === 'sphere' ? (
         <>
-          <Vec3Fields
-            legend="Centre"
-            values={values.center}
-            errors={vecErrors('center')}
-            fields={vec('center')}
-          />
+          <Vec3Fields legend="Centre" values={center} errors={vecErrors('center')} fields={vec('center')} />
           <Field
             label="Radius (m)"
             error={err.radiusM?.message}
-            hint={Number.isFinite(values.radiusM) ? formatLength(values.radiusM, 'ft', 2) : undefined}
+            hint={Number.isFinite(radiusM) ? formatLength(radiusM, 'ft', 2) : undefined}
           >
             <Input
               type="number"
@@ -155,30 +139,11 @@ export function HazardForm({ hazard, existingKeys, around, isSaving, onSubmit, o
         </>
       ) : (
         <>
-          <Vec3Fields
-            legend="Minimum corner"
-            values={values.min}
-            errors={vecErrors('min')}
-            fields={vec('min')}
-          />
-          <Vec3Fields
-            legend="Maximum corner"
-            values={values.max}
-            errors={vecErrors('max')}
-            fields={vec('max')}
-          />
+          <Vec3Fields legend="Minimum corner" values={min} errors={vecErrors('min')} fields={vec('min')} />
+          <Vec3Fields legend="Maximum corner" values={max} errors={vecErrors('max')} fields={vec('max')} />
         </>
       )}
-      <div className="flex justify-end gap-2">
-        {onCancel && (
-          <Button variant="secondary" onClick={onCancel}>
-            Cancel
-          </Button>
-        )}
-        <Button type="submit" isLoading={isSaving}>
-          {hazard ? 'Save hazard' : 'Add hazard'}
-        </Button>
-      </div>
-    </form>
+      <FormActions submit={hazard ? 'Save hazard' : 'Add hazard'} onCancel={onCancel} isLoading={isSaving} />
+    </Form>
   );
 }

@@ -1,6 +1,5 @@
 import { useEffect, useRef, useState } from 'react';
-import { useForm } from 'react-hook-form';
-import { zodResolver } from '@hookform/resolvers/zod';
+import { useWatch } from 'react-hook-form';
 import { z } from 'zod';
 import { nearestFacePoint } from '@shared/compute/truss-faces';
 import {
@@ -15,6 +14,7 @@ import {
 } from '@shared/schemas/station';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
+import { Form, FormActions, useZodForm } from '@/components/ui/form';
 import { Input, controlClass } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import { cn } from '@/lib/cn';
@@ -74,8 +74,17 @@ interface NodeFormProps {
 
 export function NodeForm({ graph, node, selectedKey, pick, isSaving, onSubmit }: NodeFormProps) {
   const isNew = !node;
-  const prefixRef = useRef((selectedKey && keyPrefix(selectedKey)) ?? graph.segments[0]?.key ?? 'N');
-  const suggested = useRef('');
+  const firstPrefix = (selectedKey && keyPrefix(selectedKey)) ?? graph.segments[0]?.key ?? 'N';
+  const [firstKey] = useState(() =>
+    suggestNodeKey(
+      graph.nodes.map((n) => n.key),
+      firstPrefix,
+      'anchor',
+    ),
+  );
+  const prefixRef = useRef(firstPrefix);
+  /** the key last suggested: while the key field still holds it, a new suggestion replaces it */
+  const suggested = useRef(firstKey);
   const suggest = (kind: NodeKind) => {
     suggested.current = suggestNodeKey(
       graph.nodes.map((n) => n.key),
@@ -88,16 +97,7 @@ export function NodeForm({ graph, node, selectedKey, pick, isSaving, onSubmit }:
   const [snappedTo, setSnappedTo] = useState<string | null>(null);
   const consumed = useRef(pick);
 
-  const {
-    register,
-    handleSubmit,
-    setValue,
-    getValues,
-    watch,
-    setError,
-    formState: { errors },
-  } = useForm<NodeFormValues>({
-    resolver: zodResolver(NodeFormSchema),
+  const form = useZodForm(NodeFormSchema, {
     defaultValues: node
       ? {
           key: node.key,
@@ -108,7 +108,7 @@ export function NodeForm({ graph, node, selectedKey, pick, isSaving, onSubmit }:
           normal: node.normal ? [...node.normal] : [0, 0, 1],
         }
       : {
-          key: suggest('anchor'),
+          key: firstKey,
           kind: 'anchor',
           label: '',
           notes: '',
@@ -116,9 +116,15 @@ export function NodeForm({ graph, node, selectedKey, pick, isSaving, onSubmit }:
           normal: [0, 0, 1],
         },
   });
-  const kind = watch('kind');
-  const position = watch('position');
-  const normal = watch('normal');
+  const {
+    register,
+    control,
+    setValue,
+    getValues,
+    setError,
+    formState: { errors },
+  } = form;
+  const [kind, position, normal] = useWatch({ control, name: ['kind', 'position', 'normal'] });
 
   useEffect(() => {
     if (!isNew || !armed || !pick || pick === consumed.current) return;
@@ -140,13 +146,9 @@ export function NodeForm({ graph, node, selectedKey, pick, isSaving, onSubmit }:
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [pick, armed, isNew, graph.segments, setValue, getValues]);
 
-  const kindField = register('kind', {
-    onChange: (e: { target: { value: NodeKind } }) => {
-      if (isNew && getValues('key') === suggested.current) setValue('key', suggest(e.target.value));
-    },
-  });
+  const kindField = register('kind');
 
-  const submit = handleSubmit((v) => {
+  const submit = (v: NodeFormValues) => {
     const socketNormal = v.kind === 'socket' ? (normalise(v.normal) ?? undefined) : undefined;
     if (node) {
       const changes = changedFields(node, {
@@ -178,7 +180,7 @@ export function NodeForm({ graph, node, selectedKey, pick, isSaving, onSubmit }:
       return;
     }
     onSubmit({ type: 'create-node', node: parsed.data });
-  });
+  };
 
   const nudge = (axis: 0 | 1 | 2, delta: number) =>
     setValue(`position.${axis}`, round3(Number(getValues(`position.${axis}`)) + delta), {
@@ -189,8 +191,8 @@ export function NodeForm({ graph, node, selectedKey, pick, isSaving, onSubmit }:
   const vecErrors = (e: typeof errors.position) => [0, 1, 2].map((i) => e?.[i]?.message ?? e?.message);
 
   return (
-    <form
-      noValidate
+    <Form
+      form={form}
       onSubmit={submit}
       className="space-y-3"
       aria-label={isNew ? 'Add node' : `Change node ${node.key}`}
@@ -223,7 +225,15 @@ export function NodeForm({ graph, node, selectedKey, pick, isSaving, onSubmit }:
           <Input autoComplete="off" readOnly={!isNew} className="font-mono" {...register('key')} />
         </Field>
         <Field label="Kind" error={errors.kind?.message}>
-          <Select options={KIND_OPTIONS} {...kindField} />
+          <Select
+            options={KIND_OPTIONS}
+            {...kindField}
+            onChange={(e) => {
+              void kindField.onChange(e);
+              if (isNew && getValues('key') === suggested.current)
+                setValue('key', suggest(e.target.value as NodeKind));
+            }}
+          />
         </Field>
       </div>
       <Field label="Label" error={errors.label?.message}>
@@ -252,14 +262,11 @@ export function NodeForm({ graph, node, selectedKey, pick, isSaving, onSubmit }:
       <Field label="Notes" error={errors.notes?.message}>
         <textarea rows={2} className={cn(controlClass, 'py-2')} {...register('notes')} />
       </Field>
-      <div className="flex items-center justify-end gap-3">
+      <FormActions submit={isNew ? 'Add node' : 'Save node'} isLoading={isSaving}>
         <p role="status" className="text-sm text-text-muted">
           {errors.root?.message}
         </p>
-        <Button type="submit" isLoading={isSaving}>
-          {isNew ? 'Add node' : 'Save node'}
-        </Button>
-      </div>
-    </form>
+      </FormActions>
+    </Form>
   );
 }

@@ -1,12 +1,11 @@
 import { useMemo } from 'react';
-import { useForm } from 'react-hook-form';
-import { zodResolver } from '@hookform/resolvers/zod';
+import { useWatch } from 'react-hook-form';
 import { z } from 'zod';
 import { OrbitSettingsSchema, StationSettingsSchema, type StationSettings } from '@shared/schemas/station';
 import type { StationSummary } from '@shared/schemas/station-edits';
 import { formatLength, parseLength } from '@shared/compute/units';
-import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
+import { Form, FormActions, useZodForm } from '@/components/ui/form';
 import { Input } from '@/components/ui/input';
 import type { StationEdit } from '../api/edit-station';
 
@@ -37,8 +36,9 @@ function settingsFormSchema(current: StationSettings) {
     .object({
       name: z.string(),
       tether: z.string(),
-      settings: z.record(z.string(), z.unknown()),
-      orbit: z.unknown(),
+      // checked after the transform, by the station document's schemas
+      settings: z.custom<SettingsFormValues['settings']>(),
+      orbit: z.custom<SettingsFormValues['orbit']>(),
     })
     .superRefine((v, ctx) => {
       const parsed = parseLength(v.tether);
@@ -48,17 +48,16 @@ function settingsFormSchema(current: StationSettings) {
       const parsed = parseLength(v.tether);
       return {
         name: v.name,
-        orbit: v.orbit as z.input<typeof OrbitSettingsSchema>,
+        orbit: v.orbit,
         settings: {
           ...v.settings,
           tetherLengthM: parsed.ok ? parsed.value : NaN,
-          reach: { ...current.reach, ...(v.settings.reach as object) },
+          reach: { ...current.reach, ...v.settings.reach },
         },
       };
     })
     .pipe(SettingsOutputSchema);
 }
-type SettingsOutput = z.infer<ReturnType<typeof settingsFormSchema>>;
 
 interface SettingsFormProps {
   station: Pick<StationSummary, 'name' | 'orbit' | 'settings'>;
@@ -69,13 +68,7 @@ interface SettingsFormProps {
 export function SettingsForm({ station, isSaving, onSubmit }: SettingsFormProps) {
   const { settings, orbit } = station;
   const schema = useMemo(() => settingsFormSchema(settings), [settings]);
-  const {
-    register,
-    handleSubmit,
-    watch,
-    formState: { errors, isDirty },
-  } = useForm<SettingsFormValues, unknown, SettingsOutput>({
-    resolver: zodResolver(schema) as never,
+  const form = useZodForm(schema, {
     defaultValues: {
       name: station.name,
       tether: String(settings.tetherLengthM),
@@ -89,8 +82,13 @@ export function SettingsForm({ station, isSaving, onSubmit }: SettingsFormProps)
       orbit: { ...orbit },
     },
   });
-  const tether = parseLength(watch('tether') ?? '');
-  const reach = watch('settings.reach');
+  const {
+    register,
+    control,
+    formState: { errors, isDirty },
+  } = form;
+  const [tetherText, reach] = useWatch({ control, name: ['tether', 'settings.reach'] });
+  const tether = parseLength(tetherText ?? '');
   const e = errors.settings;
   const num = { valueAsNumber: true } as const;
   const numberInput = {
@@ -101,11 +99,10 @@ export function SettingsForm({ station, isSaving, onSubmit }: SettingsFormProps)
   };
 
   return (
-    <form
-      noValidate
-      className="space-y-4"
+    <Form
+      form={form}
       aria-label="Station settings"
-      onSubmit={handleSubmit((v) => onSubmit({ type: 'update-station', changes: v }))}
+      onSubmit={(v) => onSubmit({ type: 'update-station', changes: v })}
     >
       <Field label="Station name" error={errors.name?.message}>
         <Input autoComplete="off" {...register('name')} />
@@ -179,11 +176,7 @@ export function SettingsForm({ station, isSaving, onSubmit }: SettingsFormProps)
           </Field>
         </div>
       </fieldset>
-      <div className="flex justify-end">
-        <Button type="submit" isLoading={isSaving} disabled={!isDirty}>
-          Save settings
-        </Button>
-      </div>
-    </form>
+      <FormActions submit="Save settings" isLoading={isSaving} disabled={!isDirty} />
+    </Form>
   );
 }

@@ -1,10 +1,8 @@
-import { useForm } from 'react-hook-form';
-import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import type { ImportStationResult, StationCounts } from '@shared/schemas/station-edits';
 import { Alert } from '@/components/ui/alert';
-import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
+import { Form, FormActions, useZodForm } from '@/components/ui/form';
 import { Input } from '@/components/ui/input';
 import { apiErrorMessage, isApiError } from '@/lib/api-client';
 import { useImportStation, useReplaceStationModel } from '../api/import-station';
@@ -80,11 +78,11 @@ export function ImportStationForm({
   const create = useImportStation({ onSuccess });
   const replace = useReplaceStationModel({ onSuccess });
   const mutation = target.mode === 'new' ? create : replace;
+  const form = useZodForm(ImportFormSchema);
   const {
     register,
-    handleSubmit,
     formState: { errors },
-  } = useForm<ImportFormValues>({ resolver: zodResolver(ImportFormSchema) });
+  } = form;
 
   const submit = ({ file }: ImportFormValues) => {
     if (target.mode === 'new') create.mutate(file[0]);
@@ -92,7 +90,7 @@ export function ImportStationForm({
   };
 
   return (
-    <form noValidate onSubmit={handleSubmit(submit)} className="space-y-4">
+    <Form form={form} onSubmit={submit}>
       <Field
         label="Station document"
         error={errors.file?.message}
@@ -113,15 +111,11 @@ export function ImportStationForm({
           <CountsSummary counts={mutation.data.counts} />
         </Alert>
       )}
-      <div className="flex justify-end">
-        <Button
-          type="submit"
-          variant={target.mode === 'new' ? 'primary' : 'danger'}
-          isLoading={mutation.isPending}
-        >
-          {target.mode === 'new' ? 'Import station' : 'Replace model'}
-        </Button>
-      </div>
-    </form>
+      <FormActions
+        submit={target.mode === 'new' ? 'Import station' : 'Replace model'}
+        variant={target.mode === 'new' ? 'primary' : 'danger'}
+        isLoading={mutation.isPending}
+      />
+    </Form>
   );
 }

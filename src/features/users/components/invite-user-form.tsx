@@ -1,8 +1,6 @@
-import { useForm } from 'react-hook-form';
-import { zodResolver } from '@hookform/resolvers/zod';
-import { InviteUserInputSchema, type InviteUserInput, type UserAdminView } from '@shared/schemas/auth';
-import { Button } from '@/components/ui/button';
+import { InviteUserInputSchema, type UserAdminView } from '@shared/schemas/auth';
 import { Field } from '@/components/ui/field';
+import { Form, FormActions, useZodForm } from '@/components/ui/form';
 import { FormError } from '@/components/ui/form-error';
 import { Input } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
@@ -16,17 +14,16 @@ interface InviteUserFormProps {
 
 export function InviteUserForm({ onSuccess, onCancel }: InviteUserFormProps) {
   const invite = useInviteUser({ onSuccess });
-  const {
-    register,
-    handleSubmit,
-    formState: { errors },
-  } = useForm<InviteUserInput>({
-    resolver: zodResolver(InviteUserInputSchema),
+  const form = useZodForm(InviteUserInputSchema, {
     defaultValues: { email: '', name: '', role: 'viewer' },
   });
+  const {
+    register,
+    formState: { errors },
+  } = form;
 
   return (
-    <form noValidate onSubmit={handleSubmit((values) => invite.mutate(values))} className="space-y-4">
+    <Form form={form} onSubmit={(values) => invite.mutate(values)}>
       <FormError error={invite.error} fallback="The invitation could not be sent." />
       <Field label="Name" error={errors.name?.message}>
         <Input autoComplete="off" {...register('name')} />
@@ -37,14 +34,7 @@ export function InviteUserForm({ onSuccess, onCancel }: InviteUserFormProps) {
       <Field label="Role" error={errors.role?.message}>
         <Select options={ROLE_OPTIONS} {...register('role')} />
       </Field>
-      <div className="flex justify-end gap-2 pt-2">
-        <Button variant="secondary" onClick={onCancel}>
-          Cancel
-        </Button>
-        <Button type="submit" isLoading={invite.isPending}>
-          Send invitation
-        </Button>
-      </div>
-    </form>
+      <FormActions submit="Send invitation" onCancel={onCancel} isLoading={invite.isPending} />
+    </Form>
   );
 }

@@ -1,5 +1,4 @@
-import { useForm, useWatch } from 'react-hook-form';
-import { zodResolver } from '@hookform/resolvers/zod';
+import { useWatch } from 'react-hook-form';
 import { z } from 'zod';
 import type { PlanStatus } from '@shared/schemas/plan';
 import { ROUTE_MODES } from '@shared/schemas/route';
@@ -8,8 +7,8 @@ import {
   WalkthroughRouteSpecSchema,
   type WalkthroughDetail,
 } from '@shared/schemas/walkthrough';
-import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
+import { Form, FormActions, useZodForm } from '@/components/ui/form';
 import { FormError } from '@/components/ui/form-error';
 import { Input } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
@@ -68,21 +67,20 @@ export function NewWalkthroughForm({
 }) {
   const create = useCreateWalkthrough({ onSuccess });
   const preset = plans.find((p) => p.id === defaultPlanId);
-  const {
-    register,
-    handleSubmit,
-    control,
-    setValue,
-    getValues,
-    formState: { errors },
-  } = useForm<FormInput, unknown, FormOutput>({
-    resolver: zodResolver(FormSchema),
+  const form = useZodForm(FormSchema, {
     defaultValues: {
       source: 'plan',
       name: preset ? `Rehearsal: ${preset.title}` : '',
       planId: preset?.id ?? Number.NaN,
     } as FormInput,
   });
+  const {
+    register,
+    control,
+    setValue,
+    getValues,
+    formState: { errors },
+  } = form;
   const source = useWatch({ control, name: 'source' });
   // errors of the branch not shown are not reachable; read them loosely
   const e = errors as Partial<Record<string, { message?: string } & Record<string, { message?: string }>>>;
@@ -97,7 +95,7 @@ export function NewWalkthroughForm({
   };
 
   return (
-    <form noValidate onSubmit={handleSubmit(submit)} className="space-y-4">
+    <Form form={form} onSubmit={submit}>
       <FormError error={create.error} fallback="The walkthrough could not be saved." />
       <fieldset className="space-y-2">
         <legend className="text-sm font-medium text-text-strong">Rehearse</legend>
@@ -175,14 +173,7 @@ export function NewWalkthroughForm({
       <Field label="Name" error={e.name?.message}>
         <Input autoComplete="off" {...register('name')} />
       </Field>
-      <div className="flex justify-end gap-2 pt-2">
-        <Button variant="secondary" onClick={onCancel}>
-          Cancel
-        </Button>
-        <Button type="submit" isLoading={create.isPending}>
-          Save walkthrough
-        </Button>
-      </div>
-    </form>
+      <FormActions submit="Save walkthrough" onCancel={onCancel} isLoading={create.isPending} />
+    </Form>
   );
 }
