@@ -213,6 +213,11 @@ function approxMapBytes(c: CompiledStation): number {
   return bytes;
 }
 
+/** Node kinds a tether can be clipped to (attach points of the station itself). */
+export function isAttachKind(kind: string): boolean {
+  return kind === 'anchor' || kind === 'airlock';
+}
+
 /** Builds the query index for one station version. Keys must already be checked (parseStationDocument). */
 export function compileStation(doc: StationDocument, options: CompileOptions = {}): CompiledStation {
   const n = doc.nodes.length;
@@ -225,7 +230,7 @@ export function compileStation(doc: StationDocument, options: CompileOptions = {
   const positions = new Float64Array(n * 3);
   doc.nodes.forEach((nd, i) => {
     nodeKind[i] = NODE_KINDS.indexOf(nd.kind as NodeKind);
-    isAttach[i] = nd.kind === 'anchor' || nd.kind === 'airlock' ? 1 : 0;
+    isAttach[i] = isAttachKind(nd.kind) ? 1 : 0;
     positions.set(nd.position, i * 3);
   });
 

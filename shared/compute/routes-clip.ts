@@ -733,6 +733,8 @@ function queryState(cg: ClipGraph): ClipQueryState {
  * the clip graph. Same optimum as labelSearch with the same parameters.
  */
 export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSearchParams): LabelPath | null {
+  if (p.startPaidOutM > 0 || p.isAttach !== c.isAttach)
+    throw new Error('internal: the clip graph answers a fresh clip on the station attach points only');
   const cg = clipGraphFor(c, p.weights, p.tetherLengthM, p.excludeMask);
   const ns = scratchFor(c);
   const bound = targetBound(c, ns, t, p.secondsFactor, p.maxSpeedMps, p.landmarkTimesValid);

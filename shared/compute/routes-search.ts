@@ -307,6 +307,10 @@ export interface LabelSearchParams {
   landmarkTimesValid: boolean;
   /** the fastest speed of any kind, for a time bound from the metres bound */
   maxSpeedMps: number;
+  /** the query's attach points: the station's, plus any that count for this query only */
+  isAttach: Uint8Array;
+  /** metres already paid out at the start (a swap at the start, when it is an attach point, resets it) */
+  startPaidOutM: number;
 }
 
 export interface LabelPath {
@@ -319,7 +323,8 @@ export interface LabelPath {
  * Exact label-setting A* over (node, tether paid out since the last clip), allowing revisits.
  * Lower bounds: landmark (ALT) bounds on remaining seconds and metres; the metres bound also gives
  * a bound on the swaps still needed. Labels at a node that are no better in (p1, p2) and in paid-out
- * than another are dropped.
+ * than another are dropped. The start label carries the start's paid-out length; when the start is
+ * an attach point, a second start label has swapped there.
  */
 export function labelSearch(
   c: CompiledStation,
@@ -350,12 +355,12 @@ function runLabels(
   const L = sc.labels;
   L.size = 0;
   heap.clear();
-  const { offsets, targets, arcFlags, arcLengthM, isAttach } = c;
-  const { weights, secondsFactor, tetherLengthM: tether, excludeMask, swapCost } = p;
+  const { offsets, targets, arcFlags, arcLengthM } = c;
+  const { weights, secondsFactor, tetherLengthM: tether, excludeMask, swapCost, isAttach } = p;
   const lex = p.objective === 'lex';
   const limit = tether + TETHER_EPS_M;
   const bound = targetBound(c, sc, t, secondsFactor, p.maxSpeedMps, p.landmarkTimesValid);
-  const layers = useLayers ? swapLayers(c, sc, s, t, tether, excludeMask) : -2;
+  const layers = useLayers ? swapLayers(c, sc, s, t, tether, excludeMask, isAttach) : -2;
   if (layers === -1) return null;
   const { swapStamp, swapLayer, swapReach } = sc;
   const swapsNeeded = (v: number, paid: number): number => {
@@ -413,7 +418,9 @@ function runLabels(
   };
 
   if (!bound(s)) return null;
-  offer(s, -1, -1, 0, 0, 0, 0);
+  const startPaid = p.startPaidOutM;
+  offer(s, -1, -1, 0, 0, startPaid, 0);
+  if (isAttach[s] && startPaid > 0) offer(s, -1, -1, 1, 0, 0, 1);
   let goal = -1;
   while (heap.size > 0) {
     const x = heap.pop();
@@ -446,7 +453,8 @@ function runLabels(
 
 /**
  * Whether some walk s → t fits a tether of this length when swaps are free: the least paid-out
- * at each node, with attach points resetting it, by a label-correcting pass on a heap.
+ * at each node, with attach points resetting it, by a label-correcting pass on a heap. The walk
+ * starts with `startPaidOutM` out, or none when s is an attach point (a free swap there).
  */
 export function fitsTether(
   c: CompiledStation,
@@ -454,15 +462,19 @@ export function fitsTether(
   t: number,
   tetherLengthM: number,
   excludeMask: number,
+  isAttach: Uint8Array,
+  startPaidOutM: number,
 ): boolean {
   const sc = scratchFor(c);
   const { seen, dist, heap } = sc;
   const stamp = sc.stamp;
   const limit = tetherLengthM + TETHER_EPS_M;
+  const startKey = isAttach[s] ? 0 : startPaidOutM;
+  if (startKey > limit) return false;
   heap.clear();
   seen[s] = stamp;
-  dist[s] = 0;
-  heap.push(s, 0);
+  dist[s] = startKey;
+  heap.push(s, startKey);
   while (heap.size > 0) {
     const d = heap.topKey1();
     const v = heap.pop();
@@ -473,7 +485,7 @@ export function fitsTether(
       const np = d + c.arcLengthM[a];
       if (np > limit) continue;
       const u = c.targets[a];
-      const key = c.isAttach[u] ? 0 : np;
+      const key = isAttach[u] ? 0 : np;
       if (seen[u] !== stamp || key < dist[u]) {
         seen[u] = stamp;
         dist[u] = key;
@@ -500,12 +512,13 @@ function swapLayers(
   t: number,
   tether: number,
   excludeMask: number,
+  isAttach: Uint8Array,
 ): number {
   const { layerSeen, layerDist, swapStamp, swapLayer, swapReach, sources } = sc;
   const heap = sc.heap2;
   const stamp = sc.stamp;
   const limit = tether + TETHER_EPS_M;
-  const { offsets, targets, arcFlags, arcLengthM, isAttach } = c;
+  const { offsets, targets, arcFlags, arcLengthM } = c;
   let count = 1;
   sources[0] = t;
   for (let k = 0; count > 0; k++) {

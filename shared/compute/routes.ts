@@ -5,6 +5,7 @@ import type {
   RouteMode,
   RouteRequest,
   RouteResult,
+  TetherState,
 } from '../schemas/route';
 import type { StationSettings } from '../schemas/station';
 import {
@@ -17,7 +18,7 @@ import {
 } from './compiled-station';
 import { clipSearch, hasClipGraph } from './routes-clip';
 import { arcSource, dijkstraPath, fastestPath, fitsTether, labelSearch, reachable } from './routes-search';
-import { placeSwapsGreedy } from './tether';
+import { TETHER_EPS_M, placeSwapsGreedy, type WalkStart } from './tether';
 
 export { hasNodeKey } from './compiled-station';
 
@@ -39,6 +40,15 @@ interface Query {
   landmarkTimesValid: boolean;
   strategy: RouteStrategy;
   clipBuildFreeNodes: number;
+  /** the station's attach points, plus the request's extra ones */
+  isAttach: Uint8Array;
+  /** the node the tether is clipped to at the start, and the metres out since it */
+  startAnchor: number;
+  startPaidOutM: number;
+  /** the request gave a start state */
+  startGiven: boolean;
+  /** the start is a fresh clip at s on the station's own attach points: the clip graph answers it */
+  fresh: boolean;
 }
 
 /**
@@ -116,8 +126,13 @@ function searchTerms(c: CompiledStation, settings: StationSettings, request: Rou
   };
 }
 
+/**
+ * The exact search. The clip graph is built for the station's own attach points and a fresh clip
+ * at the start; a query with tether already out at the start, or with extra attach points, runs
+ * the label search (the route bench prints what that costs).
+ */
 function search(q: Query, objective: 'sum' | 'lex', swapCost: number) {
-  return (useClipGraph(q) ? clipSearch : labelSearch)(q.c, q.s, q.t, {
+  return (q.fresh && useClipGraph(q) ? clipSearch : labelSearch)(q.c, q.s, q.t, {
     objective,
     swapCost,
     weights: q.weights,
@@ -126,7 +141,18 @@ function search(q: Query, objective: 'sum' | 'lex', swapCost: number) {
     excludeMask: q.mask,
     landmarkTimesValid: q.landmarkTimesValid,
     maxSpeedMps: maxSpeed(q.settings),
+    isAttach: q.isAttach,
+    startPaidOutM: q.startPaidOutM,
   });
+}
+
+/** The start state as the greedy swap placement takes it. */
+function walkStart(q: Query): WalkStart {
+  return { startPaidOutM: q.startPaidOutM, startSwap: q.isAttach[q.s] === 1 };
+}
+
+function walkAttach(q: Query, nodes: readonly number[]): boolean[] {
+  return nodes.map((v) => q.isAttach[v] === 1);
 }
 
 const fmt = (m: number) => `${Math.round(m * 100) / 100} m`;
@@ -159,14 +185,11 @@ function buildRoute(q: Query, arcs: number[], extraWarnings: string[]): RouteRes
     pos += lengthM;
     travel += seconds;
   }
-  const plan = placeSwapsGreedy(
-    lengths,
-    nodes.map((v) => c.isAttach[v] === 1),
-    q.tether,
-  );
+  const plan = placeSwapsGreedy(lengths, walkAttach(q, nodes), q.tether, walkStart(q));
   if (!plan.feasible) throw new Error('internal: a searched route does not fit the tether');
   const warnings: string[] = [];
-  if (!c.isAttach[q.s]) {
+  const startNotAttachable = !q.startGiven && !q.isAttach[q.s];
+  if (startNotAttachable) {
     warnings.push(
       `${c.keys[q.s]} is not a tether attach point: the route assumes the tether is clipped where the crew member starts.`,
     );
@@ -175,6 +198,11 @@ function buildRoute(q: Query, arcs: number[], extraWarnings: string[]): RouteRes
   const cautionHazards = [...caution].sort();
   for (const h of cautionHazards) warnings.push(`The route passes through caution volume ${h}.`);
   const swapSeconds = plan.swaps.length * q.settings.swapSeconds;
+  const lastSwap = plan.swaps[plan.swaps.length - 1];
+  const tetherAtStart: TetherState = { anchor: c.keys[q.startAnchor], paidOutM: q.startPaidOutM };
+  const tetherAtEnd: TetherState = lastSwap
+    ? { anchor: c.keys[nodes[lastSwap.index]], paidOutM: pos - lastSwap.atM }
+    : { anchor: c.keys[q.startAnchor], paidOutM: q.startPaidOutM + pos };
   const result: RouteFeasible = {
     feasible: true,
     mode: q.mode,
@@ -190,6 +218,9 @@ function buildRoute(q: Query, arcs: number[], extraWarnings: string[]): RouteRes
     maxPaidOutM: plan.maxPaidOutM,
     warnings,
     cautionHazards,
+    ...(startNotAttachable ? { startNotAttachable } : {}),
+    tetherAtStart,
+    tetherAtEnd,
   };
   return result;
 }
@@ -209,15 +240,19 @@ function infeasible(
   };
 }
 
-/** Smallest tether (to the centimetre) for which some walk exists, by bisection on fitsTether. */
+/**
+ * Smallest tether (to the centimetre) for which some walk exists from the query's start state, by
+ * bisection on fitsTether.
+ */
 function requiredTether(q: Query): number | null {
   const arcs = dijkstraPath(q.c, q.c.arcLengthM, q.s, q.t, q.mask);
   if (!arcs) return null;
+  const fits = (tether: number) => fitsTether(q.c, q.s, q.t, tether, q.mask, q.isAttach, q.startPaidOutM);
   let lo = q.tether;
-  let hi = arcs.reduce((sum, a) => sum + q.c.arcLengthM[a], 0);
+  let hi = q.startPaidOutM + arcs.reduce((sum, a) => sum + q.c.arcLengthM[a], 0);
   while (hi - lo > 1e-4) {
     const mid = (lo + hi) / 2;
-    if (fitsTether(q.c, q.s, q.t, mid, q.mask)) hi = mid;
+    if (fits(mid)) hi = mid;
     else lo = mid;
   }
   return Math.ceil((hi - 1e-4) * 100) / 100;
@@ -252,10 +287,14 @@ function diagnose(q: Query): RouteInfeasible {
   if (reachable(c, q.s, q.mask)[q.t]) {
     const need = requiredTether(q);
     const needText = need === null ? '' : `; the shortest tether that would do is ${fmt(need)}`;
+    const startText =
+      q.startPaidOutM > 0 && !q.isAttach[q.s]
+        ? ` (counting the ${fmt(q.startPaidOutM)} already paid out from ${c.keys[q.startAnchor]})`
+        : '';
     return infeasible(
       q,
       'anchor-gap',
-      `Every route from ${from} to ${to} has a stretch between attach points longer than the ${fmt(q.tether)} tether${needText}.`,
+      `Every route from ${from} to ${to} has a stretch between attach points longer than the ${fmt(q.tether)} tether${startText}${needText}.`,
     );
   }
   if (reachable(c, q.s, q.mask & ~EDGE_KEEP_OUT)[q.t]) {
@@ -271,10 +310,82 @@ function diagnose(q: Query): RouteInfeasible {
   return infeasible(q, 'disconnected', `Every way from ${from} to ${to} uses a closed edge${rides}.`);
 }
 
+/** What is wrong with a request on this station: `unknown-key` is a missing node, `invalid` a bad value. */
+export interface RouteRequestProblem {
+  kind: 'unknown-key' | 'invalid';
+  /** the request field, as a JSON path (`extraAttach.2`) */
+  path: string;
+  message: string;
+}
+
 /**
- * A translation route between two nodes (DESIGN §3). Node keys must exist (check with hasNodeKey
- * first); `from === to` is answered as infeasible `same-node` rather than an empty route, so a
- * caller never mistakes a typo'd duplicate for a real route.
+ * The checks of a route request beyond its schema: every node key exists, a length paid out at the
+ * start comes with the anchor it is paid out from, that anchor is an attach point (the station's or
+ * one of `extraAttach`), and the length is below the tether (the request's, else the station's).
+ * `kindOf` says whether a key is an attach point, another node, or none. `fullTetherOut` accepts
+ * the whole tether out as well: a route can end in that state, so the next one may start from it
+ * (findRoute does; a request from outside may not). Empty when the request can be answered.
+ */
+export function routeRequestProblems(
+  request: RouteRequest,
+  defaultTetherLengthM: number,
+  kindOf: (key: string) => 'attach' | 'node' | undefined,
+  { fullTetherOut = false } = {},
+): RouteRequestProblem[] {
+  const problems: RouteRequestProblem[] = [];
+  const unknown = (path: string, key: string) =>
+    problems.push({ kind: 'unknown-key', path, message: `unknown node key "${key}"` });
+  for (const field of ['from', 'to'] as const) if (!kindOf(request[field])) unknown(field, request[field]);
+  const extra = new Set<string>();
+  request.extraAttach?.forEach((key, i) => {
+    if (kindOf(key)) extra.add(key);
+    else unknown(`extraAttach.${i}`, key);
+  });
+  const anchor = request.startAnchor;
+  if (anchor !== undefined) {
+    const kind = kindOf(anchor);
+    if (!kind) unknown('startAnchor', anchor);
+    else if (kind !== 'attach' && !extra.has(anchor)) {
+      problems.push({
+        kind: 'invalid',
+        path: 'startAnchor',
+        message: `"${anchor}" is not a tether attach point (an anchor, the airlock or one of extraAttach)`,
+      });
+    }
+  } else if (request.startPaidOutM !== undefined) {
+    problems.push({
+      kind: 'invalid',
+      path: 'startAnchor',
+      message: 'give the anchor the tether is clipped to when giving the length paid out from it',
+    });
+  }
+  const tether = request.tetherLengthM ?? defaultTetherLengthM;
+  const paid = request.startPaidOutM;
+  const fits = fullTetherOut ? paid! <= tether + TETHER_EPS_M : paid! < tether;
+  if (paid !== undefined && !(paid >= 0 && fits)) {
+    problems.push({
+      kind: 'invalid',
+      path: 'startPaidOutM',
+      message: `the paid-out length must be at least 0 m and less than the ${fmt(tether)} tether`,
+    });
+  }
+  return problems;
+}
+
+/** The station's attach points, plus a query's extra ones (a copy only when there are any). */
+function attachWith(c: CompiledStation, extra: readonly string[] | undefined): Uint8Array {
+  if (!extra?.length) return c.isAttach;
+  const marks = c.isAttach.slice();
+  for (const key of extra) marks[c.keyToIndex.get(key)!] = 1;
+  return marks;
+}
+
+/**
+ * A translation route between two nodes, from a tether state: the crew member at `from` is
+ * clipped at `startAnchor` with `startPaidOutM` out (without them, freshly clipped at `from`).
+ * The request must pass routeRequestProblems (a RangeError names the first problem otherwise);
+ * `from === to` is answered as infeasible `same-node` rather than an empty route, so a caller
+ * never mistakes a typo'd duplicate for a real route.
  */
 export function findRoute(
   c: CompiledStation,
@@ -282,12 +393,18 @@ export function findRoute(
   request: RouteRequest,
   options: FindRouteOptions = {},
 ): RouteResult {
-  const s = c.keyToIndex.get(request.from);
-  const t = c.keyToIndex.get(request.to);
-  if (s === undefined || t === undefined) {
-    throw new RangeError(`unknown node key "${s === undefined ? request.from : request.to}"`);
-  }
+  const kindOf = (key: string) => {
+    const v = c.keyToIndex.get(key);
+    return v === undefined ? undefined : c.isAttach[v] ? 'attach' : 'node';
+  };
+  const problem = routeRequestProblems(request, settings.tetherLengthM, kindOf, { fullTetherOut: true })[0];
+  if (problem) throw new RangeError(problem.message);
+  const s = c.keyToIndex.get(request.from)!;
+  const t = c.keyToIndex.get(request.to)!;
   const { tether, mask, arcSeconds, landmarkTimesValid } = searchTerms(c, settings, request);
+  const isAttach = attachWith(c, request.extraAttach);
+  const startAnchor = request.startAnchor === undefined ? s : c.keyToIndex.get(request.startAnchor)!;
+  const startPaidOutM = request.startPaidOutM ?? 0;
   const q: Query = {
     c,
     settings,
@@ -301,6 +418,12 @@ export function findRoute(
     landmarkTimesValid,
     strategy: options.strategy ?? 'auto',
     clipBuildFreeNodes: options.clipBuildFreeNodes ?? CLIP_BUILD_FREE_NODES,
+    isAttach,
+    startAnchor,
+    startPaidOutM,
+    startGiven: request.startAnchor !== undefined,
+    // with nothing out, the anchor behind does not matter to the tether: a fresh clip at s
+    fresh: startPaidOutM === 0 && isAttach === c.isAttach,
   };
   if (s === t) return infeasible(q, 'same-node', `The route starts and ends at ${request.from}.`);
 
@@ -312,8 +435,8 @@ export function findRoute(
         : dijkstraPath(c, arcSeconds, s, t, q.mask);
     if (!plain) return diagnose(q);
     const lengths = plain.map((a) => c.arcLengthM[a]);
-    const walkAttach = [s, ...plain.map((a) => c.targets[a])].map((v) => c.isAttach[v] === 1);
-    const plan = placeSwapsGreedy(lengths, walkAttach, q.tether);
+    const nodes = [s, ...plain.map((a) => c.targets[a])];
+    const plan = placeSwapsGreedy(lengths, walkAttach(q, nodes), q.tether, walkStart(q));
     if (plan.feasible) return buildRoute(q, plain, []);
     const fitted = search(q, 'sum', 0);
     if (!fitted) return diagnose(q);

@@ -5,7 +5,17 @@ export const ROUTE_MODES = ['fastest', 'fewest-swaps', 'balanced'] as const;
 export const RouteModeSchema = z.enum(ROUTE_MODES);
 export type RouteMode = z.infer<typeof RouteModeSchema>;
 
-/** Body of `POST /api/stations/:id/routes` (DESIGN §8). */
+/** Extra attach points one route request may name (installed portable anchors, say). */
+export const MAX_EXTRA_ATTACH = 500;
+
+/**
+ * Body of `POST /api/stations/:id/routes`. The start state (`startAnchor`, `startPaidOutM`) says
+ * where the crew member at `from` is clipped and how much tether is already out; `extraAttach`
+ * names nodes that count as attach points for this query. How the fields go together and with
+ * the station (do the keys exist, is `startAnchor` given with `startPaidOutM` and an attach point,
+ * is `startPaidOutM` below the tether) is checked by `routeRequestProblems` in
+ * shared/compute/routes.ts, so this stays a plain object schema others can extend.
+ */
 export const RouteRequestSchema = z.strictObject({
   from: KeySchema,
   to: KeySchema,
@@ -17,15 +27,31 @@ export const RouteRequestSchema = z.strictObject({
     .optional(),
   carrying: z.boolean().optional(),
   allowRide: z.boolean().optional(),
+  startAnchor: KeySchema.optional(),
+  startPaidOutM: z
+    .number()
+    .refine(Number.isFinite, 'must be a finite number')
+    .refine((v) => v >= 0, 'the paid-out length must be 0 m or more')
+    .optional(),
+  extraAttach: z
+    .array(KeySchema)
+    .max(MAX_EXTRA_ATTACH, `at most ${MAX_EXTRA_ATTACH} extra attach points`)
+    .optional(),
 });
 export type RouteRequest = z.infer<typeof RouteRequestSchema>;
+
+/** A tether state: the attach point the crew member is clipped to, and the metres paid out since it. */
+export interface TetherState {
+  anchor: string;
+  paidOutM: number;
+}
 
 /** One tether swap: clip the new hook at `node`, then release the old one. */
 export interface TetherSwap {
   node: string;
   /** distance along the route from its start, metres */
   atM: number;
-  /** tether paid out from the previous attach point just before the swap, metres */
+  /** tether paid out from the previous clip just before the swap, metres (the start's paid-out length included) */
   paidOutM: number;
 }
 
@@ -61,8 +87,19 @@ export interface RouteFeasible {
   warnings: string[];
   /** keys of caution hazards the route passes through */
   cautionHazards: string[];
-  /** the start is not an attach point: the route assumes a tether clipped where the crew member stands */
+  /**
+   * no start state was given and the start is not an attach point: the route assumes a tether
+   * clipped where the crew member stands
+   */
   startNotAttachable?: boolean;
+  /**
+   * The tether state at `from`: the request's start state, else clipped at `from` with 0 m out.
+   * findRoute always sets it and tetherAtEnd (optional in the type only while hand-made routes in
+   * older tests lack them).
+   */
+  tetherAtStart?: TetherState;
+  /** the tether state at `to`: the last swap's node (else the start's anchor) and the metres out since it */
+  tetherAtEnd?: TetherState;
 }
 
 export interface RouteInfeasible {

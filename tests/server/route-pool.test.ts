@@ -49,6 +49,12 @@ function randomRequests(count: number, seed: number): RouteRequest[] {
     if (next() % 4 === 0) request.tetherLengthM = 5 + (next() % 300) / 10;
     if (next() % 5 === 0) request.carrying = true;
     if (next() % 5 === 0) request.allowRide = true;
+    if (next() % 3 === 0) {
+      // a start state on a node made an attach point for the query
+      request.extraAttach = [keys[next() % keys.length], keys[next() % keys.length]];
+      request.startAnchor = request.extraAttach[next() % 2];
+      request.startPaidOutM = ((next() % 100) / 100) * (request.tetherLengthM ?? 25.9);
+    }
     return request;
   });
 }

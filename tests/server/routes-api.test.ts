@@ -148,6 +148,95 @@ describe('POST /api/stations/:id/routes (DESIGN §8)', () => {
   });
 });
 
+describe('POST /api/stations/:id/routes from a tether state', () => {
+  it('starts from the anchor and length already out, and answers the tether state at both ends', async () => {
+    // at the junction, 3 m out from the near anchor; a 7 m tether then needs a swap at the far anchor
+    const fresh = await route({ from: K.junction, to: K.socket, mode: 'fewest-swaps', tetherLengthM: 7 });
+    expect(fresh.status).toBe(200);
+    expect(fresh.body).toMatchObject({ feasible: true, swapCount: 0, startNotAttachable: true });
+    expect(fresh.body.tetherAtStart).toEqual({ anchor: K.junction, paidOutM: 0 });
+    const held = await route({
+      from: K.junction,
+      to: K.socket,
+      mode: 'fewest-swaps',
+      tetherLengthM: 7,
+      startAnchor: K.anchorNear,
+      startPaidOutM: 3,
+    });
+    expect(held.status).toBe(200);
+    expect(held.body.feasible).toBe(true);
+    expect(held.body.startNotAttachable).toBeUndefined();
+    expect(held.body.warnings.join(' ')).not.toMatch(/not a tether attach point/);
+    expect(held.body.swaps).toHaveLength(1);
+    expect(held.body.swaps[0]).toMatchObject({ node: K.anchorFar });
+    expect(held.body.swaps[0].atM).toBeCloseTo(3.2, 9);
+    expect(held.body.swaps[0].paidOutM).toBeCloseTo(6.2, 9);
+    expect(held.body.tetherAtStart).toEqual({ anchor: K.anchorNear, paidOutM: 3 });
+    expect(held.body.tetherAtEnd.anchor).toBe(K.anchorFar);
+    expect(held.body.tetherAtEnd.paidOutM).toBeCloseTo(HOP_M + 1, 9);
+  });
+
+  it('extra attach points count for the query: a junction bridges a gap longer than the tether', async () => {
+    const body = { from: K.airlock, to: K.socket, mode: 'balanced', tetherLengthM: 5 };
+    expect((await route(body)).body).toMatchObject({ feasible: false, reasonCode: 'anchor-gap' });
+    const bridged = await route({ ...body, extraAttach: [K.junction] });
+    expect(bridged.status).toBe(200);
+    expect(bridged.body.feasible).toBe(true);
+    expect(bridged.body.swaps.map((sw: { node: string }) => sw.node)).toContain(K.junction);
+    // and an extra attach point may be the start anchor
+    const fromIt = await route({
+      ...body,
+      from: K.anchorFar,
+      startAnchor: K.junction,
+      startPaidOutM: 3.2,
+      extraAttach: [K.junction],
+    });
+    expect(fromIt.status).toBe(200);
+    expect(fromIt.body.tetherAtStart).toEqual({ anchor: K.junction, paidOutM: 3.2 });
+  });
+
+  it.each([
+    ['paid out without an anchor', { startPaidOutM: 2 }, 'body.startAnchor'],
+    ['an anchor that is not an attach point', { startAnchor: K.junction }, 'body.startAnchor'],
+    ['a socket as the anchor', { startAnchor: K.socket, startPaidOutM: 1 }, 'body.startAnchor'],
+    [
+      'paid out at the station tether',
+      { startAnchor: K.anchorNear, startPaidOutM: 25.9 },
+      'body.startPaidOutM',
+    ],
+    [
+      'paid out beyond the requested tether',
+      { startAnchor: K.anchorNear, startPaidOutM: 7.5, tetherLengthM: 7 },
+      'body.startPaidOutM',
+    ],
+    ['negative paid out', { startAnchor: K.anchorNear, startPaidOutM: -1 }, 'body.startPaidOutM'],
+    ['paid out as a string', { startAnchor: K.anchorNear, startPaidOutM: '2' }, 'body.startPaidOutM'],
+    ['too many extra attach points', { extraAttach: Array(501).fill(K.junction) }, 'body.extraAttach'],
+    ['extra attach not a list', { extraAttach: K.junction }, 'body.extraAttach'],
+  ])('400 for a bad start state: %s, at %s', async (_name, change, path) => {
+    const res = await route({ from: K.airlock, to: K.socket, mode: 'fastest', ...change });
+    expect(res.status).toBe(400);
+    expect(res.body.error.code).toBe('VALIDATION_FAILED');
+    expect(res.body.error.details.map((d: { path: string }) => d.path)).toContain(path);
+  });
+
+  it('404 for an unknown key in the start anchor or the extra attach points, naming key and path', async () => {
+    const extra = await route({
+      from: K.airlock,
+      to: K.socket,
+      mode: 'balanced',
+      extraAttach: [K.junction, 'GHOST-9'],
+    });
+    expect(extra.status).toBe(404);
+    expect(extra.body.error.code).toBe('NOT_FOUND');
+    expect(extra.body.error.message).toContain('GHOST-9');
+    expect(extra.body.error.details).toEqual([{ path: 'body.extraAttach.1', message: expect.any(String) }]);
+    const anchor = await route({ from: K.airlock, to: K.socket, mode: 'balanced', startAnchor: 'GHOST-1' });
+    expect(anchor.status).toBe(404);
+    expect(anchor.body.error.details[0].path).toBe('body.startAnchor');
+  });
+});
+
 describe('compiled-station cache', () => {
   it('compiles once per station version', () => {
     const a = getCompiledStation(t.ctx, stationId);

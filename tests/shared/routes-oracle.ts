@@ -5,7 +5,9 @@ import { StationDocumentSchema } from '@shared/schemas/station';
 /**
  * Independent reference for the route engine on small stations: enumerate every walk up to a
  * bounded number of edges and, per walk, find the fewest swaps by dynamic programming over clip
- * points (not the engine's greedy rule). Times are recomputed here from the document.
+ * points (not the engine's greedy rule). Times are recomputed here from the document. A walk may
+ * start from a tether state: some metres already out from an anchor behind, with a swap allowed
+ * at the start when it is an attach point; extra nodes may count as attach points.
  */
 
 export interface OracleEdge {
@@ -52,23 +54,49 @@ export function adjacency(
   return adj;
 }
 
-/** Fewest swaps for a fixed walk by DP over which walk positions hold the clip; -1 if none fits. */
-export function minSwapsDp(positions: number[], attach: boolean[], tether: number): number {
+/** Where a walk starts, tether-wise: metres already out, and whether the start may take a swap. */
+export interface OracleStart {
+  paidOutM: number;
+  swapAtStart: boolean;
+}
+
+const FRESH: OracleStart = { paidOutM: 0, swapAtStart: false };
+
+/**
+ * Fewest swaps for a fixed walk by DP over which clip holds the tether: the anchor behind the
+ * start (at minus the paid-out length), then any attach point of the walk before its end (the
+ * start only when it may take a swap); -1 if none fits.
+ */
+export function minSwapsDp(
+  positions: number[],
+  attach: boolean[],
+  tether: number,
+  start: OracleStart = FRESH,
+): number {
   const k = positions.length - 1;
+  // clip c: c = 0 is the anchor behind the start, c = j + 1 a swap at walk position j
+  const at = (c: number) => (c === 0 ? -start.paidOutM : positions[c - 1]);
   const dp = new Array<number>(k + 1).fill(Infinity);
   dp[0] = 0;
-  for (let j = 1; j < k; j++) {
-    if (!attach[j]) continue;
-    for (let i = 0; i < j; i++) {
-      if (dp[i] !== Infinity && positions[j] - positions[i] <= tether + EPS)
-        dp[j] = Math.min(dp[j], dp[i] + 1);
+  for (let j = 0; j < k; j++) {
+    if (!attach[j] || (j === 0 && !start.swapAtStart)) continue;
+    for (let c = 0; c <= j; c++) {
+      if (dp[c] !== Infinity && positions[j] - at(c) <= tether + EPS)
+        dp[j + 1] = Math.min(dp[j + 1], dp[c] + 1);
     }
   }
   let best = Infinity;
-  for (let i = 0; i < k; i++) {
-    if (dp[i] !== Infinity && positions[k] - positions[i] <= tether + EPS) best = Math.min(best, dp[i]);
+  for (let c = 0; c <= k; c++) {
+    if (dp[c] !== Infinity && positions[k] - at(c) <= tether + EPS) best = Math.min(best, dp[c]);
   }
   return best === Infinity ? -1 : best;
+}
+
+/** Attach points of a document, plus extra ones (by node index). */
+export function attachMarks(doc: StationDocument, extra: readonly number[] = []): boolean[] {
+  const marks = doc.nodes.map((n) => n.kind === 'anchor' || n.kind === 'airlock');
+  for (const v of extra) marks[v] = true;
+  return marks;
 }
 
 export function exhaustive(
@@ -78,15 +106,17 @@ export function exhaustive(
   t: number,
   tether: number,
   maxEdges: number,
+  from: { paidOutM?: number; extraAttach?: readonly number[] } = {},
 ): OracleResult {
-  const attachOf = doc.nodes.map((n) => n.kind === 'anchor' || n.kind === 'airlock');
+  const attachOf = attachMarks(doc, from.extraAttach);
+  const start: OracleStart = { paidOutM: from.paidOutM ?? 0, swapAtStart: attachOf[s] };
   const swapSeconds = doc.settings.swapSeconds;
   const res: OracleResult = { fastest: null, fewestSwaps: null, balanced: null };
   const positions = [0];
   const attach = [attachOf[s]];
   const walk = (v: number, seconds: number) => {
     if (v === t) {
-      const swaps = minSwapsDp(positions, attach, tether);
+      const swaps = minSwapsDp(positions, attach, tether, start);
       if (swaps < 0) return;
       const edges = positions.length - 1;
       if (!res.fastest || seconds < res.fastest.seconds) res.fastest = { seconds, swaps, edges };

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import type { RouteFeasible } from '@shared/schemas/route';
+import type { RouteFeasible, RouteMode, RouteResult } from '@shared/schemas/route';
 import { compileStation } from '@shared/compute/compiled-station';
 import { findRoute } from '@shared/compute/routes';
 import { generateTrussStation } from '@shared/compute/truss-generator';
@@ -69,6 +69,63 @@ describe('route properties on a generated truss', () => {
         },
       ),
       { numRuns: 60 },
+    );
+  });
+
+  it('extra attach points never add swaps or cost; more tether out never takes fewer; nothing out is a fresh clip', () => {
+    const cost = (r: RouteResult, mode: RouteMode) =>
+      !r.feasible
+        ? Infinity
+        : mode === 'fewest-swaps'
+          ? r.swapCount
+          : mode === 'balanced'
+            ? r.totalSeconds
+            : r.travelSeconds;
+    fc.assert(
+      fc.property(
+        fc.nat({ max: attach.length - 1 }),
+        fc.nat({ max: attach.length - 1 }),
+        fc.nat({ max: attach.length - 1 }),
+        fc.array(fc.nat({ max: doc.nodes.length - 1 }), { maxLength: 30 }),
+        fc.integer({ min: 15, max: 40 }),
+        fc.tuple(fc.integer({ min: 0, max: 99 }), fc.integer({ min: 0, max: 99 })),
+        (a, b, z, extraPicks, tetherLengthM, [p, q]) => {
+          fc.pre(a !== b);
+          const req = { from: attach[a], to: attach[b], tetherLengthM };
+          const extraAttach = [...new Set(extraPicks.map((i) => doc.nodes[i].key))];
+          const [lo, hi] = [Math.min(p, q), Math.max(p, q)].map((v) => (v / 100) * tetherLengthM);
+          for (const mode of ['fastest', 'fewest-swaps', 'balanced'] as RouteMode[]) {
+            const fresh = findRoute(c, doc.settings, { ...req, mode });
+            const withExtra = findRoute(c, doc.settings, { ...req, mode, extraAttach });
+            if (mode !== 'fastest')
+              expect(cost(withExtra, mode)).toBeLessThanOrEqual(cost(fresh, mode) + 1e-6);
+            // nothing out, clipped at the start or at another attach point: the fresh route's cost
+            for (const startAnchor of [attach[a], attach[z]]) {
+              const held = findRoute(
+                c,
+                doc.settings,
+                { ...req, mode, startAnchor, startPaidOutM: 0 },
+                { strategy: 'label-search' },
+              );
+              expect(held.feasible).toBe(fresh.feasible);
+              if (held.feasible && fresh.feasible) {
+                expect(cost(held, mode)).toBeCloseTo(cost(fresh, mode), 6);
+                if (mode === 'fewest-swaps') expect(held.swapCount).toBe(fresh.swapCount);
+                if (held.swapCount === 0)
+                  expect(held.tetherAtEnd).toEqual({ anchor: startAnchor, paidOutM: held.lengthM });
+              }
+            }
+            // the same anchor with more out: never cheaper
+            const start = { startAnchor: attach[z] };
+            const less = findRoute(c, doc.settings, { ...req, ...start, mode, startPaidOutM: lo });
+            const more = findRoute(c, doc.settings, { ...req, ...start, mode, startPaidOutM: hi });
+            expect(cost(more, mode)).toBeGreaterThanOrEqual(cost(less, mode) - 1e-6);
+            for (const r of [withExtra, less, more])
+              if (r.feasible) expect(r.maxPaidOutM).toBeLessThanOrEqual(tetherLengthM + 1e-9);
+          }
+        },
+      ),
+      { numRuns: 40 },
     );
   });
 });

@@ -4,7 +4,7 @@ import { UndirectedGraph } from 'graphology';
 import { dijkstra } from 'graphology-shortest-path';
 import createGraph from 'ngraph.graph';
 import { nba } from 'ngraph.path';
-import type { RouteFeasible, RouteMode, RouteResult } from '@shared/schemas/route';
+import type { RouteFeasible, RouteMode, RouteRequest, RouteResult } from '@shared/schemas/route';
 import {
   StationDocumentSchema,
   type StationDocument,
@@ -13,7 +13,14 @@ import {
 import { compileStation, edgeSeconds } from '@shared/compute/compiled-station';
 import { findRoute, hasNodeKey } from '@shared/compute/routes';
 import { segmentIntersectsHazard } from '@shared/compute/geometry';
-import { adjacency, exhaustive, minSwapsDp, smallStationArb } from './routes-oracle';
+import {
+  adjacency,
+  attachMarks,
+  exhaustive,
+  minSwapsDp,
+  smallStationArb,
+  type OracleResult,
+} from './routes-oracle';
 
 const station = (input: Omit<StationDocumentInput, 'format' | 'version' | 'name'>): StationDocument =>
   StationDocumentSchema.parse({ format: 'tetherwise.station', version: 1, name: 'test', ...input });
@@ -150,6 +157,69 @@ describe('exact modes against exhaustive walk search', () => {
   const MAX_EDGES = 9;
   const modes: RouteMode[] = ['fastest', 'fewest-swaps', 'balanced'];
 
+  /**
+   * One answer against the oracle's best walks: the engine's own walk checked independently (its
+   * swaps only at attach points, the DP agrees on their count, the tether never over its length,
+   * the tether state at the end), then its cost against the best of the bounded walks.
+   */
+  function checkAgainstOracle(
+    doc: StationDocument,
+    r: RouteResult,
+    mode: RouteMode,
+    best: OracleResult,
+    start: { anchor: string; paidOutM: number; attach: boolean[] },
+  ) {
+    if (!r.feasible) {
+      expect(best.fastest, `${mode}: oracle found a walk the engine missed (${r.reason})`).toBeNull();
+      return;
+    }
+    const index = new Map(doc.nodes.map((n, i) => [n.key, i]));
+    const positions = [0, ...r.legs.map((l) => l.startM + l.lengthM)];
+    const attach = r.nodes.map((k) => start.attach[index.get(k)!]);
+    const oracleStart = { paidOutM: start.paidOutM, swapAtStart: attach[0] };
+    expect(minSwapsDp(positions, attach, r.tetherLengthM, oracleStart)).toBe(r.swapCount);
+    // paid out along the walk, from the swaps as reported
+    let clipM = -start.paidOutM;
+    let clipNode = start.anchor;
+    let next = 0;
+    for (let i = 0; i < positions.length; i++) {
+      while (next < r.swaps.length && Math.abs(r.swaps[next].atM - positions[i]) < 1e-9) {
+        const sw = r.swaps[next++];
+        expect(sw.node).toBe(r.nodes[i]);
+        expect(attach[i], `swap at ${sw.node}, not an attach point`).toBe(true);
+        expect(sw.paidOutM).toBeCloseTo(positions[i] - clipM, 9);
+        clipM = positions[i];
+        clipNode = sw.node;
+      }
+      expect(positions[i] - clipM).toBeLessThanOrEqual(r.tetherLengthM + 1e-9);
+    }
+    expect(next).toBe(r.swaps.length);
+    expect(r.maxPaidOutM).toBeLessThanOrEqual(r.tetherLengthM + 1e-9);
+    expect(r.tetherAtStart).toEqual({ anchor: start.anchor, paidOutM: start.paidOutM });
+    expect(r.tetherAtEnd?.anchor).toBe(clipNode);
+    expect(r.tetherAtEnd?.paidOutM).toBeCloseTo(r.lengthM - clipM, 9);
+
+    const short = r.legs.length <= MAX_EDGES;
+    if (mode === 'fastest') {
+      expect(best.fastest === null || r.travelSeconds <= best.fastest.seconds + 1e-6).toBe(true);
+      if (short) expect(r.travelSeconds).toBeCloseTo(best.fastest!.seconds, 6);
+    } else if (mode === 'fewest-swaps') {
+      const o = best.fewestSwaps;
+      if (o)
+        expect(
+          r.swapCount < o.swaps || (r.swapCount === o.swaps && r.travelSeconds <= o.seconds + 1e-6),
+        ).toBe(true);
+      if (short) {
+        expect(r.swapCount).toBe(o!.swaps);
+        expect(r.travelSeconds).toBeCloseTo(o!.seconds, 6);
+      }
+    } else {
+      const o = best.balanced;
+      if (o) expect(r.totalSeconds).toBeLessThanOrEqual(o.total + 1e-6);
+      if (short) expect(r.totalSeconds).toBeCloseTo(o!.total, 6);
+    }
+  }
+
   it('finds the best walk in every mode on small random stations', () => {
     fc.assert(
       fc.property(
@@ -166,6 +236,7 @@ describe('exact modes against exhaustive walk search', () => {
           const c = compileStation(doc);
           const adj = adjacency(doc, { allowRide, carrying, blocked: keepOutEdges(doc) });
           const best = exhaustive(doc, adj, s, t, doc.settings.tetherLengthM, MAX_EDGES);
+          const start = { anchor: doc.nodes[s].key, paidOutM: 0, attach: attachMarks(doc) };
           for (const mode of modes) {
             const r = findRoute(c, doc.settings, {
               from: doc.nodes[s].key,
@@ -174,39 +245,66 @@ describe('exact modes against exhaustive walk search', () => {
               allowRide,
               carrying,
             });
-            if (!r.feasible) {
-              expect(best.fastest, `${mode}: oracle found a walk the engine missed (${r.reason})`).toBeNull();
-              continue;
-            }
-            // the engine's own walk, checked independently: legs exist, the DP agrees on its swaps
-            const positions = [0, ...r.legs.map((l) => l.startM + l.lengthM)];
-            const attach = r.nodes.map((k) =>
-              ['anchor', 'airlock'].includes(doc.nodes.find((x) => x.key === k)!.kind),
-            );
-            expect(minSwapsDp(positions, attach, r.tetherLengthM)).toBe(r.swapCount);
-            const short = r.legs.length <= MAX_EDGES;
-            if (mode === 'fastest') {
-              expect(best.fastest === null || r.travelSeconds <= best.fastest.seconds + 1e-6).toBe(true);
-              if (short) expect(r.travelSeconds).toBeCloseTo(best.fastest!.seconds, 6);
-            } else if (mode === 'fewest-swaps') {
-              const o = best.fewestSwaps;
-              if (o)
-                expect(
-                  r.swapCount < o.swaps || (r.swapCount === o.swaps && r.travelSeconds <= o.seconds + 1e-6),
-                ).toBe(true);
-              if (short) {
-                expect(r.swapCount).toBe(o!.swaps);
-                expect(r.travelSeconds).toBeCloseTo(o!.seconds, 6);
-              }
-            } else {
-              const o = best.balanced;
-              if (o) expect(r.totalSeconds).toBeLessThanOrEqual(o.total + 1e-6);
-              if (short) expect(r.totalSeconds).toBeCloseTo(o!.total, 6);
-            }
+            checkAgainstOracle(doc, r, mode, best, start);
           }
         },
       ),
       { numRuns: 600 },
+    );
+  });
+
+  it('finds the best walk from a tether state, with extra attach points, by either search', () => {
+    fc.assert(
+      fc.property(
+        smallStationArb,
+        fc.nat(),
+        fc.nat(),
+        fc.array(fc.nat(), { maxLength: 3 }),
+        fc.option(fc.nat(), { nil: undefined }),
+        // the paid-out share of the tether: 0 (nothing out) often, up to just under all of it
+        fc.oneof(
+          fc.constant(0),
+          fc.integer({ min: 0, max: 99 }).map((v) => v / 100),
+        ),
+        fc.boolean(),
+        (doc, a, b, extraPicks, anchorPick, share, allowRide) => {
+          const n = doc.nodes.length;
+          const s = a % n;
+          const t = b % n;
+          fc.pre(s !== t);
+          const extra = [...new Set(extraPicks.map((v) => v % n))];
+          const attach = attachMarks(doc, extra);
+          const attachIdx = attach.flatMap((m, i) => (m ? [i] : []));
+          const anchor =
+            anchorPick === undefined || !attachIdx.length
+              ? undefined
+              : attachIdx[anchorPick % attachIdx.length];
+          const tether = doc.settings.tetherLengthM;
+          const paidOutM = anchor === undefined ? 0 : share * tether;
+          const c = compileStation(doc);
+          const adj = adjacency(doc, { allowRide, blocked: keepOutEdges(doc) });
+          const best = exhaustive(doc, adj, s, t, tether, MAX_EDGES, { paidOutM, extraAttach: extra });
+          const start = { anchor: doc.nodes[anchor ?? s].key, paidOutM, attach };
+          for (const mode of modes) {
+            const request: RouteRequest = {
+              from: doc.nodes[s].key,
+              to: doc.nodes[t].key,
+              mode,
+              allowRide,
+              ...(anchor !== undefined
+                ? { startAnchor: doc.nodes[anchor].key, startPaidOutM: paidOutM }
+                : {}),
+              ...(extra.length ? { extraAttach: extra.map((v) => doc.nodes[v].key) } : {}),
+            };
+            for (const strategy of ['clip-graph', 'label-search'] as const) {
+              const r = findRoute(c, doc.settings, request, { strategy });
+              checkAgainstOracle(doc, r, mode, best, start);
+              if (r.feasible) expect(r.startNotAttachable ?? false).toBe(anchor === undefined && !attach[s]);
+            }
+          }
+        },
+      ),
+      { numRuns: 500 },
     );
   });
 
@@ -242,6 +340,74 @@ describe('exact modes against exhaustive walk search', () => {
     });
     expect(tooShort).toMatchObject({ feasible: false, reasonCode: 'anchor-gap' });
     expect(tooShort.feasible === false && tooShort.reason).toContain('11 m');
+  });
+});
+
+describe('routes from a tether state', () => {
+  // airlock A —3 m— junction J —3 m— anchor B —3 m— worksite W, a 6 m tether (worked by hand)
+  const doc = station({
+    settings: { tetherLengthM: 6 },
+    nodes: [
+      { key: 'A', kind: 'airlock', position: [0, 0, 0] },
+      { key: 'J', kind: 'junction', position: [3, 0, 0] },
+      { key: 'B', kind: 'anchor', position: [6, 0, 0] },
+      { key: 'W', kind: 'worksite', position: [9, 0, 0] },
+    ],
+    edges: [
+      { from: 'A', to: 'J', kind: 'handrail' },
+      { from: 'J', to: 'B', kind: 'handrail' },
+      { from: 'B', to: 'W', kind: 'handrail' },
+    ],
+  });
+  const c = compileStation(doc);
+  const go = (req: Omit<RouteRequest, 'mode'>, mode: RouteMode = 'fewest-swaps') =>
+    feasible(findRoute(c, doc.settings, { ...req, mode }));
+
+  it('carries the state at the end of one route into the next, up to the whole tether out', () => {
+    for (const mode of ['fastest', 'fewest-swaps', 'balanced'] as const) {
+      const out = go({ from: 'A', to: 'W' }, mode);
+      expect(out.swaps).toEqual([{ node: 'B', atM: 6, paidOutM: 6 }]);
+      expect(out.tetherAtStart).toEqual({ anchor: 'A', paidOutM: 0 });
+      expect(out.tetherAtEnd).toEqual({ anchor: 'B', paidOutM: 3 });
+      const back = go({ from: 'W', to: 'A', startAnchor: 'B', startPaidOutM: 3 }, mode);
+      expect(back.swaps).toEqual([{ node: 'B', atM: 3, paidOutM: 6 }]);
+      expect(back.tetherAtEnd).toEqual({ anchor: 'B', paidOutM: 6 });
+      // the whole tether out at the airlock: the first thing is a swap where the crew member stands
+      const again = go({ from: 'A', to: 'J', startAnchor: 'B', startPaidOutM: 6 }, mode);
+      expect(again.swaps).toEqual([{ node: 'A', atM: 0, paidOutM: 6 }]);
+      expect(again.tetherAtEnd).toEqual({ anchor: 'A', paidOutM: 3 });
+      expect(again.maxPaidOutM).toBe(6);
+    }
+  });
+
+  it('says when the tether already out leaves no way on, and refuses a state the tether cannot hold', () => {
+    const stuck = findRoute(c, doc.settings, {
+      from: 'J',
+      to: 'A',
+      mode: 'balanced',
+      startAnchor: 'B',
+      startPaidOutM: 4,
+    });
+    expect(stuck).toMatchObject({ feasible: false, reasonCode: 'anchor-gap' });
+    expect(stuck.feasible === false && stuck.reason).toContain('already paid out from B');
+    // the shortest tether that would do: 4 m out plus the 3 m to the airlock
+    expect(stuck.feasible === false && stuck.reason).toContain('7 m');
+    expect(() =>
+      findRoute(c, doc.settings, {
+        from: 'J',
+        to: 'A',
+        mode: 'fastest',
+        startAnchor: 'B',
+        startPaidOutM: 6.5,
+      }),
+    ).toThrow(RangeError);
+    expect(() =>
+      findRoute(c, doc.settings, { from: 'J', to: 'A', mode: 'fastest', startAnchor: 'W' }),
+    ).toThrow(/not a tether attach point/);
+    // unless the query makes it one
+    expect(go({ from: 'J', to: 'A', startAnchor: 'W', startPaidOutM: 2, extraAttach: ['W'] }).swapCount).toBe(
+      0,
+    );
   });
 });
 

@@ -3,7 +3,7 @@ import type { AppContext } from '../../context';
 import type { Db } from '../../db/client';
 import { stations } from '../../db/schema';
 import { notFound } from '../../lib/http-error';
-import { compileStation, type CompiledStation } from '@shared/compute/compiled-station';
+import { compileStation, isAttachKind, type CompiledStation } from '@shared/compute/compiled-station';
 import type { StationDocument } from '@shared/schemas/station';
 import { getStationSnapshot } from '../stations/stations.service';
 
@@ -14,6 +14,8 @@ import { getStationSnapshot } from '../stations/stations.service';
  */
 export class CompiledEntry {
   readonly nodeKeys: ReadonlySet<string>;
+  /** the station's own tether attach points */
+  readonly attachKeys: ReadonlySet<string>;
   private index: CompiledStation | null = null;
 
   constructor(
@@ -22,6 +24,7 @@ export class CompiledEntry {
     readonly doc: StationDocument,
   ) {
     this.nodeKeys = new Set(doc.nodes.map((n) => n.key));
+    this.attachKeys = new Set(doc.nodes.filter((n) => isAttachKind(n.kind)).map((n) => n.key));
   }
 
   get compiled(): CompiledStation {

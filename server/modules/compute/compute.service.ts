@@ -18,6 +18,7 @@ import {
   writeStation,
   type Editor,
 } from '../stations/stations.service';
+import { routeRequestProblems } from '@shared/compute/routes';
 import { routeOffPath } from './clip-builder';
 import { getCompiledStation, type CompiledEntry } from './compiled-cache';
 import type { AcceptSocketPlanInput, OrbitQuery } from './compute.schemas';
@@ -37,13 +38,40 @@ export function socketNode(doc: StationDocument, key: string, path: string): Sta
   return node as StationNode & { normal: Vec3 };
 }
 
-function checkRouteKeys(entry: CompiledEntry, request: RouteRequest) {
-  for (const key of [request.from, request.to]) if (!entry.nodeKeys.has(key)) throw unknownNode(key);
+/**
+ * The checks of a route request against the station, before any search: an unknown node key
+ * anywhere in it (ends, start anchor, extra attach points) is a 404 naming the key and its path,
+ * like an unknown end always was; a start anchor that is not an attach point, or a paid-out
+ * length not below the tether, is a 400 at its path. `at` is where the request sits in the body.
+ */
+function checkRouteRequest(entry: CompiledEntry, request: RouteRequest, at: string) {
+  const kindOf = (key: string) =>
+    entry.attachKeys.has(key) ? 'attach' : entry.nodeKeys.has(key) ? 'node' : undefined;
+  const problems = routeRequestProblems(request, entry.doc.settings.tetherLengthM, kindOf);
+  if (!problems.length) return;
+  const unknown = problems.filter((p) => p.kind === 'unknown-key');
+  const shown = unknown.length ? unknown : problems;
+  const details = shown.map((p) => ({ path: `${at}.${p.path}`, message: p.message }));
+  if (unknown.length) {
+    const key = requestKeyAt(request, unknown[0].path);
+    throw new HttpError('NOT_FOUND', `The station has no node "${key}".`, details);
+  }
+  throw badRequest(`The request is not valid: ${details[0].path} ${details[0].message}`, details);
 }
 
-/** A route on the main thread (plans, walkthroughs, and the routes endpoint without a pool). */
-export function routeOn(entry: CompiledEntry, request: RouteRequest): RouteResult {
-  checkRouteKeys(entry, request);
+/** The node key at a request path (`from`, `startAnchor`, `extraAttach.3`). */
+function requestKeyAt(request: RouteRequest, path: string): string {
+  const [field, index] = path.split('.');
+  if (field === 'extraAttach') return request.extraAttach![Number(index)];
+  return request[field as 'from' | 'to' | 'startAnchor']!;
+}
+
+/**
+ * A route on the main thread (plans, walkthroughs, and the routes endpoint without a pool); `at`
+ * is where the request sits in the body, for the paths of its errors.
+ */
+export function routeOn(entry: CompiledEntry, request: RouteRequest, at = 'body'): RouteResult {
+  checkRouteRequest(entry, request, at);
   return routeOffPath(entry.compiled, entry.doc, request);
 }
 
@@ -58,7 +86,7 @@ export function computeRoute(
 ): RouteResult | Promise<JsonText> {
   const entry = getCompiledStation(ctx, stationId);
   if (!ctx.routePool) return routeOn(entry, request);
-  checkRouteKeys(entry, request);
+  checkRouteRequest(entry, request, 'body');
   const station = `${ctx.config.databaseUrl}#${stationId}`;
   return ctx.routePool
     .route({ station, version: entry.version, doc: entry.doc, request })

@@ -188,7 +188,7 @@ export function routePlayback(
   spec: WalkthroughRouteSpec,
 ): RoutePlaybackResult {
   const entry = getCompiledStation(ctx, stationId);
-  const route = routeOn(entry, spec);
+  const route = routeOn(entry, spec, 'body.route');
   if (!route.feasible) return { ok: false, reason: route.reason, stationVersion: entry.version };
   const track = routeWalkthrough(route, positionFn(entry.doc));
   return {
