@@ -41,3 +41,31 @@ export const ErrorBodySchema = z.object({
   }),
 });
 export type ErrorBody = z.infer<typeof ErrorBodySchema>;
+
+/**
+ * A write named a version that is no longer current: the 409's details say which version is, and
+ * who made it when that is known. The `version` detail marks the refusal as a stale version (other
+ * 409s, a duplicate key say, carry none).
+ */
+export interface StaleVersion {
+  currentVersion: number;
+  changedBy: string | null;
+  changedAt: string | null;
+}
+
+export function staleVersionDetails(sentVersion: number, stale: StaleVersion): ErrorDetail[] {
+  return [
+    { path: 'version', message: `version ${sentVersion} is stale` },
+    { path: 'currentVersion', message: String(stale.currentVersion) },
+    ...(stale.changedBy ? [{ path: 'changedBy', message: stale.changedBy }] : []),
+    ...(stale.changedAt ? [{ path: 'changedAt', message: stale.changedAt }] : []),
+  ];
+}
+
+/** The stale version a 409's details describe, or null when they describe something else. */
+export function readStaleVersion(details: readonly ErrorDetail[]): StaleVersion | null {
+  const detail = (path: string) => details.find((d) => d.path === path)?.message ?? null;
+  const current = Number(detail('currentVersion'));
+  if (detail('version') === null || !Number.isInteger(current)) return null;
+  return { currentVersion: current, changedBy: detail('changedBy'), changedAt: detail('changedAt') };
+}

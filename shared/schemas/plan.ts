@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { DEFAULT_SETTINGS, FiniteSchema, KeySchema } from './station';
 import { RouteModeSchema } from './route';
+import { VersionSchema } from './version';
 
 /** The plan API contract (DESIGN §2 Plan and Task, §8 plans endpoints). Times in seconds. */
 
@@ -142,14 +143,11 @@ export const CreatePlanInputSchema = z.strictObject({
 export type CreatePlanInput = z.infer<typeof CreatePlanInputSchema>;
 
 /** PATCH body: any subset of the fields plus the `version` it was read at (stale → 409). */
-export const UpdatePlanInputSchema = z
-  .strictObject(planFields)
-  .partial()
-  .extend({
-    // null clears the override
-    betaDegOverride: planFields.betaDegOverride.nullable().optional(),
-    version: z.number().int('version must be a whole number').min(1, 'version must be at least 1'),
-  });
+export const UpdatePlanInputSchema = z.strictObject(planFields).partial().extend({
+  // null clears the override
+  betaDegOverride: planFields.betaDegOverride.nullable().optional(),
+  version: VersionSchema,
+});
 export type UpdatePlanInput = z.infer<typeof UpdatePlanInputSchema>;
 
 export const REVIEW_ACTIONS = ['submit', 'approve', 'return', 'comment'] as const;
@@ -181,7 +179,7 @@ export const PlanSchema = z.strictObject({
   ...CreatePlanInputSchema.shape,
   betaDegOverride: planFields.betaDegOverride.nullable().optional(),
   status: PlanStatusSchema,
-  version: z.number().int().min(1),
+  version: VersionSchema,
   authorId: IdSchema.nullable(),
   approverId: IdSchema.nullable().optional(),
   submittedAt: z.string().nullable().optional(),
@@ -191,6 +189,30 @@ export const PlanSchema = z.strictObject({
   reviewComments: z.array(ReviewCommentSchema).default([]),
 });
 export type Plan = z.infer<typeof PlanSchema>;
+
+/** The plan's scalar settings: stored together, edited and compared field by field. */
+export const PLAN_SETTING_KEYS = [
+  'routeMode',
+  'allowRide',
+  'orbitPhaseAtStartDeg',
+  'betaDegOverride',
+  'timeLimitSeconds',
+  'egressSeconds',
+  'ingressSeconds',
+] as const;
+type PlanSettingKey = (typeof PLAN_SETTING_KEYS)[number];
+
+/** The settings with "no beta override" as null, which survives JSON where undefined does not. */
+export type PlanSettings = Pick<Plan, Exclude<PlanSettingKey, 'betaDegOverride'>> & {
+  betaDegOverride: number | null;
+};
+
+export function planSettingsOf(
+  p: Pick<Plan, Exclude<PlanSettingKey, 'betaDegOverride'>> & { betaDegOverride?: number | null },
+): PlanSettings {
+  const settings = Object.fromEntries(PLAN_SETTING_KEYS.map((k) => [k, p[k]])) as PlanSettings;
+  return { ...settings, betaDegOverride: p.betaDegOverride ?? null };
+}
 
 /** A row of `GET /api/plans`. */
 export const PlanSummarySchema = PlanSchema.pick({

@@ -1,5 +1,6 @@
 import { z } from 'zod';
-import { FiniteSchema, KeySchema, Vec3Schema } from './station';
+import { FiniteSchema, KeySchema, Vec3Schema, type StationNode } from './station';
+import { VersionSchema } from './version';
 
 export const MAX_PLAN_TARGETS = 500;
 export const MIN_GRID_SPACING_M = 0.25;
@@ -79,3 +80,40 @@ export const SocketPlanResultSchema = z.object({
   candidateCount: z.number().int(),
 });
 export type SocketPlanResult = z.infer<typeof SocketPlanResultSchema>;
+
+const NonZeroVec3Schema = Vec3Schema.refine(
+  (v) => Math.hypot(...v) > 1e-9,
+  'a normal must not be the zero vector',
+);
+
+/**
+ * Body of `POST /api/stations/:id/socket-plan/accept`: the planned sockets to add to the model, with
+ * the station version the plan was computed on (a later edit makes the accept a 409).
+ */
+export const AcceptSocketPlanInputSchema = z.strictObject({
+  version: VersionSchema,
+  sockets: z
+    .array(
+      z.strictObject({
+        position: Vec3Schema,
+        normal: NonZeroVec3Schema,
+        key: KeySchema.optional(),
+        label: z.string().trim().max(200, 'label must be at most 200 characters').optional(),
+      }),
+    )
+    .min(1, 'give at least one socket')
+    .max(500, 'at most 500 sockets at once'),
+});
+export type AcceptSocketPlanInput = z.infer<typeof AcceptSocketPlanInputSchema>;
+
+/** A socket the accept added, joined by a hop edge to the nearest handrail node. */
+export interface AcceptedSocket extends StationNode {
+  /** the handrail node the new socket is joined to */
+  joinedTo: string;
+  hopM: number;
+}
+
+export interface AcceptSocketPlanResult {
+  version: number;
+  sockets: AcceptedSocket[];
+}

@@ -19,17 +19,14 @@ import {
   type StationNode,
   type StationSettings,
 } from './station';
+import { VersionSchema, VersionTextSchema } from './version';
 
 /**
  * Bodies of the station model edits. Every edit carries the station `version` the editor loaded;
  * the server refuses a stale one with 409 instead of overwriting someone else's change.
  */
-export const StationVersionSchema = z.number().int().positive();
 /** For DELETE, where the version travels in the query string. */
-export const VersionQuerySchema = z.object({ version: z.coerce.number().int().positive() });
-export const OptionalVersionQuerySchema = z.object({
-  version: z.coerce.number().int().positive().optional(),
-});
+export const VersionQuerySchema = z.object({ version: VersionTextSchema });
 
 export const StationIdParamsSchema = z.object({ id: z.coerce.number().int().positive() });
 export const StationKeyParamsSchema = StationIdParamsSchema.extend({ key: KeySchema });
@@ -40,7 +37,7 @@ export const StationEdgeParamsSchema = StationIdParamsSchema.extend({
 const label = z.string().max(200);
 const notes = z.string().max(4000);
 
-export const CreateNodeInputSchema = z.strictObject({ version: StationVersionSchema, node: NodeSchema });
+export const CreateNodeInputSchema = z.strictObject({ version: VersionSchema, node: NodeSchema });
 export type CreateNodeInput = z.infer<typeof CreateNodeInputSchema>;
 
 /** The key is a node's identity (edges and plans name it): rename by deleting and creating. */
@@ -53,12 +50,12 @@ export const NodeChangesSchema = z.strictObject({
   notes: notes.nullable().optional(),
 });
 export const UpdateNodeInputSchema = z.strictObject({
-  version: StationVersionSchema,
+  version: VersionSchema,
   node: NodeChangesSchema,
 });
 export type UpdateNodeInput = z.infer<typeof UpdateNodeInputSchema>;
 
-export const CreateEdgeInputSchema = z.strictObject({ version: StationVersionSchema, edge: EdgeSchema });
+export const CreateEdgeInputSchema = z.strictObject({ version: VersionSchema, edge: EdgeSchema });
 export type CreateEdgeInput = z.infer<typeof CreateEdgeInputSchema>;
 
 export const EdgeChangesSchema = z.strictObject({
@@ -73,13 +70,13 @@ export const EdgeChangesSchema = z.strictObject({
   label: label.nullable().optional(),
 });
 export const UpdateEdgeInputSchema = z.strictObject({
-  version: StationVersionSchema,
+  version: VersionSchema,
   edge: EdgeChangesSchema,
 });
 export type UpdateEdgeInput = z.infer<typeof UpdateEdgeInputSchema>;
 
 export const CreateHazardInputSchema = z.strictObject({
-  version: StationVersionSchema,
+  version: VersionSchema,
   hazard: HazardSchema,
 });
 export type CreateHazardInput = z.infer<typeof CreateHazardInputSchema>;
@@ -95,13 +92,13 @@ export const HazardChangesSchema = z.strictObject({
   max: Vec3Schema.optional(),
 });
 export const UpdateHazardInputSchema = z.strictObject({
-  version: StationVersionSchema,
+  version: VersionSchema,
   hazard: HazardChangesSchema,
 });
 export type UpdateHazardInput = z.infer<typeof UpdateHazardInputSchema>;
 
 export const CreateSegmentInputSchema = z.strictObject({
-  version: StationVersionSchema,
+  version: VersionSchema,
   segment: SegmentSchema,
 });
 export type CreateSegmentInput = z.infer<typeof CreateSegmentInputSchema>;
@@ -114,14 +111,14 @@ export const SegmentChangesSchema = z.strictObject({
   rotationDeg: Vec3Schema.nullable().optional(),
 });
 export const UpdateSegmentInputSchema = z.strictObject({
-  version: StationVersionSchema,
+  version: VersionSchema,
   segment: SegmentChangesSchema,
 });
 export type UpdateSegmentInput = z.infer<typeof UpdateSegmentInputSchema>;
 
 /** Name, orbit and settings; nested settings objects may be partial (merged over the current ones). */
 export const UpdateStationInputSchema = z.strictObject({
-  version: StationVersionSchema,
+  version: VersionSchema,
   name: z.string().trim().min(1, 'a station needs a name').max(200).optional(),
   orbit: OrbitSettingsSchema.partial().optional(),
   settings: z

@@ -4,6 +4,7 @@ import type { OrbitWindow } from '../compute/orbit';
 import type { CrewMember, PlanStatus } from './plan';
 import { RouteRequestSchema, type RouteMode } from './route';
 import type { Vec3 } from './station';
+import { VersionSchema, VersionTextSchema } from './version';
 
 /** The walkthrough API contract (DESIGN §2 Walkthrough). */
 
@@ -16,7 +17,6 @@ const NameSchema = z
   .trim()
   .min(1, 'name must not be empty')
   .max(200, 'name must be at most 200 characters');
-const VersionSchema = z.number().int('version must be a whole number').min(1, 'version must be at least 1');
 
 /** Step ids as `shared/compute/walkthrough.ts` makes them: `EV1-3`, `EV2-10`, `r-4`. */
 export const StepIdSchema = z
@@ -61,11 +61,7 @@ export const UpdateWalkthroughInputSchema = z.strictObject({
 export type UpdateWalkthroughInput = z.infer<typeof UpdateWalkthroughInputSchema>;
 
 export const DeleteWalkthroughQuerySchema = z.strictObject({
-  version: z.coerce
-    .number()
-    .int('version must be a whole number')
-    .min(1, 'version must be at least 1')
-    .optional(),
+  version: VersionTextSchema.optional(),
 });
 
 export type WalkthroughKind = 'plan' | 'route';

@@ -1,4 +1,10 @@
-import { ErrorBodySchema, type ErrorCode, type ErrorDetail } from '@shared/errors';
+import {
+  ErrorBodySchema,
+  readStaleVersion,
+  type ErrorCode,
+  type ErrorDetail,
+  type StaleVersion,
+} from '@shared/errors';
 import { paths } from '@/config/paths';
 
 export type ApiErrorCode = ErrorCode | 'NETWORK';
@@ -17,6 +23,11 @@ export class ApiError extends Error {
 
 export function isApiError(value: unknown): value is ApiError {
   return value instanceof ApiError;
+}
+
+/** A refusal because someone saved first (409 with the current version), or null for any other error. */
+export function staleVersionOf(error: unknown): StaleVersion | null {
+  return isApiError(error) && error.status === 409 ? readStaleVersion(error.details) : null;
 }
 
 const API_BASE = '/api';

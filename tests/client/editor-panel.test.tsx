@@ -1,6 +1,7 @@
 import { act } from 'react';
 import fc from 'fast-check';
 import { afterEach, describe, expect, it, vi } from 'vitest';
+import { staleVersionDetails } from '@shared/errors';
 import { StationDocumentSchema } from '@shared/schemas/station';
 import type { StationGraph } from '@shared/schemas/station-edits';
 import { EditPanel } from '@/features/station-editor/components/edit-panel';
@@ -74,8 +75,12 @@ function fakeStationApi(current: { version: number; by: string }) {
         {
           error: {
             code: 'CONFLICT',
-            message: `This station changed since you loaded it: you had version ${body.version}, it is now version ${current.version}, last changed by ${current.by} at 2026-01-01T10:00:00.000Z. Reload it and make your change again; nothing was saved.`,
-            details: [{ path: 'version', message: `stale: current version is ${current.version}` }],
+            message: `This station was changed since you loaded it: you had version ${body.version}, it is now version ${current.version}, last changed by ${current.by} at 2026-01-01T10:00:00.000Z. Reload it and make your change again; nothing was saved.`,
+            details: staleVersionDetails(body.version ?? 0, {
+              currentVersion: current.version,
+              changedBy: current.by,
+              changedAt: '2026-01-01T10:00:00.000Z',
+            }),
           },
         },
         { status: 409 },

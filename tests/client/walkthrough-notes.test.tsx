@@ -1,6 +1,7 @@
 import { act } from 'react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import type { WalkStep } from '@shared/compute/walkthrough';
+import { staleVersionDetails } from '@shared/errors';
 import { StepList } from '@/features/walkthrough/components/step-list';
 import type { Lane, ListedStep } from '@/features/walkthrough/lib/playback-model';
 import { render, until } from './render';
@@ -44,7 +45,11 @@ describe('trainer notes in the step list', () => {
       async () =>
         new Response(
           JSON.stringify({
-            error: { code: 'CONFLICT', message: 'The walkthrough was changed since you opened it' },
+            error: {
+              code: 'CONFLICT',
+              message: 'The walkthrough was changed since you loaded it',
+              details: staleVersionDetails(3, { currentVersion: 4, changedBy: null, changedAt: null }),
+            },
           }),
           {
             status: 409,

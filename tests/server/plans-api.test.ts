@@ -1,5 +1,6 @@
 import Papa from 'papaparse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { readStaleVersion } from '@shared/errors';
 import { buildStationDocument, FIXTURE_KEYS as K, stationDocumentFile } from '../factories/station-document';
 import { makeTestApp, type TestAgent, type TestApp } from '../setup/test-app';
 import { CSV_HEADER } from '../../server/modules/plans/plan-export.service';
@@ -199,6 +200,10 @@ describe('plans CRUD', () => {
     expect(stale.body.error.code).toBe('CONFLICT');
     expect(stale.body.error.message).toContain('version 2');
     expect(stale.body.error.message).toContain('Tomas Reyes');
+    expect(readStaleVersion(stale.body.error.details)).toMatchObject({
+      currentVersion: 2,
+      changedBy: 'Tomas Reyes',
+    });
     const now = (await planner.get(`/api/plans/${created.id}`)).body;
     expect(now).toMatchObject({ version: 2, title: 'Renamed' });
     expect(now.tasks).toHaveLength(1);

@@ -1,4 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { readStaleVersion } from '@shared/errors';
 import type { StationGraph } from '@shared/schemas/station-edits';
 import { onStationChanged } from '../../server/modules/stations/stations.service';
 import { buildStationDocument, FIXTURE_KEYS as K, stationDocumentFile } from '../factories/station-document';
@@ -279,6 +280,10 @@ describe('concurrency and permissions', () => {
     expect(stale.status).toBe(409);
     expect(stale.body.error.code).toBe('CONFLICT');
     expect(stale.body.error.message).toMatch(/now version 2, last changed by Ada Okafor/);
+    expect(readStaleVersion(stale.body.error.details)).toMatchObject({
+      currentVersion: 2,
+      changedBy: 'Ada Okafor',
+    });
     const staleDelete = await engineer.delete(`/api/stations/${id}/nodes/${K.anchorNear}?version=1`);
     expect(staleDelete.status).toBe(409);
     const g = await graph(id);

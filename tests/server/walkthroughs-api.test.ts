@@ -1,4 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { readStaleVersion } from '@shared/errors';
 import type { Role } from '@shared/auth/permissions';
 import { planWalkthrough, type CrewTrack } from '@shared/compute/walkthrough';
 import type { Vec3 } from '@shared/schemas/station';
@@ -204,6 +205,7 @@ describe('walkthroughs API', () => {
     expect(stale.status).toBe(409);
     expect(stale.body.error.code).toBe('CONFLICT');
     expect(stale.body.error.message).toMatch(/version 1.*version is 2/);
+    expect(readStaleVersion(stale.body.error.details)).toMatchObject({ currentVersion: 2, changedBy: null });
 
     // an empty note removes it; the other stays
     const cleared = await trainer

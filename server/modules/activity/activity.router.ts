@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import { ActivityQuerySchema } from '@shared/schemas/activity';
 import type { AppContext } from '../../context';
 import { defineRoute, mountRoutes } from '../../lib/route';
 import { recentActivity } from './activity.service';
@@ -9,7 +9,7 @@ export function activityRouter(ctx: AppContext) {
       method: 'get',
       path: '/',
       access: 'read',
-      input: { query: z.object({ limit: z.coerce.number().int().min(1).max(100).default(20) }) },
+      input: { query: ActivityQuerySchema },
       handler: (_req, _res, { query }) => recentActivity(ctx.db, query.limit),
     }),
   ]);

@@ -1,4 +1,5 @@
 import { desc } from 'drizzle-orm';
+import type { ActivityEntry } from '@shared/schemas/activity';
 import type { Db } from '../../db/client';
 import { activity } from '../../db/schema';
 
@@ -15,7 +16,7 @@ export function recordActivity(db: Db, entry: ActivityInput) {
     .run();
 }
 
-export function recentActivity(db: Db, limit = 20) {
+export function recentActivity(db: Db, limit = 20): ActivityEntry[] {
   return db
     .select({
       id: activity.id,

@@ -4,7 +4,8 @@ import { defineRoute, mountRoutes } from '../../lib/route';
 import { IdParamsSchema } from '@shared/schemas/auth';
 import { RouteRequestSchema } from '@shared/schemas/route';
 import { ReachRequestSchema, SocketPlanRequestSchema } from '@shared/schemas/sockets';
-import { AcceptSocketPlanInputSchema, OrbitQuerySchema } from './compute.schemas';
+import { AcceptSocketPlanInputSchema } from '@shared/schemas/sockets';
+import { OrbitQuerySchema } from './compute.schemas';
 import { acceptSocketPlan, computeReach, computeRoute, computeSocketPlan, orbitFor } from './compute.service';
 
 /** A computation on one station, open to every signed-in role: the body is parsed with `body`. */

@@ -8,7 +8,14 @@ import { planSockets, type SocketCandidate } from '@shared/compute/socket-planne
 import { gridCandidates } from '@shared/compute/truss-faces';
 import { orbitSummary } from '@shared/compute/orbit';
 import type { RouteRequest, RouteResult } from '@shared/schemas/route';
-import type { ReachRequest, ReachResult, SocketPlanRequest, SocketPlanResult } from '@shared/schemas/sockets';
+import type {
+  AcceptSocketPlanInput,
+  AcceptSocketPlanResult,
+  ReachRequest,
+  ReachResult,
+  SocketPlanRequest,
+  SocketPlanResult,
+} from '@shared/schemas/sockets';
 import type { StationDocument, StationEdge, StationNode, Vec3 } from '@shared/schemas/station';
 import {
   edgeToRow,
@@ -21,7 +28,7 @@ import {
 import { routeRequestProblems } from '@shared/compute/routes';
 import { routeOffPath } from './clip-builder';
 import { getCompiledStation, type CompiledEntry } from './compiled-cache';
-import type { AcceptSocketPlanInput, OrbitQuery } from './compute.schemas';
+import type { OrbitQuery } from './compute.schemas';
 
 const unknownNode = (key: string, what = 'node') =>
   new HttpError('NOT_FOUND', `The station has no ${what} "${key}".`);
@@ -175,7 +182,7 @@ export function acceptSocketPlan(
   stationId: number,
   input: AcceptSocketPlanInput,
   editor: Editor,
-) {
+): AcceptSocketPlanResult {
   return writeStation(ctx, { stationId, expectedVersion: input.version, editor }, (tx) => {
     const doc = loadDocument(tx, findStationRow(tx, stationId));
     const onHandrail = new Set(doc.edges.filter((e) => e.kind === 'handrail').flatMap((e) => [e.from, e.to]));

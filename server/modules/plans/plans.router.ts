@@ -11,6 +11,7 @@ import {
   ReviewActionInputSchema,
   UpdatePlanInputSchema,
 } from '@shared/schemas/plan';
+import { VersionSchema, VersionTextSchema } from '@shared/schemas/version';
 import {
   approvePlan,
   createPlan,
@@ -24,7 +25,6 @@ import {
 import { planTimeline } from './plan-timeline.service';
 import { exportFileName, timelineCsv, timelinePdf } from './plan-export.service';
 
-const VersionSchema = z.number().int('version must be a whole number').min(1, 'version must be at least 1');
 const ReviewBodySchema = ReviewActionInputSchema.extend({ version: VersionSchema });
 const ReturnBodySchema = ReturnPlanInputSchema.extend({ version: VersionSchema });
 const ListQuerySchema = z.strictObject({
@@ -32,7 +32,7 @@ const ListQuerySchema = z.strictObject({
   stationId: z.coerce.number().int().positive().optional(),
 });
 const DeleteQuerySchema = z.strictObject({
-  version: z.coerce.number().int('version must be a whole number').min(1, 'version must be at least 1'),
+  version: VersionTextSchema,
 });
 
 function reviewRoute(

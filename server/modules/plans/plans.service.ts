@@ -12,16 +12,18 @@ import {
   tasks,
   users,
 } from '../../db/schema';
-import { badRequest, conflict, forbidden, notFound } from '../../lib/http-error';
+import { badRequest, conflict, forbidden, notFound, staleVersion } from '../../lib/http-error';
 import type { ErrorDetail } from '@shared/errors';
-import type {
-  CreatePlanInput,
-  ManifestItem,
-  Plan,
-  PlanStatus,
-  ReviewComment,
-  Task,
-  UpdatePlanInput,
+import {
+  PLAN_SETTING_KEYS,
+  planSettingsOf,
+  type CreatePlanInput,
+  type ManifestItem,
+  type PlanSettings,
+  type PlanStatus,
+  type ReviewComment,
+  type Task,
+  type UpdatePlanInput,
 } from '@shared/schemas/plan';
 import type { StationDocument } from '@shared/schemas/station';
 import { recordActivity } from '../activity/activity.service';
@@ -36,27 +38,6 @@ export interface Actor {
   id: number;
   name: string;
 }
-
-/** The plan's scalar settings, kept together in plans.settings_json. */
-interface PlanSettings {
-  routeMode: Plan['routeMode'];
-  allowRide: boolean;
-  orbitPhaseAtStartDeg: number;
-  betaDegOverride: number | null;
-  timeLimitSeconds: number;
-  egressSeconds: number;
-  ingressSeconds: number;
-}
-
-const SETTING_KEYS = [
-  'routeMode',
-  'allowRide',
-  'orbitPhaseAtStartDeg',
-  'betaDegOverride',
-  'timeLimitSeconds',
-  'egressSeconds',
-  'ingressSeconds',
-] as const satisfies readonly (keyof PlanSettings)[];
 
 const author = alias(users, 'author');
 const approver = alias(users, 'approver');
@@ -280,15 +261,7 @@ function audit(
 export function createPlan(ctx: AppContext, input: CreatePlanInput, actor: Actor): PlanView {
   const doc = stationDocFor(ctx, input.stationId);
   assertKeys(doc, input.tasks);
-  const settings: PlanSettings = {
-    routeMode: input.routeMode,
-    allowRide: input.allowRide,
-    orbitPhaseAtStartDeg: input.orbitPhaseAtStartDeg,
-    betaDegOverride: input.betaDegOverride ?? null,
-    timeLimitSeconds: input.timeLimitSeconds,
-    egressSeconds: input.egressSeconds,
-    ingressSeconds: input.ingressSeconds,
-  };
+  const settings = planSettingsOf(input);
   const plan = ctx.db.transaction((tx) => {
     const db = tx as unknown as Db;
     const row = db
@@ -330,14 +303,11 @@ function assertVersion(db: Db, plan: PlanView, version: number) {
     .where(eq(planAudit.planId, plan.id))
     .orderBy(desc(planAudit.id))
     .get();
-  const who = last?.name ? ` by ${last.name} at ${last.at}` : '';
-  throw conflict(
-    `The plan was changed${who} since you read it: you had version ${version}, it is now version ${plan.version}. Reload it and make your change again.`,
-    [
-      { path: 'version', message: `current version is ${plan.version}` },
-      ...(last?.name ? [{ path: 'changedBy', message: last.name }] : []),
-    ],
-  );
+  throw staleVersion('The plan', version, {
+    currentVersion: plan.version,
+    changedBy: last?.name ?? null,
+    changedAt: last?.name ? last.at : null,
+  });
 }
 
 const LOCKED_MESSAGE: Record<PlanStatus, string> = {
@@ -366,8 +336,8 @@ export function updatePlan(ctx: AppContext, id: number, input: UpdatePlanInput, 
   if (input.stationId !== undefined || input.tasks !== undefined)
     assertKeys(stationDocFor(ctx, stationId), nextTasks);
 
-  const settings: PlanSettings = { ...pickSettings(current) };
-  for (const k of SETTING_KEYS)
+  const settings: PlanSettings = planSettingsOf(current);
+  for (const k of PLAN_SETTING_KEYS)
     if (input[k] !== undefined) (settings as unknown as Record<string, unknown>)[k] = input[k];
   const plan = ctx.db.transaction((tx) => {
     const db = tx as unknown as Db;
@@ -388,18 +358,6 @@ export function updatePlan(ctx: AppContext, id: number, input: UpdatePlanInput, 
     return after;
   });
   return plan;
-}
-
-function pickSettings(p: PlanView): PlanSettings {
-  return {
-    routeMode: p.routeMode,
-    allowRide: p.allowRide,
-    orbitPhaseAtStartDeg: p.orbitPhaseAtStartDeg,
-    betaDegOverride: p.betaDegOverride ?? null,
-    timeLimitSeconds: p.timeLimitSeconds,
-    egressSeconds: p.egressSeconds,
-    ingressSeconds: p.ingressSeconds,
-  };
 }
 
 export function deletePlan(ctx: AppContext, id: number, version: number, actor: Actor) {

@@ -20,6 +20,7 @@ import {
   UpdateStationInputSchema,
   VersionQuerySchema,
 } from '@shared/schemas/station-edits';
+import { VersionTextSchema } from '@shared/schemas/version';
 import { importStationCsv } from './station-csv.service';
 import * as edits from './station-edits.service';
 import {
@@ -39,7 +40,7 @@ export const STATION_FILE_MAX_BYTES = 20 * MB;
 export const CSV_FILE_MAX_BYTES = 10 * MB;
 
 /** The `version` of a multipart form: a form field or `?version=` (a field wins). */
-const MultipartVersionSchema = z.object({ version: z.coerce.number().int().positive().optional() });
+const MultipartVersionSchema = z.object({ version: VersionTextSchema.optional() });
 
 function uploadedFile(req: Request, field: string): Express.Multer.File | undefined {
   if (req.file?.fieldname === field) return req.file;

@@ -5,7 +5,7 @@ import type { AppContext } from '../../context';
 import type { Db } from '../../db/client';
 import * as schema from '../../db/schema';
 import { edges, hazards, nodes, segments, stationAudit, stations, users } from '../../db/schema';
-import { HttpError, badRequest, conflict, notFound } from '../../lib/http-error';
+import { HttpError, badRequest, notFound, staleVersion } from '../../lib/http-error';
 import { recordActivity } from '../activity/activity.service';
 import {
   StationSettingsSchema,
@@ -349,13 +349,12 @@ export interface WriteRequest {
   editor: Editor;
 }
 
-function staleVersion(db: Tx, row: StationRow, expected: number): HttpError {
-  const who = userRef(db, row.updatedBy);
-  return conflict(
-    `This station changed since you loaded it: you had version ${expected}, it is now version ${row.version}` +
-      `${who ? `, last changed by ${who.name}` : ''} at ${row.updatedAt}. Reload it and make your change again; nothing was saved.`,
-    [{ path: 'version', message: `stale: current version is ${row.version}` }],
-  );
+function staleStation(db: Tx, row: StationRow, expected: number): HttpError {
+  return staleVersion('This station', expected, {
+    currentVersion: row.version,
+    changedBy: userRef(db, row.updatedBy)?.name ?? null,
+    changedAt: row.updatedAt,
+  });
 }
 
 export function problemsError(message: string, problems: DocumentProblem[]): HttpError {
@@ -379,7 +378,7 @@ export function writeStation<R>(
   const { outcome, version, name } = ctx.db.transaction((tx) => {
     const row = findStationRow(tx, req.stationId);
     if (req.expectedVersion !== undefined && req.expectedVersion !== row.version)
-      throw staleVersion(tx, row, req.expectedVersion);
+      throw staleStation(tx, row, req.expectedVersion);
     const outcome = change(tx, row);
     if (outcome.revalidate) {
       const current = findStationRow(tx, req.stationId);
@@ -392,7 +391,7 @@ export function writeStation<R>(
       .set({ version, updatedBy: req.editor.id, updatedAt: sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))` })
       .where(and(eq(stations.id, row.id), eq(stations.version, row.version)))
       .run();
-    if (bumped.changes !== 1) throw staleVersion(tx, findStationRow(tx, row.id), row.version);
+    if (bumped.changes !== 1) throw staleStation(tx, findStationRow(tx, row.id), row.version);
     tx.insert(stationAudit)
       .values({
         stationId: row.id,

@@ -2,7 +2,7 @@ import { and, desc, eq } from 'drizzle-orm';
 import type { AppContext } from '../../context';
 import type { Db } from '../../db/client';
 import { plans, stations, users, walkthroughs } from '../../db/schema';
-import { badRequest, conflict, notFound } from '../../lib/http-error';
+import { badRequest, notFound, staleVersion } from '../../lib/http-error';
 import { planWalkthrough, routeWalkthrough, type CrewTrack } from '@shared/compute/walkthrough';
 import type { CrewMember } from '@shared/schemas/plan';
 import type { StationDocument, Vec3 } from '@shared/schemas/station';
@@ -294,10 +294,11 @@ export function createWalkthrough(
 }
 
 function staleError(current: Row, version: number) {
-  return conflict(
-    `The walkthrough was changed since you opened it (last saved at ${current.updatedAt}): you have version ${version}, the current version is ${current.version}. Reload it to see the other changes, then make yours again.`,
-    [{ path: 'version', message: `current version is ${current.version}` }],
-  );
+  return staleVersion('The walkthrough', version, {
+    currentVersion: current.version,
+    changedBy: null,
+    changedAt: current.updatedAt,
+  });
 }
 
 export function updateWalkthrough(

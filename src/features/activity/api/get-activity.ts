@@ -1,13 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { ActivityEntry } from '@shared/schemas/activity';
 import { api } from '@/lib/api-client';
-
-export interface ActivityEntry {
-  id: number;
-  kind: string;
-  summary: string;
-  link: string | null;
-  createdAt: string;
-}
 
 export const activityKeys = {
   all: ['activity'] as const,

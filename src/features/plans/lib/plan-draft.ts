@@ -1,40 +1,25 @@
-import type { ManifestItem, Task, UpdatePlanInput } from '@shared/schemas/plan';
+import {
+  PLAN_SETTING_KEYS,
+  planSettingsOf,
+  type ManifestItem,
+  type PlanSettings,
+  type Task,
+  type UpdatePlanInput,
+} from '@shared/schemas/plan';
 import { formatElapsed, formatLength } from '@shared/compute/units';
 import type { PlanView } from '../types';
 
 /** The fields the editor changes; the station stays fixed once tasks name its nodes. */
-export const DRAFT_KEYS = [
-  'title',
-  'date',
-  'crew',
-  'routeMode',
-  'allowRide',
-  'orbitPhaseAtStartDeg',
-  'betaDegOverride',
-  'timeLimitSeconds',
-  'egressSeconds',
-  'ingressSeconds',
-  'tasks',
-  'manifest',
-] as const;
+export const DRAFT_KEYS = ['title', 'date', 'crew', ...PLAN_SETTING_KEYS, 'tasks', 'manifest'] as const;
 
-export type DraftKey = (typeof DRAFT_KEYS)[number];
-export type PlanDraft = Pick<PlanView, Exclude<DraftKey, 'betaDegOverride'>> & {
-  betaDegOverride: number | null;
-};
+export type PlanDraft = Pick<PlanView, 'title' | 'date' | 'crew' | 'tasks' | 'manifest'> & PlanSettings;
 
 export function draftFromPlan(plan: PlanView): PlanDraft {
   return {
     title: plan.title,
     date: plan.date,
     crew: structuredClone(plan.crew),
-    routeMode: plan.routeMode,
-    allowRide: plan.allowRide,
-    orbitPhaseAtStartDeg: plan.orbitPhaseAtStartDeg,
-    betaDegOverride: plan.betaDegOverride ?? null,
-    timeLimitSeconds: plan.timeLimitSeconds,
-    egressSeconds: plan.egressSeconds,
-    ingressSeconds: plan.ingressSeconds,
+    ...planSettingsOf(plan),
     tasks: structuredClone(plan.tasks),
     manifest: structuredClone(plan.manifest),
   };

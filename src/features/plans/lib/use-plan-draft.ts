@@ -1,7 +1,7 @@
 import { useCallback, useEffect, useState } from 'react';
 import { useQueryClient } from '@tanstack/react-query';
 import { UpdatePlanInputSchema } from '@shared/schemas/plan';
-import { isApiError } from '@/lib/api-client';
+import { staleVersionOf } from '@/lib/api-client';
 import { getPlan } from '../api/get-plan';
 import { planKeys } from '../api/keys';
 import { useUpdatePlan } from '../api/update-plan';
@@ -54,13 +54,12 @@ export function usePlanDraft(plan: PlanView, editable: boolean) {
       {
         onSuccess: (saved) => setBase({ draft: sent, version: saved.version }),
         onError: async (error) => {
-          if (!isApiError(error) || error.status !== 409) return;
-          const stale = error.details.find((d) => d.path === 'version');
+          const stale = staleVersionOf(error);
           if (!stale) return;
           const current = await getPlan(plan.id);
           setConflict({
             version: current.version,
-            changedBy: error.details.find((d) => d.path === 'changedBy')?.message ?? null,
+            changedBy: stale.changedBy,
             differences: describeDifferences(sent, draftFromPlan(current)),
             current,
           });

@@ -1,30 +1,12 @@
 import type { QueryKey } from '@tanstack/react-query';
-import type { StationNode, Vec3 } from '@shared/schemas/station';
+import type { AcceptSocketPlanInput, AcceptSocketPlanResult } from '@shared/schemas/sockets';
 import { api } from '@/lib/api-client';
 import { useInvalidatingMutation } from '@/lib/mutation';
-
-export interface AcceptSocketPlanInput {
-  stationId: number;
-  /** the station version the plan was computed on: a later edit makes the accept a 409 */
-  version: number;
-  sockets: { position: Vec3; normal: Vec3; key?: string; label?: string }[];
-}
-
-export interface AcceptedSocket extends StationNode {
-  /** the handrail node the new socket is joined to by a hop */
-  joinedTo: string;
-  hopM: number;
-}
-
-export interface AcceptSocketPlanResult {
-  version: number;
-  sockets: AcceptedSocket[];
-}
 
 export function acceptSocketPlan({
   stationId,
   ...body
-}: AcceptSocketPlanInput): Promise<AcceptSocketPlanResult> {
+}: AcceptSocketPlanInput & { stationId: number }): Promise<AcceptSocketPlanResult> {
   return api.post(`/stations/${stationId}/socket-plan/accept`, body);
 }
 

@@ -1,6 +1,10 @@
 import { useMemo, useState, type ReactNode } from 'react';
 import type { QueryKey } from '@tanstack/react-query';
-import { SocketPlanRequestSchema, type SocketPlanRequest } from '@shared/schemas/sockets';
+import {
+  SocketPlanRequestSchema,
+  type AcceptSocketPlanResult,
+  type SocketPlanRequest,
+} from '@shared/schemas/sockets';
 import type { NodeKind, Vec3 } from '@shared/schemas/station';
 import { formatLength, parseLength, type LengthUnit } from '@shared/compute/units';
 import { Alert } from '@/components/ui/alert';
@@ -8,10 +12,10 @@ import { Button, focusRing } from '@/components/ui/button';
 import { Input } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import { Spinner } from '@/components/ui/spinner';
-import { apiErrorMessage, isApiError } from '@/lib/api-client';
+import { apiErrorMessage, staleVersionOf } from '@/lib/api-client';
 import { useCan } from '@/lib/authorization';
 import { cn } from '@/lib/cn';
-import { useAcceptSocketPlan, type AcceptSocketPlanResult } from '../api/accept-socket-plan';
+import { useAcceptSocketPlan } from '../api/accept-socket-plan';
 import { useSocketPlan } from '../api/get-socket-plan';
 import {
   assignmentRows,
@@ -170,7 +174,7 @@ export function useSocketPlanner(
     setRun({ request: checked.data, version: station.version, targets, unit });
   };
 
-  const conflict = isApiError(accept.error) && accept.error.status === 409;
+  const conflict = staleVersionOf(accept.error) !== null;
   const newCount = views.filter((v) => v.isNew).length;
 
   const controls = (

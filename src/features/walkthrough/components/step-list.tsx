@@ -6,7 +6,7 @@ import { MAX_NOTE_LENGTH, type WalkthroughNotes } from '@shared/schemas/walkthro
 import { Alert } from '@/components/ui/alert';
 import { Button, focusRing } from '@/components/ui/button';
 import { controlClass } from '@/components/ui/input';
-import { isApiError } from '@/lib/api-client';
+import { isApiError, staleVersionOf } from '@/lib/api-client';
 import { cn } from '@/lib/cn';
 import { walkthroughKeys } from '../api/keys';
 import { useUpdateWalkthrough } from '../api/update-walkthrough';
@@ -67,7 +67,7 @@ function NoteEditor({
   const [text, setText] = useState(initial);
   const queryClient = useQueryClient();
   const save = useUpdateWalkthrough({ onSuccess: onDone });
-  const stale = isApiError(save.error) && save.error.status === 409;
+  const stale = staleVersionOf(save.error) !== null;
   return (
     <form
       className="mt-2 space-y-2"
