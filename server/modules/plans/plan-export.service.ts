@@ -1,4 +1,4 @@
-import Papa from 'papaparse';
+import { toCsv } from '../../lib/csv';
 import { buildCueCardPdf, type CueCardDocument, type CueStep } from '../../lib/pdf';
 import { formatElapsed } from '@shared/compute/units';
 import type { TimelineBlock } from '@shared/compute/timeline';
@@ -48,7 +48,7 @@ export function timelineCsv(plan: PlanView, timeline: PlanTimeline): string {
     }
   }
   // CRLF per RFC 4180; a typed title starting with = + - @ must not run as a spreadsheet formula
-  return Papa.unparse({ fields: CSV_HEADER, data: rows }, { newline: '\r\n', escapeFormulae: true });
+  return toCsv(CSV_HEADER, rows);
 }
 
 /** A file name from the plan title: letters, digits and dashes only. */
