@@ -8,6 +8,11 @@ export interface PlanView extends Plan {
   stationName: string;
   authorName: string | null;
   approverName: string | null;
+  /**
+   * Who changed the plan since it was last approved (since it was created, if never): none of them
+   * may approve it, its author included.
+   */
+  editors: { id: number; name: string | null }[];
 }
 
 /** A row of `GET /api/plans`. */

@@ -84,6 +84,7 @@ function planView(overrides: Partial<PlanView> = {}): PlanView {
     stationName: 'Line Station',
     authorName: 'Priya',
     approverName: null,
+    editors: [{ id: 1, name: 'Priya' }],
     ...overrides,
   };
 }

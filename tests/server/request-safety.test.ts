@@ -53,3 +53,41 @@ describe('plan CSV export', () => {
     for (const cell of cells) expect(cell, JSON.stringify(cell)).not.toMatch(/^[=+\-@\t\r\n]/);
   });
 });
+
+describe('four-eyes review', () => {
+  it('nobody who changed the submitted plan approves it: planner B edits A’s plan, submits it and cannot approve it', async () => {
+    const a = await t.agent('planner');
+    const b = await t.agent('planner2');
+    const created = await a.post('/api/plans').send(planBody('Four eyes'));
+    expect(created.status).toBe(201);
+    const id = created.body.id;
+    const edited = await b.patch(`/api/plans/${id}`).send({
+      version: created.body.version,
+      tasks: [{ ...planBody('x').tasks[0], durationSeconds: 1200 }],
+    });
+    expect(edited.status, JSON.stringify(edited.body)).toBe(200);
+    expect(edited.body.editors.map((e: { name: string }) => e.name).sort()).toEqual([
+      'Priya Lindqvist',
+      'Tomas Reyes',
+    ]);
+    const submitted = await b.post(`/api/plans/${id}/submit`).send({ version: edited.body.version });
+    expect(submitted.status).toBe(200);
+    const approve = (agent: typeof a, version: number) =>
+      agent.post(`/api/plans/${id}/approve`).send({ version });
+    const byB = await approve(b, submitted.body.version);
+    expect(byB.status).toBe(403);
+    expect(byB.body.error.message).toMatch(/changed this plan/);
+    expect((await approve(a, submitted.body.version)).status).toBe(403);
+
+    // someone who changed nothing approves; once approved and reopened, B's old edit was reviewed
+    const admin = await t.agent('admin');
+    const approved = await approve(admin, submitted.body.version);
+    expect(approved.status, JSON.stringify(approved.body)).toBe(200);
+    expect(approved.body.editors).toEqual([]);
+    const reopened = await admin
+      .post(`/api/plans/${id}/return`)
+      .send({ version: approved.body.version, comment: 'one more look' });
+    const resubmitted = await a.post(`/api/plans/${id}/submit`).send({ version: reopened.body.version });
+    expect((await approve(b, resubmitted.body.version)).status).toBe(200);
+  });
+});

@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, inArray, ne } from 'drizzle-orm';
+import { and, asc, desc, eq, gt, inArray, isNotNull, ne, notInArray } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
 import type { AppContext } from '../../context';
 import type { Db } from '../../db/client';
@@ -68,6 +68,38 @@ export function listPlans(db: Db, filter: { status?: PlanStatus; stationId?: num
     .where(where)
     .orderBy(desc(plans.updatedAt), desc(plans.id))
     .all();
+}
+
+/** Review steps: they move a plan along, they do not change what it says. */
+const REVIEW_ACTIONS: ReviewAction[] = ['submit', 'approve', 'return'];
+
+/**
+ * Everyone who changed the plan (created it, or any change that is not a review step) since it was
+ * last approved, or since it was created when it never was: the people who may not approve it.
+ */
+function planEditors(db: Db, planId: number): { id: number; name: string | null }[] {
+  const lastApproval =
+    db
+      .select({ id: planAudit.id })
+      .from(planAudit)
+      .where(and(eq(planAudit.planId, planId), eq(planAudit.action, 'approve')))
+      .orderBy(desc(planAudit.id))
+      .get()?.id ?? 0;
+  return db
+    .selectDistinct({ id: planAudit.userId, name: users.name })
+    .from(planAudit)
+    .leftJoin(users, eq(users.id, planAudit.userId))
+    .where(
+      and(
+        eq(planAudit.planId, planId),
+        gt(planAudit.id, lastApproval),
+        notInArray(planAudit.action, REVIEW_ACTIONS),
+        isNotNull(planAudit.userId),
+      ),
+    )
+    .orderBy(asc(planAudit.userId))
+    .all()
+    .map((e) => ({ id: e.id!, name: e.name }));
 }
 
 export function getPlan(db: Db, id: number): PlanView {
@@ -150,6 +182,7 @@ export function getPlan(db: Db, id: number): PlanView {
     createdAt: p.createdAt,
     updatedAt: p.updatedAt,
     reviewComments: comments,
+    editors: planEditors(db, id),
   };
 }
 
@@ -238,6 +271,12 @@ function writeManifest(db: Db, planId: number, list: readonly ManifestItem[]) {
   );
 }
 
+/** A plan as the audit keeps it: what it says, not who may approve it (that follows from the audit). */
+const snapshot = ({ editors: _editors, ...plan }: PlanView) => JSON.stringify(plan);
+
+/** The plan as it is after a change's audit row: its editors include the one who just changed it. */
+const withEditors = (db: Db, plan: PlanView): PlanView => ({ ...plan, editors: planEditors(db, plan.id) });
+
 function audit(
   db: Db,
   planId: number,
@@ -251,8 +290,8 @@ function audit(
       planId,
       userId,
       action,
-      beforeJson: before ? JSON.stringify(before) : null,
-      afterJson: after ? JSON.stringify(after) : null,
+      beforeJson: before ? snapshot(before) : null,
+      afterJson: after ? snapshot(after) : null,
       versionAfter: after?.version ?? (before ? before.version + 1 : 1),
     })
     .run();
@@ -282,7 +321,7 @@ export function createPlan(ctx: AppContext, input: CreatePlanInput, actor: Actor
     writeManifest(db, row.id, input.manifest);
     const created = getPlan(db, row.id);
     audit(db, row.id, actor.id, 'create', null, created);
-    return created;
+    return withEditors(db, created);
   });
   recordActivity(ctx.db, {
     userId: actor.id,
@@ -355,7 +394,7 @@ export function updatePlan(ctx: AppContext, id: number, input: UpdatePlanInput, 
     if (input.manifest) writeManifest(db, id, input.manifest);
     const after = getPlan(db, id);
     audit(db, id, actor.id, 'update', before, after);
-    return after;
+    return withEditors(db, after);
   });
   return plan;
 }
@@ -412,6 +451,11 @@ export function reviewTransition(
     if (action === 'approve' && before.authorId === actor.id) {
       throw forbidden('You wrote this plan, so you cannot approve it: another planner must review it.');
     }
+    if (action === 'approve' && before.editors.some((e) => e.id === actor.id)) {
+      throw forbidden(
+        'You changed this plan since it was last approved, so you cannot approve it: a planner who did not change it must review it.',
+      );
+    }
     const now = new Date().toISOString();
     bump(db, before, {
       status: rule.to,
@@ -424,7 +468,7 @@ export function reviewTransition(
       .run();
     const after = getPlan(db, id);
     audit(db, id, actor.id, action, before, after);
-    return after;
+    return withEditors(db, after);
   });
 }
 

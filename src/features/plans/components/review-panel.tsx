@@ -63,6 +63,7 @@ export function ReviewPanel({ plan, user, unsaved }: ReviewPanelProps) {
     },
   });
   const isAuthor = plan.authorId === user.id;
+  const changedIt = plan.editors.some((e) => e.id === user.id);
   const canSubmit = can(user, 'plans:submit') && plan.status === 'draft';
   const canReview = can(user, 'plans:review');
   const showApprove = canReview && plan.status === 'in-review';
@@ -112,7 +113,7 @@ export function ReviewPanel({ plan, user, unsaved }: ReviewPanelProps) {
             {showApprove && (
               <Button
                 onClick={() => run('approve')}
-                disabled={isAuthor}
+                disabled={isAuthor || changedIt}
                 isLoading={review.isPending && review.variables?.step === 'approve'}
               >
                 Approve
@@ -132,8 +133,11 @@ export function ReviewPanel({ plan, user, unsaved }: ReviewPanelProps) {
           {canSubmit && unsaved && (
             <p className="text-sm text-caution">Save your changes before submitting.</p>
           )}
-          {showApprove && isAuthor && (
-            <p className="text-sm text-text-muted">You wrote this plan; another planner must approve it.</p>
+          {showApprove && (isAuthor || changedIt) && (
+            <p className="text-sm text-text-muted">
+              {isAuthor ? 'You wrote this plan' : 'You changed this plan since it was last approved'}; a
+              planner who did not change it must approve it.
+            </p>
           )}
         </div>
       )}
