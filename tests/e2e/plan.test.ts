@@ -150,7 +150,7 @@ describe('plan: build, time, review and export an EVA plan in the built app', ()
     expect(await page.getByRole('button', { name: 'Add task' }).count()).toBe(0);
     // the author cannot approve their own plan, and is told why
     expect(await page.getByRole('button', { name: 'Approve' }).isDisabled()).toBe(true);
-    await page.getByText('You wrote this plan; another planner must approve it.').waitFor();
+    await page.getByText('You wrote this plan; a planner who did not change it must approve it.').waitFor();
     await signOut();
 
     await signIn('planner2@example.org');
