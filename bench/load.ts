@@ -109,6 +109,7 @@ async function startServer(routeWorkers: number): Promise<Server> {
       // the limiters would turn a load test into a rate-limit test
       API_REQUESTS_PER_MINUTE: '100000000',
       SIGN_IN_ATTEMPTS: '100000000',
+      SIGN_IN_ACCOUNT_ATTEMPTS: '100000000',
     },
     stdio: ['ignore', 'inherit', 'inherit'],
   });

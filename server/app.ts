@@ -13,6 +13,7 @@ import { HttpError } from './lib/http-error';
 import { createLogger } from './lib/logger';
 import { createMailer } from './lib/mail';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
+import { sameOriginWrites } from './middleware/same-origin';
 import { sessionMiddleware } from './middleware/session';
 import { configureClipBuilds, logClipBuild, stopClipBuilds } from './modules/compute/clip-builder';
 import { RoutePool } from './modules/compute/route-pool';
@@ -73,6 +74,8 @@ export async function createApp(options: CreateAppOptions = {}): Promise<AppInst
 
   const app = express();
   app.disable('x-powered-by');
+  // the client address (rate limits, sign-in lockout) behind a reverse proxy: TRUST_PROXY
+  app.set('trust proxy', config.trustProxy);
   app.use(
     helmet({ contentSecurityPolicy: { directives: CSP_DIRECTIVES }, crossOriginEmbedderPolicy: false }),
   );
@@ -103,6 +106,8 @@ export async function createApp(options: CreateAppOptions = {}): Promise<AppInst
     rateLimit({
       windowMs: 60_000,
       limit: config.apiRequestsPerMinute,
+      // X-Forwarded-For counts only from the proxies TRUST_PROXY names; any client may send one
+      validate: { xForwardedForHeader: false },
       standardHeaders: 'draft-8',
       legacyHeaders: false,
       handler: (_req, _res, next) =>
@@ -113,6 +118,7 @@ export async function createApp(options: CreateAppOptions = {}): Promise<AppInst
     res.setHeader('Cache-Control', 'no-store');
     next();
   });
+  app.use(sameOriginWrites(config.publicOrigin));
   app.use(express.json({ limit: '2mb' }));
   app.use(cookieParser());
   app.use(sessionMiddleware(ctx));

@@ -43,6 +43,19 @@ export const passwordTokens = sqliteTable(
   (t) => [index('password_tokens_user_idx').on(t.userId)],
 );
 
+/**
+ * Sessions ended by signing out before their token expired: the token's SHA-256 and when it would
+ * have expired (the row is dropped after that). A token listed here is no longer accepted.
+ */
+export const revokedSessions = sqliteTable(
+  'revoked_sessions',
+  {
+    tokenHash: text('token_hash').primaryKey(),
+    expiresAt: text('expires_at').notNull(),
+  },
+  (t) => [index('revoked_sessions_expires_idx').on(t.expiresAt)],
+);
+
 // ── Station model ───────────────────────────────────────────────────────────────────────────────
 
 export const stations = sqliteTable('stations', {

@@ -15,8 +15,10 @@ export interface AppConfig {
   publicOrigin: string;
   cookieSecure: boolean;
   sessionHours: number;
-  /** failed sign-ins allowed per window from one address before 429 */
+  /** failed sign-ins allowed per window for one e-mail from one address before 429 */
   signInAttempts: number;
+  /** failed sign-ins allowed per window for one e-mail from all addresses together before 429 */
+  signInAccountAttempts: number;
   signInWindowMs: number;
   /** requests per minute to the API from one address */
   apiRequestsPerMinute: number;
@@ -26,6 +28,8 @@ export interface AppConfig {
   routeQueueLimit: number;
   /** stations up to this many nodes build a clip graph within a route query; larger ones in a builder thread */
   routeClipInlineNodes: number;
+  /** Express `trust proxy`: false, a hop count, or addresses/subnets of the proxies */
+  trustProxy: boolean | number | string;
   logLevel: string;
   /** folder of the built client; null → API only */
   clientDir: string | null;
@@ -37,6 +41,23 @@ function intFromEnv(value: string | undefined, fallback: number): number {
   const n = Number(value);
   if (!Number.isFinite(n) || n < 0) throw new Error(`expected a non-negative number, got "${value}"`);
   return Math.floor(n);
+}
+
+/**
+ * TRUST_PROXY: unset, empty, `0` or `false` → no proxy is trusted (the client address is the
+ * socket's); a whole number → that many proxies in front; anything else → Express's list of
+ * trusted proxy addresses or subnets (`loopback`, `10.0.0.0/8, 192.168.1.7`…). `true` (trust any
+ * X-Forwarded-For) is refused: a client could then choose its own address.
+ */
+export function trustProxyFromEnv(value: string | undefined): boolean | number | string {
+  const v = (value ?? '').trim();
+  if (v === '' || v === '0' || v.toLowerCase() === 'false') return false;
+  if (/^\d+$/.test(v)) return Number(v);
+  if (v.toLowerCase() === 'true')
+    throw new Error(
+      "TRUST_PROXY=true would trust any client's X-Forwarded-For: give the number of proxies or their addresses",
+    );
+  return v;
 }
 
 /**
@@ -82,12 +103,14 @@ export function loadConfig(
     cookieSecure: overrides.cookieSecure ?? env.COOKIE_SECURE === '1',
     sessionHours: overrides.sessionHours ?? intFromEnv(env.SESSION_HOURS, 12),
     signInAttempts: overrides.signInAttempts ?? intFromEnv(env.SIGN_IN_ATTEMPTS, 10),
+    signInAccountAttempts: overrides.signInAccountAttempts ?? intFromEnv(env.SIGN_IN_ACCOUNT_ATTEMPTS, 30),
     signInWindowMs: overrides.signInWindowMs ?? intFromEnv(env.SIGN_IN_WINDOW_MS, 15 * 60 * 1000),
     apiRequestsPerMinute: overrides.apiRequestsPerMinute ?? intFromEnv(env.API_REQUESTS_PER_MINUTE, 1200),
     routeWorkers: overrides.routeWorkers ?? intFromEnv(env.ROUTE_WORKERS, defaultRouteWorkers()),
     routeQueueLimit: overrides.routeQueueLimit ?? intFromEnv(env.ROUTE_QUEUE_LIMIT, 64),
     routeClipInlineNodes:
       overrides.routeClipInlineNodes ?? intFromEnv(env.ROUTE_CLIP_INLINE_NODES, CLIP_BUILD_FREE_NODES),
+    trustProxy: overrides.trustProxy ?? trustProxyFromEnv(env.TRUST_PROXY),
     logLevel: overrides.logLevel ?? env.LOG_LEVEL ?? 'info',
     clientDir: overrides.clientDir !== undefined ? overrides.clientDir : path.resolve('dist'),
     mailFrom: overrides.mailFrom ?? env.MAIL_FROM ?? 'Tetherwise <no-reply@tetherwise.local>',

@@ -1,5 +1,7 @@
 import Papa from 'papaparse';
+import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { ErrorBodySchema } from '@shared/errors';
 import { FIXTURE_KEYS as K, stationDocumentFile } from '../factories/station-document';
 import { makeTestApp, type TestApp } from '../setup/test-app';
 
@@ -9,9 +11,12 @@ import { makeTestApp, type TestApp } from '../setup/test-app';
  */
 
 const ORIGIN = 'http://tetherwise.test';
+const PASSWORD = 'tetherwise-demo';
 
 let t: TestApp;
 let stationId: number;
+
+const errorCode = (body: unknown) => ErrorBodySchema.parse(body).error.code;
 
 beforeAll(async () => {
   t = await makeTestApp({ publicOrigin: ORIGIN });
@@ -89,5 +94,116 @@ describe('four-eyes review', () => {
       .send({ version: approved.body.version, comment: 'one more look' });
     const resubmitted = await a.post(`/api/plans/${id}/submit`).send({ version: reopened.body.version });
     expect((await approve(b, resubmitted.body.version)).status).toBe(200);
+  });
+});
+
+describe('cross-site requests', () => {
+  it('CSRF: a state-changing request from another origin is refused with 403, whatever SameSite lets through', async () => {
+    const engineer = await t.agent('engineer');
+    // a page on another port of the same host is same-site: the cookie would go with it
+    const sameSite = await engineer
+      .post('/api/stations/import')
+      .set('Origin', 'http://tetherwise.test:8080')
+      .set('Sec-Fetch-Site', 'same-site')
+      .attach('file', stationDocumentFile(), 'station.json');
+    expect(sameSite.status).toBe(403);
+    expect(errorCode(sameSite.body)).toBe('FORBIDDEN');
+    expect(sameSite.body.error.message).toMatch(/another site/);
+
+    const viewer = request.agent(t.app);
+    await viewer.post('/api/auth/sign-in').send({ email: 'viewer@example.org', password: PASSWORD });
+    const signOut = await viewer
+      .post('/api/auth/sign-out')
+      .set('Origin', 'https://evil.example')
+      .set('Content-Type', 'text/plain')
+      .send('x');
+    expect(signOut.status).toBe(403);
+    expect((await viewer.get('/api/auth/me')).status).toBe(200);
+    // a browser that sends only Sec-Fetch-Site, from elsewhere
+    expect((await viewer.post('/api/auth/sign-out').set('Sec-Fetch-Site', 'cross-site')).status).toBe(403);
+
+    // our own pages: the browser says same-origin, or the Origin is PUBLIC_ORIGIN
+    const own = await engineer
+      .post('/api/stations/import')
+      .set('Origin', ORIGIN)
+      .attach('file', stationDocumentFile(), 'station.json');
+    expect(own.status).toBe(201);
+    const sameOrigin = await engineer
+      .post('/api/stations/import')
+      .set('Origin', 'http://127.0.0.1:3000')
+      .set('Sec-Fetch-Site', 'same-origin')
+      .attach('file', stationDocumentFile(), 'station.json');
+    expect(sameOrigin.status).toBe(201);
+    // reading is never refused; and a client that is no browser sends neither header
+    expect((await viewer.get('/api/stations').set('Origin', 'https://evil.example')).status).toBe(200);
+    expect((await viewer.post('/api/auth/sign-out')).status).toBe(204);
+  });
+});
+
+describe('sign-in lockout', () => {
+  it('failures count per address and e-mail, and per e-mail: one guessed account locks neither the team nor the address', async () => {
+    const limited = await makeTestApp({
+      signInAttempts: 3,
+      signInAccountAttempts: 5,
+      trustProxy: 'loopback',
+    });
+    try {
+      const signIn = (email: string, password: string, from: string) =>
+        limited.anonymous().post('/api/auth/sign-in').set('X-Forwarded-For', from).send({ email, password });
+      const statuses = async (email: string, from: string, n: number) => {
+        const out: number[] = [];
+        for (let i = 0; i < n; i++) out.push((await signIn(email, 'wrong', from)).status);
+        return out;
+      };
+      expect(await statuses('viewer@example.org', '10.0.0.1', 4)).toEqual([401, 401, 401, 429]);
+      // the same address, another person: not locked (one office behind one address)
+      expect((await signIn('planner@example.org', PASSWORD, '10.0.0.1')).status).toBe(200);
+      expect((await signIn('Planner@Example.org', 'wrong', '10.0.0.1')).status).toBe(401);
+      // the guessed account from another address: two more failures reach its own limit
+      expect(await statuses('viewer@example.org', '10.0.0.2', 3)).toEqual([401, 401, 429]);
+      expect((await signIn('viewer@example.org', PASSWORD, '10.0.0.3')).status).toBe(429);
+      const locked = await signIn('viewer@example.org', PASSWORD, '10.0.0.3');
+      expect(errorCode(locked.body)).toBe('RATE_LIMITED');
+    } finally {
+      await limited.close();
+    }
+  });
+
+  it('without TRUST_PROXY a client cannot choose its address with X-Forwarded-For', async () => {
+    const limited = await makeTestApp({ signInAttempts: 2, signInAccountAttempts: 100 });
+    try {
+      const statuses: number[] = [];
+      for (let i = 0; i < 3; i++)
+        statuses.push(
+          (
+            await limited
+              .anonymous()
+              .post('/api/auth/sign-in')
+              .set('X-Forwarded-For', `10.0.1.${i}`)
+              .send({ email: 'viewer@example.org', password: 'wrong' })
+          ).status,
+        );
+      expect(statuses).toEqual([401, 401, 429]);
+    } finally {
+      await limited.close();
+    }
+  });
+});
+
+describe('sessions', () => {
+  it('sign-out revokes the token: a kept copy of the cookie no longer signs anyone in', async () => {
+    const agent = request.agent(t.app);
+    const signIn = await agent
+      .post('/api/auth/sign-in')
+      .send({ email: 'trainer@example.org', password: PASSWORD });
+    const cookie = signIn.headers['set-cookie'][0].split(';')[0];
+    const other = request.agent(t.app);
+    await other.post('/api/auth/sign-in').send({ email: 'trainer@example.org', password: PASSWORD });
+    expect((await t.anonymous().get('/api/auth/me').set('Cookie', cookie)).status).toBe(200);
+    expect((await agent.post('/api/auth/sign-out')).status).toBe(204);
+    const replayed = await t.anonymous().get('/api/auth/me').set('Cookie', cookie);
+    expect(replayed.status).toBe(401);
+    // only that session ended
+    expect((await other.get('/api/auth/me')).status).toBe(200);
   });
 });

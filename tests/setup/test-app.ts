@@ -35,6 +35,7 @@ export async function makeTestApp(overrides: Partial<AppConfig> = {}): Promise<T
       // tests make many requests quickly; the limiter itself has its own tests
       apiRequestsPerMinute: 100_000,
       signInAttempts: 1000,
+      signInAccountAttempts: 1000,
       ...overrides,
     },
     seed: true,

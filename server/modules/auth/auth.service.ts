@@ -1,8 +1,8 @@
 import crypto from 'node:crypto';
 import bcrypt from 'bcryptjs';
-import { and, eq, isNull, sql } from 'drizzle-orm';
+import { and, eq, isNull, lt, sql } from 'drizzle-orm';
 import type { Db } from '../../db/client';
-import { passwordTokens, users } from '../../db/schema';
+import { passwordTokens, revokedSessions, users } from '../../db/schema';
 import { HttpError } from '../../lib/http-error';
 import type { User } from '@shared/schemas/auth';
 import type { Role } from '@shared/auth/permissions';
@@ -43,6 +43,28 @@ export function endAllSessions(db: Db, userId: number) {
 }
 
 export const hashToken = (token: string) => crypto.createHash('sha256').update(token).digest('hex');
+
+export function isSessionRevoked(db: Db, token: string): boolean {
+  return (
+    db
+      .select({ h: revokedSessions.tokenHash })
+      .from(revokedSessions)
+      .where(eq(revokedSessions.tokenHash, hashToken(token)))
+      .get() !== undefined
+  );
+}
+
+/** Refuses this one token from now until it would have expired anyway; rows past that are dropped. */
+export function revokeSession(db: Db, token: string, expiresAt: Date) {
+  const now = new Date().toISOString();
+  db.transaction((tx) => {
+    tx.delete(revokedSessions).where(lt(revokedSessions.expiresAt, now)).run();
+    tx.insert(revokedSessions)
+      .values({ tokenHash: hashToken(token), expiresAt: expiresAt.toISOString() })
+      .onConflictDoNothing()
+      .run();
+  });
+}
 
 export function newToken(): string {
   return crypto.randomBytes(32).toString('base64url');
