@@ -1,8 +1,5 @@
-export {
-  useStationNotes,
-  NOTES_PANEL_ID,
-  type NotesScreenContext,
-  type StationNotes,
-} from './components/use-station-notes';
 export { AnnotationsPanel } from './components/annotations-panel';
 export { AnnotationPins } from './components/annotation-pins';
+
+/** The Station screen's tab id for the notes, which a click on a pin brings to the front. */
+export const NOTES_PANEL_ID = 'annotations';

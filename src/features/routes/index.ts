@@ -1,2 +1,3 @@
-export { useRouteFinder, type RouteFinder, type RouteFinderStation } from './components/route-finder';
-export type { ScenePieces } from './components/route-overlay';
+export { useRouteFinder, type RouteFinder, type RouteFinderStation } from './lib/use-route-finder';
+export { RouteFinderPanel } from './components/route-finder-panel';
+export { RouteOverlay } from './components/route-overlay';

@@ -1,7 +1,7 @@
 export { StationScene, type StationSceneProps } from './components/station-scene';
 export { SceneToolbar, LAYER_LABELS } from './components/scene-toolbar';
 export { SceneLegend } from './components/scene-legend';
-export { PathLine, Marker, TranslucentSphere, SceneLabel } from './components/pieces';
+export { PathLine, Marker, TranslucentSphere, SceneLabel, scenePieces } from './components/pieces';
 export { useSceneApi, type SceneApi } from './components/scene-api';
 export { edgeSelectionKey, type SceneSelection } from './components/highlights';
 export { ALL_LAYERS_ON, type LayerId, type SceneLayers, type SceneStation } from './builders/station-objects';

@@ -1,2 +1,1 @@
-export { useStationEditor, type EditorScreenContext } from './components/use-station-editor';
 export { EditPanel, type EditPanelProps } from './components/edit-panel';

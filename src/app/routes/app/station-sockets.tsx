@@ -11,13 +11,18 @@ import { ApiError } from '@/lib/api-client';
 import { requireUser } from '@/lib/authorization';
 import { getPlanQueryOptions } from '@/features/plans/api/get-plan';
 import { usePlans } from '@/features/plans/api/get-plans';
-import { Marker, PathLine, StationScene, TranslucentSphere, type SceneApi } from '@/features/scene-3d';
+import { StationScene, scenePieces, type SceneApi } from '@/features/scene-3d';
 import { getStationGraphQueryOptions, useStationGraph } from '@/features/stations/api/get-station-graph';
 import { stationKeys } from '@/features/stations/api/keys';
-import { useSocketPlanner, YawPitchDiagram, type SocketPlannerStation } from '@/features/sockets';
+import {
+  SocketPlanResults,
+  SocketPlannerControls,
+  SocketPlannerOverlay,
+  useSocketPlanner,
+  YawPitchDiagram,
+  type SocketPlannerStation,
+} from '@/features/sockets';
 import type { StationGraph } from '@shared/schemas/station-edits';
-
-const PIECES = { PathLine, Marker, TranslucentSphere };
 
 function stationIdOf(params: { stationId?: string }): number {
   const id = Number(params.stationId);
@@ -49,13 +54,7 @@ function SocketPlannerPage({ graph }: { graph: StationGraph }) {
     [queryClient],
   );
   const sceneApi = useRef<SceneApi>(null);
-  const planner = useSocketPlanner(station, PIECES, {
-    plans: plans.data ?? [],
-    loadPlanWorksites,
-    invalidates: [stationKeys.graph(stationId)],
-    onReload: () => void queryClient.invalidateQueries({ queryKey: stationKeys.graph(stationId) }),
-    nodeHref: (key) => `${paths.station.getHref(stationId)}?node=${encodeURIComponent(key)}`,
-  });
+  const planner = useSocketPlanner(station, { invalidates: [stationKeys.graph(stationId)] });
 
   const { focus } = planner;
   useEffect(() => {
@@ -82,7 +81,7 @@ function SocketPlannerPage({ graph }: { graph: StationGraph }) {
             label={`3D view of ${graph.station.name} with the planned sockets and their work envelopes`}
             className={planner.picking ? 'h-[560px] cursor-crosshair ring-2 ring-accent' : 'h-[560px]'}
             onPickSurface={(pick) => void planner.pickSurface(pick)}
-            overlays={planner.overlay}
+            overlays={<SocketPlannerOverlay planner={planner} pieces={scenePieces} />}
           />
           {planner.picking && (
             <p role="status" className="text-sm text-accent-strong">
@@ -90,11 +89,23 @@ function SocketPlannerPage({ graph }: { graph: StationGraph }) {
             </p>
           )}
         </div>
-        <Panel title="Plan sockets">{planner.controls}</Panel>
+        <Panel title="Plan sockets">
+          <SocketPlannerControls
+            planner={planner}
+            plans={plans.data ?? []}
+            loadPlanWorksites={loadPlanWorksites}
+          />
+        </Panel>
       </div>
       <div className="mt-6 grid gap-6 lg:grid-cols-[minmax(0,1fr)_380px]">
         <Panel title="Result">
-          {planner.results || (
+          {planner.run ? (
+            <SocketPlanResults
+              planner={planner}
+              nodeHref={(key) => `${paths.station.getHref(stationId)}?node=${encodeURIComponent(key)}`}
+              onReload={() => void queryClient.invalidateQueries({ queryKey: stationKeys.graph(stationId) })}
+            />
+          ) : (
             <p className="text-sm text-text-muted">
               Choose targets and plan: the result shows here and in 3D.
             </p>

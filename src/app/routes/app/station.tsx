@@ -1,4 +1,4 @@
-import { useEffect, useMemo, useRef, useState, type ComponentType, type ReactNode } from 'react';
+import { useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
 import { useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { useParams, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
 import type { Vec3 } from '@shared/schemas/station';
@@ -15,12 +15,10 @@ import { useCan } from '@/lib/authorization';
 import { formatDateTime } from '@/lib/format';
 import {
   ALL_LAYERS_ON,
-  Marker,
-  PathLine,
   SceneLegend,
   SceneToolbar,
   StationScene,
-  TranslucentSphere,
+  scenePieces,
   type SceneApi,
   type SceneLayers,
   type SurfacePick,
@@ -33,9 +31,9 @@ import { PanelTabs } from '@/features/stations/components/panel-tabs';
 import { edgesOf, type StationSelection } from '@/features/stations/components/selection';
 import { SelectionDetails } from '@/features/stations/components/selection-details';
 import { StationTables } from '@/features/stations/components/station-tables';
-import { useRouteFinder } from '@/features/routes';
-import { useStationNotes } from '@/features/annotations';
-import { useStationEditor } from '@/features/station-editor';
+import { RouteFinderPanel, RouteOverlay, useRouteFinder } from '@/features/routes';
+import { AnnotationPins, AnnotationsPanel, NOTES_PANEL_ID } from '@/features/annotations';
+import { EditPanel } from '@/features/station-editor';
 import { stationKeys } from '@/features/stations/api/keys';
 
 const stationIdOf = (raw: string | undefined) => Number(raw);
@@ -56,8 +54,6 @@ export interface StationViewContext {
   lastSurfacePick: SurfacePick | null;
   layers: SceneLayers;
   sceneApi: SceneApi;
-  /** brings a right-panel tab to the front (a click on a note's pin opens the Annotations tab) */
-  showPanel: (id: string) => void;
 }
 
 export interface StationPanel {
@@ -70,12 +66,22 @@ interface StationViewProps {
   graph: StationGraph;
   /** extra right-panel tabs after Details: edit mode, annotations, routes */
   panels?: StationPanel[];
-  /** extra r3f children inside the canvas, given the screen's context as props */
-  Overlays?: ComponentType<StationViewContext>;
+  /** extra r3f children inside the canvas: a route, note pins */
+  overlays?: ReactNode;
+  /** the right-panel tab in front (the route brings one forward, e.g. when a note's pin is clicked) */
+  tab: string;
+  onTabChange: (id: string) => void;
   onPickSurface?: (pick: SurfacePick) => void;
 }
 
-export function StationView({ graph, panels = [], Overlays, onPickSurface }: StationViewProps) {
+export function StationView({
+  graph,
+  panels = [],
+  overlays,
+  tab,
+  onTabChange,
+  onPickSurface,
+}: StationViewProps) {
   const sceneApi = useRef<SceneApi>(null);
   // `?node=KEY` (links from other screens, e.g. accepted sockets) opens with that node selected
   const [searchParams] = useSearchParams();
@@ -85,7 +91,6 @@ export function StationView({ graph, panels = [], Overlays, onPickSurface }: Sta
   );
   const [layers, setLayers] = useState<SceneLayers>(ALL_LAYERS_ON);
   const [lastSurfacePick, setLastSurfacePick] = useState<SurfacePick | null>(null);
-  const [tab, setTab] = useState('details');
   const api = useMemo<SceneApi>(
     () => ({
       fitToView: (points) => sceneApi.current?.fitToView(points),
@@ -119,7 +124,6 @@ export function StationView({ graph, panels = [], Overlays, onPickSurface }: Sta
     lastSurfacePick,
     layers,
     sceneApi: api,
-    showPanel: setTab,
   };
   const tabs = [
     {
@@ -154,17 +158,17 @@ export function StationView({ graph, panels = [], Overlays, onPickSurface }: Sta
             setLastSurfacePick(pick);
             onPickSurface?.(pick);
           }}
-          overlays={Overlays && <Overlays {...ctx} />}
+          overlays={overlays}
         />
         <section
           aria-label="Selection and tools"
           className="flex h-[560px] flex-col rounded-lg border border-surface-line bg-surface-panel"
         >
-          <PanelTabs label="Station panels" tabs={tabs} active={tab} onChange={setTab} />
+          <PanelTabs label="Station panels" tabs={tabs} active={tab} onChange={onTabChange} />
         </section>
       </div>
       <SceneLegend />
-      {(panels.length > 0 || Overlays) && <PlanningCaution />}
+      {(panels.length > 0 || overlays) && <PlanningCaution />}
       <Panel title="Tables" level={2}>
         <StationTables graph={graph} selection={selection} onSelect={focus} />
       </Panel>
@@ -216,37 +220,20 @@ function StationActions({ graph }: { graph: StationGraph }) {
   );
 }
 
-const ROUTE_PIECES = { PathLine, Marker, TranslucentSphere };
-
 export default function StationRoute() {
-  const { stationId } = useParams();
-  const graph = useStationGraph(stationIdOf(stationId));
+  const id = stationIdOf(useParams().stationId);
+  const graph = useStationGraph(id);
   const queryClient = useQueryClient();
-  const editTab = useStationEditor(
-    () => void queryClient.invalidateQueries({ queryKey: stationKeys.graph(stationIdOf(stationId)) }),
-  );
-  const notes = useStationNotes(stationIdOf(stationId));
+  const canEdit = useCan('stations:edit');
+  // the note open in the Annotations tab, which a click on its pin in 3D also opens
+  const [openNote, setOpenNote] = useState<number | null>(null);
+  const [tab, setTab] = useState('details');
   const routeFinder = useRouteFinder(
     graph.data && {
       ...graph.data.station,
       tetherLengthM: graph.data.station.settings.tetherLengthM,
       nodes: graph.data.nodes,
     },
-    ROUTE_PIECES,
-  );
-  const { Overlays: RouteOverlays } = routeFinder;
-  const { Overlays: NoteOverlays } = notes;
-  const Overlays = useMemo(
-    () =>
-      function StationOverlays(ctx: StationViewContext) {
-        return (
-          <>
-            <RouteOverlays />
-            <NoteOverlays {...ctx} />
-          </>
-        );
-      },
-    [RouteOverlays, NoteOverlays],
   );
   if (!graph.data) return <PageSpinner />;
   const { station } = graph.data;
@@ -266,8 +253,66 @@ export default function StationRoute() {
       />
       <StationView
         graph={graph.data}
-        panels={[routeFinder.tab, ...(editTab ? [editTab] : []), notes.tab]}
-        Overlays={Overlays}
+        panels={[
+          {
+            id: 'route',
+            label: 'Route',
+            render: (ctx) => <RouteFinderPanel finder={routeFinder} selection={ctx.selection} />,
+          },
+          ...(canEdit
+            ? [
+                {
+                  id: 'edit',
+                  label: 'Edit',
+                  render: (ctx: StationViewContext) => (
+                    <EditPanel
+                      graph={ctx.graph}
+                      selectedKey={ctx.selection?.type === 'node' ? ctx.selection.key : null}
+                      onSelectNode={(key) => ctx.select(key ? { type: 'node', key } : null)}
+                      pick={ctx.lastSurfacePick}
+                      onChanged={() =>
+                        void queryClient.invalidateQueries({ queryKey: stationKeys.graph(id) })
+                      }
+                    />
+                  ),
+                },
+              ]
+            : []),
+          {
+            id: NOTES_PANEL_ID,
+            label: 'Annotations',
+            render: (ctx) => (
+              <AnnotationsPanel
+                stationId={id}
+                selectedNodeKey={ctx.selection?.type === 'node' ? ctx.selection.key : null}
+                pick={ctx.lastSurfacePick}
+                openId={openNote}
+                onOpen={setOpenNote}
+              />
+            ),
+          },
+        ]}
+        tab={tab}
+        onTabChange={setTab}
+        overlays={
+          <>
+            {routeFinder.model && (
+              <RouteOverlay
+                model={routeFinder.model}
+                showReach={routeFinder.showReach}
+                pieces={scenePieces}
+              />
+            )}
+            <AnnotationPins
+              stationId={id}
+              openId={openNote}
+              onOpen={(note) => {
+                setOpenNote(note);
+                setTab(NOTES_PANEL_ID);
+              }}
+            />
+          </>
+        }
       />
     </>
   );

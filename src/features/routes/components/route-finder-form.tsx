@@ -7,18 +7,16 @@ import { Form, useZodForm } from '@/components/ui/form';
 import { Input } from '@/components/ui/input';
 import { cn } from '@/lib/cn';
 import { MODE_LABELS } from '../lib/mode-comparison';
-import { routeFormSchema, tetherText, toRouteParams, type RouteFormValues } from '../lib/route-form';
+import {
+  routeFormSchema,
+  tetherText,
+  toRouteParams,
+  type PickedNode,
+  type PickField,
+  type RouteFormValues,
+} from '../lib/route-form';
 import type { RouteParams } from '../api/get-route';
 import { NodePicker, type NodeOption } from './node-picker';
-
-export type PickField = 'from' | 'to';
-
-export interface PickedNode {
-  field: PickField;
-  key: string;
-  /** bumps on every pick so picking the same node twice still applies */
-  seq: number;
-}
 
 const MODE_HINTS: Record<RouteMode, string> = {
   fastest: 'least translation time, swaps added after',

@@ -1,19 +1,5 @@
-import type { ComponentType } from 'react';
-import type { Vec3 } from '@shared/schemas/station';
+import type { ScenePieces } from '@/components/scene/scene-pieces';
 import type { RouteOverlayModel } from '../lib/route-overlay';
-
-/** The scene's drawing pieces, handed in by the route module (features do not import each other). */
-export interface ScenePieces {
-  PathLine: ComponentType<{ points: readonly Vec3[]; color?: string; width?: number; dashed?: boolean }>;
-  Marker: ComponentType<{ position: Vec3; label?: string; number?: number; color?: string; size?: number }>;
-  TranslucentSphere: ComponentType<{
-    center: Vec3;
-    radius: number;
-    color?: string;
-    opacity?: number;
-    wire?: boolean;
-  }>;
-}
 
 // not used by any node, edge or hazard kind of the model, so the route stands out
 export const ROUTE_COLORS = { path: '#a3e635', swap: '#fb923c', ends: '#ffffff', reach: '#a3e635' } as const;

@@ -4,6 +4,16 @@ import { KeySchema } from '@shared/schemas/station';
 import { fromMetres, LENGTH_UNITS, toMetres, type LengthUnit } from '@shared/compute/units';
 import type { RouteParams } from '../api/get-route';
 
+/** A node end being picked in 3D. */
+export type PickField = 'from' | 'to';
+
+export interface PickedNode {
+  field: PickField;
+  key: string;
+  /** bumps on every pick so picking the same node twice still applies */
+  seq: number;
+}
+
 /** The route finder's fields as typed; the tether is read in the chosen unit and sent in metres. */
 export function routeFormSchema(knownKeys: ReadonlySet<string>) {
   const known = KeySchema.refine((k) => knownKeys.has(k), 'no node of this station has that key');

@@ -2,6 +2,7 @@ import { useMemo, useRef } from 'react';
 import { useFrame } from '@react-three/fiber';
 import { Line } from '@react-three/drei';
 import * as THREE from 'three';
+import type { ScenePieces } from '@/components/scene/scene-pieces';
 import { TextSprite } from '@/components/scene/text-sprite';
 import type { Vec3 } from '@shared/schemas/station';
 
@@ -133,3 +134,6 @@ export function TranslucentSphere({
     </mesh>
   );
 }
+
+/** The pieces a screen hands to features that draw into the scene (routes, socket plans). */
+export const scenePieces: ScenePieces = { PathLine, Marker, TranslucentSphere };

@@ -1,20 +1,8 @@
-import { useMemo, type ComponentType } from 'react';
+import { useMemo } from 'react';
 import * as THREE from 'three';
 import type { Vec3 } from '@shared/schemas/station';
+import type { ScenePieces } from '@/components/scene/scene-pieces';
 import type { PlannedSocketView, PlanTarget } from '../lib/planned-sockets';
-
-/** The scene's drawing pieces, handed in by the route module (features do not import each other). */
-export interface SocketScenePieces {
-  PathLine: ComponentType<{ points: readonly Vec3[]; color?: string; width?: number; dashed?: boolean }>;
-  Marker: ComponentType<{ position: Vec3; label?: string; number?: number; color?: string; size?: number }>;
-  TranslucentSphere: ComponentType<{
-    center: Vec3;
-    radius: number;
-    color?: string;
-    opacity?: number;
-    wire?: boolean;
-  }>;
-}
 
 export const SOCKET_PLAN_COLORS = {
   existing: '#f5b849',
@@ -51,7 +39,7 @@ export function SocketPlanOverlay({
 }: {
   sockets: readonly PlannedSocketView[];
   targets: readonly PlanTarget[];
-  pieces: SocketScenePieces;
+  pieces: ScenePieces;
 }) {
   const { PathLine, Marker, TranslucentSphere } = pieces;
   const tagged = targets.length <= MAX_TAGGED_TARGETS;
@@ -100,7 +88,7 @@ export function PickedPointsOverlay({
   pieces,
 }: {
   points: readonly PlanTarget[];
-  pieces: SocketScenePieces;
+  pieces: ScenePieces;
 }) {
   const { Marker } = pieces;
   return (
