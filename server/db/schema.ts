@@ -1,5 +1,6 @@
 import { sql } from 'drizzle-orm';
 import { index, integer, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import { MANIFEST_KINDS } from '../../shared/schemas/plan';
 
 const timestamps = {
   createdAt: text('created_at')
@@ -286,7 +287,11 @@ export const tasks = sqliteTable(
     eclipseOnly: integer('eclipse_only', { mode: 'boolean' }).notNull().default(false),
     carrying: integer('carrying', { mode: 'boolean' }).notNull().default(false),
     socketKey: text('socket_key'),
+    /** a task for both: `{ "EV1"?: key, "EV2"?: key }`, JSON */
+    socketsJson: text('sockets_json'),
     toolsJson: text('tools_json').notNull().default('[]'),
+    /** item actions `[{ do, item, by?, at? }]`, JSON */
+    actionsJson: text('actions_json').notNull().default('[]'),
     notes: text('notes'),
   },
   (t) => [index('tasks_plan_idx').on(t.planId)],
@@ -300,15 +305,21 @@ export const manifestItems = sqliteTable(
       .notNull()
       .references(() => plans.id, { onDelete: 'cascade' }),
     ord: integer('ord').notNull(),
+    /** plan-unique */
+    key: text('key').notNull(),
     name: text('name').notNull(),
-    kind: text('kind', { enum: ['tool', 'bag'] }).notNull(),
+    kind: text('kind', { enum: MANIFEST_KINDS }).notNull(),
     quantity: integer('quantity').notNull().default(1),
-    carriedBy: text('carried_by', { enum: ['EV1', 'EV2'] }).notNull(),
+    carriedBy: text('carried_by', { enum: ['EV1', 'EV2'] }),
     startsAt: text('starts_at').notNull(),
-    endsAt: text('ends_at'),
+    installedAt: text('installed_at'),
+    leaveOutside: integer('leave_outside', { mode: 'boolean' }).notNull().default(false),
     notes: text('notes'),
   },
-  (t) => [index('manifest_items_plan_idx').on(t.planId)],
+  (t) => [
+    index('manifest_items_plan_idx').on(t.planId),
+    uniqueIndex('manifest_items_plan_key').on(t.planId, t.key),
+  ],
 );
 
 export const reviewComments = sqliteTable(

@@ -7,7 +7,7 @@ export interface CueStep {
   /** elapsed seconds */
   start: number;
   end: number;
-  kind: 'egress' | 'translate' | 'swap' | 'work' | 'wait' | 'ingress';
+  kind: 'egress' | 'translate' | 'swap' | 'restraint-in' | 'work' | 'restraint-out' | 'wait' | 'ingress';
   text: string;
   details?: string[];
   /** the step lies (at least partly) in orbital night */
@@ -54,7 +54,9 @@ const KIND_LABEL: Record<CueStep['kind'], string> = {
   egress: 'EGRESS',
   translate: 'MOVE',
   swap: 'SWAP',
+  'restraint-in': 'GET IN',
   work: 'TASK',
+  'restraint-out': 'GET OUT',
   wait: 'WAIT',
   ingress: 'INGRESS',
 };

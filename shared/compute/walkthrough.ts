@@ -1,7 +1,7 @@
-import type { RouteFeasible } from '../schemas/route';
+import type { RouteFeasible, TetherState } from '../schemas/route';
 import type { CrewMember } from '../schemas/plan';
 import type { Vec3 } from '../schemas/station';
-import type { Timeline, TimelineBlock } from './timeline';
+import { tetherAtRouteStart, type Timeline, type TimelineBlock } from './day/types';
 import { formatElapsed } from './units';
 
 /**
@@ -82,12 +82,8 @@ interface Builder {
   pieces: TrackPiece[];
   at: string;
   anchorKey: string;
-  /** distance along the current route at which the current anchor was clipped */
-  anchorAtM: number;
   paid: number;
   position: PositionOf;
-  /** the route being walked (a plan's swap blocks follow their translate blocks) */
-  route?: RouteFeasible;
 }
 
 function addStep(b: Builder, step: Omit<WalkStep, 'id' | 'crew'>) {
@@ -103,7 +99,10 @@ function hold(b: Builder, t0: number, t1: number) {
 const legWord = (kind: string) =>
   kind === 'ride' ? 'ride the arm' : kind === 'hop' ? 'hop' : 'along the handrail';
 
-/** Lays the legs `[legStart, legEnd)` of `route` over `[t0, t1]`, time shared by each leg's seconds. */
+/**
+ * Lays the legs `[legStart, legEnd)` of `route` over `[t0, t1]`, time shared by each leg's seconds,
+ * starting from the tether state `tether` (where the engine says the crew member is clipped).
+ */
 function translate(
   b: Builder,
   route: RouteFeasible,
@@ -111,22 +110,19 @@ function translate(
   legEnd: number,
   t0: number,
   t1: number,
+  tether: TetherState,
   taskIndex?: number,
 ) {
   const legs = route.legs.slice(legStart, legEnd);
   if (legs.length === 0) return;
-  b.route = route;
-  if (legStart === 0) {
-    // every route starts clipped where the crew member stands (the engine's convention)
-    b.anchorKey = route.nodes[0];
-    b.anchorAtM = 0;
-  }
+  b.anchorKey = tether.anchor;
+  b.paid = tether.paidOutM;
   const total = legs.reduce((s, l) => s + l.seconds, 0);
   let t = t0;
   for (const leg of legs) {
     const dt = total > 0 ? ((t1 - t0) * leg.seconds) / total : (t1 - t0) / legs.length;
-    const paid0 = leg.startM - b.anchorAtM;
-    const paid1 = leg.startM + leg.lengthM - b.anchorAtM;
+    const paid0 = b.paid;
+    const paid1 = paid0 + leg.lengthM;
     b.pieces.push({
       t0: t,
       t1: t + dt,
@@ -159,10 +155,8 @@ function translate(
   });
 }
 
-function swap(b: Builder, route: RouteFeasible, node: string, t0: number, t1: number, taskIndex?: number) {
-  const sw = route.swaps.find((s) => s.node === node && s.atM >= b.anchorAtM - 1e-9);
+function swap(b: Builder, node: string, paidBefore: number, t0: number, t1: number, taskIndex?: number) {
   const released = b.anchorKey;
-  const paidBefore = sw ? sw.paidOutM : b.paid;
   hold(b, t0, t1);
   addStep(b, {
     type: 'swap',
@@ -178,81 +172,81 @@ function swap(b: Builder, route: RouteFeasible, node: string, t0: number, t1: nu
     ...(taskIndex === undefined ? {} : { taskIndex }),
   });
   b.anchorKey = node;
-  b.anchorAtM = sw ? sw.atM : b.anchorAtM + b.paid;
   b.paid = 0;
 }
 
-function newBuilder(start: string, position: PositionOf, prefix: string, crew?: CrewMember): Builder {
+function newBuilder(
+  start: string,
+  tether: TetherState,
+  position: PositionOf,
+  prefix: string,
+  crew?: CrewMember,
+): Builder {
   return {
     crew,
     prefix,
     steps: [],
     pieces: [],
     at: start,
-    anchorKey: start,
-    anchorAtM: 0,
-    paid: 0,
+    anchorKey: tether.anchor,
+    paid: tether.paidOutM,
     position,
   };
 }
 
 /** The route's steps in the order the crew member meets them, swaps placed where the engine put them. */
-function routeBlocks(
-  route: RouteFeasible,
-  swapSecondsEach: number,
-): { type: 'translate' | 'swap'; legStart: number; legEnd: number; seconds: number; node?: string }[] {
-  const out: {
-    type: 'translate' | 'swap';
-    legStart: number;
-    legEnd: number;
-    seconds: number;
-    node?: string;
-  }[] = [];
+function routeBlocks(route: RouteFeasible) {
+  const out: { type: 'translate' | 'swap'; legStart: number; legEnd: number; swap?: number }[] = [];
   let pieceStart = 0;
-  let seconds = 0;
   let s = 0;
-  route.legs.forEach((leg, i) => {
-    seconds += leg.seconds;
-    const endM = leg.startM + leg.lengthM;
-    while (s < route.swaps.length && route.swaps[s].atM <= endM + 1e-9) {
-      if (i + 1 > pieceStart) out.push({ type: 'translate', legStart: pieceStart, legEnd: i + 1, seconds });
-      pieceStart = i + 1;
-      seconds = 0;
-      out.push({
-        type: 'swap',
-        legStart: i + 1,
-        legEnd: i + 1,
-        seconds: swapSecondsEach,
-        node: route.swaps[s].node,
-      });
-      s++;
+  const swapsUpTo = (atM: number, legIndex: number) => {
+    while (s < route.swaps.length && route.swaps[s].atM <= atM + 1e-6) {
+      if (legIndex > pieceStart) out.push({ type: 'translate', legStart: pieceStart, legEnd: legIndex });
+      pieceStart = legIndex;
+      out.push({ type: 'swap', legStart: legIndex, legEnd: legIndex, swap: s++ });
     }
-  });
+  };
+  route.legs.forEach((leg, i) => swapsUpTo(leg.startM, i));
   if (route.legs.length > pieceStart)
-    out.push({ type: 'translate', legStart: pieceStart, legEnd: route.legs.length, seconds });
+    out.push({ type: 'translate', legStart: pieceStart, legEnd: route.legs.length });
+  swapsUpTo(Infinity, route.legs.length);
   return out;
 }
 
 /** A single route rehearsed on its own: start clipped, translate, swap, …, arrive. */
 export function routeWalkthrough(route: RouteFeasible, position: PositionOf): CrewTrack {
   const start = route.nodes[0];
-  const b = newBuilder(start, position, 'r');
+  const tether = tetherAtRouteStart(route);
+  const b = newBuilder(start, tether, position, 'r');
   addStep(b, {
     type: 'start',
     start: 0,
     end: 0,
     title: `Start at ${start}`,
-    detail: `Clipped at ${start}; tether ${route.tetherLengthM.toFixed(1)} m.`,
+    detail: `Clipped at ${tether.anchor}${tether.paidOutM > 0 ? ` with ${tether.paidOutM.toFixed(1)} m out` : ''}; tether ${route.tetherLengthM.toFixed(1)} m.`,
     nodeKey: start,
-    paidOutM: 0,
-    anchorKey: start,
+    paidOutM: tether.paidOutM,
+    anchorKey: tether.anchor,
   });
   const perSwap = route.swapCount > 0 ? route.swapSeconds / route.swapCount : 0;
+  const travel = route.totalSeconds - route.swapSeconds;
+  const legSum = route.legs.reduce((s, l) => s + l.seconds, 0);
+  const scale = legSum > 0 ? travel / legSum : 0;
   let t = 0;
-  for (const block of routeBlocks(route, perSwap)) {
-    if (block.type === 'translate') translate(b, route, block.legStart, block.legEnd, t, t + block.seconds);
-    else swap(b, route, block.node!, t, t + block.seconds);
-    t += block.seconds;
+  for (const block of routeBlocks(route)) {
+    if (block.type === 'translate') {
+      const seconds =
+        route.legs.slice(block.legStart, block.legEnd).reduce((s, l) => s + l.seconds, 0) * scale;
+      translate(b, route, block.legStart, block.legEnd, t, t + seconds, {
+        anchor: b.anchorKey,
+        paidOutM: b.paid,
+      });
+      t += seconds;
+    } else {
+      const sw = route.swaps[block.swap!];
+      swap(b, sw.node, sw.paidOutM, t, t + perSwap);
+      t += perSwap;
+    }
   }
   const end = route.nodes[route.nodes.length - 1];
   addStep(b, {
@@ -271,83 +265,94 @@ export function routeWalkthrough(route: RouteFeasible, position: PositionOf): Cr
 export interface WalkthroughTask {
   title: string;
   worksite: string;
-  socket?: string;
 }
 
-/** Both crew members' tracks for a whole plan, on the shared EVA elapsed-time clock of the timeline. */
+/**
+ * Both crew members' tracks for a whole plan, on the shared EVA elapsed-time clock of the timeline:
+ * every position, tether state and restraint comes from the timeline's blocks, nothing is recomputed.
+ */
 export function planWalkthrough(
-  timeline: Timeline,
+  timeline: Pick<Timeline, 'crew' | 'routes' | 'endSeconds'>,
   tasks: readonly WalkthroughTask[],
   airlockKey: string,
   position: PositionOf,
 ): { crews: Record<CrewMember, CrewTrack>; endSeconds: number } {
   const build = (crew: CrewMember): CrewTrack => {
-    const b = newBuilder(airlockKey, position, crew, crew);
-    for (const block of timeline.crew[crew].blocks) addBlock(b, block, tasks);
+    const b = newBuilder(airlockKey, { anchor: airlockKey, paidOutM: 0 }, position, crew, crew);
+    for (const block of timeline.crew[crew].blocks) addBlock(b, block, timeline.routes, tasks);
     return { crew, steps: b.steps, pieces: b.pieces, endSeconds: timeline.crew[crew].totalSeconds };
   };
   return { crews: { EV1: build('EV1'), EV2: build('EV2') }, endSeconds: timeline.endSeconds };
 }
 
-function addBlock(b: Builder, block: TimelineBlock, tasks: readonly WalkthroughTask[]) {
+function addBlock(
+  b: Builder,
+  block: TimelineBlock,
+  routes: readonly RouteFeasible[],
+  tasks: readonly WalkthroughTask[],
+) {
   const tag = block.taskIndex === undefined ? {} : { taskIndex: block.taskIndex };
+  const route = block.routeIndex === undefined ? undefined : routes[block.routeIndex];
   switch (block.type) {
     case 'translate':
-      if (block.route && block.legStart !== undefined && block.legEnd !== undefined) {
-        translate(b, block.route, block.legStart, block.legEnd, block.start, block.end, block.taskIndex);
+      if (route && block.legStart !== undefined && block.legEnd !== undefined && block.tetherAtStart) {
+        translate(
+          b,
+          route,
+          block.legStart,
+          block.legEnd,
+          block.start,
+          block.end,
+          block.tetherAtStart,
+          block.taskIndex,
+        );
       } else hold(b, block.start, block.end);
       return;
-    case 'swap': {
-      // the swap belongs to the route of the translate block just before it
-      const route = block.route ?? b.route;
-      if (route && block.swapNode) swap(b, route, block.swapNode, block.start, block.end, block.taskIndex);
-      else hold(b, block.start, block.end);
+    case 'swap':
+      if (block.swapNode) {
+        swap(b, block.swapNode, block.paidOutM ?? b.paid, block.start, block.end, block.taskIndex);
+      } else hold(b, block.start, block.end);
+      return;
+    case 'restraint-in':
+    case 'restraint-out': {
+      const socket = block.socket ?? '';
+      const into = block.type === 'restraint-in';
+      const angles =
+        into && block.yawSetDeg !== undefined
+          ? ` Set yaw ${block.yawSetDeg}°, pitch ${block.pitchSetDeg}°.`
+          : '';
+      hold(b, block.start, block.end);
+      addStep(b, {
+        type: block.type,
+        start: block.start,
+        end: block.end,
+        title: block.label,
+        detail: into
+          ? `Get into the foot restraint on socket ${socket}.${angles}`
+          : `Get out of the foot restraint on socket ${socket}.`,
+        nodeKey: b.at,
+        socketKey: socket,
+        paidOutM: b.paid,
+        anchorKey: b.anchorKey,
+        ...tag,
+      });
       return;
     }
     case 'work': {
       const task = block.taskIndex === undefined ? undefined : tasks[block.taskIndex];
-      const socket = task?.socket;
-      if (socket) {
-        addStep(b, {
-          type: 'restraint-in',
-          start: block.start,
-          end: block.start,
-          title: `Into the foot restraint at ${socket}`,
-          detail: `Set the restraint on socket ${socket} and get in before starting "${block.label}".`,
-          nodeKey: b.at,
-          socketKey: socket,
-          paidOutM: b.paid,
-          anchorKey: b.anchorKey,
-          ...tag,
-        });
-      }
       hold(b, block.start, block.end);
       addStep(b, {
         type: 'work',
         start: block.start,
         end: block.end,
         title: block.label,
-        detail: `${block.unreached ? 'Not reachable as planned (see the plan warnings). ' : ''}Work at ${task?.worksite ?? b.at} for ${formatElapsed(block.end - block.start)}; clipped at ${b.anchorKey}.`,
+        detail: `${block.unreached ? 'Not reachable as planned (see the plan warnings). ' : ''}Work at ${task?.worksite ?? b.at}${block.socket ? ` from the restraint on ${block.socket}` : ''} for ${formatElapsed(block.end - block.start)}; clipped at ${b.anchorKey}, ${b.paid.toFixed(1)} m out.`,
         nodeKey: task?.worksite ?? b.at,
         paidOutM: b.paid,
         anchorKey: b.anchorKey,
-        ...(socket ? { socketKey: socket } : {}),
+        ...(block.socket ? { socketKey: block.socket } : {}),
         ...tag,
       });
-      if (socket) {
-        addStep(b, {
-          type: 'restraint-out',
-          start: block.end,
-          end: block.end,
-          title: `Out of the foot restraint at ${socket}`,
-          detail: `Get out of the restraint on ${socket}; stow or leave it as the manifest says.`,
-          nodeKey: b.at,
-          socketKey: socket,
-          paidOutM: b.paid,
-          anchorKey: b.anchorKey,
-          ...tag,
-        });
-      }
       return;
     }
     default: {

@@ -1,7 +1,5 @@
 import type { Plan, PlanStatus } from './plan';
-import type { ReachResult } from './sockets';
-import type { InventoryWarning } from '../compute/inventory';
-import type { Timeline } from '../compute/timeline';
+import type { Timeline } from '../compute/day/types';
 
 /** `GET /api/plans/:id`: the plan with the names the server joins in. */
 export interface PlanView extends Plan {
@@ -29,31 +27,12 @@ export interface PlanListItem {
   updatedAt: string;
 }
 
-export interface TaskReach {
-  taskIndex: number;
-  socket: string;
-  worksite: string;
-  /** null when the socket or worksite is not a usable node of the station (see the warnings) */
-  reach: ReachResult | null;
-}
-
-export interface ReachWarning {
-  code: 'socket-out-of-reach' | 'socket-unusable';
-  message: string;
-  taskIndex: number;
-  /** sockets of the station that do reach the worksite, nearest first */
-  reachingSockets?: string[];
-}
-
-/** `GET /api/plans/:id/timeline`: the shared timeline plus the server's inventory and reach checks. */
+/** `GET /api/plans/:id/timeline`: the day computed in one pass, with what it was computed against. */
 export interface PlanTimeline extends Timeline {
   planId: number;
   planVersion: number;
   stationId: number;
   stationVersion: number;
   airlockKey: string;
-  inventoryWarnings: InventoryWarning[];
-  reach: TaskReach[];
-  reachWarnings: ReachWarning[];
   caution: string;
 }

@@ -27,11 +27,24 @@ export const PLAN_STATUSES = ['draft', 'in-review', 'approved'] as const;
 export const PlanStatusSchema = z.enum(PLAN_STATUSES);
 export type PlanStatus = z.infer<typeof PlanStatusSchema>;
 
-export const MANIFEST_KINDS = ['tool', 'bag'] as const;
+/**
+ * What a manifest item is. A `foot-restraint` (portable) is installed in a socket and stood in; a
+ * `tether-anchor` (portable) installed at a node makes it an attach point for both crew members'
+ * routes; while a crew member holds a `large-item` their translation is slowed by the carry factor.
+ */
+export const MANIFEST_KINDS = [
+  'tool',
+  'bag',
+  'foot-restraint',
+  'tether-anchor',
+  'handling-aid',
+  'large-item',
+  'other',
+] as const;
 export const ManifestKindSchema = z.enum(MANIFEST_KINDS);
 export type ManifestKind = z.infer<typeof ManifestKindSchema>;
 
-/** `endsAt` / `startsAt` value meaning "the station's airlock", whatever its node key. */
+/** `startsAt` value meaning "the station's airlock", whatever its node key. */
 export const AIRLOCK_LOCATION = 'airlock';
 
 const IdSchema = z.number().int('must be a whole number').positive('must be positive');
@@ -53,6 +66,32 @@ export type CrewSlot = z.infer<typeof CrewSlotSchema>;
 export const CrewSchema = z.strictObject({ EV1: CrewSlotSchema, EV2: CrewSlotSchema });
 export type Crew = z.infer<typeof CrewSchema>;
 
+export const ITEM_ACTIONS = ['pick-up', 'set-down', 'install', 'remove', 'hand-over'] as const;
+export const ItemActionKindSchema = z.enum(ITEM_ACTIONS);
+export type ItemActionKind = z.infer<typeof ItemActionKindSchema>;
+export const MAX_ACTIONS_PER_TASK = 50;
+
+/**
+ * What a task does with a manifest item. The precondition is checked when the task's work starts and
+ * the effect applies when it ends. `by` defaults to the task's crew member (required for a task for
+ * both when it matters who acts); `at` defaults to the worksite, or for a foot restraint being
+ * installed or removed, to the socket the acting crew member works from. A hand-over (a task for
+ * both) passes the item from `by` to the partner and takes no `at`.
+ */
+export const ItemActionSchema = z.strictObject({
+  do: ItemActionKindSchema,
+  /** the manifest item's key */
+  item: KeySchema,
+  by: CrewMemberSchema.optional(),
+  /** node key: where the item is picked up, set down, installed or removed */
+  at: KeySchema.optional(),
+});
+export type ItemAction = z.infer<typeof ItemActionSchema>;
+
+/** The foot-restraint sockets of a task for both: one person per restraint; a member without one works from handrails. */
+export const TaskSocketsSchema = z.strictObject({ EV1: KeySchema.optional(), EV2: KeySchema.optional() });
+export type TaskSockets = z.infer<typeof TaskSocketsSchema>;
+
 export const TaskSchema = z.strictObject({
   id: IdSchema.optional(),
   title: text('title', 200),
@@ -65,25 +104,33 @@ export const TaskSchema = z.strictObject({
   ),
   /** e.g. mating connectors that carry solar-array power: only during orbital night */
   eclipseOnly: z.boolean().default(false),
-  /** moving a large item: translation to this task is slowed by the station's carry factor */
+  /** moving a large item: translation to this task is slowed by the carry factor (holding a large item does it too) */
   carrying: z.boolean().default(false),
-  /** node key of the foot-restraint socket */
+  /** node key of the foot-restraint socket the crew member works from (a one-person task) */
   socket: KeySchema.optional(),
-  /** manifest item names */
+  /** a task for both: each member's socket */
+  sockets: TaskSocketsSchema.optional(),
+  /** manifest items the task needs at hand when it starts: item keys (or names) */
   tools: z
     .array(text('tool name', 100))
     .max(MAX_TOOLS_PER_TASK, `at most ${MAX_TOOLS_PER_TASK} tools per task`)
+    .default([]),
+  actions: z
+    .array(ItemActionSchema)
+    .max(MAX_ACTIONS_PER_TASK, `at most ${MAX_ACTIONS_PER_TASK} item actions per task`)
     .default([]),
   notes: notes.optional(),
 });
 export type Task = z.infer<typeof TaskSchema>;
 export type TaskInput = z.input<typeof TaskSchema>;
 
-/** Where a manifest item is: the airlock (`airlock`) or a node key (a worksite or stow place). */
+/** Where a manifest item starts: the airlock (`airlock`) or a node key. */
 export const ItemLocationSchema = KeySchema;
 
 export const ManifestItemSchema = z.strictObject({
   id: IdSchema.optional(),
+  /** plan-unique; given by the server from the name when left out */
+  key: KeySchema.optional(),
   name: text('name', 100),
   kind: ManifestKindSchema,
   quantity: z
@@ -92,14 +139,169 @@ export const ManifestItemSchema = z.strictObject({
     .min(1, 'quantity must be at least 1')
     .max(100, 'quantity must be at most 100')
     .default(1),
-  carriedBy: CrewMemberSchema,
+  /** an item that starts in the airlock is carried out at egress by this crew member (else it stays in) */
+  carriedBy: CrewMemberSchema.optional(),
+  /** `airlock`, or a node where the item waits outside (staged by an earlier EVA) */
   startsAt: ItemLocationSchema.default(AIRLOCK_LOCATION),
-  /** left unset, the item is unaccounted for at the end of the day (the inventory check warns) */
-  endsAt: ItemLocationSchema.optional(),
+  /** the item starts installed: a socket for a foot restraint, a node for a tether anchor */
+  installedAt: KeySchema.optional(),
+  /** staged outside for a later EVA: not back in the airlock at the end of the day is expected */
+  leaveOutside: z.boolean().default(false),
+  /**
+   * Accepted from older clients and never stored: only `airlock` is meaningful (every item is
+   * expected back); where an item is left outside is said by a task's set-down and `leaveOutside`.
+   */
+  endsAt: z.string().optional(),
   notes: notes.optional(),
 });
 export type ManifestItem = z.infer<typeof ManifestItemSchema>;
 export type ManifestItemInput = z.input<typeof ManifestItemSchema>;
+
+const INSTALLABLE: readonly ManifestKind[] = ['foot-restraint', 'tether-anchor'];
+
+/** The name-derived key a keyless item gets: `Tool bag (large)` → `tool-bag-large`. */
+export function itemKeyFromName(name: string): string {
+  const slug = name
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-+|-+$/g, '')
+    .slice(0, 56)
+    .replace(/-+$/, '');
+  return slug || 'item';
+}
+
+/** Gives every keyless item a plan-unique key derived from its name; keyed items keep theirs. */
+export function withItemKeys<T extends { key?: string; name: string }>(
+  items: readonly T[],
+): (T & { key: string })[] {
+  const taken = new Set(items.flatMap((m) => (m.key ? [m.key] : [])));
+  return items.map((m) => {
+    if (m.key) return m as T & { key: string };
+    const base = itemKeyFromName(m.name);
+    let key = base;
+    for (let n = 2; taken.has(key); n++) key = `${base}-${n}`;
+    taken.add(key);
+    return { ...m, key };
+  });
+}
+
+/**
+ * A task for both that names one `socket` (as plans did before each member had their own) means
+ * EV1 works from that restraint and EV2 from handrails.
+ */
+export function withOwnSockets<T extends Pick<Task, 'crew' | 'socket' | 'sockets'>>(task: T): T {
+  if (task.crew !== 'both' || task.socket === undefined || task.sockets !== undefined) return task;
+  const { socket, ...rest } = task;
+  return { ...rest, sockets: { EV1: socket } } as T;
+}
+
+export interface PlanProblem {
+  /** zod-style path below the plan body: ['tasks', 2, 'actions', 0, 'item'] */
+  path: (string | number)[];
+  message: string;
+}
+
+/**
+ * Rules between a plan's tasks and its manifest that no single field can check: item keys unique and
+ * known to the actions that name them, `socket` only on a one-person task and `sockets` only on a task
+ * for both, a hand-over only in a task for both, `by` one of the task's crew, `installedAt` only on
+ * restraints and anchors. Station rules (which nodes exist) are checked against the station elsewhere.
+ */
+export function planReferenceProblems(
+  tasks: readonly Pick<Task, 'crew' | 'socket' | 'sockets' | 'actions'>[],
+  manifest: readonly Pick<ManifestItem, 'key' | 'name' | 'kind' | 'installedAt' | 'startsAt' | 'endsAt'>[],
+): PlanProblem[] {
+  const problems: PlanProblem[] = [];
+  const keyed = withItemKeys(manifest);
+  const firstAt = new Map<string, number>();
+  keyed.forEach((m, i) => {
+    if (m.endsAt !== undefined && m.endsAt !== AIRLOCK_LOCATION) {
+      problems.push({
+        path: ['manifest', i, 'endsAt'],
+        message: `an item is expected back in the airlock; to leave it at ${m.endsAt}, set it down there in a task and mark it to stay outside (leaveOutside)`,
+      });
+    }
+    const first = firstAt.get(m.key);
+    if (first !== undefined && manifest[i].key !== undefined) {
+      problems.push({
+        path: ['manifest', i, 'key'],
+        message: `duplicate item key "${m.key}" (first at manifest[${first}])`,
+      });
+    } else if (first === undefined) firstAt.set(m.key, i);
+    if (m.installedAt !== undefined && !INSTALLABLE.includes(m.kind)) {
+      problems.push({
+        path: ['manifest', i, 'installedAt'],
+        message: `only a foot restraint or a tether anchor can start installed, not a ${m.kind}`,
+      });
+    }
+  });
+  const kindOf = new Map(keyed.map((m) => [m.key, m.kind]));
+  tasks.forEach((t, i) => {
+    const both = t.crew === 'both';
+    if (both && t.socket !== undefined && t.sockets !== undefined) {
+      problems.push({
+        path: ['tasks', i, 'socket'],
+        message: "a task for both names each member's restraint in `sockets` (one person per restraint)",
+      });
+    }
+    if (!both && t.sockets !== undefined) {
+      problems.push({
+        path: ['tasks', i, 'sockets'],
+        message: `\`sockets\` is for a task for both; a task for ${t.crew} names its restraint in \`socket\``,
+      });
+    }
+    if (both && t.sockets?.EV1 !== undefined && t.sockets.EV1 === t.sockets.EV2) {
+      problems.push({
+        path: ['tasks', i, 'sockets', 'EV2'],
+        message: `EV1 and EV2 cannot stand in one foot restraint (${t.sockets.EV1})`,
+      });
+    }
+    t.actions.forEach((a, j) => {
+      const at = (field: string) => ['tasks', i, 'actions', j, field];
+      const kind = kindOf.get(a.item);
+      if (kind === undefined) {
+        problems.push({ path: at('item'), message: `no manifest item has the key "${a.item}"` });
+      }
+      if (a.by !== undefined && !both && a.by !== t.crew) {
+        problems.push({ path: at('by'), message: `${a.by} does not do this task (it is for ${t.crew})` });
+      }
+      if (a.do === 'hand-over') {
+        if (!both) {
+          problems.push({
+            path: at('do'),
+            message: 'a hand-over needs both crew members: make it a task for both',
+          });
+        } else if (a.by === undefined) {
+          problems.push({ path: at('by'), message: 'say who hands the item over (`by`: EV1 or EV2)' });
+        }
+        if (a.at !== undefined) {
+          problems.push({ path: at('at'), message: 'a hand-over happens between the crew members: no `at`' });
+        }
+      }
+      if ((a.do === 'install' || a.do === 'remove') && kind !== undefined && !INSTALLABLE.includes(kind)) {
+        problems.push({
+          path: at('do'),
+          message: `only a foot restraint or a tether anchor can be ${a.do === 'install' ? 'installed' : 'removed'}, not a ${kind}`,
+        });
+      }
+      if (both && a.by === undefined && a.do !== 'hand-over') {
+        problems.push({ path: at('by'), message: 'in a task for both, say who acts (`by`: EV1 or EV2)' });
+      }
+      if (
+        kind === 'foot-restraint' &&
+        (a.do === 'install' || a.do === 'remove') &&
+        a.at === undefined &&
+        (both ? (a.by ? t.sockets?.[a.by] : undefined) : t.socket) === undefined
+      ) {
+        problems.push({
+          path: at('at'),
+          message: `say which socket the foot restraint is ${a.do === 'install' ? 'installed in' : 'removed from'} (\`at\`)`,
+        });
+      }
+    });
+  });
+  return problems;
+}
 
 /** The fields a planner edits, without defaults (PATCH must not reset what it leaves out). */
 const planFields = {

@@ -55,6 +55,8 @@ export const DEFAULT_SETTINGS = {
   speedsMps: { handrail: 0.1, hop: 0.1, ride: 0.05 },
   hopSeconds: 30,
   swapSeconds: 90,
+  /** getting into or out of a foot restraint, each */
+  restraintSeconds: 120,
   carryFactor: 1.5,
   reach: { standOffM: 1.0, radiusM: 0.7, yawStepDeg: 15, pitchStepDeg: 15 },
 } as const;
@@ -70,6 +72,7 @@ export const StationSettingsSchema = z.object({
     .default({ ...DEFAULT_SETTINGS.speedsMps }),
   hopSeconds: nonNegative('hop overhead').default(DEFAULT_SETTINGS.hopSeconds),
   swapSeconds: nonNegative('swap time').default(DEFAULT_SETTINGS.swapSeconds),
+  restraintSeconds: nonNegative('restraint get-in time').default(DEFAULT_SETTINGS.restraintSeconds),
   carryFactor: FiniteSchema.refine((v) => v >= 1, 'carry factor must be at least 1').default(
     DEFAULT_SETTINGS.carryFactor,
   ),

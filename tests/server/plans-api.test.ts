@@ -110,16 +110,17 @@ describe('plans CRUD', () => {
     const got = (await (await t.agent('viewer')).get(`/api/plans/${created.id}`)).body;
     expect(got.crew.EV2).toEqual({ name: 'Bo Lindgren', tetherLengthM: 25.9 });
     expect(got.tasks.map((x: { title: string }) => x.title)).toEqual(planBody().tasks.map((x) => x.title));
+    // one socket on a task for both: EV1 stands in that restraint, EV2 works from handrails
     expect(got.tasks[1]).toMatchObject({
-      socket: K.socket,
+      sockets: { EV1: K.socket },
       crew: 'both',
       carrying: true,
       tools: ['Pump bag'],
     });
-    expect(got.manifest.map((m: { name: string }) => m.name)).toEqual([
-      'Torque wrench',
-      'Pump bag',
-      'Spare tether',
+    expect(got.manifest.map((m: { name: string; key: string }) => [m.name, m.key])).toEqual([
+      ['Torque wrench', 'torque-wrench'],
+      ['Pump bag', 'pump-bag'],
+      ['Spare tether', 'spare-tether'],
     ]);
     expect(got.reviewComments).toEqual([]);
   });
@@ -152,17 +153,17 @@ describe('plans CRUD', () => {
       .send(planBody({ tasks: [tasks[0], { ...tasks[1], worksite: 'NOWHERE-9' }] }));
     expect(unknown.status).toBe(400);
     expect(unknown.body.error.details).toEqual([
-      { path: 'body.tasks.1.worksite', message: expect.stringContaining('NOWHERE-9') },
+      { path: 'body.tasks[1].worksite', message: expect.stringContaining('NOWHERE-9') },
     ]);
     const notSocket = await planner
       .post('/api/plans')
       .send(planBody({ tasks: [{ ...tasks[0], socket: K.anchorFar }] }));
     expect(notSocket.status).toBe(400);
-    expect(notSocket.body.error.details[0].path).toBe('body.tasks.0.socket');
+    expect(notSocket.body.error.details[0].path).toBe('body.tasks[0].socket');
     const notWorksite = await planner
       .post('/api/plans')
       .send(planBody({ tasks: [{ ...tasks[0], worksite: K.anchorNear }] }));
-    expect(notWorksite.body.error.details[0].path).toBe('body.tasks.0.worksite');
+    expect(notWorksite.body.error.details[0].path).toBe('body.tasks[0].worksite');
     expect((await planner.post('/api/plans').send(planBody({ stationId: 9999 }))).status).toBe(400);
     expect((await planner.post('/api/plans').send(planBody({ colour: 'red' }))).status).toBe(400);
     expect((await planner.get('/api/plans/424242')).status).toBe(404);
@@ -373,14 +374,14 @@ describe('timeline and exports', () => {
       [1, true],
       [2, false],
     ]);
-    expect(timeline.reachWarnings).toEqual([
-      expect.objectContaining({ code: 'socket-out-of-reach', taskIndex: 2 }),
+    expect(timeline.warnings.filter((w: { code: string }) => w.code === 'socket-out-of-reach')).toEqual([
+      expect.objectContaining({ code: 'socket-out-of-reach', taskIndex: 2, crew: 'EV2' }),
     ]);
   });
 
-  it('carries the inventory warnings and the planning-aid caution', () => {
-    expect(timeline.inventoryWarnings).toContainEqual(
-      expect.objectContaining({ code: 'missing-end', item: 'Spare tether' }),
+  it('carries the equipment checks in the same warnings, and the planning-aid caution', () => {
+    expect(timeline.warnings).toContainEqual(
+      expect.objectContaining({ code: 'unused-tool', item: 'spare-tether' }),
     );
     expect(timeline.caution).toMatch(/planning aid/);
   });

@@ -2,7 +2,8 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { compileStation } from '@shared/compute/compiled-station';
 import { findRoute } from '@shared/compute/routes';
-import { computeTimeline } from '@shared/compute/timeline';
+import { computeTimeline } from '@shared/compute/day/timeline';
+import { dayStationOf } from '@shared/compute/day/station';
 import { generateTrussStation } from '@shared/compute/truss-generator';
 import { planWalkthrough, routeWalkthrough, sampleTrack } from '@shared/compute/walkthrough';
 import type { RouteFeasible } from '@shared/schemas/route';
@@ -122,37 +123,25 @@ describe('plan walkthrough', () => {
   ];
   const timeline = computeTimeline(
     {
-      plan: {
-        crew: { EV1: { name: 'A', tetherLengthM: 25.9 }, EV2: { name: 'B', tetherLengthM: 16.8 } },
-        routeMode: 'balanced',
-        allowRide: false,
-        orbitPhaseAtStartDeg: 0,
-        timeLimitSeconds: 23400,
-        egressSeconds: 1800,
-        ingressSeconds: 1800,
-        tasks,
-      },
-      airlockKey: airlock,
-      orbit: doc.orbit,
+      crew: { EV1: { name: 'A', tetherLengthM: 25.9 }, EV2: { name: 'B', tetherLengthM: 16.8 } },
+      routeMode: 'balanced',
+      allowRide: false,
+      orbitPhaseAtStartDeg: 0,
+      timeLimitSeconds: 23400,
+      egressSeconds: 1800,
+      ingressSeconds: 1800,
+      manifest: [],
+      tasks: tasks.map((t) => ({ ...t, tools: [], actions: [] })),
     },
-    (from, to, o) =>
-      findRoute(compiled, doc.settings, {
-        from,
-        to,
-        mode: o.mode,
-        tetherLengthM: o.tetherLengthM,
-        carrying: o.carrying,
-        allowRide: o.allowRide,
-      }),
+    dayStationOf(doc, compiled)!,
+    (request) => findRoute(compiled, doc.settings, request),
   );
   const walk = planWalkthrough(timeline, tasks, airlock, position);
 
-  it('each crew member’s steps match their timeline blocks one to one (plus restraint call-outs)', () => {
+  it('each crew member’s steps match their timeline blocks one to one, restraint blocks included', () => {
     for (const crew of ['EV1', 'EV2'] as const) {
       const blocks = timeline.crew[crew].blocks;
-      const steps = walk.crews[crew].steps.filter(
-        (s) => s.type !== 'restraint-in' && s.type !== 'restraint-out',
-      );
+      const steps = walk.crews[crew].steps;
       expect(steps.map((s) => s.type)).toEqual(blocks.map((b) => b.type));
       steps.forEach((s, i) => {
         expect(s.start).toBeCloseTo(blocks[i].start, 9);

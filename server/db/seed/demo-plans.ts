@@ -9,9 +9,12 @@ export const DEMO_STATION_NAME = 'Kestrel Station';
 const min = (m: number) => m * 60;
 
 /**
- * The two invented demo plans on Kestrel Station (DESIGN §7). Crew names are invented; durations
- * are plausible planning numbers, not from any real EVA. Each has one eclipse-only connector task,
- * and the orbit phase at start is chosen so that task falls in orbital night.
+ * The two invented demo plans on Kestrel Station. Crew names are invented; durations are plausible
+ * planning numbers, not from any real EVA. Each carries its hardware the way a team would: a
+ * portable foot restraint installed before the task that stands in it, tools in the hands of whoever
+ * uses them, a portable tether anchor set up early for the later translations, and a large item one
+ * crew member carries out and hands to the other. Each has one eclipse-only connector task, and the
+ * orbit phase at start is chosen so that task falls in orbital night.
  */
 export function demoPlanInputs(stationId: number): { draft: CreatePlanInput; approved: CreatePlanInput } {
   const draft = CreatePlanInputSchema.parse({
@@ -23,15 +26,21 @@ export function demoPlanInputs(stationId: number): { draft: CreatePlanInput; app
       EV2: { name: 'Idris Vanterpool', tetherLengthM: 25.9 },
     },
     routeMode: 'balanced',
-    orbitPhaseAtStartDeg: 352,
+    orbitPhaseAtStartDeg: 20,
     tasks: [
       {
-        title: 'Set up the foot restraint at the pump module',
+        title: 'Set up the portable anchor on the core module',
+        worksite: 'CORE-W01',
+        crew: 'EV2',
+        durationSeconds: min(5),
+        actions: [{ do: 'install', item: 'anchor-1', at: 'CORE-J03' }],
+      },
+      {
+        title: 'Install the foot restraint at the pump module',
         worksite: 'SB3-W01',
-        crew: 'both',
-        durationSeconds: min(20),
-        socket: 'SB3-S05',
-        tools: ['Foot restraint', 'Pistol grip tool'],
+        crew: 'EV1',
+        durationSeconds: min(10),
+        actions: [{ do: 'install', item: 'restraint-1', at: 'SB3-S05' }],
       },
       {
         title: 'Demate the pump power connectors',
@@ -39,7 +48,7 @@ export function demoPlanInputs(stationId: number): { draft: CreatePlanInput; app
         crew: 'EV1',
         durationSeconds: min(15),
         eclipseOnly: true,
-        tools: ['Connector tool'],
+        tools: ['connector-tool'],
         notes: 'Connectors carry array power: orbital night only.',
       },
       {
@@ -47,37 +56,72 @@ export function demoPlanInputs(stationId: number): { draft: CreatePlanInput; app
         worksite: 'SB3-W01',
         crew: 'both',
         durationSeconds: min(45),
-        socket: 'SB3-S05',
-        tools: ['Pistol grip tool'],
+        sockets: { EV1: 'SB3-S05' },
+        tools: ['driver'],
+        actions: [{ do: 'pick-up', item: 'failed-pump', by: 'EV2' }],
       },
       {
         title: 'Stow the failed pump on the platform',
         worksite: 'CB-W01',
         crew: 'EV2',
         durationSeconds: min(25),
-        carrying: true,
-        tools: ['Pump bag'],
+        actions: [
+          { do: 'set-down', item: 'failed-pump' },
+          { do: 'pick-up', item: 'spare-pump' },
+        ],
+      },
+      {
+        title: 'Hand the spare pump up',
+        worksite: 'SB3-W01',
+        crew: 'both',
+        durationSeconds: min(10),
+        sockets: { EV1: 'SB3-S05' },
+        actions: [{ do: 'hand-over', item: 'spare-pump', by: 'EV2' }],
       },
       {
         title: 'Install the spare pump module',
         worksite: 'SB3-W01',
-        crew: 'both',
-        durationSeconds: min(45),
+        crew: 'EV1',
+        durationSeconds: min(40),
         socket: 'SB3-S05',
-        carrying: true,
-        tools: ['Pistol grip tool'],
+        tools: ['driver'],
+        actions: [{ do: 'set-down', item: 'spare-pump' }],
+      },
+      {
+        title: 'Take the foot restraint down',
+        worksite: 'SB3-W01',
+        crew: 'EV1',
+        durationSeconds: min(10),
+        actions: [{ do: 'remove', item: 'restraint-1', at: 'SB3-S05' }],
+      },
+      {
+        title: 'Take the portable anchor down',
+        worksite: 'CORE-W01',
+        crew: 'EV2',
+        durationSeconds: min(5),
+        actions: [{ do: 'remove', item: 'anchor-1', at: 'CORE-J03' }],
       },
     ],
     manifest: [
-      { name: 'Pistol grip tool', kind: 'tool', carriedBy: 'EV1', endsAt: 'airlock' },
-      { name: 'Connector tool', kind: 'tool', carriedBy: 'EV1', endsAt: 'airlock' },
-      { name: 'Foot restraint', kind: 'tool', carriedBy: 'EV2', endsAt: 'airlock' },
+      { key: 'driver', name: 'Power driver', kind: 'tool', carriedBy: 'EV1' },
+      { key: 'connector-tool', name: 'Connector tool', kind: 'tool', carriedBy: 'EV1' },
+      { key: 'restraint-1', name: 'Portable foot restraint', kind: 'foot-restraint', carriedBy: 'EV1' },
+      { key: 'anchor-1', name: 'Portable tether anchor', kind: 'tether-anchor', carriedBy: 'EV2' },
       {
-        name: 'Pump bag',
-        kind: 'bag',
-        carriedBy: 'EV2',
-        endsAt: 'CB-W01',
-        notes: 'Left on the platform with the failed pump.',
+        key: 'failed-pump',
+        name: 'Failed pump module',
+        kind: 'large-item',
+        startsAt: 'SB3-W01',
+        leaveOutside: true,
+        notes: 'Stays on the platform for disposal on a later EVA.',
+      },
+      {
+        key: 'spare-pump',
+        name: 'Spare pump module',
+        kind: 'large-item',
+        startsAt: 'CB-W01',
+        leaveOutside: true,
+        notes: 'Installed on the pump module: stays outside.',
       },
     ],
   });
@@ -93,13 +137,28 @@ export function demoPlanInputs(stationId: number): { draft: CreatePlanInput; app
     orbitPhaseAtStartDeg: 348,
     tasks: [
       {
-        title: 'Carry the camera boom to its mount',
+        title: 'Set up the portable anchor at the boom mount',
+        worksite: 'PB2-W01',
+        crew: 'EV2',
+        durationSeconds: min(5),
+        carrying: false,
+        actions: [{ do: 'install', item: 'anchor-1', at: 'PB2-J11' }],
+        notes: 'Saves EV2 a swap on every later pass of the port truss on the shorter tether.',
+      },
+      {
+        title: 'Install the foot restraint at the boom mount',
+        worksite: 'PB2-W01',
+        crew: 'EV1',
+        durationSeconds: min(10),
+        actions: [{ do: 'install', item: 'restraint-1', at: 'PB2-S05' }],
+      },
+      {
+        title: 'Hand the camera boom up to the mount',
         worksite: 'PB2-W01',
         crew: 'both',
-        durationSeconds: min(20),
-        socket: 'PB2-S05',
-        carrying: true,
-        tools: ['Boom bag'],
+        durationSeconds: min(15),
+        sockets: { EV1: 'PB2-S05' },
+        actions: [{ do: 'hand-over', item: 'boom', by: 'EV2' }],
       },
       {
         title: 'Bolt the boom to the mount',
@@ -107,27 +166,50 @@ export function demoPlanInputs(stationId: number): { draft: CreatePlanInput; app
         crew: 'EV1',
         durationSeconds: min(40),
         socket: 'PB2-S05',
-        tools: ['Pistol grip tool'],
+        tools: ['driver'],
+        actions: [
+          { do: 'set-down', item: 'boom' },
+          { do: 'set-down', item: 'parts-bag' },
+        ],
       },
       {
         title: 'Mate the camera feed connector',
-        worksite: 'PB3-W01',
+        worksite: 'SB1-W01',
         crew: 'EV2',
         durationSeconds: min(15),
         eclipseOnly: true,
-        tools: ['Connector tool'],
+        tools: ['connector-tool'],
+        notes: 'The feed runs through the starboard junction box: orbital night only.',
       },
       {
-        title: 'Check the end light and close out',
-        worksite: 'PB4-W01',
-        crew: 'EV2',
-        durationSeconds: min(15),
+        title: 'Take the portable anchor down',
+        worksite: 'PB2-W01',
+        crew: 'EV1',
+        durationSeconds: min(5),
+        actions: [{ do: 'remove', item: 'anchor-1', at: 'PB2-J11' }],
       },
     ],
     manifest: [
-      { name: 'Boom bag', kind: 'bag', carriedBy: 'EV1', endsAt: 'airlock' },
-      { name: 'Pistol grip tool', kind: 'tool', carriedBy: 'EV1', endsAt: 'airlock' },
-      { name: 'Connector tool', kind: 'tool', carriedBy: 'EV2', endsAt: 'airlock' },
+      { key: 'boom', name: 'Camera boom', kind: 'large-item', carriedBy: 'EV2', leaveOutside: true },
+      { key: 'driver', name: 'Power driver', kind: 'tool', carriedBy: 'EV1' },
+      { key: 'connector-tool', name: 'Connector tool', kind: 'tool', carriedBy: 'EV2' },
+      {
+        key: 'restraint-1',
+        name: 'Portable foot restraint',
+        kind: 'foot-restraint',
+        carriedBy: 'EV1',
+        leaveOutside: true,
+        notes: 'Left installed at the boom mount for the next EVA.',
+      },
+      { key: 'anchor-1', name: 'Portable tether anchor', kind: 'tether-anchor', carriedBy: 'EV2' },
+      {
+        key: 'parts-bag',
+        name: 'Boom parts bag',
+        kind: 'bag',
+        carriedBy: 'EV1',
+        leaveOutside: true,
+        notes: 'Staged at the boom mount for the next EVA.',
+      },
     ],
   });
   return { draft, approved };

@@ -1,7 +1,8 @@
 import { toCsv } from '../../lib/csv';
 import { buildCueCardPdf, type CueCardDocument, type CueStep } from '../../lib/pdf';
 import { formatElapsed } from '@shared/compute/units';
-import type { TimelineBlock } from '@shared/compute/timeline';
+import type { TimelineBlock } from '@shared/compute/day/types';
+import { describeAction, tetherAfterBlocks } from '@shared/compute/day/describe';
 import type { PlanView } from './plans.service';
 import type { PlanTimeline } from './plan-timeline.service';
 
@@ -15,14 +16,35 @@ export const CSV_HEADER = [
   'from',
   'to',
   'swaps',
+  'socket',
+  'tether_anchor',
+  'tether_out_m',
+  'equipment',
   'notes',
 ];
+
+/** What the crew member does with items in this block: the task's actions, on its work block. */
+function equipmentSteps(plan: PlanView, block: TimelineBlock, member: 'EV1' | 'EV2'): string[] {
+  if (block.type !== 'work' || block.taskIndex === undefined) return [];
+  const task = plan.tasks[block.taskIndex];
+  return task.actions
+    .filter((a) => task.crew !== 'both' || a.by === member)
+    .map((a) =>
+      describeAction(
+        task,
+        a,
+        plan.manifest.map((m, i) => ({ key: m.key ?? `item-${i + 1}`, name: m.name })),
+      ),
+    );
+}
 
 function blockNotes(block: TimelineBlock): string {
   const notes: string[] = [];
   if (block.type === 'wait' || block.type === 'translate') notes.push(block.label);
   if (block.type === 'swap' && block.swapNode)
-    notes.push(`clip the new hook at ${block.swapNode}, then release the old one`);
+    notes.push(
+      `clip the new hook at ${block.swapNode}, then release the old one at ${block.releaseNode ?? '?'}`,
+    );
   if (block.unreached) notes.push('worksite not reached: see the plan warnings');
   return notes.join('; ');
 }
@@ -31,7 +53,9 @@ function blockNotes(block: TimelineBlock): string {
 export function timelineCsv(plan: PlanView, timeline: PlanTimeline): string {
   const rows: (string | number)[][] = [];
   for (const member of ['EV1', 'EV2'] as const) {
-    for (const b of timeline.crew[member].blocks) {
+    const blocks = timeline.crew[member].blocks;
+    const tethers = tetherAfterBlocks(blocks, timeline.airlockKey);
+    blocks.forEach((b, k) => {
       const task = b.taskIndex === undefined ? undefined : plan.tasks[b.taskIndex];
       rows.push([
         `${member} ${plan.crew[member].name}`,
@@ -43,9 +67,13 @@ export function timelineCsv(plan: PlanView, timeline: PlanTimeline): string {
         b.from ?? '',
         b.to ?? '',
         b.type === 'swap' ? (b.swapNode ?? '') : '',
+        b.socket ?? '',
+        tethers[k].anchor,
+        Math.round(tethers[k].paidOutM * 10) / 10,
+        equipmentSteps(plan, b, member).join('; '),
         blockNotes(b),
       ]);
-    }
+    });
   }
   // CRLF per RFC 4180; a typed title starting with = + - @ must not run as a spreadsheet formula
   return toCsv(CSV_HEADER, rows);
@@ -65,11 +93,12 @@ export function exportFileName(plan: PlanView, ext: string): string {
 const overlapsNight = (b: { start: number; end: number }, nights: PlanTimeline['nightWindows']) =>
   nights.some((w) => b.start < w.end && b.end > w.start);
 
-function cueStep(plan: PlanView, b: TimelineBlock, timeline: PlanTimeline): CueStep {
+function cueStep(plan: PlanView, b: TimelineBlock, timeline: PlanTimeline, member: 'EV1' | 'EV2'): CueStep {
   const night = overlapsNight(b, timeline.nightWindows);
   const base = { start: b.start, end: b.end, kind: b.type, night };
-  if (b.type === 'translate' && b.route) {
-    const legs = b.route.legs.slice(b.legStart ?? 0, b.legEnd ?? b.route.legs.length);
+  const route = b.routeIndex === undefined ? undefined : timeline.routes[b.routeIndex];
+  if (b.type === 'translate' && route) {
+    const legs = route.legs.slice(b.legStart ?? 0, b.legEnd ?? route.legs.length);
     const metres = legs.reduce((s, l) => s + l.lengthM, 0);
     const via =
       legs.length > 1
@@ -80,27 +109,35 @@ function cueStep(plan: PlanView, b: TimelineBlock, timeline: PlanTimeline): CueS
               .join(', ')}`,
           ]
         : [];
-    return { ...base, text: `Translate ${b.from} → ${b.to}, ${metres.toFixed(1)} m`, details: via };
-  }
-  if (b.type === 'swap' && b.swapNode) {
-    const swap = b.route?.swaps.find((s) => s.node === b.swapNode);
+    const tether = b.tetherAtEnd
+      ? [`clipped at ${b.tetherAtEnd.anchor}, ${b.tetherAtEnd.paidOutM.toFixed(1)} m out on arrival`]
+      : [];
     return {
       ...base,
-      text: `Tether swap at ${b.swapNode}: clip the new hook at ${b.swapNode}, then release the old one`,
-      details: swap ? [`${swap.paidOutM.toFixed(1)} m paid out before the swap`] : [],
+      text: `Translate ${b.from} → ${b.to}, ${metres.toFixed(1)} m`,
+      details: [...via, ...tether],
+    };
+  }
+  if (b.type === 'swap' && b.swapNode) {
+    return {
+      ...base,
+      text: `Tether swap at ${b.swapNode}: clip the new hook at ${b.swapNode}, then release the old one at ${b.releaseNode ?? '?'}`,
+      details: b.paidOutM === undefined ? [] : [`${b.paidOutM.toFixed(1)} m paid out before the swap`],
+    };
+  }
+  if (b.type === 'restraint-in' && b.socket) {
+    return {
+      ...base,
+      text: `Into the foot restraint on ${b.socket}`,
+      details: b.yawSetDeg === undefined ? [] : [`set yaw ${b.yawSetDeg}°, pitch ${b.pitchSetDeg}°`],
     };
   }
   if (b.type === 'work' && b.taskIndex !== undefined) {
     const task = plan.tasks[b.taskIndex];
-    const reach = timeline.reach.find((r) => r.taskIndex === b.taskIndex)?.reach;
     const details = [
-      `at ${task.worksite}`,
-      ...(task.socket
-        ? [
-            `foot restraint on ${task.socket}${reach ? `, yaw ${reach.yawSetDeg}°, pitch ${reach.pitchSetDeg}°` : ''}`,
-          ]
-        : []),
+      `at ${task.worksite}${b.socket ? `, from the foot restraint on ${b.socket}` : ''}`,
       ...(task.tools.length ? [`tools: ${task.tools.join(', ')}`] : []),
+      ...equipmentSteps(plan, b, member),
       ...(task.eclipseOnly ? ['ECLIPSE ONLY: do this in orbital night'] : []),
       ...(b.unreached ? ['worksite not reached by the plan: see the warnings'] : []),
       ...(task.notes ? [task.notes] : []),
@@ -114,14 +151,14 @@ function cueStep(plan: PlanView, b: TimelineBlock, timeline: PlanTimeline): CueS
 export function cueCardDocument(plan: PlanView, timeline: PlanTimeline): CueCardDocument {
   const cards = (['EV1', 'EV2'] as const).map((member) => {
     const tools = plan.manifest
-      .filter((m) => m.carriedBy === member)
+      .filter((m) => m.carriedBy === member && m.startsAt === 'airlock' && !m.installedAt)
       .map((m) => (m.quantity > 1 ? `${m.name} ×${m.quantity}` : m.name));
     return {
       member,
       name: plan.crew[member].name,
       tetherLengthM: plan.crew[member].tetherLengthM,
       tools,
-      steps: timeline.crew[member].blocks.map((b) => cueStep(plan, b, timeline)),
+      steps: timeline.crew[member].blocks.map((b) => cueStep(plan, b, timeline, member)),
     };
   });
   return {
@@ -130,9 +167,7 @@ export function cueCardDocument(plan: PlanView, timeline: PlanTimeline): CueCard
     caution: timeline.caution,
     cards,
     nightWindows: timeline.nightWindows,
-    warnings: [...timeline.warnings, ...timeline.reachWarnings, ...timeline.inventoryWarnings].map(
-      (w) => w.message,
-    ),
+    warnings: timeline.warnings.map((w) => w.message),
     formatTime: (s) => formatElapsed(s),
   };
 }

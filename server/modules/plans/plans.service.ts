@@ -15,8 +15,12 @@ import {
 import { badRequest, conflict, forbidden, notFound, staleVersion } from '../../lib/http-error';
 import type { ErrorDetail } from '@shared/errors';
 import {
+  AIRLOCK_LOCATION,
   PLAN_SETTING_KEYS,
+  planReferenceProblems,
   planSettingsOf,
+  withItemKeys,
+  withOwnSockets,
   type CreatePlanInput,
   type ManifestItem,
   type PlanSettings,
@@ -25,7 +29,7 @@ import {
   type Task,
   type UpdatePlanInput,
 } from '@shared/schemas/plan';
-import type { StationDocument } from '@shared/schemas/station';
+import { formatIssuePath, type StationDocument } from '@shared/schemas/station';
 import { recordActivity } from '../activity/activity.service';
 import { getCompiledStation, stationVersion } from '../compute/compiled-cache';
 
@@ -158,17 +162,21 @@ export function getPlan(db: Db, id: number): PlanView {
       eclipseOnly: t.eclipseOnly,
       carrying: t.carrying,
       ...(t.socketKey ? { socket: t.socketKey } : {}),
+      ...(t.socketsJson ? { sockets: JSON.parse(t.socketsJson) as Task['sockets'] } : {}),
       tools: JSON.parse(t.toolsJson) as string[],
+      actions: JSON.parse(t.actionsJson) as Task['actions'],
       ...(t.notes ? { notes: t.notes } : {}),
     })),
-    manifest: itemRows.map((m): ManifestItem => ({
+    manifest: itemRows.map((m): ManifestItem & { key: string } => ({
       id: m.id,
+      key: m.key,
       name: m.name,
       kind: m.kind,
       quantity: m.quantity,
-      carriedBy: m.carriedBy,
+      ...(m.carriedBy ? { carriedBy: m.carriedBy } : {}),
       startsAt: m.startsAt,
-      ...(m.endsAt ? { endsAt: m.endsAt } : {}),
+      ...(m.installedAt ? { installedAt: m.installedAt } : {}),
+      leaveOutside: m.leaveOutside,
       ...(m.notes ? { notes: m.notes } : {}),
     })),
     status: p.status,
@@ -186,21 +194,41 @@ export function getPlan(db: Db, id: number): PlanView {
   };
 }
 
-/** Worksites and sockets the tasks name must be nodes of that kind on the plan's station. */
+/**
+ * Worksites, sockets and item places the plan names must be nodes of the right kind on the plan's
+ * station: a task's worksite a worksite, its sockets sockets, where an item starts or an action
+ * happens any node (or `airlock`), where a foot restraint starts installed a socket.
+ */
 export function checkTaskKeys(
   doc: StationDocument,
-  planTasks: readonly Pick<Task, 'worksite' | 'socket'>[],
+  planTasks: readonly Pick<Task, 'worksite' | 'socket' | 'sockets' | 'actions'>[],
+  manifest: readonly Pick<ManifestItem, 'kind' | 'startsAt' | 'installedAt'>[] = [],
 ): ErrorDetail[] {
   const kindOf = new Map(doc.nodes.map((n) => [n.key, n.kind]));
   const details: ErrorDetail[] = [];
-  const check = (key: string, wanted: 'worksite' | 'socket', path: string) => {
-    const kind = kindOf.get(key);
-    if (kind === undefined) details.push({ path, message: `the station "${doc.name}" has no node "${key}"` });
-    else if (kind !== wanted) details.push({ path, message: `"${key}" is a ${kind}, not a ${wanted}` });
+  const check = (key: string, wanted: 'worksite' | 'socket' | 'node', path: (string | number)[]) => {
+    const kind = key === AIRLOCK_LOCATION && wanted === 'node' ? 'airlock' : kindOf.get(key);
+    const at = `body.${formatIssuePath(path)}`;
+    if (kind === undefined)
+      details.push({ path: at, message: `the station "${doc.name}" has no node "${key}"` });
+    else if (wanted !== 'node' && kind !== wanted)
+      details.push({ path: at, message: `"${key}" is a ${kind}, not a ${wanted}` });
   };
   planTasks.forEach((t, i) => {
-    check(t.worksite, 'worksite', `body.tasks.${i}.worksite`);
-    if (t.socket) check(t.socket, 'socket', `body.tasks.${i}.socket`);
+    check(t.worksite, 'worksite', ['tasks', i, 'worksite']);
+    if (t.socket) check(t.socket, 'socket', ['tasks', i, 'socket']);
+    for (const m of ['EV1', 'EV2'] as const) {
+      const socket = t.sockets?.[m];
+      if (socket) check(socket, 'socket', ['tasks', i, 'sockets', m]);
+    }
+    t.actions.forEach((a, j) => {
+      if (a.at) check(a.at, 'node', ['tasks', i, 'actions', j, 'at']);
+    });
+  });
+  manifest.forEach((m, i) => {
+    if (m.installedAt)
+      check(m.installedAt, m.kind === 'foot-restraint' ? 'socket' : 'node', ['manifest', i, 'installedAt']);
+    else check(m.startsAt, 'node', ['manifest', i, 'startsAt']);
   });
   return details;
 }
@@ -214,10 +242,16 @@ function stationDocFor(ctx: AppContext, stationId: number): StationDocument {
   return getCompiledStation(ctx, stationId).doc;
 }
 
-function assertKeys(doc: StationDocument, planTasks: readonly Task[]) {
-  const details = checkTaskKeys(doc, planTasks);
+function assertKeys(doc: StationDocument, planTasks: readonly Task[], manifest: readonly ManifestItem[]) {
+  const details = [
+    ...planReferenceProblems(planTasks, manifest).map((p) => ({
+      path: `body.${formatIssuePath(p.path)}`,
+      message: p.message,
+    })),
+    ...checkTaskKeys(doc, planTasks, manifest),
+  ];
   if (details.length)
-    throw badRequest(`Task ${details[0].path.replace('body.', '')}: ${details[0].message}`, details);
+    throw badRequest(`The plan is not valid: ${details[0].path} ${details[0].message}`, details);
 }
 
 function writeCrew(db: Db, planId: number, crew: CreatePlanInput['crew']) {
@@ -231,7 +265,7 @@ function writeCrew(db: Db, planId: number, crew: CreatePlanInput['crew']) {
 
 function writeTasks(db: Db, planId: number, list: readonly Task[]) {
   db.delete(tasks).where(eq(tasks.planId, planId)).run();
-  list.forEach((t, ord) =>
+  list.map(withOwnSockets).forEach((t, ord) =>
     db
       .insert(tasks)
       .values({
@@ -244,7 +278,9 @@ function writeTasks(db: Db, planId: number, list: readonly Task[]) {
         eclipseOnly: t.eclipseOnly,
         carrying: t.carrying,
         socketKey: t.socket ?? null,
+        socketsJson: t.sockets ? JSON.stringify(t.sockets) : null,
         toolsJson: JSON.stringify(t.tools),
+        actionsJson: JSON.stringify(t.actions),
         notes: t.notes ?? null,
       })
       .run(),
@@ -253,18 +289,20 @@ function writeTasks(db: Db, planId: number, list: readonly Task[]) {
 
 function writeManifest(db: Db, planId: number, list: readonly ManifestItem[]) {
   db.delete(manifestItems).where(eq(manifestItems.planId, planId)).run();
-  list.forEach((m, ord) =>
+  withItemKeys(list).forEach((m, ord) =>
     db
       .insert(manifestItems)
       .values({
         planId,
         ord,
+        key: m.key,
         name: m.name,
         kind: m.kind,
         quantity: m.quantity,
-        carriedBy: m.carriedBy,
+        carriedBy: m.carriedBy ?? null,
         startsAt: m.startsAt,
-        endsAt: m.endsAt ?? null,
+        installedAt: m.installedAt ?? null,
+        leaveOutside: m.leaveOutside,
         notes: m.notes ?? null,
       })
       .run(),
@@ -299,7 +337,7 @@ function audit(
 
 export function createPlan(ctx: AppContext, input: CreatePlanInput, actor: Actor): PlanView {
   const doc = stationDocFor(ctx, input.stationId);
-  assertKeys(doc, input.tasks);
+  assertKeys(doc, input.tasks, input.manifest);
   const settings = planSettingsOf(input);
   const plan = ctx.db.transaction((tx) => {
     const db = tx as unknown as Db;
@@ -372,8 +410,8 @@ export function updatePlan(ctx: AppContext, id: number, input: UpdatePlanInput, 
   if (current.status !== 'draft') throw conflict(LOCKED_MESSAGE[current.status]);
   const stationId = input.stationId ?? current.stationId;
   const nextTasks = input.tasks ?? current.tasks;
-  if (input.stationId !== undefined || input.tasks !== undefined)
-    assertKeys(stationDocFor(ctx, stationId), nextTasks);
+  if (input.stationId !== undefined || input.tasks !== undefined || input.manifest !== undefined)
+    assertKeys(stationDocFor(ctx, stationId), nextTasks, input.manifest ?? current.manifest);
 
   const settings: PlanSettings = planSettingsOf(current);
   for (const k of PLAN_SETTING_KEYS)

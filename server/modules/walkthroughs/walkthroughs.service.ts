@@ -173,7 +173,7 @@ export function planPlayback(
       CREW.map((c) => crews[c]),
       [timeline.airlockKey],
     ),
-    warnings: [...timeline.warnings.map((w) => w.message), ...timeline.reachWarnings.map((w) => w.message)],
+    warnings: timeline.warnings.map((w) => w.message),
   };
   return { playback, planVersion: plan.version };
 }

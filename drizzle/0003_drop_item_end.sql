@@ -1,0 +1,1 @@
+ALTER TABLE `manifest_items` DROP COLUMN `ends_at`;

@@ -1,0 +1,34 @@
+import type { CrewMember } from '../../schemas/plan';
+import type { DayItem, DayTask, TetherState, TimelineBlock } from './types';
+
+const VERBS = {
+  'pick-up': 'picks up',
+  'set-down': 'sets down',
+  install: 'installs',
+  remove: 'removes',
+  'hand-over': 'hands over',
+} as const;
+
+/** "EV1 installs foot restraint A at PB3-S2", in the words a cue card uses. */
+export function describeAction(
+  task: Pick<DayTask, 'crew' | 'worksite' | 'socket' | 'sockets'>,
+  action: DayTask['actions'][number],
+  items: readonly Pick<DayItem, 'key' | 'name'>[],
+): string {
+  const by: CrewMember = action.by ?? (task.crew === 'both' ? 'EV1' : task.crew);
+  const name = items.find((m) => m.key === action.item)?.name ?? action.item;
+  if (action.do === 'hand-over') return `${by} hands ${name} to ${by === 'EV1' ? 'EV2' : 'EV1'}`;
+  const at = action.at ?? (task.crew === 'both' ? task.sockets?.[by] : task.socket) ?? task.worksite;
+  const where = action.do === 'pick-up' || action.do === 'remove' ? `from ${at}` : `at ${at}`;
+  return `${by} ${VERBS[action.do]} ${name} ${where}`;
+}
+
+/** The tether state at the end of each block of one crew member's day (egress starts clipped at the airlock). */
+export function tetherAfterBlocks(blocks: readonly TimelineBlock[], airlockKey: string): TetherState[] {
+  let tether: TetherState = { anchor: airlockKey, paidOutM: 0 };
+  return blocks.map((b) => {
+    if (b.type === 'translate' && b.tetherAtEnd) tether = b.tetherAtEnd;
+    else if (b.type === 'swap' && b.swapNode) tether = { anchor: b.swapNode, paidOutM: 0 };
+    return tether;
+  });
+}

@@ -1,0 +1,796 @@
+import type { CrewMember } from '../../schemas/plan';
+import type { RouteFeasible } from '../../schemas/route';
+import type { ReachResult } from '../../schemas/sockets';
+import type { Vec3 } from '../../schemas/station';
+import {
+  dayNightWindows,
+  isWithinNight,
+  nextNightWindowFitting,
+  orbitSummary,
+  type OrbitSummary,
+  type OrbitWindow,
+} from '../orbit';
+import { reachCheck } from '../reach';
+import { formatElapsed, formatMinutes } from '../units';
+import { ItemLedger, describeWhere, placeWhere, sameWhere } from './items';
+import type {
+  CrewTimeline,
+  DayPlan,
+  DayRouteFn,
+  DayStation,
+  DayTask,
+  TaskReach,
+  TetherState,
+  Timeline,
+  TimelineBlock,
+  TimelineBlockType,
+  TimelineWarning,
+} from './types';
+import { tetherAtRouteEnd, tetherAtRouteStart } from './types';
+
+export const CREW: readonly CrewMember[] = ['EV1', 'EV2'];
+export const partnerOf = (m: CrewMember): CrewMember => (m === 'EV1' ? 'EV2' : 'EV1');
+
+const hm = (s: number) => formatElapsed(s);
+const taskName = (task: DayTask, i: number) => `Task ${i + 1} "${task.title}"`;
+const nameKey = (name: string) => name.trim().replace(/\s+/g, ' ').toLowerCase();
+const ATTACH_KINDS = new Set(['anchor', 'airlock']);
+/** Metres: distances along a route are sums of edge lengths, compared with this slack. */
+const ALONG_EPS_M = 1e-6;
+
+/** The members of a task: one, or both for a joint task. */
+export const membersOf = (task: Pick<DayTask, 'crew'>): readonly CrewMember[] =>
+  task.crew === 'both' ? CREW : [task.crew];
+
+/** The socket a crew member works from in a task, if any. */
+export function socketFor(task: Pick<DayTask, 'crew' | 'socket' | 'sockets'>, m: CrewMember) {
+  return task.crew === 'both' ? task.sockets?.[m] : task.socket;
+}
+
+type Step =
+  | { kind: 'travel'; task: number }
+  | { kind: 'restraint-in'; task: number }
+  | { kind: 'sync'; task: number }
+  | { kind: 'work'; task: number }
+  | { kind: 'after-work'; task: number }
+  | { kind: 'home' }
+  | { kind: 'sync-home' }
+  | { kind: 'ingress' };
+
+interface Lane {
+  crew: CrewMember;
+  t: number;
+  at: string;
+  tether: TetherState;
+  /** the socket whose restraint the crew member stands in */
+  restraint: string | null;
+  /** whether the crew member reached the current task's worksite */
+  reached: boolean;
+  blocks: TimelineBlock[];
+  steps: Step[];
+  pc: number;
+  /** waiting at a sync point for the partner */
+  waitingAt: string | null;
+}
+
+interface Pending {
+  t: number;
+  seq: number;
+  apply: () => void;
+}
+
+/**
+ * The two-person EVA day as one continuous state, simulated in time order.
+ *
+ * At every moment each crew member has a place, a tether state (the attach point clipped to and the
+ * metres out since it), maybe a foot restraint they stand in, and the items in their hands; every
+ * manifest item is in exactly one place. Both leave the airlock clipped there with nothing out, then
+ * take their tasks in plan order: translate (a route from their tether state on arrival at the last
+ * worksite, in the plan's mode, with the portable anchors installed at that moment as attach points,
+ * slowed by the carry factor while holding a large item), get into their foot restraint, work (a task
+ * for both starts when both are ready), get out. An item action's precondition is checked when the
+ * work starts and its effect applies when the work ends. At the end each translates back to the
+ * airlock and, as the hatch closes on both, one shared ingress block.
+ *
+ * The lanes advance in time order (the lane whose clock is earliest goes next, EV1 first on a tie),
+ * and an effect due at time t is applied before any step that starts at t or later, so what one crew
+ * member does is seen by the other exactly from the moment it is done, whatever the plan order.
+ *
+ * Problems never stop the day: an unreachable worksite keeps the work block (marked `unreached`),
+ * a failed precondition skips that action's effect, and each is a warning.
+ */
+export function computeTimeline(plan: DayPlan, station: DayStation, route: DayRouteFn): Timeline {
+  const warnings: TimelineWarning[] = [];
+  const routes: RouteFeasible[] = [];
+  const reach: TaskReach[] = [];
+  const { airlockKey } = station;
+  const ledger = new ItemLedger(plan.manifest, airlockKey);
+  const restraintSeconds = station.settings.restraintSeconds;
+  const isAttach = (key: string) => ATTACH_KINDS.has(station.node(key)?.kind ?? '');
+  const known = (key: string) => key === 'airlock' || station.node(key) !== undefined;
+
+  // ── static checks: places, tools, reach ─────────────────────────────────────────────────────────
+  const byNameOrKey = new Map<string, string[]>();
+  for (const item of plan.manifest) {
+    for (const k of new Set([item.key, nameKey(item.name)])) {
+      byNameOrKey.set(k, [...(byNameOrKey.get(k) ?? []), item.key]);
+    }
+    for (const [field, place] of [
+      ['starts at', item.installedAt === undefined ? item.startsAt : undefined],
+      ['is installed at', item.installedAt],
+    ] as const) {
+      if (place !== undefined && !known(place)) {
+        warnings.push({
+          code: 'unknown-start',
+          message: `${item.name} ${field} "${place}", which is not the airlock or a node of the station`,
+          item: item.key,
+        });
+      }
+    }
+  }
+  const toolItems = (tool: string) => byNameOrKey.get(tool) ?? byNameOrKey.get(nameKey(tool)) ?? [];
+  const usedItems = new Set<string>();
+  const knownSite = plan.tasks.map((task) => station.node(task.worksite) !== undefined);
+  const reachByTask = new Map<string, ReachResult>();
+  plan.tasks.forEach((task, i) => {
+    if (!knownSite[i]) {
+      warnings.push({
+        code: 'unknown-worksite',
+        message: `${taskName(task, i)}: the station has no node "${task.worksite}"`,
+        taskIndex: i,
+      });
+    }
+    for (const tool of new Set(task.tools)) {
+      const items = toolItems(tool);
+      items.forEach((k) => usedItems.add(k));
+      if (items.length === 0) {
+        warnings.push({
+          code: 'tool-not-in-manifest',
+          message: `${taskName(task, i)} uses ${tool}, which is not in the manifest`,
+          taskIndex: i,
+        });
+      }
+    }
+    for (const a of task.actions) {
+      usedItems.add(a.item);
+      if (a.at !== undefined && !known(a.at)) {
+        warnings.push({
+          code: 'unknown-place',
+          message: `${taskName(task, i)}: ${a.do} of ${ledger.item(a.item)?.name ?? a.item} at "${a.at}", which is not a node of the station`,
+          taskIndex: i,
+          item: a.item,
+        });
+      }
+    }
+    for (const m of membersOf(task)) {
+      const socket = socketFor(task, m);
+      if (socket === undefined) continue;
+      const r = checkReach(station, task, i, m, socket, warnings);
+      reach.push({ taskIndex: i, crew: m, socket, worksite: task.worksite, reach: r });
+      if (r) reachByTask.set(`${i}:${m}`, r);
+    }
+  });
+  for (const item of plan.manifest) {
+    if (item.kind === 'tool' && !usedItems.has(item.key)) {
+      warnings.push({
+        code: 'unused-tool',
+        message: `${item.name} is used by no task`,
+        item: item.key,
+      });
+    }
+  }
+
+  // ── the simulation ──────────────────────────────────────────────────────────────────────────────
+  const lanes = {} as Record<CrewMember, Lane>;
+  for (const m of CREW) {
+    const steps: Step[] = [];
+    plan.tasks.forEach((task, i) => {
+      if (!membersOf(task).includes(m)) return;
+      steps.push({ kind: 'travel', task: i }, { kind: 'restraint-in', task: i });
+      if (task.crew === 'both') steps.push({ kind: 'sync', task: i });
+      steps.push({ kind: 'work', task: i }, { kind: 'after-work', task: i });
+    });
+    steps.push({ kind: 'home' }, { kind: 'sync-home' }, { kind: 'ingress' });
+    lanes[m] = {
+      crew: m,
+      t: 0,
+      at: airlockKey,
+      tether: { anchor: airlockKey, paidOutM: 0 },
+      restraint: null,
+      reached: true,
+      blocks: [],
+      steps,
+      pc: 0,
+      waitingAt: null,
+    };
+    if (plan.egressSeconds > 0) push(lanes[m], 'egress', plan.egressSeconds, 'Egress');
+  }
+
+  const pending: Pending[] = [];
+  let seq = 0;
+  const later = (t: number, apply: () => void) => pending.push({ t, seq: seq++, apply });
+  const applyUpTo = (t: number) => {
+    pending.sort((a, b) => a.t - b.t || a.seq - b.seq);
+    while (pending.length && pending[0].t <= t) pending.shift()!.apply();
+  };
+  /** socket → who stands in its restraint */
+  const occupant = new Map<string, CrewMember>();
+  const actionsDone = new Set<number>();
+  const eclipseTasks: { index: number; start: number; end: number }[] = [];
+
+  const holdsLarge = (m: CrewMember) => ledger.heldBy(m).some((item) => item.kind === 'large-item');
+
+  /**
+   * How much tether may be out on arrival at a task's worksite so that the crew member can still
+   * reach an attach point when they leave (with the portable anchors as they will be after the task):
+   * without it, a route that uses the whole tether to get in would leave them unable to get out.
+   */
+  const endCap = (taskIndex: number, tetherLengthM: number): number | undefined => {
+    const task = plan.tasks[taskIndex];
+    const after = new Set(ledger.anchorNodes());
+    for (const a of task.actions) {
+      if (ledger.item(a.item)?.kind !== 'tether-anchor') continue;
+      const at = a.at ?? task.worksite;
+      if (a.do === 'install') after.add(at);
+      if (a.do === 'remove') after.delete(at);
+    }
+    const d = station.nearestAttachM(task.worksite, [...after], plan.allowRide);
+    return d === null || d <= 0 ? undefined : tetherLengthM - d;
+  };
+
+  const translate = (lane: Lane, to: string, carrying: boolean, taskIndex?: number): boolean => {
+    if (lane.at === to) return true;
+    const extra = new Set(ledger.anchorNodes());
+    // still clipped to a portable anchor someone removed meanwhile: the hook is on it until the first swap
+    if (!isAttach(lane.tether.anchor)) extra.add(lane.tether.anchor);
+    const tetherLengthM = plan.crew[lane.crew].tetherLengthM;
+    const request = {
+      from: lane.at,
+      to,
+      mode: plan.routeMode,
+      tetherLengthM,
+      carrying,
+      allowRide: plan.allowRide,
+      startAnchor: lane.tether.anchor,
+      startPaidOutM: Math.min(lane.tether.paidOutM, tetherLengthM * (1 - 1e-12)),
+      extraAttach: [...extra].sort(),
+    };
+    const cap = taskIndex === undefined ? undefined : endCap(taskIndex, tetherLengthM);
+    let result = cap === undefined ? route(request) : route({ ...request, endPaidOutMaxM: cap });
+    // no way in that leaves room to get out: take the best way in, and the way out will say so
+    if (!result.feasible && cap !== undefined) result = route(request);
+    const where =
+      taskIndex === undefined ? 'the airlock' : `${taskName(plan.tasks[taskIndex], taskIndex)} at ${to}`;
+    if (!result.feasible) {
+      warnings.push({
+        code: 'route-infeasible',
+        message: `${lane.crew} cannot get from ${lane.at} to ${where}: ${result.reason}`,
+        taskIndex,
+        crew: lane.crew,
+      });
+      return false;
+    }
+    for (const w of result.warnings) {
+      const caution = result.cautionHazards.some((h) => w.includes(h));
+      warnings.push({
+        code: caution ? 'route-caution' : 'route-note',
+        message: `${lane.crew} on the way to ${where}: ${w}`,
+        taskIndex,
+        crew: lane.crew,
+      });
+    }
+    routes.push(result);
+    layRoute(lane, result, routes.length - 1, taskIndex);
+    lane.at = to;
+    lane.tether = { ...tetherAtRouteEnd(result) };
+    return true;
+  };
+
+  const getOut = (lane: Lane, taskIndex?: number) => {
+    const socket = lane.restraint;
+    if (socket === null) return;
+    push(lane, 'restraint-out', restraintSeconds, `Out of the foot restraint at ${socket}`, {
+      socket,
+      ...(taskIndex === undefined ? {} : { taskIndex }),
+    });
+    lane.restraint = null;
+    const m = lane.crew;
+    later(lane.t, () => {
+      if (occupant.get(socket) === m) occupant.delete(socket);
+    });
+  };
+
+  const getIn = (lane: Lane, task: DayTask, i: number) => {
+    const socket = socketFor(task, lane.crew);
+    if (socket === undefined || lane.restraint === socket || !lane.reached) return;
+    // an unknown socket is warned about once, with the reach checks
+    if (station.node(socket) === undefined) return;
+    getOut(lane, i);
+    const restraints = ledger.installedAt(socket, 'foot-restraint');
+    const ref = { taskIndex: i, crew: lane.crew };
+    if (restraints.length === 0) {
+      const where = ledger
+        .keys()
+        .map((k) => ledger.item(k)!)
+        .filter((item) => item.kind === 'foot-restraint')
+        .map((item) => `${item.name} is ${describeWhere(ledger.where(item.key)!)}`);
+      warnings.push({
+        code: 'restraint-missing',
+        message: `${taskName(task, i)}: no foot restraint is installed in ${socket} when ${lane.crew} gets in at ${hm(lane.t)}${where.length ? ` (${where.join('; ')})` : ' (the manifest has none)'}`,
+        ...ref,
+      });
+    }
+    const other = occupant.get(socket);
+    if (other !== undefined && other !== lane.crew) {
+      warnings.push({
+        code: 'restraint-occupied',
+        message: `${taskName(task, i)}: ${other} is standing in the foot restraint at ${socket} when ${lane.crew} would get in at ${hm(lane.t)}; a restraint holds one person`,
+        ...ref,
+      });
+    }
+    const r = reachByTask.get(`${i}:${lane.crew}`);
+    push(lane, 'restraint-in', restraintSeconds, `Into the foot restraint at ${socket}`, {
+      taskIndex: i,
+      socket,
+      ...(r ? { yawSetDeg: r.yawSetDeg, pitchSetDeg: r.pitchSetDeg } : {}),
+    });
+    occupant.set(socket, lane.crew);
+    lane.restraint = socket;
+  };
+
+  /** Checks a task's tools and its item actions at the start of its work; schedules the effects. */
+  const startWork = (task: DayTask, i: number, start: number, members: readonly CrewMember[]) => {
+    const end = start + task.durationSeconds;
+    for (const tool of new Set(task.tools)) {
+      const items = toolItems(tool);
+      if (items.length === 0) continue;
+      const atHand = items.some((k) => {
+        const w = ledger.where(k)!;
+        return (
+          (w.kind === 'carried' && members.includes(w.crew)) || (w.kind === 'at' && w.node === task.worksite)
+        );
+      });
+      if (!atHand) {
+        const where = items.map((k) => `${ledger.item(k)!.name} is ${describeWhere(ledger.where(k)!)}`);
+        warnings.push({
+          code: 'tool-not-at-hand',
+          message: `${taskName(task, i)} needs ${tool} at ${hm(start)}, but ${where.join('; ')}`,
+          taskIndex: i,
+          ...(task.crew === 'both' ? {} : { crew: task.crew }),
+          item: items[0],
+        });
+      }
+    }
+    task.actions.forEach((a) => {
+      const item = ledger.item(a.item);
+      if (!item) return;
+      const by: CrewMember = a.by ?? (task.crew === 'both' ? 'EV1' : task.crew);
+      const defaultAt =
+        item.kind === 'foot-restraint' && (a.do === 'install' || a.do === 'remove')
+          ? (socketFor(task, by) ?? task.worksite)
+          : task.worksite;
+      const at = a.at ?? defaultAt;
+      const now = ledger.where(a.item)!;
+      const ref = { taskIndex: i, crew: by, item: a.item };
+      const said = `${taskName(task, i)}: ${by} cannot ${a.do.replace('-', ' ')} ${item.name} at ${hm(start)}`;
+      const held = now.kind === 'carried' && now.crew === by;
+      const notHeld = () =>
+        warnings.push({
+          code: 'item-not-held',
+          message: `${said}: ${by} is not holding it (it is ${describeWhere(now)})`,
+          ...ref,
+        });
+      switch (a.do) {
+        case 'pick-up': {
+          const there = placeWhere(at, airlockKey);
+          if (!sameWhere(now, there)) {
+            warnings.push({
+              code: 'item-not-there',
+              message: `${said}: it is ${describeWhere(now)}, not ${describeWhere(there)}`,
+              ...ref,
+            });
+            return;
+          }
+          later(end, () => ledger.move(a.item, end, { kind: 'carried', crew: by }));
+          return;
+        }
+        case 'set-down':
+          if (!held) return void notHeld();
+          later(end, () => ledger.move(a.item, end, placeWhere(at, airlockKey)));
+          return;
+        case 'install': {
+          if (!held) return void notHeld();
+          if (item.kind === 'foot-restraint') {
+            const node = station.node(at);
+            if (node && node.kind !== 'socket') {
+              warnings.push({
+                code: 'socket-unusable',
+                message: `${said}: ${at} is a ${node.kind}, not a foot-restraint socket`,
+                ...ref,
+              });
+              return;
+            }
+            const already = ledger.installedAt(at, 'foot-restraint');
+            if (already.length) {
+              warnings.push({
+                code: 'socket-occupied',
+                message: `${said}: ${already[0].name} is already installed in ${at}`,
+                ...ref,
+              });
+              return;
+            }
+          }
+          later(end, () => ledger.move(a.item, end, { kind: 'installed', node: at }));
+          return;
+        }
+        case 'remove':
+          if (!(now.kind === 'installed' && now.node === at)) {
+            warnings.push({
+              code: 'item-not-there',
+              message: `${said}: it is ${describeWhere(now)}, not installed at ${at}`,
+              ...ref,
+            });
+            return;
+          }
+          later(end, () => ledger.move(a.item, end, { kind: 'carried', crew: by }));
+          return;
+        case 'hand-over': {
+          if (!held) return void notHeld();
+          const to = partnerOf(by);
+          later(end, () => ledger.move(a.item, end, { kind: 'carried', crew: to }));
+          return;
+        }
+      }
+    });
+  };
+
+  const nextSocketOf = (lane: Lane): string | undefined => {
+    for (let pc = lane.pc; pc < lane.steps.length; pc++) {
+      const s = lane.steps[pc];
+      if (s.kind === 'travel') return socketFor(plan.tasks[s.task], lane.crew);
+    }
+    return undefined;
+  };
+
+  const run = (lane: Lane, step: Step) => {
+    const m = lane.crew;
+    switch (step.kind) {
+      case 'travel': {
+        const task = plan.tasks[step.task];
+        // still in the restraint the task uses: its worksite is in reach from there, nobody moves
+        if (lane.restraint !== null && socketFor(task, m) === lane.restraint) {
+          lane.reached = knownSite[step.task];
+          return;
+        }
+        getOut(lane, step.task);
+        lane.reached =
+          knownSite[step.task] && translate(lane, task.worksite, task.carrying || holdsLarge(m), step.task);
+        return;
+      }
+      case 'restraint-in':
+        getIn(lane, plan.tasks[step.task], step.task);
+        return;
+      case 'sync':
+        lane.waitingAt = `task:${step.task}`;
+        return;
+      case 'work': {
+        const task = plan.tasks[step.task];
+        const members = membersOf(task);
+        if (!actionsDone.has(step.task)) {
+          actionsDone.add(step.task);
+          if (members.every((x) => lanes[x].reached)) startWork(task, step.task, lane.t, members);
+          if (task.eclipseOnly)
+            eclipseTasks.push({ index: step.task, start: lane.t, end: lane.t + task.durationSeconds });
+        }
+        const socket = lane.restraint ?? undefined;
+        push(lane, 'work', task.durationSeconds, task.title, {
+          taskIndex: step.task,
+          ...(task.id === undefined ? {} : { taskId: task.id }),
+          ...(socket ? { socket } : {}),
+          ...(lane.reached ? {} : { unreached: true }),
+        });
+        return;
+      }
+      case 'after-work':
+        if (lane.restraint !== null && nextSocketOf(lane) !== lane.restraint) getOut(lane, step.task);
+        return;
+      case 'home':
+        getOut(lane);
+        translate(lane, airlockKey, holdsLarge(m));
+        return;
+      case 'sync-home':
+        lane.waitingAt = 'home';
+        return;
+      case 'ingress': {
+        for (const item of ledger.heldBy(m)) ledger.move(item.key, lane.t, { kind: 'airlock' });
+        if (plan.ingressSeconds > 0) push(lane, 'ingress', plan.ingressSeconds, 'Ingress');
+        return;
+      }
+    }
+  };
+
+  for (;;) {
+    const active = CREW.map((m) => lanes[m]).filter((l) => l.pc < l.steps.length);
+    if (active.length === 0) break;
+    const ready = active.filter((l) => l.waitingAt === null);
+    if (ready.length === 0) {
+      // both at a sync point: it must be the same one (tasks for both keep plan order in each lane)
+      const [a, b] = active;
+      if (!b || a.waitingAt !== b.waitingAt) throw new Error('internal: the crew lanes lost step');
+      const start = Math.max(a.t, b.t);
+      const why = a.waitingAt === 'home' ? 'at the airlock' : undefined;
+      for (const l of active) {
+        if (start > l.t) {
+          const taskIndex = why ? undefined : Number(l.waitingAt!.slice(5));
+          const at = why ?? `at ${plan.tasks[taskIndex!].worksite}`;
+          push(l, 'wait', start - l.t, `Wait for ${partnerOf(l.crew)} ${at}`, {
+            ...(taskIndex === undefined ? {} : { taskIndex }),
+          });
+        }
+        l.waitingAt = null;
+      }
+      continue;
+    }
+    // the earliest lane goes next (EV1 first on a tie); effects due by then are applied first
+    const lane = ready.reduce((best, l) => (l.t < best.t ? l : best));
+    applyUpTo(lane.t);
+    const step = lane.steps[lane.pc++];
+    run(lane, step);
+  }
+  applyUpTo(Infinity);
+
+  // ── the end of the day ──────────────────────────────────────────────────────────────────────────
+  const endSeconds = Math.max(lanes.EV1.t, lanes.EV2.t);
+  const equipment = ledger.tracks(endSeconds);
+  for (const track of equipment) {
+    const item = ledger.item(track.item)!;
+    const last = track.states[track.states.length - 1].where;
+    if (last.kind === 'airlock' || item.leaveOutside) continue;
+    warnings.push({
+      code: 'left-outside',
+      message: `${item.name} is ${describeWhere(last)} at the end of the day: bring it in, or mark it to stay outside for a later EVA`,
+      item: item.key,
+    });
+  }
+
+  const marginSeconds = plan.timeLimitSeconds - endSeconds;
+  if (marginSeconds < 0) {
+    warnings.push({
+      code: 'over-time-limit',
+      message: `The day ends at ${hm(endSeconds)} elapsed, ${hm(-marginSeconds)} past the ${hm(plan.timeLimitSeconds)} limit`,
+    });
+  }
+
+  const orbitInput = {
+    altitudeKm: station.orbit.altitudeKm,
+    betaDeg: plan.betaDegOverride ?? station.orbit.betaDeg,
+  };
+  const summary = orbitSummary(orbitInput);
+  const horizon = Math.max(plan.timeLimitSeconds, endSeconds);
+  // a little past the horizon, so a task near the end can still be offered the next night
+  const windows = dayNightWindows({
+    ...orbitInput,
+    phaseAtStartDeg: plan.orbitPhaseAtStartDeg,
+    durationSeconds: horizon + 2 * summary.periodSeconds,
+  });
+  for (const e of eclipseTasks.sort((a, b) => a.index - b.index)) {
+    if (isWithinNight(windows, e.start, e.end)) continue;
+    warnings.push(eclipseWarning(plan.tasks[e.index], e, windows, summary, orbitInput.betaDeg));
+  }
+
+  const shown = windows
+    .filter((w) => w.start < horizon)
+    .map((w) => ({ ...w, end: Math.min(w.end, horizon) }));
+  return {
+    crew: { EV1: summarise(lanes.EV1), EV2: summarise(lanes.EV2) },
+    routes,
+    equipment,
+    reach,
+    endSeconds,
+    timeLimitSeconds: plan.timeLimitSeconds,
+    marginSeconds,
+    fitsTimeLimit: marginSeconds >= 0,
+    orbit: { ...summary, ...orbitInput },
+    dayWindows: shown.filter((w) => w.kind === 'day'),
+    nightWindows: shown.filter((w) => w.kind === 'night'),
+    warnings,
+  };
+}
+
+function push(
+  lane: Lane,
+  type: TimelineBlockType,
+  seconds: number,
+  label: string,
+  extra: Partial<TimelineBlock> = {},
+) {
+  const block: TimelineBlock = { type, start: lane.t, end: lane.t + seconds, label, ...extra };
+  lane.blocks.push(block);
+  lane.t = block.end;
+}
+
+/**
+ * Lays a route into the lane: translate blocks split at the tether swaps, one swap block per swap,
+ * each translate with the tether state at its two ends. Their durations add up to the route's total.
+ */
+function layRoute(lane: Lane, route: RouteFeasible, routeIndex: number, taskIndex: number | undefined) {
+  const { legs, swaps } = route;
+  const perSwap = route.swapCount > 0 ? route.swapSeconds / route.swapCount : 0;
+  const travel = route.totalSeconds - route.swapSeconds;
+  const legSum = legs.reduce((s, l) => s + l.seconds, 0);
+  const scale = legSum > 0 ? travel / legSum : 0;
+  const tag = taskIndex === undefined ? {} : { taskIndex };
+  let tether: TetherState = { ...tetherAtRouteStart(route) };
+  let pieceStart = 0;
+  let pieceSeconds = 0;
+  let pieceM = 0;
+  const flush = (legEnd: number) => {
+    if (legEnd <= pieceStart) return;
+    const from = legs[pieceStart].from;
+    const to = legs[legEnd - 1].to;
+    const atEnd = { anchor: tether.anchor, paidOutM: tether.paidOutM + pieceM };
+    push(lane, 'translate', pieceSeconds, `Translate ${from} → ${to}`, {
+      ...tag,
+      from,
+      to,
+      routeIndex,
+      legStart: pieceStart,
+      legEnd,
+      tetherAtStart: tether,
+      tetherAtEnd: atEnd,
+    });
+    tether = atEnd;
+    pieceStart = legEnd;
+    pieceSeconds = 0;
+    pieceM = 0;
+  };
+  let s = 0;
+  const swapsUpTo = (atM: number, legIndex: number) => {
+    while (s < swaps.length && swaps[s].atM <= atM + ALONG_EPS_M) {
+      flush(legIndex);
+      const sw = swaps[s++];
+      push(lane, 'swap', perSwap, `Tether swap at ${sw.node}`, {
+        ...tag,
+        routeIndex,
+        swapNode: sw.node,
+        releaseNode: tether.anchor,
+        paidOutM: sw.paidOutM,
+      });
+      tether = { anchor: sw.node, paidOutM: 0 };
+    }
+  };
+  legs.forEach((leg, i) => {
+    swapsUpTo(leg.startM, i);
+    pieceSeconds += leg.seconds * scale;
+    pieceM += leg.lengthM;
+  });
+  flush(legs.length);
+  swapsUpTo(Infinity, legs.length);
+}
+
+function sumOf(blocks: TimelineBlock[], ...types: TimelineBlockType[]): number {
+  return blocks.reduce((s, b) => (types.includes(b.type) ? s + (b.end - b.start) : s), 0);
+}
+
+function summarise(lane: Lane): CrewTimeline {
+  return {
+    crew: lane.crew,
+    blocks: lane.blocks,
+    totalSeconds: lane.t,
+    idleSeconds: sumOf(lane.blocks, 'wait'),
+    workSeconds: sumOf(lane.blocks, 'work'),
+    translateSeconds: sumOf(lane.blocks, 'translate'),
+    swapSeconds: sumOf(lane.blocks, 'swap'),
+    swapCount: lane.blocks.filter((b) => b.type === 'swap').length,
+    restraintSeconds: sumOf(lane.blocks, 'restraint-in', 'restraint-out'),
+  };
+}
+
+/** The foot restraint's reach for one member's task; warnings when it is unusable or out of reach. */
+function checkReach(
+  station: DayStation,
+  task: DayTask,
+  i: number,
+  m: CrewMember,
+  socketKey: string,
+  warnings: TimelineWarning[],
+): ReachResult | null {
+  const site = station.node(task.worksite);
+  const socket = station.node(socketKey);
+  const name = taskName(task, i);
+  if (!socket) {
+    warnings.push({
+      code: 'unknown-socket',
+      message: `${name}: the station has no socket "${socketKey}"`,
+      taskIndex: i,
+      crew: m,
+    });
+    return null;
+  }
+  if (!site || socket.kind !== 'socket' || !socket.normal) {
+    warnings.push({
+      code: 'socket-unusable',
+      message: `${name}: ${!site ? `the station has no worksite "${task.worksite}"` : `"${socketKey}" is not a foot-restraint socket of the station`}`,
+      taskIndex: i,
+      crew: m,
+    });
+    return null;
+  }
+  const result = reachFrom(station, socketKey, socket.position, socket.normal, site.position);
+  if (result.reachable) return result;
+  const reachingSockets = station.sockets
+    .map((s) => ({ key: s.key, r: reachFrom(station, s.key, s.position, s.normal, site.position) }))
+    .filter((x) => x.r.reachable)
+    .sort((a, b) => a.r.distanceM - b.r.distanceM)
+    .map((x) => x.key);
+  const others = reachingSockets.length
+    ? `; ${reachingSockets.slice(0, 3).join(', ')} would reach it`
+    : '; no socket of the station reaches it (run the socket planner)';
+  warnings.push({
+    code: 'socket-out-of-reach',
+    message: `${name}: from socket ${socketKey} the worksite ${task.worksite} is ${(result.distanceM - result.radiusM).toFixed(2)} m beyond ${m}'s reach${others}`,
+    taskIndex: i,
+    crew: m,
+    reachingSockets,
+  });
+  return result;
+}
+
+/** Reach from a socket to a target point with the station's reach settings. */
+export function reachFrom(
+  station: Pick<DayStation, 'settings'>,
+  socket: string,
+  position: Vec3,
+  normal: Vec3,
+  target: Vec3,
+): ReachResult {
+  const { reach } = station.settings;
+  const check = reachCheck({
+    socketPosition: position,
+    socketNormal: normal,
+    target,
+    standOffM: reach.standOffM,
+    radiusM: reach.radiusM,
+    yawStepDeg: reach.yawStepDeg,
+    pitchStepDeg: reach.pitchStepDeg,
+  });
+  const len = Math.hypot(...normal);
+  const workPoint = position.map((p, k) => p + (normal[k] / len) * reach.standOffM) as Vec3;
+  return { ...check, socket, workPoint, standOffM: reach.standOffM, radiusM: reach.radiusM };
+}
+
+function eclipseWarning(
+  task: DayTask,
+  e: { index: number; start: number; end: number },
+  windows: OrbitWindow[],
+  orbit: OrbitSummary,
+  betaDeg: number,
+): TimelineWarning {
+  const base = `${taskName(task, e.index)} must be done in orbital night but runs ${hm(e.start)}–${hm(e.end)} elapsed`;
+  if (orbit.eclipseSeconds <= 0) {
+    return {
+      code: 'eclipse-only-outside-night',
+      message: `${base}; at beta ${betaDeg}° this orbit has no night (beyond ${orbit.criticalBetaDeg.toFixed(1)}°)`,
+      taskIndex: e.index,
+    };
+  }
+  const slot = nextNightWindowFitting(windows, e.start, task.durationSeconds);
+  if (!slot) {
+    return {
+      code: 'eclipse-only-outside-night',
+      message: `${base}; no night window is long enough (night lasts ${formatMinutes(orbit.eclipseSeconds)}, the task ${formatMinutes(task.durationSeconds)})`,
+      taskIndex: e.index,
+    };
+  }
+  return {
+    code: 'eclipse-only-outside-night',
+    message: `${base}; the next night window it fits is ${hm(slot.window.start)}–${hm(slot.window.end)} (work ${hm(slot.start)}–${hm(slot.end)})`,
+    taskIndex: e.index,
+    nextWindow: {
+      start: slot.start,
+      end: slot.end,
+      nightStart: slot.window.start,
+      nightEnd: slot.window.end,
+    },
+  };
+}

@@ -1,0 +1,231 @@
+import type { CrewMember, ManifestItem, ManifestKind, Plan, Task } from '../../schemas/plan';
+import type { RouteFeasible, RouteMode, RouteResult } from '../../schemas/route';
+import type { ReachResult } from '../../schemas/sockets';
+import type { NodeKind, StationSettings, Vec3 } from '../../schemas/station';
+import type { OrbitInput, OrbitSummary, OrbitWindow } from '../orbit';
+
+export type { TetherState } from '../../schemas/route';
+import type { TetherState } from '../../schemas/route';
+
+/** Where a manifest item is at some moment of the day: exactly one of these. */
+export type ItemWhere =
+  | { kind: 'airlock' }
+  | { kind: 'carried'; crew: CrewMember }
+  | { kind: 'at'; node: string }
+  | { kind: 'installed'; node: string };
+
+export interface ItemState {
+  start: number;
+  end: number;
+  where: ItemWhere;
+}
+
+/** One item through the day: its states tile [0, day end] without gaps or overlaps. */
+export interface EquipmentTrack {
+  item: string;
+  name: string;
+  kind: ManifestKind;
+  states: ItemState[];
+}
+
+/** What the day asks of the route engine: a route from a tether state, with extra attach points. */
+export interface DayRouteRequest {
+  from: string;
+  to: string;
+  mode: RouteMode;
+  tetherLengthM: number;
+  carrying: boolean;
+  allowRide: boolean;
+  startAnchor: string;
+  startPaidOutM: number;
+  /** installed portable anchors: attach points for this route */
+  extraAttach: string[];
+  /** arrive with at most this much tether out (room left to reach an attach point afterwards) */
+  endPaidOutMaxM?: number;
+}
+
+/** The route engine, injected so the day can be computed against any station version. */
+export type DayRouteFn = (request: DayRouteRequest) => RouteResult;
+
+export interface DayNode {
+  kind: NodeKind;
+  position: Vec3;
+  normal?: Vec3;
+}
+
+/** What the day needs to know of the station. */
+export interface DayStation {
+  airlockKey: string;
+  orbit: OrbitInput;
+  settings: Pick<StationSettings, 'restraintSeconds' | 'reach'>;
+  node(key: string): DayNode | undefined;
+  /** the station's sockets, for suggesting one that reaches a worksite */
+  sockets: readonly { key: string; position: Vec3; normal: Vec3 }[];
+  /**
+   * Metres from `node` to the nearest attach point (the station's, or one of `extraAttach`) along
+   * ways open to a route; 0 at an attach point, null when none can be reached.
+   */
+  nearestAttachM(node: string, extraAttach: readonly string[], allowRide: boolean): number | null;
+}
+
+export type DayTask = Pick<
+  Task,
+  | 'id'
+  | 'title'
+  | 'worksite'
+  | 'crew'
+  | 'durationSeconds'
+  | 'eclipseOnly'
+  | 'carrying'
+  | 'socket'
+  | 'sockets'
+  | 'tools'
+  | 'actions'
+>;
+
+export type DayItem = Pick<ManifestItem, 'name' | 'kind' | 'carriedBy' | 'installedAt'> & {
+  key: string;
+  /** `airlock` (the default) or a node */
+  startsAt?: string;
+  leaveOutside?: boolean;
+};
+
+export type DayPlan = Pick<
+  Plan,
+  | 'crew'
+  | 'routeMode'
+  | 'allowRide'
+  | 'orbitPhaseAtStartDeg'
+  | 'timeLimitSeconds'
+  | 'egressSeconds'
+  | 'ingressSeconds'
+> & {
+  betaDegOverride?: number | null;
+  tasks: readonly DayTask[];
+  manifest: readonly DayItem[];
+};
+
+export type TimelineBlockType =
+  'egress' | 'translate' | 'swap' | 'restraint-in' | 'work' | 'restraint-out' | 'wait' | 'ingress';
+
+export interface TimelineBlock {
+  type: TimelineBlockType;
+  /** seconds of EVA elapsed time */
+  start: number;
+  end: number;
+  label: string;
+  taskIndex?: number;
+  taskId?: number;
+  /** translate: the stretch of the route this block covers */
+  from?: string;
+  to?: string;
+  /** translate and swap: index into the timeline's `routes`; a translate covers `legs[legStart, legEnd)` */
+  routeIndex?: number;
+  legStart?: number;
+  legEnd?: number;
+  /** translate: the tether at the start and at the end of the stretch */
+  tetherAtStart?: TetherState;
+  tetherAtEnd?: TetherState;
+  /** swap: the new hook is clipped at `swapNode`, then the old one released at `releaseNode` */
+  swapNode?: string;
+  releaseNode?: string;
+  /** swap: tether out from the old anchor just before the swap */
+  paidOutM?: number;
+  /** restraint-in, work, restraint-out: the foot-restraint socket */
+  socket?: string;
+  /** restraint-in: the restraint's set angles for the task */
+  yawSetDeg?: number;
+  pitchSetDeg?: number;
+  /** work: the crew member could not get to the worksite (see the warnings) */
+  unreached?: boolean;
+}
+
+export interface CrewTimeline {
+  crew: CrewMember;
+  blocks: TimelineBlock[];
+  totalSeconds: number;
+  idleSeconds: number;
+  workSeconds: number;
+  translateSeconds: number;
+  swapSeconds: number;
+  swapCount: number;
+  restraintSeconds: number;
+}
+
+export type TimelineWarningCode =
+  | 'over-time-limit'
+  | 'route-infeasible'
+  | 'route-caution'
+  | 'route-note'
+  | 'eclipse-only-outside-night'
+  | 'unknown-worksite'
+  | 'unknown-socket'
+  | 'socket-out-of-reach'
+  | 'socket-unusable'
+  | 'restraint-missing'
+  | 'restraint-occupied'
+  | 'socket-occupied'
+  | 'item-not-there'
+  | 'item-not-held'
+  | 'tool-not-at-hand'
+  | 'tool-not-in-manifest'
+  | 'unused-tool'
+  | 'unknown-start'
+  | 'unknown-place'
+  | 'left-outside';
+
+export interface TimelineWarning {
+  code: TimelineWarningCode;
+  message: string;
+  taskIndex?: number;
+  crew?: CrewMember;
+  /** the manifest item's key, where an item is concerned */
+  item?: string;
+  /** eclipse-only-outside-night: where the task would fit, when some night window has room */
+  nextWindow?: { start: number; end: number; nightStart: number; nightEnd: number };
+  /** socket-out-of-reach: sockets of the station that reach the worksite, nearest first */
+  reachingSockets?: string[];
+}
+
+/** A foot restraint's reach for one crew member's task. */
+export interface TaskReach {
+  taskIndex: number;
+  crew: CrewMember;
+  socket: string;
+  worksite: string;
+  /** null when the socket or the worksite is not a usable node of the station (see the warnings) */
+  reach: ReachResult | null;
+}
+
+export interface Timeline {
+  crew: Record<CrewMember, CrewTimeline>;
+  /** every route of the day, once; translate and swap blocks point into it */
+  routes: RouteFeasible[];
+  equipment: EquipmentTrack[];
+  reach: TaskReach[];
+  endSeconds: number;
+  timeLimitSeconds: number;
+  /** time limit − end; negative when the day runs over */
+  marginSeconds: number;
+  fitsTimeLimit: boolean;
+  orbit: OrbitSummary & { betaDeg: number; altitudeKm: number };
+  /** across [0, max(time limit, end)] */
+  dayWindows: OrbitWindow[];
+  nightWindows: OrbitWindow[];
+  warnings: TimelineWarning[];
+}
+
+/** The tether as a route starts: the engine's start state, else a fresh clip where it starts. */
+export function tetherAtRouteStart(route: RouteFeasible): TetherState {
+  return route.tetherAtStart ?? { anchor: route.nodes[0], paidOutM: 0 };
+}
+
+/** The tether on arrival: the last swap (else the start's anchor) and the metres out since it. */
+export function tetherAtRouteEnd(route: RouteFeasible): TetherState {
+  if (route.tetherAtEnd) return route.tetherAtEnd;
+  const start = tetherAtRouteStart(route);
+  const last = route.swaps[route.swaps.length - 1];
+  return last
+    ? { anchor: last.node, paidOutM: route.lengthM - last.atM }
+    : { anchor: start.anchor, paidOutM: start.paidOutM + route.lengthM };
+}

@@ -1,0 +1,214 @@
+import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
+import { computeTimeline } from '@shared/compute/day/timeline';
+import { planWalkthrough, sampleTrack } from '@shared/compute/walkthrough';
+import type { DayPlan, DayRouteFn, DayRouteRequest, Timeline } from '@shared/compute/day/types';
+import { ITEM_ACTIONS, MANIFEST_KINDS } from '@shared/schemas/plan';
+import { LINE_KEYS as K, buildDayPlan, dayEngine, dayTask, lineStationDocument } from '../factories/day';
+
+const doc = lineStationDocument();
+const { station, route } = dayEngine(doc);
+const ATTACH = new Set(
+  doc.nodes.filter((n) => n.kind === 'anchor' || n.kind === 'airlock').map((n) => n.key),
+);
+const NODES = doc.nodes.map((n) => n.key);
+const SITES = [K.w1, K.w2, K.w3];
+const ITEMS = ['fr-a', 'fr-b', 'anchor', 'big', 'driver', 'bag'];
+const KIND_OF: Record<string, (typeof MANIFEST_KINDS)[number]> = {
+  'fr-a': 'foot-restraint',
+  'fr-b': 'foot-restraint',
+  anchor: 'tether-anchor',
+  big: 'large-item',
+  driver: 'tool',
+  bag: 'bag',
+};
+
+/** Random plans on the line station, valid or not: the day must stay whole whatever they ask. */
+const planArb: fc.Arbitrary<DayPlan> = fc
+  .record({
+    tether: fc.constantFrom(12, 14, 20),
+    mode: fc.constantFrom('fastest' as const, 'fewest-swaps' as const, 'balanced' as const),
+    carriers: fc.array(fc.constantFrom('EV1' as const, 'EV2' as const, undefined), {
+      minLength: ITEMS.length,
+      maxLength: ITEMS.length,
+    }),
+    tasks: fc.array(
+      fc.record({
+        site: fc.constantFrom(...SITES),
+        crew: fc.constantFrom('EV1' as const, 'EV2' as const, 'both' as const),
+        duration: fc.integer({ min: 60, max: 1800 }),
+        socket: fc.boolean(),
+        tool: fc.boolean(),
+        actions: fc.array(
+          fc.record({
+            do: fc.constantFrom(...ITEM_ACTIONS),
+            item: fc.constantFrom(...ITEMS),
+            by: fc.constantFrom('EV1' as const, 'EV2' as const),
+            at: fc.option(fc.constantFrom(...NODES), { nil: undefined }),
+          }),
+          { maxLength: 3 },
+        ),
+      }),
+      { maxLength: 7 },
+    ),
+  })
+  .map(({ tether, mode, carriers, tasks }) =>
+    buildDayPlan({
+      crew: { EV1: { name: 'A', tetherLengthM: tether }, EV2: { name: 'B', tetherLengthM: tether } },
+      routeMode: mode,
+      manifest: ITEMS.map((key, i) => ({
+        key,
+        name: key,
+        kind: KIND_OF[key],
+        startsAt: 'airlock',
+        ...(carriers[i] ? { carriedBy: carriers[i] } : {}),
+      })),
+      tasks: tasks.map((t, i) =>
+        dayTask(`task ${i + 1}`, t.site, t.crew, t.duration, {
+          ...(t.socket && t.site === K.w2
+            ? t.crew === 'both'
+              ? { sockets: { EV1: K.s2 } }
+              : { socket: K.s2 }
+            : {}),
+          tools: t.tool ? ['driver'] : [],
+          actions: t.actions
+            .filter((a) => t.crew === 'both' || a.do !== 'hand-over')
+            .map((a) => ({
+              do: a.do,
+              item: a.item,
+              by: t.crew === 'both' ? a.by : t.crew,
+              ...(a.do === 'hand-over'
+                ? {}
+                : { at: a.at ?? (KIND_OF[a.item] === 'foot-restraint' ? K.s2 : t.site) }),
+            })),
+        }),
+      ),
+    }),
+  );
+
+const EPS = 1e-6;
+
+function checkTiling(t: Timeline) {
+  for (const track of t.equipment) {
+    const s = track.states;
+    expect(s.length).toBeGreaterThan(0);
+    expect(s[0].start).toBe(0);
+    expect(s[s.length - 1].end).toBe(t.endSeconds);
+    for (let i = 0; i < s.length; i++) {
+      expect(s[i].end).toBeGreaterThanOrEqual(s[i].start);
+      if (i > 0) {
+        expect(s[i].start).toBe(s[i - 1].end);
+        expect(s[i].where).not.toEqual(s[i - 1].where);
+      }
+    }
+  }
+}
+
+/** Where a portable anchor is installed at time t, from the equipment states. */
+function anchorsAt(t: Timeline, when: number): Set<string> {
+  const out = new Set<string>();
+  for (const track of t.equipment) {
+    if (track.kind !== 'tether-anchor') continue;
+    for (const s of track.states) {
+      if (s.where.kind === 'installed' && s.start <= when + EPS && when <= s.end + EPS) out.add(s.where.node);
+    }
+  }
+  return out;
+}
+
+describe('the continuous day (fast-check, random plans on the line station)', () => {
+  it('every item is in exactly one place at every instant: its states tile the day without gaps or overlaps', () => {
+    fc.assert(
+      fc.property(planArb, (plan) => checkTiling(computeTimeline(plan, station, route))),
+      { numRuns: 150 },
+    );
+  });
+
+  it("a crew member's paid-out length never exceeds their tether at any instant of the day", () => {
+    fc.assert(
+      fc.property(planArb, (plan) => {
+        const t = computeTimeline(plan, station, route);
+        const position = (key: string) => doc.nodes.find((n) => n.key === key)!.position;
+        const walk = planWalkthrough(t, plan.tasks, K.airlock, position);
+        for (const m of ['EV1', 'EV2'] as const) {
+          const tether = plan.crew[m].tetherLengthM;
+          for (const b of t.crew[m].blocks) {
+            if (b.tetherAtEnd) expect(b.tetherAtEnd.paidOutM).toBeLessThanOrEqual(tether + EPS);
+          }
+          const track = walk.crews[m];
+          for (let k = 0; k <= 200; k++) {
+            const s = sampleTrack(track, (track.endSeconds * k) / 200);
+            expect(s.paidOutM).toBeLessThanOrEqual(tether + EPS);
+          }
+        }
+      }),
+      { numRuns: 100 },
+    );
+  });
+
+  it('swaps happen only at attach points: the station’s, or a portable anchor installed at that moment', () => {
+    fc.assert(
+      fc.property(planArb, (plan) => {
+        const t = computeTimeline(plan, station, route);
+        for (const m of ['EV1', 'EV2'] as const) {
+          for (const b of t.crew[m].blocks) {
+            if (b.type !== 'swap') continue;
+            const ok = ATTACH.has(b.swapNode!) || anchorsAt(t, b.start).has(b.swapNode!);
+            expect(ok, `${m} swaps at ${b.swapNode} at ${b.start}`).toBe(true);
+          }
+        }
+      }),
+      { numRuns: 150 },
+    );
+  });
+
+  it('a route taken with portable anchors installed never has more swaps than the same request without them (fewest swaps)', () => {
+    fc.assert(
+      fc.property(planArb, (plan) => {
+        // the real engine, with each request the day makes recorded
+        const asked: DayRouteRequest[] = [];
+        const recording: DayRouteFn = (request) => {
+          asked.push(request);
+          return route(request);
+        };
+        computeTimeline({ ...plan, routeMode: 'fewest-swaps' }, station, recording);
+        for (const request of asked) {
+          if (request.extraAttach.length === 0 || !ATTACH.has(request.startAnchor)) continue;
+          const withAnchors = route(request);
+          const without = route({ ...request, extraAttach: [] });
+          if (without.feasible) {
+            expect(withAnchors.feasible).toBe(true);
+            if (withAnchors.feasible) expect(withAnchors.swapCount).toBeLessThanOrEqual(without.swapCount);
+          }
+        }
+      }),
+      { numRuns: 100 },
+    );
+  });
+
+  it('each lane is contiguous from 0, and a task for both starts its work at the same moment in both lanes', () => {
+    fc.assert(
+      fc.property(planArb, (plan) => {
+        const t = computeTimeline(plan, station, route);
+        for (const m of ['EV1', 'EV2'] as const) {
+          const blocks = t.crew[m].blocks;
+          let at = 0;
+          for (const b of blocks) {
+            expect(b.start).toBeCloseTo(at, 9);
+            expect(b.end).toBeGreaterThanOrEqual(b.start);
+            at = b.end;
+          }
+          expect(t.crew[m].totalSeconds).toBeCloseTo(at, 9);
+        }
+        plan.tasks.forEach((task, i) => {
+          if (task.crew !== 'both') return;
+          const starts = (['EV1', 'EV2'] as const).map(
+            (m) => t.crew[m].blocks.find((b) => b.type === 'work' && b.taskIndex === i)!.start,
+          );
+          expect(starts[0]).toBe(starts[1]);
+        });
+      }),
+      { numRuns: 150 },
+    );
+  });
+});
