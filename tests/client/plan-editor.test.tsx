@@ -1,66 +1,48 @@
 import { act } from 'react';
 import { afterEach, describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { computeTimeline, type RouteFn } from '@shared/compute/timeline';
+import { computeTimeline } from '@shared/compute/day/timeline';
 import { CreatePlanInputSchema, type Task } from '@shared/schemas/plan';
-import type { RouteFeasible } from '@shared/schemas/route';
 import { TimelineChart } from '@/features/plans/components/timeline-chart';
 import { TasksEditor } from '@/features/plans/components/tasks-editor';
 import { describeDifferences, draftChanges, draftFromPlan, moveItem } from '@/features/plans/lib/plan-draft';
 import type { PlanTimeline, PlanView } from '@/features/plans/types';
 import { render, type Rendered } from './render';
+import { LINE_KEYS, dayEngine, lineStationDocument } from '../factories/day';
 
-/** A station that is one straight handrail along x: node `N<x>` sits at x metres, 0.1 m/s. */
-const straightRoute: RouteFn = (from, to, options) => {
-  const at = (key: string) => (key === 'AL' ? 0 : Number(key.slice(1)));
-  const lengthM = Math.abs(at(to) - at(from));
-  const seconds = lengthM / 0.1;
-  const route: RouteFeasible = {
-    feasible: true,
-    mode: options.mode,
-    nodes: [from, to],
-    legs: [{ from, to, kind: 'handrail', lengthM, seconds, startM: 0 }],
-    lengthM,
-    travelSeconds: seconds,
-    swapCount: 0,
-    swaps: [],
-    swapSeconds: 0,
-    totalSeconds: seconds,
-    tetherLengthM: options.tetherLengthM,
-    maxPaidOutM: lengthM,
-    warnings: [],
-    cautionHazards: [],
-  };
-  return route;
-};
+// the real day on the line station (10 s a metre, 12 m default tether), see tests/factories/day.ts
+const engine = dayEngine(lineStationDocument());
 
 const tasks: Task[] = [
   {
     title: 'Mate connectors',
-    worksite: 'N20',
+    worksite: LINE_KEYS.w2,
     crew: 'both',
     durationSeconds: 1200,
     eclipseOnly: true,
     carrying: false,
     tools: [],
+    actions: [],
   },
   {
     title: 'Inspect hinge',
-    worksite: 'N40',
+    worksite: LINE_KEYS.w3,
     crew: 'EV1',
     durationSeconds: 2700,
     eclipseOnly: false,
     carrying: false,
     tools: [],
+    actions: [],
   },
   {
     title: 'Route cable',
-    worksite: 'N10',
+    worksite: LINE_KEYS.w1,
     crew: 'EV2',
     durationSeconds: 3600,
     eclipseOnly: false,
     carrying: false,
     tools: [],
+    actions: [],
   },
 ];
 
@@ -91,8 +73,9 @@ function planView(overrides: Partial<PlanView> = {}): PlanView {
 
 function planTimeline(plan: PlanView): PlanTimeline {
   const timeline = computeTimeline(
-    { plan, airlockKey: 'AL', orbit: { altitudeKm: 410, betaDeg: 20 } },
-    straightRoute,
+    { ...plan, manifest: plan.manifest.map((m, i) => ({ ...m, key: m.key ?? `item-${i + 1}` })) },
+    engine.station,
+    engine.route,
   );
   return {
     ...timeline,
@@ -100,10 +83,7 @@ function planTimeline(plan: PlanView): PlanTimeline {
     planVersion: plan.version,
     stationId: 1,
     stationVersion: 1,
-    airlockKey: 'AL',
-    inventoryWarnings: [],
-    reach: [],
-    reachWarnings: [],
+    airlockKey: LINE_KEYS.airlock,
     caution: '',
   };
 }
@@ -151,6 +131,7 @@ describe('plan draft helpers', () => {
       quantity: 1,
       carriedBy: 'EV1',
       startsAt: 'airlock',
+      leaveOutside: false,
     });
     const lines = describeDifferences(mine, theirs);
     expect(lines).toContain('EV2 name: Lars → Mira');
@@ -174,8 +155,10 @@ describe('timeline chart', () => {
 
     const translate = container.querySelector<SVGGElement>('[data-block-type="translate"]')!;
     await act(async () => translate.focus());
-    expect(container.textContent).toMatch(/Whole route: AL → N20, 20\.0 m/);
-    expect(translate.getAttribute('aria-label')).toMatch(/^EV1 Translate: .* 0:30 to 0:33$/);
+    expect(container.textContent).toMatch(/Whole route: AL → W2, 21\.5 m/);
+    expect(translate.getAttribute('aria-label')).toMatch(
+      /^EV1 Translate: Translate AL → \w+, 0:30 to 0:3\d$/,
+    );
   });
 });
 

@@ -3,7 +3,8 @@ import { act } from 'react';
 import { describe, expect, it } from 'vitest';
 import { compileStation } from '@shared/compute/compiled-station';
 import { findRoute } from '@shared/compute/routes';
-import { computeTimeline } from '@shared/compute/timeline';
+import { computeTimeline } from '@shared/compute/day/timeline';
+import { dayStationOf } from '@shared/compute/day/station';
 import { generateTrussStation } from '@shared/compute/truss-generator';
 import { planWalkthrough, routeWalkthrough, stepAt } from '@shared/compute/walkthrough';
 import type { RouteFeasible } from '@shared/schemas/route';
@@ -31,27 +32,33 @@ const worksites = doc.nodes.filter((n) => n.kind === 'worksite').map((n) => n.ke
 
 const route = (from: string, to: string, mode: 'fastest' | 'fewest-swaps' | 'balanced', tether: number) =>
   findRoute(compiled, doc.settings, { from, to, mode, tetherLengthM: tether });
+const station = dayStationOf(doc, compiled)!;
 
 function planPlayback(
   tasks: { worksite: string; crew: 'EV1' | 'EV2' | 'both'; durationSeconds: number }[],
 ): PlanPlayback {
-  const full = tasks.map((t, i) => ({ ...t, title: `Task ${i + 1}`, eclipseOnly: false, carrying: false }));
+  const full = tasks.map((t, i) => ({
+    ...t,
+    title: `Task ${i + 1}`,
+    eclipseOnly: false,
+    carrying: false,
+    tools: [],
+    actions: [],
+  }));
   const timeline = computeTimeline(
     {
-      plan: {
-        crew: { EV1: { name: 'A', tetherLengthM: 12 }, EV2: { name: 'B', tetherLengthM: 20 } },
-        routeMode: 'balanced',
-        allowRide: false,
-        orbitPhaseAtStartDeg: 0,
-        timeLimitSeconds: 23400,
-        egressSeconds: 1800,
-        ingressSeconds: 1800,
-        tasks: full,
-      },
-      airlockKey: airlock,
-      orbit: doc.orbit,
+      crew: { EV1: { name: 'A', tetherLengthM: 12 }, EV2: { name: 'B', tetherLengthM: 20 } },
+      routeMode: 'balanced',
+      allowRide: false,
+      orbitPhaseAtStartDeg: 0,
+      timeLimitSeconds: 23400,
+      egressSeconds: 1800,
+      ingressSeconds: 1800,
+      tasks: full,
+      manifest: [],
     },
-    (from, to, o) => route(from, to, o.mode, o.tetherLengthM),
+    station,
+    (request) => findRoute(compiled, doc.settings, request),
   );
   const walk = planWalkthrough(timeline, full, airlock, position);
   return {

@@ -1,10 +1,5 @@
-export type {
-  PlanListItem,
-  PlanTimeline,
-  PlanView,
-  ReachWarning,
-  TaskReach,
-} from '@shared/schemas/plan-views';
+export type { PlanListItem, PlanTimeline, PlanView } from '@shared/schemas/plan-views';
+export type { TaskReach } from '@shared/compute/day/types';
 
 /** What the plan screens need to know about the plan's station; the route module supplies it. */
 export interface StationChoice {

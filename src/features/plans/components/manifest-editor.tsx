@@ -6,6 +6,7 @@ import {
   ManifestItemSchema,
   ManifestKindSchema,
   type ManifestItem,
+  type ManifestKind,
 } from '@shared/schemas/plan';
 import { Button } from '@/components/ui/button';
 import { EmptyState } from '@/components/ui/card';
@@ -19,14 +20,28 @@ import { numberText } from '../lib/form-fields';
 
 export const itemRowId = (index: number) => `plan-item-${index + 1}`;
 
+const blankToUndefined = <T extends z.ZodType>(schema: T) =>
+  z.union([z.literal('').transform(() => undefined), schema]);
+
 const ItemFormSchema = z.object({
   name: ManifestItemSchema.shape.name,
   kind: ManifestKindSchema,
   quantity: numberText(ManifestItemSchema.shape.quantity.unwrap()),
-  carriedBy: CrewMemberSchema,
+  carriedBy: blankToUndefined(CrewMemberSchema),
   startsAt: ManifestItemSchema.shape.startsAt.unwrap(),
-  endsAt: z.union([z.literal('').transform(() => undefined), ManifestItemSchema.shape.endsAt.unwrap()]),
+  installedAt: blankToUndefined(ManifestItemSchema.shape.installedAt.unwrap()),
+  leaveOutside: z.boolean(),
 });
+
+export const KIND_NAMES: Record<ManifestKind, string> = {
+  tool: 'Tool',
+  bag: 'Bag',
+  'foot-restraint': 'Foot restraint (portable)',
+  'tether-anchor': 'Tether anchor (portable)',
+  'handling-aid': 'Handling aid',
+  'large-item': 'Large item',
+  other: 'Other',
+};
 
 interface ItemFormProps {
   item?: ManifestItem;
@@ -43,9 +58,10 @@ function ItemForm({ item, places, onSubmit, onCancel }: ItemFormProps) {
       name: item?.name ?? '',
       kind: item?.kind ?? 'tool',
       quantity: String(item?.quantity ?? 1),
-      carriedBy: item?.carriedBy ?? 'EV1',
+      carriedBy: item ? (item.carriedBy ?? '') : 'EV1',
       startsAt: item?.startsAt ?? AIRLOCK_LOCATION,
-      endsAt: item ? (item.endsAt ?? '') : AIRLOCK_LOCATION,
+      installedAt: item?.installedAt ?? '',
+      leaveOutside: item?.leaveOutside ?? false,
     },
   });
   const {
@@ -58,13 +74,15 @@ function ItemForm({ item, places, onSubmit, onCancel }: ItemFormProps) {
       onSubmit={(v) =>
         onSubmit({
           ...(item?.id === undefined ? {} : { id: item.id }),
+          ...(item?.key === undefined ? {} : { key: item.key }),
           ...(item?.notes ? { notes: item.notes } : {}),
           name: v.name,
           kind: v.kind,
           quantity: v.quantity,
-          carriedBy: v.carriedBy,
+          ...(v.carriedBy ? { carriedBy: v.carriedBy } : {}),
           startsAt: v.startsAt,
-          ...(v.endsAt ? { endsAt: v.endsAt } : {}),
+          ...(v.installedAt ? { installedAt: v.installedAt } : {}),
+          leaveOutside: v.leaveOutside,
         })
       }
     >
@@ -79,10 +97,7 @@ function ItemForm({ item, places, onSubmit, onCancel }: ItemFormProps) {
       <div className="grid gap-4 sm:grid-cols-3">
         <Field label="Kind" error={errors.kind?.message}>
           <Select
-            options={[
-              { value: 'tool', label: 'Tool' },
-              { value: 'bag', label: 'Bag' },
-            ]}
+            options={Object.entries(KIND_NAMES).map(([value, label]) => ({ value, label }))}
             {...register('kind')}
           />
         </Field>
@@ -94,6 +109,7 @@ function ItemForm({ item, places, onSubmit, onCancel }: ItemFormProps) {
             options={[
               { value: 'EV1', label: 'EV1' },
               { value: 'EV2', label: 'EV2' },
+              { value: '', label: 'Nobody (stays where it starts)' },
             ]}
             {...register('carriedBy')}
           />
@@ -104,13 +120,17 @@ function ItemForm({ item, places, onSubmit, onCancel }: ItemFormProps) {
           <Input list={listId} autoComplete="off" {...register('startsAt')} />
         </Field>
         <Field
-          label="Ends at"
-          error={errors.endsAt?.message}
-          hint="Blank: not yet decided (the inventory check warns)"
+          label="Installed at"
+          error={errors.installedAt?.message}
+          hint="A restraint's socket or an anchor's node, when it starts installed"
         >
-          <Input list={listId} autoComplete="off" {...register('endsAt')} />
+          <Input list={listId} autoComplete="off" {...register('installedAt')} />
         </Field>
       </div>
+      <label className="flex items-center gap-2 text-sm">
+        <input type="checkbox" {...register('leaveOutside')} />
+        Stays outside at the end of the day (staged for a later EVA)
+      </label>
       <FormActions submit={item ? 'Apply changes' : 'Add item'} onCancel={onCancel} />
     </Form>
   );
@@ -132,18 +152,19 @@ export function ManifestEditor({ manifest, onChange, readOnly, places }: Manifes
   return (
     <div className="space-y-3">
       {manifest.length === 0 ? (
-        <EmptyState>No tools or bags on the manifest.</EmptyState>
+        <EmptyState>Nothing on the manifest yet.</EmptyState>
       ) : (
         <Table caption="Manifest">
           <thead>
             <tr>
               <Th>#</Th>
               <Th>Name</Th>
-              <Th>Tool / bag</Th>
+              <Th>Key</Th>
+              <Th>Kind</Th>
               <Th>Qty</Th>
               <Th>Carried by</Th>
-              <Th>Starts at</Th>
-              <Th>Ends at</Th>
+              <Th>Starts</Th>
+              <Th>End of day</Th>
               {!readOnly && <Th className="text-right">Actions</Th>}
             </tr>
           </thead>
@@ -152,11 +173,12 @@ export function ManifestEditor({ manifest, onChange, readOnly, places }: Manifes
               <tr key={`${m.id ?? 'new'}-${i}`} id={itemRowId(i)} tabIndex={-1}>
                 <Td className="text-text-muted">{i + 1}</Td>
                 <Td className="font-medium text-text-strong">{m.name}</Td>
-                <Td>{m.kind === 'bag' ? 'Bag' : 'Tool'}</Td>
+                <Td className="font-mono text-xs">{m.key ?? '(new)'}</Td>
+                <Td>{KIND_NAMES[m.kind]}</Td>
                 <Td>{m.quantity}</Td>
-                <Td>{m.carriedBy}</Td>
-                <Td>{m.startsAt}</Td>
-                <Td>{m.endsAt ?? <span className="text-caution">⚠ not set</span>}</Td>
+                <Td>{m.carriedBy ?? '—'}</Td>
+                <Td>{m.installedAt ? `installed at ${m.installedAt}` : m.startsAt}</Td>
+                <Td>{m.leaveOutside ? 'stays outside' : 'back in the airlock'}</Td>
                 {!readOnly && (
                   <Td className="text-right whitespace-nowrap">
                     <Button
@@ -185,7 +207,7 @@ export function ManifestEditor({ manifest, onChange, readOnly, places }: Manifes
       )}
       {!readOnly && (
         <Button variant="secondary" onClick={() => setEditing('new')}>
-          Add tool or bag
+          Add an item
         </Button>
       )}
       <Dialog

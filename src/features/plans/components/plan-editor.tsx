@@ -172,10 +172,12 @@ export function PlanEditor({ plan, user, nodes, rehearseHref, extra }: PlanEdito
           </Panel>
         </div>
         <div className="space-y-5">
-          <Panel
-            title={`Warnings${tl ? ` (${tl.warnings.length + tl.reachWarnings.length + tl.inventoryWarnings.length})` : ''}`}
-          >
-            {tl ? <WarningsPanel timeline={tl} onGoTo={goTo} /> : <PageSpinner />}
+          <Panel title={`Warnings${tl ? ` (${tl.warnings.length})` : ''}`}>
+            {tl ? (
+              <WarningsPanel timeline={tl} itemKeys={plan.manifest.map((m) => m.key ?? '')} onGoTo={goTo} />
+            ) : (
+              <PageSpinner />
+            )}
           </Panel>
           <Panel title="Review">
             <ReviewPanel plan={plan} user={user} unsaved={editable && unsaved} />

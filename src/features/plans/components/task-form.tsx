@@ -83,6 +83,9 @@ export function TaskForm({ task, nodes, toolNames, onSubmit, onCancel }: TaskFor
       onSubmit={(v) =>
         onSubmit({
           ...(task?.id === undefined ? {} : { id: task.id }),
+          // what the form does not edit is kept as it was
+          actions: task?.actions ?? [],
+          ...(task?.sockets && v.crew === 'both' ? { sockets: task.sockets } : {}),
           title: v.title,
           worksite: v.worksite,
           crew: v.crew,

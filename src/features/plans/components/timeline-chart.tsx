@@ -1,6 +1,7 @@
 import { useId, useState } from 'react';
 import type { CrewMember, Task } from '@shared/schemas/plan';
-import type { TimelineBlock, TimelineBlockType } from '@shared/compute/timeline';
+import type { TimelineBlock, TimelineBlockType } from '@shared/compute/day/types';
+import type { RouteFeasible } from '@shared/schemas/route';
 import { formatElapsed, formatLength } from '@shared/compute/units';
 import { palette } from '../../../../tailwind.config';
 import type { PlanTimeline } from '../types';
@@ -21,7 +22,9 @@ export const BLOCK_NAMES: Record<TimelineBlockType, string> = {
   egress: 'Egress',
   translate: 'Translate',
   swap: 'Tether swap',
+  'restraint-in': 'Into foot restraint',
   work: 'Work',
+  'restraint-out': 'Out of foot restraint',
   wait: 'Wait',
   ingress: 'Ingress',
 };
@@ -31,6 +34,8 @@ const FILL: Record<TimelineBlockType, { fill: string; stroke: string; text: stri
   work: { fill: palette.accent.DEFAULT, stroke: palette.accent.strong, text: '#ffffff' },
   translate: { fill: 'url(#tl-hatch)', stroke: palette.ink[700], text: palette.text.strong },
   swap: { fill: 'url(#tl-cross)', stroke: palette.caution.DEFAULT, text: palette.text.strong },
+  'restraint-in': { fill: palette.accent.soft, stroke: palette.accent.strong, text: palette.text.strong },
+  'restraint-out': { fill: palette.accent.soft, stroke: palette.accent.strong, text: palette.text.strong },
   wait: { fill: palette.surface.panel, stroke: palette.text.muted, text: palette.text.muted, dash: '4 3' },
   egress: { fill: 'url(#tl-stripes)', stroke: palette.ink[700], text: palette.text.strong },
   ingress: { fill: 'url(#tl-stripes)', stroke: palette.ink[700], text: palette.text.strong },
@@ -62,17 +67,25 @@ function blockLabel(crew: CrewMember, block: TimelineBlock, tasks: readonly Task
 }
 
 /** The translate piece's own stretch of the route, in metres. */
-export function pieceLengthM(block: TimelineBlock): number {
-  const legs = block.route?.legs.slice(block.legStart ?? 0, block.legEnd ?? block.route.legs.length) ?? [];
+export function pieceLengthM(block: TimelineBlock, route: RouteFeasible | undefined): number {
+  const legs = route?.legs.slice(block.legStart ?? 0, block.legEnd ?? route.legs.length) ?? [];
   return legs.reduce((s, l) => s + l.lengthM, 0);
 }
 
-export function BlockDetails({ active, tasks }: { active: ActiveBlock | null; tasks: readonly Task[] }) {
+export function BlockDetails({
+  active,
+  tasks,
+  routes,
+}: {
+  active: ActiveBlock | null;
+  tasks: readonly Task[];
+  routes: readonly RouteFeasible[];
+}) {
   if (!active) {
     return <p className="text-sm text-text-muted">Point at or focus a block to see its times and route.</p>;
   }
   const { crew, block } = active;
-  const route = block.route;
+  const route = block.routeIndex === undefined ? undefined : routes[block.routeIndex];
   return (
     <div className="space-y-1 text-sm">
       <p className="font-semibold text-text-strong">
@@ -84,12 +97,23 @@ export function BlockDetails({ active, tasks }: { active: ActiveBlock | null; ta
         {block.unreached && <span className="ml-2 font-semibold text-danger">⚠ worksite not reached</span>}
       </p>
       {block.type === 'swap' && block.swapNode && (
-        <p>Clip the new hook at {block.swapNode}, then release the old one.</p>
+        <p>
+          Clip the new hook at {block.swapNode}, then release the old one at {block.releaseNode} (
+          {formatLength(block.paidOutM ?? 0)} out).
+        </p>
       )}
-      {route && (
+      {(block.type === 'restraint-in' || block.type === 'restraint-out') && block.socket && (
+        <p>
+          Socket {block.socket}
+          {block.yawSetDeg !== undefined && `: set yaw ${block.yawSetDeg}°, pitch ${block.pitchSetDeg}°`}
+        </p>
+      )}
+      {block.type === 'translate' && route && (
         <>
           <p>
-            This stretch: {block.from} → {block.to}, {formatLength(pieceLengthM(block))}
+            This stretch: {block.from} → {block.to}, {formatLength(pieceLengthM(block, route))}
+            {block.tetherAtEnd &&
+              `; clipped at ${block.tetherAtEnd.anchor}, ${formatLength(block.tetherAtEnd.paidOutM)} out at the end`}
           </p>
           <p>
             Whole route: {route.nodes[0]} → {route.nodes[route.nodes.length - 1]},{' '}
@@ -135,7 +159,7 @@ function Patterns() {
 }
 
 export function TimelineLegend() {
-  const kinds: TimelineBlockType[] = ['egress', 'translate', 'swap', 'work', 'wait'];
+  const kinds: TimelineBlockType[] = ['egress', 'translate', 'swap', 'restraint-in', 'work', 'wait'];
   return (
     <ul aria-label="Legend" className="flex flex-wrap gap-x-4 gap-y-1 text-xs text-text">
       {kinds.map((k) => (
@@ -152,7 +176,11 @@ export function TimelineLegend() {
               strokeDasharray={FILL[k].dash}
             />
           </svg>
-          {k === 'egress' ? 'Egress / ingress' : BLOCK_NAMES[k]}
+          {k === 'egress'
+            ? 'Egress / ingress'
+            : k === 'restraint-in'
+              ? 'Foot restraint in / out'
+              : BLOCK_NAMES[k]}
         </li>
       ))}
       <li className="flex items-center gap-1.5">
@@ -359,7 +387,7 @@ export function TimelineChart({ timeline, tasks }: TimelineChartProps) {
         aria-live="polite"
         className="min-h-16 rounded-md border border-surface-line bg-surface-sunken px-4 py-3"
       >
-        <BlockDetails active={active} tasks={tasks} />
+        <BlockDetails active={active} tasks={tasks} routes={timeline.routes} />
       </div>
     </div>
   );

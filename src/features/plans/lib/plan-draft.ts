@@ -66,6 +66,8 @@ const TASK_FIELDS: { key: keyof Task; label: string; show: (t: Task) => string }
   { key: 'eclipseOnly', label: 'eclipse only', show: (t) => (t.eclipseOnly ? 'yes' : 'no') },
   { key: 'carrying', label: 'carrying', show: (t) => (t.carrying ? 'yes' : 'no') },
   { key: 'socket', label: 'socket', show: (t) => t.socket ?? 'none' },
+  { key: 'sockets', label: 'sockets', show: (t) => (t.sockets ? JSON.stringify(t.sockets) : 'none') },
+  { key: 'actions', label: 'item actions', show: (t) => String(t.actions.length) },
   { key: 'tools', label: 'tools', show: (t) => t.tools.join(', ') || 'none' },
   { key: 'notes', label: 'notes', show: (t) => (t.notes ? q(t.notes) : 'none') },
 ];
@@ -74,9 +76,10 @@ const ITEM_FIELDS: { key: keyof ManifestItem; label: string; show: (m: ManifestI
   { key: 'name', label: 'name', show: (m) => q(m.name) },
   { key: 'kind', label: 'kind', show: (m) => m.kind },
   { key: 'quantity', label: 'quantity', show: (m) => String(m.quantity) },
-  { key: 'carriedBy', label: 'carried by', show: (m) => m.carriedBy },
+  { key: 'carriedBy', label: 'carried by', show: (m) => m.carriedBy ?? 'nobody' },
   { key: 'startsAt', label: 'starts at', show: (m) => m.startsAt },
-  { key: 'endsAt', label: 'ends at', show: (m) => m.endsAt ?? 'not set' },
+  { key: 'installedAt', label: 'installed at', show: (m) => m.installedAt ?? 'not installed' },
+  { key: 'leaveOutside', label: 'end of day', show: (m) => (m.leaveOutside ? 'stays outside' : 'airlock') },
 ];
 
 function listDifferences<T>(
