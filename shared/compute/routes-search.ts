@@ -311,6 +311,8 @@ export interface LabelSearchParams {
   isAttach: Uint8Array;
   /** metres already paid out at the start (a swap at the start, when it is an attach point, resets it) */
   startPaidOutM: number;
+  /** arrive with at most this much out (a label at the end with more goes on, to swap and come back) */
+  endPaidOutMaxM?: number;
 }
 
 export interface LabelPath {
@@ -422,12 +424,13 @@ function runLabels(
   offer(s, -1, -1, 0, 0, startPaid, 0);
   if (isAttach[s] && startPaid > 0) offer(s, -1, -1, 1, 0, 0, 1);
   let goal = -1;
+  const endLimit = (p.endPaidOutMaxM ?? Infinity) + TETHER_EPS_M;
   while (heap.size > 0) {
     const x = heap.pop();
     if (L.dead[x]) continue;
     if (L.size > cap) return 'cap';
     const v = L.node[x];
-    if (v === t) {
+    if (v === t && L.paid[x] <= endLimit) {
       goal = x;
       break;
     }
@@ -441,7 +444,8 @@ function runLabels(
       const u = targets[a];
       if (!bound(u)) continue;
       const ns = seconds + weights[a] * secondsFactor;
-      if (isAttach[u] && u !== t && np > 0) offer(u, x, a, swaps + 1, ns, 0, 1);
+      // a swap at the end only matters when the arrival must leave tether to spare
+      if (isAttach[u] && (u !== t || endLimit < Infinity) && np > 0) offer(u, x, a, swaps + 1, ns, 0, 1);
       offer(u, x, a, swaps, ns, np, 0);
     }
   }

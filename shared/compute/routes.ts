@@ -49,6 +49,8 @@ interface Query {
   startGiven: boolean;
   /** the start is a fresh clip at s on the station's own attach points: the clip graph answers it */
   fresh: boolean;
+  /** at most this many metres out on arrival (Infinity: no limit) */
+  endCap: number;
 }
 
 /**
@@ -143,7 +145,20 @@ function search(q: Query, objective: 'sum' | 'lex', swapCost: number) {
     maxSpeedMps: maxSpeed(q.settings),
     isAttach: q.isAttach,
     startPaidOutM: q.startPaidOutM,
+    endPaidOutMaxM: q.endCap,
   });
+}
+
+/**
+ * Greedy swaps on a fixed walk (fewest swaps). With a limit on the tether out on arrival, the walk
+ * is extended by a virtual stretch of `tether − limit` with no attach point: it fits exactly when
+ * the arrival leaves that much of the tether, and the greedy rule stays optimal on it.
+ */
+function placeSwaps(q: Query, lengths: number[], nodes: readonly number[]) {
+  if (!Number.isFinite(q.endCap))
+    return placeSwapsGreedy(lengths, walkAttach(q, nodes), q.tether, walkStart(q));
+  const slack = Math.max(0, q.tether - q.endCap);
+  return placeSwapsGreedy([...lengths, slack], [...walkAttach(q, nodes), false], q.tether, walkStart(q));
 }
 
 /** The start state as the greedy swap placement takes it. */
@@ -185,7 +200,7 @@ function buildRoute(q: Query, arcs: number[], extraWarnings: string[]): RouteRes
     pos += lengthM;
     travel += seconds;
   }
-  const plan = placeSwapsGreedy(lengths, walkAttach(q, nodes), q.tether, walkStart(q));
+  const plan = placeSwaps(q, lengths, nodes);
   if (!plan.feasible) throw new Error('internal: a searched route does not fit the tether');
   const warnings: string[] = [];
   const startNotAttachable = !q.startGiven && !q.isAttach[q.s];
@@ -422,8 +437,9 @@ export function findRoute(
     startAnchor,
     startPaidOutM,
     startGiven: request.startAnchor !== undefined,
+    endCap: request.endPaidOutMaxM ?? Infinity,
     // with nothing out, the anchor behind does not matter to the tether: a fresh clip at s
-    fresh: startPaidOutM === 0 && isAttach === c.isAttach,
+    fresh: startPaidOutM === 0 && isAttach === c.isAttach && request.endPaidOutMaxM === undefined,
   };
   if (s === t) return infeasible(q, 'same-node', `The route starts and ends at ${request.from}.`);
 
@@ -436,7 +452,7 @@ export function findRoute(
     if (!plain) return diagnose(q);
     const lengths = plain.map((a) => c.arcLengthM[a]);
     const nodes = [s, ...plain.map((a) => c.targets[a])];
-    const plan = placeSwapsGreedy(lengths, walkAttach(q, nodes), q.tether, walkStart(q));
+    const plan = placeSwaps(q, lengths, nodes);
     if (plan.feasible) return buildRoute(q, plain, []);
     const fitted = search(q, 'sum', 0);
     if (!fitted) return diagnose(q);

@@ -33,6 +33,12 @@ export const RouteRequestSchema = z.strictObject({
     .refine(Number.isFinite, 'must be a finite number')
     .refine((v) => v >= 0, 'the paid-out length must be 0 m or more')
     .optional(),
+  /** arrive with at most this many metres out since the last clip (room to reach an attach point after) */
+  endPaidOutMaxM: z
+    .number()
+    .refine(Number.isFinite, 'must be a finite number')
+    .refine((v) => v >= 0, 'must be 0 m or more')
+    .optional(),
   extraAttach: z
     .array(KeySchema)
     .max(MAX_EXTRA_ATTACH, `at most ${MAX_EXTRA_ATTACH} extra attach points`)

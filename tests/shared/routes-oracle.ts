@@ -1,6 +1,7 @@
 import fc from 'fast-check';
 import type { StationDocument, StationDocumentInput } from '@shared/schemas/station';
 import { StationDocumentSchema } from '@shared/schemas/station';
+import { segmentIntersectsHazard } from '@shared/compute/geometry';
 
 /**
  * Independent reference for the route engine on small stations: enumerate every walk up to a
@@ -106,7 +107,7 @@ export function exhaustive(
   t: number,
   tether: number,
   maxEdges: number,
-  from: { paidOutM?: number; extraAttach?: readonly number[] } = {},
+  from: { paidOutM?: number; extraAttach?: readonly number[]; endCapM?: number } = {},
 ): OracleResult {
   const attachOf = attachMarks(doc, from.extraAttach);
   const start: OracleStart = { paidOutM: from.paidOutM ?? 0, swapAtStart: attachOf[s] };
@@ -114,10 +115,20 @@ export function exhaustive(
   const res: OracleResult = { fastest: null, fewestSwaps: null, balanced: null };
   const positions = [0];
   const attach = [attachOf[s]];
+  const cap = from.endCapM;
   const walk = (v: number, seconds: number) => {
     if (v === t) {
-      const swaps = minSwapsDp(positions, attach, tether, start);
-      if (swaps < 0) return;
+      // at most `cap` out on arrival: a virtual last stretch of tether − cap with no attach point
+      const here = positions[positions.length - 1];
+      const swaps =
+        cap === undefined
+          ? minSwapsDp(positions, attach, tether, start)
+          : minSwapsDp([...positions, here + tether - cap], [...attach, false], tether, start);
+      if (swaps < 0) {
+        // a walk may pass the end with too much out, swap beyond it and come back
+        if (cap !== undefined) walkOn(v, seconds);
+        return;
+      }
       const edges = positions.length - 1;
       if (!res.fastest || seconds < res.fastest.seconds) res.fastest = { seconds, swaps, edges };
       const f = res.fewestSwaps;
@@ -127,6 +138,9 @@ export function exhaustive(
       if (!res.balanced || total < res.balanced.total) res.balanced = { seconds, swaps, edges, total };
       return;
     }
+    walkOn(v, seconds);
+  };
+  const walkOn = (v: number, seconds: number) => {
     if (positions.length - 1 >= maxEdges) return;
     const here = positions[positions.length - 1];
     for (const e of adj[v]) {
@@ -216,3 +230,19 @@ export const smallStationArb = fc
     };
     return StationDocumentSchema.parse(input);
   });
+
+/** Edges whose segment touches a keep-out hazard: the engine excludes them, and so must the oracle. */
+export function keepOutEdges(doc: StationDocument): Set<number> {
+  const pos = new Map(doc.nodes.map((n) => [n.key, n.position]));
+  const blocked = new Set<number>();
+  doc.edges.forEach((e, i) => {
+    if (
+      doc.hazards.some(
+        (h) => h.kind === 'keep-out' && segmentIntersectsHazard(pos.get(e.from)!, pos.get(e.to)!, h),
+      )
+    ) {
+      blocked.add(i);
+    }
+  });
+  return blocked;
+}

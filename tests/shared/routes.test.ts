@@ -12,11 +12,11 @@ import {
 } from '@shared/schemas/station';
 import { compileStation, edgeSeconds } from '@shared/compute/compiled-station';
 import { findRoute, hasNodeKey } from '@shared/compute/routes';
-import { segmentIntersectsHazard } from '@shared/compute/geometry';
 import {
   adjacency,
   attachMarks,
   exhaustive,
+  keepOutEdges,
   minSwapsDp,
   smallStationArb,
   type OracleResult,
@@ -29,21 +29,6 @@ const feasible = (r: RouteResult): RouteFeasible => {
   if (!r.feasible) throw new Error(`expected a route, got ${r.reasonCode}: ${r.reason}`);
   return r;
 };
-
-function keepOutEdges(doc: StationDocument): Set<number> {
-  const pos = new Map(doc.nodes.map((n) => [n.key, n.position]));
-  const blocked = new Set<number>();
-  doc.edges.forEach((e, i) => {
-    if (
-      doc.hazards.some(
-        (h) => h.kind === 'keep-out' && segmentIntersectsHazard(pos.get(e.from)!, pos.get(e.to)!, h),
-      )
-    ) {
-      blocked.add(i);
-    }
-  });
-  return blocked;
-}
 
 describe('fastest route distances', () => {
   it('matches Cormen, Leiserson, Rivest, Stein, Introduction to Algorithms 3rd ed. Fig. 24.6 (two-way variant)', () => {

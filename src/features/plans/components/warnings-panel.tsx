@@ -22,7 +22,7 @@ const HEADINGS: Record<TimelineWarningCode, { heading: string; severity: Severit
   'route-infeasible': { heading: 'No route', severity: 'danger' },
   'route-caution': { heading: 'Caution volume', severity: 'caution' },
   'route-note': { heading: 'Route note', severity: 'note' },
-  'eclipse-only-outside-night': { heading: 'Night-only task in daylight', severity: 'danger' },
+  'eclipse-only-outside-night': { heading: 'Eclipse-only task in daylight', severity: 'danger' },
   'unknown-worksite': { heading: 'Unknown worksite', severity: 'danger' },
   'unknown-socket': { heading: 'Unknown socket', severity: 'danger' },
   'socket-out-of-reach': { heading: 'Worksite out of reach', severity: 'danger' },

@@ -1,0 +1,141 @@
+import { compileStation } from '@shared/compute/compiled-station';
+import { excludeMaskFor, findRoute } from '@shared/compute/routes';
+import { clipGraphFor } from '@shared/compute/routes-clip';
+import { computeTimeline } from '@shared/compute/day/timeline';
+import { dayStationOf } from '@shared/compute/day/station';
+import type { DayPlan } from '@shared/compute/day/types';
+import { generateTrussStation, seededRandom } from '@shared/compute/truss-generator';
+import type { StationDocument } from '@shared/schemas/station';
+
+/**
+ * The continuous day on generated trusses. The reference, measured in the same run, is the day as
+ * it was computed before routes carried the tether from one worksite to the next: every leg of each
+ * crew member's day routed from a fresh clip where they stand (the clip graph answers those, once it
+ * is built, as on the server). The state machine routes every leg from the tether state on arrival
+ * (the label search answers those) and keeps the items, restraints and anchors as it goes.
+ *
+ * Target: the 60-task plan on the 10k-node truss within 1.5× the reference (median of 5). Also
+ * printed: a 200-task plan on the 100k-node truss, its time and the size of its JSON.
+ */
+
+const RUNS = 5;
+
+function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.floor(s.length / 2)];
+}
+
+/** A plan over the station's worksites, with a restraint, a portable anchor, a large item and tools. */
+function benchPlan(doc: StationDocument, tasks: number, seed: number): DayPlan {
+  const rand = seededRandom(seed);
+  const sites = doc.nodes.filter((n) => n.kind === 'worksite').map((n) => n.key);
+  const pick = <T>(xs: readonly T[]) => xs[Math.floor(rand() * xs.length)];
+  const crews = ['EV1', 'EV2', 'both'] as const;
+  return {
+    crew: { EV1: { name: 'A', tetherLengthM: 25.9 }, EV2: { name: 'B', tetherLengthM: 25.9 } },
+    routeMode: 'balanced',
+    allowRide: false,
+    orbitPhaseAtStartDeg: 0,
+    timeLimitSeconds: 100 * 3600,
+    egressSeconds: 1800,
+    ingressSeconds: 1800,
+    manifest: [
+      { key: 'driver', name: 'Power driver', kind: 'tool', carriedBy: 'EV1' },
+      { key: 'bag', name: 'Tool bag', kind: 'bag', carriedBy: 'EV2' },
+      { key: 'anchor', name: 'Portable anchor', kind: 'tether-anchor', carriedBy: 'EV2' },
+      { key: 'pump', name: 'Spare pump module', kind: 'large-item', carriedBy: 'EV1' },
+    ],
+    tasks: Array.from({ length: tasks }, (_, i) => {
+      const crew = pick(crews);
+      const worksite = pick(sites);
+      const actions: DayPlan['tasks'][number]['actions'] = [];
+      if (i === 1 && crew !== 'EV1') actions.push({ do: 'install', item: 'anchor', by: 'EV2' });
+      if (i === 2 && crew === 'both') actions.push({ do: 'hand-over', item: 'pump', by: 'EV1' });
+      return {
+        title: `Task ${i + 1}`,
+        worksite,
+        crew,
+        durationSeconds: 600 + Math.floor(rand() * 1800),
+        eclipseOnly: false,
+        carrying: false,
+        tools: crew === 'EV2' ? [] : ['driver'],
+        actions,
+      };
+    }),
+  };
+}
+
+/** The day as before: each leg of each lane from a fresh clip where the crew member stands. */
+function freshLegs(
+  doc: StationDocument,
+  c: ReturnType<typeof compileStation>,
+  plan: DayPlan,
+  airlock: string,
+) {
+  let seconds = 0;
+  for (const m of ['EV1', 'EV2'] as const) {
+    let at = airlock;
+    const stops = [
+      ...plan.tasks.filter((t) => t.crew === m || t.crew === 'both').map((t) => t.worksite),
+      airlock,
+    ];
+    for (const to of stops) {
+      if (to === at) continue;
+      const r = findRoute(c, doc.settings, {
+        from: at,
+        to,
+        mode: plan.routeMode,
+        tetherLengthM: plan.crew[m].tetherLengthM,
+      });
+      if (r.feasible) {
+        seconds += r.totalSeconds;
+        at = to;
+      }
+    }
+  }
+  return seconds;
+}
+
+function time(fn: () => void): number {
+  const t0 = performance.now();
+  fn();
+  return performance.now() - t0;
+}
+
+export async function run(): Promise<boolean> {
+  let ok = true;
+  for (const { nodes, tasks, target } of [
+    { nodes: 10_000, tasks: 60, target: 1.5 },
+    { nodes: 100_000, tasks: 200, target: null },
+  ]) {
+    const doc = generateTrussStation({ nodes, seed: 42 });
+    const c = compileStation(doc);
+    const station = dayStationOf(doc, c)!;
+    const built = time(() =>
+      clipGraphFor(c, c.arcSeconds, doc.settings.tetherLengthM, excludeMaskFor(false)),
+    );
+    const plan = benchPlan(doc, tasks, 7);
+    const route = (r: Parameters<typeof findRoute>[2]) => findRoute(c, doc.settings, r);
+    // one untimed pass each, so neither side pays for first-use setup inside its timings
+    freshLegs(doc, c, plan, station.airlockKey);
+    const timeline = computeTimeline(plan, station, route);
+    const before: number[] = [];
+    const after: number[] = [];
+    for (let k = 0; k < RUNS; k++) {
+      before.push(time(() => freshLegs(doc, c, plan, station.airlockKey)));
+      after.push(time(() => computeTimeline(plan, station, route)));
+    }
+    const ratio = median(after) / median(before);
+    const bytes = Buffer.byteLength(JSON.stringify(timeline));
+    const routes = timeline.routes.length;
+    const pass = target === null || ratio <= target;
+    if (!pass) ok = false;
+    console.log(
+      `${nodes.toLocaleString('en')} nodes, ${tasks} tasks (${routes} routes; clip graph built in ${(built / 1000).toFixed(1)} s): ` +
+        `state machine ${median(after).toFixed(1)} ms, fresh-clip legs ${median(before).toFixed(1)} ms (median of ${RUNS}), ` +
+        `ratio ${ratio.toFixed(2)}${target === null ? '' : ` (target ≤ ${target}: ${pass ? 'PASS' : 'FAIL'})`}; ` +
+        `timeline JSON ${(bytes / 1e6).toFixed(2)} MB, ${timeline.warnings.length} warnings`,
+    );
+  }
+  return ok;
+}
