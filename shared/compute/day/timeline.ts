@@ -255,10 +255,14 @@ export function computeTimeline(plan: DayPlan, station: DayStation, route: DayRo
       startPaidOutM: Math.min(lane.tether.paidOutM, tetherLengthM * (1 - 1e-12)),
       extraAttach: [...extra].sort(),
     };
-    const cap = taskIndex === undefined ? undefined : endCap(taskIndex, tetherLengthM);
-    let result = cap === undefined ? route(request) : route({ ...request, endPaidOutMaxM: cap });
-    // no way in that leaves room to get out: take the best way in, and the way out will say so
-    if (!result.feasible && cap !== undefined) result = route(request);
+    let result = route(request);
+    // the best way in may leave too little tether to get out again: then the best way in that leaves
+    // room (none: keep the best way in, and the way out will say why it fails)
+    const cap = taskIndex === undefined || !result.feasible ? undefined : endCap(taskIndex, tetherLengthM);
+    if (cap !== undefined && result.feasible && tetherAtRouteEnd(result).paidOutM > cap + 1e-9) {
+      const roomy = route({ ...request, endPaidOutMaxM: cap });
+      if (roomy.feasible) result = roomy;
+    }
     const where =
       taskIndex === undefined ? 'the airlock' : `${taskName(plan.tasks[taskIndex], taskIndex)} at ${to}`;
     if (!result.feasible) {
