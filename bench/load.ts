@@ -1,8 +1,11 @@
 // `npm run bench:load`: the real server in its own process on loopback, driven by autocannon: two
 // servers, one computing routes on the main thread (ROUTE_WORKERS=0) and one on the worker pool
 // (LOAD_POOL_WORKERS), with the same seed and the same request bodies, each row measured on one and
-// then on the other; a 60 s soak on the one configured as the default. Bounded: each run has a fixed
-// duration; the whole thing stops itself in about four minutes (LOAD_*_SECONDS shorten it).
+// then on the other; a 60 s soak on the one configured as the default; then the heaviest valid
+// requests (a socket plan over 20,000 sockets, a 10,000-row CSV import, a 100k-node import) one at a
+// time on each, with /api/health sampled meanwhile (the main-thread server keeps imports and socket
+// plans on its main thread too). Bounded: each run has a fixed duration or is one request; the whole
+// thing stops itself in about six minutes (LOAD_*_SECONDS shorten the timed runs).
 import { spawn, type ChildProcess } from 'node:child_process';
 import fs from 'node:fs';
 import net from 'node:net';
@@ -11,6 +14,8 @@ import path from 'node:path';
 import autocannon from 'autocannon';
 import { generateTrussStation } from '../shared/compute/truss-generator';
 import { defaultRouteWorkers } from '../server/lib/env';
+import { bigStation } from '../tests/factories/big-station';
+import { multipartBody, sampleHealthWhile, send, type HealthSample } from '../tests/setup/loopback';
 
 const RUN_SECONDS = Number(process.env.LOAD_RUN_SECONDS ?? 10);
 const WARM_SECONDS = Number(process.env.LOAD_WARM_SECONDS ?? 5);
@@ -94,6 +99,7 @@ interface Server {
 }
 
 async function startServer(routeWorkers: number): Promise<Server> {
+  // the main-thread server keeps imports and socket plans there too; the pool server takes the default
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'tetherwise-load-'));
   const port = await freePort();
   const base = `http://127.0.0.1:${port}`;
@@ -106,6 +112,7 @@ async function startServer(routeWorkers: number): Promise<Server> {
       SEED_DEMO: '1',
       LOG_LEVEL: 'warn',
       ROUTE_WORKERS: String(routeWorkers),
+      ...(routeWorkers === 0 ? { TASK_WORKERS: '0' } : {}),
       // the limiters would turn a load test into a rate-limit test
       API_REQUESTS_PER_MINUTE: '100000000',
       SIGN_IN_ATTEMPTS: '100000000',
@@ -145,6 +152,84 @@ interface Target {
   server: Server;
   scenarios: Scenario[];
   soak(): Promise<autocannon.Result>;
+  /** the heaviest valid requests, one at a time, with /api/health sampled meanwhile */
+  heavy(): Promise<HeavyRow[]>;
+}
+
+interface HeavyRow {
+  name: string;
+  status: number;
+  ms: number;
+  health: HealthSample[];
+}
+
+/**
+ * The heaviest requests a signed-in person can make, built once for both servers: a socket plan
+ * over 20,000 listed sockets of a 100k-node station, a 10,000-row CSV edge import onto it, and the
+ * import of another 100k-node station.
+ */
+const heavyInputs = (() => {
+  let made: ReturnType<typeof makeHeavyInputs> | null = null;
+  return () => (made ??= makeHeavyInputs());
+})();
+
+function makeHeavyInputs() {
+  const big = bigStation();
+  const targets = big.socketKeys
+    .filter((_, i) => i % 40 === 0)
+    .map((key) => {
+      const n = big.doc.nodes.find((node) => node.key === key)!;
+      return [n.position[0], n.position[1], n.position[2] + 1.3];
+    });
+  const junctions = big.doc.nodes.filter((n) => n.kind === 'junction').map((n) => n.key);
+  const rows = ['from,to,kind,lengthM'];
+  for (let i = 0; i < 10_000; i++)
+    rows.push(
+      `${junctions[(i * 7) % junctions.length]},${junctions[(i * 7 + 3) % junctions.length]},hop,1.5`,
+    );
+  return {
+    station: multipartBody([{ field: 'file', fileName: 'big.json', content: JSON.stringify(big.doc) }]),
+    socketPlan: JSON.stringify({ targets, candidates: big.socketKeys }),
+    csv: multipartBody([{ field: 'edges', fileName: 'edges.csv', content: rows.join('\n') }]),
+    another: multipartBody([
+      {
+        field: 'file',
+        fileName: 'another.json',
+        content: JSON.stringify(generateTrussStation({ nodes: 100_000, seed: 11 })),
+      },
+    ]),
+  };
+}
+
+async function heavyOn(base: string, viewer: string, engineer: string): Promise<HeavyRow[]> {
+  const inputs = heavyInputs();
+  const upload = (url: string, form: { body: Buffer; contentType: string }) =>
+    send(base, 'POST', url, { cookie: engineer, 'content-type': form.contentType }, form.body);
+  const imported = await upload('/api/stations/import', inputs.station);
+  if (imported.status !== 201)
+    throw new Error(`import of the big station: ${imported.status} ${imported.text}`);
+  const id = (imported.body.station as { id: number }).id;
+  const rows: HeavyRow[] = [];
+  const measure = async (name: string, work: () => ReturnType<typeof send>) => {
+    const { result, samples, elapsedMs } = await sampleHealthWhile(base, work);
+    rows.push({ name, status: result.status, ms: elapsedMs, health: samples });
+  };
+  await measure(
+    'idle (reference)',
+    () => new Promise((r) => setTimeout(() => r({ status: 200, text: '', body: {} }), 2000)),
+  );
+  await measure('socket plan, 20,000 sockets', () =>
+    send(
+      base,
+      'POST',
+      `/api/stations/${id}/socket-plan`,
+      { cookie: viewer, 'content-type': 'application/json' },
+      inputs.socketPlan,
+    ),
+  );
+  await measure('CSV import, 10,000 edge rows', () => upload(`/api/stations/${id}/import-csv`, inputs.csv));
+  await measure('import, 100k-node station', () => upload('/api/stations/import', inputs.another));
+  return rows;
 }
 
 async function prepare(routeWorkers: number): Promise<Target> {
@@ -245,11 +330,13 @@ async function prepare(routeWorkers: number): Promise<Target> {
         },
       },
     ];
+    const viewer = await signIn(base, 'viewer@example.org');
     return {
       routeWorkers,
       server,
       scenarios,
       soak: () => cannon({ ...routeOpts(bigId, bigBodies), duration: SOAK_SECONDS }),
+      heavy: () => heavyOn(base, viewer, engineer),
     };
   } catch (err) {
     await server.stop();
@@ -260,6 +347,7 @@ async function prepare(routeWorkers: number): Promise<Target> {
 interface Measured {
   routeWorkers: number;
   rows: Row[];
+  heavy: HeavyRow[];
   soak?: { row: Row; beforeMiB: number; afterMiB: number };
 }
 
@@ -313,6 +401,50 @@ function printComparison(main: Measured, pool: Measured) {
   }
 }
 
+const quantile = (values: number[], q: number) => {
+  const sorted = [...values].sort((a, b) => a - b);
+  return sorted[Math.min(sorted.length - 1, Math.floor(q * sorted.length))] ?? NaN;
+};
+
+/** Each heavy request on both servers: its time, and GET /api/health's latency meanwhile. */
+function printHeavy(main: Measured, pool: Measured) {
+  const label = (m: Measured) => (m.routeWorkers === 0 ? 'main thread' : 'task workers');
+  console.log(
+    `\nHeavy requests, one at a time, /api/health sampled every 20 ms meanwhile; left: ${label(main)}, right: ${label(pool)}`,
+  );
+  const cols = ['time', 'health n', 'p50', 'p99', 'max'];
+  console.log(
+    'request'.padEnd(32),
+    ...cols.map((c) => c.padStart(9)),
+    '│',
+    ...cols.map((c) => c.padStart(9)),
+    '│',
+    'max ×'.padStart(7),
+  );
+  const cells = (r: HeavyRow) => {
+    const wall = r.health.map((h) => h.wallMs);
+    return [
+      ms(r.ms),
+      String(wall.length),
+      ms(quantile(wall, 0.5)),
+      ms(quantile(wall, 0.99)),
+      ms(Math.max(...wall)),
+    ].map((c) => c.padStart(9));
+  };
+  main.heavy.forEach((a, i) => {
+    const b = pool.heavy[i];
+    const maxOf = (r: HeavyRow) => Math.max(...r.health.map((h) => h.wallMs));
+    console.log(
+      `${a.name}${a.status >= 300 || b.status >= 300 ? ` (${a.status}/${b.status})` : ''}`.padEnd(32),
+      ...cells(a),
+      '│',
+      ...cells(b),
+      '│',
+      (maxOf(b) / Math.max(maxOf(a), 1)).toFixed(3).padStart(7),
+    );
+  });
+}
+
 async function main() {
   const started = performance.now();
   const defaultWorkers = defaultRouteWorkers();
@@ -320,15 +452,18 @@ async function main() {
   // that other work on the machine weighs on both alike; an idle server costs the other nothing
   const targets = [await prepare(0), await prepare(POOL_WORKERS)];
   try {
-    const measured: Measured[] = targets.map((t) => ({ routeWorkers: t.routeWorkers, rows: [] }));
+    const measured: Measured[] = targets.map((t) => ({ routeWorkers: t.routeWorkers, rows: [], heavy: [] }));
     for (let i = 0; i < targets[0].scenarios.length; i++) {
       for (const [k, t] of targets.entries()) measured[k].rows.push(...(await t.scenarios[i].run()));
     }
     for (const [k, t] of targets.entries())
       if (t.routeWorkers === defaultWorkers) measured[k].soak = await soakOn(t);
+    for (const [k, t] of targets.entries()) measured[k].heavy = await t.heavy();
     printComparison(measured[0], measured[1]);
+    printHeavy(measured[0], measured[1]);
     const all = measured.flatMap((m) => [...m.rows, ...(m.soak ? [m.soak.row] : [])]);
-    const bad = all.some((r) => r.errors > 0);
+    const heavyFailed = measured.flatMap((m) => m.heavy).filter((r) => r.status >= 300);
+    const bad = all.some((r) => r.errors > 0) || heavyFailed.length > 0;
     console.log(
       `\n${bad ? 'FAIL: some requests failed' : 'PASS: zero errors'} (${((performance.now() - started) / 1000).toFixed(0)} s in all)`,
     );

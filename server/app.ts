@@ -17,6 +17,8 @@ import { sameOriginWrites } from './middleware/same-origin';
 import { sessionMiddleware } from './middleware/session';
 import { configureClipBuilds, logClipBuild, stopClipBuilds } from './modules/compute/clip-builder';
 import { RoutePool } from './modules/compute/route-pool';
+import { TaskPool } from './modules/compute/task-pool';
+import { emitStationChanged } from './modules/stations/stations.service';
 import { storeMessage } from './modules/mailbox/mailbox.service';
 import { apiModules } from './modules';
 
@@ -69,7 +71,25 @@ export async function createApp(options: CreateAppOptions = {}): Promise<AppInst
           logger,
         })
       : null;
-  const ctx: AppContext = { config, db: handle.db, sqlite: handle.sqlite, logger, mailer, routePool };
+  const taskPool =
+    config.taskWorkers > 0
+      ? new TaskPool({
+          size: config.taskWorkers,
+          queueLimit: config.taskQueueLimit,
+          maxHeapMb: config.taskWorkerHeapMb,
+          logger,
+          onStationChanged: emitStationChanged,
+        })
+      : null;
+  const ctx: AppContext = {
+    config,
+    db: handle.db,
+    sqlite: handle.sqlite,
+    logger,
+    mailer,
+    routePool,
+    taskPool,
+  };
   if (options.seed ?? true) await seedDatabase(ctx);
 
   const app = express();
@@ -149,6 +169,7 @@ export async function createApp(options: CreateAppOptions = {}): Promise<AppInst
     ctx,
     async close() {
       await routePool?.close();
+      await taskPool?.close();
       await stopClipBuilds();
       await mailer.close();
       handle.close();

@@ -4,6 +4,7 @@ import type { AppConfig } from './lib/env';
 import type { Logger } from './lib/logger';
 import type { Mailer } from './lib/mail';
 import type { RoutePool } from './modules/compute/route-pool';
+import type { TaskPool } from './modules/compute/task-pool';
 
 /** What every service needs, made once in createApp() and handed to each module. */
 export interface AppContext {
@@ -14,4 +15,6 @@ export interface AppContext {
   mailer: Mailer;
   /** route computations off the main thread; null when `routeWorkers` is 0 */
   routePool: RoutePool | null;
+  /** imports and socket plans off the main thread; null when `taskWorkers` is 0 */
+  taskPool: TaskPool | null;
 }

@@ -16,8 +16,11 @@ export interface DbHandle {
 
 export const MIGRATIONS_FOLDER = fileURLToPath(new URL('../../drizzle', import.meta.url));
 
-/** Opens the SQLite file (WAL, foreign keys on) and applies any migration it has not seen yet. */
-export function openDatabase(file: string): DbHandle {
+/**
+ * Opens the SQLite file (WAL, foreign keys on) and applies any migration it has not seen yet. A
+ * worker thread's second connection to a file the app has already opened passes `migrate: false`.
+ */
+export function openDatabase(file: string, options: { migrate?: boolean } = {}): DbHandle {
   if (file !== ':memory:') fs.mkdirSync(path.dirname(file), { recursive: true });
   const sqlite = new Database(file);
   sqlite.pragma('journal_mode = WAL');
@@ -25,7 +28,7 @@ export function openDatabase(file: string): DbHandle {
   sqlite.pragma('busy_timeout = 5000');
   sqlite.pragma('synchronous = NORMAL');
   const db = drizzle(sqlite, { schema });
-  migrate(db, { migrationsFolder: MIGRATIONS_FOLDER });
+  if (options.migrate ?? true) migrate(db, { migrationsFolder: MIGRATIONS_FOLDER });
   return { db, sqlite, close: () => sqlite.close() };
 }
 

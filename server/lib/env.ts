@@ -28,6 +28,12 @@ export interface AppConfig {
   routeQueueLimit: number;
   /** stations up to this many nodes build a clip graph within a route query; larger ones in a builder thread */
   routeClipInlineNodes: number;
+  /** imports and socket plans on this many worker threads; 0 → on the main thread */
+  taskWorkers: number;
+  /** tasks waiting or running at the most before 503 */
+  taskQueueLimit: number;
+  /** heap of a task worker, MB: a task that needs more stops that worker with a 503 */
+  taskWorkerHeapMb: number;
   /** Express `trust proxy`: false, a hop count, or addresses/subnets of the proxies */
   trustProxy: boolean | number | string;
   logLevel: string;
@@ -110,6 +116,9 @@ export function loadConfig(
     routeQueueLimit: overrides.routeQueueLimit ?? intFromEnv(env.ROUTE_QUEUE_LIMIT, 64),
     routeClipInlineNodes:
       overrides.routeClipInlineNodes ?? intFromEnv(env.ROUTE_CLIP_INLINE_NODES, CLIP_BUILD_FREE_NODES),
+    taskWorkers: overrides.taskWorkers ?? intFromEnv(env.TASK_WORKERS, 1),
+    taskQueueLimit: overrides.taskQueueLimit ?? intFromEnv(env.TASK_QUEUE_LIMIT, 16),
+    taskWorkerHeapMb: overrides.taskWorkerHeapMb ?? intFromEnv(env.TASK_WORKER_HEAP_MB, 2048),
     trustProxy: overrides.trustProxy ?? trustProxyFromEnv(env.TRUST_PROXY),
     logLevel: overrides.logLevel ?? env.LOG_LEVEL ?? 'info',
     clientDir: overrides.clientDir !== undefined ? overrides.clientDir : path.resolve('dist'),

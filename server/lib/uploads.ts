@@ -2,20 +2,90 @@ import crypto from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import { fileTypeFromBuffer } from 'file-type';
+import type { Request, RequestHandler } from 'express';
 import multer from 'multer';
 import { HttpError } from './http-error';
 
 export const MB = 1024 * 1024;
 
+/** A multipart form's file fields: each field name and how many files it may carry (default 1). */
+export type UploadFields = { name: string; maxCount?: number }[];
+
+const limitsFor = (maxBytes: number, fields: UploadFields) => ({
+  fileSize: maxBytes,
+  files: fields.reduce((n, f) => n + (f.maxCount ?? 1), 0),
+  fields: 20,
+  fieldSize: 64 * 1024,
+});
+
 /**
- * A multer instance that keeps files in memory, capped at `maxBytes` each (larger → 413 through
- * the error handler). Files are checked by content and written to disk by the caller, never as sent.
+ * Errors of the multipart parser itself are the client's: a form without a boundary, one cut off,
+ * a broken part header. They come as plain errors without a code and answer 400 here; errors with a
+ * code keep their own answer: the upload limits (MulterError, LIMIT_…) in the error handler, and a
+ * system error (ENOSPC…) stays a 500.
  */
-export function memoryUpload(maxBytes: number, maxFiles = 2) {
-  return multer({
-    storage: multer.memoryStorage(),
-    limits: { fileSize: maxBytes, files: maxFiles, fields: 20, fieldSize: 64 * 1024 },
-  });
+function clientErrorsAre400(middleware: RequestHandler): RequestHandler {
+  return (req, res, next) =>
+    middleware(req, res, (err?: unknown) => {
+      const code = (err as { code?: unknown } | undefined)?.code;
+      if (!err || typeof code === 'string') return next(err);
+      const reason = err instanceof Error ? err.message : String(err);
+      next(
+        new HttpError('VALIDATION_FAILED', `The upload is not a well-formed multipart form (${reason}).`, [
+          { path: '(body)', message: reason },
+        ]),
+      );
+    });
+}
+
+/**
+ * Files kept in memory, each at most `maxBytes` (larger → 413 through the error handler), for small
+ * uploads checked on the request thread (images). Files are checked by content and written to disk
+ * by the caller, never as sent.
+ */
+export function memoryUpload(maxBytes: number, fields: UploadFields): RequestHandler {
+  const upload = multer({ storage: multer.memoryStorage(), limits: limitsFor(maxBytes, fields) });
+  return clientErrorsAre400(upload.fields(fields));
+}
+
+/**
+ * Files streamed to temporary files (the request thread never holds a large upload whole), each at
+ * most `maxBytes`; for uploads a task worker reads. The files are removed when the response ends,
+ * whatever happened; multer removes them itself when the upload fails part way.
+ */
+export function diskUpload(maxBytes: number, fields: UploadFields): RequestHandler {
+  const upload = clientErrorsAre400(
+    multer({ storage: multer.diskStorage({}), limits: limitsFor(maxBytes, fields) }).fields(fields),
+  );
+  return (req, res, next) =>
+    upload(req, res, (err?: unknown) => {
+      const files = Object.values((req.files ?? {}) as Record<string, Express.Multer.File[]>).flat();
+      if (files.length)
+        res.once('close', () => {
+          // a file the upload stopped in the middle of has no path (multer removed what was written)
+          for (const f of files) if (f.path) fs.rm(f.path, { force: true }, () => {});
+        });
+      next(err);
+    });
+}
+
+/** The first file of a multipart field, if the form had one. */
+export function uploadedFile(req: Request, field: string): Express.Multer.File | undefined {
+  return (req.files as Record<string, Express.Multer.File[]> | undefined)?.[field]?.[0];
+}
+
+/**
+ * Reads a file `diskUpload` stored. One the response has already removed (the client went away
+ * while the upload waited its turn) is a 400, not a server fault.
+ */
+export async function readStoredUpload(filePath: string): Promise<Buffer> {
+  try {
+    return await fs.promises.readFile(filePath);
+  } catch (err) {
+    if ((err as NodeJS.ErrnoException).code === 'ENOENT')
+      throw new HttpError('VALIDATION_FAILED', 'The upload was cancelled before it could be read.');
+    throw err;
+  }
 }
 
 export interface DetectedType {
@@ -30,6 +100,42 @@ export async function sniffFileType(buffer: Uint8Array): Promise<DetectedType | 
 }
 
 export const IMAGE_TYPES: Record<string, string> = { 'image/png': 'png', 'image/jpeg': 'jpg' };
+
+/** An attached image's size at the most: a large camera photo fits; a decompression bomb does not. */
+export const MAX_IMAGE_SIDE_PX = 12_000;
+export const MAX_IMAGE_PIXELS = 50_000_000;
+
+const SOF_MARKERS = new Set([0xc0, 0xc1, 0xc2, 0xc3, 0xc5, 0xc6, 0xc7, 0xc9, 0xca, 0xcb, 0xcd, 0xce, 0xcf]);
+
+/**
+ * Width and height as a PNG (its IHDR chunk) or a JPEG (its start-of-frame segment) declares them,
+ * read from the header only; null when the header cannot be read.
+ */
+export function imageDimensions(buffer: Uint8Array, mime: string): { width: number; height: number } | null {
+  const view = new DataView(buffer.buffer, buffer.byteOffset, buffer.byteLength);
+  if (mime === 'image/png') {
+    if (buffer.length < 24) return null;
+    return { width: view.getUint32(16), height: view.getUint32(20) };
+  }
+  if (mime === 'image/jpeg') {
+    let i = 2;
+    while (i + 9 < buffer.length) {
+      if (buffer[i] !== 0xff) return null;
+      const marker = buffer[i + 1];
+      if (marker === 0xff) {
+        i++; // fill byte
+        continue;
+      }
+      if (marker === 0x01 || (marker >= 0xd0 && marker <= 0xd9)) {
+        i += 2; // markers without a length
+        continue;
+      }
+      if (SOF_MARKERS.has(marker)) return { height: view.getUint16(i + 5), width: view.getUint16(i + 7) };
+      i += 2 + view.getUint16(i + 2);
+    }
+  }
+  return null;
+}
 
 /** Refuses anything whose content is not one of `allowed` (the name and the sent mime type are ignored). */
 export async function requireImage(
@@ -46,6 +152,21 @@ export async function requireImage(
       `Only ${kinds} images can be attached; this file's content is ${found ? found.mime : 'not an image'}.`,
     );
   }
+  const size = imageDimensions(buffer, found.mime);
+  if (!size || size.width === 0 || size.height === 0)
+    throw new HttpError(
+      'UNSUPPORTED_MEDIA_TYPE',
+      `This ${allowed[found.mime].toUpperCase()} image's size cannot be read.`,
+    );
+  if (
+    size.width > MAX_IMAGE_SIDE_PX ||
+    size.height > MAX_IMAGE_SIDE_PX ||
+    size.width * size.height > MAX_IMAGE_PIXELS
+  )
+    throw new HttpError(
+      'PAYLOAD_TOO_LARGE',
+      `The image is ${size.width} × ${size.height} px; images can be at most ${MAX_IMAGE_SIDE_PX} px on a side and ${MAX_IMAGE_PIXELS / 1e6} megapixels.`,
+    );
   return { ext: allowed[found.mime], mime: found.mime };
 }
 

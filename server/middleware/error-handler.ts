@@ -1,10 +1,21 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { MulterError } from 'multer';
 import { ZodError } from 'zod';
-import type { ErrorBody } from '@shared/errors';
+import { ERROR_STATUS, type ErrorBody, type ErrorCode } from '@shared/errors';
 import { HttpError } from '../lib/http-error';
 import type { Logger } from '../lib/logger';
 import { zodDetails } from './validate';
+
+const CODE_OF_STATUS = new Map(
+  Object.entries(ERROR_STATUS).map(([code, status]) => [status, code as ErrorCode]),
+);
+const STATUS_MESSAGE: Record<number, string> = {
+  400: 'The request is not valid.',
+  403: 'This file cannot be served.',
+  404: 'There is no such file.',
+  413: 'The request is larger than allowed.',
+  415: 'This content type is not supported.',
+};
 
 export const apiNotFound: RequestHandler = (req, _res, next) => {
   next(new HttpError('NOT_FOUND', `No API route for ${req.method} ${req.path}`));
@@ -32,10 +43,14 @@ export function toHttpError(err: unknown): HttpError {
       return new HttpError('PAYLOAD_TOO_LARGE', 'The request body is larger than allowed.');
     if (e.type === 'charset.unsupported' || e.type === 'encoding.unsupported')
       return new HttpError('UNSUPPORTED_MEDIA_TYPE', 'The request body encoding is not supported.');
+    // http-errors from Express's own parts (express.static: a missing file, a path with .., a range
+    // past the end): a 4xx stays the client's, in our shape
     const status = e.status ?? e.statusCode;
-    if (status === 400) return new HttpError('VALIDATION_FAILED', 'The request is not valid.');
-    if (status === 413) return new HttpError('PAYLOAD_TOO_LARGE', 'The request is larger than allowed.');
-    if (status === 415) return new HttpError('UNSUPPORTED_MEDIA_TYPE', 'This content type is not supported.');
+    if (typeof status === 'number' && status >= 400 && status < 500)
+      return new HttpError(
+        CODE_OF_STATUS.get(status) ?? 'VALIDATION_FAILED',
+        STATUS_MESSAGE[status] ?? 'The request cannot be served as asked.',
+      );
   }
   return new HttpError('INTERNAL', 'Something went wrong on our side. The error has been logged.');
 }
@@ -50,6 +65,8 @@ export function errorHandler(logger: Logger): ErrorRequestHandler {
     const body: ErrorBody = { error: { code: httpError.code, message: httpError.message } };
     if (httpError.details?.length) body.error.details = httpError.details;
     if (httpError.headers) res.set(httpError.headers);
-    res.status(httpError.status).json(body);
+    // whatever a handler had set up for its answer (a file's type, say), the error is JSON
+    res.removeHeader('Content-Disposition');
+    res.type('json').status(httpError.status).json(body);
   };
 }

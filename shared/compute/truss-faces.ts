@@ -51,6 +51,19 @@ export interface GridOptions {
   /** only faces that come within `withinM` of one of these points are gridded */
   near?: readonly Vec3[];
   withinM?: number;
+  /** refuse (GridTooLargeError) before making more than this many grid points */
+  maxPoints?: number;
+}
+
+/** The grid would have more points than allowed; `points` counts them before any are made. */
+export class GridTooLargeError extends RangeError {
+  constructor(
+    readonly points: number,
+    readonly maxPoints: number,
+  ) {
+    super(`a grid of ${points} points is more than the ${maxPoints} allowed`);
+    this.name = 'GridTooLargeError';
+  }
 }
 
 function rotationMatrix(deg: Vec3 | undefined): Mat3 {
@@ -136,9 +149,11 @@ export function faceDistance(face: TrussFace, q: Vec3): number {
   return Math.hypot(da, db, h);
 }
 
+const offsetCount = (half: number, spacing: number) => Math.max(1, Math.floor((2 * half) / spacing + 1e-9));
+
 /** Grid offsets along an extent: `spacing` apart, centred, at least spacing/2 in from each edge. */
 function gridOffsets(half: number, spacing: number): number[] {
-  const count = Math.max(1, Math.floor((2 * half) / spacing + 1e-9));
+  const count = offsetCount(half, spacing);
   return Array.from({ length: count }, (_, i) => (i - (count - 1) / 2) * spacing);
 }
 
@@ -221,11 +236,17 @@ export function gridCandidates(
 ): FaceCandidate[] {
   if (!(spacingM > 0) || !Number.isFinite(spacingM))
     throw new RangeError('grid spacing must be a positive number');
-  const { near, withinM = Infinity } = options;
+  const { near, withinM = Infinity, maxPoints = Infinity } = options;
+  const faces = trussFaces(segments).filter(
+    (face) => !near || near.some((q) => faceDistance(face, q) <= withinM),
+  );
+  // counted from the faces' extents first, so a fine grid over a huge face is refused, not built
+  let points = 0;
+  for (const face of faces) points += offsetCount(face.halfU, spacingM) * offsetCount(face.halfV, spacingM);
+  if (points > maxPoints) throw new GridTooLargeError(points, maxPoints);
   const hash = new SegmentHash(segments);
   const out: FaceCandidate[] = [];
-  for (const face of trussFaces(segments)) {
-    if (near && !near.some((q) => faceDistance(face, q) <= withinM)) continue;
+  for (const face of faces) {
     const us = gridOffsets(face.halfU, spacingM);
     const vs = gridOffsets(face.halfV, spacingM);
     for (const a of us) {

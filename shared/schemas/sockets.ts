@@ -1,10 +1,15 @@
 import { z } from 'zod';
-import { FiniteSchema, KeySchema, Vec3Schema, type StationNode } from './station';
+import { FiniteSchema, KeySchema, Vec3Schema, keyListSchema, type StationNode } from './station';
 import { VersionSchema } from './version';
 
 export const MAX_PLAN_TARGETS = 500;
 export const MIN_GRID_SPACING_M = 0.25;
 export const MAX_GRID_SPACING_M = 50;
+/**
+ * Candidate sockets of one plan at the most (listed or all of the station's, plus grid points): the
+ * planner's work grows with candidates × targets.
+ */
+export const MAX_SOCKET_CANDIDATES = 20_000;
 
 /** Body of `POST /api/stations/:id/reach` (DESIGN §8). */
 export const ReachRequestSchema = z.strictObject({
@@ -21,7 +26,7 @@ export const SocketPlanRequestSchema = z
       .min(1, 'give at least one target')
       .max(MAX_PLAN_TARGETS, `at most ${MAX_PLAN_TARGETS} targets`),
     /** socket node keys; absent means every socket of the station, empty means none (grid only) */
-    candidates: z.array(KeySchema).max(20000).optional(),
+    candidates: keyListSchema(MAX_SOCKET_CANDIDATES, 'candidates').optional(),
     /** also try candidates on a grid of this spacing over the truss faces */
     gridSpacingM: FiniteSchema.refine(
       (v) => v >= MIN_GRID_SPACING_M && v <= MAX_GRID_SPACING_M,

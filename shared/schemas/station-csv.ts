@@ -1,5 +1,6 @@
 import Papa from 'papaparse';
 import {
+  edgePairKey,
   EdgeSchema,
   NodeSchema,
   type DocumentProblem,
@@ -215,8 +216,6 @@ export function parseEdgesCsv(
   return { rows, problems };
 }
 
-const pairKey = (e: StationEdge) => [e.from, e.to].sort().join('\u0000') + '\u0000' + e.kind;
-
 /**
  * Merges parsed CSV rows into a document: a node row replaces the node with its key (or is added),
  * an edge row replaces the edge of the same kind between the same two nodes (or is added). Also
@@ -261,7 +260,7 @@ export function mergeCsvIntoDocument(
     }
   }
   const edgesOut = [...doc.edges];
-  const edgeIndex = new Map(edgesOut.map((e, i) => [pairKey(e), i]));
+  const edgeIndex = new Map(edgesOut.map((e, i) => [edgePairKey(e), i]));
   const csvPairs = new Map<string, number>();
   for (const { line, value } of edgeRows) {
     let bad = false;
@@ -278,7 +277,7 @@ export function mergeCsvIntoDocument(
       });
       bad = true;
     }
-    const pair = pairKey(value);
+    const pair = edgePairKey(value);
     const first = csvPairs.get(pair);
     if (first !== undefined) {
       problems.push({

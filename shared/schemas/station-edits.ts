@@ -11,6 +11,7 @@ import {
   OrbitSettingsSchema,
   SegmentKindSchema,
   SegmentSchema,
+  SegmentSizeSchema,
   Vec3Schema,
   type Hazard,
   type OrbitSettings,
@@ -107,7 +108,7 @@ export const SegmentChangesSchema = z.strictObject({
   label: label.nullable().optional(),
   kind: SegmentKindSchema.optional(),
   center: Vec3Schema.optional(),
-  size: Vec3Schema.optional(),
+  size: SegmentSizeSchema.optional(),
   rotationDeg: Vec3Schema.nullable().optional(),
 });
 export const UpdateSegmentInputSchema = z.strictObject({

@@ -5,16 +5,24 @@ import { ATTACHMENT_MAX_BYTES } from '../../server/modules/annotations/annotatio
 import { buildStationDocument, FIXTURE_KEYS as K, stationDocumentFile } from '../factories/station-document';
 import { makeTestApp, type TestAgent, type TestApp } from '../setup/test-app';
 
-/** A 1×1 PNG and the smallest JPEG header file-type recognises: real magic bytes, not names. */
+/** A 1×1 PNG and the smallest JPEG header that says what it is and its size: real magic bytes, not names. */
 const PNG_1X1 = Buffer.from(
   'iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNkYPhfDwAChwGA60e6kgAAAABJRU5ErkJggg==',
   'base64',
 );
-const JPEG_START = Buffer.concat([
-  Buffer.from([0xff, 0xd8, 0xff, 0xe0, 0x00, 0x10]),
-  Buffer.from('JFIF\0'),
-  Buffer.alloc(64),
-]);
+function jpegStart(width: number, height: number) {
+  const sof = Buffer.from([0xff, 0xc0, 0x00, 0x11, 0x08, 0, 0, 0, 0, 0x03, ...Buffer.alloc(9)]);
+  sof.writeUInt16BE(height, 5);
+  sof.writeUInt16BE(width, 7);
+  return Buffer.concat([
+    Buffer.from([0xff, 0xd8, 0xff, 0xe0, 0x00, 0x10]),
+    Buffer.from('JFIF\0'),
+    Buffer.alloc(9),
+    sof,
+    Buffer.alloc(64),
+  ]);
+}
+const JPEG_START = jpegStart(640, 480);
 
 let t: TestApp;
 let trainer: TestAgent;

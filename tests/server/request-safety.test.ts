@@ -1,8 +1,10 @@
+import fs from 'node:fs';
+import path from 'node:path';
 import Papa from 'papaparse';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ErrorBodySchema } from '@shared/errors';
-import { FIXTURE_KEYS as K, stationDocumentFile } from '../factories/station-document';
+import { buildStationDocument, FIXTURE_KEYS as K, stationDocumentFile } from '../factories/station-document';
 import { makeTestApp, type TestApp } from '../setup/test-app';
 
 /**
@@ -15,6 +17,7 @@ const PASSWORD = 'tetherwise-demo';
 
 let t: TestApp;
 let stationId: number;
+let stationVersion: number;
 
 const errorCode = (body: unknown) => ErrorBodySchema.parse(body).error.code;
 
@@ -27,6 +30,7 @@ beforeAll(async () => {
     .attach('file', stationDocumentFile(), 'station.json');
   expect(res.status, JSON.stringify(res.body)).toBe(201);
   stationId = res.body.station.id;
+  stationVersion = res.body.station.version;
 });
 afterAll(() => t.close());
 
@@ -39,6 +43,28 @@ function planBody(title: string) {
     tasks: [{ title: 'Inspect the pump site', worksite: K.worksite, crew: 'EV1', durationSeconds: 600 }],
   };
 }
+
+describe('segments are bounded', () => {
+  it('a segment over 1,000 m on a side is refused, at import and by an edit', async () => {
+    const engineer = await t.agent('engineer');
+    const huge = buildStationDocument({
+      segments: [{ key: 'VAST', kind: 'platform', center: [0, 0, -3000], size: [4000, 4000, 3] }],
+    });
+    const imported = await engineer
+      .post('/api/stations/import')
+      .attach('file', stationDocumentFile(huge), 's.json');
+    expect(imported.status).toBe(400);
+    expect(imported.body.error.details).toContainEqual({
+      path: 'segments[0].size[0]',
+      message: 'size must be at most 1000 m on a side',
+    });
+    const edited = await engineer
+      .patch(`/api/stations/${stationId}/segments/${K.segment}`)
+      .send({ version: stationVersion, segment: { size: [10, 4000, 3] } });
+    expect(edited.status).toBe(400);
+    expect(errorCode(edited.body)).toBe('VALIDATION_FAILED');
+  });
+});
 
 describe('plan CSV export', () => {
   it('formula injection does not survive a line break in a cell', async () => {
@@ -94,6 +120,65 @@ describe('four-eyes review', () => {
       .send({ version: approved.body.version, comment: 'one more look' });
     const resubmitted = await a.post(`/api/plans/${id}/submit`).send({ version: reopened.body.version });
     expect((await approve(b, resubmitted.body.version)).status).toBe(200);
+  });
+});
+
+describe('static files and multipart bodies', () => {
+  it('a missing static file is a 404 in the error shape, not a 500', async () => {
+    const clientDir = path.join(t.dir, 'client');
+    fs.mkdirSync(path.join(clientDir, 'assets'), { recursive: true });
+    fs.writeFileSync(path.join(clientDir, 'index.html'), '<!doctype html><title>Tetherwise</title>');
+    fs.writeFileSync(path.join(clientDir, 'assets', 'app.js'), 'console.log(1);');
+    const withClient = await makeTestApp({ clientDir });
+    try {
+      const agent = withClient.anonymous();
+      expect((await agent.get('/assets/app.js')).status).toBe(200);
+      const missing = await agent.get('/assets/nonexistent.js');
+      expect(missing.status).toBe(404);
+      expect(errorCode(missing.body)).toBe('NOT_FOUND');
+      // the other refusals of the static files are 4xx in the shape too: a path out of the folder,
+      // a range past the end
+      const outside = await agent.get('/assets/%2e%2e/index.html');
+      expect(outside.status).toBe(403);
+      expect(errorCode(outside.body)).toBe('FORBIDDEN');
+      const range = await agent.get('/assets/app.js').set('Range', 'bytes=5000-6000');
+      expect(range.status).toBe(400);
+      expect(errorCode(range.body)).toBe('VALIDATION_FAILED');
+      expect((await agent.get('/plans/7')).status).toBe(200);
+    } finally {
+      await withClient.close();
+    }
+  });
+
+  it('a malformed multipart body is a 400, not a 500: no boundary, cut off, a broken part header', async () => {
+    const engineer = await t.agent('engineer');
+    const boundary = 'XyZ';
+    const cutOff = `--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="s.json"\r\n\r\n{"format":`;
+    const brokenHeader = `--${boundary}\r\nContent-Disposition form-data\r\n\r\nx\r\n--${boundary}--\r\n`;
+    const cases: [string, string][] = [
+      ['multipart/form-data', 'anything'],
+      [`multipart/form-data; boundary=${boundary}`, cutOff],
+      [`multipart/form-data; boundary=${boundary}`, brokenHeader],
+    ];
+    for (const [type, body] of cases) {
+      for (const url of ['/api/stations/import', `/api/stations/${stationId}/import-csv`]) {
+        const res = await engineer.post(url).set('Content-Type', type).send(body);
+        expect(res.status, `${url} ${type} ${JSON.stringify(res.body)}`).toBe(400);
+        expect(errorCode(res.body)).toBe('VALIDATION_FAILED');
+      }
+    }
+    const note = await (
+      await t.agent('trainer')
+    )
+      .post(`/api/stations/${stationId}/annotations`)
+      .send({ position: [0, 0, 0], title: 'multipart' });
+    const image = await (
+      await t.agent('trainer')
+    )
+      .post(`/api/annotations/${note.body.id}/attachments`)
+      .set('Content-Type', `multipart/form-data; boundary=${boundary}`)
+      .send(cutOff);
+    expect(image.status).toBe(400);
   });
 });
 
@@ -205,5 +290,27 @@ describe('sessions', () => {
     expect(replayed.status).toBe(401);
     // only that session ended
     expect((await other.get('/api/auth/me')).status).toBe(200);
+  });
+});
+
+describe('image attachments', () => {
+  it('an image declaring 100,000 × 100,000 px is refused (413), and nothing is stored', async () => {
+    const trainer = await t.agent('trainer');
+    const note = await trainer
+      .post(`/api/stations/${stationId}/annotations`)
+      .send({ position: [0, 0, 0], title: 'huge' });
+    const png = Buffer.from(
+      'iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNkYPhfDwAChwGA60e6kgAAAABJRU5ErkJggg==',
+      'base64',
+    );
+    png.writeUInt32BE(100_000, 16);
+    png.writeUInt32BE(100_000, 20);
+    const res = await trainer
+      .post(`/api/annotations/${note.body.id}/attachments`)
+      .attach('file', png, 'bomb.png');
+    expect(res.status).toBe(413);
+    expect(res.body.error.message).toMatch(/100000 × 100000 px/);
+    const uploads = path.join(t.dir, 'uploads');
+    expect(fs.existsSync(uploads) ? fs.readdirSync(uploads) : []).toEqual([]);
   });
 });

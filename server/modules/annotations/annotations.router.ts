@@ -2,7 +2,7 @@ import type { Request } from 'express';
 import type { AppContext } from '../../context';
 import { badRequest } from '../../lib/http-error';
 import { defineRoute, mountRoutes } from '../../lib/route';
-import { MB, contentDisposition, memoryUpload, requireImage } from '../../lib/uploads';
+import { MB, contentDisposition, memoryUpload, requireImage, uploadedFile } from '../../lib/uploads';
 import { IdParamsSchema } from '@shared/schemas/auth';
 import {
   AnnotationListQuerySchema,
@@ -24,7 +24,7 @@ import {
 export const ATTACHMENT_MAX_BYTES = 5 * MB;
 
 export function annotationsRouter(ctx: AppContext) {
-  const imageUpload = memoryUpload(ATTACHMENT_MAX_BYTES, 1).single('file');
+  const imageUpload = memoryUpload(ATTACHMENT_MAX_BYTES, [{ name: 'file' }]);
   const author = (req: Request) => ({ id: req.user!.id, name: req.user!.name, role: req.user!.role });
 
   return mountRoutes('/api', [
@@ -73,16 +73,17 @@ export function annotationsRouter(ctx: AppContext) {
       before: [imageUpload],
       input: { params: IdParamsSchema },
       handler: async (req, _res, { params }) => {
-        if (!req.file)
+        const file = uploadedFile(req, 'file');
+        if (!file)
           throw badRequest('Attach the image as the multipart field "file".', [
             { path: 'file', message: 'required' },
           ]);
-        const type = await requireImage(req.file.buffer);
+        const type = await requireImage(file.buffer);
         return {
           attachment: addAttachment(
             ctx,
             params.id,
-            { buffer: req.file.buffer, originalName: req.file.originalname, type },
+            { buffer: file.buffer, originalName: file.originalname, type },
             author(req),
           ),
         };

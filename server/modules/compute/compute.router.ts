@@ -6,7 +6,8 @@ import { RouteRequestSchema } from '@shared/schemas/route';
 import { ReachRequestSchema, SocketPlanRequestSchema } from '@shared/schemas/sockets';
 import { AcceptSocketPlanInputSchema } from '@shared/schemas/sockets';
 import { OrbitQuerySchema } from './compute.schemas';
-import { acceptSocketPlan, computeReach, computeRoute, computeSocketPlan, orbitFor } from './compute.service';
+import { acceptSocketPlan, computeReach, computeRoute, orbitFor } from './compute.service';
+import { runTask } from './tasks';
 
 /** A computation on one station, open to every signed-in role: the body is parsed with `body`. */
 function onStation<S extends z.ZodType>(
@@ -28,7 +29,9 @@ export function computeRouter(ctx: AppContext) {
   return mountRoutes('/api', [
     onStation('routes', RouteRequestSchema, (id, body) => computeRoute(ctx, id, body)),
     onStation('reach', ReachRequestSchema, (id, body) => computeReach(ctx, id, body)),
-    onStation('socket-plan', SocketPlanRequestSchema, (id, body) => computeSocketPlan(ctx, id, body)),
+    onStation('socket-plan', SocketPlanRequestSchema, (id, body) =>
+      runTask(ctx, 'socket-plan', { stationId: id, request: body }),
+    ),
     defineRoute({
       method: 'post',
       path: '/stations/:id/socket-plan/accept',

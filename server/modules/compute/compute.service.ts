@@ -1,29 +1,39 @@
-import { eq, max } from 'drizzle-orm';
+import { and, asc, count, eq, inArray, max } from 'drizzle-orm';
 import type { AppContext } from '../../context';
-import { edges, nodes } from '../../db/schema';
+import type { Db } from '../../db/client';
+import { edges, nodes, segments } from '../../db/schema';
 import { HttpError, badRequest } from '../../lib/http-error';
 import { JsonText } from '../../lib/route';
 import { reachCheck } from '@shared/compute/reach';
 import { planSockets, type SocketCandidate } from '@shared/compute/socket-planner';
-import { gridCandidates } from '@shared/compute/truss-faces';
+import { GridTooLargeError, gridCandidates, type FaceCandidate } from '@shared/compute/truss-faces';
 import { orbitSummary } from '@shared/compute/orbit';
 import type { RouteRequest, RouteResult } from '@shared/schemas/route';
-import type {
-  AcceptSocketPlanInput,
-  AcceptSocketPlanResult,
-  ReachRequest,
-  ReachResult,
-  SocketPlanRequest,
-  SocketPlanResult,
+import {
+  MAX_SOCKET_CANDIDATES,
+  type AcceptSocketPlanInput,
+  type AcceptSocketPlanResult,
+  type ReachRequest,
+  type ReachResult,
+  type SocketPlanRequest,
+  type SocketPlanResult,
 } from '@shared/schemas/sockets';
-import type { StationDocument, StationEdge, StationNode, Vec3 } from '@shared/schemas/station';
+import {
+  StationSettingsSchema,
+  type StationDocument,
+  type StationEdge,
+  type StationNode,
+  type Vec3,
+} from '@shared/schemas/station';
 import {
   edgeToRow,
   findStationRow,
   loadDocument,
   nodeToRow,
+  segmentFromRow,
   writeStation,
   type Editor,
+  type Tx,
 } from '../stations/stations.service';
 import { routeRequestProblems } from '@shared/compute/routes';
 import { routeOffPath } from './clip-builder';
@@ -121,30 +131,110 @@ export function computeReach(ctx: AppContext, stationId: number, request: ReachR
   return reachOn(getCompiledStation(ctx, stationId).doc, request);
 }
 
-export function computeSocketPlan(
-  ctx: AppContext,
-  stationId: number,
-  request: SocketPlanRequest,
-): SocketPlanResult {
-  const { doc } = getCompiledStation(ctx, stationId);
-  const { reach } = doc.settings;
-  const listed: SocketCandidate[] = request.candidates
-    ? request.candidates.map((key, i) => socketNode(doc, key, `body.candidates.${i}`))
-    : doc.nodes
-        .filter((n) => n.kind === 'socket' && n.normal)
-        .map((n) => n as StationNode & { normal: Vec3 });
-  const candidates: SocketCandidate[] = listed.map(({ key, position, normal }) => ({
-    key,
-    position,
-    normal,
-  }));
+/** Candidate keys are looked up in the database this many at a time. */
+const KEY_CHUNK = 500;
+
+/**
+ * The listed candidate sockets, in list order, or every socket of the station: one indexed lookup
+ * per chunk of keys, never a scan per key. Unknown key → 404, a node that is not a socket → 400.
+ */
+function candidateSockets(tx: Tx, stationId: number, keys: readonly string[] | undefined): SocketCandidate[] {
+  const toCandidate = (r: typeof nodes.$inferSelect): SocketCandidate => ({
+    key: r.key,
+    position: [r.x, r.y, r.z],
+    normal: [r.nx!, r.ny!, r.nz!],
+  });
+  if (!keys) {
+    const isSocket = and(eq(nodes.stationId, stationId), eq(nodes.kind, 'socket'));
+    const total = tx.select({ n: count() }).from(nodes).where(isSocket).get()?.n ?? 0;
+    if (total > MAX_SOCKET_CANDIDATES)
+      throw badRequest(
+        `The station has ${total} sockets, more than the ${MAX_SOCKET_CANDIDATES} one plan can weigh: list the candidates to try.`,
+        [{ path: 'body.candidates', message: `list at most ${MAX_SOCKET_CANDIDATES} candidates` }],
+      );
+    return tx
+      .select()
+      .from(nodes)
+      .where(isSocket)
+      .orderBy(asc(nodes.ord), asc(nodes.id))
+      .all()
+      .map(toCandidate);
+  }
+  const byKey = new Map<string, typeof nodes.$inferSelect>();
+  const distinct = [...new Set(keys)];
+  for (let i = 0; i < distinct.length; i += KEY_CHUNK) {
+    const chunk = distinct.slice(i, i + KEY_CHUNK);
+    for (const r of tx
+      .select()
+      .from(nodes)
+      .where(and(eq(nodes.stationId, stationId), inArray(nodes.key, chunk)))
+      .all())
+      byKey.set(r.key, r);
+  }
+  return keys.map((key, i) => {
+    const r = byKey.get(key);
+    if (!r) throw unknownNode(key);
+    if (r.kind !== 'socket' || r.nx === null || r.ny === null || r.nz === null)
+      throw badRequest(`"${key}" is a ${r.kind}, not a foot-restraint socket.`, [
+        { path: `body.candidates.${i}`, message: 'not a socket' },
+      ]);
+    return toCandidate(r);
+  });
+}
+
+/** The finest grid spacing that keeps about `allowed` points where `spacingM` gives `points` (points ∝ 1/spacing²). */
+const spacingFor = (spacingM: number, points: number, allowed: number) =>
+  Math.ceil(spacingM * Math.sqrt(points / Math.max(allowed, 1)) * 20) / 20;
+
+/**
+ * A socket plan for one station, reading only what it needs (settings, segments, candidate
+ * sockets) in one transaction. At most MAX_SOCKET_CANDIDATES candidates, grid points included:
+ * the grid is counted from the faces' extents before any point is made, and a grid too fine for
+ * the faces near the targets is a 400 that names a spacing that fits.
+ */
+export function socketPlanOn(db: Db, stationId: number, request: SocketPlanRequest): SocketPlanResult {
+  const {
+    reach,
+    segments: stationSegments,
+    listed,
+  } = db.transaction((tx) => {
+    const row = findStationRow(tx, stationId);
+    return {
+      reach: StationSettingsSchema.parse(JSON.parse(row.settingsJson)).reach,
+      segments:
+        request.gridSpacingM === undefined
+          ? []
+          : tx
+              .select()
+              .from(segments)
+              .where(eq(segments.stationId, stationId))
+              .orderBy(asc(segments.ord), asc(segments.id))
+              .all()
+              .map(segmentFromRow),
+      listed: candidateSockets(tx, stationId, request.candidates),
+    };
+  });
+  const candidates = listed;
   if (request.gridSpacingM !== undefined) {
-    // only faces a target could be reached from: keeps the candidate count to what matters
-    const grid = gridCandidates(doc.segments, request.gridSpacingM, {
-      near: request.targets,
-      withinM: reach.standOffM + reach.radiusM,
-    });
-    candidates.push(...grid.map(({ position, normal }) => ({ position, normal })));
+    const allowed = MAX_SOCKET_CANDIDATES - listed.length;
+    let grid: FaceCandidate[];
+    try {
+      // only faces a target could be reached from: keeps the candidate count to what matters
+      grid = gridCandidates(stationSegments, request.gridSpacingM, {
+        near: request.targets,
+        withinM: reach.standOffM + reach.radiusM,
+        maxPoints: allowed,
+      });
+    } catch (err) {
+      if (!(err instanceof GridTooLargeError)) throw err;
+      const at = spacingFor(request.gridSpacingM, err.points, allowed);
+      throw badRequest(
+        `A ${request.gridSpacingM} m grid over the faces within reach of these targets has ${err.points} points; ` +
+          `with ${listed.length} listed sockets at most ${allowed} fit. Use a spacing of at least ${at} m, or fewer targets.`,
+        [{ path: 'body.gridSpacingM', message: `too fine here: at least ${at} m` }],
+      );
+    }
+    for (const { position, normal } of grid) candidates.push({ position, normal });
   }
   const {
     chosen: _chosen,

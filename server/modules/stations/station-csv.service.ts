@@ -1,8 +1,7 @@
-import { and, eq, or } from 'drizzle-orm';
-import type { AppContext } from '../../context';
+import { and, eq } from 'drizzle-orm';
 import { edges, nodes } from '../../db/schema';
 import { badRequest } from '../../lib/http-error';
-import { parseStationDocument, type DocumentProblem } from '@shared/schemas/station';
+import { edgePairKey, parseStationDocument, type DocumentProblem } from '@shared/schemas/station';
 import { mergeCsvIntoDocument, parseEdgesCsv, parseNodesCsv } from '@shared/schemas/station-csv';
 import {
   edgeToRow,
@@ -11,6 +10,7 @@ import {
   nodeToRow,
   problemsError,
   writeStation,
+  type DbContext,
   type WriteRequest,
 } from './stations.service';
 
@@ -23,7 +23,7 @@ export interface CsvFiles {
  * Merges node and edge tables into a station (nodes upserted by key, edges by ends and kind), all or
  * nothing: any problem in either file, or in the merged model, and nothing is written.
  */
-export function importStationCsv(ctx: AppContext, req: WriteRequest, files: CsvFiles) {
+export function importStationCsv(ctx: DbContext, req: WriteRequest, files: CsvFiles) {
   if (!files.nodes && !files.edges) {
     throw badRequest('Attach a nodes file, an edges file or both (multipart fields "nodes" and "edges").');
   }
@@ -54,20 +54,21 @@ export function importStationCsv(ctx: AppContext, req: WriteRequest, files: CsvF
           .values(nodeToRow(row.id, value, ord++))
           .run();
     }
+    // one read of the station's edges, then a map lookup per row: never a scan of them per row
+    const edgeIds = new Map(
+      tx
+        .select({ id: edges.id, from: edges.fromKey, to: edges.toKey, kind: edges.kind })
+        .from(edges)
+        .where(eq(edges.stationId, row.id))
+        .all()
+        .map((e) => [edgePairKey(e), e.id]),
+    );
     let edgeOrd = current.edges.length;
     for (const { value } of parsedEdges.rows) {
-      const samePair = and(
-        eq(edges.stationId, row.id),
-        eq(edges.kind, value.kind),
-        or(
-          and(eq(edges.fromKey, value.from), eq(edges.toKey, value.to)),
-          and(eq(edges.fromKey, value.to), eq(edges.toKey, value.from)),
-        ),
-      );
-      const existing = tx.select({ id: edges.id }).from(edges).where(samePair).get();
-      if (existing) {
+      const existing = edgeIds.get(edgePairKey(value));
+      if (existing !== undefined) {
         const { ord: _keep, ...changes } = edgeToRow(row.id, value, 0);
-        tx.update(edges).set(changes).where(eq(edges.id, existing.id)).run();
+        tx.update(edges).set(changes).where(eq(edges.id, existing)).run();
       } else
         tx.insert(edges)
           .values(edgeToRow(row.id, value, edgeOrd++))

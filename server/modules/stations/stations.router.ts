@@ -3,7 +3,8 @@ import { z } from 'zod';
 import type { AppContext } from '../../context';
 import { badRequest } from '../../lib/http-error';
 import { defineRoute, mountRoutes } from '../../lib/route';
-import { MB, memoryUpload, readTextUpload } from '../../lib/uploads';
+import { MB, diskUpload, uploadedFile } from '../../lib/uploads';
+import { runTask } from '../compute/tasks';
 import {
   AuditQuerySchema,
   CreateEdgeInputSchema,
@@ -21,17 +22,14 @@ import {
   VersionQuerySchema,
 } from '@shared/schemas/station-edits';
 import { VersionTextSchema } from '@shared/schemas/version';
-import { importStationCsv } from './station-csv.service';
+import type { UploadedFile } from './station-import.service';
 import * as edits from './station-edits.service';
 import {
   exportStationDocument,
   getStation,
   getStationGraphJson,
-  importStation,
   listStationAudit,
   listStations,
-  parseStationDocumentText,
-  replaceStationModel,
   type Editor,
 } from './stations.service';
 
@@ -42,19 +40,18 @@ export const CSV_FILE_MAX_BYTES = 10 * MB;
 /** The `version` of a multipart form: a form field or `?version=` (a field wins). */
 const MultipartVersionSchema = z.object({ version: VersionTextSchema.optional() });
 
-function uploadedFile(req: Request, field: string): Express.Multer.File | undefined {
-  if (req.file?.fieldname === field) return req.file;
-  const files = req.files as Record<string, Express.Multer.File[]> | undefined;
-  return files?.[field]?.[0];
+function storedFile(req: Request, field: string): UploadedFile | undefined {
+  const file = uploadedFile(req, field);
+  return file && { name: file.originalname || `${field}.csv`, path: file.path };
 }
 
-async function stationDocumentFrom(req: Request) {
-  const file = uploadedFile(req, 'file');
+function stationDocumentFile(req: Request): UploadedFile {
+  const file = storedFile(req, 'file');
   if (!file)
     throw badRequest('Attach the station document as the multipart field "file".', [
       { path: 'file', message: 'required' },
     ]);
-  return parseStationDocumentText(await readTextUpload(file.buffer, 'station document'));
+  return file;
 }
 
 const editor = (req: Request): Editor => ({ id: req.user!.id, name: req.user!.name });
@@ -115,11 +112,8 @@ function itemRoutes<
 }
 
 export function stationsRouter(ctx: AppContext) {
-  const documentUpload = memoryUpload(STATION_FILE_MAX_BYTES, 1).single('file');
-  const csvUpload = memoryUpload(CSV_FILE_MAX_BYTES, 2).fields([
-    { name: 'nodes', maxCount: 1 },
-    { name: 'edges', maxCount: 1 },
-  ]);
+  const documentUpload = diskUpload(STATION_FILE_MAX_BYTES, [{ name: 'file' }]);
+  const csvUpload = diskUpload(CSV_FILE_MAX_BYTES, [{ name: 'nodes' }, { name: 'edges' }]);
   const idParams = { params: StationIdParamsSchema };
 
   return mountRoutes('/api/stations', [
@@ -130,7 +124,8 @@ export function stationsRouter(ctx: AppContext) {
       access: 'stations:import',
       status: 201,
       before: [documentUpload],
-      handler: async (req) => importStation(ctx, await stationDocumentFrom(req), editor(req)),
+      handler: (req) =>
+        runTask(ctx, 'station-import', { file: stationDocumentFile(req), editor: editor(req) }),
     }),
     defineRoute({
       method: 'get',
@@ -152,14 +147,15 @@ export function stationsRouter(ctx: AppContext) {
       access: 'stations:import',
       before: [documentUpload],
       input: { params: StationIdParamsSchema, query: MultipartVersionSchema, body: MultipartVersionSchema },
-      handler: async (req, _res, { params, query, body }) => {
-        const doc = await stationDocumentFrom(req);
-        return replaceStationModel(
-          ctx,
-          { stationId: params.id, expectedVersion: body.version ?? query.version, editor: editor(req) },
-          doc,
-        );
-      },
+      handler: (req, _res, { params, query, body }) =>
+        runTask(ctx, 'station-replace', {
+          file: stationDocumentFile(req),
+          request: {
+            stationId: params.id,
+            expectedVersion: body.version ?? query.version,
+            editor: editor(req),
+          },
+        }),
     }),
     defineRoute({
       method: 'post',
@@ -167,20 +163,16 @@ export function stationsRouter(ctx: AppContext) {
       access: 'stations:import',
       before: [csvUpload],
       input: { params: StationIdParamsSchema, query: MultipartVersionSchema, body: MultipartVersionSchema },
-      handler: async (req, _res, { params, query, body }) => {
-        const read = async (field: 'nodes' | 'edges') => {
-          const f = uploadedFile(req, field);
-          return f
-            ? { name: f.originalname || `${field}.csv`, text: await readTextUpload(f.buffer, `${field} CSV`) }
-            : undefined;
-        };
-        const files = { nodes: await read('nodes'), edges: await read('edges') };
-        return importStationCsv(
-          ctx,
-          { stationId: params.id, expectedVersion: body.version ?? query.version, editor: editor(req) },
-          files,
-        );
-      },
+      handler: (req, _res, { params, query, body }) =>
+        runTask(ctx, 'station-csv', {
+          nodes: storedFile(req, 'nodes'),
+          edges: storedFile(req, 'edges'),
+          request: {
+            stationId: params.id,
+            expectedVersion: body.version ?? query.version,
+            editor: editor(req),
+          },
+        }),
     }),
     defineRoute({
       method: 'get',

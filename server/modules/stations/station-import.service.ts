@@ -1,0 +1,62 @@
+import type { Db } from '../../db/client';
+import { readStoredUpload, readTextUpload } from '../../lib/uploads';
+import type { ImportStationResult } from '@shared/schemas/station-edits';
+import { importStationCsv } from './station-csv.service';
+import {
+  importStation,
+  parseStationDocumentText,
+  replaceStationModel,
+  type Editor,
+  type WriteRequest,
+} from './stations.service';
+
+/**
+ * The station imports as whole jobs on one database connection: read the uploaded bytes as text,
+ * parse and check them, and write in one transaction. They run on a task worker with its own
+ * connection (a 100k-node document takes seconds to parse, check and write, and no other request
+ * waits for it), or on the main thread when the app has no task workers.
+ */
+
+/** An uploaded file as a task gets it: its name as sent and the temporary file it was streamed to. */
+export interface UploadedFile {
+  name: string;
+  path: string;
+}
+
+const textOf = async (file: UploadedFile, what: string) =>
+  readTextUpload(await readStoredUpload(file.path), what);
+
+async function documentOf(file: UploadedFile) {
+  return parseStationDocumentText(await textOf(file, 'station document'));
+}
+
+export interface ImportDocumentJob {
+  file: UploadedFile;
+  editor: Editor;
+}
+
+export async function importDocumentJob(db: Db, job: ImportDocumentJob): Promise<ImportStationResult> {
+  return importStation({ db }, await documentOf(job.file), job.editor);
+}
+
+export interface ReplaceDocumentJob {
+  file: UploadedFile;
+  request: WriteRequest;
+}
+
+export async function replaceDocumentJob(db: Db, job: ReplaceDocumentJob): Promise<ImportStationResult> {
+  return replaceStationModel({ db }, job.request, await documentOf(job.file));
+}
+
+export interface ImportCsvJob {
+  nodes?: UploadedFile;
+  edges?: UploadedFile;
+  request: WriteRequest;
+}
+
+export async function importCsvJob(db: Db, job: ImportCsvJob) {
+  const read = async (file: UploadedFile | undefined, what: string) =>
+    file ? { name: file.name, text: await textOf(file, what) } : undefined;
+  const files = { nodes: await read(job.nodes, 'nodes CSV'), edges: await read(job.edges, 'edges CSV') };
+  return importStationCsv({ db }, job.request, files);
+}
