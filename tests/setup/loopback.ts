@@ -71,7 +71,7 @@ export function send(
   body: Buffer | string,
 ): Promise<Answer> {
   return new Promise((resolve, reject) => {
-    const req = http.request(`${base}${path}`, { method, headers }, (res) => {
+    const req = http.request(`${base}${path}`, { method, headers, agent: false }, (res) => {
       const chunks: Buffer[] = [];
       res.on('data', (c: Buffer) => chunks.push(c));
       res.on('end', () => {
@@ -123,6 +123,21 @@ const MAX_SAMPLES = 3000;
 const PAUSE_MS = 20;
 
 /**
+ * GET /api/health on a connection of its own: a kept-alive one can be closed by the server's idle
+ * timer the moment a long stall ends, under a request already sent (ECONNRESET).
+ */
+function healthStatus(base: string): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const req = http.get(`${base}/api/health`, { agent: false }, (res) => {
+      res.resume();
+      res.on('end', () => resolve(res.statusCode ?? 0));
+      res.on('error', reject);
+    });
+    req.on('error', reject);
+  });
+}
+
+/**
  * Runs `work` and samples GET /api/health, one request at a time with a short pause between, until
  * the work settles (or MAX_SAMPLES were taken: a bounded loop).
  */
@@ -136,12 +151,11 @@ export async function sampleHealthWhile<T>(base: string, work: () => Promise<T>)
   while (!settled && samples.length < MAX_SAMPLES) {
     const cpu0 = mainThreadCpuMs();
     const t0 = performance.now();
-    const res = await fetch(`${base}/api/health`);
-    await res.arrayBuffer();
+    const status = await healthStatus(base);
     const wallMs = performance.now() - t0;
     const cpu1 = mainThreadCpuMs();
     samples.push({ wallMs, threadCpuMs: cpu0 === null || cpu1 === null ? null : cpu1 - cpu0 });
-    if (res.status !== 200) throw new Error(`/api/health answered ${res.status}`);
+    if (status !== 200) throw new Error(`/api/health answered ${status}`);
     await new Promise((r) => setTimeout(r, PAUSE_MS));
   }
   const result = await running;
