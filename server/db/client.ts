@@ -31,5 +31,3 @@ export function openDatabase(file: string, options: { migrate?: boolean } = {}):
   if (options.migrate ?? true) migrate(db, { migrationsFolder: MIGRATIONS_FOLDER });
   return { db, sqlite, close: () => sqlite.close() };
 }
-
-export const nowIso = () => new Date().toISOString();

@@ -55,7 +55,3 @@ export function can(user: Actor | null | undefined, permission: Permission): boo
   if (!user) return false;
   return ROLE_PERMISSIONS[user.role]?.includes(permission) ?? false;
 }
-
-export function isRole(value: unknown): value is Role {
-  return typeof value === 'string' && (ROLES as readonly string[]).includes(value);
-}

@@ -415,16 +415,3 @@ export function planSettingsOf(
   const settings = Object.fromEntries(PLAN_SETTING_KEYS.map((k) => [k, p[k]])) as PlanSettings;
   return { ...settings, betaDegOverride: p.betaDegOverride ?? null };
 }
-
-/** A row of `GET /api/plans`. */
-export const PlanSummarySchema = PlanSchema.pick({
-  id: true,
-  title: true,
-  stationId: true,
-  date: true,
-  status: true,
-  version: true,
-  authorId: true,
-  updatedAt: true,
-});
-export type PlanSummary = z.infer<typeof PlanSummarySchema>;

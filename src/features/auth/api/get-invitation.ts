@@ -1,4 +1,4 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
+import { queryOptions } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import { invitationKeys } from './keys';
 
@@ -17,7 +17,3 @@ export const getInvitationQueryOptions = (token: string) =>
     queryFn: () => getInvitation(token),
     staleTime: Infinity,
   });
-
-export function useInvitation(token: string) {
-  return useQuery(getInvitationQueryOptions(token));
-}

@@ -1,4 +1,4 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
+import { queryOptions } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import type { PlanView } from '../types';
 import { planKeys } from './keys';
@@ -9,7 +9,3 @@ export function getPlan(id: number): Promise<PlanView> {
 
 export const getPlanQueryOptions = (id: number) =>
   queryOptions({ queryKey: planKeys.detail(id), queryFn: () => getPlan(id) });
-
-export function usePlan(id: number) {
-  return useQuery(getPlanQueryOptions(id));
-}

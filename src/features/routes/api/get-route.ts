@@ -1,4 +1,4 @@
-import { queryOptions, useQueries, useQuery } from '@tanstack/react-query';
+import { queryOptions, useQueries } from '@tanstack/react-query';
 import { ROUTE_MODES, type RouteMode, type RouteRequest, type RouteResult } from '@shared/schemas/route';
 import { api } from '@/lib/api-client';
 import { routeKeys } from './keys';
@@ -20,10 +20,6 @@ export const getRouteQueryOptions = (stationId: number, version: number, request
     queryFn: ({ signal }) => getRoute(stationId, request, signal),
     staleTime: Infinity,
   });
-
-export function useRoute(stationId: number, version: number, request: RouteRequest) {
-  return useQuery(getRouteQueryOptions(stationId, version, request));
-}
 
 /** The same from/to/tether in all three modes, one query each, for the side-by-side comparison. */
 export function useRouteComparison(stationId: number, version: number, params: RouteParams | null) {
