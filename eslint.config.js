@@ -1,4 +1,5 @@
 import fs from 'node:fs';
+import { builtinModules } from 'node:module';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import js from '@eslint/js';
@@ -40,7 +41,7 @@ const features = fs.existsSync(featuresDir)
       .map((d) => d.name)
   : [];
 
-// STYLE.md "What may import what"
+// What may import what: the layers of DEVELOPERS.md, checked on every import.
 const zones = [
   {
     target: './shared',
@@ -48,6 +49,16 @@ const zones = [
     message: 'shared/ is pure: it may not import src/ or server/.',
   },
   { target: './server', from: './src', message: 'server/ may not import the client.' },
+  {
+    target: './server/modules/**/*.router.ts',
+    from: './server/db',
+    message: 'Routers translate HTTP and call their service; only services touch the database.',
+  },
+  {
+    target: './src/features',
+    from: './src/app',
+    message: 'Features do not import the app: routes in src/app compose features, not the other way.',
+  },
   {
     target: './src',
     from: './server',
@@ -66,6 +77,23 @@ const zones = [
   })),
 ];
 
+// shared/ runs unchanged in the server, the browser and the tests: no runtime or framework in it
+const SHARED_FORBIDDEN = [
+  ...builtinModules,
+  ...builtinModules.map((m) => `node:${m}`),
+  'express',
+  'express-*',
+  'drizzle-orm',
+  'drizzle-orm/*',
+  'better-sqlite3',
+  'react',
+  'react/*',
+  'react-dom',
+  'react-dom/*',
+  '@react-three/*',
+  '@tanstack/*',
+];
+
 export default tseslint.config(
   { ignores: ['dist/**', 'node_modules/**', 'drizzle/**', 'coverage/**', 'screenshots/**', 'data/**'] },
   js.configs.recommended,
@@ -82,6 +110,23 @@ export default tseslint.config(
       'import/no-cycle': ['error', { ignoreExternal: true }],
       'import/no-restricted-paths': ['error', { zones }],
       '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
+    },
+  },
+  {
+    files: ['shared/**/*.{ts,tsx}'],
+    rules: {
+      'no-restricted-imports': [
+        'error',
+        {
+          patterns: [
+            {
+              group: SHARED_FORBIDDEN,
+              message:
+                'shared/ is pure TypeScript: no Node, Express, Drizzle or React (zod and pure libraries only).',
+            },
+          ],
+        },
+      ],
     },
   },
   {
