@@ -12,7 +12,7 @@ import { generateTrussStation, seededRandom } from '@shared/compute/truss-genera
  * uses the label search on stations above CLIP_BUILD_FREE_NODES until then (building one at 100k
  * takes most of a minute, printed below as the clip-graph build), so on those sizes the label
  * search is timed too for the exact modes, once per query, and printed without a target of its
- * own (`fastest` runs the same landmark A* either way; only its rare fallback differs). A query
+ * own (`fastest` runs the same A* with tether labels either way; only its fallback differs). A query
  * that starts from a tether state (here: half the tether already out from the start's anchor) is
  * answered by the label search on any size; its rows show what that costs against the clip graph's
  * fresh-clip answer to the same query.

@@ -15,13 +15,17 @@ export interface Scratch {
   hStamp: Int32Array;
   hSeconds: Float64Array;
   hMetres: Float64Array;
-  headStamp: Int32Array;
-  head: Int32Array;
   layerStamp: number;
   layerSeen: Int32Array;
   layerDist: Float64Array;
   swapStamp: Int32Array;
   swapLayer: Int32Array;
+  /** nodes quickestWalk has expanded, by query stamp */
+  doneStamp: Int32Array;
+  tightStamp: number;
+  tightSeen: Int32Array;
+  tightSettled: Int32Array;
+  tightDist: Float64Array;
   swapReach: Float64Array;
   sources: Int32Array;
   heap: MinHeap;
@@ -29,6 +33,10 @@ export interface Scratch {
   labels: LabelStore;
 }
 
+/**
+ * Labels of a search over (node, tether state): parallel arrays, and per node a list of the live
+ * labels there (valid for the query stamp given to `begin`).
+ */
 class LabelStore {
   size = 0;
   node = new Int32Array(1024);
@@ -36,16 +44,82 @@ class LabelStore {
   arc = new Int32Array(1024);
   next = new Int32Array(1024);
   swaps = new Int32Array(1024);
-  swapped = new Uint8Array(1024);
+  expanded = new Uint8Array(1024);
   dead = new Uint8Array(1024);
   seconds = new Float64Array(1024);
   paid = new Float64Array(1024);
   p1 = new Float64Array(1024);
   p2 = new Float64Array(1024);
+  private stamp = 0;
+  private headStamp: Int32Array;
+  private head: Int32Array;
 
-  add(): number {
+  constructor(nodes: number) {
+    this.headStamp = new Int32Array(nodes);
+    this.head = new Int32Array(nodes);
+  }
+
+  /** empties the store for a query with this stamp */
+  begin(stamp: number): void {
+    this.size = 0;
+    this.stamp = stamp;
+    if (stamp === 1) this.headStamp.fill(0);
+  }
+
+  /** the first live label at v, -1 if none */
+  first(v: number): number {
+    return this.headStamp[v] === this.stamp ? this.head[v] : -1;
+  }
+
+  /** takes label y, after `prev` (-1: y is first), out of v's list, as dead */
+  unlink(v: number, prev: number, y: number): void {
+    this.dead[y] = 1;
+    if (prev === -1) this.head[v] = this.next[y];
+    else this.next[prev] = this.next[y];
+  }
+
+  /** a new live label at the front of v's list */
+  link(v: number, parent: number, arc: number, swaps: number, seconds: number, paid: number): number {
     if (this.size === this.node.length) this.grow();
-    return this.size++;
+    const x = this.size++;
+    this.node[x] = v;
+    this.parent[x] = parent;
+    this.arc[x] = arc;
+    this.swaps[x] = swaps;
+    this.seconds[x] = seconds;
+    this.paid[x] = paid;
+    this.dead[x] = 0;
+    this.expanded[x] = 0;
+    this.next[x] = this.first(v);
+    this.headStamp[v] = this.stamp;
+    this.head[v] = x;
+    return x;
+  }
+
+  /**
+   * A label at v unless one there is no worse in swaps, time and paid out (dropping those it is no
+   * worse than): the label's index, or -1.
+   */
+  offerPareto(v: number, parent: number, arc: number, swaps: number, seconds: number, paid: number): number {
+    let prev = -1;
+    for (let y = this.first(v); y !== -1;) {
+      const nextY = this.next[y];
+      const ys = this.swaps[y];
+      const yt = this.seconds[y];
+      const yp = this.paid[y];
+      if (ys <= swaps && yt <= seconds && yp <= paid) return -1;
+      if (swaps <= ys && seconds <= yt && paid <= yp) this.unlink(v, prev, y);
+      else prev = y;
+      y = nextY;
+    }
+    return this.link(v, parent, arc, swaps, seconds, paid);
+  }
+
+  /** the walk that ends in label `goal`, back along its parents */
+  walk(goal: number): LabelPath {
+    const arcs: number[] = [];
+    for (let x = goal; this.arc[x] !== -1; x = this.parent[x]) arcs.push(this.arc[x]);
+    return { arcs: arcs.reverse(), swaps: this.swaps[goal], seconds: this.seconds[goal] };
   }
 
   private grow(): void {
@@ -56,7 +130,7 @@ class LabelStore {
       'arc',
       'next',
       'swaps',
-      'swapped',
+      'expanded',
       'dead',
       'seconds',
       'paid',
@@ -85,18 +159,21 @@ export function scratchFor(c: CompiledStation): Scratch {
       hStamp: new Int32Array(n),
       hSeconds: new Float64Array(n),
       hMetres: new Float64Array(n),
-      headStamp: new Int32Array(n),
-      head: new Int32Array(n),
       layerStamp: 0,
       layerSeen: new Int32Array(n),
       layerDist: new Float64Array(n),
       swapStamp: new Int32Array(n),
       swapLayer: new Int32Array(n),
+      doneStamp: new Int32Array(n),
+      tightStamp: 0,
+      tightSeen: new Int32Array(n),
+      tightSettled: new Int32Array(n),
+      tightDist: new Float64Array(n),
       swapReach: new Float64Array(n),
       sources: new Int32Array(n),
       heap: new MinHeap(1024),
       heap2: new MinHeap(1024),
-      labels: new LabelStore(),
+      labels: new LabelStore(n),
     };
     scratchByStation.set(c, s);
   }
@@ -105,8 +182,8 @@ export function scratchFor(c: CompiledStation): Scratch {
     s.stamp = 1;
     s.seen.fill(0);
     s.hStamp.fill(0);
-    s.headStamp.fill(0);
     s.swapStamp.fill(0);
+    s.doneStamp.fill(0);
   }
   return s;
 }
@@ -169,53 +246,6 @@ function predArcsPath(c: CompiledStation, predArc: Int32Array, s: number, t: num
     v = arcSource(c, a);
   }
   return arcs.reverse();
-}
-
-/**
- * Least-time path by A* with the compiled landmark bounds: the same cost as dijkstraPath on
- * `weights`, but it settles a corridor towards t instead of a ball round s. A heap entry whose key
- * no longer matches its node's distance is stale; a node whose distance improves is pushed again.
- */
-export function fastestPath(
-  c: CompiledStation,
-  weights: Float64Array,
-  s: number,
-  t: number,
-  excludeMask: number,
-  maxSpeedMps: number,
-  landmarkTimesValid: boolean,
-): number[] | null {
-  const sc = scratchFor(c);
-  const { seen, dist, predArc, heap, hSeconds } = sc;
-  const stamp = sc.stamp;
-  const { offsets, targets, arcFlags } = c;
-  const bound = targetBound(c, sc, t, 1, maxSpeedMps, landmarkTimesValid);
-  if (!bound(s)) return null;
-  heap.clear();
-  seen[s] = stamp;
-  dist[s] = 0;
-  predArc[s] = -1;
-  heap.push(s, hSeconds[s]);
-  while (heap.size > 0) {
-    const k = heap.topKey1();
-    const v = heap.pop();
-    const d = dist[v];
-    if (k > d + hSeconds[v]) continue;
-    if (v === t) return predArcsPath(c, predArc, s, t);
-    for (let a = offsets[v], end = offsets[v + 1]; a < end; a++) {
-      if (arcFlags[a] & excludeMask) continue;
-      const u = targets[a];
-      const nd = d + weights[a];
-      if (seen[u] !== stamp || nd < dist[u]) {
-        if (!bound(u)) continue;
-        seen[u] = stamp;
-        dist[u] = nd;
-        predArc[u] = a;
-        heap.push(u, nd + hSeconds[u]);
-      }
-    }
-  }
-  return null;
 }
 
 /** Nodes reachable from s over arcs without any `excludeMask` flag. */
@@ -353,9 +383,9 @@ function runLabels(
 ): LabelPath | null | 'cap' {
   const sc = scratchFor(c);
   const stamp = sc.stamp;
-  const { hSeconds, hMetres, headStamp, head, heap } = sc;
+  const { hSeconds, hMetres, heap } = sc;
   const L = sc.labels;
-  L.size = 0;
+  L.begin(stamp);
   heap.clear();
   const { offsets, targets, arcFlags, arcLengthM } = c;
   const { weights, secondsFactor, tetherLengthM: tether, excludeMask, swapCost, isAttach } = p;
@@ -374,46 +404,21 @@ function runLabels(
   };
 
   // adds a label unless dominated; prunes the labels it dominates
-  const offer = (
-    v: number,
-    parent: number,
-    arc: number,
-    swaps: number,
-    seconds: number,
-    paid: number,
-    swapped: number,
-  ) => {
+  const offer = (v: number, parent: number, arc: number, swaps: number, seconds: number, paid: number) => {
     const p1 = lex ? swaps : seconds + swapCost * swaps;
     const p2 = lex ? seconds : 0;
-    if (headStamp[v] !== stamp) {
-      headStamp[v] = stamp;
-      head[v] = -1;
-    }
     let prev = -1;
-    for (let y = head[v]; y !== -1;) {
+    for (let y = L.first(v); y !== -1;) {
       const nextY = L.next[y];
       const yp1 = L.p1[y];
       if ((yp1 < p1 || (yp1 === p1 && L.p2[y] <= p2)) && L.paid[y] <= paid) return;
-      if ((p1 < yp1 || (p1 === yp1 && p2 <= L.p2[y])) && paid <= L.paid[y]) {
-        L.dead[y] = 1;
-        if (prev === -1) head[v] = nextY;
-        else L.next[prev] = nextY;
-      } else prev = y;
+      if ((p1 < yp1 || (p1 === yp1 && p2 <= L.p2[y])) && paid <= L.paid[y]) L.unlink(v, prev, y);
+      else prev = y;
       y = nextY;
     }
-    const x = L.add();
-    L.node[x] = v;
-    L.parent[x] = parent;
-    L.arc[x] = arc;
-    L.swaps[x] = swaps;
-    L.swapped[x] = swapped;
-    L.dead[x] = 0;
-    L.seconds[x] = seconds;
-    L.paid[x] = paid;
+    const x = L.link(v, parent, arc, swaps, seconds, paid);
     L.p1[x] = p1;
     L.p2[x] = p2;
-    L.next[x] = head[v];
-    head[v] = x;
     const sw = swapsNeeded(v, paid);
     if (lex) heap.push(x, swaps + sw, seconds + hSeconds[v]);
     else heap.push(x, p1 + hSeconds[v] + swapCost * sw, hSeconds[v]);
@@ -421,8 +426,8 @@ function runLabels(
 
   if (!bound(s)) return null;
   const startPaid = p.startPaidOutM;
-  offer(s, -1, -1, 0, 0, startPaid, 0);
-  if (isAttach[s] && startPaid > 0) offer(s, -1, -1, 1, 0, 0, 1);
+  offer(s, -1, -1, 0, 0, startPaid);
+  if (isAttach[s] && startPaid > 0) offer(s, -1, -1, 1, 0, 0);
   let goal = -1;
   const endLimit = (p.endPaidOutMaxM ?? Infinity) + TETHER_EPS_M;
   while (heap.size > 0) {
@@ -445,14 +450,238 @@ function runLabels(
       if (!bound(u)) continue;
       const ns = seconds + weights[a] * secondsFactor;
       // a swap at the end only matters when the arrival must leave tether to spare
-      if (isAttach[u] && (u !== t || endLimit < Infinity) && np > 0) offer(u, x, a, swaps + 1, ns, 0, 1);
-      offer(u, x, a, swaps, ns, np, 0);
+      if (isAttach[u] && (u !== t || endLimit < Infinity) && np > 0) offer(u, x, a, swaps + 1, ns, 0);
+      offer(u, x, a, swaps, ns, np);
     }
   }
-  if (goal < 0) return null;
-  const arcs: number[] = [];
-  for (let x = goal; L.arc[x] !== -1; x = L.parent[x]) arcs.push(L.arc[x]);
-  return { arcs: arcs.reverse(), swaps: L.swaps[goal], seconds: L.seconds[goal] };
+  return goal < 0 ? null : L.walk(goal);
+}
+
+/** What quickestWalk found. */
+export type QuickestWalk =
+  | { fits: true; arcs: number[]; swaps: number }
+  /** no walk of the least time fits the tether; `arcs` is one of them */
+  | { fits: false; arcs: number[] };
+
+/**
+ * The quickest walk s → t and, among the walks of that time (to within `tie` seconds) that fit the
+ * tether, the one with the fewest swaps; null when t cannot be reached at all. A* over nodes
+ * (keys: least time plus the landmark bound, then least time; the bound is 0 when `useBound` is
+ * false) that also keeps at each node the labels (swaps, paid out, time) of the walks reaching it
+ * within `tie` of its least time, no label worse in all three than another. Every prefix of a walk
+ * within `tie` of the least time to t is within `tie` of the least time to its own end, so no
+ * such walk is lost; a node whose labels change after it was expanded (times within `tie` can pop
+ * out of order) is queued again, and the search stops once the keys pass the least time to t plus
+ * `tie`. Labels start from the start's paid-out length, with a swap at an attach-point start.
+ */
+export function quickestWalk(
+  c: CompiledStation,
+  s: number,
+  t: number,
+  p: LabelSearchParams,
+  tie: number,
+  useBound: boolean,
+): QuickestWalk | null {
+  const sc = scratchFor(c);
+  const stamp = sc.stamp;
+  const { seen, dist, predArc, heap, doneStamp: done } = sc;
+  // without the bound the keys are the least times alone (a Dijkstra order), as a reference check
+  const bound = targetBound(c, sc, t, p.secondsFactor, p.maxSpeedMps, p.landmarkTimesValid);
+  const hSeconds = useBound ? sc.hSeconds : new Float64Array(c.nodeCount);
+  const L = sc.labels;
+  L.begin(stamp);
+  heap.clear();
+  const { offsets, targets, arcFlags, arcLengthM } = c;
+  const { weights, secondsFactor: f, excludeMask, isAttach } = p;
+  const limit = p.tetherLengthM + TETHER_EPS_M;
+  const endLimit = (p.endPaidOutMaxM ?? Infinity) + TETHER_EPS_M;
+  // with a limit on arrival, a swap at t counts, and a walk may go on past t to swap and come back
+  const capped = endLimit < Infinity;
+  let best = Infinity;
+
+  if (!bound(s)) return null;
+  seen[s] = stamp;
+  dist[s] = 0;
+  predArc[s] = -1;
+  L.offerPareto(s, -1, -1, 0, 0, p.startPaidOutM);
+  if (isAttach[s] && p.startPaidOutM > 0) L.offerPareto(s, -1, -1, 1, 0, 0);
+  heap.push(s, hSeconds[s], 0);
+  while (heap.size > 0) {
+    const k = heap.topKey1();
+    if (k > best + tie) break;
+    const v = heap.pop();
+    const d = dist[v];
+    if (k > d + hSeconds[v]) continue;
+    if (v === t) {
+      if (best === Infinity) best = d;
+      if (!capped) continue;
+    }
+    // least times first, as in a plain A*
+    for (let a = offsets[v], end = offsets[v + 1]; done[v] !== stamp && a < end; a++) {
+      if (arcFlags[a] & excludeMask) continue;
+      const u = targets[a];
+      const nd = d + weights[a] * f;
+      if (seen[u] === stamp && nd >= dist[u]) continue;
+      if (!bound(u)) continue;
+      seen[u] = stamp;
+      dist[u] = nd;
+      predArc[u] = a;
+      heap.push(u, nd + hSeconds[u], nd);
+    }
+    done[v] = stamp;
+    // then the labels of v not yet carried on
+    for (let x = L.first(v); x !== -1; x = L.next[x]) {
+      if (L.expanded[x]) continue;
+      L.expanded[x] = 1;
+      const g = L.seconds[x];
+      if (g > d + tie) continue;
+      const swaps = L.swaps[x];
+      const paid = L.paid[x];
+      for (let a = offsets[v], end = offsets[v + 1]; a < end; a++) {
+        if (arcFlags[a] & excludeMask) continue;
+        const u = targets[a];
+        if (seen[u] !== stamp) continue;
+        const ng = g + weights[a] * f;
+        if (ng > dist[u] + tie || ng + hSeconds[u] > best + tie) continue;
+        const np = paid + arcLengthM[a];
+        if (np > limit) continue;
+        let added = false;
+        const swapHere = isAttach[u] && (u !== t || capped) && np > 0;
+        if (swapHere) added = L.offerPareto(u, x, a, swaps + 1, ng, 0) >= 0;
+        added = L.offerPareto(u, x, a, swaps, ng, np) >= 0 || added;
+        // a node already expanded carries the new label on when it comes round again
+        if (added && done[u] === stamp && (u !== t || capped)) heap.push(u, dist[u] + hSeconds[u], dist[u]);
+      }
+    }
+  }
+  if (best === Infinity) return null;
+  let goal = -1;
+  for (let x = L.first(t); x !== -1; x = L.next[x]) {
+    if (L.seconds[x] > best + tie || L.paid[x] > endLimit) continue;
+    if (
+      goal < 0 ||
+      L.swaps[x] < L.swaps[goal] ||
+      (L.swaps[x] === L.swaps[goal] && L.seconds[x] < L.seconds[goal])
+    )
+      goal = x;
+  }
+  if (goal < 0) return { fits: false, arcs: predArcsPath(c, predArc, s, t) };
+  return { fits: true, arcs: L.walk(goal).arcs, swaps: L.swaps[goal] };
+}
+
+/**
+ * The walk s → t with the fewest swaps, if fewer than `fewerThan`, among the walks that fit the
+ * tether and take at most `maxSeconds`; null if there is none. Meant for a limit at (to within
+ * rounding) the least time of any walk: such walks then run along least times to t, and the
+ * search sees only the nodes settleTimesToTarget settles. Labels (node, swaps, seconds, paid out)
+ * are set in order of swaps, then seconds plus the exact time to t; a label no better in all three
+ * than another at its node is dropped (under a time limit, fewer swaps do not make up for more
+ * time). The start label carries the start's paid-out length, and a limit on the tether out on
+ * arrival holds, as in the label search.
+ */
+export function fewestSwapsWithin(
+  c: CompiledStation,
+  s: number,
+  t: number,
+  p: LabelSearchParams,
+  maxSeconds: number,
+  fewerThan: number,
+): LabelPath | null {
+  settleTimesToTarget(c, s, t, p, maxSeconds);
+  const sc = scratchFor(c);
+  const stamp = sc.stamp;
+  const { heap, tightSettled: settled, tightDist: toT } = sc;
+  const mark = sc.tightStamp;
+  if (settled[s] !== mark) return null;
+  const L = sc.labels;
+  L.begin(stamp);
+  heap.clear();
+  const { offsets, targets, arcFlags, arcLengthM } = c;
+  const { weights, secondsFactor: f, excludeMask, isAttach } = p;
+  const limit = p.tetherLengthM + TETHER_EPS_M;
+  // with a limit on arrival, a label at t with more out goes on, to swap and come back
+  const endLimit = (p.endPaidOutMaxM ?? Infinity) + TETHER_EPS_M;
+
+  const offer = (v: number, parent: number, arc: number, swaps: number, seconds: number, paid: number) => {
+    if (swaps >= fewerThan) return;
+    const x = L.offerPareto(v, parent, arc, swaps, seconds, paid);
+    if (x >= 0) heap.push(x, swaps, seconds + toT[v]);
+  };
+
+  offer(s, -1, -1, 0, 0, p.startPaidOutM);
+  if (isAttach[s] && p.startPaidOutM > 0) offer(s, -1, -1, 1, 0, 0);
+  while (heap.size > 0) {
+    const x = heap.pop();
+    if (L.dead[x]) continue;
+    const v = L.node[x];
+    if (v === t && L.paid[x] <= endLimit) return L.walk(x);
+    const swaps = L.swaps[x];
+    const seconds = L.seconds[x];
+    const paid = L.paid[x];
+    for (let a = offsets[v], end = offsets[v + 1]; a < end; a++) {
+      if (arcFlags[a] & excludeMask) continue;
+      const u = targets[a];
+      if (settled[u] !== mark) continue;
+      const ns = seconds + weights[a] * f;
+      if (ns + toT[u] > maxSeconds) continue;
+      const np = paid + arcLengthM[a];
+      if (np > limit) continue;
+      if (isAttach[u] && (u !== t || endLimit < Infinity) && np > 0) offer(u, x, a, swaps + 1, ns, 0);
+      offer(u, x, a, swaps, ns, np);
+    }
+  }
+  return null;
+}
+
+/**
+ * Least seconds to t (arc weights times the factor) of every node on some walk s → t of at most
+ * `maxSeconds`: A* from t towards s with the landmark bound to s (arc times are the same both
+ * ways), settling nodes while their key is within the limit. Afterwards `tightSettled[v] ===
+ * tightStamp` marks those nodes, with their exact time to t in `tightDist`; a node not settled
+ * has time to t plus the bound from s beyond the limit, so it is on no such walk.
+ */
+function settleTimesToTarget(
+  c: CompiledStation,
+  s: number,
+  t: number,
+  p: LabelSearchParams,
+  maxSeconds: number,
+): void {
+  const sc = scratchFor(c);
+  if (++sc.tightStamp >= 0x7fffffff) {
+    sc.tightStamp = 1;
+    sc.tightSeen.fill(0);
+    sc.tightSettled.fill(0);
+  }
+  const { tightSeen: seen, tightSettled: settled, tightDist: dist, hSeconds, heap } = sc;
+  const mark = sc.tightStamp;
+  const bound = targetBound(c, sc, s, p.secondsFactor, p.maxSpeedMps, p.landmarkTimesValid);
+  const { offsets, targets, arcFlags } = c;
+  const { weights, secondsFactor: f, excludeMask } = p;
+  heap.clear();
+  if (!bound(t)) return;
+  seen[t] = mark;
+  dist[t] = 0;
+  heap.push(t, hSeconds[t]);
+  while (heap.size > 0) {
+    const k = heap.topKey1();
+    if (k > maxSeconds) break;
+    const v = heap.pop();
+    if (settled[v] === mark) continue;
+    settled[v] = mark;
+    const d = dist[v];
+    for (let a = offsets[v], end = offsets[v + 1]; a < end; a++) {
+      if (arcFlags[a] & excludeMask) continue;
+      const u = targets[a];
+      if (settled[u] === mark) continue;
+      const nd = d + weights[a] * f;
+      if (seen[u] === mark && nd >= dist[u]) continue;
+      if (!bound(u) || nd + hSeconds[u] > maxSeconds) continue;
+      seen[u] = mark;
+      dist[u] = nd;
+      heap.push(u, nd + hSeconds[u]);
+    }
+  }
 }
 
 /**

@@ -17,7 +17,16 @@ import {
   type CompiledStation,
 } from './compiled-station';
 import { clipSearch, hasClipGraph } from './routes-clip';
-import { arcSource, dijkstraPath, fastestPath, fitsTether, labelSearch, reachable } from './routes-search';
+import {
+  arcSource,
+  dijkstraPath,
+  fewestSwapsWithin,
+  fitsTether,
+  labelSearch,
+  quickestWalk,
+  reachable,
+  type LabelSearchParams,
+} from './routes-search';
 import { TETHER_EPS_M, placeSwapsGreedy, type WalkStart } from './tether';
 
 export { hasNodeKey } from './compiled-station';
@@ -134,7 +143,12 @@ function searchTerms(c: CompiledStation, settings: StationSettings, request: Rou
  * the label search (the route bench prints what that costs).
  */
 function search(q: Query, objective: 'sum' | 'lex', swapCost: number) {
-  return (q.fresh && useClipGraph(q) ? clipSearch : labelSearch)(q.c, q.s, q.t, {
+  const search = q.fresh && useClipGraph(q) ? clipSearch : labelSearch;
+  return search(q.c, q.s, q.t, searchParams(q, objective, swapCost));
+}
+
+function searchParams(q: Query, objective: 'sum' | 'lex', swapCost: number): LabelSearchParams {
+  return {
     objective,
     swapCost,
     weights: q.weights,
@@ -146,7 +160,7 @@ function search(q: Query, objective: 'sum' | 'lex', swapCost: number) {
     isAttach: q.isAttach,
     startPaidOutM: q.startPaidOutM,
     endPaidOutMaxM: q.endCap,
-  });
+  };
 }
 
 /**
@@ -168,6 +182,34 @@ function walkStart(q: Query): WalkStart {
 
 function walkAttach(q: Query, nodes: readonly number[]): boolean[] {
   return nodes.map((v) => q.isAttach[v] === 1);
+}
+
+/** Travel times this close are equal: the same legs summed in another order differ by far less. */
+export const TRAVEL_TIME_TIE_S = 1e-6;
+
+/** The greedy swaps of a walk from the query's start state (and within its limit on arrival). */
+function swapsOf(q: Query, arcs: readonly number[]) {
+  const nodes = [q.s, ...arcs.map((a) => q.c.targets[a])];
+  return placeSwaps(
+    q,
+    arcs.map((a) => q.c.arcLengthM[a]),
+    nodes,
+  );
+}
+
+/**
+ * Among routes of the same travel time as `arcs` (to within TRAVEL_TIME_TIE_S), the one with the
+ * fewest swaps: `arcs` is the quickest route that fits the tether when the quickest walks do not.
+ */
+function fewestSwapsAtLeastTime(q: Query, arcs: number[]): number[] {
+  const plan = swapsOf(q, arcs);
+  const swaps = plan.feasible ? plan.swaps.length : Infinity;
+  if (swaps === 0) return arcs;
+  let seconds = 0;
+  for (const a of arcs) seconds += q.weights[a] * q.factor;
+  const limit = seconds + TRAVEL_TIME_TIE_S;
+  const found = fewestSwapsWithin(q.c, q.s, q.t, searchParams(q, 'lex', 0), limit, swaps);
+  return found ? found.arcs : arcs;
 }
 
 const fmt = (m: number) => `${Math.round(m * 100) / 100} m`;
@@ -444,20 +486,23 @@ export function findRoute(
   if (s === t) return infeasible(q, 'same-node', `The route starts and ends at ${request.from}.`);
 
   if (request.mode === 'fastest') {
-    // the landmark A* needs no clip graph: every strategy but the reference check uses it
-    const plain =
-      q.strategy !== 'label-search'
-        ? fastestPath(c, arcSeconds, s, t, q.mask, maxSpeed(settings), landmarkTimesValid)
-        : dijkstraPath(c, arcSeconds, s, t, q.mask);
-    if (!plain) return diagnose(q);
-    const lengths = plain.map((a) => c.arcLengthM[a]);
-    const nodes = [s, ...plain.map((a) => c.targets[a])];
-    const plan = placeSwaps(q, lengths, nodes);
-    if (plan.feasible) return buildRoute(q, plain, []);
+    // the landmark A* needs no clip graph: every strategy but the reference check uses the bound
+    const quick = quickestWalk(
+      c,
+      s,
+      t,
+      searchParams(q, 'lex', 0),
+      TRAVEL_TIME_TIE_S,
+      q.strategy !== 'label-search',
+    );
+    if (!quick) return diagnose(q);
+    if (quick.fits) return buildRoute(q, quick.arcs, []);
     const fitted = search(q, 'sum', 0);
     if (!fitted) return diagnose(q);
-    return buildRoute(q, fitted.arcs, [
-      `The quickest way needs a tether of at least ${fmt(plan.requiredTetherM)}; this is the quickest route that fits the ${fmt(q.tether)} tether.`,
+    const plan = swapsOf(q, quick.arcs);
+    const need = plan.feasible ? q.tether : plan.requiredTetherM;
+    return buildRoute(q, fewestSwapsAtLeastTime(q, fitted.arcs), [
+      `The quickest way needs a tether of at least ${fmt(need)}; this is the quickest route that fits the ${fmt(q.tether)} tether.`,
     ]);
   }
   const found =

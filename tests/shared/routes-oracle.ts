@@ -24,12 +24,15 @@ export interface OracleBest {
 }
 
 export interface OracleResult {
+  /** least travel time, then (among walks of that time) fewest swaps */
   fastest: OracleBest | null;
   fewestSwaps: OracleBest | null;
   balanced: (OracleBest & { total: number }) | null;
 }
 
 const EPS = 1e-9;
+/** travel times this close count as equal (as the engine's fastest mode takes them) */
+const TIME_TIE = 1e-6;
 
 export function adjacency(
   doc: StationDocument,
@@ -116,6 +119,8 @@ export function exhaustive(
   const positions = [0];
   const attach = [attachOf[s]];
   const cap = from.endCapM;
+  let least = Infinity;
+  const quickest = new Map<number, OracleBest>();
   const walk = (v: number, seconds: number) => {
     if (v === t) {
       // at most `cap` out on arrival: a virtual last stretch of tether − cap with no attach point
@@ -130,7 +135,11 @@ export function exhaustive(
         return;
       }
       const edges = positions.length - 1;
-      if (!res.fastest || seconds < res.fastest.seconds) res.fastest = { seconds, swaps, edges };
+      // least time; among walks within TIME_TIE of it, the fewest swaps (the quickest walk of
+      // each swap count is kept: it outlasts any other of that count as the least time falls)
+      least = Math.min(least, seconds);
+      const kept = quickest.get(swaps);
+      if (!kept || seconds < kept.seconds) quickest.set(swaps, { seconds, swaps, edges });
       const f = res.fewestSwaps;
       if (!f || swaps < f.swaps || (swaps === f.swaps && seconds < f.seconds))
         res.fewestSwaps = { seconds, swaps, edges };
@@ -154,6 +163,11 @@ export function exhaustive(
     }
   };
   walk(s, 0);
+  for (const w of quickest.values()) {
+    if (w.seconds > least + TIME_TIE) continue;
+    const f = res.fastest;
+    if (!f || w.swaps < f.swaps) res.fastest = w;
+  }
   return res;
 }
 
@@ -246,3 +260,50 @@ export function keepOutEdges(doc: StationDocument): Set<number> {
   });
   return blocked;
 }
+
+/**
+ * Two or three branches of handrails from S to T made of the same lengths in another order, with
+ * attach points in different places: the branches tie on time (to within float rounding) and
+ * often differ in swaps.
+ */
+export const tiedBranchesStationArb = fc
+  .record({
+    branches: fc.integer({ min: 2, max: 3 }),
+    lengths: fc.array(decimal(0.3, 2.5), { minLength: 3, maxLength: 5 }),
+    order: fc.array(fc.array(fc.nat(), { minLength: 5, maxLength: 5 }), { minLength: 3, maxLength: 3 }),
+    anchors: fc.array(fc.boolean(), { minLength: 12, maxLength: 12 }),
+    tetherShare: fc.integer({ min: 25, max: 80 }),
+  })
+  .map((r) => {
+    const total = r.lengths.reduce((a, b) => a + b, 0);
+    const tether = Math.max(Math.max(...r.lengths), Math.round(total * r.tetherShare) / 100);
+    const k = r.lengths.length;
+    const nodes: StationDocumentInput['nodes'] = [
+      { key: 'S', kind: 'anchor', position: [0, 0, 0] },
+      { key: 'T', kind: 'worksite', position: [k, 0, 0] },
+    ];
+    const edges: StationDocumentInput['edges'] = [];
+    for (let b = 0; b < r.branches; b++) {
+      const order = r.lengths
+        .map((lengthM, i) => ({ lengthM, key: r.order[b][i] }))
+        .sort((x, y) => x.key - y.key);
+      let prev = 'S';
+      order.forEach(({ lengthM }, i) => {
+        const key = i === k - 1 ? 'T' : `B${b}-${i + 1}`;
+        if (key !== 'T') {
+          const kind = r.anchors[b * 4 + i] ? 'anchor' : 'junction';
+          nodes.push({ key, kind, position: [i + 1, b + 1, 0] });
+        }
+        edges.push({ from: prev, to: key, kind: 'handrail', lengthM });
+        prev = key;
+      });
+    }
+    return StationDocumentSchema.parse({
+      format: 'tetherwise.station',
+      version: 1,
+      name: 'tied branches',
+      settings: { tetherLengthM: tether },
+      nodes,
+      edges,
+    } satisfies StationDocumentInput);
+  });

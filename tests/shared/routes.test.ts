@@ -5,7 +5,9 @@ import { dijkstra } from 'graphology-shortest-path';
 import createGraph from 'ngraph.graph';
 import { nba } from 'ngraph.path';
 import type { RouteFeasible, RouteMode, RouteRequest, RouteResult } from '@shared/schemas/route';
+import kestrel from '../../server/db/seed/kestrel-station.json';
 import {
+  parseStationDocument,
   StationDocumentSchema,
   type StationDocument,
   type StationDocumentInput,
@@ -19,6 +21,7 @@ import {
   keepOutEdges,
   minSwapsDp,
   smallStationArb,
+  tiedBranchesStationArb,
   type OracleResult,
 } from './routes-oracle';
 
@@ -152,7 +155,7 @@ describe('exact modes against exhaustive walk search', () => {
     r: RouteResult,
     mode: RouteMode,
     best: OracleResult,
-    start: { anchor: string; paidOutM: number; attach: boolean[] },
+    start: { anchor: string; paidOutM: number; attach: boolean[]; endCapM?: number },
   ) {
     if (!r.feasible) {
       expect(best.fastest, `${mode}: oracle found a walk the engine missed (${r.reason})`).toBeNull();
@@ -162,7 +165,16 @@ describe('exact modes against exhaustive walk search', () => {
     const positions = [0, ...r.legs.map((l) => l.startM + l.lengthM)];
     const attach = r.nodes.map((k) => start.attach[index.get(k)!]);
     const oracleStart = { paidOutM: start.paidOutM, swapAtStart: attach[0] };
-    expect(minSwapsDp(positions, attach, r.tetherLengthM, oracleStart)).toBe(r.swapCount);
+    // a limit on arrival as the oracle takes it: a last virtual stretch of tether − limit
+    const cap = start.endCapM;
+    const capped = cap === undefined ? [] : [r.lengthM + r.tetherLengthM - cap];
+    const dpSwaps = minSwapsDp(
+      [...positions, ...capped],
+      [...attach, ...capped.map(() => false)],
+      r.tetherLengthM,
+      oracleStart,
+    );
+    expect(dpSwaps).toBe(r.swapCount);
     // paid out along the walk, from the swaps as reported
     let clipM = -start.paidOutM;
     let clipNode = start.anchor;
@@ -186,8 +198,12 @@ describe('exact modes against exhaustive walk search', () => {
 
     const short = r.legs.length <= MAX_EDGES;
     if (mode === 'fastest') {
+      // least time, and among routes of that time (both within a microsecond) the fewest swaps
       expect(best.fastest === null || r.travelSeconds <= best.fastest.seconds + 1e-6).toBe(true);
-      if (short) expect(r.travelSeconds).toBeCloseTo(best.fastest!.seconds, 6);
+      if (short) {
+        expect(Math.abs(r.travelSeconds - best.fastest!.seconds)).toBeLessThanOrEqual(2e-6);
+        expect(r.swapCount).toBe(best.fastest!.swaps);
+      }
     } else if (mode === 'fewest-swaps') {
       const o = best.fewestSwaps;
       if (o)
@@ -236,6 +252,48 @@ describe('exact modes against exhaustive walk search', () => {
       ),
       { numRuns: 600 },
     );
+  });
+
+  it('takes, among the quickest routes, the one with the fewest swaps', () => {
+    fc.assert(
+      fc.property(
+        tiedBranchesStationArb,
+        fc.option(fc.integer({ min: 0, max: 100 }), { nil: undefined }),
+        (doc, capShare) => {
+          const c = compileStation(doc);
+          const tether = doc.settings.tetherLengthM;
+          // sometimes with a limit on the tether out on arrival
+          const endCapM = capShare === undefined ? undefined : (capShare / 100) * tether;
+          const best = exhaustive(doc, adjacency(doc), 0, 1, tether, MAX_EDGES, { endCapM });
+          const start = { anchor: 'S', paidOutM: 0, attach: attachMarks(doc), endCapM };
+          const request: RouteRequest = { from: 'S', to: 'T', mode: 'fastest', endPaidOutMaxM: endCapM };
+          for (const strategy of ['clip-graph', 'label-search'] as const) {
+            const r = findRoute(c, doc.settings, request, { strategy });
+            checkAgainstOracle(doc, r, 'fastest', best, start);
+            if (r.feasible && endCapM !== undefined)
+              expect(r.tetherAtEnd!.paidOutM).toBeLessThanOrEqual(endCapM + 1e-9);
+          }
+        },
+      ),
+      { numRuns: 300 },
+    );
+  });
+
+  it('takes the quickest route with one swap on the demo station, not the one with two', () => {
+    // PB3-W01 → SB4-W01 with a 25.9 m tether: two walks of the same travel time, one swap apart
+    const parsed = parseStationDocument(kestrel);
+    if (!parsed.ok) throw new Error('the demo station does not parse');
+    const demo = compileStation(parsed.doc);
+    const request = { from: 'PB3-W01', to: 'SB4-W01', tetherLengthM: 25.9 };
+    const fewest = feasible(findRoute(demo, parsed.doc.settings, { ...request, mode: 'fewest-swaps' }));
+    for (const strategy of ['clip-graph', 'label-search'] as const) {
+      const fast = feasible(
+        findRoute(demo, parsed.doc.settings, { ...request, mode: 'fastest' }, { strategy }),
+      );
+      expect(fast.travelSeconds).toBeCloseTo(fewest.travelSeconds, 6);
+      expect(fast.swapCount).toBe(1);
+      expect(fast.totalSeconds).toBeCloseTo(fewest.totalSeconds, 6);
+    }
   });
 
   it('finds the best walk from a tether state, with extra attach points, by either search', () => {
