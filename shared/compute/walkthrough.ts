@@ -1,7 +1,15 @@
 import type { RouteFeasible, TetherState } from '../schemas/route';
 import type { CrewMember } from '../schemas/plan';
 import type { Vec3 } from '../schemas/station';
-import { tetherAtRouteStart, type Timeline, type TimelineBlock } from './day/types';
+import { describeAction, describeSwap } from './day/describe';
+import {
+  tetherAtRouteStart,
+  type DayTask,
+  type EquipmentTrack,
+  type ItemState,
+  type Timeline,
+  type TimelineBlock,
+} from './day/types';
 import { formatElapsed } from './units';
 
 /**
@@ -46,6 +54,8 @@ export interface WalkStep {
   anchorKey: string;
   taskIndex?: number;
   socketKey?: string;
+  /** what the crew member does with the manifest's items in this step, in cue-card words */
+  equipment?: string[];
 }
 
 export interface TrackPiece {
@@ -157,13 +167,14 @@ function translate(
 
 function swap(b: Builder, node: string, paidBefore: number, t0: number, t1: number, taskIndex?: number) {
   const released = b.anchorKey;
+  const words = describeSwap(node, released);
   hold(b, t0, t1);
   addStep(b, {
     type: 'swap',
     start: t0,
     end: t1,
-    title: `Tether swap at ${node}`,
-    detail: `Clip the new hook at ${node}, check it, then release the old hook at ${released} (${paidBefore.toFixed(1)} m paid out).`,
+    title: words.title,
+    detail: `${words.instruction[0].toUpperCase()}${words.instruction.slice(1)} (${paidBefore.toFixed(1)} m paid out since ${released}; nothing out after).`,
     nodeKey: node,
     clipKey: node,
     releaseKey: released,
@@ -262,27 +273,62 @@ export function routeWalkthrough(route: RouteFeasible, position: PositionOf): Cr
   return { steps: b.steps, pieces: b.pieces, endSeconds: t };
 }
 
-export interface WalkthroughTask {
-  title: string;
-  worksite: string;
-}
+/** What the walkthrough reads of a plan's task: where it is, and what it does with items. */
+export type WalkthroughTask = Pick<DayTask, 'title' | 'worksite'> &
+  Partial<Pick<DayTask, 'crew' | 'socket' | 'sockets' | 'actions' | 'tools'>>;
+
+type DayOfWalk = Pick<Timeline, 'crew' | 'routes' | 'endSeconds'> & Partial<Pick<Timeline, 'equipment'>>;
 
 /**
  * Both crew members' tracks for a whole plan, on the shared EVA elapsed-time clock of the timeline:
- * every position, tether state and restraint comes from the timeline's blocks, nothing is recomputed.
+ * every position, tether state, restraint and item comes from the timeline's blocks and equipment
+ * tracks, nothing is recomputed.
  */
 export function planWalkthrough(
-  timeline: Pick<Timeline, 'crew' | 'routes' | 'endSeconds'>,
+  timeline: DayOfWalk,
   tasks: readonly WalkthroughTask[],
   airlockKey: string,
   position: PositionOf,
 ): { crews: Record<CrewMember, CrewTrack>; endSeconds: number } {
+  const equipment = timeline.equipment ?? [];
   const build = (crew: CrewMember): CrewTrack => {
     const b = newBuilder(airlockKey, { anchor: airlockKey, paidOutM: 0 }, position, crew, crew);
-    for (const block of timeline.crew[crew].blocks) addBlock(b, block, timeline.routes, tasks);
+    for (const block of timeline.crew[crew].blocks) addBlock(b, block, timeline.routes, tasks, equipment);
     return { crew, steps: b.steps, pieces: b.pieces, endSeconds: timeline.crew[crew].totalSeconds };
   };
   return { crews: { EV1: build('EV1'), EV2: build('EV2') }, endSeconds: timeline.endSeconds };
+}
+
+const other = (m: CrewMember): CrewMember => (m === 'EV1' ? 'EV2' : 'EV1');
+const names = (list: readonly string[]) => list.join(', ');
+
+/** The task's item actions that concern `crew` (theirs, and a hand-over to them), in cue-card words. */
+function taskEquipment(
+  task: WalkthroughTask | undefined,
+  crew: CrewMember,
+  equipment: readonly EquipmentTrack[],
+): string[] {
+  if (!task?.crew) return [];
+  const items = equipment.map((e) => ({ key: e.item, name: e.name }));
+  const lines: string[] = [];
+  for (const a of task.actions ?? []) {
+    const by = a.by ?? (task.crew === 'both' ? 'EV1' : task.crew);
+    if (by !== crew && !(a.do === 'hand-over' && other(by) === crew)) continue;
+    lines.push(describeAction({ ...task, crew: task.crew }, a, items));
+  }
+  const tools = (task.tools ?? []).map((t) => items.find((m) => m.key === t)?.name ?? t);
+  if (tools.length) lines.unshift(`Needs at hand: ${names(tools)}`);
+  return lines;
+}
+
+/** The items `crew` holds just before `t` (or at the day's start, for t = 0). */
+function heldBefore(equipment: readonly EquipmentTrack[], crew: CrewMember, t: number): string[] {
+  const out: string[] = [];
+  for (const e of equipment) {
+    const s = e.states[t <= 0 ? 0 : stateIndexAt(e, t - 1e-6)];
+    if (s?.where.kind === 'carried' && s.where.crew === crew) out.push(e.name);
+  }
+  return out;
 }
 
 function addBlock(
@@ -290,6 +336,7 @@ function addBlock(
   block: TimelineBlock,
   routes: readonly RouteFeasible[],
   tasks: readonly WalkthroughTask[],
+  equipment: readonly EquipmentTrack[],
 ) {
   const tag = block.taskIndex === undefined ? {} : { taskIndex: block.taskIndex };
   const route = block.routeIndex === undefined ? undefined : routes[block.routeIndex];
@@ -340,6 +387,7 @@ function addBlock(
     }
     case 'work': {
       const task = block.taskIndex === undefined ? undefined : tasks[block.taskIndex];
+      const lines = b.crew ? taskEquipment(task, b.crew, equipment) : [];
       hold(b, block.start, block.end);
       addStep(b, {
         type: 'work',
@@ -351,11 +399,20 @@ function addBlock(
         paidOutM: b.paid,
         anchorKey: b.anchorKey,
         ...(block.socket ? { socketKey: block.socket } : {}),
+        ...(lines.length ? { equipment: lines } : {}),
         ...tag,
       });
       return;
     }
     default: {
+      // egress: what the crew member carries out; ingress: what they bring back in
+      const held =
+        !b.crew || (block.type !== 'egress' && block.type !== 'ingress')
+          ? []
+          : heldBefore(equipment, b.crew, block.type === 'egress' ? 0 : block.start);
+      const lines = held.length
+        ? [`${b.crew} ${block.type === 'egress' ? 'carries out' : 'brings in'} ${names(held)}`]
+        : [];
       hold(b, block.start, block.end);
       addStep(b, {
         type: block.type,
@@ -366,10 +423,39 @@ function addBlock(
         nodeKey: b.at,
         paidOutM: b.paid,
         anchorKey: b.anchorKey,
+        ...(lines.length ? { equipment: lines } : {}),
         ...tag,
       });
     }
   }
+}
+
+/** The tether during a step, in cue-card words (a swap: before and after it). */
+export function tetherLine(step: WalkStep): string {
+  if (step.type === 'swap' && step.clipKey) {
+    return step.clipKey === step.releaseKey
+      ? `Tether: ${step.paidOutM.toFixed(1)} m out from ${step.anchorKey}; re-clipped there, nothing out after`
+      : `Tether: ${step.paidOutM.toFixed(1)} m out from ${step.anchorKey}; clipped at ${step.clipKey} after, nothing out`;
+  }
+  return `Tether: clipped at ${step.anchorKey}, ${step.paidOutM.toFixed(1)} m out`;
+}
+
+/** Index of the item's state at `t` (the later one at a boundary); its states tile the day. */
+export function stateIndexAt(track: Pick<EquipmentTrack, 'states'>, t: number): number {
+  const states = track.states;
+  let lo = 0;
+  let hi = states.length - 1;
+  while (lo < hi) {
+    const mid = (lo + hi + 1) >> 1;
+    if (states[mid].start <= t) lo = mid;
+    else hi = mid - 1;
+  }
+  return lo;
+}
+
+/** Where the item is at `t`. */
+export function itemStateAt(track: Pick<EquipmentTrack, 'states'>, t: number): ItemState {
+  return track.states[stateIndexAt(track, t)];
 }
 
 /** Where the crew member is at time `t`, which attach point holds them and how much tether is out. */

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import type { EquipmentTrack } from '../compute/day/types';
 import type { CrewTrack } from '../compute/walkthrough';
 import type { OrbitWindow } from '../compute/orbit';
 import type { CrewMember, PlanStatus } from './plan';
@@ -125,6 +126,10 @@ export interface PlanPlayback extends PlaybackCommon {
   tetherLengthM: Record<CrewMember, number>;
   timeLimitSeconds: number;
   airlockKey: string;
+  /** every manifest item through the day, as the timeline has it (states tile [0, day end]) */
+  equipment: EquipmentTrack[];
+  /** outward normals of the sockets an item is installed in, to stand the restraint on */
+  normals: Record<string, Vec3>;
 }
 
 export interface RoutePlayback extends PlaybackCommon {

@@ -71,6 +71,8 @@ function planPlayback(
     airlockKey: airlock,
     nightWindows: timeline.nightWindows,
     positions,
+    equipment: timeline.equipment,
+    normals: {},
     warnings: [],
   };
 }

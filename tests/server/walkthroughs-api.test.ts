@@ -104,6 +104,41 @@ describe('walkthroughs API', () => {
     );
   });
 
+  it('plays the items the way the timeline has them: equipment tracks, their places and the steps that move them', async () => {
+    const planner = await t.agent('planner');
+    const plan = await planner.post('/api/plans').send({
+      ...planBody(),
+      title: 'Restraint day',
+      manifest: [{ key: 'fr-1', name: 'Portable foot restraint', kind: 'foot-restraint', carriedBy: 'EV1' }],
+      tasks: [
+        {
+          title: 'Install the restraint',
+          worksite: K.worksite,
+          crew: 'EV1',
+          durationSeconds: 300,
+          actions: [{ do: 'install', item: 'fr-1', at: K.socket }],
+        },
+        { title: 'Work from it', worksite: K.worksite, crew: 'EV1', durationSeconds: 600, socket: K.socket },
+      ],
+    });
+    expect(plan.status, JSON.stringify(plan.body)).toBe(201);
+    const res = await (
+      await t.agent('trainer')
+    )
+      .post('/api/walkthroughs')
+      .send({ name: 'Restraint day', stationId, planId: plan.body.id });
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    const playback = (res.body as WalkthroughDetail).playback as PlanPlayback;
+    const timeline = (await planner.get(`/api/plans/${plan.body.id}/timeline`)).body;
+    expect(playback.equipment).toEqual(timeline.equipment);
+    const states = playback.equipment[0].states.map((st) => st.where);
+    expect(states).toContainEqual({ kind: 'installed', node: K.socket });
+    expect(playback.positions[K.socket]).toEqual(positions.get(K.socket));
+    expect(playback.normals[K.socket]).toEqual(doc.nodes!.find((n) => n.key === K.socket)!.normal);
+    const install = playback.crews.EV1.steps.find((st) => st.type === 'work' && st.taskIndex === 0)!;
+    expect(install.equipment).toEqual([`EV1 installs Portable foot restraint at ${K.socket}`]);
+  });
+
   it('creates a route walkthrough; an infeasible route is a 400 with the reason, an unknown key a 404', async () => {
     const trainer = await t.agent('trainer');
     const ok = await trainer.post('/api/walkthroughs').send({

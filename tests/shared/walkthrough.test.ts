@@ -5,9 +5,18 @@ import { findRoute } from '@shared/compute/routes';
 import { computeTimeline } from '@shared/compute/day/timeline';
 import { dayStationOf } from '@shared/compute/day/station';
 import { generateTrussStation } from '@shared/compute/truss-generator';
-import { planWalkthrough, routeWalkthrough, sampleTrack } from '@shared/compute/walkthrough';
+import { describeSwap } from '@shared/compute/day/describe';
+import {
+  itemStateAt,
+  planWalkthrough,
+  routeWalkthrough,
+  sampleTrack,
+  stateIndexAt,
+  tetherLine,
+} from '@shared/compute/walkthrough';
 import type { RouteFeasible } from '@shared/schemas/route';
 import type { Vec3 } from '@shared/schemas/station';
+import { LINE_KEYS as K, buildDayPlan, dayEngine, dayTask, lineStationDocument } from '../factories/day';
 
 // Walkthrough steps come from the engine's own results; these tests compare them with those results.
 const doc = generateTrussStation({ nodes: 600, seed: 7 });
@@ -162,5 +171,122 @@ describe('plan walkthrough', () => {
       const end = sampleTrack(walk.crews[crew], walk.endSeconds);
       expect(dist(end.position, position(airlock))).toBeLessThan(1e-9);
     }
+  });
+});
+
+describe('plan walkthrough: the items and the tether in each step (line station, worked by hand)', () => {
+  const line = lineStationDocument();
+  const engine = dayEngine(line);
+  const linePositions = new Map(line.nodes.map((n) => [n.key, n.position as Vec3]));
+  // EV1 carries the restraint and the bag out, installs the restraint in S2, hands the bag to EV2 in a
+  // task for both, takes the restraint out again; EV2 brings the bag home
+  const plan = buildDayPlan({
+    manifest: [
+      { key: 'fr-1', name: 'Portable foot restraint', kind: 'foot-restraint', carriedBy: 'EV1' },
+      { key: 'bag', name: 'Tool bag', kind: 'bag', carriedBy: 'EV1' },
+    ],
+    tasks: [
+      dayTask('Install the restraint', K.w2, 'EV1', 300, {
+        actions: [{ do: 'install', item: 'fr-1', at: K.s2 }],
+      }),
+      dayTask('Pass the bag', K.w2, 'both', 600, {
+        sockets: { EV1: K.s2 },
+        tools: ['bag'],
+        actions: [{ do: 'hand-over', item: 'bag', by: 'EV1' }],
+      }),
+      dayTask('Take the restraint out', K.w2, 'EV1', 120, {
+        actions: [{ do: 'remove', item: 'fr-1', at: K.s2 }],
+      }),
+    ],
+  });
+  const timeline = computeTimeline(plan, engine.station, engine.route);
+  const walk = planWalkthrough(timeline, plan.tasks, K.airlock, (k) => linePositions.get(k)!);
+  const work = (crew: 'EV1' | 'EV2', taskIndex: number) =>
+    walk.crews[crew].steps.find((s) => s.type === 'work' && s.taskIndex === taskIndex)!;
+
+  it('the day has no warnings, so every step below is what the crew will do', () => {
+    expect(timeline.warnings).toEqual([]);
+  });
+
+  it('work steps say the equipment steps of that crew member, and a hand-over on both sides', () => {
+    expect(work('EV1', 0).equipment).toEqual(['EV1 installs Portable foot restraint at S2']);
+    expect(work('EV1', 1).equipment).toEqual(['Needs at hand: Tool bag', 'EV1 hands Tool bag to EV2']);
+    expect(work('EV2', 1).equipment).toEqual(['Needs at hand: Tool bag', 'EV1 hands Tool bag to EV2']);
+    expect(work('EV1', 2).equipment).toEqual(['EV1 removes Portable foot restraint from S2']);
+  });
+
+  it('egress says what each crew member carries out, ingress what they bring in', () => {
+    const step = (crew: 'EV1' | 'EV2', type: 'egress' | 'ingress') =>
+      walk.crews[crew].steps.find((s) => s.type === type)!;
+    expect(step('EV1', 'egress').equipment).toEqual(['EV1 carries out Portable foot restraint, Tool bag']);
+    expect(step('EV2', 'egress').equipment).toBeUndefined();
+    expect(step('EV1', 'ingress').equipment).toEqual(['EV1 brings in Portable foot restraint']);
+    expect(step('EV2', 'ingress').equipment).toEqual(['EV2 brings in Tool bag']);
+  });
+
+  it('every step states the tether: the anchor and the metres out, a swap before and after', () => {
+    for (const crew of ['EV1', 'EV2'] as const) {
+      const steps = walk.crews[crew].steps;
+      const swap = steps.find((s) => s.type === 'swap')!;
+      // the walk from the airlock swaps at A1 first (worked by hand in day-timeline.test.ts)
+      expect(swap.releaseKey).toBe(K.airlock);
+      expect(tetherLine(swap)).toBe(
+        `Tether: ${swap.paidOutM.toFixed(1)} m out from ${K.airlock}; clipped at ${swap.clipKey} after, nothing out`,
+      );
+      const w = work(crew, 1);
+      expect(tetherLine(w)).toBe(`Tether: clipped at ${w.anchorKey}, ${w.paidOutM.toFixed(1)} m out`);
+    }
+  });
+
+  it('items are where the timeline’s equipment tracks put them at every instant', () => {
+    const restraint = timeline.equipment.find((e) => e.item === 'fr-1')!;
+    const installAt = work('EV1', 0).end;
+    expect(itemStateAt(restraint, installAt - 1).where).toEqual({ kind: 'carried', crew: 'EV1' });
+    expect(itemStateAt(restraint, installAt).where).toEqual({ kind: 'installed', node: K.s2 });
+    expect(itemStateAt(restraint, timeline.endSeconds).where).toEqual({ kind: 'airlock' });
+    // states tile the day: the index found for each state's own start is that state
+    restraint.states.forEach((s, i) => expect(stateIndexAt(restraint, s.start)).toBe(i));
+  });
+});
+
+describe('a swap back onto the attach point already clipped reads as a re-clip', () => {
+  it('names one attach point, not a new hook and an old one', () => {
+    expect(describeSwap('A1', 'A1')).toEqual({
+      title: 'Tether re-clip at A1',
+      instruction: 're-clip at A1: clip the second hook at A1 beside the first, then release the first',
+    });
+    expect(describeSwap('A2', 'A1').instruction).toBe(
+      'clip the new hook at A2, then release the old one at A1',
+    );
+  });
+
+  it('in a plan walkthrough, from the timeline’s swap block', () => {
+    const at: Vec3 = [0, 0, 0];
+    const timeline = {
+      routes: [],
+      endSeconds: 200,
+      crew: {
+        EV1: {
+          totalSeconds: 200,
+          blocks: [
+            { type: 'egress' as const, start: 0, end: 100, label: 'Egress' },
+            {
+              type: 'swap' as const,
+              start: 100,
+              end: 200,
+              label: 'Tether swap at AL',
+              swapNode: 'AL',
+              releaseNode: 'AL',
+              paidOutM: 6,
+            },
+          ],
+        },
+        EV2: { totalSeconds: 0, blocks: [] },
+      },
+    } as unknown as Parameters<typeof planWalkthrough>[0];
+    const swap = planWalkthrough(timeline, [], 'AL', () => at).crews.EV1.steps[1];
+    expect(swap.title).toBe('Tether re-clip at AL');
+    expect(swap.detail).toContain('Re-clip at AL');
+    expect(tetherLine(swap)).toBe('Tether: 6.0 m out from AL; re-clipped there, nothing out after');
   });
 });

@@ -159,6 +159,12 @@ export function planPlayback(
   const { doc } = getCompiledStation(ctx, plan.stationId);
   const walk = planWalkthrough(timeline, plan.tasks, timeline.airlockKey, positionFn(doc));
   const crews = walk.crews;
+  const itemNodes = timeline.equipment.flatMap((e) =>
+    e.states.flatMap((s) => (s.where.kind === 'at' || s.where.kind === 'installed' ? [s.where.node] : [])),
+  );
+  const placed = new Set(itemNodes);
+  const normals: Record<string, Vec3> = {};
+  for (const n of doc.nodes) if (n.normal && placed.has(n.key)) normals[n.key] = n.normal;
   const playback: PlanPlayback = {
     kind: 'plan',
     crews,
@@ -171,8 +177,10 @@ export function planPlayback(
     positions: positionsOf(
       doc,
       CREW.map((c) => crews[c]),
-      [timeline.airlockKey],
+      [timeline.airlockKey, ...placed],
     ),
+    equipment: timeline.equipment,
+    normals,
     warnings: timeline.warnings.map((w) => w.message),
   };
   return { playback, planVersion: plan.version };

@@ -32,3 +32,21 @@ export function tetherAfterBlocks(blocks: readonly TimelineBlock[], airlockKey: 
     return tether;
   });
 }
+
+/**
+ * A tether swap in the words a cue card uses. Make before break: the new hook is clipped, then the
+ * old one released. A swap whose new and old attach point are the same is a re-clip there (the
+ * crew member came back to the point they are clipped to, and starts counting the tether afresh).
+ */
+export function describeSwap(clip: string, release: string): { title: string; instruction: string } {
+  if (clip === release) {
+    return {
+      title: `Tether re-clip at ${clip}`,
+      instruction: `re-clip at ${clip}: clip the second hook at ${clip} beside the first, then release the first`,
+    };
+  }
+  return {
+    title: `Tether swap at ${clip}`,
+    instruction: `clip the new hook at ${clip}, then release the old one at ${release}`,
+  };
+}

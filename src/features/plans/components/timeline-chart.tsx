@@ -2,6 +2,7 @@ import { useId, useState } from 'react';
 import type { CrewMember, Task } from '@shared/schemas/plan';
 import type { TimelineBlock, TimelineBlockType } from '@shared/compute/day/types';
 import type { RouteFeasible } from '@shared/schemas/route';
+import { describeSwap } from '@shared/compute/day/describe';
 import { formatElapsed, formatLength } from '@shared/compute/units';
 import { palette } from '../../../../tailwind.config';
 import type { PlanTimeline } from '../types';
@@ -66,6 +67,8 @@ function blockLabel(crew: CrewMember, block: TimelineBlock, tasks: readonly Task
   return `${crew} ${BLOCK_NAMES[block.type]}: ${blockTitle(block, tasks)}, ${span}${extra}`;
 }
 
+const sentence = (s: string) => s[0].toUpperCase() + s.slice(1);
+
 /** The translate piece's own stretch of the route, in metres. */
 export function pieceLengthM(block: TimelineBlock, route: RouteFeasible | undefined): number {
   const legs = route?.legs.slice(block.legStart ?? 0, block.legEnd ?? route.legs.length) ?? [];
@@ -98,7 +101,7 @@ export function BlockDetails({
       </p>
       {block.type === 'swap' && block.swapNode && (
         <p>
-          Clip the new hook at {block.swapNode}, then release the old one at {block.releaseNode} (
+          {sentence(describeSwap(block.swapNode, block.releaseNode ?? block.swapNode).instruction)} (
           {formatLength(block.paidOutM ?? 0)} out).
         </p>
       )}

@@ -1,6 +1,6 @@
 import { useMemo } from 'react';
 import { formatElapsed } from '@shared/compute/units';
-import type { WalkStep } from '@shared/compute/walkthrough';
+import { tetherLine, type WalkStep } from '@shared/compute/walkthrough';
 import type { Vec3 } from '@shared/schemas/station';
 import type { WalkthroughNotes } from '@shared/schemas/walkthrough';
 import { PLANNING_CAUTION_TEXT } from '@/components/ui/planning-caution';
@@ -98,6 +98,24 @@ export function StepDiagram({
   );
 }
 
+/** What a step does with items, and the tether during it: the lines a crew member checks off. */
+export function StepFacts({ step, className }: { step: WalkStep; className?: string }) {
+  return (
+    <ul className={className} aria-label="Equipment and tether">
+      {step.equipment?.map((line) => (
+        <li key={line} className="font-medium">
+          <span aria-hidden="true">▸ </span>
+          {line}
+        </li>
+      ))}
+      <li data-tether-line="">
+        <span aria-hidden="true">⚓ </span>
+        {tetherLine(step)}
+      </li>
+    </ul>
+  );
+}
+
 /** One printable card per step: number, elapsed time, crew, title, detail, trainer note, diagram. */
 export function StepCards({
   title,
@@ -136,6 +154,7 @@ export function StepCards({
                 </p>
                 <h3 className="text-sm font-semibold">{stepCallout(s.step)}</h3>
                 <p className="mt-1 text-xs text-text">{s.step.detail}</p>
+                <StepFacts step={s.step} className="mt-1 text-xs" />
                 {note && (
                   <p className="mt-2 rounded border border-caution/40 bg-caution-soft px-2 py-1 text-xs">
                     <span className="font-semibold">Trainer note: </span>

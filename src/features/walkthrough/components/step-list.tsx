@@ -12,6 +12,7 @@ import { walkthroughKeys } from '../api/keys';
 import { useUpdateWalkthrough } from '../api/update-walkthrough';
 import { STEP_TYPE_LABELS, stepCallout, type Lane, type ListedStep } from '../lib/playback-model';
 import { LANE_STYLES } from './lane-styles';
+import { StepFacts } from './step-cards';
 
 /** The step each lane has under way, for the callout and the list's highlight. */
 export interface CurrentSteps {
@@ -44,6 +45,7 @@ export function StepCallout({ current }: { current: CurrentSteps }) {
             </p>
             <p className="mt-1 text-base font-semibold text-white">{stepCallout(step)}</p>
             <p className="mt-0.5 text-sm text-ink-300">{step.detail}</p>
+            <StepFacts step={step} className="mt-1 text-sm text-ink-100" />
           </div>
         );
       })}
@@ -187,6 +189,12 @@ export function StepList({
                 {isCurrent && <span className="ml-auto font-semibold text-accent-strong">now</span>}
               </span>
               <span className="mt-0.5 block text-sm font-medium text-text-strong">{stepCallout(s.step)}</span>
+              {s.step.equipment?.map((line) => (
+                <span key={line} className="block text-xs text-text">
+                  <span aria-hidden="true">▸ </span>
+                  {line}
+                </span>
+              ))}
             </button>
             {note && editing !== s.step.id && (
               <p className="mt-1 rounded bg-caution-soft px-2 py-1 text-sm text-text-strong">

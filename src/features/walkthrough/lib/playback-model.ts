@@ -1,3 +1,4 @@
+import { describeSwap } from '@shared/compute/day/describe';
 import { stepAt, type CrewTrack, type WalkStep } from '@shared/compute/walkthrough';
 import type { OrbitWindow } from '@shared/compute/orbit';
 import type { Vec3 } from '@shared/schemas/station';
@@ -76,8 +77,10 @@ export function previousEventTime(times: readonly number[], t: number): number |
 /** What a trainer reads out for a step. */
 export function stepCallout(step: WalkStep): string {
   switch (step.type) {
-    case 'swap':
-      return `Tether swap at ${step.clipKey}: clip the new hook at ${step.clipKey}, then release the old one at ${step.releaseKey}`;
+    case 'swap': {
+      const words = describeSwap(step.clipKey ?? step.nodeKey, step.releaseKey ?? step.anchorKey);
+      return `${words.title}: ${words.instruction}`;
+    }
     case 'restraint-in':
       return `Foot restraint in: set the restraint on socket ${step.socketKey} and get in`;
     case 'restraint-out':
