@@ -20,6 +20,7 @@ import { RoutePool } from './modules/compute/route-pool';
 import { TaskPool } from './modules/compute/task-pool';
 import { emitStationChanged } from './modules/stations/stations.service';
 import { storeMessage } from './modules/mailbox/mailbox.service';
+import { ensureVersionBaselines } from './modules/stations/stations.service';
 import { apiModules } from './modules';
 
 export interface CreateAppOptions {
@@ -55,6 +56,8 @@ export async function createApp(options: CreateAppOptions = {}): Promise<AppInst
   const config = loadConfig(process.env, options.config);
   const logger = createLogger(config.logLevel);
   const handle = openDatabase(config.databaseUrl);
+  // stations made before their versions were kept start their history at the version they have
+  ensureVersionBaselines(handle.db);
   const mailer = await createMailer({
     smtpUrl: config.smtpUrl,
     from: config.mailFrom,

@@ -174,6 +174,31 @@ export const stationAudit = sqliteTable(
   (t) => [index('station_audit_station_idx').on(t.stationId)],
 );
 
+/**
+ * Every kept version of a station model: what the write that made it changed (a StationChange, JSON;
+ * the first kept version's change starts from an empty station), and now and then the whole
+ * document, so a version is read back without replaying from the first. Rows are never updated.
+ */
+export const stationVersions = sqliteTable(
+  'station_versions',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    stationId: integer('station_id')
+      .notNull()
+      .references(() => stations.id, { onDelete: 'cascade' }),
+    version: integer('version').notNull(),
+    action: text('action').notNull(),
+    userId: integer('user_id').references(() => users.id, { onDelete: 'set null' }),
+    changeJson: text('change_json').notNull(),
+    /** the change in a few words per kind (`summarizeStationChange`), JSON */
+    summaryJson: text('summary_json').notNull().default('[]'),
+    /** the whole station document at this version, on some versions only */
+    snapshotJson: text('snapshot_json'),
+    createdAt: timestamps.createdAt,
+  },
+  (t) => [uniqueIndex('station_versions_station_version').on(t.stationId, t.version)],
+);
+
 // ── Annotations ─────────────────────────────────────────────────────────────────────────────────
 
 export const annotations = sqliteTable(
@@ -251,6 +276,9 @@ export const plans = sqliteTable(
     approverId: integer('approver_id').references(() => users.id, { onDelete: 'set null' }),
     approvedAt: text('approved_at'),
     submittedAt: text('submitted_at'),
+    /** the station version the plan was submitted against, and approved against */
+    submittedStationVersion: integer('submitted_station_version'),
+    approvedStationVersion: integer('approved_station_version'),
     /** route mode, arm-ride allowance, orbit phase, limits and blocks: the plan's settings, JSON */
     settingsJson: text('settings_json').notNull(),
     ...timestamps,
@@ -352,6 +380,56 @@ export const planAudit = sqliteTable(
     createdAt: timestamps.createdAt,
   },
   (t) => [index('plan_audit_plan_idx').on(t.planId)],
+);
+
+/**
+ * A station write that touched a plan in review or approved: listed on the plan, with the changes
+ * that touch its tasks, routes and sockets (JSON).
+ */
+export const planStationNotices = sqliteTable(
+  'plan_station_notices',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    planId: integer('plan_id')
+      .notNull()
+      .references(() => plans.id, { onDelete: 'cascade' }),
+    stationId: integer('station_id')
+      .notNull()
+      .references(() => stations.id, { onDelete: 'cascade' }),
+    /** the station version the write made */
+    stationVersion: integer('station_version').notNull(),
+    planStatus: text('plan_status', { enum: ['draft', 'in-review', 'approved'] }).notNull(),
+    userId: integer('user_id').references(() => users.id, { onDelete: 'set null' }),
+    summary: text('summary').notNull(),
+    touchesJson: text('touches_json').notNull(),
+    createdAt: timestamps.createdAt,
+  },
+  (t) => [index('plan_station_notices_plan_idx').on(t.planId)],
+);
+
+/** EVAs planned as a series: each starts with the items where the one before left them. */
+export const series = sqliteTable('series', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  title: text('title').notNull(),
+  version: integer('version').notNull().default(1),
+  authorId: integer('author_id').references(() => users.id, { onDelete: 'set null' }),
+  ...timestamps,
+});
+
+/** The EVAs of a series in order; a plan belongs to one series at most. */
+export const seriesPlans = sqliteTable(
+  'series_plans',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    seriesId: integer('series_id')
+      .notNull()
+      .references(() => series.id, { onDelete: 'cascade' }),
+    planId: integer('plan_id')
+      .notNull()
+      .references(() => plans.id, { onDelete: 'cascade' }),
+    ord: integer('ord').notNull(),
+  },
+  (t) => [uniqueIndex('series_plans_plan').on(t.planId), index('series_plans_series_idx').on(t.seriesId)],
 );
 
 // ── Training ────────────────────────────────────────────────────────────────────────────────────

@@ -36,6 +36,8 @@ export interface AppConfig {
   taskWorkerHeapMb: number;
   /** Express `trust proxy`: false, a hop count, or addresses/subnets of the proxies */
   trustProxy: boolean | number | string;
+  /** a station version keeps its whole document every this many versions (the rest keep changes only) */
+  stationSnapshotEvery: number;
   logLevel: string;
   /** folder of the built client; null → API only */
   clientDir: string | null;
@@ -120,6 +122,7 @@ export function loadConfig(
     taskQueueLimit: overrides.taskQueueLimit ?? intFromEnv(env.TASK_QUEUE_LIMIT, 16),
     taskWorkerHeapMb: overrides.taskWorkerHeapMb ?? intFromEnv(env.TASK_WORKER_HEAP_MB, 2048),
     trustProxy: overrides.trustProxy ?? trustProxyFromEnv(env.TRUST_PROXY),
+    stationSnapshotEvery: overrides.stationSnapshotEvery ?? 50,
     logLevel: overrides.logLevel ?? env.LOG_LEVEL ?? 'info',
     clientDir: overrides.clientDir !== undefined ? overrides.clientDir : path.resolve('dist'),
     mailFrom: overrides.mailFrom ?? env.MAIL_FROM ?? 'Tetherwise <no-reply@tetherwise.local>',

@@ -21,6 +21,7 @@ import {
   type StationSettings,
 } from './station';
 import { VersionSchema, VersionTextSchema } from './version';
+import type { StationChange } from '../compute/station-changes';
 
 /**
  * Bodies of the station model edits. Every edit carries the station `version` the editor loaded;
@@ -252,4 +253,30 @@ export interface StationAuditEntry {
   after: unknown;
   versionAfter: number;
   createdAt: string;
+}
+
+/** A row of `GET /api/stations/:id/versions`: one kept version and what its write changed, in short. */
+export interface StationVersionEntry {
+  version: number;
+  action: string;
+  user: { id: number; name: string } | null;
+  /** the change in a few words per kind ("2 nodes added", "settings changed") */
+  summary: string[];
+  createdAt: string;
+}
+
+/** `GET /api/stations/:id/versions/:version`: the version with its whole change. */
+export interface StationVersionDetail extends StationVersionEntry {
+  change: StationChange;
+}
+
+export interface StationVersionList {
+  stationId: number;
+  currentVersion: number;
+  /** the oldest version kept (a station made before versions were kept starts its history later) */
+  firstKeptVersion: number | null;
+  items: StationVersionEntry[];
+  total: number;
+  page: number;
+  pageSize: number;
 }

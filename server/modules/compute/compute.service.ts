@@ -26,6 +26,7 @@ import {
   type Vec3,
 } from '@shared/schemas/station';
 import {
+  changeSince,
   edgeToRow,
   findStationRow,
   loadDocument,
@@ -333,6 +334,7 @@ export function acceptSocketPlan(
       summary: `added ${keys.length} planned foot-restraint socket${keys.length === 1 ? '' : 's'} (${keys.join(', ')})`,
       result: { sockets: added.map((a) => ({ ...a.node, joinedTo: a.edge.from, hopM: a.hopM })) },
       revalidate: true,
+      change: changeSince(tx, stationId, doc),
     };
   });
 }

@@ -4,6 +4,7 @@ import { badRequest } from '../../lib/http-error';
 import { edgePairKey, parseStationDocument, type DocumentProblem } from '@shared/schemas/station';
 import { mergeCsvIntoDocument, parseEdgesCsv, parseNodesCsv } from '@shared/schemas/station-csv';
 import {
+  changeSince,
   edgeToRow,
   getStation,
   loadDocument,
@@ -82,6 +83,7 @@ export function importStationCsv(ctx: DbContext, req: WriteRequest, files: CsvFi
       after: counts,
       summary: `imported CSV (${merged.added.nodes} nodes added, ${merged.updated.nodes} updated; ${merged.added.edges} edges added, ${merged.updated.edges} updated)`,
       result: counts,
+      change: changeSince(tx, row.id, current),
     };
   });
   const station = getStation(ctx.db, req.stationId);

@@ -4,6 +4,7 @@ import type { AppContext } from '../../context';
 import { edges, hazards, nodes, segments, stations } from '../../db/schema';
 import { badRequest, conflict, notFound } from '../../lib/http-error';
 import { zodDetails } from '../../middleware/validate';
+import { edgeId as edgeIdOf, sameValue } from '@shared/compute/station-changes';
 import {
   EdgeSchema,
   HazardSchema,
@@ -126,6 +127,14 @@ function requireEdge(tx: Tx, stationId: number, edgeId: number) {
 
 const edgeName = (e: StationEdge) => `${e.from} ↔ ${e.to} (${e.kind})`;
 
+/** An item as the model now stores it (read back, so the kept change is exactly what was stored). */
+const storedNode = (tx: Tx, stationId: number, key: string) => nodeFromRow(requireNode(tx, stationId, key));
+const storedEdge = (tx: Tx, stationId: number, id: number) => edgeFromRow(requireEdge(tx, stationId, id));
+const storedHazard = (tx: Tx, stationId: number, key: string) =>
+  hazardFromRow(findHazard(tx, stationId, key)!);
+const storedSegment = (tx: Tx, stationId: number, key: string) =>
+  segmentFromRow(findSegment(tx, stationId, key)!);
+
 // ── Nodes ───────────────────────────────────────────────────────────────────────────────────────
 
 export function createNode(ctx: AppContext, stationId: number, input: CreateNodeInput, editor: Editor) {
@@ -146,6 +155,7 @@ export function createNode(ctx: AppContext, stationId: number, input: CreateNode
       summary: `added node ${node.key}`,
       result: { node },
       revalidate: true,
+      change: { nodes: { added: [storedNode(tx, stationId, node.key)] } },
     };
   });
 }
@@ -173,6 +183,7 @@ export function updateNode(
       summary: `changed node ${key}`,
       result: { node },
       revalidate: true,
+      change: { nodes: { changed: [storedNode(tx, stationId, key)] } },
     };
   });
 }
@@ -193,6 +204,10 @@ export function deleteNode(ctx: AppContext, stationId: number, key: string, vers
       after: undefined,
       summary: `deleted node ${key} and its ${removedEdges.length} edge${removedEdges.length === 1 ? '' : 's'}`,
       result: { removed: before },
+      change: {
+        nodes: { removed: [key] },
+        ...(removedEdges.length ? { edges: { removed: removedEdges.map(edgeIdOf) } } : {}),
+      },
     };
   });
 }
@@ -218,6 +233,7 @@ export function createEdge(ctx: AppContext, stationId: number, input: CreateEdge
       summary: `connected ${edgeName(edge)}`,
       result: { edge: graphEdge(id, edge) },
       revalidate: true,
+      change: { edges: { added: [storedEdge(tx, stationId, id)] } },
     };
   });
 }
@@ -225,15 +241,15 @@ export function createEdge(ctx: AppContext, stationId: number, input: CreateEdge
 export function updateEdge(
   ctx: AppContext,
   stationId: number,
-  edgeId: number,
+  id: number,
   input: UpdateEdgeInput,
   editor: Editor,
 ) {
   return writeStation(ctx, { stationId, expectedVersion: input.version, editor }, (tx) => {
-    const row = requireEdge(tx, stationId, edgeId);
+    const row = requireEdge(tx, stationId, id);
     const before = edgeFromRow(row);
     const edge = checked(EdgeSchema, mergeEdgeChanges(before, input.edge), 'body.edge');
-    checkEdgeEnds(tx, stationId, edge, edgeId);
+    checkEdgeEnds(tx, stationId, edge, id);
     tx.update(edges)
       .set(edgeToRow(stationId, edge, row.ord))
       .where(eq(edges.id, row.id))
@@ -250,29 +266,30 @@ export function updateEdge(
       before,
       after: edge,
       summary: `${what} edge ${edgeName(edge)}`,
-      result: { edge: graphEdge(edgeId, edge) },
+      result: { edge: graphEdge(id, edge) },
       revalidate: true,
+      change: {
+        edges:
+          edgeIdOf(before) === edgeIdOf(edge)
+            ? { changed: [storedEdge(tx, stationId, id)] }
+            : { replaced: [{ id: edgeIdOf(before), item: storedEdge(tx, stationId, id) }] },
+      },
     };
   });
 }
 
-export function deleteEdge(
-  ctx: AppContext,
-  stationId: number,
-  edgeId: number,
-  version: number,
-  editor: Editor,
-) {
+export function deleteEdge(ctx: AppContext, stationId: number, id: number, version: number, editor: Editor) {
   return writeStation(ctx, { stationId, expectedVersion: version, editor }, (tx) => {
-    const before = edgeFromRow(requireEdge(tx, stationId, edgeId));
-    tx.delete(edges).where(eq(edges.id, edgeId)).run();
+    const before = edgeFromRow(requireEdge(tx, stationId, id));
+    tx.delete(edges).where(eq(edges.id, id)).run();
     return {
       action: 'edge.delete',
       target: edgeName(before),
       before,
       after: undefined,
       summary: `disconnected ${edgeName(before)}`,
-      result: { removed: graphEdge(edgeId, before) },
+      result: { removed: graphEdge(id, before) },
+      change: { edges: { removed: [edgeIdOf(before)] } },
     };
   });
 }
@@ -305,6 +322,7 @@ export function createHazard(ctx: AppContext, stationId: number, input: CreateHa
       summary: `added ${hazard.kind} hazard ${hazard.key}`,
       result: { hazard },
       revalidate: true,
+      change: { hazards: { added: [storedHazard(tx, stationId, hazard.key)] } },
     };
   });
 }
@@ -333,6 +351,7 @@ export function updateHazard(
       summary: `changed hazard ${key}`,
       result: { hazard },
       revalidate: true,
+      change: { hazards: { changed: [storedHazard(tx, stationId, key)] } },
     };
   });
 }
@@ -356,6 +375,7 @@ export function deleteHazard(
       after: undefined,
       summary: `deleted hazard ${key}`,
       result: { removed: before },
+      change: { hazards: { removed: [key] } },
     };
   });
 }
@@ -386,6 +406,7 @@ export function createSegment(ctx: AppContext, stationId: number, input: CreateS
       summary: `added segment ${segment.key}`,
       result: { segment },
       revalidate: true,
+      change: { segments: { added: [storedSegment(tx, stationId, segment.key)] } },
     };
   });
 }
@@ -414,6 +435,7 @@ export function updateSegment(
       summary: `changed segment ${key}`,
       result: { segment },
       revalidate: true,
+      change: { segments: { changed: [storedSegment(tx, stationId, key)] } },
     };
   });
 }
@@ -437,6 +459,7 @@ export function deleteSegment(
       after: undefined,
       summary: `deleted segment ${key}`,
       result: { removed: before },
+      change: { segments: { removed: [key] } },
     };
   });
 }
@@ -470,6 +493,11 @@ export function updateStation(ctx: AppContext, stationId: number, input: UpdateS
       after: { name, orbit, settings },
       summary: 'changed the station settings',
       result: {},
+      change: {
+        ...(name !== row.name ? { name } : {}),
+        ...(sameValue(orbit, beforeOrbit) ? {} : { orbit }),
+        ...(sameValue(settings, beforeSettings) ? {} : { settings }),
+      },
     };
   });
   return { version: written.version, station: getStation(ctx.db, stationId) };

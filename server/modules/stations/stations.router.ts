@@ -24,7 +24,9 @@ import {
 import { VersionTextSchema } from '@shared/schemas/version';
 import type { UploadedFile } from './station-import.service';
 import * as edits from './station-edits.service';
+import { getStationVersion, listStationVersions, stationGraphAt } from './station-versions.service';
 import {
+  deleteStation,
   exportStationDocument,
   getStation,
   getStationGraphJson,
@@ -36,6 +38,9 @@ import {
 /** A station document of several hundred thousand nodes is well under this. */
 export const STATION_FILE_MAX_BYTES = 20 * MB;
 export const CSV_FILE_MAX_BYTES = 10 * MB;
+
+const GraphQuerySchema = z.object({ version: VersionTextSchema.optional() });
+const StationVersionParamsSchema = StationIdParamsSchema.extend({ version: VersionTextSchema });
 
 /** The `version` of a multipart form: a form field or `?version=` (a field wins). */
 const MultipartVersionSchema = z.object({ version: VersionTextSchema.optional() });
@@ -178,9 +183,36 @@ export function stationsRouter(ctx: AppContext) {
       method: 'get',
       path: '/:id/graph',
       access: 'read',
-      input: idParams,
-      handler: (_req, res, { params }) => {
-        res.type('application/json').send(getStationGraphJson(ctx.db, params.id).json);
+      input: { params: StationIdParamsSchema, query: GraphQuerySchema },
+      handler: (_req, res, { params, query }) => {
+        const live = getStationGraphJson(ctx.db, params.id);
+        if (query.version === undefined || query.version === live.version)
+          res.type('application/json').send(live.json);
+        else return stationGraphAt(ctx.db, params.id, query.version);
+      },
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/:id/versions',
+      access: 'read',
+      input: { params: StationIdParamsSchema, query: AuditQuerySchema },
+      handler: (_req, _res, { params, query }) =>
+        listStationVersions(ctx.db, params.id, query.page, query.pageSize),
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/:id/versions/:version',
+      access: 'read',
+      input: { params: StationVersionParamsSchema },
+      handler: (_req, _res, { params }) => getStationVersion(ctx.db, params.id, params.version),
+    }),
+    defineRoute({
+      method: 'delete',
+      path: '/:id',
+      access: 'stations:import',
+      input: { params: StationIdParamsSchema, query: VersionQuerySchema },
+      handler: (req, _res, { params, query }) => {
+        deleteStation(ctx, { stationId: params.id, expectedVersion: query.version, editor: editor(req) });
       },
     }),
     defineRoute({

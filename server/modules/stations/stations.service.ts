@@ -1,12 +1,31 @@
-import { and, asc, count, desc, eq, sql } from 'drizzle-orm';
+import { and, asc, count, desc, eq, isNotNull, sql } from 'drizzle-orm';
 import type { BaseSQLiteDatabase, SQLiteTable } from 'drizzle-orm/sqlite-core';
 import type { RunResult } from 'better-sqlite3';
 import type { AppContext } from '../../context';
 import type { Db } from '../../db/client';
 import * as schema from '../../db/schema';
-import { edges, hazards, nodes, segments, stationAudit, stations, users } from '../../db/schema';
-import { HttpError, badRequest, notFound, staleVersion } from '../../lib/http-error';
+import {
+  annotations,
+  attachments,
+  edges,
+  hazards,
+  nodes,
+  plans,
+  segments,
+  stationAudit,
+  stationVersions,
+  stations,
+  users,
+} from '../../db/schema';
+import { removeStoredUpload } from '../../lib/uploads';
+import { HttpError, badRequest, conflict, notFound, staleVersion } from '../../lib/http-error';
 import { recordActivity } from '../activity/activity.service';
+import {
+  diffStationDocuments,
+  emptyStationDocument,
+  summarizeStationChange,
+  type StationChange as ModelChange,
+} from '@shared/compute/station-changes';
 import {
   StationSettingsSchema,
   parseStationDocument,
@@ -34,8 +53,14 @@ export interface Editor {
   id: number;
   name: string;
 }
-/** What a station write needs of the app: its database (the app's own, or a task worker's connection). */
-export type DbContext = Pick<AppContext, 'db'>;
+/**
+ * What a station write needs of the app: its database (the app's own, or a task worker's
+ * connection), and how often a version keeps the whole document (default 50).
+ */
+export type DbContext = Pick<AppContext, 'db'> & {
+  config?: Partial<Pick<AppContext['config'], 'stationSnapshotEvery'>>;
+};
+const snapshotEvery = (ctx: DbContext) => ctx.config?.stationSnapshotEvery ?? 50;
 
 // ── Change notifications ────────────────────────────────────────────────────────────────────────
 
@@ -181,7 +206,7 @@ function countsOf(db: Tx, stationId: number): StationCounts {
   return { nodes: n(nodes), edges: n(edges), hazards: n(hazards), segments: n(segments) };
 }
 
-function userRef(db: Tx, id: number | null) {
+export function userRef(db: Tx, id: number | null) {
   if (id === null) return null;
   return db.select({ id: users.id, name: users.name }).from(users).where(eq(users.id, id)).get() ?? null;
 }
@@ -247,14 +272,20 @@ function loadRows(db: Tx, stationId: number) {
 }
 
 /** The station as a document (the export format); edges carry `lengthM` only where it was given. */
-export function loadDocument(db: Tx, row: StationRow): StationDocument {
-  const rows = loadRows(db, row.id);
+function loadDocumentHeader(row: StationRow) {
   return {
-    format: 'tetherwise.station',
-    version: 1,
+    format: 'tetherwise.station' as const,
+    version: 1 as const,
     name: row.name,
     orbit: { altitudeKm: row.altitudeKm, betaDeg: row.betaDeg },
     settings: StationSettingsSchema.parse(JSON.parse(row.settingsJson)),
+  };
+}
+
+export function loadDocument(db: Tx, row: StationRow): StationDocument {
+  const rows = loadRows(db, row.id);
+  return {
+    ...loadDocumentHeader(row),
     segments: rows.segments.map(segmentFromRow),
     nodes: rows.nodes.map(nodeFromRow),
     edges: rows.edges.map(edgeFromRow),
@@ -300,36 +331,148 @@ export function getStationGraph(db: Db, id: number): StationGraph {
   return db.transaction((tx) => {
     const row = findStationRow(tx, id);
     const rows = loadRows(tx, id);
-    const positions = new Map(rows.nodes.map((n) => [n.key, [n.x, n.y, n.z] as const]));
-    const graphEdges: GraphEdge[] = rows.edges.map((r) => {
-      const a = positions.get(r.fromKey);
-      const b = positions.get(r.toKey);
-      const derived = a && b ? Math.hypot(a[0] - b[0], a[1] - b[1], a[2] - b[2]) : 0;
-      return {
-        id: r.id,
-        from: r.fromKey,
-        to: r.toKey,
-        kind: r.kind,
-        lengthM: r.lengthM ?? derived,
-        lengthGiven: r.lengthM !== null,
-        closed: r.closed,
-        ...opt('label', r.label),
-      };
-    });
-    return {
-      station: toSummary(tx, row),
+    const doc: StationDocument = {
+      ...loadDocumentHeader(row),
       segments: rows.segments.map(segmentFromRow),
       nodes: rows.nodes.map(nodeFromRow),
-      edges: graphEdges,
+      edges: rows.edges.map(edgeFromRow),
       hazards: rows.hazards.map(hazardFromRow),
     };
+    return graphOf(
+      row,
+      doc,
+      userRef(tx, row.updatedBy),
+      rows.edges.map((r) => r.id),
+    );
   });
+}
+
+/**
+ * The graph view of a station document: edges with their lengths resolved (given, or from the node
+ * positions) and an id each (the row's, or the edge's place in the list when `edgeIds` is absent).
+ */
+export function graphOf(
+  row: StationRow,
+  doc: StationDocument,
+  updatedBy: { id: number; name: string } | null,
+  edgeIds?: readonly number[],
+): StationGraph {
+  const positions = new Map(doc.nodes.map((n) => [n.key, n.position]));
+  const graphEdges: GraphEdge[] = doc.edges.map((e, i) => {
+    const a = positions.get(e.from);
+    const b = positions.get(e.to);
+    const derived = a && b ? Math.hypot(a[0] - b[0], a[1] - b[1], a[2] - b[2]) : 0;
+    return {
+      id: edgeIds?.[i] ?? i + 1,
+      from: e.from,
+      to: e.to,
+      kind: e.kind,
+      lengthM: e.lengthM ?? derived,
+      lengthGiven: e.lengthM !== undefined,
+      closed: e.closed ?? false,
+      ...opt('label', e.label),
+    };
+  });
+  return {
+    station: {
+      id: row.id,
+      name: row.name,
+      version: row.version,
+      orbit: { altitudeKm: row.altitudeKm, betaDeg: row.betaDeg },
+      settings: StationSettingsSchema.parse(JSON.parse(row.settingsJson)),
+      counts: docCounts(doc),
+      createdAt: row.createdAt,
+      updatedAt: row.updatedAt,
+      updatedBy,
+    },
+    segments: doc.segments,
+    nodes: doc.nodes,
+    edges: graphEdges,
+    hazards: doc.hazards,
+  };
 }
 
 export function exportStationDocument(db: Db, id: number): { fileName: string; document: StationDocument } {
   const document = getStationDocument(db, id);
   const base = document.name.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-+|-+$/g, '') || 'station';
   return { fileName: `${base}.tetherwise.json`, document };
+}
+
+// ── Versions kept ──
+
+interface RecordVersion {
+  /**
+   * a whole document is kept with every this many versions, so reading a version back applies at
+   * most this many changes to the snapshot before it
+   */
+  snapshotEvery: number;
+  stationId: number;
+  version: number;
+  action: string;
+  userId: number | null;
+  change: ModelChange;
+  /** the document as the version leaves it (called only when a snapshot is due) */
+  document: () => StationDocument;
+}
+
+/** Stores a new version's change; never touches an existing row (a version is written once). */
+export function recordStationVersion(tx: Tx, v: RecordVersion) {
+  const lastSnapshot =
+    tx
+      .select({ version: stationVersions.version })
+      .from(stationVersions)
+      .where(and(eq(stationVersions.stationId, v.stationId), isNotNull(stationVersions.snapshotJson)))
+      .orderBy(desc(stationVersions.version))
+      .get()?.version ?? firstKeptVersion(tx, v.stationId);
+  const due = lastSnapshot !== null && v.version - lastSnapshot >= v.snapshotEvery;
+  tx.insert(stationVersions)
+    .values({
+      stationId: v.stationId,
+      version: v.version,
+      action: v.action,
+      userId: v.userId,
+      changeJson: JSON.stringify(v.change),
+      summaryJson: JSON.stringify(summarizeStationChange(v.change)),
+      snapshotJson: due ? JSON.stringify(v.document()) : null,
+    })
+    .run();
+}
+
+export function firstKeptVersion(tx: Tx, stationId: number): number | null {
+  return (
+    tx
+      .select({ version: stationVersions.version })
+      .from(stationVersions)
+      .where(eq(stationVersions.stationId, stationId))
+      .orderBy(asc(stationVersions.version))
+      .get()?.version ?? null
+  );
+}
+
+/**
+ * A station whose history is not kept yet (it was made before versions were kept) starts it at its
+ * current version: the whole model, as a change from an empty station.
+ */
+export function ensureVersionBaseline(tx: Tx, row: StationRow) {
+  if (firstKeptVersion(tx, row.id) !== null) return;
+  const change = diffStationDocuments(emptyStationDocument(), loadDocument(tx, row));
+  tx.insert(stationVersions)
+    .values({
+      stationId: row.id,
+      version: row.version,
+      action: 'station.baseline',
+      userId: row.updatedBy,
+      changeJson: JSON.stringify(change),
+      summaryJson: JSON.stringify(summarizeStationChange(change)),
+    })
+    .run();
+}
+
+/** At start: every station gets its history started (a no-op once it has one). */
+export function ensureVersionBaselines(db: Db) {
+  db.transaction((tx) => {
+    for (const row of tx.select().from(stations).all()) ensureVersionBaseline(tx, row);
+  });
 }
 
 // ── Writing ─────────────────────────────────────────────────────────────────────────────────────
@@ -343,6 +486,8 @@ export interface WriteOutcome<R> {
   result: R;
   /** re-check the stored model against the document rules before committing (edits) */
   revalidate?: boolean;
+  /** what the write changed in the model, kept as the new version */
+  change: ModelChange;
 }
 
 export interface WriteRequest {
@@ -382,6 +527,7 @@ export function writeStation<R>(
     const row = findStationRow(tx, req.stationId);
     if (req.expectedVersion !== undefined && req.expectedVersion !== row.version)
       throw staleStation(tx, row, req.expectedVersion);
+    ensureVersionBaseline(tx, row);
     const outcome = change(tx, row);
     if (outcome.revalidate) {
       const current = findStationRow(tx, req.stationId);
@@ -406,6 +552,15 @@ export function writeStation<R>(
         versionAfter: version,
       })
       .run();
+    recordStationVersion(tx, {
+      snapshotEvery: snapshotEvery(ctx),
+      stationId: row.id,
+      version,
+      action: outcome.action,
+      userId: req.editor.id,
+      change: outcome.change,
+      document: () => loadDocument(tx, findStationRow(tx, row.id)),
+    });
     return { outcome, version, name: findStationRow(tx, row.id).name };
   });
   recordActivity(ctx.db, {
@@ -416,6 +571,11 @@ export function writeStation<R>(
   });
   emitStationChanged({ stationId: req.stationId, version });
   return { version, ...outcome.result };
+}
+
+/** What a bulk write changed: the model now against the document it started from. */
+export function changeSince(tx: Tx, stationId: number, before: StationDocument): ModelChange {
+  return diffStationDocuments(before, loadDocument(tx, findStationRow(tx, stationId)));
 }
 
 /** One prepared insert run per row: building a statement per chunk of rows costs several times as much. */
@@ -519,6 +679,16 @@ export function importStation(
         versionAfter: 1,
       })
       .run();
+    const created = findStationRow(tx, row.id);
+    recordStationVersion(tx, {
+      snapshotEvery: snapshotEvery(ctx),
+      stationId: row.id,
+      version: 1,
+      action: 'station.import',
+      userId: editor?.id ?? null,
+      change: diffStationDocuments(emptyStationDocument(), loadDocument(tx, created)),
+      document: () => loadDocument(tx, created),
+    });
     return row.id;
   });
   recordActivity(ctx.db, {
@@ -543,6 +713,7 @@ export function replaceStationModel(
 ): ImportStationResult {
   writeStation(ctx, req, (tx, row) => {
     const before = { name: row.name, counts: countsOf(tx, row.id) };
+    const beforeDoc = loadDocument(tx, row);
     deleteModel(tx, row.id);
     tx.update(stations)
       .set({
@@ -561,10 +732,55 @@ export function replaceStationModel(
       after: { name: doc.name, counts: docCounts(doc) },
       summary: `replaced the model (${doc.nodes.length} nodes, ${doc.edges.length} edges)`,
       result: {},
+      change: changeSince(tx, row.id, beforeDoc),
     };
   });
   const station = getStation(ctx.db, req.stationId);
   return { station, counts: station.counts };
+}
+
+/**
+ * Deletes a station with its model, history, annotations and walkthroughs. A station that plans use
+ * is kept (409 naming them): a plan never loses the station it was checked against.
+ */
+export function deleteStation(ctx: AppContext, req: WriteRequest) {
+  const { name, files } = ctx.db.transaction((tx) => {
+    const row = findStationRow(tx, req.stationId);
+    if (req.expectedVersion !== undefined && req.expectedVersion !== row.version)
+      throw staleStation(tx, row, req.expectedVersion);
+    const using = tx
+      .select({ id: plans.id, title: plans.title, status: plans.status })
+      .from(plans)
+      .where(eq(plans.stationId, row.id))
+      .orderBy(asc(plans.id))
+      .all();
+    if (using.length) {
+      throw conflict(
+        `${row.name} cannot be deleted: ${using.length === 1 ? 'a plan uses it' : `${using.length} plans use it`} (${using
+          .slice(0, 5)
+          .map((p) => `"${p.title}"`)
+          .join(
+            ', ',
+          )}${using.length > 5 ? ', …' : ''}). Delete those plans or move them to another station first.`,
+        using.map((p) => ({ path: `plans.${p.id}`, message: `${p.title} (${p.status})` })),
+      );
+    }
+    const files = tx
+      .select({ storedName: attachments.storedName })
+      .from(attachments)
+      .innerJoin(annotations, eq(annotations.id, attachments.annotationId))
+      .where(eq(annotations.stationId, row.id))
+      .all()
+      .map((f) => f.storedName);
+    tx.delete(stations).where(eq(stations.id, row.id)).run();
+    return { name: row.name, files };
+  });
+  for (const f of files) removeStoredUpload(ctx.config.dataDir, f);
+  recordActivity(ctx.db, {
+    userId: req.editor.id,
+    kind: 'station.delete',
+    summary: `${req.editor.name} deleted the station ${name}`,
+  });
 }
 
 export function listStationAudit(db: Db, stationId: number, page: number, pageSize: number) {

@@ -1,0 +1,223 @@
+import type {
+  Hazard,
+  OrbitSettings,
+  Segment,
+  StationDocument,
+  StationEdge,
+  StationNode,
+  StationSettings,
+} from '../schemas/station';
+
+/**
+ * What one write changed in a station model, so that every version can be rebuilt from the first by
+ * applying the changes in order, and nothing is ever overwritten in place.
+ *
+ * Items are named by their identity: a node, hazard or segment by its key, an edge by its two ends
+ * (in either order) and its kind, which a station never repeats. Within a collection the order is
+ * kept: `removed` drops items, `changed` replaces items in place (same identity), `replaced`
+ * replaces the item of an identity in place with one of another identity (an edge given new ends),
+ * `added` appends. When the new order is not that, `all` gives the whole collection instead.
+ */
+export interface CollectionChange<T> {
+  removed?: string[];
+  changed?: T[];
+  replaced?: { id: string; item: T }[];
+  added?: T[];
+  all?: T[];
+}
+
+export interface StationChange {
+  name?: string;
+  orbit?: OrbitSettings;
+  settings?: StationSettings;
+  segments?: CollectionChange<Segment>;
+  nodes?: CollectionChange<StationNode>;
+  edges?: CollectionChange<StationEdge>;
+  hazards?: CollectionChange<Hazard>;
+}
+
+export const COLLECTIONS = ['segments', 'nodes', 'edges', 'hazards'] as const;
+export type Collection = (typeof COLLECTIONS)[number];
+
+/** An edge's identity: its two ends in key order and its kind (`A|B|handrail`). */
+export function edgeId(e: Pick<StationEdge, 'from' | 'to' | 'kind'>): string {
+  const [a, b] = e.from < e.to ? [e.from, e.to] : [e.to, e.from];
+  return `${a}|${b}|${e.kind}`;
+}
+
+const keyOf = (item: { key: string }) => item.key;
+
+export const IDENTITY: { [C in Collection]: (item: StationDocument[C][number]) => string } = {
+  segments: keyOf,
+  nodes: keyOf,
+  edges: (e) => edgeId(e as StationEdge),
+  hazards: keyOf,
+};
+
+/** The document before the first version: a station with nothing in it. */
+export function emptyStationDocument(): StationDocument {
+  return {
+    format: 'tetherwise.station',
+    version: 1,
+    name: '',
+    orbit: { altitudeKm: 0, betaDeg: 0 },
+    settings: {} as StationSettings,
+    segments: [],
+    nodes: [],
+    edges: [],
+    hazards: [],
+  };
+}
+
+/** Deep equality of JSON-like values; a property that is undefined counts as absent. */
+export function sameValue(a: unknown, b: unknown): boolean {
+  if (a === b) return true;
+  if (typeof a !== 'object' || typeof b !== 'object' || a === null || b === null) return false;
+  if (Array.isArray(a) !== Array.isArray(b)) return false;
+  if (Array.isArray(a)) {
+    const bb = b as unknown[];
+    return a.length === bb.length && a.every((v, i) => sameValue(v, bb[i]));
+  }
+  const ao = a as Record<string, unknown>;
+  const bo = b as Record<string, unknown>;
+  const keys = new Set([...Object.keys(ao), ...Object.keys(bo)]);
+  for (const k of keys) if (!sameValue(ao[k], bo[k])) return false;
+  return true;
+}
+
+/** A change that changes nothing. */
+export function isEmptyChange(change: StationChange): boolean {
+  return Object.values(change).every((v) => v === undefined);
+}
+
+function applyCollection<T>(items: readonly T[], change: CollectionChange<T>, id: (item: T) => string): T[] {
+  if (change.all) return change.all.map((x) => structuredClone(x));
+  const byId = new Map<string, T>();
+  for (const item of change.changed ?? []) byId.set(id(item), item);
+  for (const r of change.replaced ?? []) byId.set(r.id, r.item);
+  const removed = new Set(change.removed ?? []);
+  const out: T[] = [];
+  const seen = new Set<string>();
+  for (const item of items) {
+    const k = id(item);
+    if (removed.has(k)) continue;
+    const next = byId.get(k);
+    if (next !== undefined) seen.add(k);
+    out.push(structuredClone(next ?? item));
+  }
+  for (const k of byId.keys()) {
+    if (!seen.has(k)) throw new Error(`the change names an item "${k}" the station does not have`);
+  }
+  for (const item of change.added ?? []) out.push(structuredClone(item));
+  return out;
+}
+
+/** The document after a change: a new object, the input untouched. */
+export function applyStationChange(doc: StationDocument, change: StationChange): StationDocument {
+  const next: StationDocument = {
+    ...doc,
+    name: change.name ?? doc.name,
+    orbit: structuredClone(change.orbit ?? doc.orbit),
+    settings: structuredClone(change.settings ?? doc.settings),
+  };
+  for (const c of COLLECTIONS) {
+    const part = change[c];
+    const id = IDENTITY[c] as (item: unknown) => string;
+    (next as unknown as Record<Collection, unknown[]>)[c] = part
+      ? applyCollection(doc[c] as unknown[], part as CollectionChange<unknown>, id)
+      : (doc[c] as unknown[]).map((x) => structuredClone(x));
+  }
+  return next;
+}
+
+/** Applies the changes of every version in order to the empty document. */
+export function replayStationChanges(
+  changes: readonly StationChange[],
+  from: StationDocument = emptyStationDocument(),
+): StationDocument {
+  return changes.reduce(applyStationChange, from);
+}
+
+function diffCollection<T>(
+  a: readonly T[],
+  b: readonly T[],
+  id: (item: T) => string,
+): CollectionChange<T> | undefined {
+  const aIds = a.map(id);
+  const bIds = b.map(id);
+  const whole = (): CollectionChange<T> | undefined =>
+    a.length === b.length && a.every((x, i) => sameValue(x, b[i])) ? undefined : { all: [...b] };
+  // a repeated identity cannot be named: say the whole collection
+  if (new Set(aIds).size !== aIds.length || new Set(bIds).size !== bIds.length) return whole();
+  const inA = new Map(a.map((x, i) => [aIds[i], x]));
+  const inB = new Set(bIds);
+  const removed = aIds.filter((k) => !inB.has(k));
+  const changed: T[] = [];
+  const added: T[] = [];
+  b.forEach((x, i) => {
+    const before = inA.get(bIds[i]);
+    if (before === undefined) added.push(x);
+    else if (!sameValue(before, x)) changed.push(x);
+  });
+  // the order a change of this shape gives: the kept items in their old order, then the added ones
+  const natural = [...aIds.filter((k) => inB.has(k)), ...added.map(id)];
+  if (natural.some((k, i) => k !== bIds[i])) return whole();
+  const out: CollectionChange<T> = {
+    ...(removed.length ? { removed } : {}),
+    ...(changed.length ? { changed } : {}),
+    ...(added.length ? { added } : {}),
+  };
+  return Object.keys(out).length ? out : undefined;
+}
+
+/** The change that turns `a` into `b`: `applyStationChange(a, diffStationDocuments(a, b))` equals `b`. */
+export function diffStationDocuments(a: StationDocument, b: StationDocument): StationChange {
+  const change: StationChange = {};
+  if (a.name !== b.name) change.name = b.name;
+  if (!sameValue(a.orbit, b.orbit)) change.orbit = b.orbit;
+  if (!sameValue(a.settings, b.settings)) change.settings = b.settings;
+  for (const c of COLLECTIONS) {
+    const id = IDENTITY[c] as (item: unknown) => string;
+    const part = diffCollection(a[c] as unknown[], b[c] as unknown[], id);
+    if (part) (change as Record<Collection, unknown>)[c] = part;
+  }
+  return change;
+}
+
+/** How many items a change names: a measure of its size. */
+export function changeSize(change: StationChange): number {
+  let n = 0;
+  for (const c of COLLECTIONS) {
+    const p = change[c] as CollectionChange<unknown> | undefined;
+    if (!p) continue;
+    n += p.all?.length ?? 0;
+    n += (p.removed?.length ?? 0) + (p.changed?.length ?? 0) + (p.replaced?.length ?? 0);
+    n += p.added?.length ?? 0;
+  }
+  return n;
+}
+
+/** One line per kind of change, for lists: "2 nodes added, 1 edge changed, settings changed". */
+export function summarizeStationChange(change: StationChange): string[] {
+  const out: string[] = [];
+  if (change.name !== undefined) out.push(`renamed to ${change.name}`);
+  if (change.orbit) out.push('orbit changed');
+  if (change.settings) out.push('settings changed');
+  const nouns: Record<Collection, [string, string]> = {
+    segments: ['segment', 'segments'],
+    nodes: ['node', 'nodes'],
+    edges: ['edge', 'edges'],
+    hazards: ['hazard', 'hazards'],
+  };
+  for (const c of COLLECTIONS) {
+    const p = change[c] as CollectionChange<unknown> | undefined;
+    if (!p) continue;
+    const [one, many] = nouns[c];
+    const say = (n: number, what: string) => n && out.push(`${n} ${n === 1 ? one : many} ${what}`);
+    if (p.all) say(p.all.length, 'given as a new list');
+    say(p.added?.length ?? 0, 'added');
+    say((p.changed?.length ?? 0) + (p.replaced?.length ?? 0), 'changed');
+    say(p.removed?.length ?? 0, 'removed');
+  }
+  return out;
+}
