@@ -1,5 +1,5 @@
 import type { CrewMember } from '../../schemas/plan';
-import type { DayItem, EquipmentTrack, ItemState, ItemWhere } from './types';
+import type { DayItem, DayStart, EquipmentTrack, ItemState, ItemWhere } from './types';
 
 /** The manifest value of `startsAt` that means the airlock. */
 const AIRLOCK = 'airlock';
@@ -16,10 +16,15 @@ export function placeWhere(node: string, airlockKey: string): ItemWhere {
   return node === AIRLOCK || node === airlockKey ? { kind: 'airlock' } : { kind: 'at', node };
 }
 
-/** Where an item is when the EVA clock starts. */
-export function initialWhere(item: DayItem, airlockKey: string): ItemWhere {
-  if (item.installedAt !== undefined) return { kind: 'installed', node: item.installedAt };
-  const start = placeWhere(item.startsAt ?? AIRLOCK, airlockKey);
+/**
+ * Where an item is when the EVA clock starts: where the day's start state puts it (an earlier EVA
+ * of a series left it there), else where the manifest says. An item in the airlock with a crew
+ * member to carry it out is in their hands at egress.
+ */
+export function initialWhere(item: DayItem, airlockKey: string, carried?: ItemWhere): ItemWhere {
+  if (carried === undefined && item.installedAt !== undefined)
+    return { kind: 'installed', node: item.installedAt };
+  const start = carried ?? placeWhere(item.startsAt ?? AIRLOCK, airlockKey);
   if (start.kind === 'airlock' && item.carriedBy) return { kind: 'carried', crew: item.carriedBy };
   return start;
 }
@@ -52,9 +57,9 @@ interface Entry {
 export class ItemLedger {
   private readonly entries = new Map<string, Entry>();
 
-  constructor(items: readonly DayItem[], airlockKey: string) {
+  constructor(items: readonly DayItem[], airlockKey: string, startWhere: DayStart['items'] = {}) {
     for (const item of items) {
-      const where = initialWhere(item, airlockKey);
+      const where = initialWhere(item, airlockKey, startWhere[item.key]);
       this.entries.set(item.key, { item, where, states: [{ start: 0, end: 0, where }] });
     }
   }

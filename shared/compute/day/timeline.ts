@@ -17,6 +17,7 @@ import type {
   CrewTimeline,
   DayPlan,
   DayRouteFn,
+  DayStart,
   DayStation,
   DayTask,
   TaskReach,
@@ -84,7 +85,8 @@ interface Pending {
  *
  * At every moment each crew member has a place, a tether state (the attach point clipped to and the
  * metres out since it), maybe a foot restraint they stand in, and the items in their hands; every
- * manifest item is in exactly one place. Both leave the airlock clipped there with nothing out, then
+ * manifest item is in exactly one place, starting where `start` puts it (an earlier EVA of a series
+ * left it there) or else where the manifest says. Both leave the airlock clipped there with nothing out, then
  * take their tasks in plan order: translate (a route from their tether state on arrival at the last
  * worksite, in the plan's mode, with the portable anchors installed at that moment as attach points,
  * slowed by the carry factor while holding a large item), get into their foot restraint, work (a task
@@ -99,12 +101,17 @@ interface Pending {
  * Problems never stop the day: an unreachable worksite keeps the work block (marked `unreached`),
  * a failed precondition skips that action's effect, and each is a warning.
  */
-export function computeTimeline(plan: DayPlan, station: DayStation, route: DayRouteFn): Timeline {
+export function computeTimeline(
+  plan: DayPlan,
+  station: DayStation,
+  route: DayRouteFn,
+  start: DayStart = {},
+): Timeline {
   const warnings: TimelineWarning[] = [];
   const routes: RouteFeasible[] = [];
   const reach: TaskReach[] = [];
   const { airlockKey } = station;
-  const ledger = new ItemLedger(plan.manifest, airlockKey);
+  const ledger = new ItemLedger(plan.manifest, airlockKey, start.items);
   const restraintSeconds = station.settings.restraintSeconds;
   const isAttach = (key: string) => ATTACH_KINDS.has(station.node(key)?.kind ?? '');
   const known = (key: string) => key === 'airlock' || station.node(key) !== undefined;

@@ -105,6 +105,16 @@ export type DayPlan = Pick<
   manifest: readonly DayItem[];
 };
 
+/**
+ * The state the day starts from, when it is not the manifest's own: an EVA of a series starts with
+ * each item where the EVA before left it (by item key). An item not named here starts where the
+ * manifest says. A place outside (`at`, `installed`) puts the item there at egress; `airlock` means
+ * it is inside (carried out at egress by the item's `carriedBy`); `carried` is not a start place.
+ */
+export interface DayStart {
+  items?: Readonly<Record<string, ItemWhere>>;
+}
+
 export type TimelineBlockType =
   'egress' | 'translate' | 'swap' | 'restraint-in' | 'work' | 'restraint-out' | 'wait' | 'ingress';
 
