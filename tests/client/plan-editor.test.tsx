@@ -173,7 +173,7 @@ describe('task list reordering', () => {
         }}
         readOnly={false}
         nodes={{ worksites: [], sockets: [] }}
-        toolNames={[]}
+        manifest={[]}
         reach={[]}
         warningCounts={new Map([[0, 1]])}
       />,

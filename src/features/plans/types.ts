@@ -11,10 +11,13 @@ export interface StationChoice {
 export interface StationNodeOption {
   key: string;
   label?: string;
+  kind?: string;
   position: [number, number, number];
 }
 
 export interface PlanStationNodes {
   worksites: StationNodeOption[];
   sockets: StationNodeOption[];
+  /** every node, for the places an item action may name */
+  all?: StationNodeOption[];
 }

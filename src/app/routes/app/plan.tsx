@@ -27,6 +27,7 @@ export default function PlanRoute() {
   const nodes: PlanStationNodes | undefined = graph.data && {
     worksites: graph.data.nodes.filter((n) => n.kind === 'worksite'),
     sockets: graph.data.nodes.filter((n) => n.kind === 'socket'),
+    all: graph.data.nodes,
   };
   return (
     <PlanEditor

@@ -1,10 +1,12 @@
 import { useId, useState } from 'react';
+import { useWatch } from 'react-hook-form';
 import { z } from 'zod';
 import {
   AIRLOCK_LOCATION,
   CrewMemberSchema,
   ManifestItemSchema,
   ManifestKindSchema,
+  planReferenceProblems,
   type ManifestItem,
   type ManifestKind,
 } from '@shared/schemas/plan';
@@ -17,13 +19,14 @@ import { Input } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import { Table, Td, Th } from '@/components/ui/table';
 import { numberText } from '../lib/form-fields';
+import { uniqueItemKey } from '../lib/task-form-schema';
 
 export const itemRowId = (index: number) => `plan-item-${index + 1}`;
 
 const blankToUndefined = <T extends z.ZodType>(schema: T) =>
   z.union([z.literal('').transform(() => undefined), schema]);
 
-const ItemFormSchema = z.object({
+const ItemFieldsSchema = z.object({
   name: ManifestItemSchema.shape.name,
   kind: ManifestKindSchema,
   quantity: numberText(ManifestItemSchema.shape.quantity.unwrap()),
@@ -32,6 +35,21 @@ const ItemFormSchema = z.object({
   installedAt: blankToUndefined(ManifestItemSchema.shape.installedAt.unwrap()),
   leaveOutside: z.boolean(),
 });
+
+/**
+ * The item's fields, then the manifest's own rules (`planReferenceProblems`, as the server checks
+ * them) for this item among the others, on the field each concerns.
+ */
+function itemFormSchema(others: readonly ManifestItem[], key: string | undefined) {
+  return ItemFieldsSchema.superRefine((v, ctx) => {
+    const item = { ...v, key: key ?? uniqueItemKey(v.name, others), leaveOutside: v.leaveOutside };
+    for (const p of planReferenceProblems([], [...others, item])) {
+      if (p.path[0] === 'manifest' && p.path[1] === others.length) {
+        ctx.addIssue({ code: 'custom', path: p.path.slice(2), message: p.message });
+      }
+    }
+  });
+}
 
 export const KIND_NAMES: Record<ManifestKind, string> = {
   tool: 'Tool',
@@ -45,15 +63,18 @@ export const KIND_NAMES: Record<ManifestKind, string> = {
 
 interface ItemFormProps {
   item?: ManifestItem;
+  /** the rest of the manifest: keys are unique among them */
+  others: readonly ManifestItem[];
   /** node keys offered as places an item starts or ends at */
   places: string[];
   onSubmit: (item: ManifestItem) => void;
   onCancel: () => void;
 }
 
-function ItemForm({ item, places, onSubmit, onCancel }: ItemFormProps) {
+function ItemForm({ item, others, places, onSubmit, onCancel }: ItemFormProps) {
   const listId = useId();
-  const form = useZodForm(ItemFormSchema, {
+  const [schema] = useState(() => itemFormSchema(others, item?.key));
+  const form = useZodForm(schema, {
     defaultValues: {
       name: item?.name ?? '',
       kind: item?.kind ?? 'tool',
@@ -66,15 +87,19 @@ function ItemForm({ item, places, onSubmit, onCancel }: ItemFormProps) {
   });
   const {
     register,
+    control,
     formState: { errors },
   } = form;
+  const name = useWatch({ control, name: 'name' });
+  // a new item is keyed from its name now, so task actions can name it before the plan is saved
+  const key = item?.key ?? (name.trim() ? uniqueItemKey(name, others) : undefined);
   return (
     <Form
       form={form}
       onSubmit={(v) =>
         onSubmit({
           ...(item?.id === undefined ? {} : { id: item.id }),
-          ...(item?.key === undefined ? {} : { key: item.key }),
+          key: item?.key ?? uniqueItemKey(v.name, others),
           ...(item?.notes ? { notes: item.notes } : {}),
           name: v.name,
           kind: v.kind,
@@ -91,7 +116,18 @@ function ItemForm({ item, places, onSubmit, onCancel }: ItemFormProps) {
           <option key={p} value={p} />
         ))}
       </datalist>
-      <Field label="Name" error={errors.name?.message}>
+      <Field
+        label="Name"
+        error={errors.name?.message}
+        hint={
+          key ? (
+            <>
+              Key <span className="font-mono">{key}</span>
+              {item?.key ? '' : ' (from the name)'}: tasks name the item by it
+            </>
+          ) : undefined
+        }
+      >
         <Input autoComplete="off" {...register('name')} />
       </Field>
       <div className="grid gap-4 sm:grid-cols-3">
@@ -104,7 +140,7 @@ function ItemForm({ item, places, onSubmit, onCancel }: ItemFormProps) {
         <Field label="Quantity" error={errors.quantity?.message}>
           <Input inputMode="numeric" {...register('quantity')} />
         </Field>
-        <Field label="Carried by" error={errors.carriedBy?.message}>
+        <Field label="Carried out by" error={errors.carriedBy?.message}>
           <Select
             options={[
               { value: 'EV1', label: 'EV1' },
@@ -217,6 +253,7 @@ export function ManifestEditor({ manifest, onChange, readOnly, places }: Manifes
       >
         <ItemForm
           item={typeof editing === 'number' ? manifest[editing] : undefined}
+          others={manifest.filter((_, i) => i !== editing)}
           places={places}
           onSubmit={save}
           onCancel={() => setEditing(null)}

@@ -67,7 +67,6 @@ export function PlanEditor({ plan, user, nodes, rehearseHref, extra }: PlanEdito
   const { draft, change, save, reload, conflict, state, error, savedVersion } = usePlanDraft(plan, editable);
   const timeline = usePlanTimeline(plan.id);
   const tl = timeline.data;
-  const toolNames = [...new Set(draft.manifest.map((m) => m.name))];
   const places = nodes?.worksites.map((n) => n.key) ?? [];
   const unsaved = state !== 'saved';
 
@@ -145,10 +144,12 @@ export function PlanEditor({ plan, user, nodes, rehearseHref, extra }: PlanEdito
             {nodes ? (
               <TasksEditor
                 tasks={draft.tasks}
-                onChange={(tasks) => change({ tasks })}
+                onChange={(tasks, added) =>
+                  change(added?.length ? { tasks, manifest: [...draft.manifest, ...added] } : { tasks })
+                }
                 readOnly={readOnly}
                 nodes={nodes}
-                toolNames={toolNames}
+                manifest={draft.manifest}
                 reach={tl && tl.planVersion === savedVersion ? tl.reach : []}
                 warningCounts={warningCountsByTask(tl && tl.planVersion === savedVersion ? tl : undefined)}
               />

@@ -1,63 +1,51 @@
 import { useMemo, useState } from 'react';
 import { Controller, useWatch } from 'react-hook-form';
-import { z } from 'zod';
-import { TaskCrewSchema, TaskSchema, type Task } from '@shared/schemas/plan';
-import { focusRing } from '@/components/ui/button';
+import type { ManifestItem, Task } from '@shared/schemas/plan';
 import { controlClass, Input } from '@/components/ui/input';
 import { Field } from '@/components/ui/field';
 import { Form, FormActions, useZodForm } from '@/components/ui/form';
 import { Select } from '@/components/ui/select';
 import { cn } from '@/lib/cn';
-import { durationField } from '../lib/form-fields';
-import { durationText } from '../lib/plan-draft';
+import { taskFormDefaults, taskFormSchema } from '../lib/task-form-schema';
 import type { PlanStationNodes, StationNodeOption } from '../types';
-
-const TaskFormSchema = z.object({
-  title: TaskSchema.shape.title,
-  worksite: TaskSchema.shape.worksite,
-  crew: TaskCrewSchema,
-  duration: durationField(TaskSchema.shape.durationSeconds),
-  eclipseOnly: z.boolean(),
-  carrying: z.boolean(),
-  socket: z.union([z.literal('').transform(() => undefined), TaskSchema.shape.socket.unwrap()]),
-  tools: TaskSchema.shape.tools.unwrap(),
-  notes: z.string().max(4000),
-});
+import { ItemActionsField, type PlaceOption } from './item-actions-field';
+import { ToolChips } from './tool-chips';
 
 const nodeLabel = (n: StationNodeOption) => (n.label ? `${n.key} — ${n.label}` : n.key);
 const distance = (a: StationNodeOption['position'], b: StationNodeOption['position']) =>
   Math.hypot(a[0] - b[0], a[1] - b[1], a[2] - b[2]);
+/** Places offered for an item action: the nodes this close to the worksite. */
+const PLACE_RADIUS_M = 15;
+const MAX_PLACES = 40;
 
 interface TaskFormProps {
   task?: Task;
   nodes: PlanStationNodes;
-  toolNames: string[];
-  onSubmit: (task: Task) => void;
+  /** the plan's manifest: items to act on and to need at hand */
+  manifest: readonly ManifestItem[];
+  /** the task, and the items named in it that go on the manifest */
+  onSubmit: (task: Task, added: ManifestItem[]) => void;
   onCancel: () => void;
 }
 
-/** Add or edit one task; the worksite comes from a searchable list of the station's worksites. */
-export function TaskForm({ task, nodes, toolNames, onSubmit, onCancel }: TaskFormProps) {
+/**
+ * Add or edit one task: where (a searchable list of the station's worksites), who, how long, each
+ * member's foot restraint, what it needs at hand and what it does with the manifest's items.
+ */
+export function TaskForm({ task, nodes, manifest, onSubmit, onCancel }: TaskFormProps) {
   const [search, setSearch] = useState('');
-  const form = useZodForm(TaskFormSchema, {
-    defaultValues: {
-      title: task?.title ?? '',
-      worksite: task?.worksite ?? '',
-      crew: task?.crew ?? 'both',
-      duration: task ? durationText(task.durationSeconds) : '0:30',
-      eclipseOnly: task?.eclipseOnly ?? false,
-      carrying: task?.carrying ?? false,
-      socket: task?.socket ?? '',
-      tools: task?.tools ?? [],
-      notes: task?.notes ?? '',
-    },
-  });
+  const [added, setAdded] = useState<ManifestItem[]>([]);
+  const known = useMemo(() => [...manifest, ...added], [manifest, added]);
+  // the form reads its resolver on every render, so items added meanwhile count when it is checked
+  const schema = useMemo(() => taskFormSchema(known), [known]);
+  const form = useZodForm(schema, { defaultValues: taskFormDefaults(task, manifest) });
   const {
     register,
     control,
     formState: { errors },
   } = form;
   const worksite = useWatch({ control, name: 'worksite' });
+  const crew = useWatch({ control, name: 'crew' });
   const needle = search.trim().toLowerCase();
   const worksites = nodes.worksites.filter(
     (n) =>
@@ -75,28 +63,35 @@ export function TaskForm({ task, nodes, toolNames, onSubmit, onCancel }: TaskFor
         .sort((a, b) => a.d - b.d || a.s.key.localeCompare(b.s.key)),
     [nodes.sockets, site],
   );
-  const chips = [...new Set([...toolNames, ...(task?.tools ?? [])])];
+  const socketOptions = (none: string) => [
+    { value: '', label: none },
+    ...sockets.map(({ s, d }) => ({
+      value: s.key,
+      label: site ? `${nodeLabel(s)} (${d.toFixed(1)} m away)` : nodeLabel(s),
+    })),
+  ];
+  const places: PlaceOption[] = useMemo(() => {
+    if (!site) return [];
+    return (nodes.all ?? [...nodes.worksites, ...nodes.sockets])
+      .map((n) => ({ n, d: distance(n.position, site.position) }))
+      .filter((x) => x.d <= PLACE_RADIUS_M)
+      .sort((a, b) => a.d - b.d)
+      .slice(0, MAX_PLACES)
+      .map(({ n, d }) => ({ key: n.key, note: `${n.kind ?? 'node'}, ${d.toFixed(1)} m away` }));
+  }, [nodes, site]);
+  const socketHint = site ? 'Nearest to the worksite first' : undefined;
 
   return (
     <Form
       form={form}
-      onSubmit={(v) =>
-        onSubmit({
-          ...(task?.id === undefined ? {} : { id: task.id }),
-          // what the form does not edit is kept as it was
-          actions: task?.actions ?? [],
-          ...(task?.sockets && v.crew === 'both' ? { sockets: task.sockets } : {}),
-          title: v.title,
-          worksite: v.worksite,
-          crew: v.crew,
-          durationSeconds: v.duration,
-          eclipseOnly: v.eclipseOnly,
-          carrying: v.carrying,
-          ...(v.socket ? { socket: v.socket } : {}),
-          tools: v.tools,
-          ...(v.notes.trim() ? { notes: v.notes } : {}),
-        })
-      }
+      onSubmit={(v) => {
+        // an item added here and then not needed stays off the manifest
+        const used = new Set([...v.tools, ...v.actions.map((a) => a.item)]);
+        onSubmit(
+          { ...(task?.id === undefined ? {} : { id: task.id }), ...v },
+          added.filter((m) => used.has(m.key!)),
+        );
+      }}
     >
       <Field label="Task title" error={errors.title?.message}>
         <Input autoComplete="off" {...register('title')} />
@@ -152,64 +147,38 @@ export function TaskForm({ task, nodes, toolNames, onSubmit, onCancel }: TaskFor
           Carrying a large item on the way
         </label>
       </div>
-      <Field
-        label="Foot-restraint socket"
-        error={errors.socket?.message}
-        hint={site ? 'Nearest to the worksite first' : undefined}
-      >
-        <Select
-          options={[
-            { value: '', label: 'No foot restraint' },
-            ...sockets.map(({ s, d }) => ({
-              value: s.key,
-              label: site ? `${nodeLabel(s)} (${d.toFixed(1)} m away)` : nodeLabel(s),
-            })),
-          ]}
-          {...register('socket')}
-        />
-      </Field>
-      <fieldset>
-        <legend className="mb-1.5 text-sm font-medium text-text-strong">Tools</legend>
-        {chips.length === 0 ? (
-          <p className="text-sm text-text-muted">The manifest is empty: add tools there to pick them here.</p>
-        ) : (
-          <Controller
-            control={control}
-            name="tools"
-            render={({ field }) => (
-              <div className="flex flex-wrap gap-2">
-                {chips.map((name) => {
-                  const on = field.value?.includes(name) ?? false;
-                  const missing = !toolNames.includes(name);
-                  return (
-                    <button
-                      key={name}
-                      type="button"
-                      aria-pressed={on}
-                      onClick={() =>
-                        field.onChange(
-                          on ? field.value!.filter((t) => t !== name) : [...(field.value ?? []), name],
-                        )
-                      }
-                      className={cn(
-                        'rounded-full border px-3 py-1 text-sm',
-                        focusRing,
-                        on
-                          ? 'border-accent bg-accent-soft font-medium text-accent-strong'
-                          : 'border-surface-line bg-surface-panel text-text',
-                      )}
-                    >
-                      <span aria-hidden="true">{on ? '✓ ' : '+ '}</span>
-                      {name}
-                      {missing && <span className="ml-1 text-danger">(not in manifest)</span>}
-                    </button>
-                  );
-                })}
-              </div>
-            )}
+      {crew === 'both' ? (
+        <fieldset className="grid gap-4 sm:grid-cols-2">
+          <legend className="mb-1.5 text-sm font-medium text-text-strong">
+            Foot restraints (one person each)
+          </legend>
+          <Field label="EV1 foot restraint" error={errors.sockets?.EV1?.message} hint={socketHint}>
+            <Select options={socketOptions('Works from handrails')} {...register('sockets.EV1')} />
+          </Field>
+          <Field label="EV2 foot restraint" error={errors.sockets?.EV2?.message}>
+            <Select options={socketOptions('Works from handrails')} {...register('sockets.EV2')} />
+          </Field>
+        </fieldset>
+      ) : (
+        <Field label="Foot-restraint socket" error={errors.socket?.message} hint={socketHint}>
+          <Select options={socketOptions('No foot restraint')} {...register('socket')} />
+        </Field>
+      )}
+      <Controller
+        control={control}
+        name="tools"
+        render={({ field, fieldState }) => (
+          <ToolChips
+            value={field.value}
+            onChange={field.onChange}
+            manifest={known}
+            crew={crew}
+            onAddItem={(item) => setAdded((list) => [...list, item])}
+            error={fieldState.error?.message}
           />
         )}
-      </fieldset>
+      />
+      <ItemActionsField form={form} manifest={known} places={places} />
       <Field label="Notes" error={errors.notes?.message}>
         <textarea rows={2} className={cn(controlClass, 'py-2')} {...register('notes')} />
       </Field>

@@ -1,5 +1,5 @@
 import { useEffect, useRef, useState, type KeyboardEvent } from 'react';
-import type { Task } from '@shared/schemas/plan';
+import type { ManifestItem, Task } from '@shared/schemas/plan';
 import { Button } from '@/components/ui/button';
 import { EmptyState } from '@/components/ui/card';
 import { Dialog } from '@/components/ui/dialog';
@@ -10,10 +10,11 @@ import { TaskRow } from './task-row';
 
 interface TasksEditorProps {
   tasks: Task[];
-  onChange: (tasks: Task[]) => void;
+  /** the tasks, and items a task form put on the manifest */
+  onChange: (tasks: Task[], added?: ManifestItem[]) => void;
   readOnly: boolean;
   nodes: PlanStationNodes;
-  toolNames: string[];
+  manifest: readonly ManifestItem[];
   /** reach of each task's socket, as the server computed it for the saved plan */
   reach: TaskReach[];
   /** how many warnings of the saved plan name each task, by index */
@@ -25,7 +26,7 @@ export function TasksEditor({
   onChange,
   readOnly,
   nodes,
-  toolNames,
+  manifest,
   reach,
   warningCounts,
 }: TasksEditorProps) {
@@ -61,12 +62,15 @@ export function TasksEditor({
     }
   };
 
-  const save = (task: Task) => {
+  const save = (task: Task, added: ManifestItem[]) => {
     if (editing === 'new') {
-      onChange([...tasks, task]);
+      onChange([...tasks, task], added);
       setAnnouncement(`Added task “${task.title}” as number ${tasks.length + 1}.`);
     } else if (editing !== null) {
-      onChange(tasks.map((t, i) => (i === editing ? task : t)));
+      onChange(
+        tasks.map((t, i) => (i === editing ? task : t)),
+        added,
+      );
       setAnnouncement(`Changed task ${editing + 1} “${task.title}”.`);
     }
     setEditing(null);
@@ -147,7 +151,7 @@ export function TasksEditor({
         <TaskForm
           task={typeof editing === 'number' ? tasks[editing] : undefined}
           nodes={nodes}
-          toolNames={toolNames}
+          manifest={manifest}
           onSubmit={save}
           onCancel={() => setEditing(null)}
         />

@@ -1,0 +1,167 @@
+import { z } from 'zod';
+import {
+  CrewMemberSchema,
+  ItemActionKindSchema,
+  ItemActionSchema,
+  ManifestItemSchema,
+  MAX_ACTIONS_PER_TASK,
+  TaskCrewSchema,
+  TaskSchema,
+  withItemKeys,
+  planReferenceProblems,
+  type CrewMember,
+  type ItemActionKind,
+  type ManifestItem,
+  type Task,
+  type TaskCrew,
+} from '@shared/schemas/plan';
+import { durationField } from './form-fields';
+import { durationText } from './plan-draft';
+
+const blank = <T extends z.ZodType>(schema: T) => z.union([z.literal('').transform(() => undefined), schema]);
+
+const KeyField = TaskSchema.shape.worksite;
+
+const ActionRowSchema = z.object({
+  do: ItemActionKindSchema,
+  item: z.string().min(1, 'pick an item from the manifest'),
+  by: blank(CrewMemberSchema),
+  at: blank(ItemActionSchema.shape.at.unwrap()),
+});
+
+const TaskFieldsSchema = z.object({
+  title: TaskSchema.shape.title,
+  worksite: TaskSchema.shape.worksite,
+  crew: TaskCrewSchema,
+  duration: durationField(TaskSchema.shape.durationSeconds),
+  eclipseOnly: z.boolean(),
+  carrying: z.boolean(),
+  socket: blank(KeyField),
+  sockets: z.object({ EV1: blank(KeyField), EV2: blank(KeyField) }),
+  tools: TaskSchema.shape.tools.unwrap(),
+  actions: z
+    .array(ActionRowSchema)
+    .max(MAX_ACTIONS_PER_TASK, `at most ${MAX_ACTIONS_PER_TASK} item actions per task`),
+  notes: z.string().max(4000, 'notes must be at most 4000 characters'),
+});
+
+/** What the task form's fields hold: text and '' for "none", as the controls give them. */
+export type TaskFormValues = z.input<typeof TaskFieldsSchema>;
+/** A task as the form hands it over (the caller keeps its id). */
+export type TaskFormTask = Omit<Task, 'id'>;
+
+/** The foot-restraint sockets a task names, each member's for a task for both. */
+function restraintOf(crew: TaskCrew, socket: string | undefined, sockets: Task['sockets']) {
+  if (crew !== 'both') return socket ? { socket } : {};
+  const own = Object.fromEntries(Object.entries(sockets ?? {}).filter(([, v]) => v)) as Task['sockets'];
+  return own && Object.keys(own).length ? { sockets: own } : {};
+}
+
+function toTask(v: z.output<typeof TaskFieldsSchema>): TaskFormTask {
+  return {
+    title: v.title,
+    worksite: v.worksite,
+    crew: v.crew,
+    durationSeconds: v.duration,
+    eclipseOnly: v.eclipseOnly,
+    carrying: v.carrying,
+    ...restraintOf(v.crew, v.socket, v.sockets),
+    tools: v.tools,
+    actions: v.actions.map((a) => ({
+      do: a.do,
+      item: a.item,
+      // a one-person task's member acts; `by` is only said in a task for both
+      ...(a.by && v.crew === 'both' ? { by: a.by } : {}),
+      ...(a.at && a.do !== 'hand-over' ? { at: a.at } : {}),
+    })),
+    ...(v.notes.trim() ? { notes: v.notes } : {}),
+  };
+}
+
+/**
+ * The task form's schema: the contract's field schemas, then the rules between a task and the
+ * manifest (`planReferenceProblems`, the server's own check) reported on the fields they concern.
+ */
+export function taskFormSchema(manifest: readonly ManifestItem[]) {
+  return TaskFieldsSchema.transform(toTask).superRefine((task, ctx) => {
+    for (const p of planReferenceProblems([task], manifest)) {
+      if (p.path[0] !== 'tasks') continue;
+      ctx.addIssue({ code: 'custom', path: p.path.slice(2), message: p.message });
+    }
+  });
+}
+
+/**
+ * A task's tools as manifest keys where an item answers to them (a key, or a name in any case and
+ * spacing), so the chips show what the day will find; anything else is kept as written.
+ */
+export function toolKeys(tools: readonly string[], manifest: readonly ManifestItem[]): string[] {
+  const norm = (s: string) => s.trim().replace(/\s+/g, ' ').toLowerCase();
+  const out = tools.map((t) => {
+    const hit = manifest.find((m) => m.key === t) ?? manifest.find((m) => norm(m.name) === norm(t));
+    return hit?.key ?? t;
+  });
+  return [...new Set(out)];
+}
+
+export function taskFormDefaults(task: Task | undefined, manifest: readonly ManifestItem[]): TaskFormValues {
+  return {
+    title: task?.title ?? '',
+    worksite: task?.worksite ?? '',
+    crew: task?.crew ?? 'both',
+    duration: task ? durationText(task.durationSeconds) : '0:30',
+    eclipseOnly: task?.eclipseOnly ?? false,
+    carrying: task?.carrying ?? false,
+    socket: (task?.crew !== 'both' && task?.socket) || '',
+    // an older task for both names one socket: EV1 works from it
+    sockets: {
+      EV1: task?.sockets?.EV1 ?? (task?.crew === 'both' ? task.socket : undefined) ?? '',
+      EV2: task?.sockets?.EV2 ?? '',
+    },
+    tools: toolKeys(task?.tools ?? [], manifest),
+    actions: (task?.actions ?? []).map((a) => ({
+      do: a.do,
+      item: a.item,
+      by: a.by ?? '',
+      at: a.at ?? '',
+    })),
+    notes: task?.notes ?? '',
+  };
+}
+
+export const ACTION_NAMES: Record<ItemActionKind, string> = {
+  'pick-up': 'Pick up',
+  'set-down': 'Set down',
+  install: 'Install',
+  remove: 'Remove',
+  'hand-over': 'Hand over to the partner',
+};
+
+/** The key a new item named `name` gets: from its name, unique beside the manifest's (keyless ones as the server will key them). */
+export function uniqueItemKey(name: string, manifest: readonly Pick<ManifestItem, 'key' | 'name'>[]): string {
+  const keyed = withItemKeys([...manifest, { name }]);
+  return keyed[keyed.length - 1].key;
+}
+
+/** A new manifest item named in a task form: a tool, carried out by the member who needs it. */
+export function newManifestItem(
+  name: string,
+  crew: TaskCrew,
+  manifest: readonly ManifestItem[],
+): { item: ManifestItem } | { error: string } {
+  const parsed = ManifestItemSchema.shape.name.safeParse(name);
+  if (!parsed.success) return { error: parsed.error.issues[0]?.message ?? 'not a name' };
+  const key = uniqueItemKey(parsed.data, manifest);
+  const carriedBy: CrewMember = crew === 'both' ? 'EV1' : crew;
+  return {
+    item: {
+      key,
+      name: parsed.data,
+      kind: 'tool',
+      quantity: 1,
+      carriedBy,
+      startsAt: 'airlock',
+      leaveOutside: false,
+    },
+  };
+}

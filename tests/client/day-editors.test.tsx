@@ -1,0 +1,209 @@
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { cleanup, render, screen, within } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
+import type { ManifestItem, Task } from '@shared/schemas/plan';
+import { TaskForm } from '@/features/plans/components/task-form';
+import { ManifestEditor } from '@/features/plans/components/manifest-editor';
+import type { PlanStationNodes } from '@/features/plans/types';
+
+afterEach(cleanup);
+
+// jsdom has no modal dialogs: open and close them as the attribute says
+HTMLDialogElement.prototype.showModal ??= function (this: HTMLDialogElement) {
+  this.setAttribute('open', '');
+};
+HTMLDialogElement.prototype.close ??= function (this: HTMLDialogElement) {
+  this.removeAttribute('open');
+};
+
+const nodes: PlanStationNodes = {
+  worksites: [{ key: 'W1', label: 'Pump bay', kind: 'worksite', position: [0, 0, 0] }],
+  sockets: [
+    { key: 'S1', kind: 'socket', position: [1, 0, 0] },
+    { key: 'S2', kind: 'socket', position: [0, 2, 0] },
+  ],
+  all: [
+    { key: 'W1', label: 'Pump bay', kind: 'worksite', position: [0, 0, 0] },
+    { key: 'S1', kind: 'socket', position: [1, 0, 0] },
+    { key: 'S2', kind: 'socket', position: [0, 2, 0] },
+    { key: 'A9', kind: 'anchor', position: [0, 0, 3] },
+  ],
+};
+
+const manifest: ManifestItem[] = [
+  {
+    key: 'pfr-1',
+    name: 'Foot restraint',
+    kind: 'foot-restraint',
+    quantity: 1,
+    carriedBy: 'EV1',
+    startsAt: 'airlock',
+    leaveOutside: false,
+  },
+  {
+    key: 'driver',
+    name: 'Power driver',
+    kind: 'tool',
+    quantity: 1,
+    carriedBy: 'EV2',
+    startsAt: 'airlock',
+    leaveOutside: false,
+  },
+  { key: 'pump', name: 'Pump module', kind: 'large-item', quantity: 1, startsAt: 'W1', leaveOutside: false },
+];
+
+const task: Task = {
+  title: 'Swap the pump',
+  worksite: 'W1',
+  crew: 'both',
+  durationSeconds: 1800,
+  eclipseOnly: false,
+  carrying: false,
+  tools: [],
+  actions: [],
+};
+
+function renderTaskForm(given: Task = task) {
+  const onSubmit = vi.fn<(task: Task, added: ManifestItem[]) => void>();
+  render(<TaskForm task={given} nodes={nodes} manifest={manifest} onSubmit={onSubmit} onCancel={() => {}} />);
+  return { onSubmit, user: userEvent.setup() };
+}
+
+const apply = () => screen.getByRole('button', { name: 'Apply changes' });
+
+describe('task form: foot restraints for a task for both', () => {
+  it('names each member’s socket, and refuses one restraint for two people', async () => {
+    const { onSubmit, user } = renderTaskForm();
+    await user.selectOptions(screen.getByLabelText('EV1 foot restraint'), 'S1');
+    await user.selectOptions(screen.getByLabelText('EV2 foot restraint'), 'S1');
+    await user.click(apply());
+    expect(await screen.findByText(/cannot stand in one foot restraint/)).toBeTruthy();
+    expect(onSubmit).not.toHaveBeenCalled();
+
+    await user.selectOptions(screen.getByLabelText('EV2 foot restraint'), 'S2');
+    await user.click(apply());
+    expect(onSubmit).toHaveBeenCalledOnce();
+    const [saved] = onSubmit.mock.calls[0];
+    expect(saved.sockets).toEqual({ EV1: 'S1', EV2: 'S2' });
+    expect(saved.socket).toBeUndefined();
+  });
+
+  it('a one-person task has one socket field and no sockets', async () => {
+    const { onSubmit, user } = renderTaskForm({ ...task, crew: 'EV2' });
+    expect(screen.queryByLabelText('EV1 foot restraint')).toBeNull();
+    await user.selectOptions(screen.getByLabelText('Foot-restraint socket'), 'S2');
+    await user.click(apply());
+    const [saved] = onSubmit.mock.calls[0];
+    expect(saved.socket).toBe('S2');
+    expect(saved.sockets).toBeUndefined();
+  });
+});
+
+describe('task form: item actions', () => {
+  it('a hand-over says who gives the item; the form refuses it without', async () => {
+    const { onSubmit, user } = renderTaskForm();
+    await user.click(screen.getByRole('button', { name: 'Add an item action' }));
+    const row = within(screen.getByRole('list', { name: 'Item actions' })).getAllByRole('listitem')[0];
+    await user.selectOptions(within(row).getByLabelText('Action 1'), 'hand-over');
+    await user.selectOptions(within(row).getByLabelText('Item'), 'pump');
+    await user.click(apply());
+    expect(await within(row).findByText(/say who hands the item over/)).toBeTruthy();
+    expect(onSubmit).not.toHaveBeenCalled();
+
+    await user.selectOptions(within(row).getByLabelText('By'), 'EV2');
+    await user.click(apply());
+    expect(onSubmit).toHaveBeenCalledOnce();
+    expect(onSubmit.mock.calls[0][0].actions).toEqual([{ do: 'hand-over', item: 'pump', by: 'EV2' }]);
+  });
+
+  it('installing a restraint in a one-person task takes the task’s socket; a tool cannot be installed', async () => {
+    const { onSubmit, user } = renderTaskForm({ ...task, crew: 'EV1', socket: 'S1' });
+    await user.click(screen.getByRole('button', { name: 'Add an item action' }));
+    await user.selectOptions(screen.getByLabelText('Action 1'), 'install');
+    await user.selectOptions(screen.getByLabelText('Item'), 'driver');
+    await user.click(apply());
+    expect(await screen.findByText(/only a foot restraint or a tether anchor can be installed/)).toBeTruthy();
+
+    await user.selectOptions(screen.getByLabelText('Item'), 'pfr-1');
+    await user.click(apply());
+    expect(onSubmit).toHaveBeenCalledOnce();
+    expect(onSubmit.mock.calls[0][0].actions).toEqual([{ do: 'install', item: 'pfr-1' }]);
+  });
+
+  it('an action may name another place near the worksite', async () => {
+    const { onSubmit, user } = renderTaskForm({ ...task, crew: 'EV1' });
+    await user.click(screen.getByRole('button', { name: 'Add an item action' }));
+    await user.selectOptions(screen.getByLabelText('Action 1'), 'set-down');
+    await user.selectOptions(screen.getByLabelText('Item'), 'driver');
+    await user.type(screen.getByLabelText('Where'), 'A9');
+    await user.click(screen.getByRole('button', { name: 'Add an item action' }));
+    await user.click(screen.getByRole('button', { name: 'Remove action 2' }));
+    await user.click(apply());
+    expect(onSubmit.mock.calls[0][0].actions).toEqual([{ do: 'set-down', item: 'driver', at: 'A9' }]);
+  });
+});
+
+describe('task form: tools at hand', () => {
+  it('picks manifest items by key, and a new tool goes on the manifest only when used', async () => {
+    const { onSubmit, user } = renderTaskForm({ ...task, crew: 'EV2', tools: ['Power driver'] });
+    const chips = screen.getByRole('group', { name: 'Manifest items' });
+    // an older plan's tool named by its item's name shows as that item, picked
+    expect(
+      within(chips)
+        .getByRole('button', { name: /Power driver/ })
+        .getAttribute('aria-pressed'),
+    ).toBe('true');
+
+    await user.type(screen.getByLabelText('New tool for the manifest'), 'Torque wrench{Enter}');
+    await user.type(screen.getByLabelText('New tool for the manifest'), 'Spare bag');
+    await user.click(screen.getByRole('button', { name: 'Add to manifest' }));
+    await user.click(within(chips).getByRole('button', { name: /Spare bag/ }));
+    await user.click(apply());
+
+    const [saved, added] = onSubmit.mock.calls[0];
+    expect(saved.tools).toEqual(['driver', 'torque-wrench']);
+    expect(added).toEqual([
+      {
+        key: 'torque-wrench',
+        name: 'Torque wrench',
+        kind: 'tool',
+        quantity: 1,
+        carriedBy: 'EV2',
+        startsAt: 'airlock',
+        leaveOutside: false,
+      },
+    ]);
+  });
+});
+
+describe('manifest editor', () => {
+  it('adds an item with its key, installed place and end of day', async () => {
+    const onChange = vi.fn<(m: ManifestItem[]) => void>();
+    const user = userEvent.setup();
+    render(<ManifestEditor manifest={manifest} onChange={onChange} readOnly={false} places={['S1', 'A9']} />);
+    await user.click(screen.getByRole('button', { name: 'Add an item' }));
+    const dialog = screen.getByRole('dialog');
+    await user.type(within(dialog).getByLabelText('Name'), 'Power driver');
+    expect(within(dialog).getByText('power-driver')).toBeTruthy();
+    await user.selectOptions(within(dialog).getByLabelText('Kind'), 'tool');
+    await user.type(within(dialog).getByLabelText('Installed at'), 'A9');
+    await user.click(within(dialog).getByRole('button', { name: 'Add item' }));
+    expect(
+      await within(dialog).findByText(/only a foot restraint or a tether anchor can start installed/),
+    ).toBeTruthy();
+    expect(onChange).not.toHaveBeenCalled();
+
+    await user.selectOptions(within(dialog).getByLabelText('Kind'), 'tether-anchor');
+    await user.click(within(dialog).getByLabelText(/Stays outside at the end of the day/));
+    await user.click(within(dialog).getByRole('button', { name: 'Add item' }));
+    expect(onChange).toHaveBeenCalledOnce();
+    const added = onChange.mock.calls[0][0].at(-1);
+    expect(added).toMatchObject({
+      key: 'power-driver',
+      name: 'Power driver',
+      kind: 'tether-anchor',
+      installedAt: 'A9',
+      leaveOutside: true,
+    });
+  });
+});
