@@ -2,8 +2,9 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ATTACHMENT_MAX_BYTES } from '../../server/modules/annotations/annotations.router';
-import { buildStationDocument, FIXTURE_KEYS as K, stationDocumentFile } from '../factories/station-document';
-import { makeTestApp, type TestAgent, type TestApp } from '../setup/test-app';
+import { buildStationDocument, FIXTURE_KEYS as K } from '../factories/station-document';
+import { makeAppWithStation } from '../setup/stations';
+import type { TestAgent, TestApp } from '../setup/test-app';
 
 /** A 1×1 PNG and the smallest JPEG header that says what it is and its size: real magic bytes, not names. */
 const PNG_1X1 = Buffer.from(
@@ -29,13 +30,11 @@ let trainer: TestAgent;
 let stationId: number;
 
 beforeAll(async () => {
-  t = await makeTestApp();
+  ({
+    t,
+    station: { id: stationId },
+  } = await makeAppWithStation());
   trainer = await t.agent('trainer');
-  const engineer = await t.agent('engineer');
-  const res = await engineer
-    .post('/api/stations/import')
-    .attach('file', stationDocumentFile(buildStationDocument()), 's.json');
-  stationId = res.body.station.id;
 });
 afterAll(() => t.close());
 

@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildStationDocument, FIXTURE_KEYS, stationDocumentFile } from '../factories/station-document';
+import { postStationDocument } from '../setup/stations';
 import { makeTestApp, type TestAgent, type TestApp } from '../setup/test-app';
 import { STATION_FILE_MAX_BYTES } from '../../server/modules/stations/stations.router';
 
@@ -24,7 +25,7 @@ async function stationCount() {
 
 async function expectRefused(bytes: Buffer, status: number, expectedPath?: string) {
   const before = await stationCount();
-  const res = await engineer.post('/api/stations/import').attach('file', bytes, 'station.json');
+  const res = await postStationDocument(engineer, bytes);
   expect(res.status).toBe(status);
   expect(res.body.error).toBeDefined();
   expect(res.body.error.message).not.toMatch(/at .*\.ts:\d+/);

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { StationGraph } from '@shared/schemas/station-edits';
-import { buildStationDocument, FIXTURE_KEYS, stationDocumentFile } from '../factories/station-document';
+import { buildStationDocument, FIXTURE_KEYS } from '../factories/station-document';
+import { importStation, stationGraph } from '../setup/stations';
 import { makeTestApp, type TestAgent, type TestApp } from '../setup/test-app';
 
 let t: TestApp;
@@ -12,17 +12,8 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-async function newStation() {
-  const res = await engineer
-    .post('/api/stations/import')
-    .attach('file', stationDocumentFile(buildStationDocument()), 's.json');
-  expect(res.status).toBe(201);
-  return res.body.station.id as number;
-}
-
-async function graph(id: number): Promise<StationGraph> {
-  return (await engineer.get(`/api/stations/${id}/graph`)).body;
-}
+const newStation = async () => (await importStation(engineer)).id;
+const graph = (id: number) => stationGraph(engineer, id);
 
 const csv = (...lines: string[]) => Buffer.from(lines.join('\n') + '\n');
 

@@ -2,19 +2,17 @@ import { spawnSync } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { makeAppWithStation } from '../setup/stations';
 import { makeTestApp, type TestApp } from '../setup/test-app';
-import { buildStationDocument, FIXTURE_KEYS, stationDocumentFile } from '../factories/station-document';
+import { buildStationDocument, FIXTURE_KEYS } from '../factories/station-document';
 
 let t: TestApp;
 let stationId: number;
 beforeAll(async () => {
-  t = await makeTestApp();
-  const engineer = await t.agent('engineer');
-  const res = await engineer
-    .post('/api/stations/import')
-    .attach('file', stationDocumentFile(), 'station.tetherwise.json');
-  expect(res.status).toBe(201);
-  stationId = res.body.station.id;
+  ({
+    t,
+    station: { id: stationId },
+  } = await makeAppWithStation());
 });
 afterAll(() => t.close());
 

@@ -1,8 +1,10 @@
 import Papa from 'papaparse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readStaleVersion } from '@shared/errors';
-import { buildStationDocument, FIXTURE_KEYS as K, stationDocumentFile } from '../factories/station-document';
-import { makeTestApp, type TestAgent, type TestApp } from '../setup/test-app';
+import { buildStationDocument, FIXTURE_KEYS as K } from '../factories/station-document';
+import { buildManifestItem, buildPlanInput, buildTask } from '../factories/plan';
+import { makeAppWithStation } from '../setup/stations';
+import type { TestAgent, TestApp } from '../setup/test-app';
 import { CSV_HEADER } from '../../server/modules/plans/plan-export.service';
 
 const ORIGIN = 'http://tetherwise.test';
@@ -22,59 +24,39 @@ function planStation() {
   return doc;
 }
 
+/** Three tasks (one in eclipse, one for both crew carrying, one on the socket) and three items. */
 function planBody(overrides: Record<string, unknown> = {}) {
   return {
-    title: 'Pump module swap, test',
-    stationId,
-    date: '2031-03-14',
-    crew: {
-      EV1: { name: 'Ana Vidal', tetherLengthM: 25.9 },
-      EV2: { name: 'Bo Lindgren', tetherLengthM: 25.9 },
-    },
-    tasks: [
-      {
-        title: 'Demate power connectors',
-        worksite: K.worksite,
-        crew: 'EV1',
-        durationSeconds: 600,
-        eclipseOnly: true,
-        tools: ['Torque wrench'],
-      },
-      {
-        title: 'Swap pump, "main" unit',
-        worksite: NEAR_SITE,
-        crew: 'both',
-        durationSeconds: 1800,
-        socket: K.socket,
-        carrying: true,
-        tools: ['Pump bag'],
-      },
-      {
-        title: 'Inspect pump site',
-        worksite: K.worksite,
-        crew: 'EV2',
-        durationSeconds: 300,
-        socket: K.socket,
-      },
-    ],
-    manifest: [
-      { name: 'Torque wrench', kind: 'tool', carriedBy: 'EV1', endsAt: 'airlock' },
-      { name: 'Pump bag', kind: 'bag', carriedBy: 'EV2', endsAt: 'airlock' },
-      { name: 'Spare tether', kind: 'tool', carriedBy: 'EV2' },
-    ],
+    ...buildPlanInput(stationId, {
+      title: 'Pump module swap, test',
+      tasks: [
+        buildTask({ title: 'Demate power connectors', eclipseOnly: true, tools: ['Torque wrench'] }),
+        buildTask({
+          title: 'Swap pump, "main" unit',
+          worksite: NEAR_SITE,
+          crew: 'both',
+          durationSeconds: 1800,
+          socket: K.socket,
+          carrying: true,
+          tools: ['Pump bag'],
+        }),
+        buildTask({ title: 'Inspect pump site', crew: 'EV2', durationSeconds: 300, socket: K.socket }),
+      ],
+      manifest: [
+        buildManifestItem({ name: 'Torque wrench' }),
+        buildManifestItem({ name: 'Pump bag', kind: 'bag', carriedBy: 'EV2' }),
+        { name: 'Spare tether', kind: 'tool', carriedBy: 'EV2' },
+      ],
+    }),
     ...overrides,
   };
 }
 
 beforeAll(async () => {
-  t = await makeTestApp({ publicOrigin: ORIGIN });
-  const res = await (
-    await t.agent('engineer')
-  )
-    .post('/api/stations/import')
-    .attach('file', stationDocumentFile(planStation()), 'station.json');
-  expect(res.status, JSON.stringify(res.body)).toBe(201);
-  stationId = res.body.station.id;
+  ({
+    t,
+    station: { id: stationId },
+  } = await makeAppWithStation(planStation(), { publicOrigin: ORIGIN }));
 });
 afterAll(() => t.close());
 

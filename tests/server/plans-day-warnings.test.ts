@@ -1,21 +1,17 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { stationDocumentFile } from '../factories/station-document';
 import { LINE_KEYS as K, lineStationDocument } from '../factories/day';
-import { makeTestApp, type TestAgent, type TestApp } from '../setup/test-app';
+import { makeAppWithStation } from '../setup/stations';
+import type { TestAgent, TestApp } from '../setup/test-app';
 
 let t: TestApp;
 let planner: TestAgent;
 let stationId: number;
 
 beforeAll(async () => {
-  t = await makeTestApp();
-  const res = await (
-    await t.agent('engineer')
-  )
-    .post('/api/stations/import')
-    .attach('file', stationDocumentFile(lineStationDocument()), 'station.json');
-  expect(res.status, JSON.stringify(res.body)).toBe(201);
-  stationId = res.body.station.id;
+  ({
+    t,
+    station: { id: stationId },
+  } = await makeAppWithStation(lineStationDocument()));
   planner = await t.agent('planner');
 });
 afterAll(() => t.close());

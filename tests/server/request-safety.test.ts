@@ -4,7 +4,8 @@ import Papa from 'papaparse';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ErrorBodySchema } from '@shared/errors';
-import { buildStationDocument, FIXTURE_KEYS as K, stationDocumentFile } from '../factories/station-document';
+import { buildStationDocument, FIXTURE_KEYS as K } from '../factories/station-document';
+import { makeAppWithStation, postStationDocument } from '../setup/stations';
 import { makeTestApp, type TestApp } from '../setup/test-app';
 
 /**
@@ -22,15 +23,9 @@ let stationVersion: number;
 const errorCode = (body: unknown) => ErrorBodySchema.parse(body).error.code;
 
 beforeAll(async () => {
-  t = await makeTestApp({ publicOrigin: ORIGIN });
-  const res = await (
-    await t.agent('engineer')
-  )
-    .post('/api/stations/import')
-    .attach('file', stationDocumentFile(), 'station.json');
-  expect(res.status, JSON.stringify(res.body)).toBe(201);
-  stationId = res.body.station.id;
-  stationVersion = res.body.station.version;
+  let station;
+  ({ t, station } = await makeAppWithStation(undefined, { publicOrigin: ORIGIN }));
+  ({ id: stationId, version: stationVersion } = station);
 });
 afterAll(() => t.close());
 
@@ -50,9 +45,7 @@ describe('segments are bounded', () => {
     const huge = buildStationDocument({
       segments: [{ key: 'VAST', kind: 'platform', center: [0, 0, -3000], size: [4000, 4000, 3] }],
     });
-    const imported = await engineer
-      .post('/api/stations/import')
-      .attach('file', stationDocumentFile(huge), 's.json');
+    const imported = await postStationDocument(engineer, huge);
     expect(imported.status).toBe(400);
     expect(imported.body.error.details).toContainEqual({
       path: 'segments[0].size[0]',
@@ -186,11 +179,9 @@ describe('cross-site requests', () => {
   it('CSRF: a state-changing request from another origin is refused with 403, whatever SameSite lets through', async () => {
     const engineer = await t.agent('engineer');
     // a page on another port of the same host is same-site: the cookie would go with it
-    const sameSite = await engineer
-      .post('/api/stations/import')
+    const sameSite = await postStationDocument(engineer)
       .set('Origin', 'http://tetherwise.test:8080')
-      .set('Sec-Fetch-Site', 'same-site')
-      .attach('file', stationDocumentFile(), 'station.json');
+      .set('Sec-Fetch-Site', 'same-site');
     expect(sameSite.status).toBe(403);
     expect(errorCode(sameSite.body)).toBe('FORBIDDEN');
     expect(sameSite.body.error.message).toMatch(/another site/);
@@ -208,16 +199,11 @@ describe('cross-site requests', () => {
     expect((await viewer.post('/api/auth/sign-out').set('Sec-Fetch-Site', 'cross-site')).status).toBe(403);
 
     // our own pages: the browser says same-origin, or the Origin is PUBLIC_ORIGIN
-    const own = await engineer
-      .post('/api/stations/import')
-      .set('Origin', ORIGIN)
-      .attach('file', stationDocumentFile(), 'station.json');
+    const own = await postStationDocument(engineer).set('Origin', ORIGIN);
     expect(own.status).toBe(201);
-    const sameOrigin = await engineer
-      .post('/api/stations/import')
+    const sameOrigin = await postStationDocument(engineer)
       .set('Origin', 'http://127.0.0.1:3000')
-      .set('Sec-Fetch-Site', 'same-origin')
-      .attach('file', stationDocumentFile(), 'station.json');
+      .set('Sec-Fetch-Site', 'same-origin');
     expect(sameOrigin.status).toBe(201);
     // reading is never refused; and a client that is no browser sends neither header
     expect((await viewer.get('/api/stations').set('Origin', 'https://evil.example')).status).toBe(200);

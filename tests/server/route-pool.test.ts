@@ -8,6 +8,7 @@ import { defaultRouteWorkers } from '../../server/lib/env';
 import { HttpError } from '../../server/lib/http-error';
 import { generateTrussStation } from '@shared/compute/truss-generator';
 import { buildStationDocument, FIXTURE_KEYS as K } from '../factories/station-document';
+import { importStation } from '../setup/stations';
 import { makeTestApp, type TestApp } from '../setup/test-app';
 
 // Route computations on worker threads (ROUTE_WORKERS > 0) answer exactly what the main thread does.
@@ -146,12 +147,9 @@ describe('route worker pool limits and failures', () => {
     const small = await makeTestApp({ routeWorkers: 1, routeQueueLimit: 2 });
     try {
       const engineer = await small.agent('engineer');
-      const file = Buffer.from(JSON.stringify(buildStationDocument()));
-      const imported = await engineer.post('/api/stations/import').attach('file', file, 'station.json');
-      expect(imported.status).toBe(201);
+      const imported = await importStation(engineer);
       const viewer = await small.agent('viewer');
-      const post = () =>
-        viewer.post(`/api/stations/${imported.body.station.id}/routes`).send(toSocket('fastest'));
+      const post = () => viewer.post(`/api/stations/${imported.id}/routes`).send(toSocket('fastest'));
       const answers = await Promise.all(Array.from({ length: 12 }, post));
       const refused = answers.filter((r) => r.status === 503);
       expect(answers.every((r) => r.status === 200 || r.status === 503)).toBe(true);

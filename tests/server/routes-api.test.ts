@@ -1,23 +1,17 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildStationDocument, FIXTURE_KEYS as K, stationDocumentFile } from '../factories/station-document';
+import { importStation } from '../setup/stations';
 import { makeTestApp, type TestApp } from '../setup/test-app';
 import { cachedStationIds, getCompiledStation } from '../../server/modules/compute/compiled-cache';
 
 let t: TestApp;
 let stationId: number;
 
-async function importStation(doc: unknown = buildStationDocument()): Promise<number> {
-  const engineer = await t.agent('engineer');
-  const res = await engineer
-    .post('/api/stations/import')
-    .attach('file', stationDocumentFile(doc), 'station.json');
-  expect(res.status).toBe(201);
-  return res.body.station.id;
-}
+const newStation = async (doc?: unknown) => (await importStation(await t.agent('engineer'), doc)).id;
 
 beforeAll(async () => {
   t = await makeTestApp();
-  stationId = await importStation();
+  stationId = await newStation();
 });
 afterAll(() => t.close());
 
@@ -285,7 +279,7 @@ describe('compiled-station cache', () => {
   it('keeps a few stations, least recently used out first; another app has its own cache', async () => {
     const ids = [stationId];
     for (let i = 0; i < 5; i++)
-      ids.push(await importStation(buildStationDocument({ name: `Cache station ${i}` })));
+      ids.push(await newStation(buildStationDocument({ name: `Cache station ${i}` })));
     for (const id of ids) getCompiledStation(t.ctx, id);
     const held = cachedStationIds(t.ctx);
     expect(held.length).toBe(4);

@@ -1,19 +1,16 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { buildStationDocument, FIXTURE_KEYS as K, stationDocumentFile } from '../factories/station-document';
-import { makeTestApp, type TestApp } from '../setup/test-app';
+import { FIXTURE_KEYS as K } from '../factories/station-document';
+import { makeAppWithStation } from '../setup/stations';
+import type { TestApp } from '../setup/test-app';
 
 let t: TestApp;
 let stationId: number;
 
 beforeAll(async () => {
-  t = await makeTestApp();
-  const res = await (
-    await t.agent('engineer')
-  )
-    .post('/api/stations/import')
-    .attach('file', stationDocumentFile(buildStationDocument()), 'station.json');
-  expect(res.status).toBe(201);
-  stationId = res.body.station.id;
+  ({
+    t,
+    station: { id: stationId },
+  } = await makeAppWithStation());
 });
 afterAll(() => t.close());
 

@@ -3,6 +3,7 @@ import fc from 'fast-check';
 import { replayStationChanges, type StationChange } from '@shared/compute/station-changes';
 import type { StationDocument } from '@shared/schemas/station';
 import { buildStationDocument, FIXTURE_KEYS as K, stationDocumentFile } from '../factories/station-document';
+import { importStation } from '../setup/stations';
 import { makeTestApp, type TestAgent, type TestApp } from '../setup/test-app';
 
 /** small, so a short history passes several stored snapshots */
@@ -15,11 +16,7 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-async function newStation(doc: unknown = buildStationDocument()): Promise<number> {
-  const res = await engineer.post('/api/stations/import').attach('file', stationDocumentFile(doc), 's.json');
-  expect(res.status, JSON.stringify(res.body)).toBe(201);
-  return res.body.station.id;
-}
+const newStation = async (doc?: unknown): Promise<number> => (await importStation(engineer, doc)).id;
 
 const exported = async (id: number): Promise<StationDocument> =>
   (await engineer.get(`/api/stations/${id}/export`)).body;

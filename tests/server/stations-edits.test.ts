@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readStaleVersion } from '@shared/errors';
-import type { StationGraph } from '@shared/schemas/station-edits';
 import { onStationChanged } from '../../server/modules/stations/stations.service';
-import { buildStationDocument, FIXTURE_KEYS as K, stationDocumentFile } from '../factories/station-document';
+import { FIXTURE_KEYS as K } from '../factories/station-document';
+import { importStation, stationGraph } from '../setup/stations';
 import { makeTestApp, type TestAgent, type TestApp } from '../setup/test-app';
 
 let t: TestApp;
@@ -14,15 +14,8 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-async function newStation() {
-  const res = await engineer
-    .post('/api/stations/import')
-    .attach('file', stationDocumentFile(buildStationDocument()), 's.json');
-  return res.body.station.id as number;
-}
-async function graph(id: number): Promise<StationGraph> {
-  return (await engineer.get(`/api/stations/${id}/graph`)).body;
-}
+const newStation = async () => (await importStation(engineer)).id;
+const graph = (id: number) => stationGraph(engineer, id);
 async function audit(id: number) {
   return (await engineer.get(`/api/stations/${id}/audit`)).body as {
     items: {

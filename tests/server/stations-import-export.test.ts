@@ -4,6 +4,7 @@ import { generateTrussStation } from '@shared/compute/truss-generator';
 import { parseStationDocument, type StationDocumentInput } from '@shared/schemas/station';
 import type { StationGraph } from '@shared/schemas/station-edits';
 import { buildStationDocument, FIXTURE_KEYS, stationDocumentFile } from '../factories/station-document';
+import { postStationDocument, stationGraph } from '../setup/stations';
 import { makeTestApp, type TestAgent, type TestApp } from '../setup/test-app';
 
 /** The station document example of DESIGN §8, completed with the junction its edge names. */
@@ -42,17 +43,9 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-async function importDoc(doc: unknown, agent = engineer) {
-  return agent
-    .post('/api/stations/import')
-    .attach('file', stationDocumentFile(doc), 'station.tetherwise.json');
-}
-
-async function graphOf(id: number): Promise<StationGraph> {
-  const res = await engineer.get(`/api/stations/${id}/graph`);
-  expect(res.status).toBe(200);
-  return res.body;
-}
+const importDoc = (doc: unknown, agent = engineer) =>
+  postStationDocument(agent, doc, 'station.tetherwise.json');
+const graphOf = (id: number) => stationGraph(engineer, id);
 
 /** The model part of a graph, independent of row order and database ids. */
 function comparable(g: Pick<StationGraph, 'nodes' | 'edges' | 'hazards' | 'segments'>) {

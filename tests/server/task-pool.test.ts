@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { onStationChanged, type StationChange } from '../../server/modules/stations/stations.service';
-import { buildStationDocument, FIXTURE_KEYS as K, stationDocumentFile } from '../factories/station-document';
+import { buildStationDocument, FIXTURE_KEYS as K } from '../factories/station-document';
+import { postStationDocument } from '../setup/stations';
 import { makeTestApp, type TestApp } from '../setup/test-app';
 
 // Imports and socket plans on task workers (TASK_WORKERS > 0) answer exactly what the main thread does.
@@ -14,9 +15,7 @@ beforeAll(async () => {
 afterAll(() => Promise.all([pooled.close(), inline.close()]));
 
 async function importFixture(t: TestApp, doc: unknown = buildStationDocument()) {
-  return (await t.agent('engineer'))
-    .post('/api/stations/import')
-    .attach('file', stationDocumentFile(doc), 'station.json');
+  return postStationDocument(await t.agent('engineer'), doc);
 }
 
 describe('task worker pool', () => {

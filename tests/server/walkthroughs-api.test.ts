@@ -9,8 +9,9 @@ import type {
   WalkthroughDetail,
   WalkthroughSummary,
 } from '@shared/schemas/walkthrough';
-import { buildStationDocument, FIXTURE_KEYS as K, stationDocumentFile } from '../factories/station-document';
-import { makeTestApp, type TestApp } from '../setup/test-app';
+import { buildStationDocument, FIXTURE_KEYS as K } from '../factories/station-document';
+import { makeAppWithStation } from '../setup/stations';
+import type { TestApp } from '../setup/test-app';
 import { DEMO_WALKTHROUGH_PLAN, seedDemoWalkthroughs } from '../../server/db/seed/demo-walkthroughs';
 
 let t: TestApp;
@@ -40,13 +41,10 @@ const planBody = () => ({
 });
 
 beforeAll(async () => {
-  t = await makeTestApp();
-  const engineer = await t.agent('engineer');
-  const imported = await engineer
-    .post('/api/stations/import')
-    .attach('file', stationDocumentFile(doc), 'station.json');
-  expect(imported.status).toBe(201);
-  stationId = imported.body.station.id;
+  ({
+    t,
+    station: { id: stationId },
+  } = await makeAppWithStation(doc));
   const plan = await (await t.agent('planner')).post('/api/plans').send(planBody());
   expect(plan.status, JSON.stringify(plan.body)).toBe(201);
   planId = plan.body.id;
@@ -298,18 +296,13 @@ describe('walkthroughs API', () => {
   });
 
   it('seeds one walkthrough of the demo plan by the demo trainer, with notes, only when none exists', async () => {
-    const fresh = await makeTestApp();
+    const { t: fresh, station } = await makeAppWithStation(doc);
     try {
-      const imported = await (
-        await fresh.agent('engineer')
-      )
-        .post('/api/stations/import')
-        .attach('file', stationDocumentFile(doc), 'station.json');
       const plan = await (
         await fresh.agent('planner')
       )
         .post('/api/plans')
-        .send({ ...planBody(), stationId: imported.body.station.id, title: DEMO_WALKTHROUGH_PLAN });
+        .send({ ...planBody(), stationId: station.id, title: DEMO_WALKTHROUGH_PLAN });
       expect(plan.status).toBe(201);
       seedDemoWalkthroughs(fresh.ctx);
       seedDemoWalkthroughs(fresh.ctx);
