@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { computeTimeline } from '@shared/compute/day/timeline';
+import { fromWire, toWire, type WireTimeline } from '@shared/compute/day/wire';
 import { planWalkthrough, sampleTrack } from '@shared/compute/walkthrough';
 import type { DayPlan, DayRouteFn, DayRouteRequest, Timeline } from '@shared/compute/day/types';
 import { ITEM_ACTIONS, MANIFEST_KINDS } from '@shared/schemas/plan';
@@ -209,6 +210,30 @@ describe('the continuous day (fast-check, random plans on the line station)', ()
         });
       }),
       { numRuns: 150 },
+    );
+  });
+});
+
+describe('the timeline on the wire', () => {
+  it('gives back every route leg by leg (ends, kind, start along the route), to the millimetre and the hundredth second', () => {
+    fc.assert(
+      fc.property(planArb, (plan) => {
+        const t = computeTimeline(plan, station, route);
+        const back = fromWire(JSON.parse(JSON.stringify(toWire(t))) as WireTimeline);
+        expect(back.routes.length).toBe(t.routes.length);
+        back.routes.forEach((r, i) => {
+          const legs = t.routes[i].legs;
+          expect(r.legs.length).toBe(legs.length);
+          r.legs.forEach((l, k) => {
+            expect([l.from, l.to, l.kind]).toEqual([legs[k].from, legs[k].to, legs[k].kind]);
+            expect(Math.abs(l.lengthM - legs[k].lengthM)).toBeLessThanOrEqual(5e-4 + 1e-12);
+            expect(Math.abs(l.seconds - legs[k].seconds)).toBeLessThanOrEqual(5e-3 + 1e-12);
+            expect(Math.abs(l.startM - legs[k].startM)).toBeLessThanOrEqual(5e-4 * (k + 1) + 1e-9);
+          });
+        });
+        expect({ ...back, routes: [] }).toEqual({ ...t, routes: [] });
+      }),
+      { numRuns: 50 },
     );
   });
 });

@@ -2,10 +2,17 @@ import { Worker } from 'node:worker_threads';
 import { CLIP_BUILD_FREE_NODES } from '@shared/compute/routes';
 import type { RouteRequest } from '@shared/schemas/route';
 import type { StationDocument } from '@shared/schemas/station';
-import { unavailable } from '../../lib/http-error';
+import { HttpError, unavailable } from '../../lib/http-error';
 import type { Logger } from '../../lib/logger';
 import { logClipBuild } from './clip-builder';
-import { WORKER_STATIONS, type RouteMessage, type RouteWorkerData, type WorkerReply } from './route-protocol';
+import {
+  WORKER_STATIONS,
+  type DayWork,
+  type RouteMessage,
+  type RouteWorkerData,
+  type WorkerError,
+  type WorkerReply,
+} from './route-protocol';
 
 // registers tsx in the thread, then loads the entry named in argv
 const BOOT = new URL('./ts-worker-boot.mjs', import.meta.url);
@@ -18,13 +25,21 @@ const SPILL_AT = 2;
 /** A worker that stops before it has started is replaced after this long, not at once. */
 const BOOT_FAILURE_DELAY_MS = 1000;
 
-export interface RouteJob {
+interface StationJob {
   /** the station within one database: `<database>#<station id>` */
   station: string;
   version: number;
   doc: StationDocument;
+}
+
+export interface RouteJob extends StationJob {
   request: RouteRequest;
 }
+
+/** A plan's day on the station: its timeline as JSON text, or an export (CSV text, PDF bytes). */
+export interface DayJob extends StationJob, DayWork {}
+
+type Job = RouteJob | DayJob;
 
 export interface RoutePoolOptions {
   size: number;
@@ -49,8 +64,8 @@ export interface RouteWorkerStats {
 }
 
 interface Pending {
-  job: RouteJob;
-  resolve(json: string): void;
+  job: Job;
+  resolve(result: { text: string } | { bytes: Uint8Array }): void;
   reject(err: Error): void;
 }
 
@@ -69,8 +84,12 @@ interface Slot {
   respawn: NodeJS.Timeout | null;
 }
 
-/** An error thrown inside a worker, rebuilt on the main thread (the error handler logs it and sends 500). */
-function workerError(e: { name: string; message: string; stack?: string }): Error {
+/**
+ * An error thrown inside a worker, rebuilt on the main thread: an HttpError as itself, anything else
+ * as an Error (the error handler logs it and sends 500).
+ */
+function workerError(e: WorkerError): Error {
+  if (e.code) return new HttpError(e.code, e.message, e.details);
   const err = new Error(e.message);
   err.name = e.name;
   if (e.stack) err.stack = e.stack;
@@ -129,6 +148,16 @@ export class RoutePool {
 
   /** The route for `job` as the JSON text of its RouteResult. */
   async route(job: RouteJob): Promise<string> {
+    const result = await this.run(job);
+    return 'text' in result ? result.text : '';
+  }
+
+  /** A plan's day: the timeline as JSON text, or an export (CSV text, PDF bytes). */
+  day(job: DayJob): Promise<{ text: string } | { bytes: Uint8Array }> {
+    return this.run(job);
+  }
+
+  private async run(job: Job): Promise<{ text: string } | { bytes: Uint8Array }> {
     if (this.closing) throw unavailable('The server is shutting down.');
     if (!this.started) {
       this.started = true;
@@ -139,7 +168,7 @@ export class RoutePool {
     }
     const slot = this.choose(job);
     if (!slot) throw unavailable('No route worker is running. Try again in a moment.');
-    return new Promise<string>((resolve, reject) => {
+    return new Promise((resolve, reject) => {
       const id = this.nextId++;
       slot.inFlight.set(id, { job, resolve, reject });
       this.send(slot, id, job, !this.holds(slot, job));
@@ -162,11 +191,11 @@ export class RoutePool {
     await Promise.all(stopping);
   }
 
-  private holds(slot: Slot, job: RouteJob): boolean {
+  private holds(slot: Slot, job: Job): boolean {
     return slot.held.get(job.station) === job.version;
   }
 
-  private choose(job: RouteJob): Slot | null {
+  private choose(job: Job): Slot | null {
     const live = this.slots.filter((s) => s.worker !== null);
     if (live.length === 0) return null;
     const leastBusy = (list: Slot[]) => list.reduce((a, b) => (b.inFlight.size < a.inFlight.size ? b : a));
@@ -181,8 +210,13 @@ export class RoutePool {
     return leastBusy([...live.slice(start), ...live.slice(0, start)]);
   }
 
-  private send(slot: Slot, id: number, job: RouteJob, withDocument: boolean) {
-    const msg: RouteMessage = { id, station: job.station, version: job.version, request: job.request };
+  private send(slot: Slot, id: number, job: Job, withDocument: boolean) {
+    const msg: RouteMessage = {
+      id,
+      station: job.station,
+      version: job.version,
+      ...('request' in job ? { request: job.request } : { day: { plan: job.plan, output: job.output } }),
+    };
     if (withDocument) msg.doc = job.doc;
     slot.held.delete(job.station);
     slot.held.set(job.station, job.version);
@@ -229,9 +263,9 @@ export class RoutePool {
     }
     slot.inFlight.delete(reply.id);
     slot.answered++;
-    if (reply.kind === 'result') {
+    if (reply.kind === 'result' || reply.kind === 'bytes') {
       if (reply.compiled) slot.compiles++;
-      pending.resolve(reply.json);
+      pending.resolve(reply.kind === 'result' ? { text: reply.json } : { bytes: reply.bytes });
     } else {
       pending.reject(workerError(reply.error));
     }

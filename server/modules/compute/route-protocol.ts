@@ -1,6 +1,8 @@
 import type { RouteRequest } from '@shared/schemas/route';
+import type { PlanView } from '@shared/schemas/plan-views';
 import type { StationDocument } from '@shared/schemas/station';
 import type { ClipBuildEvent } from './clip-builder';
+import type { ErrorCode, ErrorDetail } from '@shared/errors';
 
 /** What a route worker starts with. */
 export interface RouteWorkerData {
@@ -11,26 +13,44 @@ export interface RouteWorkerData {
 /** Compiled stations a route worker keeps, least recently used out first (as the main-thread cache). */
 export const WORKER_STATIONS = 4;
 
+/** A plan's day to compute on the worker's station: the timeline as JSON text, or an export of it. */
+export interface DayWork {
+  plan: PlanView;
+  output: 'timeline' | 'csv' | 'pdf';
+}
+
 /**
- * Main thread → worker: one route query. `station` names the station within one database
- * (`<database>#<id>`); `doc` is sent only when the main thread believes the worker does not hold
- * `version` yet.
+ * Main thread → worker: one route query (`request`) or one plan's day (`day`). `station` names the
+ * station within one database (`<database>#<id>`); `doc` is sent only when the main thread believes
+ * the worker does not hold `version` yet.
  */
 export interface RouteMessage {
   id: number;
   station: string;
   version: number;
   doc?: StationDocument;
-  request: RouteRequest;
+  request?: RouteRequest;
+  day?: DayWork;
 }
 
 /** Worker → main thread. */
 export type WorkerReply =
   | { kind: 'ready' }
-  /** the RouteResult as JSON text: serialised here, the main thread sends it as it is */
+  /** the answer as text (JSON of a RouteResult or timeline, or CSV), sent by the main thread as it is */
   | { kind: 'result'; id: number; json: string; compiled: boolean }
+  /** a PDF export's bytes */
+  | { kind: 'bytes'; id: number; bytes: Uint8Array; compiled: boolean }
   /** the worker does not hold this version (evicted, or never sent): send the document */
   | { kind: 'need-document'; id: number }
   /** a clip graph built off the request path in this worker finished (or failed) */
   | { kind: 'clip-build'; event: ClipBuildEvent }
-  | { kind: 'error'; id: number; error: { name: string; message: string; stack?: string } };
+  | { kind: 'error'; id: number; error: WorkerError };
+
+/** An error thrown in a worker; an HttpError keeps its code and details (a 4xx stays a 4xx). */
+export interface WorkerError {
+  name: string;
+  message: string;
+  stack?: string;
+  code?: ErrorCode;
+  details?: ErrorDetail[];
+}

@@ -4,6 +4,8 @@ import { parentPort, workerData } from 'node:worker_threads';
 import { compileStation, type CompiledStation } from '@shared/compute/compiled-station';
 import type { StationDocument } from '@shared/schemas/station';
 import { configureClipBuilds, routeOffPath } from './clip-builder';
+import { HttpError } from '../../lib/http-error';
+import { dayOutputOn } from '../plans/plan-day';
 import { WORKER_STATIONS, type RouteMessage, type RouteWorkerData, type WorkerReply } from './route-protocol';
 
 if (!parentPort) throw new Error('route-worker.ts runs as a worker thread (see route-pool.ts)');
@@ -22,7 +24,7 @@ interface Held {
 // keyed by `<database>#<station id>`; one version per station
 const held = new Map<string, Held>();
 
-function answer(msg: RouteMessage): WorkerReply {
+async function answer(msg: RouteMessage): Promise<WorkerReply> {
   let entry = held.get(msg.station);
   let compiled = false;
   if (!entry || entry.version !== msg.version) {
@@ -33,19 +35,36 @@ function answer(msg: RouteMessage): WorkerReply {
   held.delete(msg.station);
   held.set(msg.station, entry);
   while (held.size > WORKER_STATIONS) held.delete(held.keys().next().value!);
-  const result = routeOffPath(entry.compiled, entry.doc, msg.request);
+  if (msg.day) {
+    const out = await dayOutputOn(entry, msg.day.plan, msg.day.output);
+    return 'text' in out
+      ? { kind: 'result', id: msg.id, json: out.text, compiled }
+      : { kind: 'bytes', id: msg.id, bytes: out.bytes, compiled };
+  }
+  const result = routeOffPath(entry.compiled, entry.doc, msg.request!);
   return { kind: 'result', id: msg.id, json: JSON.stringify(result), compiled };
 }
 
+/** An error as it crosses to the main thread; an HttpError (a 4xx the day raises) keeps its code. */
+function errorReply(id: number, err: unknown): WorkerReply {
+  const e = err instanceof Error ? err : new Error(String(err));
+  const http = err instanceof HttpError ? { code: err.code, details: err.details } : {};
+  return { kind: 'error', id, error: { name: e.name, message: e.message, stack: e.stack, ...http } };
+}
+
+// one message at a time: a day's answer is awaited (a PDF streams) before the next is taken
+let queue = Promise.resolve();
 port.on('message', (msg: RouteMessage) => {
-  let reply: WorkerReply;
-  try {
-    reply = answer(msg);
-  } catch (err) {
-    const e = err instanceof Error ? err : new Error(String(err));
-    reply = { kind: 'error', id: msg.id, error: { name: e.name, message: e.message, stack: e.stack } };
-  }
-  port.postMessage(reply);
+  queue = queue.then(async () => {
+    let reply: WorkerReply;
+    try {
+      reply = await answer(msg);
+    } catch (err) {
+      reply = errorReply(msg.id, err);
+    }
+    if (reply.kind === 'bytes') port.postMessage(reply, [reply.bytes.buffer as ArrayBuffer]);
+    else port.postMessage(reply);
+  });
 });
 
 port.postMessage({ kind: 'ready' } satisfies WorkerReply);

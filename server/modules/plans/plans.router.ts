@@ -2,7 +2,7 @@ import type { Request } from 'express';
 import { z } from 'zod';
 import type { Permission } from '@shared/auth/permissions';
 import type { AppContext } from '../../context';
-import { defineRoute, mountRoutes } from '../../lib/route';
+import { JsonText, defineRoute, mountRoutes } from '../../lib/route';
 import { IdParamsSchema } from '@shared/schemas/auth';
 import {
   CreatePlanInputSchema,
@@ -22,8 +22,8 @@ import {
   submitPlan,
   updatePlan,
 } from './plans.service';
-import { planTimeline } from './plan-timeline.service';
-import { exportFileName, timelineCsv, timelinePdf } from './plan-export.service';
+import { planDayOutput } from './plan-timeline.service';
+import { exportFileName } from './plan-export.service';
 
 const ReviewBodySchema = ReviewActionInputSchema.extend({ version: VersionSchema });
 const ReturnBodySchema = ReturnPlanInputSchema.extend({ version: VersionSchema });
@@ -112,19 +112,22 @@ export function plansRouter(ctx: AppContext) {
       path: '/:id/timeline',
       access: 'read',
       input: { params: IdParamsSchema },
-      handler: (_req, _res, { params }) => planTimeline(ctx, params.id).timeline,
+      handler: async (_req, _res, { params }) => {
+        const { result } = await planDayOutput(ctx, params.id, 'timeline');
+        return new JsonText('text' in result ? result.text : '');
+      },
     }),
     defineRoute({
       method: 'get',
       path: '/:id/export.csv',
       access: 'read',
       input: { params: IdParamsSchema },
-      handler: (_req, res, { params }) => {
-        const { plan, timeline } = planTimeline(ctx, params.id);
+      handler: async (_req, res, { params }) => {
+        const { plan, result } = await planDayOutput(ctx, params.id, 'csv');
         res
           .type('text/csv; charset=utf-8')
           .attachment(exportFileName(plan, 'csv'))
-          .send(timelineCsv(plan, timeline));
+          .send('text' in result ? result.text : '');
       },
     }),
     defineRoute({
@@ -133,8 +136,8 @@ export function plansRouter(ctx: AppContext) {
       access: 'read',
       input: { params: IdParamsSchema },
       handler: async (_req, res, { params }) => {
-        const { plan, timeline } = planTimeline(ctx, params.id);
-        const pdf = await timelinePdf(plan, timeline);
+        const { plan, result } = await planDayOutput(ctx, params.id, 'pdf');
+        const pdf = 'bytes' in result ? Buffer.from(result.bytes) : Buffer.alloc(0);
         res.type('application/pdf').attachment(exportFileName(plan, 'pdf')).send(pdf);
       },
     }),

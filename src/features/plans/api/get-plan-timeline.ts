@@ -1,10 +1,11 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import { fromWire, type WireTimeline } from '@shared/compute/day/wire';
 import { api } from '@/lib/api-client';
 import type { PlanTimeline } from '../types';
 import { planKeys } from './keys';
 
-export function getPlanTimeline(id: number): Promise<PlanTimeline> {
-  return api.get(`/plans/${id}/timeline`);
+export async function getPlanTimeline(id: number): Promise<PlanTimeline> {
+  return fromWire(await api.get<WireTimeline<PlanTimeline>>(`/plans/${id}/timeline`));
 }
 
 export const getPlanTimelineQueryOptions = (id: number) =>
