@@ -3,6 +3,7 @@ import { readStaleVersion } from '@shared/errors';
 import type { Role } from '@shared/auth/permissions';
 import { planWalkthrough, type CrewTrack } from '@shared/compute/walkthrough';
 import { fromWire } from '@shared/compute/day/wire';
+import type { PlanTimeline } from '@shared/schemas/plan-views';
 import type { Vec3 } from '@shared/schemas/station';
 import type {
   PlanPlayback,
@@ -83,7 +84,9 @@ describe('walkthroughs API', () => {
     expect(detail.changedSince).toBe(false);
 
     // the timeline as the client reads it: compact legs on the wire, metres to the mm, seconds to 0.01 s
-    const timeline = fromWire((await (await t.agent('viewer')).get(`/api/plans/${planId}/timeline`)).body);
+    const timeline = fromWire<PlanTimeline>(
+      (await (await t.agent('viewer')).get(`/api/plans/${planId}/timeline`)).body,
+    );
     const plan = (await (await t.agent('viewer')).get(`/api/plans/${planId}`)).body;
     const expected = planWalkthrough(timeline, plan.tasks, timeline.airlockKey, (k) => positions.get(k)!);
     const playback = detail.playback as PlanPlayback;
