@@ -13,6 +13,7 @@ import os from 'node:os';
 import path from 'node:path';
 import autocannon from 'autocannon';
 import { generateTrussStation } from '../shared/compute/truss-generator';
+import { MAX_TASKS } from '../shared/schemas/plan';
 import { defaultRouteWorkers } from '../server/lib/env';
 import { bigStation } from '../tests/factories/big-station';
 import { multipartBody, sampleHealthWhile, send, type HealthSample } from '../tests/setup/loopback';
@@ -161,6 +162,8 @@ interface HeavyRow {
   status: number;
   ms: number;
   health: HealthSample[];
+  /** size of the answer (bytes), where it is part of the figure */
+  bytes?: number;
 }
 
 /**
@@ -190,6 +193,7 @@ function makeHeavyInputs() {
   return {
     station: multipartBody([{ field: 'file', fileName: 'big.json', content: JSON.stringify(big.doc) }]),
     socketPlan: JSON.stringify({ targets, candidates: big.socketKeys }),
+    worksites: big.doc.nodes.filter((n) => n.kind === 'worksite').map((n) => n.key),
     csv: multipartBody([{ field: 'edges', fileName: 'edges.csv', content: rows.join('\n') }]),
     another: multipartBody([
       {
@@ -201,7 +205,24 @@ function makeHeavyInputs() {
   };
 }
 
-async function heavyOn(base: string, viewer: string, engineer: string): Promise<HeavyRow[]> {
+/** A plan of the most tasks a plan may have on the big station: crew and worksites in turn. */
+function longPlanBody(stationId: number, worksites: string[]) {
+  return JSON.stringify({
+    title: 'Long day',
+    stationId,
+    date: '2031-01-01',
+    crew: { EV1: { name: 'A', tetherLengthM: 25.9 }, EV2: { name: 'B', tetherLengthM: 25.9 } },
+    timeLimitSeconds: 24 * 3600,
+    tasks: Array.from({ length: MAX_TASKS }, (_, i) => ({
+      title: `Task ${i + 1}`,
+      worksite: worksites[(i * 7) % worksites.length],
+      crew: (['EV1', 'EV2', 'both'] as const)[i % 3],
+      durationSeconds: 120,
+    })),
+  });
+}
+
+async function heavyOn(base: string, viewer: string, engineer: string, planner: string): Promise<HeavyRow[]> {
   const inputs = heavyInputs();
   const upload = (url: string, form: { body: Buffer; contentType: string }) =>
     send(base, 'POST', url, { cookie: engineer, 'content-type': form.contentType }, form.body);
@@ -212,7 +233,7 @@ async function heavyOn(base: string, viewer: string, engineer: string): Promise<
   const rows: HeavyRow[] = [];
   const measure = async (name: string, work: () => ReturnType<typeof send>) => {
     const { result, samples, elapsedMs } = await sampleHealthWhile(base, work);
-    rows.push({ name, status: result.status, ms: elapsedMs, health: samples });
+    rows.push({ name, status: result.status, ms: elapsedMs, health: samples, bytes: result.text.length });
   };
   await measure(
     'idle (reference)',
@@ -229,6 +250,24 @@ async function heavyOn(base: string, viewer: string, engineer: string): Promise<
   );
   await measure('CSV import, 10,000 edge rows', () => upload(`/api/stations/${id}/import-csv`, inputs.csv));
   await measure('import, 100k-node station', () => upload('/api/stations/import', inputs.another));
+  const worksites = inputs.worksites;
+  const plan = await send(
+    base,
+    'POST',
+    '/api/plans',
+    { cookie: planner, 'content-type': 'application/json' },
+    longPlanBody(id, worksites),
+  );
+  if (plan.status !== 201) throw new Error(`the long plan: ${plan.status} ${plan.text}`);
+  const planId = (plan.body as { id: number }).id;
+  const get = (suffix: string) => send(base, 'GET', `/api/plans/${planId}/${suffix}`, { cookie: viewer }, '');
+  await measure(`timeline, ${MAX_TASKS}-task plan`, () => get('timeline'));
+  await measure(`CSV, ${MAX_TASKS}-task plan`, () => get('export.csv'));
+  await measure(`PDF, ${MAX_TASKS}-task plan`, () => get('export.pdf'));
+  await measure('timeline + CSV + PDF at once', async () => {
+    const answers = await Promise.all([get('timeline'), get('export.csv'), get('export.pdf')]);
+    return answers.find((a) => a.status !== 200) ?? answers[0];
+  });
   return rows;
 }
 
@@ -336,7 +375,7 @@ async function prepare(routeWorkers: number): Promise<Target> {
       server,
       scenarios,
       soak: () => cannon({ ...routeOpts(bigId, bigBodies), duration: SOAK_SECONDS }),
-      heavy: () => heavyOn(base, viewer, engineer),
+      heavy: () => heavyOn(base, viewer, engineer, planner),
     };
   } catch (err) {
     await server.stop();
@@ -414,7 +453,7 @@ function printHeavy(main: Measured, pool: Measured) {
   );
   const cols = ['time', 'health n', 'p50', 'p99', 'max'];
   console.log(
-    'request'.padEnd(32),
+    'request'.padEnd(44),
     ...cols.map((c) => c.padStart(9)),
     '│',
     ...cols.map((c) => c.padStart(9)),
@@ -435,7 +474,9 @@ function printHeavy(main: Measured, pool: Measured) {
     const b = pool.heavy[i];
     const maxOf = (r: HeavyRow) => Math.max(...r.health.map((h) => h.wallMs));
     console.log(
-      `${a.name}${a.status >= 300 || b.status >= 300 ? ` (${a.status}/${b.status})` : ''}`.padEnd(32),
+      `${a.name}${a.bytes && a.bytes > 100_000 ? `, ${(a.bytes / 1e6).toFixed(2)} MB` : ''}${a.status >= 300 || b.status >= 300 ? ` (${a.status}/${b.status})` : ''}`.padEnd(
+        44,
+      ),
       ...cells(a),
       '│',
       ...cells(b),
