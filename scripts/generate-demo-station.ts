@@ -256,6 +256,7 @@ function build(): StationDocument {
     nodes,
     edges,
     hazards,
+    arms: [],
   };
 }
 

@@ -67,6 +67,8 @@ export const stations = sqliteTable('stations', {
   betaDeg: real('beta_deg').notNull(),
   /** the station document's `settings` object, JSON (tether, speeds, overheads, reach) */
   settingsJson: text('settings_json').notNull(),
+  /** the station document's `arms` list, JSON (robotic arms that position a crew member) */
+  armsJson: text('arms_json').notNull().default('[]'),
   createdBy: integer('created_by').references(() => users.id, { onDelete: 'set null' }),
   updatedBy: integer('updated_by').references(() => users.id, { onDelete: 'set null' }),
   ...timestamps,
@@ -320,6 +322,8 @@ export const tasks = sqliteTable(
     toolsJson: text('tools_json').notNull().default('[]'),
     /** item actions `[{ do, item, by?, at? }]`, JSON */
     actionsJson: text('actions_json').notNull().default('[]'),
+    /** done from an arm's foot restraint: `{ key, ingress, egress?, rider? }`, JSON */
+    armJson: text('arm_json'),
     notes: text('notes'),
   },
   (t) => [index('tasks_plan_idx').on(t.planId)],

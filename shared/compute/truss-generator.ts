@@ -172,5 +172,6 @@ export function generateTrussStation({ nodes: wanted, seed }: TrussOptions): Sta
     nodes,
     edges,
     hazards,
+    arms: [],
   };
 }

@@ -92,6 +92,23 @@ export type ItemAction = z.infer<typeof ItemActionSchema>;
 export const TaskSocketsSchema = z.strictObject({ EV1: KeySchema.optional(), EV2: KeySchema.optional() });
 export type TaskSockets = z.infer<typeof TaskSocketsSchema>;
 
+/**
+ * A task done from the foot restraint on an arm's end: the crew member boards at `ingress`, the arm
+ * moves its tip to the worksite, and brings them back to `egress` (default: `ingress`) where they
+ * clip back to the station. In a task for both, `rider` says who is on the arm (default EV1); the
+ * partner works from handrails or their own socket.
+ */
+export const TaskArmSchema = z.strictObject({
+  /** the station's arm */
+  key: KeySchema,
+  /** node where the rider gets onto the arm */
+  ingress: KeySchema,
+  /** node where the rider gets off (an attach point, to clip back to the station) */
+  egress: KeySchema.optional(),
+  rider: CrewMemberSchema.optional(),
+});
+export type TaskArm = z.infer<typeof TaskArmSchema>;
+
 export const TaskSchema = z.strictObject({
   id: IdSchema.optional(),
   title: text('title', 200),
@@ -119,6 +136,8 @@ export const TaskSchema = z.strictObject({
     .array(ItemActionSchema)
     .max(MAX_ACTIONS_PER_TASK, `at most ${MAX_ACTIONS_PER_TASK} item actions per task`)
     .default([]),
+  /** done from an arm's foot restraint */
+  arm: TaskArmSchema.optional(),
   notes: notes.optional(),
 });
 export type Task = z.infer<typeof TaskSchema>;
@@ -208,7 +227,7 @@ export interface PlanProblem {
  * restraints and anchors. Station rules (which nodes exist) are checked against the station elsewhere.
  */
 export function planReferenceProblems(
-  tasks: readonly Pick<Task, 'crew' | 'socket' | 'sockets' | 'actions'>[],
+  tasks: readonly (Pick<Task, 'crew' | 'socket' | 'sockets' | 'actions'> & { arm?: Task['arm'] })[],
   manifest: readonly Pick<ManifestItem, 'key' | 'name' | 'kind' | 'installedAt' | 'startsAt' | 'endsAt'>[],
 ): PlanProblem[] {
   const problems: PlanProblem[] = [];
@@ -248,6 +267,23 @@ export function planReferenceProblems(
       problems.push({
         path: ['tasks', i, 'sockets'],
         message: `\`sockets\` is for a task for both; a task for ${t.crew} names its restraint in \`socket\``,
+      });
+    }
+    if (t.arm?.rider !== undefined && !both && t.arm.rider !== t.crew) {
+      problems.push({
+        path: ['tasks', i, 'arm', 'rider'],
+        message: `${t.arm.rider} does not do this task (it is for ${t.crew})`,
+      });
+    }
+    const rider: CrewMember | undefined = !t.arm
+      ? undefined
+      : t.crew === 'both'
+        ? (t.arm.rider ?? 'EV1')
+        : t.crew;
+    if (rider !== undefined && (both ? t.sockets?.[rider] : t.socket) !== undefined) {
+      problems.push({
+        path: both ? ['tasks', i, 'sockets', rider] : ['tasks', i, 'socket'],
+        message: `${rider} works from the arm's foot restraint in this task, not from a socket`,
       });
     }
     if (both && t.sockets?.EV1 !== undefined && t.sockets.EV1 === t.sockets.EV2) {

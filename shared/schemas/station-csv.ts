@@ -1,8 +1,10 @@
 import Papa from 'papaparse';
 import {
+  ArmSchema,
   edgePairKey,
   EdgeSchema,
   NodeSchema,
+  type Arm,
   type DocumentProblem,
   type StationDocument,
   type StationEdge,
@@ -10,13 +12,26 @@ import {
 } from './station';
 
 /**
- * CSV tables of nodes and edges, merged into an existing station: nodes are upserted by key, edges
- * by their two ends and kind (either direction). Every problem names the file, line and column,
+ * CSV tables of nodes, edges and arms, merged into an existing station: nodes and arms are upserted
+ * by key, edges by their two ends and kind (either direction). Every problem names the file, line and column,
  * e.g. `nodes.csv line 7, column x: must be a finite number`. The header is line 1.
  */
 export const NODE_COLUMNS = ['key', 'kind', 'label', 'x', 'y', 'z', 'nx', 'ny', 'nz', 'notes'] as const;
 export const EDGE_COLUMNS = ['from', 'to', 'kind', 'lengthM', 'closed'] as const;
-const REQUIRED = { nodes: ['key', 'kind', 'x', 'y', 'z'], edges: ['from', 'to', 'kind'] } as const;
+export const ARM_COLUMNS = [
+  'key',
+  'label',
+  'baseNode',
+  'reachM',
+  'minReachM',
+  'tipSpeedMps',
+  'settleSeconds',
+] as const;
+const REQUIRED = {
+  nodes: ['key', 'kind', 'x', 'y', 'z'],
+  edges: ['from', 'to', 'kind'],
+  arms: ['key', 'baseNode', 'reachM', 'tipSpeedMps', 'settleSeconds'],
+} as const;
 
 export interface CsvRow<T> {
   line: number;
@@ -216,6 +231,55 @@ export function parseEdgesCsv(
   return { rows, problems };
 }
 
+/** Arms by key, one a row; the base node is checked against the merged model. */
+export function parseArmsCsv(
+  text: string,
+  file = 'arms.csv',
+): { rows: CsvRow<Arm>[]; problems: DocumentProblem[] } {
+  const problems: DocumentProblem[] = [];
+  const table = readTable(text, file, ARM_COLUMNS, REQUIRED.arms, problems);
+  const rows: CsvRow<Arm>[] = [];
+  if (!table) return { rows, problems };
+  for (const { line, cells } of table.rows) {
+    const before = problems.length;
+    const n = (c: string) => number(cells, c, file, line, problems);
+    const [reachM, minReachM, tipSpeedMps, settleSeconds] = [
+      'reachM',
+      'minReachM',
+      'tipSpeedMps',
+      'settleSeconds',
+    ].map(n);
+    for (const c of REQUIRED.arms)
+      if (cells[c] === '') problems.push({ path: where(file, line, c), message: 'required' });
+    if (problems.length > before) continue;
+    const candidate = {
+      key: cells.key,
+      ...(cells.label ? { label: cells.label } : {}),
+      baseNode: cells.baseNode,
+      reachM,
+      ...(minReachM !== undefined ? { minReachM } : {}),
+      tipSpeedMps,
+      settleSeconds,
+    };
+    const parsed = ArmSchema.safeParse(candidate);
+    if (!parsed.success) {
+      for (const issue of parsed.error.issues)
+        problems.push({ path: where(file, line, String(issue.path[0] ?? 'key')), message: issue.message });
+      continue;
+    }
+    rows.push({ line, value: parsed.data });
+  }
+  return { rows, problems };
+}
+
+/** An arms table for export: the same columns the import reads. */
+export function armsToCsv(arms: readonly Arm[]): string {
+  return Papa.unparse({
+    fields: [...ARM_COLUMNS],
+    data: arms.map((a) => ARM_COLUMNS.map((c) => (a[c] === undefined ? '' : String(a[c])))),
+  });
+}
+
 /**
  * Merges parsed CSV rows into a document: a node row replaces the node with its key (or is added),
  * an edge row replaces the edge of the same kind between the same two nodes (or is added). Also
@@ -226,7 +290,8 @@ export function mergeCsvIntoDocument(
   doc: StationDocument,
   nodeRows: CsvRow<StationNode>[],
   edgeRows: CsvRow<StationEdge>[],
-  files = { nodes: 'nodes.csv', edges: 'edges.csv' },
+  files: { nodes: string; edges: string; arms?: string } = { nodes: 'nodes.csv', edges: 'edges.csv' },
+  armRows: CsvRow<Arm>[] = [],
 ): {
   doc: StationDocument;
   problems: DocumentProblem[];
@@ -298,5 +363,29 @@ export function mergeCsvIntoDocument(
       updated.edges++;
     }
   }
-  return { doc: { ...doc, nodes: nodesOut, edges: edgesOut }, problems, added, updated };
+  const armsOut = [...doc.arms];
+  const armFile = files.arms ?? 'arms.csv';
+  const csvArms = new Map<string, number>();
+  for (const { line, value } of armRows) {
+    const first = csvArms.get(value.key);
+    if (first !== undefined) {
+      problems.push({
+        path: where(armFile, line, 'key'),
+        message: `arm "${value.key}" already appears on line ${first}`,
+      });
+      continue;
+    }
+    csvArms.set(value.key, line);
+    if (!nodeIndex.has(value.baseNode)) {
+      problems.push({
+        path: where(armFile, line, 'baseNode'),
+        message: `unknown node key "${value.baseNode}"`,
+      });
+      continue;
+    }
+    const at = armsOut.findIndex((a) => a.key === value.key);
+    if (at < 0) armsOut.push(value);
+    else armsOut[at] = value;
+  }
+  return { doc: { ...doc, nodes: nodesOut, edges: edgesOut, arms: armsOut }, problems, added, updated };
 }

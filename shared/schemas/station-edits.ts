@@ -1,11 +1,13 @@
 import { z } from 'zod';
 import {
+  ArmSchema,
   EdgeKindSchema,
   EdgeSchema,
   FiniteSchema,
   HazardKindSchema,
   HazardSchema,
   KeySchema,
+  MAX_ARMS,
   NodeKindSchema,
   NodeSchema,
   OrbitSettingsSchema,
@@ -13,6 +15,7 @@ import {
   SegmentSchema,
   SegmentSizeSchema,
   Vec3Schema,
+  type Arm,
   type Hazard,
   type OrbitSettings,
   type Segment,
@@ -144,6 +147,8 @@ export const UpdateStationInputSchema = z.strictObject({
         .optional(),
     })
     .optional(),
+  /** the station's arms, replaced as a whole list (each base must be a node of the station) */
+  arms: z.array(ArmSchema).max(MAX_ARMS, `at most ${MAX_ARMS} arms`).optional(),
 });
 export type UpdateStationInput = z.infer<typeof UpdateStationInputSchema>;
 
@@ -242,6 +247,7 @@ export interface StationGraph {
   nodes: StationNode[];
   edges: GraphEdge[];
   hazards: Hazard[];
+  arms: Arm[];
 }
 
 export interface StationAuditEntry {

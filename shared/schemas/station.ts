@@ -201,6 +201,39 @@ export const HazardSchema = z.discriminatedUnion('shape', [
 ]);
 export type Hazard = z.infer<typeof HazardSchema>;
 
+/**
+ * Planning defaults for a robotic arm carrying a crew member in a foot restraint on its end, from
+ * memory (CHECKS.md: the station's main arm is about 17.6 m long; its tip speed with a person on it
+ * and its settle time are not published figures).
+ */
+export const DEFAULT_ARM = { reachM: 17.6, minReachM: 1, tipSpeedMps: 0.05, settleSeconds: 60 } as const;
+export const MAX_ARMS = 20;
+
+/**
+ * A robotic arm that positions a crew member: fixed at `baseNode`, its tip reaches the shell
+ * `minReachM ≤ |p − base| ≤ reachM` and moves in straight lines at `tipSpeedMps`, then settles.
+ */
+export const ArmSchema = z
+  .object({
+    key: KeySchema,
+    label: z.string().max(200).optional(),
+    baseNode: KeySchema,
+    reachM: positive('reach'),
+    minReachM: nonNegative('minimum reach').optional(),
+    tipSpeedMps: positive('tip speed'),
+    settleSeconds: nonNegative('settle time'),
+  })
+  .superRefine((a, ctx) => {
+    if (a.minReachM !== undefined && !(a.minReachM < a.reachM)) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['minReachM'],
+        message: `minimum reach must be below the reach (${a.reachM} m)`,
+      });
+    }
+  });
+export type Arm = z.infer<typeof ArmSchema>;
+
 export const StationDocumentSchema = z.object({
   format: z.literal('tetherwise.station'),
   version: z.literal(1),
@@ -211,6 +244,7 @@ export const StationDocumentSchema = z.object({
   nodes: z.array(NodeSchema).max(200000),
   edges: z.array(EdgeSchema).max(400000),
   hazards: z.array(HazardSchema).max(1000).default([]),
+  arms: z.array(ArmSchema).max(MAX_ARMS, `at most ${MAX_ARMS} arms`).default([]),
 });
 export type StationDocument = z.infer<typeof StationDocumentSchema>;
 export type StationDocumentInput = z.input<typeof StationDocumentSchema>;
@@ -261,6 +295,7 @@ export function checkStationGraphRules(doc: StationDocument): DocumentProblem[] 
       });
     } else hazKeys.set(h.key, i);
   });
+  problems.push(...armProblems(doc.arms, (key) => seen.has(key)));
   const pairs = new Map<string, number>();
   doc.edges.forEach((e, i) => {
     if (!seen.has(e.from))
@@ -276,6 +311,36 @@ export function checkStationGraphRules(doc: StationDocument): DocumentProblem[] 
         message: `duplicate ${e.kind} edge between "${e.from}" and "${e.to}" (first at edges[${first}])`,
       });
     } else pairs.set(pair, i);
+  });
+  return problems;
+}
+
+/**
+ * An arm's rules against the station: keys unique among arms and apart from node keys (a foot
+ * restraint installed "at" an arm's key is on its end), and a base that is a node of the station.
+ */
+export function armProblems(
+  arms: readonly Pick<Arm, 'key' | 'baseNode'>[],
+  isNode: (key: string) => boolean,
+  prefix = 'arms',
+): DocumentProblem[] {
+  const problems: DocumentProblem[] = [];
+  const first = new Map<string, number>();
+  arms.forEach((a, i) => {
+    const at = first.get(a.key);
+    if (at !== undefined)
+      problems.push({
+        path: `${prefix}[${i}].key`,
+        message: `duplicate arm key "${a.key}" (first at arms[${at}])`,
+      });
+    else first.set(a.key, i);
+    if (isNode(a.key))
+      problems.push({
+        path: `${prefix}[${i}].key`,
+        message: `"${a.key}" is already a node key; an arm needs a key of its own`,
+      });
+    if (!isNode(a.baseNode))
+      problems.push({ path: `${prefix}[${i}].baseNode`, message: `unknown node key "${a.baseNode}"` });
   });
   return problems;
 }

@@ -40,6 +40,7 @@ function graphAt(version: number): StationGraph {
     segments: doc.segments,
     nodes: doc.nodes,
     hazards: doc.hazards,
+    arms: doc.arms,
     edges: doc.edges.map((e, i) => {
       const [a, b] = [pos.get(e.from)!, pos.get(e.to)!];
       return {

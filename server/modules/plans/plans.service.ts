@@ -165,6 +165,7 @@ export function getPlan(db: Db, id: number): PlanView {
       ...(t.socketsJson ? { sockets: JSON.parse(t.socketsJson) as Task['sockets'] } : {}),
       tools: JSON.parse(t.toolsJson) as string[],
       actions: JSON.parse(t.actionsJson) as Task['actions'],
+      ...(t.armJson ? { arm: JSON.parse(t.armJson) as NonNullable<Task['arm']> } : {}),
       ...(t.notes ? { notes: t.notes } : {}),
     })),
     manifest: itemRows.map((m): ManifestItem & { key: string } => ({
@@ -197,18 +198,22 @@ export function getPlan(db: Db, id: number): PlanView {
 /**
  * Worksites, sockets and item places the plan names must be nodes of the right kind on the plan's
  * station: a task's worksite a worksite, its sockets sockets, where an item starts or an action
- * happens any node (or `airlock`), where a foot restraint starts installed a socket.
+ * happens any node (or `airlock`), where a foot restraint starts installed a socket. An arm's key
+ * counts as a place for a foot restraint (installed on its end); a task's arm must be an arm of the
+ * station and its ingress and egress nodes.
  */
 export function checkTaskKeys(
   doc: StationDocument,
-  planTasks: readonly Pick<Task, 'worksite' | 'socket' | 'sockets' | 'actions'>[],
+  planTasks: readonly Pick<Task, 'worksite' | 'socket' | 'sockets' | 'actions' | 'arm'>[],
   manifest: readonly Pick<ManifestItem, 'kind' | 'startsAt' | 'installedAt'>[] = [],
 ): ErrorDetail[] {
   const kindOf = new Map(doc.nodes.map((n) => [n.key, n.kind]));
   const details: ErrorDetail[] = [];
+  const armKeys = new Set(doc.arms.map((a) => a.key));
   const check = (key: string, wanted: 'worksite' | 'socket' | 'node', path: (string | number)[]) => {
     const kind = key === AIRLOCK_LOCATION && wanted === 'node' ? 'airlock' : kindOf.get(key);
     const at = `body.${formatIssuePath(path)}`;
+    if (kind === undefined && wanted !== 'worksite' && armKeys.has(key)) return;
     if (kind === undefined)
       details.push({ path: at, message: `the station "${doc.name}" has no node "${key}"` });
     else if (wanted !== 'node' && kind !== wanted)
@@ -224,6 +229,21 @@ export function checkTaskKeys(
     t.actions.forEach((a, j) => {
       if (a.at) check(a.at, 'node', ['tasks', i, 'actions', j, 'at']);
     });
+    if (t.arm) {
+      if (!armKeys.has(t.arm.key))
+        details.push({
+          path: `body.tasks[${i}].arm.key`,
+          message: `the station "${doc.name}" has no arm "${t.arm.key}"${armKeys.size ? ` (its arms: ${[...armKeys].join(', ')})` : ''}`,
+        });
+      for (const end of ['ingress', 'egress'] as const) {
+        const key = t.arm[end];
+        if (key !== undefined && !kindOf.has(key))
+          details.push({
+            path: `body.tasks[${i}].arm.${end}`,
+            message: `the station "${doc.name}" has no node "${key}"`,
+          });
+      }
+    }
   });
   manifest.forEach((m, i) => {
     if (m.installedAt)
@@ -281,6 +301,7 @@ function writeTasks(db: Db, planId: number, list: readonly Task[]) {
         socketsJson: t.sockets ? JSON.stringify(t.sockets) : null,
         toolsJson: JSON.stringify(t.tools),
         actionsJson: JSON.stringify(t.actions),
+        armJson: t.arm ? JSON.stringify(t.arm) : null,
         notes: t.notes ?? null,
       })
       .run(),

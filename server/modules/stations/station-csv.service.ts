@@ -1,8 +1,13 @@
 import { and, eq } from 'drizzle-orm';
-import { edges, nodes } from '../../db/schema';
+import { edges, nodes, stations } from '../../db/schema';
 import { badRequest } from '../../lib/http-error';
 import { edgePairKey, parseStationDocument, type DocumentProblem } from '@shared/schemas/station';
-import { mergeCsvIntoDocument, parseEdgesCsv, parseNodesCsv } from '@shared/schemas/station-csv';
+import {
+  mergeCsvIntoDocument,
+  parseArmsCsv,
+  parseEdgesCsv,
+  parseNodesCsv,
+} from '@shared/schemas/station-csv';
 import {
   changeSince,
   edgeToRow,
@@ -18,6 +23,7 @@ import {
 export interface CsvFiles {
   nodes?: { text: string; name: string };
   edges?: { text: string; name: string };
+  arms?: { text: string; name: string };
 }
 
 /**
@@ -25,18 +31,29 @@ export interface CsvFiles {
  * nothing: any problem in either file, or in the merged model, and nothing is written.
  */
 export function importStationCsv(ctx: DbContext, req: WriteRequest, files: CsvFiles) {
-  if (!files.nodes && !files.edges) {
-    throw badRequest('Attach a nodes file, an edges file or both (multipart fields "nodes" and "edges").');
+  if (!files.nodes && !files.edges && !files.arms) {
+    throw badRequest(
+      'Attach a nodes file, an edges file, an arms file or several (multipart fields "nodes", "edges" and "arms").',
+    );
   }
-  const names = { nodes: files.nodes?.name ?? 'nodes.csv', edges: files.edges?.name ?? 'edges.csv' };
+  const names = {
+    nodes: files.nodes?.name ?? 'nodes.csv',
+    edges: files.edges?.name ?? 'edges.csv',
+    arms: files.arms?.name ?? 'arms.csv',
+  };
   const parsedNodes = files.nodes ? parseNodesCsv(files.nodes.text, names.nodes) : { rows: [], problems: [] };
   const parsedEdges = files.edges ? parseEdgesCsv(files.edges.text, names.edges) : { rows: [], problems: [] };
-  const fileProblems: DocumentProblem[] = [...parsedNodes.problems, ...parsedEdges.problems];
+  const parsedArms = files.arms ? parseArmsCsv(files.arms.text, names.arms) : { rows: [], problems: [] };
+  const fileProblems: DocumentProblem[] = [
+    ...parsedNodes.problems,
+    ...parsedEdges.problems,
+    ...parsedArms.problems,
+  ];
   if (fileProblems.length) throw problemsError('The CSV import has problems', fileProblems);
 
   const written = writeStation(ctx, req, (tx, row) => {
     const current = loadDocument(tx, row);
-    const merged = mergeCsvIntoDocument(current, parsedNodes.rows, parsedEdges.rows, names);
+    const merged = mergeCsvIntoDocument(current, parsedNodes.rows, parsedEdges.rows, names, parsedArms.rows);
     if (merged.problems.length) throw problemsError('The CSV import has problems', merged.problems);
     const checked = parseStationDocument(merged.doc);
     if (!checked.ok) throw problemsError('The merged station model is not valid', checked.problems);
@@ -75,10 +92,15 @@ export function importStationCsv(ctx: DbContext, req: WriteRequest, files: CsvFi
           .values(edgeToRow(row.id, value, edgeOrd++))
           .run();
     }
+    if (parsedArms.rows.length)
+      tx.update(stations)
+        .set({ armsJson: JSON.stringify(merged.doc.arms) })
+        .where(eq(stations.id, row.id))
+        .run();
     const counts = { added: merged.added, updated: merged.updated };
     return {
       action: 'station.import-csv',
-      target: [files.nodes?.name, files.edges?.name].filter(Boolean).join(', '),
+      target: [files.nodes?.name, files.edges?.name, files.arms?.name].filter(Boolean).join(', '),
       before: undefined,
       after: counts,
       summary: `imported CSV (${merged.added.nodes} nodes added, ${merged.updated.nodes} updated; ${merged.added.edges} edges added, ${merged.updated.edges} updated)`,

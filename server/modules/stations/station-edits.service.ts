@@ -6,6 +6,7 @@ import { badRequest, conflict, notFound } from '../../lib/http-error';
 import { zodDetails } from '../../middleware/validate';
 import { edgeId as edgeIdOf, sameValue } from '@shared/compute/station-changes';
 import {
+  armProblems,
   EdgeSchema,
   HazardSchema,
   NodeSchema,
@@ -32,6 +33,7 @@ import {
   type UpdateStationInput,
 } from '@shared/schemas/station-edits';
 import {
+  armsOf,
   edgeFromRow,
   edgeToRow,
   getStation,
@@ -190,8 +192,13 @@ export function updateNode(
 
 /** Deleting a node deletes the edges that touch it; the audit row lists them. */
 export function deleteNode(ctx: AppContext, stationId: number, key: string, version: number, editor: Editor) {
-  return writeStation(ctx, { stationId, expectedVersion: version, editor }, (tx) => {
+  return writeStation(ctx, { stationId, expectedVersion: version, editor }, (tx, station) => {
     const row = requireNode(tx, stationId, key);
+    const bases = armsOf(station).filter((a) => a.baseNode === key);
+    if (bases.length)
+      throw conflict(
+        `Node "${key}" is the base of arm${bases.length > 1 ? 's' : ''} ${bases.map((a) => a.key).join(', ')}: move or remove the arm first.`,
+      );
     const touching = and(eq(edges.stationId, stationId), or(eq(edges.fromKey, key), eq(edges.toKey, key)));
     const removedEdges = tx.select().from(edges).where(touching).all().map(edgeFromRow);
     tx.delete(edges).where(touching).run();
@@ -477,20 +484,28 @@ export function updateStation(ctx: AppContext, stationId: number, input: UpdateS
       'body.settings',
     );
     const name = input.name ?? row.name;
+    const beforeArms = armsOf(row);
+    const arms = input.arms ?? beforeArms;
+    if (input.arms) {
+      const problems = armProblems(input.arms, (k) => findNode(tx, stationId, k) !== undefined, 'body.arms');
+      if (problems.length)
+        throw badRequest(`The change is not valid: ${problems[0].path} ${problems[0].message}`, problems);
+    }
     tx.update(stations)
       .set({
         name,
         altitudeKm: orbit.altitudeKm,
         betaDeg: orbit.betaDeg,
         settingsJson: JSON.stringify(settings),
+        armsJson: JSON.stringify(arms),
       })
       .where(eq(stations.id, row.id))
       .run();
     return {
       action: 'station.update',
       target: name,
-      before: { name: row.name, orbit: beforeOrbit, settings: beforeSettings },
-      after: { name, orbit, settings },
+      before: { name: row.name, orbit: beforeOrbit, settings: beforeSettings, arms: beforeArms },
+      after: { name, orbit, settings, arms },
       summary: 'changed the station settings',
       result: {},
       change: {

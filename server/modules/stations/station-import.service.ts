@@ -51,12 +51,17 @@ export async function replaceDocumentJob(db: Db, job: ReplaceDocumentJob): Promi
 export interface ImportCsvJob {
   nodes?: UploadedFile;
   edges?: UploadedFile;
+  arms?: UploadedFile;
   request: WriteRequest;
 }
 
 export async function importCsvJob(db: Db, job: ImportCsvJob) {
   const read = async (file: UploadedFile | undefined, what: string) =>
     file ? { name: file.name, text: await textOf(file, what) } : undefined;
-  const files = { nodes: await read(job.nodes, 'nodes CSV'), edges: await read(job.edges, 'edges CSV') };
+  const files = {
+    nodes: await read(job.nodes, 'nodes CSV'),
+    edges: await read(job.edges, 'edges CSV'),
+    arms: await read(job.arms, 'arms CSV'),
+  };
   return importStationCsv({ db }, job.request, files);
 }

@@ -118,7 +118,7 @@ function itemRoutes<
 
 export function stationsRouter(ctx: AppContext) {
   const documentUpload = diskUpload(STATION_FILE_MAX_BYTES, [{ name: 'file' }]);
-  const csvUpload = diskUpload(CSV_FILE_MAX_BYTES, [{ name: 'nodes' }, { name: 'edges' }]);
+  const csvUpload = diskUpload(CSV_FILE_MAX_BYTES, [{ name: 'nodes' }, { name: 'edges' }, { name: 'arms' }]);
   const idParams = { params: StationIdParamsSchema };
 
   return mountRoutes('/api/stations', [
@@ -172,6 +172,7 @@ export function stationsRouter(ctx: AppContext) {
         runTask(ctx, 'station-csv', {
           nodes: storedFile(req, 'nodes'),
           edges: storedFile(req, 'edges'),
+          arms: storedFile(req, 'arms'),
           request: {
             stationId: params.id,
             expectedVersion: body.version ?? query.version,

@@ -29,6 +29,7 @@ import {
 import {
   StationSettingsSchema,
   parseStationDocument,
+  type Arm,
   type DocumentProblem,
   type Hazard,
   type Segment,
@@ -290,7 +291,13 @@ export function loadDocument(db: Tx, row: StationRow): StationDocument {
     nodes: rows.nodes.map(nodeFromRow),
     edges: rows.edges.map(edgeFromRow),
     hazards: rows.hazards.map(hazardFromRow),
+    arms: armsOf(row),
   };
+}
+
+/** The station's arms as stored (checked against the document rules whenever they were written). */
+export function armsOf(row: Pick<StationRow, 'armsJson'>): Arm[] {
+  return JSON.parse(row.armsJson) as Arm[];
 }
 
 /** The full, parsed station document, for computations that compile the graph (e.g. routes). */
@@ -337,6 +344,7 @@ export function getStationGraph(db: Db, id: number): StationGraph {
       nodes: rows.nodes.map(nodeFromRow),
       edges: rows.edges.map(edgeFromRow),
       hazards: rows.hazards.map(hazardFromRow),
+      arms: armsOf(row),
     };
     return graphOf(
       row,
@@ -663,6 +671,7 @@ export function importStation(
         altitudeKm: doc.orbit.altitudeKm,
         betaDeg: doc.orbit.betaDeg,
         settingsJson: JSON.stringify(doc.settings),
+        armsJson: JSON.stringify(doc.arms),
         createdBy: editor?.id ?? null,
         updatedBy: editor?.id ?? null,
       })
@@ -702,7 +711,7 @@ export function importStation(
 }
 
 /**
- * Replaces a station's whole model (name, orbit, settings, segments, nodes, edges, hazards) with a
+ * Replaces a station's whole model (name, orbit, settings, segments, nodes, edges, hazards, arms) with a
  * checked document. Annotations, plans and the audit log stay: they belong to the station, not to
  * one model version. With no `expectedVersion` the latest version is replaced.
  */
@@ -721,6 +730,7 @@ export function replaceStationModel(
         altitudeKm: doc.orbit.altitudeKm,
         betaDeg: doc.orbit.betaDeg,
         settingsJson: JSON.stringify(doc.settings),
+        armsJson: JSON.stringify(doc.arms),
       })
       .where(eq(stations.id, row.id))
       .run();
