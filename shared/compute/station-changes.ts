@@ -1,4 +1,5 @@
 import type {
+  Arm,
   Hazard,
   OrbitSettings,
   Segment,
@@ -12,7 +13,7 @@ import type {
  * What one write changed in a station model, so that every version can be rebuilt from the first by
  * applying the changes in order, and nothing is ever overwritten in place.
  *
- * Items are named by their identity: a node, hazard or segment by its key, an edge by its two ends
+ * Items are named by their identity: a node, hazard, segment or arm by its key, an edge by its two ends
  * (in either order) and its kind, which a station never repeats. Within a collection the order is
  * kept: `removed` drops items, `changed` replaces items in place (same identity), `replaced`
  * replaces the item of an identity in place with one of another identity (an edge given new ends),
@@ -34,9 +35,10 @@ export interface StationChange {
   nodes?: CollectionChange<StationNode>;
   edges?: CollectionChange<StationEdge>;
   hazards?: CollectionChange<Hazard>;
+  arms?: CollectionChange<Arm>;
 }
 
-export const COLLECTIONS = ['segments', 'nodes', 'edges', 'hazards'] as const;
+export const COLLECTIONS = ['segments', 'nodes', 'edges', 'hazards', 'arms'] as const;
 export type Collection = (typeof COLLECTIONS)[number];
 
 /** An edge's identity: its two ends in key order and its kind (`A|B|handrail`). */
@@ -52,6 +54,7 @@ export const IDENTITY: { [C in Collection]: (item: StationDocument[C][number]) =
   nodes: keyOf,
   edges: (e) => edgeId(e as StationEdge),
   hazards: keyOf,
+  arms: keyOf,
 };
 
 /** The document before the first version: a station with nothing in it. */
@@ -66,6 +69,7 @@ export function emptyStationDocument(): StationDocument {
     nodes: [],
     edges: [],
     hazards: [],
+    arms: [],
   };
 }
 
@@ -123,9 +127,11 @@ export function applyStationChange(doc: StationDocument, change: StationChange):
   for (const c of COLLECTIONS) {
     const part = change[c];
     const id = IDENTITY[c] as (item: unknown) => string;
+    // documents kept from before stations had arms have no `arms` list
+    const items = (doc[c] as unknown[] | undefined) ?? [];
     (next as unknown as Record<Collection, unknown[]>)[c] = part
-      ? applyCollection(doc[c] as unknown[], part as CollectionChange<unknown>, id)
-      : (doc[c] as unknown[]).map((x) => structuredClone(x));
+      ? applyCollection(items, part as CollectionChange<unknown>, id)
+      : items.map((x) => structuredClone(x));
   }
   return next;
 }
@@ -208,6 +214,7 @@ export function summarizeStationChange(change: StationChange): string[] {
     nodes: ['node', 'nodes'],
     edges: ['edge', 'edges'],
     hazards: ['hazard', 'hazards'],
+    arms: ['arm', 'arms'],
   };
   for (const c of COLLECTIONS) {
     const p = change[c] as CollectionChange<unknown> | undefined;

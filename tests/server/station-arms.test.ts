@@ -75,6 +75,8 @@ describe('station arms', () => {
     const ok = await engineer.patch(`/api/stations/${id}`).send({ version: 1, arms: [moved] });
     expect(ok.status).toBe(200);
     expect((await graph(id)).arms).toEqual([moved]);
+    // the version before keeps its arms
+    expect((await engineer.get(`/api/stations/${id}/graph?version=1`)).body.arms).toEqual([arm]);
     const del = await engineer.delete(`/api/stations/${id}/nodes/${K.anchorFar}?version=2`);
     expect(del.status).toBe(409);
     expect(del.body.error.message).toContain('ARM-1');

@@ -397,6 +397,7 @@ export function graphOf(
     nodes: doc.nodes,
     edges: graphEdges,
     hazards: doc.hazards,
+    arms: doc.arms,
   };
 }
 
