@@ -37,6 +37,7 @@ export default defineConfig({
           name: 'client',
           include: ['tests/client/**/*.test.{ts,tsx}'],
           environment: 'jsdom',
+          setupFiles: ['tests/setup/client-env.ts'],
           // property tests render many cases: generous, since CI machines are small and shared
           testTimeout: 30000,
         },

@@ -1,26 +1,18 @@
-import { act } from 'react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
+import { screen, waitFor } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
 import { authKeys } from '@/lib/authorization';
 import { SignInForm } from '@/features/auth/components/sign-in-form';
-import { render, typeInto, until, type Rendered } from './render';
+import { renderWithQueryClient } from '../setup/client';
 
-let rendered: Rendered | undefined;
-afterEach(() => {
-  rendered?.unmount();
-  vi.unstubAllGlobals();
-});
+afterEach(() => vi.unstubAllGlobals());
 
-function field(container: HTMLElement, label: string): HTMLInputElement {
-  const labelEl = [...container.querySelectorAll('label')].find((l) => l.textContent === label);
-  const input = labelEl && container.ownerDocument.getElementById(labelEl.htmlFor);
-  if (!(input instanceof HTMLInputElement)) throw new Error(`no input labelled ${label}`);
-  return input;
-}
-
-async function submit(container: HTMLElement) {
-  const button = [...container.querySelectorAll('button')].find((b) => b.textContent === 'Sign in');
-  if (!button) throw new Error('no Sign in button');
-  await act(async () => button.click());
+/** Types the address and password (when given) the way a person does, then presses Sign in. */
+async function signIn(email: string, password?: string) {
+  const user = userEvent.setup();
+  await user.type(screen.getByLabelText('E-mail'), email);
+  if (password !== undefined) await user.type(screen.getByLabelText('Password'), password);
+  await user.click(screen.getByRole('button', { name: 'Sign in' }));
 }
 
 describe('SignInForm', () => {
@@ -33,14 +25,11 @@ describe('SignInForm', () => {
     );
     vi.stubGlobal('fetch', fetch);
     const onSuccess = vi.fn();
-    rendered = await render(<SignInForm onSuccess={onSuccess} />);
-    const { container, queryClient } = rendered;
+    const { queryClient } = renderWithQueryClient(<SignInForm onSuccess={onSuccess} />);
 
-    await typeInto(field(container, 'E-mail'), '  Planner@Example.org ');
-    await typeInto(field(container, 'Password'), 'nope');
-    await submit(container);
+    await signIn('  Planner@Example.org ', 'nope');
 
-    const alert = await until(() => container.querySelector('[role="alert"]'));
+    const alert = await screen.findByRole('alert');
     expect(alert.textContent).toBe('Wrong e-mail or password.');
     expect(alert.closest('[aria-live]')).not.toBeNull();
     expect(onSuccess).not.toHaveBeenCalled();
@@ -56,11 +45,9 @@ describe('SignInForm', () => {
   it('does not send an invalid form and marks the fields', async () => {
     const fetch = vi.fn();
     vi.stubGlobal('fetch', fetch);
-    rendered = await render(<SignInForm onSuccess={vi.fn()} />);
-    const { container } = rendered;
-    await typeInto(field(container, 'E-mail'), 'not-an-address');
-    await submit(container);
-    await until(() => container.querySelector('[aria-invalid="true"]'));
+    const { container } = renderWithQueryClient(<SignInForm onSuccess={vi.fn()} />);
+    await signIn('not-an-address');
+    await waitFor(() => expect(screen.getByLabelText('E-mail').getAttribute('aria-invalid')).toBe('true'));
     expect(container.textContent).toContain('enter a valid e-mail address');
     expect(container.textContent).toContain('enter your password');
     expect(fetch).not.toHaveBeenCalled();
@@ -73,13 +60,9 @@ describe('SignInForm', () => {
       vi.fn(async () => Response.json({ user })),
     );
     const onSuccess = vi.fn();
-    rendered = await render(<SignInForm onSuccess={onSuccess} />);
-    const { container, queryClient } = rendered;
-    await typeInto(field(container, 'E-mail'), user.email);
-    await typeInto(field(container, 'Password'), 'tetherwise-demo');
-    await submit(container);
-    await until(() => onSuccess.mock.calls.length > 0);
-    expect(onSuccess).toHaveBeenCalledWith(user);
+    const { queryClient } = renderWithQueryClient(<SignInForm onSuccess={onSuccess} />);
+    await signIn(user.email, 'tetherwise-demo');
+    await waitFor(() => expect(onSuccess).toHaveBeenCalledWith(user));
     expect(queryClient.getQueryData(authKeys.me())).toEqual(user);
   });
 });
