@@ -670,27 +670,41 @@ export function hasClipGraph(weights: Float64Array, tetherLengthM: number, exclu
   return clipCache.get(weights)?.has(`${tetherLengthM}|${excludeMask}`) ?? false;
 }
 
-/** Per-query arrays over attach points (index A is the target), reset by a stamp. */
+/**
+ * Per-query arrays over attach points, reset by a stamp. In the search's arrays index A (one past
+ * the last attach point) stands for t.
+ */
 interface ClipQueryState {
   stamp: number;
+  /** the search: the best key parts so far at each clip (see searchClips) and the clip before it */
   seen: Int32Array;
-  p1: Float64Array;
-  p2: Float64Array;
+  cost1: Float64Array;
+  cost2: Float64Array;
   pred: Int32Array;
-  hStamp: Int32Array;
-  h1: Float64Array;
-  h2: Float64Array;
+  /** lower bounds on the rest of the route from a fresh clip at each attach point, memoised */
+  restStamp: Int32Array;
+  rest1: Float64Array;
+  rest2: Float64Array;
+  /** attach points one stretch from t (their last stretch's least time, stretch seconds) */
   lastStamp: Int32Array;
   last: Float64Array;
-  startStamp: Int32Array;
-  lvlStamp: Int32Array;
-  lvl: Int32Array;
+  lastList: Int32Array;
+  /** the first clips when s is not an attach point (the stretch time to each) */
+  firstStamp: Int32Array;
+  firstCount: number;
+  firstList: Int32Array;
+  firstTime: Float64Array;
+  /** fewest swaps from each levelled attach point to t (see swapLevels) */
+  levelStamp: Int32Array;
+  level: Int32Array;
   queue: Int32Array;
-  lmLo: Int32Array;
-  lmHi: Int32Array;
-  lmOff: Uint8Array;
-  markT: Float64Array;
-  markR: Float64Array;
+  /** per clip landmark: least and greatest stretch count to t's last-stretch attach points, and whether one is unreached */
+  endHopsLo: Int32Array;
+  endHopsHi: Int32Array;
+  endHopsOff: Uint8Array;
+  /** per cost landmark: the least cost from it to t, and, for an attach-point t, between it and t plus a swap */
+  markToEnd: Float64Array;
+  markFromEnd: Float64Array;
   heap: MinHeap;
 }
 
@@ -701,393 +715,463 @@ function queryState(cg: ClipGraph): ClipQueryState {
     q = cg.query = {
       stamp: 0,
       seen: new Int32Array(A + 1),
-      p1: new Float64Array(A + 1),
-      p2: new Float64Array(A + 1),
+      cost1: new Float64Array(A + 1),
+      cost2: new Float64Array(A + 1),
       pred: new Int32Array(A + 1),
-      hStamp: new Int32Array(A),
-      h1: new Float64Array(A),
-      h2: new Float64Array(A),
+      restStamp: new Int32Array(A),
+      rest1: new Float64Array(A),
+      rest2: new Float64Array(A),
       lastStamp: new Int32Array(A),
       last: new Float64Array(A),
-      startStamp: new Int32Array(A),
-      lvlStamp: new Int32Array(A),
-      lvl: new Int32Array(A),
+      lastList: new Int32Array(A),
+      firstStamp: new Int32Array(A),
+      firstCount: 0,
+      firstList: new Int32Array(A),
+      firstTime: new Float64Array(A),
+      levelStamp: new Int32Array(A),
+      level: new Int32Array(A),
       queue: new Int32Array(A),
-      lmLo: new Int32Array(cg.landmarkCount),
-      lmHi: new Int32Array(cg.landmarkCount),
-      lmOff: new Uint8Array(cg.landmarkCount),
-      markT: new Float64Array(COST_MARKS),
-      markR: new Float64Array(COST_MARKS),
+      endHopsLo: new Int32Array(cg.landmarkCount),
+      endHopsHi: new Int32Array(cg.landmarkCount),
+      endHopsOff: new Uint8Array(cg.landmarkCount),
+      markToEnd: new Float64Array(COST_MARKS),
+      markFromEnd: new Float64Array(COST_MARKS),
       heap: new MinHeap(1024),
     };
   }
   if (++q.stamp >= 0x7fffffff) {
     q.stamp = 1;
-    for (const a of [q.seen, q.hStamp, q.lastStamp, q.startStamp, q.lvlStamp]) a.fill(0);
+    for (const a of [q.seen, q.restStamp, q.lastStamp, q.firstStamp, q.levelStamp]) a.fill(0);
   }
   return q;
 }
 
+/** One clip-graph query: its terms, and the arrays its phases fill. */
+interface ClipQuery {
+  c: CompiledStation;
+  cg: ClipGraph;
+  p: LabelSearchParams;
+  s: number;
+  t: number;
+  /** attach indices of s and t, -1 for another node */
+  sIdx: number;
+  tIdx: number;
+  lex: boolean;
+  /** the query's factor on stretch seconds (carrying) */
+  f: number;
+  swapCost: number;
+  /** the tether, with the float margin */
+  limit: number;
+  /** the stretches between the first clip and the last one (see middleRows) */
+  rows: ClipRows;
+  state: ClipQueryState;
+  stretch: StretchScratch;
+  /** station landmark bounds to t: after toT(v), hSeconds[v] (times f) and hMetres[v] */
+  toT: (v: number) => boolean;
+  hSeconds: Float64Array;
+  hMetres: Float64Array;
+}
+
+/**
+ * The stretches the search follows between clips (a last stretch always comes from the full rows,
+ * or from a search back from t): for free swaps the ones pruneStretches keeps; towards an
+ * attach-point t the swap rows; else the full rows. Each keeps an optimum of its case.
+ */
+function middleRows(cg: ClipGraph, lex: boolean, swapCost: number, tIdx: number): ClipRows {
+  if (!lex && swapCost === 0) return pruneStretches(cg, 0);
+  return tIdx >= 0 ? cg.swapRows : cg;
+}
+
 /**
  * Exact `lex` (fewest swaps, then least time) or `sum` (time + swapCost per swap) route by A* over
- * the clip graph. Same optimum as labelSearch with the same parameters.
+ * the clip graph, for a fresh clip at s on the station's own attach points; the same optimum as
+ * labelSearch with the same parameters. A route is a chain of clips: s (when an attach point) or
+ * the first attach point a swap is made at, then one per swap, then t; between two clips the
+ * least-time stretch. Phases: the last stretches, the first clips, the swap levels (fewest swaps
+ * only), the bounds, one A* over clips, and the walk along the chain found.
  */
 export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSearchParams): LabelPath | null {
-  if (p.startPaidOutM > 0 || p.isAttach !== c.isAttach)
+  if (p.startPaidOutM > 0 || p.isAttach !== c.isAttach || (p.endPaidOutMaxM ?? Infinity) < Infinity)
     throw new Error('internal: the clip graph answers a fresh clip on the station attach points only');
   const cg = clipGraphFor(c, p.weights, p.tetherLengthM, p.excludeMask);
   const ns = scratchFor(c);
-  const bound = targetBound(c, ns, t, p.secondsFactor, p.maxSpeedMps, p.landmarkTimesValid);
-  if (!bound(s)) return null;
-  const { hSeconds, hMetres } = ns;
-  const st = stretchScratchFor(c);
-  const q = queryState(cg);
-  const stamp = q.stamp;
-  const { seen, p1, p2, pred, hStamp, h1, h2, lastStamp, last, startStamp, lvlStamp, lvl, queue, heap } = q;
-  const { attachNodes, attachIndex, offsets, targets, seconds, landmarkHops: lmH } = cg;
-  const A = attachNodes.length;
-  const K = cg.landmarkCount;
-  const f = p.secondsFactor;
+  const toT = targetBound(c, ns, t, p.secondsFactor, p.maxSpeedMps, p.landmarkTimesValid);
+  if (!toT(s)) return null;
   const lex = p.objective === 'lex';
-  const swapCost = p.swapCost;
+  const tIdx = cg.attachIndex[t];
+  const cq: ClipQuery = {
+    c,
+    cg,
+    p,
+    s,
+    t,
+    sIdx: cg.attachIndex[s],
+    tIdx,
+    lex,
+    f: p.secondsFactor,
+    swapCost: p.swapCost,
+    limit: p.tetherLengthM + TETHER_EPS_M,
+    rows: middleRows(cg, lex, p.swapCost, tIdx),
+    state: queryState(cg),
+    stretch: stretchScratchFor(c),
+    toT,
+    hSeconds: ns.hSeconds,
+    hMetres: ns.hMetres,
+  };
+  const straight = () => walkClips(c, p, cq.limit, [s, t], cq.stretch);
+  if (straightAcross(cq)) return straight();
+  const lastCount = lastStretches(cq);
+  const direct = firstClips(cq);
+  // a stretch straight to t needs no swap: the answer for fewest swaps, and for a swap cost when
+  // no route with a swap (at least that cost plus the least time) could be cheaper
+  if (direct < Infinity && (lex || direct <= cq.swapCost + cq.hSeconds[s])) return straight();
+  const levelsTo = lex ? swapLevels(cq, lastCount) : -1;
+  const rest = restBound(cq, lastCount, levelsTo);
+  const chain = searchClips(cq, rest, direct, levelsTo);
+  return chain ? walkClips(c, p, cq.limit, chain, cq.stretch) : null;
+}
 
-  const tether = p.tetherLengthM;
-  const limit = tether + TETHER_EPS_M;
-  const sIdx = attachIndex[s];
-  const tIdx = attachIndex[t];
-  // between the first and the last stretch the search needs only the kept ones (the last come
-  // from the full rows, or a search from t)
-  const rows = !lex && swapCost === 0 ? pruneStretches(cg, 0) : tIdx >= 0 ? cg.swapRows : cg;
-
-  // between neighbouring attach points the stretch straight across is often the answer (see
-  // `found` below): look for it before any per-query setup
-  if (sIdx >= 0 && tIdx >= 0) {
-    for (let e = offsets[tIdx], end = offsets[tIdx + 1]; e < end; e++) {
-      if (targets[e] !== sIdx) continue;
-      if (lex || f * seconds[e] <= swapCost + hSeconds[s]) return walkClips(c, p, limit, [s, t], st);
-      break;
-    }
+/**
+ * Between two attach points one stretch apart, that stretch is the answer for fewest swaps (no
+ * swap), and for a swap cost when it takes no longer than a swap plus the least time of any route.
+ * Checked before any other per-query work.
+ */
+function straightAcross(cq: ClipQuery): boolean {
+  const { cg, sIdx, tIdx } = cq;
+  if (sIdx < 0 || tIdx < 0) return false;
+  for (let e = cg.offsets[tIdx], end = cg.offsets[tIdx + 1]; e < end; e++) {
+    if (cg.targets[e] === sIdx) return cq.lex || cq.f * cg.seconds[e] <= cq.swapCost + cq.hSeconds[cq.s];
   }
+  return false;
+}
 
-  // last stretches: attach points within one tether of t, and their least time to it; they are
-  // also the seeds of the swap levels (no swap to come)
-  let lastCount = 0;
+/**
+ * The last stretches: the attach points within one stretch of t, each with the least time of that
+ * stretch (t's row of the clip graph, or a stretch search from t when t is not an attach point:
+ * stretch times are the same both ways). Returns how many, listed in state.lastList.
+ */
+function lastStretches(cq: ClipQuery): number {
+  const { cg, state: q, tIdx } = cq;
+  const { lastStamp, last, lastList, stamp } = q;
+  let count = 0;
   if (tIdx >= 0) {
-    for (let e = offsets[tIdx], end = offsets[tIdx + 1]; e < end; e++) {
-      const b = targets[e];
+    for (let e = cg.offsets[tIdx], end = cg.offsets[tIdx + 1]; e < end; e++) {
+      const b = cg.targets[e];
       lastStamp[b] = stamp;
-      last[b] = seconds[e];
-      queue[lastCount++] = b;
+      last[b] = cg.seconds[e];
+      lastList[count++] = b;
     }
-  } else {
-    stretchSearch(c, p.weights, p.excludeMask, limit, t, st, null);
-    lastCount = st.hitCount;
-    for (let h = 0; h < lastCount; h++) {
-      const b = attachIndex[st.hitNode[h]];
-      lastStamp[b] = stamp;
-      last[b] = st.hitTime[h];
-      queue[h] = b;
-    }
+    return count;
   }
-  // first clips: s itself, or the attach points one stretch from it (a swap each)
-  let direct = Infinity;
+  const st = cq.stretch;
+  stretchSearch(cq.c, cq.p.weights, cq.p.excludeMask, cq.limit, cq.t, st, null);
+  for (let h = 0; h < st.hitCount; h++) {
+    const b = cg.attachIndex[st.hitNode[h]];
+    lastStamp[b] = stamp;
+    last[b] = st.hitTime[h];
+    lastList[count++] = b;
+  }
+  return count;
+}
+
+/**
+ * The first clips: s itself when it is an attach point, else every attach point one stretch from
+ * s (a swap each), listed with their stretch time in state.firstList/firstTime. Returns the time
+ * (times f) of a stretch straight from s to t, Infinity when t is more than a tether away.
+ */
+function firstClips(cq: ClipQuery): number {
+  const { cg, state: q, sIdx, f } = cq;
+  q.firstCount = 0;
   if (sIdx >= 0) {
-    startStamp[sIdx] = stamp;
-    if (lastStamp[sIdx] === stamp) direct = f * last[sIdx];
-  } else {
-    stretchSearch(c, p.weights, p.excludeMask, limit, s, st, null, t);
-    for (let h = 0; h < st.hitCount; h++) {
-      const v = st.hitNode[h];
-      if (v === t) direct = f * st.hitTime[h];
-      else startStamp[attachIndex[v]] = stamp;
+    q.firstStamp[sIdx] = q.stamp;
+    return q.lastStamp[sIdx] === q.stamp ? f * q.last[sIdx] : Infinity;
+  }
+  const st = cq.stretch;
+  stretchSearch(cq.c, cq.p.weights, cq.p.excludeMask, cq.limit, cq.s, st, null, cq.t);
+  let direct = Infinity;
+  for (let h = 0; h < st.hitCount; h++) {
+    const v = st.hitNode[h];
+    if (v === cq.t) {
+      direct = f * st.hitTime[h];
+      continue;
+    }
+    const a = cg.attachIndex[v];
+    q.firstStamp[a] = q.stamp;
+    q.firstList[q.firstCount] = a;
+    q.firstTime[q.firstCount++] = st.hitTime[h];
+  }
+  return direct;
+}
+
+/**
+ * Swap levels, for fewest swaps: the fewest swaps from a fresh clip at each attach point to t,
+ * breadth-first from the last-stretch attach points (level 0) backwards over the rows the search
+ * uses (the full rows are their own transpose; the swap rows have theirs), until the level where
+ * a first clip is met is complete. Afterwards every levelled attach point has its exact level and
+ * every other one needs more swaps than the returned level; -1 when the levels ran out first (no
+ * first clip reaches t at any number of swaps).
+ */
+function swapLevels(cq: ClipQuery, lastCount: number): number {
+  const { cg, state: q, tIdx } = cq;
+  const { levelStamp, level, queue, firstStamp, lastList, stamp } = q;
+  const full = cq.rows === cg;
+  const inOffsets = full ? cg.offsets : cg.swapRowsIn.offsets;
+  const inSources = full ? cg.targets : cg.swapRowsIn.sources;
+  let qt = 0;
+  let reached = -1;
+  for (let h = 0; h < lastCount; h++) {
+    const b = lastList[h];
+    if (levelStamp[b] === stamp) continue;
+    levelStamp[b] = stamp;
+    level[b] = 0;
+    queue[qt++] = b;
+    if (firstStamp[b] === stamp) reached = 0;
+  }
+  for (let qh = 0; qh < qt; qh++) {
+    const b = queue[qh];
+    const next = level[b] + 1;
+    if (reached >= 0 && next > reached) break;
+    for (let e = inOffsets[b], end = inOffsets[b + 1]; e < end; e++) {
+      const a = inSources[e];
+      if (levelStamp[a] === stamp || a === tIdx) continue;
+      levelStamp[a] = stamp;
+      level[a] = next;
+      queue[qt++] = a;
+      if (reached < 0 && firstStamp[a] === stamp) reached = next;
     }
   }
-  // a stretch straight to t needs no swap: it is the answer for fewest swaps, and for a swap cost
-  // when no route with a swap (at least that cost plus the least time) could be cheaper
-  let found = direct < Infinity && (lex || direct <= swapCost + hSeconds[s]);
+  return reached;
+}
 
-  // per clip landmark: the least and greatest stretch count to the last-stretch attach points
-  const { lmLo, lmHi, lmOff } = q;
-  if (!found && tIdx >= 0) {
-    for (let k = 0, at = tIdx * K; k < K; k++) {
-      lmLo[k] = cg.rowHopsLo[at + k];
-      lmHi[k] = cg.rowHopsHi[at + k];
-      lmOff[k] = cg.rowHopsOff[at + k];
-    }
-  } else if (!found) {
-    lmLo.fill(UNREACHED);
-    lmHi.fill(-1);
-    lmOff.fill(0);
-    for (let h = 0; h < lastCount; h++) {
-      const base = queue[h] * K;
-      for (let k = 0; k < K; k++) {
-        const v = lmH[base + k];
-        if (v === UNREACHED) lmOff[k] = 1;
-        else {
-          if (v < lmLo[k]) lmLo[k] = v;
-          if (v > lmHi[k]) lmHi[k] = v;
-        }
-      }
-    }
-  }
-
-  // cost landmarks, with a swap cost: the least cost from each to t (stretch seconds)
-  const marks = !found && !lex && swapCost > 0 ? costMarksFor(cg, swapCost / f) : null;
-  const KM = marks ? marks.count : 0;
-  const mc = marks ? marks.cost : null;
-  // and, when t is an attach point, back from t: stretch times are the same both ways, so the
-  // least cost between a clip at L and one at x is the same either way, and a route a → t, a
-  // swap at t and the least chain on to L cost no less than the least chain a → L:
-  // cost(a → t) ≥ cost(a ↔ L) − cost(t ↔ L) − swapCost
-  const { markT, markR } = q;
-  markR.fill(Infinity);
+/**
+ * The lower bound on the rest of a route from a fresh clip at attach point a: `rest(a)` fills
+ * state.rest1[a] and rest2[a] (the two key parts, see searchClips) and returns false when a cannot
+ * reach t. Memoised per query. The bounds, each consistent:
+ * - time: the station landmarks' bound on time to t;
+ * - swaps (fewest swaps): the exact level where a is levelled, else one more than the last level;
+ *   without levels, the metres landmark bound over the tether and the clip landmarks' stretch
+ *   counts to t's last stretches;
+ * - with a swap cost, the cost landmarks (see costMarksFor) on time and swaps together; towards
+ *   an attach point they alone are the bound (time plus swaps is seldom higher there).
+ */
+function restBound(cq: ClipQuery, lastCount: number, levelsTo: number): (a: number) => boolean {
+  const { cg, state: q, lex, swapCost, tIdx } = cq;
+  const { restStamp, rest1, rest2, stamp } = q;
+  const marks = !lex && swapCost > 0 ? costMarksTowards(cq, lastCount) : null;
   if (marks && tIdx >= 0) {
-    for (let k = 0; k < KM; k++) {
-      markT[k] = marks.toEnd[tIdx * KM + k];
-      markR[k] = marks.cost[tIdx * KM + k] + swapCost / f;
+    return (a: number): boolean => {
+      if (restStamp[a] === stamp) return rest1[a] !== Infinity;
+      restStamp[a] = stamp;
+      const h = marks(a, 0);
+      rest1[a] = h;
+      rest2[a] = 0;
+      return h !== Infinity;
+    };
+  }
+  endHopRanges(cq, lastCount);
+  const { endHopsLo, endHopsHi, endHopsOff, level, levelStamp } = q;
+  const { hSeconds, hMetres, toT } = cq;
+  const hops = cg.landmarkHops;
+  const K = cg.landmarkCount;
+  const tether = cq.p.tetherLengthM;
+  const swapsAfter = (a: number, v: number): number => {
+    if (lex && levelStamp[a] === stamp) return level[a];
+    if (lex && levelsTo < 0) return Infinity;
+    const need = hMetres[v] - tether;
+    let sw = need > TETHER_EPS_M ? Math.ceil(need / tether - 1e-9) : 0;
+    if (lex && levelsTo + 1 > sw) sw = levelsTo + 1;
+    for (let k = 0, base = a * K; k < K; k++) {
+      const ha = hops[base + k];
+      let lb: number;
+      if (ha === UNREACHED) lb = endHopsOff[k] ? 0 : Infinity;
+      else if (endHopsHi[k] < 0) lb = Infinity;
+      else lb = ha > endHopsHi[k] ? ha - endHopsHi[k] : ha < endHopsLo[k] ? endHopsLo[k] - ha : 0;
+      if (lb > sw) sw = lb;
     }
-  } else if (mc) {
-    markT.fill(Infinity);
-    for (let h = 0; h < lastCount; h++) {
-      const b = queue[h];
-      const base = b * KM;
-      for (let k = 0; k < KM; k++) {
-        const v = mc[base + k] + last[b];
-        if (v < markT[k]) markT[k] = v;
+    return sw;
+  };
+  return (a: number): boolean => {
+    if (restStamp[a] === stamp) return rest1[a] !== Infinity;
+    restStamp[a] = stamp;
+    const v = cg.attachNodes[a];
+    const sw = lastCount > 0 && toT(v) ? swapsAfter(a, v) : Infinity;
+    if (sw === Infinity) {
+      rest1[a] = Infinity;
+      return false;
+    }
+    if (lex) {
+      rest1[a] = sw;
+      rest2[a] = hSeconds[v];
+      return true;
+    }
+    const h = hSeconds[v] + swapCost * sw;
+    rest1[a] = marks ? marks(a, h) : h;
+    rest2[a] = 0;
+    return rest1[a] !== Infinity;
+  };
+}
+
+/** Per clip landmark, the least and greatest stretch count to t's last-stretch attach points. */
+function endHopRanges(cq: ClipQuery, lastCount: number): void {
+  const { cg, state: q, tIdx } = cq;
+  const { endHopsLo, endHopsHi, endHopsOff } = q;
+  const K = cg.landmarkCount;
+  if (tIdx >= 0) {
+    for (let k = 0, at = tIdx * K; k < K; k++) {
+      endHopsLo[k] = cg.rowHopsLo[at + k];
+      endHopsHi[k] = cg.rowHopsHi[at + k];
+      endHopsOff[k] = cg.rowHopsOff[at + k];
+    }
+    return;
+  }
+  endHopsLo.fill(UNREACHED);
+  endHopsHi.fill(-1);
+  endHopsOff.fill(0);
+  for (let h = 0; h < lastCount; h++) {
+    const base = q.lastList[h] * K;
+    for (let k = 0; k < K; k++) {
+      const v = cg.landmarkHops[base + k];
+      if (v === UNREACHED) endHopsOff[k] = 1;
+      else {
+        if (v < endHopsLo[k]) endHopsLo[k] = v;
+        if (v > endHopsHi[k]) endHopsHi[k] = v;
       }
     }
   }
+}
 
-  // Swap levels, for fewest swaps: the fewest swaps from each attach point to t, breadth-first
-  // from the last stretches backwards over the rows the search uses (the full rows are
-  // symmetric: a stretch walked backwards is a stretch), until the level where a first clip is
-  // met is complete. Every attach point levelled has its exact level; every other one needs more
-  // than `levelsTo` swaps, or cannot reach t at all when the levels ran out first (levelsTo < 0).
-  // The landmark bound on swaps is often one short over a whole band of attach points, and the
-  // search then settles that band at one swap fewer than any route has, and again at the right
-  // count wherever the bound is loose; with exact levels it settles only attach points on routes
-  // with the fewest swaps, and drops every other one before looking up its bound (see the loop).
-  // Measured by `npm run bench`: against the landmark bound on swaps, on 100k nodes the median
-  // was no worse and the p95 about halved, on 10k the median doubled for a slightly lower p95;
-  // the dropping took about a fifth off the median again on both. With a swap cost the trade
-  // between swaps and time leaves most of the slack in the time part of the bound, and the
-  // levels did not pay there (see cost landmarks).
-  const levelled = !found && lex;
-  let levelsTo = -1;
-  if (levelled) {
-    const inOffsets = rows === cg ? offsets : cg.swapRowsIn.offsets;
-    const inSources = rows === cg ? targets : cg.swapRowsIn.sources;
-    let qt = 0;
-    for (let h = 0; h < lastCount; h++) {
-      const b = queue[h];
-      if (lvlStamp[b] === stamp) continue;
-      lvlStamp[b] = stamp;
-      lvl[b] = 0;
-      queue[qt++] = b;
+/**
+ * The cost-landmark bound for a swap cost: `marks(a, h)` is the larger of h and the landmarks'
+ * bound from attach point a, Infinity when a cannot reach t. For each landmark L:
+ * cost(a → t) ≥ cost(L → t) − cost(L → a) (ahead), and, towards an attach point t, since stretch
+ * times are the same both ways, cost(a → t) ≥ cost(a ↔ L) − cost(t ↔ L) − swapCost (back). A
+ * landmark that reaches a but not t makes the bound ahead +Infinity, and one that reaches an
+ * attach-point t but not a the bound back, as they should (a and t are then in different parts);
+ * one that reaches neither makes NaN, which no comparison takes. The factor and a float margin
+ * (less a hair, so rounding in the sums cannot lift the bound past the cost) go on the largest.
+ */
+function costMarksTowards(cq: ClipQuery, lastCount: number): (a: number, h: number) => number {
+  const { cg, state: q, tIdx, f, swapCost } = cq;
+  const marks = costMarksFor(cg, swapCost / f);
+  const count = marks.count;
+  const cost = marks.cost;
+  const { markToEnd, markFromEnd } = q;
+  markFromEnd.fill(Infinity);
+  if (tIdx >= 0) {
+    for (let k = 0; k < count; k++) {
+      markToEnd[k] = marks.toEnd[tIdx * count + k];
+      markFromEnd[k] = cost[tIdx * count + k] + swapCost / f;
     }
-    let reached = -1;
-    for (let i = 0; i < qt && reached < 0; i++) if (startStamp[queue[i]] === stamp) reached = 0;
-    let qh = 0;
-    while (qh < qt) {
-      const b = queue[qh];
-      const next = lvl[b] + 1;
-      if (reached >= 0 && next > reached) break;
-      qh++;
-      for (let e = inOffsets[b], end = inOffsets[b + 1]; e < end; e++) {
-        const a = inSources[e];
-        if (lvlStamp[a] === stamp || a === tIdx) continue;
-        lvlStamp[a] = stamp;
-        lvl[a] = next;
-        queue[qt++] = a;
-        if (reached < 0 && startStamp[a] === stamp) reached = next;
+  } else {
+    markToEnd.fill(Infinity);
+    for (let h = 0; h < lastCount; h++) {
+      const b = q.lastList[h];
+      for (let k = 0, base = b * count; k < count; k++) {
+        const v = cost[base + k] + q.last[b];
+        if (v < markToEnd[k]) markToEnd[k] = v;
       }
     }
-    levelsTo = reached;
   }
-  // the fewest swaps of any route (from a start off the attach points, the first clip is a swap)
-  const fewest = sIdx >= 0 ? levelsTo : levelsTo + 1;
-
-  // the cost-landmark bound from attach point a, at least `h`; Infinity when a cannot reach t.
-  // Both bounds of every landmark in one pass, in stretch seconds. A landmark that reaches a but
-  // not t makes the bound ahead +Infinity, and one that reaches an attach-point t but not a the
-  // bound back, as they should: the rows are symmetric, so a and t are then in different parts.
-  // One that reaches neither makes NaN, which no comparison takes. The factor and the safety
-  // margin (less a hair, so rounding in the sums cannot lift the bound past the cost) go on the
-  // largest once.
-  const marksBound = (a: number, h: number): number => {
-    if (!mc) return h;
-    const base = a * KM;
+  return (a: number, h: number): number => {
     let m = 0;
-    for (let k = 0; k < KM; k++) {
-      const d = mc[base + k];
-      const ahead = markT[k] - d;
+    for (let k = 0, base = a * count; k < count; k++) {
+      const d = cost[base + k];
+      const ahead = markToEnd[k] - d;
       if (ahead > m) m = ahead;
-      const back = d - markR[k];
+      const back = d - markFromEnd[k];
       if (back > m) m = back;
     }
     if (m === Infinity) return Infinity;
     const lb = f * m * (1 - 1e-12) - 1e-9;
     return lb > h ? lb : h;
   };
-  // lower bounds from attach point a (freshly clipped) to t: swaps, then (p1, p2) parts
-  const heuristic = (a: number): boolean => {
-    if (hStamp[a] === stamp) return h1[a] !== Infinity;
-    hStamp[a] = stamp;
-    // with a swap cost and an attach-point end, the cost landmarks both ways bound it alone: the
-    // landmark bound on time plus the one on swaps is seldom higher, and costs a node's worth of
-    // station landmarks to look up (measured by `npm run bench`: about a sixth off every query)
-    if (mc && tIdx >= 0) {
-      const h = marksBound(a, 0);
-      h1[a] = h;
-      h2[a] = 0;
-      return h !== Infinity;
-    }
-    const v = attachNodes[a];
-    if (lastCount === 0 || !bound(v)) {
-      h1[a] = Infinity;
-      return false;
-    }
-    let sw: number;
-    if (levelled && lvlStamp[a] === stamp) sw = lvl[a];
-    else if (levelled && levelsTo < 0) sw = Infinity;
-    else {
-      const need = hMetres[v] - tether;
-      sw = need > TETHER_EPS_M ? Math.ceil(need / tether - 1e-9) : 0;
-      if (levelled && levelsTo + 1 > sw) sw = levelsTo + 1;
-      const base = a * K;
-      for (let k = 0; k < K; k++) {
-        const ha = lmH[base + k];
-        let lb: number;
-        if (ha === UNREACHED) lb = lmOff[k] ? 0 : Infinity;
-        else if (lmHi[k] < 0) lb = Infinity;
-        else lb = ha > lmHi[k] ? ha - lmHi[k] : ha < lmLo[k] ? lmLo[k] - ha : 0;
-        if (lb > sw) sw = lb;
-      }
-    }
-    if (sw === Infinity) {
-      h1[a] = Infinity;
-      return false;
-    }
-    if (lex) {
-      h1[a] = sw;
-      h2[a] = hSeconds[v];
-      return true;
-    }
-    const h = marksBound(a, hSeconds[v] + swapCost * sw);
-    h1[a] = h;
-    h2[a] = 0;
-    return h !== Infinity;
-  };
-  const offerTarget = (from: number, q1: number, q2: number) => {
-    if (seen[A] === stamp && (p1[A] < q1 || (p1[A] === q1 && p2[A] <= q2))) return;
+}
+
+/**
+ * A* over clips. The key of a clip has two parts: fewest swaps, (swaps, seconds); with a swap
+ * cost, (seconds + swapCost × swaps, 0); seconds are times f. A clip is kept only when no
+ * earlier one at its attach point is as good in both parts, and it is settled in key order plus
+ * `rest` (consistent), so the first time t is settled its cost is the least. With swap levels,
+ * a clip at b lies on a route with the fewest swaps only if b is levelled and its level makes up
+ * that count: any other is dropped before its bound is looked up. Returns the chain of clip
+ * nodes s … t, or null.
+ */
+function searchClips(
+  cq: ClipQuery,
+  rest: (a: number) => boolean,
+  direct: number,
+  levelsTo: number,
+): number[] | null {
+  const { cg, state: q, lex, f, swapCost, tIdx, sIdx } = cq;
+  const A = cg.attachNodes.length;
+  const { seen, cost1, cost2, pred, rest1, rest2, lastStamp, last, levelStamp, level, heap, stamp } = q;
+  const { offsets: ro, targets: rt, seconds: rs } = cq.rows;
+  const levelled = lex;
+  // the fewest swaps of any route (from a start off the attach points, the first clip is a swap)
+  const fewest = sIdx >= 0 ? levelsTo : levelsTo + 1;
+  const offerEnd = (from: number, c1: number, c2: number) => {
+    if (seen[A] === stamp && (cost1[A] < c1 || (cost1[A] === c1 && cost2[A] <= c2))) return;
     seen[A] = stamp;
-    p1[A] = q1;
-    p2[A] = q2;
+    cost1[A] = c1;
+    cost2[A] = c2;
     pred[A] = from;
-    heap.push(A, q1, q2);
+    heap.push(A, c1, c2);
   };
-  const offer = (a: number, from: number, q1: number, q2: number) => {
-    if (a === tIdx) return;
-    if (seen[a] === stamp && (p1[a] < q1 || (p1[a] === q1 && p2[a] <= q2))) return;
-    if (!heuristic(a)) return;
-    seen[a] = stamp;
-    p1[a] = q1;
-    p2[a] = q2;
-    pred[a] = from;
-    heap.push(a, q1 + h1[a], q2 + h2[a]);
+  const offer = (b: number, from: number, c1: number, c2: number) => {
+    if (b === tIdx) return;
+    if (seen[b] === stamp && (cost1[b] < c1 || (cost1[b] === c1 && cost2[b] <= c2))) return;
+    if (levelled && (levelStamp[b] !== stamp || c1 + level[b] > fewest)) return;
+    if (!rest(b)) return;
+    seen[b] = stamp;
+    cost1[b] = c1;
+    cost2[b] = c2;
+    pred[b] = from;
+    heap.push(b, c1 + rest1[b], c2 + rest2[b]);
   };
+
   heap.clear();
-  if (found) {
-    seen[A] = stamp;
-    pred[A] = -1;
-  } else if (sIdx >= 0) offer(sIdx, -1, 0, 0);
-  else {
-    for (let h = 0; h < st.hitCount; h++) {
-      const v = st.hitNode[h];
-      const time = f * st.hitTime[h];
-      if (v === t) offerTarget(-1, lex ? 0 : time, lex ? time : 0);
-      else offer(attachIndex[v], -1, lex ? 1 : time + swapCost, lex ? time : 0);
+  if (sIdx >= 0) {
+    if (!rest(sIdx)) return null;
+    seen[sIdx] = stamp;
+    cost1[sIdx] = 0;
+    cost2[sIdx] = 0;
+    pred[sIdx] = -1;
+    heap.push(sIdx, rest1[sIdx], rest2[sIdx]);
+  } else {
+    if (direct < Infinity) offerEnd(-1, lex ? 0 : direct, lex ? direct : 0);
+    for (let i = 0; i < q.firstCount; i++) {
+      const time = f * q.firstTime[i];
+      offer(q.firstList[i], -1, lex ? 1 : time + swapCost, lex ? time : 0);
     }
   }
-  // Balanced to an attach point, the case the cost landmarks bound alone: the loop below with one
-  // key and the bound looked up in place. Measured on the 100k-node bench truss (100 queries, each
-  // the fastest of five, this loop and the general one interleaved): median and p95 about a tenth
-  // lower.
-  if (!found && mc && tIdx >= 0) {
-    const { offsets: ro, targets: rt, seconds: rs } = rows;
-    while (heap.size > 0) {
-      const k1 = heap.topKey1();
-      const a = heap.pop();
-      if (a === A) {
-        if (k1 !== p1[A]) continue;
-        found = true;
-        break;
-      }
-      const d1 = p1[a];
-      if (k1 !== d1 + h1[a]) continue;
-      if (lastStamp[a] === stamp) offerTarget(a, d1 + f * last[a], 0);
-      const s1 = d1 + swapCost;
-      for (let e = ro[a], end = ro[a + 1]; e < end; e++) {
-        const b = rt[e];
-        if (b === tIdx) continue;
-        const q1 = s1 + f * rs[e];
-        if (hStamp[b] !== stamp) {
-          hStamp[b] = stamp;
-          h1[b] = marksBound(b, 0);
-          h2[b] = 0;
-        } else if (seen[b] === stamp && p1[b] <= q1) continue;
-        const hb = h1[b];
-        if (hb === Infinity) continue;
-        seen[b] = stamp;
-        p1[b] = q1;
-        p2[b] = 0;
-        pred[b] = a;
-        heap.push(b, q1 + hb, 0);
-      }
-    }
-  }
-  while (!found && heap.size > 0) {
+  let found = false;
+  while (heap.size > 0) {
     const k1 = heap.topKey1();
     const k2 = heap.topKey2();
     const a = heap.pop();
     if (a === A) {
-      if (k1 !== p1[A] || k2 !== p2[A]) continue;
+      if (k1 !== cost1[A] || k2 !== cost2[A]) continue;
       found = true;
       break;
     }
-    const d1 = p1[a];
-    const d2 = p2[a];
-    if (k1 !== d1 + h1[a] || k2 !== d2 + h2[a]) continue;
+    const c1 = cost1[a];
+    const c2 = cost2[a];
+    if (k1 !== c1 + rest1[a] || k2 !== c2 + rest2[a]) continue;
     if (lastStamp[a] === stamp) {
       const time = f * last[a];
-      offerTarget(a, lex ? d1 : d1 + time, lex ? d2 + time : 0);
+      offerEnd(a, lex ? c1 : c1 + time, lex ? c2 + time : 0);
     }
-    // the offer above, inlined: this loop is where the search spends its time
-    const s1 = lex ? d1 + 1 : d1 + swapCost;
-    const { offsets: ro, targets: rt, seconds: rs } = rows;
+    const swapped = lex ? c1 + 1 : c1 + swapCost;
     for (let e = ro[a], end = ro[a + 1]; e < end; e++) {
-      const b = rt[e];
-      if (b === tIdx) continue;
-      const q1 = lex ? s1 : s1 + f * rs[e];
-      const q2 = lex ? d2 + f * rs[e] : 0;
-      if (seen[b] === stamp && (p1[b] < q1 || (p1[b] === q1 && p2[b] <= q2))) continue;
-      // with the levels, a clip at b is on a route with the fewest swaps only if b is levelled and
-      // its level makes up that count; any other b is dropped before its bound is looked up
-      if (levelled && (lvlStamp[b] !== stamp || q1 + lvl[b] > fewest)) continue;
-      if (!heuristic(b)) continue;
-      seen[b] = stamp;
-      p1[b] = q1;
-      p2[b] = q2;
-      pred[b] = a;
-      heap.push(b, q1 + h1[b], q2 + h2[b]);
+      const time = f * rs[e];
+      offer(rt[e], a, lex ? swapped : swapped + time, lex ? c2 + time : 0);
     }
   }
   if (!found) return null;
-
-  const clips: number[] = [t];
-  for (let a = pred[A]; a !== -1; a = pred[a]) clips.push(attachNodes[a]);
-  if (clips[clips.length - 1] !== s) clips.push(s);
-  return walkClips(c, p, limit, clips.reverse(), st);
+  const chain: number[] = [cq.t];
+  for (let a = pred[A]; a !== -1; a = pred[a]) chain.push(cg.attachNodes[a]);
+  if (chain[chain.length - 1] !== cq.s) chain.push(cq.s);
+  return chain.reverse();
 }
 
 /** The walk along a chain of clip points: the least-time walk of each stretch within the tether. */
