@@ -1,10 +1,11 @@
-import { act } from 'react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
+import { screen, within } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
 import type { WalkStep } from '@shared/compute/walkthrough';
 import { staleVersionDetails } from '@shared/errors';
 import { StepList } from '@/features/walkthrough/components/step-list';
 import type { Lane, ListedStep } from '@/features/walkthrough/lib/playback-model';
-import { render, until } from './render';
+import { renderWithQueryClient } from '../setup/client';
 
 const step = (n: number, start: number): WalkStep => ({
   id: `r-${n}`,
@@ -32,13 +33,6 @@ const current = { lanes: [lane], indices: [1] };
 
 afterEach(() => vi.unstubAllGlobals());
 
-function click(el: Element | null | undefined) {
-  if (!el) throw new Error('no element to click');
-  act(() => (el as HTMLElement).click());
-}
-const button = (root: HTMLElement, name: RegExp) =>
-  [...root.querySelectorAll('button')].find((b) => name.test(b.textContent ?? ''));
-
 describe('trainer notes in the step list', () => {
   it('keeps the draft and says what happened when someone else saved first (409)', async () => {
     const fetch = vi.fn(
@@ -58,7 +52,8 @@ describe('trainer notes in the step list', () => {
         ),
     );
     vi.stubGlobal('fetch', fetch);
-    const view = await render(
+    const user = userEvent.setup();
+    const { container } = renderWithQueryClient(
       <StepList
         steps={listed}
         current={current}
@@ -69,32 +64,24 @@ describe('trainer notes in the step list', () => {
         onSeek={() => {}}
       />,
     );
-    expect(view.container.querySelector('[aria-current="step"]')?.getAttribute('data-step-id')).toBe('r-2');
-    click(
-      view.container.querySelector('[data-step-id="r-2"]') &&
-        button(view.container.querySelector('[data-step-id="r-2"]')!, /Add note/),
-    );
-    const textarea = view.container.querySelector('textarea')!;
-    await act(async () => {
-      const setter = Object.getOwnPropertyDescriptor(HTMLTextAreaElement.prototype, 'value')?.set;
-      setter?.call(textarea, 'Check the gate is locked');
-      textarea.dispatchEvent(new Event('input', { bubbles: true }));
-    });
-    click(button(view.container, /Save note/));
-    await until(() => view.container.textContent?.includes('Someone else saved this walkthrough'));
+    const currentStep = container.querySelector<HTMLElement>('[aria-current="step"]')!;
+    expect(currentStep.getAttribute('data-step-id')).toBe('r-2');
+    await user.click(within(currentStep).getByRole('button', { name: /Add note/ }));
+    await user.type(screen.getByRole('textbox'), 'Check the gate is locked');
+    await user.click(screen.getByRole('button', { name: /Save note/ }));
+    await screen.findByText(/Someone else saved this walkthrough/);
     const [url, init] = fetch.mock.calls[0] as unknown as [string, RequestInit];
     expect(url).toBe('/api/walkthroughs/7');
     expect(JSON.parse(init.body as string)).toEqual({
       version: 3,
       notes: { 'r-2': 'Check the gate is locked' },
     });
-    expect(view.container.querySelector('textarea')!.value).toBe('Check the gate is locked');
-    expect(button(view.container, /Load the latest version/)).toBeTruthy();
-    view.unmount();
+    expect(screen.getByRole<HTMLTextAreaElement>('textbox').value).toBe('Check the gate is locked');
+    expect(screen.getByRole('button', { name: /Load the latest version/ })).toBeTruthy();
   });
 
   it('shows notes read-only to people who cannot edit walkthroughs', async () => {
-    const view = await render(
+    const { container } = renderWithQueryClient(
       <StepList
         steps={listed}
         current={current}
@@ -105,8 +92,7 @@ describe('trainer notes in the step list', () => {
         onSeek={() => {}}
       />,
     );
-    expect(view.container.textContent).toContain('Trainer note: Slow down here');
-    expect(button(view.container, /note/i)).toBeUndefined();
-    view.unmount();
+    expect(container.textContent).toContain('Trainer note: Slow down here');
+    expect(screen.queryByRole('button', { name: /note/i })).toBeNull();
   });
 });
