@@ -1,6 +1,6 @@
 import fc from 'fast-check';
-import { act } from 'react';
 import { describe, expect, it } from 'vitest';
+import { act, render, screen } from '@testing-library/react';
 import { compileStation } from '@shared/compute/compiled-station';
 import { findRoute } from '@shared/compute/routes';
 import { computeTimeline } from '@shared/compute/day/timeline';
@@ -21,7 +21,6 @@ import {
   previousEventTime,
   stepCallout,
 } from '@/features/walkthrough/lib/playback-model';
-import { render } from './render';
 
 const doc = generateTrussStation({ nodes: 400, seed: 11 });
 const compiled = compileStation(doc);
@@ -184,7 +183,7 @@ describe('playback clock', () => {
       renders++;
       return <span data-testid="index">{index}</span>;
     }
-    const view = await render(<Probe c={clock} />);
+    render(<Probe c={clock} />);
     const before = renders;
     const seen = new Set<number>();
     await act(async () => {
@@ -197,13 +196,12 @@ describe('playback clock', () => {
     // hundreds of frames, but only as many renders as step changes
     expect(renders - before).toBeLessThanOrEqual(seen.size);
     expect(renders - before).toBeGreaterThan(0);
-    expect(view.container.textContent).toBe(String(stepAt(track.steps, clock.t)));
-    view.unmount();
+    expect(screen.getByTestId('index').textContent).toBe(String(stepAt(track.steps, clock.t)));
   });
 });
 
 describe('printable step cards', () => {
-  it('render one card per step with its diagram and the trainer note', async () => {
+  it('render one card per step with its diagram and the trainer note', () => {
     const playback = planPlayback([
       { worksite: worksites[0], crew: 'EV1', durationSeconds: 600 },
       { worksite: worksites[1 % worksites.length], crew: 'both', durationSeconds: 900 },
@@ -211,7 +209,7 @@ describe('printable step cards', () => {
     const lanes = lanesOf(playback);
     const steps = mergeSteps(lanes);
     const noted = steps[3].step.id;
-    const view = await render(
+    const { container } = render(
       <StepCards
         title="Test day"
         steps={steps}
@@ -220,11 +218,10 @@ describe('printable step cards', () => {
         positions={positions}
       />,
     );
-    const cards = view.container.querySelectorAll('[data-testid="step-card"]');
+    const cards = screen.getAllByTestId('step-card');
     expect(cards.length).toBe(steps.length);
     cards.forEach((card) => expect(card.querySelector('svg')).not.toBeNull());
     expect(cards[3].textContent).toContain('Trainer note: Watch the cable');
-    expect(view.container.textContent).toContain('This is a planning aid');
-    view.unmount();
+    expect(container.textContent).toContain('This is a planning aid');
   });
 });
