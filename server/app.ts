@@ -3,6 +3,7 @@ import path from 'node:path';
 import cookieParser from 'cookie-parser';
 import express from 'express';
 import { rateLimit } from 'express-rate-limit';
+import compression from 'compression';
 import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
 import type { AppContext } from './context';
@@ -101,6 +102,15 @@ export async function createApp(options: CreateAppOptions = {}): Promise<AppInst
   app.set('trust proxy', config.trustProxy);
   app.use(
     helmet({ contentSecurityPolicy: { directives: CSP_DIRECTIVES }, crossOriginEmbedderPolicy: false }),
+  );
+  // gzip for answers over 1 kB (a long day's timeline, a large station's graph), on the thread pool;
+  // an event stream is never held back for compression
+  app.use(
+    compression({
+      filter: (req, res) =>
+        !String(res.getHeader('Content-Type') ?? '').startsWith('text/event-stream') &&
+        compression.filter(req, res),
+    }),
   );
   app.use(
     pinoHttp({

@@ -1,3 +1,5 @@
+import http from 'node:http';
+import zlib from 'node:zlib';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { generateTrussStation } from '@shared/compute/truss-generator';
 import { MAX_TASKS } from '@shared/schemas/plan';
@@ -62,6 +64,22 @@ async function timed(path: string) {
   return { status: res.status, ms: performance.now() - t0, bytes: body.length, body };
 }
 
+/** The raw bytes of an answer as they cross the wire, asking for gzip as browsers do. */
+function gzipped(path: string): Promise<{ encoding: string | undefined; raw: Buffer }> {
+  return new Promise((resolve, reject) => {
+    http
+      .get(`${base}${path}`, { headers: { cookie, 'accept-encoding': 'gzip' }, agent: false }, (res) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('end', () =>
+          resolve({ encoding: res.headers['content-encoding'], raw: Buffer.concat(chunks) }),
+        );
+        res.on('error', reject);
+      })
+      .on('error', reject);
+  });
+}
+
 describe('a long plan on a large station', () => {
   // the first request sends the station to the worker; the guard below measures the steady state
   it('the timeline lists each route once: blocks point into it, and the answer stays small', async () => {
@@ -76,6 +94,11 @@ describe('a long plan on a large station', () => {
       expect(tl.routes[b.routeIndex]).toBeDefined();
     }
     expect(res.bytes).toBeLessThan(5e6);
+    // and it crosses the wire compressed, to the same timeline
+    const { encoding, raw } = await gzipped(`/api/plans/${planId}/timeline`);
+    expect(encoding).toBe('gzip');
+    expect(raw.length).toBeLessThan(res.bytes / 3);
+    expect(JSON.parse(zlib.gunzipSync(raw).toString())).toEqual(tl);
   }, 120_000);
 
   it('timeline, CSV and PDF at once: /api/health answers under 250 ms throughout', async () => {
