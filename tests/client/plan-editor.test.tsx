@@ -1,5 +1,6 @@
-import { act } from 'react';
-import { afterEach, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
+import { act, render, screen } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
 import fc from 'fast-check';
 import { computeTimeline } from '@shared/compute/day/timeline';
 import { CreatePlanInputSchema, type Task } from '@shared/schemas/plan';
@@ -7,7 +8,6 @@ import { TimelineChart } from '@/features/plans/components/timeline-chart';
 import { TasksEditor } from '@/features/plans/components/tasks-editor';
 import { describeDifferences, draftChanges, draftFromPlan, moveItem } from '@/features/plans/lib/plan-draft';
 import type { PlanTimeline, PlanView } from '@/features/plans/types';
-import { render, type Rendered } from './render';
 import { LINE_KEYS, dayEngine, lineStationDocument } from '../factories/day';
 
 // the real day on the line station (10 s a metre, 12 m default tether), see tests/factories/day.ts
@@ -88,12 +88,6 @@ function planTimeline(plan: PlanView): PlanTimeline {
   };
 }
 
-let rendered: Rendered | undefined;
-afterEach(() => {
-  rendered?.unmount();
-  rendered = undefined;
-});
-
 describe('plan draft helpers', () => {
   it('moveItem keeps every item and puts the moved one where it was asked to go (property)', () => {
     fc.assert(
@@ -145,8 +139,7 @@ describe('timeline chart', () => {
   it('draws one band per night window, every block of both lanes, and the route of a focused block', async () => {
     const plan = planView();
     const timeline = planTimeline(plan);
-    rendered = await render(<TimelineChart timeline={timeline} tasks={plan.tasks} />);
-    const { container } = rendered;
+    const { container } = render(<TimelineChart timeline={timeline} tasks={plan.tasks} />);
     expect(timeline.nightWindows.length).toBeGreaterThan(0);
     expect(container.querySelectorAll('[data-night-band]').length).toBe(timeline.nightWindows.length);
     const blocks = timeline.crew.EV1.blocks.length + timeline.crew.EV2.blocks.length;
@@ -154,7 +147,7 @@ describe('timeline chart', () => {
     expect(container.querySelectorAll('[data-block-type="work"]').length).toBe(4);
 
     const translate = container.querySelector<SVGGElement>('[data-block-type="translate"]')!;
-    await act(async () => translate.focus());
+    act(() => translate.focus());
     expect(container.textContent).toMatch(/Whole route: AL → W2, 21\.5 m/);
     expect(translate.getAttribute('aria-label')).toMatch(
       /^EV1 Translate: Translate AL → \w+, 0:30 to 0:3\d$/,
@@ -164,8 +157,9 @@ describe('timeline chart', () => {
 
 describe('task list reordering', () => {
   it('moves a focused task with Alt+↑ and announces the move', async () => {
+    const user = userEvent.setup();
     let latest: Task[] = tasks;
-    rendered = await render(
+    const { container } = render(
       <TasksEditor
         tasks={tasks}
         onChange={(next) => {
@@ -178,19 +172,15 @@ describe('task list reordering', () => {
         warningCounts={new Map([[0, 1]])}
       />,
     );
-    const row = rendered.container.querySelector<HTMLLIElement>('#plan-task-3')!;
-    await act(async () => {
-      row.focus();
-      row.dispatchEvent(new KeyboardEvent('keydown', { key: 'ArrowUp', altKey: true, bubbles: true }));
-    });
+    act(() => container.querySelector<HTMLLIElement>('#plan-task-3')!.focus());
+    await user.keyboard('{Alt>}{ArrowUp}{/Alt}');
     expect(latest.map((t) => t.title)).toEqual(['Mate connectors', 'Route cable', 'Inspect hinge']);
-    expect(rendered.container.textContent).toContain('Moved task “Route cable” to position 2 of 3.');
-    expect(rendered.container.querySelector('#plan-task-1')?.textContent).toContain('⚠ 1 warning');
+    expect(screen.getByText('Moved task “Route cable” to position 2 of 3.')).toBeTruthy();
+    expect(container.querySelector('#plan-task-1')?.textContent).toContain('⚠ 1 warning');
 
-    // without Alt the arrow keys stay with the page
-    await act(async () => {
-      row.dispatchEvent(new KeyboardEvent('keydown', { key: 'ArrowDown', bubbles: true }));
-    });
+    // without Alt the arrow keys stay with the page, on the focused task as on any element
+    expect(document.activeElement?.id).toMatch(/^plan-task-\d$/);
+    await user.keyboard('{ArrowDown}');
     expect(latest.map((t) => t.title)).toEqual(['Mate connectors', 'Route cable', 'Inspect hinge']);
   });
 });
