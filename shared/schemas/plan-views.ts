@@ -1,5 +1,8 @@
 import type { Plan, PlanStatus } from './plan';
 import type { Timeline } from '../compute/day/types';
+import type { PlanTouch } from '../compute/plan-touches';
+
+export type { PlanTouch };
 
 /** `GET /api/plans/:id`: the plan with the names the server joins in. */
 export interface PlanView extends Plan {
@@ -30,9 +33,51 @@ export interface PlanListItem {
 /** `GET /api/plans/:id/timeline`: the day computed in one pass, with what it was computed against. */
 export interface PlanTimeline extends Timeline {
   planId: number;
+  /** approved, and the station has changed since: the day is still computed on the approved version */
+  stationChangedSinceApproval?: boolean;
+  stationChanges?: PlanTouch[];
   planVersion: number;
   stationId: number;
   stationVersion: number;
   airlockKey: string;
   caution: string;
+}
+
+/** A plan in review or approved that a station write touches. */
+export interface AffectedPlan {
+  id: number;
+  title: string;
+  status: 'in-review' | 'approved';
+}
+
+/** A station write listed on a plan it touched while the plan was in review or approved. */
+export interface PlanStationNotice {
+  id: number;
+  /** the station version the write made */
+  stationVersion: number;
+  planStatus: PlanStatus;
+  user: { id: number; name: string } | null;
+  summary: string;
+  touches: PlanTouch[];
+  createdAt: string;
+}
+
+/** What a plan says about its station (on `GET /api/plans/:id` and its timeline). */
+export interface PlanChangeControl {
+  /** the station version the plan is computed on: the approved one for an approved plan, else the current */
+  stationVersion: number;
+  currentStationVersion: number;
+  /** approved, and the station has changed since the approval */
+  stationChangedSinceApproval: boolean;
+  /** the changes since approval that touch the plan's tasks, routes and sockets */
+  stationChanges: PlanTouch[];
+  stationNotices: PlanStationNotice[];
+}
+
+/** `GET /api/plans/:id`. */
+export type PlanDetail = PlanView & PlanChangeControl;
+
+/** A station write's answer adds the reviewed plans it touched (a dry run: would touch; nothing written). */
+export interface StationWriteNotice {
+  affectedPlans: AffectedPlan[];
 }

@@ -422,6 +422,9 @@ export const PlanSchema = z.strictObject({
   approverId: IdSchema.nullable().optional(),
   submittedAt: z.string().nullable().optional(),
   approvedAt: z.string().nullable().optional(),
+  /** the station version the plan was last submitted against, and approved against */
+  submittedStationVersion: VersionSchema.nullable().optional(),
+  approvedStationVersion: VersionSchema.nullable().optional(),
   createdAt: z.string(),
   updatedAt: z.string(),
   reviewComments: z.array(ReviewCommentSchema).default([]),

@@ -6,6 +6,7 @@ import { notFound } from '../../lib/http-error';
 import { compileStation, isAttachKind, type CompiledStation } from '@shared/compute/compiled-station';
 import type { StationDocument } from '@shared/schemas/station';
 import { getStationSnapshot } from '../stations/stations.service';
+import { stationDocumentAt } from '../stations/station-versions.service';
 
 /**
  * One station version: its document, node keys and query index. The index is compiled on first
@@ -73,4 +74,26 @@ export function getCompiledStation(ctx: AppContext, stationId: number): Compiled
 /** Station ids held, least recently used first. */
 export function cachedStationIds(ctx: AppContext): number[] {
   return [...(caches.get(ctx.db)?.keys() ?? [])];
+}
+
+// earlier versions, kept apart so a pinned plan never pushes the live station out of the cache
+const pinnedCaches = new WeakMap<Db, Map<string, CompiledEntry>>();
+
+/**
+ * A kept version of the station (an approved plan is computed against the one it was approved on):
+ * the live entry when it is the current version, else rebuilt from the version history once and
+ * held among the last few asked for.
+ */
+export function getCompiledStationAt(ctx: AppContext, stationId: number, version: number): CompiledEntry {
+  const live = getCompiledStation(ctx, stationId);
+  if (live.version === version) return live;
+  let cache = pinnedCaches.get(ctx.db);
+  if (!cache) pinnedCaches.set(ctx.db, (cache = new Map()));
+  const key = `${stationId}@${version}`;
+  let entry = cache.get(key);
+  if (entry) cache.delete(key);
+  else entry = new CompiledEntry(stationId, version, stationDocumentAt(ctx.db, stationId, version));
+  cache.set(key, entry);
+  while (cache.size > CACHE_STATIONS) cache.delete(cache.keys().next().value!);
+  return entry;
 }

@@ -27,6 +27,7 @@ import {
 } from '@shared/schemas/station';
 import {
   changeSince,
+  notDryRun,
   edgeToRow,
   findStationRow,
   loadDocument,
@@ -274,7 +275,7 @@ export function acceptSocketPlan(
   input: AcceptSocketPlanInput,
   editor: Editor,
 ): AcceptSocketPlanResult {
-  return writeStation(ctx, { stationId, expectedVersion: input.version, editor }, (tx) => {
+  const written = writeStation(ctx, { stationId, expectedVersion: input.version, editor }, (tx) => {
     const doc = loadDocument(tx, findStationRow(tx, stationId));
     const onHandrail = new Set(doc.edges.filter((e) => e.kind === 'handrail').flatMap((e) => [e.from, e.to]));
     const joinable = doc.nodes.filter((n) => HANDRAIL_JOIN_KINDS.has(n.kind) && onHandrail.has(n.key));
@@ -337,6 +338,7 @@ export function acceptSocketPlan(
       change: changeSince(tx, stationId, doc),
     };
   });
+  return notDryRun(written);
 }
 
 export function orbitFor(query: OrbitQuery) {

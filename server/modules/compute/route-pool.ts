@@ -215,7 +215,9 @@ export class RoutePool {
       id,
       station: job.station,
       version: job.version,
-      ...('request' in job ? { request: job.request } : { day: { plan: job.plan, output: job.output } }),
+      ...('request' in job
+        ? { request: job.request }
+        : { day: { plan: job.plan, output: job.output, start: job.start, extra: job.extra } }),
     };
     if (withDocument) msg.doc = job.doc;
     slot.held.delete(job.station);

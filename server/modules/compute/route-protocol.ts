@@ -1,4 +1,6 @@
 import type { RouteRequest } from '@shared/schemas/route';
+import type { DayStart } from '@shared/compute/day/types';
+import type { DayExtra } from '../plans/plan-day';
 import type { PlanView } from '@shared/schemas/plan-views';
 import type { StationDocument } from '@shared/schemas/station';
 import type { ClipBuildEvent } from './clip-builder';
@@ -17,6 +19,9 @@ export const WORKER_STATIONS = 4;
 export interface DayWork {
   plan: PlanView;
   output: 'timeline' | 'csv' | 'pdf';
+  /** where the day's items start, when an earlier EVA of a series left them somewhere */
+  start?: DayStart;
+  extra?: DayExtra;
 }
 
 /**

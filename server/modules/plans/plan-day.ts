@@ -1,4 +1,5 @@
 import { computeTimeline } from '@shared/compute/day/timeline';
+import type { DayStart } from '@shared/compute/day/types';
 import { dayStationOf } from '@shared/compute/day/station';
 import { toWire } from '@shared/compute/day/wire';
 import type { CompiledStation } from '@shared/compute/compiled-station';
@@ -21,7 +22,12 @@ export interface DayStationVersion {
  * member's tether state in the plan's mode, restraints and their reach, equipment, night windows).
  * Runs on the main thread or in a route worker: it touches no database.
  */
-export function planTimelineOn(station: DayStationVersion, plan: PlanView): PlanTimeline {
+export function planTimelineOn(
+  station: DayStationVersion,
+  plan: PlanView,
+  start: DayStart = {},
+  extra: DayExtra = {},
+): PlanTimeline {
   const { doc, compiled, version } = station;
   const day = dayStationOf(doc, compiled);
   if (!day)
@@ -30,9 +36,11 @@ export function planTimelineOn(station: DayStationVersion, plan: PlanView): Plan
     { ...plan, manifest: plan.manifest.map((m, i) => ({ ...m, key: m.key ?? `item-${i + 1}` })) },
     day,
     (request) => routeOffPath(compiled, doc, request),
+    start,
   );
   return {
     ...timeline,
+    ...extra,
     planId: plan.id,
     planVersion: plan.version,
     stationId: plan.stationId,
@@ -44,6 +52,9 @@ export function planTimelineOn(station: DayStationVersion, plan: PlanView): Plan
 
 export type DayOutput = 'timeline' | 'csv' | 'pdf';
 
+/** What the server adds to a day it computes: whether the plan's station moved on since approval. */
+export type DayExtra = Partial<Pick<PlanTimeline, 'stationChangedSinceApproval' | 'stationChanges'>>;
+
 /** What a day job answers: JSON or CSV text, or the bytes of a PDF. */
 export type DayResult = { text: string } | { bytes: Uint8Array };
 
@@ -52,8 +63,10 @@ export async function dayOutputOn(
   station: DayStationVersion,
   plan: PlanView,
   output: DayOutput,
+  start: DayStart = {},
+  extra: DayExtra = {},
 ): Promise<DayResult> {
-  const timeline = planTimelineOn(station, plan);
+  const timeline = planTimelineOn(station, plan, start, extra);
   if (output === 'timeline') return { text: JSON.stringify(toWire(timeline)) };
   if (output === 'csv') return { text: timelineCsv(plan, timeline) };
   return { bytes: new Uint8Array(await timelinePdf(plan, timeline)) };

@@ -1,16 +1,34 @@
 import type { AppContext } from '../../context';
-import { getCompiledStation } from '../compute/compiled-cache';
+import type { DayStart } from '@shared/compute/day/types';
+import { getCompiledStationAt, stationVersion } from '../compute/compiled-cache';
 import { getPlan, type PlanView } from './plans.service';
-import { dayOutputOn, planTimelineOn, type DayOutput, type DayResult } from './plan-day';
+import { dayOutputOn, planTimelineOn, type DayExtra, type DayOutput, type DayResult } from './plan-day';
 
 export type { PlanTimeline } from '@shared/schemas/plan-views';
 import type { PlanTimeline } from '@shared/schemas/plan-views';
 
-/** The plan's day on its station's current version, computed here on the calling thread. */
-export function planTimeline(ctx: AppContext, planId: number): { plan: PlanView; timeline: PlanTimeline } {
+/**
+ * The station version a plan is computed against: an approved plan the one it was approved on (so
+ * an approval stays true when the station moves on), any other plan the current one.
+ */
+export function planStationVersion(ctx: AppContext, plan: PlanView): number {
+  if (plan.status === 'approved' && plan.approvedStationVersion != null) return plan.approvedStationVersion;
+  return stationVersion(ctx.db, plan.stationId) ?? 0;
+}
+
+/** The plan's station at the version it is computed on, compiled (the live entry, or a kept version rebuilt). */
+export function planStation(ctx: AppContext, plan: PlanView) {
+  return getCompiledStationAt(ctx, plan.stationId, planStationVersion(ctx, plan));
+}
+
+/** The plan's day on the station version it is computed on, here on the calling thread. */
+export function planTimeline(
+  ctx: AppContext,
+  planId: number,
+  start: DayStart = {},
+): { plan: PlanView; timeline: PlanTimeline } {
   const plan = getPlan(ctx.db, planId);
-  const station = getCompiledStation(ctx, plan.stationId);
-  return { plan, timeline: planTimelineOn(station, plan) };
+  return { plan, timeline: planTimelineOn(planStation(ctx, plan), plan, start) };
 }
 
 /**
@@ -22,16 +40,22 @@ export async function planDayOutput(
   ctx: AppContext,
   planId: number,
   output: DayOutput,
+  more: { start?: DayStart; extra?: DayExtra; plan?: PlanView } = {},
 ): Promise<{ plan: PlanView; result: DayResult }> {
-  const plan = getPlan(ctx.db, planId);
-  const station = getCompiledStation(ctx, plan.stationId);
-  if (!ctx.routePool) return { plan, result: await dayOutputOn(station, plan, output) };
+  const plan = more.plan ?? getPlan(ctx.db, planId);
+  const station = planStation(ctx, plan);
+  const { start = {}, extra = {} } = more;
+  if (!ctx.routePool) return { plan, result: await dayOutputOn(station, plan, output, start, extra) };
+  const live = station.version === stationVersion(ctx.db, plan.stationId);
   const result = await ctx.routePool.day({
-    station: `${ctx.config.databaseUrl}#${plan.stationId}`,
+    // a kept version is held by the worker beside the live one, not in its place
+    station: `${ctx.config.databaseUrl}#${plan.stationId}${live ? '' : `@${station.version}`}`,
     version: station.version,
     doc: station.doc,
     plan,
     output,
+    start,
+    extra,
   });
   return { plan, result };
 }

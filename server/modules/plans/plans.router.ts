@@ -23,9 +23,13 @@ import {
   updatePlan,
 } from './plans.service';
 import { planDayOutput } from './plan-timeline.service';
+import { planChangeControl } from './plan-station.service';
+import type { PlanDetail } from '@shared/schemas/plan-views';
 import { exportFileName } from './plan-export.service';
 
 const ReviewBodySchema = ReviewActionInputSchema.extend({ version: VersionSchema });
+/** `stationVersion`: the station version the reviewer saw the plan computed on; stale → 409 */
+const ApproveBodySchema = ReviewBodySchema.extend({ stationVersion: VersionSchema.optional() });
 const ReturnBodySchema = ReturnPlanInputSchema.extend({ version: VersionSchema });
 const ListQuerySchema = z.strictObject({
   status: PlanStatusSchema.optional(),
@@ -36,7 +40,7 @@ const DeleteQuerySchema = z.strictObject({
 });
 
 function reviewRoute(
-  action: 'submit' | 'approve',
+  action: 'submit',
   access: Permission,
   run: (req: Request, planId: number, body: z.infer<typeof ReviewBodySchema>) => unknown,
 ) {
@@ -75,7 +79,10 @@ export function plansRouter(ctx: AppContext) {
       path: '/:id',
       access: 'read',
       input: { params: IdParamsSchema },
-      handler: (_req, _res, { params }) => getPlan(ctx.db, params.id),
+      handler: (_req, _res, { params }): PlanDetail => {
+        const plan = getPlan(ctx.db, params.id);
+        return { ...plan, ...planChangeControl(ctx, plan) };
+      },
     }),
     defineRoute({
       method: 'patch',
@@ -96,9 +103,14 @@ export function plansRouter(ctx: AppContext) {
     reviewRoute('submit', 'plans:submit', (req, id, body) =>
       submitPlan(ctx, id, body.version, body.comment || undefined, req.user!),
     ),
-    reviewRoute('approve', 'plans:review', (req, id, body) =>
-      approvePlan(ctx, id, body.version, body.comment || undefined, req.user!),
-    ),
+    defineRoute({
+      method: 'post',
+      path: '/:id/approve',
+      access: 'plans:review',
+      input: { params: IdParamsSchema, body: ApproveBodySchema },
+      handler: (req, _res, { params, body }) =>
+        approvePlan(ctx, params.id, body.version, body.comment || undefined, req.user!, body.stationVersion),
+    }),
     defineRoute({
       method: 'post',
       path: '/:id/return',
@@ -113,7 +125,12 @@ export function plansRouter(ctx: AppContext) {
       access: 'read',
       input: { params: IdParamsSchema },
       handler: async (_req, _res, { params }) => {
-        const { result } = await planDayOutput(ctx, params.id, 'timeline');
+        const plan = getPlan(ctx.db, params.id);
+        const { stationChangedSinceApproval, stationChanges } = planChangeControl(ctx, plan);
+        const { result } = await planDayOutput(ctx, params.id, 'timeline', {
+          plan,
+          extra: { stationChangedSinceApproval, stationChanges },
+        });
         return new JsonText('text' in result ? result.text : '');
       },
     }),

@@ -188,6 +188,8 @@ export function getPlan(db: Db, id: number): PlanView {
     approverName: row.approverName,
     submittedAt: p.submittedAt,
     approvedAt: p.approvedAt,
+    submittedStationVersion: p.submittedStationVersion,
+    approvedStationVersion: p.approvedStationVersion,
     createdAt: p.createdAt,
     updatedAt: p.updatedAt,
     reviewComments: comments,
@@ -498,12 +500,23 @@ export function reviewTransition(
   version: number,
   comment: string | undefined,
   actor: Actor,
+  /** approve: the station version the reviewer saw the plan computed on (stale → 409) */
+  seenStationVersion?: number,
 ) {
   const rule = TRANSITIONS[action];
   return ctx.db.transaction((tx) => {
     const db = tx as unknown as Db;
     const before = getPlan(db, id);
     assertVersion(db, before, version);
+    // submitting and approving record the station version the plan was checked against
+    const stationNow = stationVersion(db, before.stationId)!;
+    if (seenStationVersion !== undefined && seenStationVersion !== stationNow) {
+      throw staleVersion('The station this plan is computed on', seenStationVersion, {
+        currentVersion: stationNow,
+        changedBy: null,
+        changedAt: null,
+      });
+    }
     if (!rule.from.includes(before.status)) {
       throw conflict(`The plan is ${STATUS_WORDS[before.status]}, so it cannot be ${rule.verb}.`);
     }
@@ -518,9 +531,13 @@ export function reviewTransition(
     const now = new Date().toISOString();
     bump(db, before, {
       status: rule.to,
-      ...(action === 'submit' ? { submittedAt: now, approverId: null, approvedAt: null } : {}),
-      ...(action === 'approve' ? { approverId: actor.id, approvedAt: now } : {}),
-      ...(action === 'return' ? { approverId: null, approvedAt: null } : {}),
+      ...(action === 'submit'
+        ? { submittedAt: now, approverId: null, approvedAt: null, submittedStationVersion: stationNow }
+        : {}),
+      ...(action === 'approve'
+        ? { approverId: actor.id, approvedAt: now, approvedStationVersion: stationNow }
+        : {}),
+      ...(action === 'return' ? { approverId: null, approvedAt: null, approvedStationVersion: null } : {}),
     });
     db.insert(reviewComments)
       .values({ planId: id, authorId: actor.id, action, body: comment ?? '' })
@@ -531,16 +548,16 @@ export function reviewTransition(
   });
 }
 
-async function sendQuietly(ctx: AppContext, mail: { to: string; subject: string; text: string }) {
+export async function sendQuietly(ctx: AppContext, mail: { to: string; subject: string; text: string }) {
   // the review step is saved either way; a mail server outage must not undo it
   try {
     await ctx.mailer.send(mail);
   } catch (err) {
-    ctx.logger.error({ err, to: mail.to }, 'could not send a plan review e-mail');
+    ctx.logger.error({ err, to: mail.to }, 'could not send a plan e-mail');
   }
 }
 
-function authorOf(db: Db, plan: PlanView) {
+export function authorOf(db: Db, plan: Pick<PlanView, 'authorId'>) {
   if (plan.authorId === null) return null;
   return (
     db
@@ -599,8 +616,9 @@ export async function approvePlan(
   version: number,
   comment: string | undefined,
   actor: Actor,
+  seenStationVersion?: number,
 ) {
-  const plan = reviewTransition(ctx, id, 'approve', version, comment, actor);
+  const plan = reviewTransition(ctx, id, 'approve', version, comment, actor, seenStationVersion);
   await mailAuthor(
     ctx,
     plan,
@@ -612,7 +630,11 @@ export async function approvePlan(
   recordActivity(ctx.db, {
     userId: actor.id,
     kind: 'plan.approved',
-    summary: `${actor.name} approved "${plan.title}"`,
+    summary: `${actor.name} approved "${plan.title}"${
+      plan.submittedStationVersion !== plan.approvedStationVersion
+        ? ` on station version ${plan.approvedStationVersion} (submitted on version ${plan.submittedStationVersion})`
+        : ''
+    }`,
     link: `/plans/${id}`,
   });
   return plan;

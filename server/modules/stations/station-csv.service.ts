@@ -17,6 +17,7 @@ import {
   problemsError,
   writeStation,
   type DbContext,
+  isDryRun,
   type WriteRequest,
 } from './stations.service';
 
@@ -108,6 +109,7 @@ export function importStationCsv(ctx: DbContext, req: WriteRequest, files: CsvFi
       change: changeSince(tx, row.id, current),
     };
   });
+  if (isDryRun(written)) return written;
   const station = getStation(ctx.db, req.stationId);
   return { station, counts: station.counts, added: written.added, updated: written.updated };
 }

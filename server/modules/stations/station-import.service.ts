@@ -42,10 +42,12 @@ export async function importDocumentJob(db: Db, job: ImportDocumentJob): Promise
 export interface ReplaceDocumentJob {
   file: UploadedFile;
   request: WriteRequest;
+  /** answer the model the replace would make, writing nothing */
+  dryRun?: boolean;
 }
 
-export async function replaceDocumentJob(db: Db, job: ReplaceDocumentJob): Promise<ImportStationResult> {
-  return replaceStationModel({ db }, job.request, await documentOf(job.file));
+export async function replaceDocumentJob(db: Db, job: ReplaceDocumentJob) {
+  return replaceStationModel({ db, dryRun: job.dryRun }, job.request, await documentOf(job.file));
 }
 
 export interface ImportCsvJob {
@@ -53,6 +55,7 @@ export interface ImportCsvJob {
   edges?: UploadedFile;
   arms?: UploadedFile;
   request: WriteRequest;
+  dryRun?: boolean;
 }
 
 export async function importCsvJob(db: Db, job: ImportCsvJob) {
@@ -63,5 +66,5 @@ export async function importCsvJob(db: Db, job: ImportCsvJob) {
     edges: await read(job.edges, 'edges CSV'),
     arms: await read(job.arms, 'arms CSV'),
   };
-  return importStationCsv({ db }, job.request, files);
+  return importStationCsv({ db, dryRun: job.dryRun }, job.request, files);
 }

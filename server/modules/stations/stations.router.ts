@@ -31,9 +31,12 @@ import {
   getStation,
   getStationGraphJson,
   listStationAudit,
+  isDryRun,
   listStations,
+  type DryRunAnswer,
   type Editor,
 } from './stations.service';
+import { noticeStationWrite, previewAffectedPlans } from '../plans/plan-station.service';
 
 /** A station document of several hundred thousand nodes is well under this. */
 export const STATION_FILE_MAX_BYTES = 20 * MB;
@@ -61,6 +64,39 @@ function stationDocumentFile(req: Request): UploadedFile {
 
 const editor = (req: Request): Editor => ({ id: req.user!.id, name: req.user!.name });
 
+/** `?dryRun=1` on a station write: answer the reviewed plans it would touch, and write nothing. */
+const DryRunQuerySchema = z.object({
+  dryRun: z
+    .enum(['0', '1', 'false', 'true'])
+    .optional()
+    .transform((v) => v === '1' || v === 'true'),
+});
+type DryRunQuery = z.infer<typeof DryRunQuerySchema>;
+/** The app as a write sees it: with `dryRun`, the write rolls back and answers the model it would make. */
+const withDryRun = (ctx: AppContext, dryRun: boolean): AppContext =>
+  dryRun ? ({ ...ctx, dryRun } as AppContext) : ctx;
+const DeleteQuerySchema = VersionQuerySchema.extend(DryRunQuerySchema.shape);
+const MultipartQuerySchema = MultipartVersionSchema.extend(DryRunQuerySchema.shape);
+
+/**
+ * A station write that touches plans in review or approved answers them (`affectedPlans`); those
+ * get the change listed on them and their authors a mail. A dry run always answers the list (maybe
+ * empty) and writes nothing.
+ */
+async function withAffectedPlans(ctx: AppContext, req: Request, stationId: number, written: unknown) {
+  const r = (await written) as DryRunAnswer | { version?: number; station?: { version: number } };
+  if (isDryRun(r))
+    return {
+      dryRun: true,
+      version: r.version,
+      affectedPlans: previewAffectedPlans(ctx, stationId, r.version, r.document),
+    };
+  const version = r.version ?? r.station!.version;
+  const affectedPlans = await noticeStationWrite(ctx, stationId, version, editor(req));
+  // named only when there are some: a write that touches no reviewed plan answers as it always has
+  return affectedPlans.length ? { ...r, affectedPlans } : r;
+}
+
 /** POST a new item, PATCH one (version in the body), DELETE one (`?version=`): the edit routes of one collection. */
 function itemRoutes<
   P extends z.ZodObject<{ id: z.ZodType<number> }>,
@@ -72,46 +108,58 @@ function itemRoutes<
   params: P,
   createBody: C,
   updateBody: U,
+  ctx: AppContext,
   ops: {
-    create(stationId: number, body: z.infer<C>, ed: Editor): unknown;
-    update(stationId: number, params: z.infer<P>, body: z.infer<U>, ed: Editor): unknown;
-    remove(stationId: number, params: z.infer<P>, version: number, ed: Editor): unknown;
+    create(c: AppContext, stationId: number, body: z.infer<C>, ed: Editor): unknown;
+    update(c: AppContext, stationId: number, params: z.infer<P>, body: z.infer<U>, ed: Editor): unknown;
+    remove(c: AppContext, stationId: number, params: z.infer<P>, version: number, ed: Editor): unknown;
   },
 ) {
+  const on = (q: DryRunQuery) => withDryRun(ctx, q.dryRun);
   return [
     defineRoute({
       method: 'post',
       path: `/:id/${collection}`,
       access: 'stations:edit',
       status: 201,
-      input: { params: StationIdParamsSchema, body: createBody },
-      handler: (req, _res, input) => ops.create(input.params.id, input.body as z.infer<C>, editor(req)),
+      input: { params: StationIdParamsSchema, query: DryRunQuerySchema, body: createBody },
+      handler: (req, _res, input) =>
+        withAffectedPlans(
+          ctx,
+          req,
+          input.params.id,
+          ops.create(on(input.query), input.params.id, input.body as z.infer<C>, editor(req)),
+        ),
     }),
     defineRoute({
       method: 'patch',
       path: `/:id/${collection}/${item}`,
       access: 'stations:edit',
-      input: { params, body: updateBody },
-      handler: (req, _res, input) =>
-        ops.update(
-          (input.params as z.infer<P>).id,
-          input.params as z.infer<P>,
-          input.body as z.infer<U>,
-          editor(req),
-        ),
+      input: { params, query: DryRunQuerySchema, body: updateBody },
+      handler: (req, _res, input) => {
+        const p = input.params as z.infer<P>;
+        return withAffectedPlans(
+          ctx,
+          req,
+          p.id,
+          ops.update(on(input.query), p.id, p, input.body as z.infer<U>, editor(req)),
+        );
+      },
     }),
     defineRoute({
       method: 'delete',
       path: `/:id/${collection}/${item}`,
       access: 'stations:edit',
-      input: { params, query: VersionQuerySchema },
-      handler: (req, _res, input) =>
-        ops.remove(
-          (input.params as z.infer<P>).id,
-          input.params as z.infer<P>,
-          input.query.version,
-          editor(req),
-        ),
+      input: { params, query: DeleteQuerySchema },
+      handler: (req, _res, input) => {
+        const p = input.params as z.infer<P>;
+        return withAffectedPlans(
+          ctx,
+          req,
+          p.id,
+          ops.remove(on(input.query), p.id, p, input.query.version, editor(req)),
+        );
+      },
     }),
   ];
 }
@@ -143,42 +191,60 @@ export function stationsRouter(ctx: AppContext) {
       method: 'patch',
       path: '/:id',
       access: 'stations:edit',
-      input: { params: StationIdParamsSchema, body: UpdateStationInputSchema },
-      handler: (req, _res, { params, body }) => edits.updateStation(ctx, params.id, body, editor(req)),
+      input: { params: StationIdParamsSchema, query: DryRunQuerySchema, body: UpdateStationInputSchema },
+      handler: (req, _res, { params, query, body }) =>
+        withAffectedPlans(
+          ctx,
+          req,
+          params.id,
+          edits.updateStation(withDryRun(ctx, query.dryRun), params.id, body, editor(req)),
+        ),
     }),
     defineRoute({
       method: 'put',
       path: '/:id/import',
       access: 'stations:import',
       before: [documentUpload],
-      input: { params: StationIdParamsSchema, query: MultipartVersionSchema, body: MultipartVersionSchema },
+      input: { params: StationIdParamsSchema, query: MultipartQuerySchema, body: MultipartVersionSchema },
       handler: (req, _res, { params, query, body }) =>
-        runTask(ctx, 'station-replace', {
-          file: stationDocumentFile(req),
-          request: {
-            stationId: params.id,
-            expectedVersion: body.version ?? query.version,
-            editor: editor(req),
-          },
-        }),
+        withAffectedPlans(
+          ctx,
+          req,
+          params.id,
+          runTask(ctx, 'station-replace', {
+            file: stationDocumentFile(req),
+            request: {
+              stationId: params.id,
+              expectedVersion: body.version ?? query.version,
+              editor: editor(req),
+            },
+            dryRun: query.dryRun,
+          }),
+        ),
     }),
     defineRoute({
       method: 'post',
       path: '/:id/import-csv',
       access: 'stations:import',
       before: [csvUpload],
-      input: { params: StationIdParamsSchema, query: MultipartVersionSchema, body: MultipartVersionSchema },
+      input: { params: StationIdParamsSchema, query: MultipartQuerySchema, body: MultipartVersionSchema },
       handler: (req, _res, { params, query, body }) =>
-        runTask(ctx, 'station-csv', {
-          nodes: storedFile(req, 'nodes'),
-          edges: storedFile(req, 'edges'),
-          arms: storedFile(req, 'arms'),
-          request: {
-            stationId: params.id,
-            expectedVersion: body.version ?? query.version,
-            editor: editor(req),
-          },
-        }),
+        withAffectedPlans(
+          ctx,
+          req,
+          params.id,
+          runTask(ctx, 'station-csv', {
+            nodes: storedFile(req, 'nodes'),
+            edges: storedFile(req, 'edges'),
+            arms: storedFile(req, 'arms'),
+            request: {
+              stationId: params.id,
+              expectedVersion: body.version ?? query.version,
+              editor: editor(req),
+            },
+            dryRun: query.dryRun,
+          }),
+        ),
     }),
     defineRoute({
       method: 'get',
@@ -236,26 +302,43 @@ export function stationsRouter(ctx: AppContext) {
         listStationAudit(ctx.db, params.id, query.page, query.pageSize),
     }),
 
-    ...itemRoutes('nodes', ':key', StationKeyParamsSchema, CreateNodeInputSchema, UpdateNodeInputSchema, {
-      create: (id, body, ed) => edits.createNode(ctx, id, body, ed),
-      update: (id, p, body, ed) => edits.updateNode(ctx, id, p.key, body, ed),
-      remove: (id, p, version, ed) => edits.deleteNode(ctx, id, p.key, version, ed),
-    }),
-    ...itemRoutes('edges', ':edgeId', StationEdgeParamsSchema, CreateEdgeInputSchema, UpdateEdgeInputSchema, {
-      create: (id, body, ed) => edits.createEdge(ctx, id, body, ed),
-      update: (id, p, body, ed) => edits.updateEdge(ctx, id, p.edgeId, body, ed),
-      remove: (id, p, version, ed) => edits.deleteEdge(ctx, id, p.edgeId, version, ed),
-    }),
+    ...itemRoutes(
+      'nodes',
+      ':key',
+      StationKeyParamsSchema,
+      CreateNodeInputSchema,
+      UpdateNodeInputSchema,
+      ctx,
+      {
+        create: (c, id, body, ed) => edits.createNode(c, id, body, ed),
+        update: (c, id, p, body, ed) => edits.updateNode(c, id, p.key, body, ed),
+        remove: (c, id, p, version, ed) => edits.deleteNode(c, id, p.key, version, ed),
+      },
+    ),
+    ...itemRoutes(
+      'edges',
+      ':edgeId',
+      StationEdgeParamsSchema,
+      CreateEdgeInputSchema,
+      UpdateEdgeInputSchema,
+      ctx,
+      {
+        create: (c, id, body, ed) => edits.createEdge(c, id, body, ed),
+        update: (c, id, p, body, ed) => edits.updateEdge(c, id, p.edgeId, body, ed),
+        remove: (c, id, p, version, ed) => edits.deleteEdge(c, id, p.edgeId, version, ed),
+      },
+    ),
     ...itemRoutes(
       'hazards',
       ':key',
       StationKeyParamsSchema,
       CreateHazardInputSchema,
       UpdateHazardInputSchema,
+      ctx,
       {
-        create: (id, body, ed) => edits.createHazard(ctx, id, body, ed),
-        update: (id, p, body, ed) => edits.updateHazard(ctx, id, p.key, body, ed),
-        remove: (id, p, version, ed) => edits.deleteHazard(ctx, id, p.key, version, ed),
+        create: (c, id, body, ed) => edits.createHazard(c, id, body, ed),
+        update: (c, id, p, body, ed) => edits.updateHazard(c, id, p.key, body, ed),
+        remove: (c, id, p, version, ed) => edits.deleteHazard(c, id, p.key, version, ed),
       },
     ),
     ...itemRoutes(
@@ -264,10 +347,11 @@ export function stationsRouter(ctx: AppContext) {
       StationKeyParamsSchema,
       CreateSegmentInputSchema,
       UpdateSegmentInputSchema,
+      ctx,
       {
-        create: (id, body, ed) => edits.createSegment(ctx, id, body, ed),
-        update: (id, p, body, ed) => edits.updateSegment(ctx, id, p.key, body, ed),
-        remove: (id, p, version, ed) => edits.deleteSegment(ctx, id, p.key, version, ed),
+        create: (c, id, body, ed) => edits.createSegment(c, id, body, ed),
+        update: (c, id, p, body, ed) => edits.updateSegment(c, id, p.key, body, ed),
+        remove: (c, id, p, version, ed) => edits.deleteSegment(c, id, p.key, version, ed),
       },
     ),
   ]);

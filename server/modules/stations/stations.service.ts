@@ -60,7 +60,27 @@ export interface Editor {
  */
 export type DbContext = Pick<AppContext, 'db'> & {
   config?: Partial<Pick<AppContext['config'], 'stationSnapshotEvery'>>;
+  /** run the write and answer the model it would make, then roll it back: nothing is written */
+  dryRun?: boolean;
 };
+
+/** What a dry-run write answers: the station document the write would have made, from which version. */
+export interface DryRunAnswer {
+  dryRun: true;
+  version: number;
+  document: StationDocument;
+}
+export const isDryRun = (r: object): r is DryRunAnswer => (r as Partial<DryRunAnswer>).dryRun === true;
+/** The answer of a write that is never a dry run. */
+export function notDryRun<T extends object>(r: T | DryRunAnswer): T {
+  if (isDryRun(r)) throw new Error('internal: a write answered a dry run nobody asked for');
+  return r;
+}
+class DryRunRollback extends Error {
+  constructor(readonly answer: DryRunAnswer) {
+    super('dry run: rolled back');
+  }
+}
 const snapshotEvery = (ctx: DbContext) => ctx.config?.stationSnapshotEvery ?? 50;
 
 // ── Change notifications ────────────────────────────────────────────────────────────────────────
@@ -531,8 +551,31 @@ export function writeStation<R>(
   ctx: DbContext,
   req: WriteRequest,
   change: (tx: Tx, row: StationRow) => WriteOutcome<R>,
+): ({ version: number } & R) | DryRunAnswer {
+  let written;
+  try {
+    written = writeStationTx(ctx, req, change);
+  } catch (err) {
+    if (err instanceof DryRunRollback) return err.answer;
+    throw err;
+  }
+  const { outcome, version, name } = written;
+  recordActivity(ctx.db, {
+    userId: req.editor.id,
+    kind: `station.${outcome.action}`,
+    summary: `${req.editor.name} ${outcome.summary} on ${name}`,
+    link: `/stations/${req.stationId}`,
+  });
+  emitStationChanged({ stationId: req.stationId, version });
+  return { version, ...outcome.result };
+}
+
+function writeStationTx<R>(
+  ctx: DbContext,
+  req: WriteRequest,
+  change: (tx: Tx, row: StationRow) => WriteOutcome<R>,
 ) {
-  const { outcome, version, name } = ctx.db.transaction((tx) => {
+  return ctx.db.transaction((tx) => {
     const row = findStationRow(tx, req.stationId);
     if (req.expectedVersion !== undefined && req.expectedVersion !== row.version)
       throw staleStation(tx, row, req.expectedVersion);
@@ -542,6 +585,10 @@ export function writeStation<R>(
       const current = findStationRow(tx, req.stationId);
       const checked = parseStationDocument(loadDocument(tx, current));
       if (!checked.ok) throw problemsError('The change would break the station model', checked.problems);
+    }
+    if (ctx.dryRun) {
+      const document = loadDocument(tx, findStationRow(tx, req.stationId));
+      throw new DryRunRollback({ dryRun: true, version: row.version, document });
     }
     const version = row.version + 1;
     const bumped = tx
@@ -572,14 +619,6 @@ export function writeStation<R>(
     });
     return { outcome, version, name: findStationRow(tx, row.id).name };
   });
-  recordActivity(ctx.db, {
-    userId: req.editor.id,
-    kind: `station.${outcome.action}`,
-    summary: `${req.editor.name} ${outcome.summary} on ${name}`,
-    link: `/stations/${req.stationId}`,
-  });
-  emitStationChanged({ stationId: req.stationId, version });
-  return { version, ...outcome.result };
 }
 
 /** What a bulk write changed: the model now against the document it started from. */
@@ -720,8 +759,8 @@ export function replaceStationModel(
   ctx: DbContext,
   req: WriteRequest,
   doc: StationDocument,
-): ImportStationResult {
-  writeStation(ctx, req, (tx, row) => {
+): ImportStationResult | DryRunAnswer {
+  const written = writeStation(ctx, req, (tx, row) => {
     const before = { name: row.name, counts: countsOf(tx, row.id) };
     const beforeDoc = loadDocument(tx, row);
     deleteModel(tx, row.id);
@@ -746,6 +785,7 @@ export function replaceStationModel(
       change: changeSince(tx, row.id, beforeDoc),
     };
   });
+  if (isDryRun(written)) return written;
   const station = getStation(ctx.db, req.stationId);
   return { station, counts: station.counts };
 }
