@@ -1,5 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { buildPlanInput, buildTask } from '../factories/plan';
 import { buildStationDocument, FIXTURE_KEYS as K, stationDocumentFile } from '../factories/station-document';
+import { importStation } from '../setup/stations';
 import { makeTestApp, type TestAgent, type TestApp } from '../setup/test-app';
 
 const NEAR_SITE = 'T2-W2';
@@ -24,31 +26,17 @@ function stationDoc(dropWorksite = false) {
   return doc;
 }
 
-async function newStation(): Promise<number> {
-  const res = await engineer
-    .post('/api/stations/import')
-    .attach('file', stationDocumentFile(stationDoc()), 's.json');
-  expect(res.status, JSON.stringify(res.body)).toBe(201);
-  return res.body.station.id;
-}
+const newStation = async () => (await importStation(engineer, stationDoc())).id;
 
-function planBody(stationId: number, title: string) {
-  return {
+const planBody = (stationId: number, title: string) =>
+  buildPlanInput(stationId, {
     title,
-    stationId,
-    date: '2031-03-14',
-    crew: {
-      EV1: { name: 'Ana Vidal', tetherLengthM: 25.9 },
-      EV2: { name: 'Bo Lindgren', tetherLengthM: 25.9 },
-    },
     tasks: [
-      { title: 'Open the valve panel', worksite: NEAR_SITE, crew: 'EV1', durationSeconds: 600 },
-      { title: 'Photograph the panel', worksite: NEAR_SITE, crew: 'EV2', durationSeconds: 300 },
-      { title: 'Swap the pump', worksite: K.worksite, crew: 'EV1', durationSeconds: 900 },
+      buildTask({ title: 'Open the valve panel', worksite: NEAR_SITE }),
+      buildTask({ title: 'Photograph the panel', worksite: NEAR_SITE, crew: 'EV2', durationSeconds: 300 }),
+      buildTask({ title: 'Swap the pump', durationSeconds: 900 }),
     ],
-    manifest: [],
-  };
-}
+  });
 
 /** A plan by `planner`, submitted, and approved by `planner2` (who did not write it). */
 async function approvedPlan(stationId: number, title: string) {
