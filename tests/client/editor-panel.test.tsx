@@ -1,6 +1,7 @@
-import { act } from 'react';
 import fc from 'fast-check';
 import { afterEach, describe, expect, it, vi } from 'vitest';
+import { screen, waitFor, within } from '@testing-library/react';
+import userEvent, { type UserEvent } from '@testing-library/user-event';
 import { staleVersionDetails } from '@shared/errors';
 import { StationDocumentSchema } from '@shared/schemas/station';
 import type { StationGraph } from '@shared/schemas/station-edits';
@@ -8,14 +9,9 @@ import { EditPanel } from '@/features/station-editor/components/edit-panel';
 import { changedFields } from '@/features/station-editor/components/node-form';
 import { suggestNodeKey } from '@/features/station-editor/utils/node-keys';
 import { buildStationDocument, FIXTURE_KEYS } from '../factories/station-document';
-import { render, typeInto, until, type Rendered } from './render';
+import { renderWithQueryClient } from '../setup/client';
 
-let rendered: Rendered | undefined;
-afterEach(() => {
-  rendered?.unmount();
-  rendered = undefined;
-  vi.unstubAllGlobals();
-});
+afterEach(() => vi.unstubAllGlobals());
 
 function graphAt(version: number): StationGraph {
   const doc = StationDocumentSchema.parse(buildStationDocument());
@@ -97,27 +93,21 @@ function fakeStationApi(current: { version: number; by: string }) {
   return sent;
 }
 
-function form(container: HTMLElement, name: string): HTMLFormElement {
-  const f = container.querySelector(`form[aria-label="${name}"]`);
-  if (!(f instanceof HTMLFormElement)) throw new Error(`no form ${name}`);
-  return f;
+/** The panel's form of that name, with its fields and buttons found by their labels. */
+function form(name: string) {
+  const f = screen.getByRole('form', { name });
+  const scope = within(f);
+  return {
+    element: f,
+    field: (label: string) => scope.getByLabelText<HTMLInputElement>(label),
+    button: (label: string) => scope.getByRole('button', { name: label }),
+  };
 }
 
-function field(scope: HTMLElement, label: string): HTMLInputElement {
-  const labelEl = [...scope.querySelectorAll('label')].find((l) => l.textContent === label);
-  const input = labelEl && scope.ownerDocument.getElementById(labelEl.htmlFor);
-  if (!(input instanceof HTMLInputElement)) throw new Error(`no input labelled ${label}`);
-  return input;
-}
-
-async function click(scope: HTMLElement, text: string | RegExp) {
-  const button = [...scope.querySelectorAll('button')].find((b) =>
-    typeof text === 'string'
-      ? b.textContent === text || b.getAttribute('aria-label') === text
-      : text.test(b.textContent ?? ''),
-  );
-  if (!button) throw new Error(`no button ${text}`);
-  await act(async () => button.click());
+/** Clears a field and types `text` into it, as a person replacing what is there. */
+async function retype(user: UserEvent, input: HTMLElement, text: string) {
+  await user.clear(input);
+  await user.type(input, text);
 }
 
 describe('suggestNodeKey', () => {
@@ -150,7 +140,7 @@ describe('EditPanel', () => {
     const sent = fakeStationApi({ version: 3, by: 'Erin Engineer' });
     const onChanged = vi.fn();
     const onSelectNode = vi.fn();
-    rendered = await render(
+    renderWithQueryClient(
       <EditPanel
         graph={graphAt(3)}
         selectedKey={null}
@@ -159,23 +149,20 @@ describe('EditPanel', () => {
         onChanged={onChanged}
       />,
     );
-    const add = form(rendered.container, 'Add node');
-    const kind = add.querySelector('select')!;
-    await act(async () => {
-      kind.value = 'socket';
-      kind.dispatchEvent(new Event('change', { bubbles: true }));
-    });
+    const user = userEvent.setup();
+    const add = form('Add node');
+    await user.selectOptions(add.element.querySelector('select')!, 'socket');
     // the key followed the kind: the first socket on the first segment
-    expect(field(add, 'Key').value).toBe('T1-S01');
-    await typeInto(field(add, 'x (m)'), '4.25');
-    await typeInto(field(add, 'y (m)'), '-1.5');
-    await typeInto(field(add, 'z (m)'), '0');
-    const normalInputs = [...add.querySelectorAll('fieldset')][1].querySelectorAll('input');
-    await typeInto(normalInputs[1] as HTMLInputElement, '-2');
-    await typeInto(normalInputs[2] as HTMLInputElement, '0');
-    await click(add, 'Add node');
+    expect(add.field('Key').value).toBe('T1-S01');
+    await retype(user, add.field('x (m)'), '4.25');
+    await retype(user, add.field('y (m)'), '-1.5');
+    await retype(user, add.field('z (m)'), '0');
+    const normalInputs = [...add.element.querySelectorAll('fieldset')][1].querySelectorAll('input');
+    await retype(user, normalInputs[1], '-2');
+    await retype(user, normalInputs[2], '0');
+    await user.click(add.button('Add node'));
 
-    await until(() => rendered!.container.textContent?.includes('Saved: add node T1-S01 (version 4).'));
+    await screen.findByText(/Saved: add node T1-S01 \(version 4\)\./);
     expect(sent).toEqual([
       {
         method: 'POST',
@@ -192,7 +179,7 @@ describe('EditPanel', () => {
 
   it('moves the selected node by the nudge buttons', async () => {
     const sent = fakeStationApi({ version: 5, by: 'Erin Engineer' });
-    rendered = await render(
+    renderWithQueryClient(
       <EditPanel
         graph={graphAt(5)}
         selectedKey={FIXTURE_KEYS.junction}
@@ -201,12 +188,13 @@ describe('EditPanel', () => {
         onChanged={vi.fn()}
       />,
     );
-    const change = form(rendered.container, `Change node ${FIXTURE_KEYS.junction}`);
-    await click(change, 'x plus 0.1 m');
-    await click(change, 'x plus 0.1 m');
-    await click(change, 'z minus 0.1 m');
-    await click(change, 'Save node');
-    await until(() => sent.length === 1);
+    const user = userEvent.setup();
+    const change = form(`Change node ${FIXTURE_KEYS.junction}`);
+    await user.click(change.button('x plus 0.1 m'));
+    await user.click(change.button('x plus 0.1 m'));
+    await user.click(change.button('z minus 0.1 m'));
+    await user.click(change.button('Save node'));
+    await waitFor(() => expect(sent).toHaveLength(1));
     expect(sent[0].method).toBe('PATCH');
     expect(sent[0].path).toBe(`/api/stations/1/nodes/${FIXTURE_KEYS.junction}`);
     expect(sent[0].body.version).toBe(5);
@@ -218,7 +206,7 @@ describe('EditPanel', () => {
     const server = { version: 8, by: 'Erin Engineer' };
     const sent = fakeStationApi(server);
     const onChanged = vi.fn();
-    rendered = await render(
+    renderWithQueryClient(
       <EditPanel
         graph={graphAt(7)}
         selectedKey={FIXTURE_KEYS.junction}
@@ -227,19 +215,20 @@ describe('EditPanel', () => {
         onChanged={onChanged}
       />,
     );
-    const change = form(rendered.container, `Change node ${FIXTURE_KEYS.junction}`);
-    await typeInto(field(change, 'Label'), 'Stanchion 3');
-    await click(change, 'Save node');
+    const user = userEvent.setup();
+    const change = form(`Change node ${FIXTURE_KEYS.junction}`);
+    await retype(user, change.field('Label'), 'Stanchion 3');
+    await user.click(change.button('Save node'));
 
-    const alert = await until(() => rendered!.container.querySelector('[role="alert"]'));
+    const alert = await screen.findByRole('alert');
     expect(alert.textContent).toContain(
       'Someone else changed the station (now version 8, by Erin Engineer). Your change was not saved.',
     );
     expect(server.version).toBe(8);
     expect(onChanged).not.toHaveBeenCalled();
 
-    await click(rendered.container, 'Reload and re-apply my change');
-    await until(() => rendered!.container.textContent?.includes('Saved: change node T1-J01 (version 9).'));
+    await user.click(screen.getByRole('button', { name: 'Reload and re-apply my change' }));
+    await screen.findByText(/Saved: change node T1-J01 \(version 9\)\./);
     expect(sent.map((s) => s.body.version)).toEqual([7, 8]);
     expect(sent[1].body.node).toEqual(sent[0].body.node);
     expect(sent[1].body.node?.label).toBe('Stanchion 3');
@@ -270,7 +259,7 @@ describe('changedFields', () => {
 describe('EditPanel settings and hazards', () => {
   it('reads a tether typed in feet as metres (1 ft = 0.3048 m, NIST SP 811) and sends it with the version', async () => {
     const sent = fakeStationApi({ version: 2, by: 'Erin Engineer' });
-    rendered = await render(
+    renderWithQueryClient(
       <EditPanel
         graph={graphAt(2)}
         selectedKey={null}
@@ -279,11 +268,12 @@ describe('EditPanel settings and hazards', () => {
         onChanged={vi.fn()}
       />,
     );
-    const settings = form(rendered.container, 'Station settings');
-    await typeInto(field(settings, 'Default tether length (m, or type ft)'), '85 ft');
-    await until(() => settings.textContent?.includes('25.91 m = 85.0 ft'));
-    await click(settings, 'Save settings');
-    await until(() => sent.length === 1);
+    const user = userEvent.setup();
+    const settings = form('Station settings');
+    await retype(user, settings.field('Default tether length (m, or type ft)'), '85 ft');
+    await within(settings.element).findByText(/25\.91 m = 85\.0 ft/);
+    await user.click(settings.button('Save settings'));
+    await waitFor(() => expect(sent).toHaveLength(1));
     const body = sent[0].body as { version: number; settings: { tetherLengthM: number; speedsMps: object } };
     expect(sent[0]).toMatchObject({ method: 'PATCH', path: '/api/stations/1' });
     expect(body.version).toBe(2);
@@ -293,7 +283,7 @@ describe('EditPanel settings and hazards', () => {
 
   it('refuses a box hazard whose max is not above its min, by the station schema, and sends nothing', async () => {
     const sent = fakeStationApi({ version: 2, by: 'Erin Engineer' });
-    rendered = await render(
+    renderWithQueryClient(
       <EditPanel
         graph={graphAt(2)}
         selectedKey={null}
@@ -302,17 +292,14 @@ describe('EditPanel settings and hazards', () => {
         onChanged={vi.fn()}
       />,
     );
-    const hazard = form(rendered.container, 'Add hazard');
-    await typeInto(field(hazard, 'Key'), 'PUMP-1');
-    const shape = [...hazard.querySelectorAll('select')][1];
-    await act(async () => {
-      shape.value = 'box';
-      shape.dispatchEvent(new Event('change', { bubbles: true }));
-    });
-    const maxX = [...hazard.querySelectorAll('fieldset')][1].querySelector('input') as HTMLInputElement;
-    await typeInto(maxX, '-5');
-    await click(hazard, 'Add hazard');
-    await until(() => hazard.textContent?.includes('box max must be greater than min on every axis'));
+    const user = userEvent.setup();
+    const hazard = form('Add hazard');
+    await retype(user, hazard.field('Key'), 'PUMP-1');
+    await user.selectOptions([...hazard.element.querySelectorAll('select')][1], 'box');
+    const maxX = [...hazard.element.querySelectorAll('fieldset')][1].querySelector('input')!;
+    await retype(user, maxX, '-5');
+    await user.click(hazard.button('Add hazard'));
+    await within(hazard.element).findByText(/box max must be greater than min on every axis/);
     expect(sent).toEqual([]);
   });
 });
