@@ -74,8 +74,20 @@ export interface PlanChangeControl {
   stationNotices: PlanStationNotice[];
 }
 
+/** A row of `GET /api/plans/:id/revisions`: the plan as one change or review step left it. */
+export interface PlanRevisionEntry {
+  version: number;
+  action: string;
+  user: { id: number; name: string } | null;
+  createdAt: string;
+}
+
 /** `GET /api/plans/:id`. */
-export type PlanDetail = PlanView & PlanChangeControl;
+export type PlanDetail = PlanView &
+  PlanChangeControl & {
+    /** the plan's version at its submission before the last: reviewers compare it with this one */
+    previousSubmissionVersion: number | null;
+  };
 
 /** A station write's answer adds the reviewed plans it touched (a dry run: would touch; nothing written). */
 export interface StationWriteNotice {

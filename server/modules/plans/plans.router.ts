@@ -24,6 +24,7 @@ import {
 } from './plans.service';
 import { planDayOutput } from './plan-timeline.service';
 import { planChangeControl } from './plan-station.service';
+import { comparePlans, listPlanRevisions, previousSubmissionVersion } from './plan-revisions.service';
 import type { PlanDetail } from '@shared/schemas/plan-views';
 import { exportFileName } from './plan-export.service';
 
@@ -35,6 +36,7 @@ const ListQuerySchema = z.strictObject({
   status: PlanStatusSchema.optional(),
   stationId: z.coerce.number().int().positive().optional(),
 });
+const CompareQuerySchema = z.strictObject({ from: VersionTextSchema, to: VersionTextSchema });
 const DeleteQuerySchema = z.strictObject({
   version: VersionTextSchema,
 });
@@ -81,7 +83,11 @@ export function plansRouter(ctx: AppContext) {
       input: { params: IdParamsSchema },
       handler: (_req, _res, { params }): PlanDetail => {
         const plan = getPlan(ctx.db, params.id);
-        return { ...plan, ...planChangeControl(ctx, plan) };
+        return {
+          ...plan,
+          ...planChangeControl(ctx, plan),
+          previousSubmissionVersion: previousSubmissionVersion(ctx.db, plan.id),
+        };
       },
     }),
     defineRoute({
@@ -118,6 +124,20 @@ export function plansRouter(ctx: AppContext) {
       input: { params: IdParamsSchema, body: ReturnBodySchema },
       handler: (req, _res, { params, body }) =>
         returnPlan(ctx, params.id, body.version, body.comment, req.user!),
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/:id/revisions',
+      access: 'read',
+      input: { params: IdParamsSchema },
+      handler: (_req, _res, { params }) => listPlanRevisions(ctx.db, params.id),
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/:id/compare',
+      access: 'read',
+      input: { params: IdParamsSchema, query: CompareQuerySchema },
+      handler: (_req, _res, { params, query }) => comparePlans(ctx, params.id, query.from, query.to),
     }),
     defineRoute({
       method: 'get',
