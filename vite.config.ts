@@ -19,23 +19,16 @@ export default defineConfig({
     emptyOutDir: true,
     rolldownOptions: {
       output: {
-        // the 3D libraries load only with a 3D screen, in pieces under the size warning: three's core,
-        // the rest of three, and the React bindings and helpers
+        // three.js loads only with a 3D screen, in two chunks of its own (each under the size
+        // warning); React Three Fiber and its helpers stay in the 3D screens' own chunk
         codeSplitting: {
-          // a group takes only what it names: React and the rest stay where the importers put them
-          includeDependenciesRecursively: false,
           groups: [
             {
               name: 'three-core',
               test: /[\\/]node_modules[\\/]three[\\/]build[\\/]three\.core/,
-              priority: 3,
+              priority: 2,
             },
-            { name: 'three', test: /[\\/]node_modules[\\/]three[\\/]/, priority: 2 },
-            {
-              name: 'three-react',
-              test: /[\\/]node_modules[\\/](@react-three|three-stdlib|troika-|camera-controls|maath|meshline|@monogrid|stats-gl|three-mesh-bvh|suspend-react|its-fine|zustand)/,
-              priority: 1,
-            },
+            { name: 'three', test: /[\\/]node_modules[\\/]three[\\/]/, priority: 1 },
           ],
         },
       },
