@@ -243,6 +243,18 @@ describe('review: submit, approve, return', () => {
     expect((await review(planner, created.id, 'submit', { version: 2 })).status).toBe(409);
   });
 
+  it('a plan with no tasks cannot be submitted: 409 at tasks, and the plan stays a draft', async () => {
+    const created = await createPlan({ title: 'Empty day', tasks: [] });
+    const planner = await t.agent('planner');
+    const res = await review(planner, created.id, 'submit', { version: 1 });
+    expect(res.status).toBe(409);
+    expect(res.body.error.details).toEqual([{ path: 'tasks', message: 'at least one task' }]);
+    expect((await planner.get(`/api/plans/${created.id}`)).body).toMatchObject({
+      status: 'draft',
+      version: 1,
+    });
+  });
+
   it('the author cannot approve; other roles without review rights cannot; planner2 can, and the author is mailed', async () => {
     const created = await createPlan({ title: 'Approval plan' });
     const planner = await t.agent('planner');

@@ -520,6 +520,11 @@ export function reviewTransition(
     if (!rule.from.includes(before.status)) {
       throw conflict(`The plan is ${STATUS_WORDS[before.status]}, so it cannot be ${rule.verb}.`);
     }
+    if (action === 'submit' && before.tasks.length === 0) {
+      throw conflict('The plan has no tasks yet: add the day’s tasks before submitting it for review.', [
+        { path: 'tasks', message: 'at least one task' },
+      ]);
+    }
     if (action === 'approve' && before.authorId === actor.id) {
       throw forbidden('You wrote this plan, so you cannot approve it: another planner must review it.');
     }

@@ -104,7 +104,7 @@ export function ReviewPanel({ plan, user, unsaved }: ReviewPanelProps) {
             {canSubmit && (
               <Button
                 onClick={() => run('submit')}
-                disabled={unsaved}
+                disabled={unsaved || plan.tasks.length === 0}
                 isLoading={review.isPending && review.variables?.step === 'submit'}
               >
                 Submit for review
@@ -132,6 +132,9 @@ export function ReviewPanel({ plan, user, unsaved }: ReviewPanelProps) {
           </div>
           {canSubmit && unsaved && (
             <p className="text-sm text-caution">Save your changes before submitting.</p>
+          )}
+          {canSubmit && !unsaved && plan.tasks.length === 0 && (
+            <p className="text-sm text-text-muted">Add the day’s tasks before submitting the plan.</p>
           )}
           {showApprove && (isAuthor || changedIt) && (
             <p className="text-sm text-text-muted">
