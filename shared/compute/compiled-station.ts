@@ -59,7 +59,10 @@ export function speedOf(kind: EdgeKind, settings: StationSettings): number {
   return settings.speedsMps[kind];
 }
 
-/** Translation time of one edge (DESIGN §3). */
+/**
+ * Translation time of one edge: its length over the speed of its kind, plus `hopSeconds` on a hop;
+ * carrying a large item multiplies the whole by the station's `carryFactor`.
+ */
 export function edgeSeconds(
   kind: EdgeKind,
   lengthM: number,

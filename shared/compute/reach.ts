@@ -1,10 +1,10 @@
 import type { Vec3 } from '../schemas/station';
 
 /**
- * Foot-restraint reach (DESIGN §3). A crew member in a restraint on a socket at `p` with outward
+ * Foot-restraint reach. A crew member in a restraint on a socket at `p` with outward
  * normal `n` works around the point `c = p + n·h`; a target `t` is within reach when `|t − c| ≤ R`.
  * The default `h` and `R` (DEFAULT_SETTINGS.reach) are planning defaults from memory: the suited
- * work envelope's dimensions are not verified (CHECKS.md).
+ * work envelope's dimensions are not verified (the concept is NASA-STD-3000 Vol. I §14.3–14.5).
  *
  * Angle conventions (the UI draws with `restraintFrame`, so they must agree):
  * - The restraint frame has `up` = n (unit), `ref` = the projection of the station +x axis onto the

@@ -3,7 +3,7 @@ import type { PlannedSocket, SocketAssignment, SocketPlanResult } from '../schem
 import { REACH_TOLERANCE_M, reachCheck, workPoint } from './reach';
 
 /**
- * The socket planner (DESIGN §3): the fewest candidate sockets that bring every coverable target
+ * The socket planner: the fewest candidate sockets that bring every coverable target
  * within foot-restraint reach (`|t − c| ≤ R`, see reach.ts).
  *
  * Candidates that reach no target are dropped, candidates reaching the same targets are merged

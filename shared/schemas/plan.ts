@@ -3,11 +3,14 @@ import { DEFAULT_SETTINGS, FiniteSchema, KeySchema } from './station';
 import { RouteModeSchema } from './route';
 import { VersionSchema } from './version';
 
-/** The plan API contract (DESIGN §2 Plan and Task, §8 plans endpoints). Times in seconds. */
+/**
+ * The plan API contract: a plan, its tasks and manifest, and the bodies of the plans endpoints. Outside
+ * scripts rely on it: fields may be added, none renamed or removed. Times in seconds.
+ */
 
 const DAY_S = 24 * 3600;
 
-/** Planned EVA length, about 6 h 30 min (CHECKS.md: space agency mission blogs). */
+/** Planned EVA length, about 6 h 30 min (space agency mission blogs; a fact of the trade). */
 export const DEFAULT_TIME_LIMIT_SECONDS = 6.5 * 3600;
 /** Planning defaults, from memory: suit checks and airlock depress/repress folded into one block each. */
 export const DEFAULT_EGRESS_SECONDS = 30 * 60;

@@ -11,14 +11,14 @@ export const MAX_GRID_SPACING_M = 50;
  */
 export const MAX_SOCKET_CANDIDATES = 20_000;
 
-/** Body of `POST /api/stations/:id/reach` (DESIGN §8). */
+/** Body of `POST /api/stations/:id/reach`: a socket's key and a target point. */
 export const ReachRequestSchema = z.strictObject({
   socket: KeySchema,
   target: Vec3Schema,
 });
 export type ReachRequest = z.infer<typeof ReachRequestSchema>;
 
-/** Body of `POST /api/stations/:id/socket-plan` (DESIGN §8). */
+/** Body of `POST /api/stations/:id/socket-plan`. */
 export const SocketPlanRequestSchema = z
   .strictObject({
     targets: z

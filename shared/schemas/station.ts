@@ -1,7 +1,8 @@
 import { z } from 'zod';
 
 /**
- * The station document (DESIGN §8): the import and export format of a station's exterior model.
+ * The station document: the import and export format of a station's exterior model. Outside tools
+ * read and write it as it is: fields may be added, none renamed, removed or given another meaning.
  * All lengths in metres, positions [x, y, z] in the station's body frame.
  */
 
@@ -70,8 +71,8 @@ export const OrbitSettingsSchema = z.object({
 export type OrbitSettings = z.infer<typeof OrbitSettingsSchema>;
 
 /**
- * Translation and reach settings. Every default here is a planning default from memory (CHECKS.md:
- * the suited work envelope's dimensions and translation speeds are not verified), except the tether
+ * Translation and reach settings. Every default here is a planning default from memory (the
+ * suited work envelope's dimensions and translation speeds are not verified), except the tether
  * length, which is the commonly reported 85 ft safety tether (25.9 m).
  */
 export const DEFAULT_SETTINGS = {
@@ -203,7 +204,7 @@ export type Hazard = z.infer<typeof HazardSchema>;
 
 /**
  * Planning defaults for a robotic arm carrying a crew member in a foot restraint on its end, from
- * memory (CHECKS.md: the station's main arm is about 17.6 m long; its tip speed with a person on it
+ * memory (the station's main arm is about 17.6 m long, from space agency public material; its tip speed with a person on it
  * and its settle time are not published figures).
  */
 export const DEFAULT_ARM = { reachM: 17.6, minReachM: 1, tipSpeedMps: 0.05, settleSeconds: 60 } as const;

@@ -7,7 +7,7 @@ import { RouteRequestSchema, type RouteMode } from './route';
 import type { Vec3 } from './station';
 import { VersionSchema, VersionTextSchema } from './version';
 
-/** The walkthrough API contract (DESIGN §2 Walkthrough). */
+/** The walkthrough API contract: a walkthrough of a plan or a route, its playback and trainer notes. */
 
 export const MAX_NOTE_LENGTH = 2000;
 export const MAX_NOTES = 2000;

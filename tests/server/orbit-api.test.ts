@@ -10,7 +10,7 @@ afterAll(() => t.close());
 const orbit = async (query: string) => (await t.agent('viewer')).get(`/api/orbit${query}`);
 
 describe('GET /api/orbit', () => {
-  it('400 km, β = 0: period 92.56 min (Kepler with WGS 84 μ and Rₑ) and 36.11 min eclipse (Sumanth 2019; CHECKS.md)', async () => {
+  it('400 km, β = 0: period 92.56 min (Kepler with WGS 84 μ and Rₑ) and 36.11 min eclipse (Sumanth 2019)', async () => {
     const res = await orbit('?altitudeKm=400&betaDeg=0');
     expect(res.status).toBe(200);
     expect(res.body.periodSeconds / 60).toBeCloseTo(92.56, 2);
@@ -21,7 +21,7 @@ describe('GET /api/orbit', () => {
     expect(res.body.criticalBetaDeg).toBeCloseTo(70.22, 2);
   });
 
-  it('400 km at β = 40° and 60°: 32.80 and 24.37 min of shadow; past β* no shadow (CHECKS.md)', async () => {
+  it('400 km at β = 40° and 60°: 32.80 and 24.37 min of shadow; past β* no shadow (Sumanth 2019 eclipse formula)', async () => {
     expect((await orbit('?altitudeKm=400&betaDeg=40')).body.eclipseSeconds / 60).toBeCloseTo(32.8, 2);
     expect((await orbit('?altitudeKm=400&betaDeg=-60')).body.eclipseSeconds / 60).toBeCloseTo(24.37, 2);
     const sunlit = (await orbit('?altitudeKm=400&betaDeg=75')).body;

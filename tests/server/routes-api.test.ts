@@ -22,7 +22,7 @@ const route = async (body: unknown, id = stationId, role: 'viewer' | 'planner' =
 const HOP_M = Math.hypot(1.5, 1.5);
 const TO_SOCKET_M = 2 + 3 + 3.2 + HOP_M + 1;
 
-describe('POST /api/stations/:id/routes (DESIGN §8)', () => {
+describe('POST /api/stations/:id/routes', () => {
   it('answers a feasible route with exactly the documented fields, times from the station settings', async () => {
     const res = await route({ from: K.airlock, to: K.socket, mode: 'fastest' });
     expect(res.status).toBe(200);

@@ -7,8 +7,11 @@ import { buildStationDocument, FIXTURE_KEYS, stationDocumentFile } from '../fact
 import { postStationDocument, stationGraph } from '../setup/stations';
 import { makeTestApp, type TestAgent, type TestApp } from '../setup/test-app';
 
-/** The station document example of DESIGN §8, completed with the junction its edge names. */
-const DESIGN_EXAMPLE = {
+/**
+ * A station document as an outside tool writes it, every part of the format present: settings, a
+ * truss segment, an anchor, a socket and a junction joined by a handrail, a keep-out and a caution.
+ */
+const OUTSIDE_EXAMPLE = {
   format: 'tetherwise.station',
   version: 1,
   name: 'Design example',
@@ -58,9 +61,9 @@ function comparable(g: Pick<StationGraph, 'nodes' | 'edges' | 'hazards' | 'segme
   };
 }
 
-describe('POST /api/stations/import (DESIGN §8)', () => {
+describe('POST /api/stations/import', () => {
   it('imports the design example: 201 with the station and its counts', async () => {
-    const res = await importDoc(DESIGN_EXAMPLE);
+    const res = await importDoc(OUTSIDE_EXAMPLE);
     expect(res.status).toBe(201);
     expect(res.body.station).toMatchObject({ name: 'Design example', version: 1 });
     expect(typeof res.body.station.id).toBe('number');
@@ -115,12 +118,12 @@ describe('POST /api/stations/import (DESIGN §8)', () => {
 
   it('refuses a viewer, a planner and a trainer (403) and anyone signed out (401)', async () => {
     for (const role of ['viewer', 'planner', 'trainer'] as const) {
-      expect((await importDoc(DESIGN_EXAMPLE, await t.agent(role))).status).toBe(403);
+      expect((await importDoc(OUTSIDE_EXAMPLE, await t.agent(role))).status).toBe(403);
     }
     const anon = await t
       .anonymous()
       .post('/api/stations/import')
-      .attach('file', stationDocumentFile(DESIGN_EXAMPLE), 'x.json');
+      .attach('file', stationDocumentFile(OUTSIDE_EXAMPLE), 'x.json');
     expect(anon.status).toBe(401);
   });
 
@@ -331,7 +334,7 @@ describe('PUT /api/stations/:id/import', () => {
     const replaced = await engineer
       .put(`/api/stations/${id}/import`)
       .field('version', '1')
-      .attach('file', stationDocumentFile(DESIGN_EXAMPLE), 'x.json');
+      .attach('file', stationDocumentFile(OUTSIDE_EXAMPLE), 'x.json');
     expect(replaced.status).toBe(200);
     expect(replaced.body.station).toMatchObject({ id, name: 'Design example', version: 2 });
     expect(replaced.body.counts).toEqual({ nodes: 3, edges: 1, hazards: 2, segments: 1 });
@@ -357,7 +360,7 @@ describe('PUT /api/stations/:id/import', () => {
     const created = await importDoc(buildStationDocument({ name: 'Keep Me' }));
     const id = created.body.station.id;
     const before = await graphOf(id);
-    const bad = { ...DESIGN_EXAMPLE, edges: [{ from: 'PB3-A07', to: 'NOPE', kind: 'handrail' }] };
+    const bad = { ...OUTSIDE_EXAMPLE, edges: [{ from: 'PB3-A07', to: 'NOPE', kind: 'handrail' }] };
     const res = await engineer
       .put(`/api/stations/${id}/import?version=1`)
       .attach('file', stationDocumentFile(bad), 'x.json');

@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { armPathKeepOuts, armShellCheck, armTipAt, armTipMoveSeconds } from '@shared/compute/arm';
 import { ArmSchema, parseStationDocument, type Hazard, type Vec3 } from '@shared/schemas/station';
 
-// The arm's length is about 17.6 m (CHECKS.md: space agency public material); tip speed 0.05 m/s and
+// The arm's length is about 17.6 m (space agency public material); tip speed 0.05 m/s and
 // 60 s settle are planning defaults from memory. Every expected value below is worked by hand.
 const arm = { reachM: 17.6, minReachM: 2, tipSpeedMps: 0.05, settleSeconds: 60 };
 const base: Vec3 = [10, 0, 0];

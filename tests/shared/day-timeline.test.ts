@@ -255,7 +255,7 @@ describe('the day’s checks on the line station', () => {
   });
 
   it('an eclipse-only task in daylight names the next night window that fits (400 km, β = 0: night 36.11 min, Sumanth)', () => {
-    // sunrise at EVA start: day until 56.45 min, then night until 92.56 min (CHECKS: 36.11 min of shadow)
+    // sunrise at EVA start: day until 56.45 min, then night until 92.56 min (36.11 min of shadow by the Sumanth 2019 eclipse formula)
     const t = day(one({ eclipseOnly: true, durationSeconds: 1200, title: 'Mate power connectors' }));
     const sunset = t.nightWindows[0].start;
     expect(sunset / 60).toBeCloseTo(92.56 - 36.11, 1);

@@ -45,7 +45,7 @@ describe('orbit constants and period', () => {
 });
 
 describe('eclipse, cylindrical shadow (Sumanth 2019, IJAAA 6(5))', () => {
-  it('at 400 km: β=0 36.11 min (f 0.3901), β=40° 32.80, β=60° 24.37, β=70° 4.27, β* = 70.22° (CHECKS.md)', () => {
+  it('at 400 km: β=0 36.11 min (f 0.3901), β=40° 32.80, β=60° 24.37, β=70° 4.27, β* = 70.22° (Sumanth 2019 eclipse formula, WGS 84 Rₑ)', () => {
     const at = (betaDeg: number) => orbitSummary({ altitudeKm: 400, betaDeg });
     near(minutes(at(0).eclipseSeconds), 36.11, 0.005);
     near(at(0).eclipseFraction, 0.3901, 0.00005);

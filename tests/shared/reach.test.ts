@@ -10,7 +10,7 @@ import {
 } from '@shared/compute/reach';
 import type { Vec3 } from '@shared/schemas/station';
 
-// h = 1 m and R = 0.7 m are planning defaults from memory (CHECKS.md: envelope dimensions not verified).
+// h = 1 m and R = 0.7 m are planning defaults from memory (the envelope concept is NASA-STD-3000 Vol. I §14.3–14.5; its dimensions are not verified).
 const base = { standOffM: 1, radiusM: 0.7, yawStepDeg: 15, pitchStepDeg: 15 };
 const at = (socketNormal: Vec3, target: Vec3, socketPosition: Vec3 = [0, 0, 0]) =>
   reachCheck({ ...base, socketPosition, socketNormal, target });

@@ -19,7 +19,7 @@ describe('length units', () => {
     expect(feetToMetres(5280)).toBeCloseTo(1609.344, 9);
   });
 
-  it('the commonly reported 85 ft safety tether is 25.9 m (CHECKS.md, press reports)', () => {
+  it('the commonly reported 85 ft safety tether is 25.9 m (press reports of station spacewalks)', () => {
     expect(formatLength(feetToMetres(85), 'm')).toBe('25.9 m');
     expect(formatLength(25.9, 'ft', 0)).toBe('85 ft');
   });
