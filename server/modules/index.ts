@@ -10,6 +10,7 @@ import { annotationsRouter } from './annotations/annotations.router';
 import { computeRouter } from './compute/compute.router';
 import { plansRouter } from './plans/plans.router';
 import { walkthroughsRouter } from './walkthroughs/walkthroughs.router';
+import { seriesRouter } from './series/series.router';
 
 /** Every API module, mounted in this order. Add a module's router here. */
 export const apiModules: ((ctx: AppContext) => Router)[] = [
@@ -22,5 +23,6 @@ export const apiModules: ((ctx: AppContext) => Router)[] = [
   annotationsRouter,
   computeRouter,
   plansRouter,
+  seriesRouter,
   walkthroughsRouter,
 ];

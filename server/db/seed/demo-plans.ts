@@ -3,20 +3,25 @@ import type { AppContext } from '../../context';
 import { plans, stations, users } from '../schema';
 import { CreatePlanInputSchema, type CreatePlanInput } from '@shared/schemas/plan';
 import { createPlan, reviewTransition, type Actor } from '../../modules/plans/plans.service';
+import { createSeries } from '../../modules/series/series.service';
 
 export const DEMO_STATION_NAME = 'Kestrel Station';
 
 const min = (m: number) => m * 60;
 
 /**
- * The two invented demo plans on Kestrel Station. Crew names are invented; durations are plausible
+ * The invented demo plans on Kestrel Station: a draft, and an approved EVA with its follow-up EVA as a series. Crew names are invented; durations are plausible
  * planning numbers, not from any real EVA. Each carries its hardware the way a team would: a
  * portable foot restraint installed before the task that stands in it, tools in the hands of whoever
  * uses them, a portable tether anchor set up early for the later translations, and a large item one
  * crew member carries out and hands to the other. Each has one eclipse-only connector task, and the
  * orbit phase at start is chosen so that task falls in orbital night.
  */
-export function demoPlanInputs(stationId: number): { draft: CreatePlanInput; approved: CreatePlanInput } {
+export function demoPlanInputs(stationId: number): {
+  draft: CreatePlanInput;
+  approved: CreatePlanInput;
+  followUp: CreatePlanInput;
+} {
   const draft = CreatePlanInputSchema.parse({
     title: 'Coolant pump module swap',
     stationId,
@@ -212,7 +217,70 @@ export function demoPlanInputs(stationId: number): { draft: CreatePlanInput; app
       },
     ],
   });
-  return { draft, approved };
+  // EVA 2 of the camera boom series: it finds the foot restraint still installed at the boom mount
+  // and the parts bag staged there by EVA 1, clamps the boom's cable, checks the aim, and brings
+  // both in; the boom itself stays mounted outside
+  const followUp = CreatePlanInputSchema.parse({
+    title: 'Camera boom cabling and checkout',
+    stationId,
+    date: '2031-04-05',
+    crew: {
+      EV1: { name: 'Lena Harrowgate', tetherLengthM: 25.9 },
+      EV2: { name: 'Tariq Olufemi', tetherLengthM: 25.9 },
+    },
+    routeMode: 'fewest-swaps',
+    orbitPhaseAtStartDeg: 120,
+    tasks: [
+      {
+        title: 'Clamp the camera cable along the boom',
+        worksite: 'PB2-W01',
+        crew: 'EV1',
+        durationSeconds: min(30),
+        socket: 'PB2-S05',
+        tools: ['driver'],
+        actions: [{ do: 'pick-up', item: 'parts-bag' }],
+        notes: 'The clamps are in the parts bag EVA 1 left at the mount.',
+      },
+      {
+        title: 'Photograph the boom mount and the cable run',
+        worksite: 'PB2-W01',
+        crew: 'EV2',
+        durationSeconds: min(15),
+      },
+      {
+        title: 'Check the camera aim with the ground',
+        worksite: 'PB2-W01',
+        crew: 'both',
+        durationSeconds: min(20),
+        sockets: { EV1: 'PB2-S05' },
+      },
+      {
+        title: 'Take the foot restraint out',
+        worksite: 'PB2-W01',
+        crew: 'EV1',
+        durationSeconds: min(5),
+        actions: [{ do: 'remove', item: 'restraint-1', at: 'PB2-S05' }],
+      },
+    ],
+    manifest: [
+      {
+        key: 'restraint-1',
+        name: 'Portable foot restraint',
+        kind: 'foot-restraint',
+        installedAt: 'PB2-S05',
+        notes: 'Installed at the boom mount by EVA 1.',
+      },
+      {
+        key: 'parts-bag',
+        name: 'Boom parts bag',
+        kind: 'bag',
+        startsAt: 'PB2-W01',
+        notes: 'Staged at the boom mount by EVA 1.',
+      },
+      { key: 'driver', name: 'Power driver', kind: 'tool', carriedBy: 'EV1' },
+    ],
+  });
+  return { draft, approved, followUp };
 }
 
 function demoUser(ctx: AppContext, email: string): Actor | undefined {
@@ -230,7 +298,7 @@ export function seedDemoPlans(ctx: AppContext) {
   const planner = demoUser(ctx, 'planner@example.org');
   const planner2 = demoUser(ctx, 'planner2@example.org');
   if (!station || !planner || !planner2) return;
-  const { draft, approved } = demoPlanInputs(station.id);
+  const { draft, approved, followUp } = demoPlanInputs(station.id);
   createPlan(ctx, draft, planner);
   const camera = createPlan(ctx, approved, planner);
   // through the review steps (without their e-mails) so the audit trail and comments are real
@@ -250,5 +318,7 @@ export function seedDemoPlans(ctx: AppContext) {
     'Checked routes and the night window. Approved.',
     planner2,
   );
+  const cabling = createPlan(ctx, followUp, planner);
+  createSeries(ctx, { title: 'Camera boom install, two EVAs', planIds: [camera.id, cabling.id] }, planner);
   ctx.logger.info('seeded the demo plans');
 }

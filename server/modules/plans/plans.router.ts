@@ -16,6 +16,7 @@ import {
   approvePlan,
   createPlan,
   deletePlan,
+  duplicatePlan,
   getPlan,
   listPlans,
   returnPlan,
@@ -24,6 +25,7 @@ import {
 } from './plans.service';
 import { planDayOutput } from './plan-timeline.service';
 import { planChangeControl } from './plan-station.service';
+import { seriesStartOf } from '../series/series.service';
 import { comparePlans, listPlanRevisions, previousSubmissionVersion } from './plan-revisions.service';
 import type { PlanDetail } from '@shared/schemas/plan-views';
 import { exportFileName } from './plan-export.service';
@@ -36,6 +38,7 @@ const ListQuerySchema = z.strictObject({
   status: PlanStatusSchema.optional(),
   stationId: z.coerce.number().int().positive().optional(),
 });
+const DuplicateBodySchema = z.strictObject({ title: z.string().trim().min(1).max(200).optional() });
 const CompareQuerySchema = z.strictObject({ from: VersionTextSchema, to: VersionTextSchema });
 const DeleteQuerySchema = z.strictObject({
   version: VersionTextSchema,
@@ -126,6 +129,14 @@ export function plansRouter(ctx: AppContext) {
         returnPlan(ctx, params.id, body.version, body.comment, req.user!),
     }),
     defineRoute({
+      method: 'post',
+      path: '/:id/duplicate',
+      access: 'plans:edit',
+      status: 201,
+      input: { params: IdParamsSchema, body: DuplicateBodySchema },
+      handler: (req, _res, { params, body }) => duplicatePlan(ctx, params.id, req.user!, body.title),
+    }),
+    defineRoute({
       method: 'get',
       path: '/:id/revisions',
       access: 'read',
@@ -149,6 +160,7 @@ export function plansRouter(ctx: AppContext) {
         const { stationChangedSinceApproval, stationChanges } = planChangeControl(ctx, plan);
         const { result } = await planDayOutput(ctx, params.id, 'timeline', {
           plan,
+          start: seriesStartOf(ctx, plan),
           extra: { stationChangedSinceApproval, stationChanges },
         });
         return new JsonText('text' in result ? result.text : '');
@@ -160,7 +172,11 @@ export function plansRouter(ctx: AppContext) {
       access: 'read',
       input: { params: IdParamsSchema },
       handler: async (_req, res, { params }) => {
-        const { plan, result } = await planDayOutput(ctx, params.id, 'csv');
+        const plan = getPlan(ctx.db, params.id);
+        const { result } = await planDayOutput(ctx, params.id, 'csv', {
+          plan,
+          start: seriesStartOf(ctx, plan),
+        });
         res
           .type('text/csv; charset=utf-8')
           .attachment(exportFileName(plan, 'csv'))
@@ -173,7 +189,11 @@ export function plansRouter(ctx: AppContext) {
       access: 'read',
       input: { params: IdParamsSchema },
       handler: async (_req, res, { params }) => {
-        const { plan, result } = await planDayOutput(ctx, params.id, 'pdf');
+        const plan = getPlan(ctx.db, params.id);
+        const { result } = await planDayOutput(ctx, params.id, 'pdf', {
+          plan,
+          start: seriesStartOf(ctx, plan),
+        });
         const pdf = 'bytes' in result ? Buffer.from(result.bytes) : Buffer.alloc(0);
         res.type('application/pdf').attachment(exportFileName(plan, 'pdf')).send(pdf);
       },

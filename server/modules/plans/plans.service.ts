@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, gt, inArray, isNotNull, ne, notInArray } from 'drizzle-orm';
+import { and, asc, desc, eq, gt, inArray, isNotNull, ne, notInArray, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
 import type { AppContext } from '../../context';
 import type { Db } from '../../db/client';
@@ -8,6 +8,8 @@ import {
   planAudit,
   plans,
   reviewComments,
+  series,
+  seriesPlans,
   stations,
   tasks,
   users,
@@ -16,6 +18,7 @@ import { badRequest, conflict, forbidden, notFound, staleVersion } from '../../l
 import type { ErrorDetail } from '@shared/errors';
 import {
   AIRLOCK_LOCATION,
+  CreatePlanInputSchema,
   PLAN_SETTING_KEYS,
   planReferenceProblems,
   planSettingsOf,
@@ -467,6 +470,17 @@ export function deletePlan(ctx: AppContext, id: number, version: number, actor: 
     assertVersion(db, before, version);
     if (before.status !== 'draft')
       throw conflict(`Only draft plans can be deleted. ${LOCKED_MESSAGE[before.status]}`);
+    // a series it was an EVA of loses it (the row goes with the plan): its version moves on
+    const inSeries = db
+      .select({ seriesId: seriesPlans.seriesId })
+      .from(seriesPlans)
+      .where(eq(seriesPlans.planId, id))
+      .get();
+    if (inSeries)
+      db.update(series)
+        .set({ version: sql`${series.version} + 1`, updatedAt: new Date().toISOString() })
+        .where(eq(series.id, inSeries.seriesId))
+        .run();
     db.delete(plans).where(eq(plans.id, id)).run();
     return before.title;
   });
@@ -475,6 +489,23 @@ export function deletePlan(ctx: AppContext, id: number, version: number, actor: 
     kind: 'plan.deleted',
     summary: `${actor.name} deleted the draft plan "${title}"`,
   });
+}
+
+/** A new draft with the plan's tasks, manifest, crew and settings: the author is whoever duplicates it. */
+export function duplicatePlan(ctx: AppContext, id: number, actor: Actor, title?: string): PlanView {
+  const p = getPlan(ctx.db, id);
+  const { betaDegOverride, ...settings } = planSettingsOf(p);
+  const input = CreatePlanInputSchema.parse({
+    title: title ?? `${p.title} (copy)`.slice(0, 200),
+    stationId: p.stationId,
+    date: p.date,
+    crew: p.crew,
+    ...settings,
+    ...(betaDegOverride === null ? {} : { betaDegOverride }),
+    tasks: p.tasks.map(({ id: _id, ...t }) => t),
+    manifest: p.manifest.map(({ id: _id, ...m }) => m),
+  });
+  return createPlan(ctx, input, actor);
 }
 
 export type ReviewAction = 'submit' | 'approve' | 'return';
