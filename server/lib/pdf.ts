@@ -1,13 +1,14 @@
 import { createRequire } from 'node:module';
 import path from 'node:path';
 import PDFDocument from 'pdfkit';
+import type { TimelineBlockType } from '@shared/compute/day/types';
 
 /** One line of a crew member's cue card. */
 export interface CueStep {
   /** elapsed seconds */
   start: number;
   end: number;
-  kind: 'egress' | 'translate' | 'swap' | 'restraint-in' | 'work' | 'restraint-out' | 'wait' | 'ingress';
+  kind: TimelineBlockType;
   text: string;
   details?: string[];
   /** the step lies (at least partly) in orbital night */
@@ -59,6 +60,7 @@ const KIND_LABEL: Record<CueStep['kind'], string> = {
   'restraint-out': 'GET OUT',
   wait: 'WAIT',
   ingress: 'INGRESS',
+  'arm-ride': 'ARM',
 };
 
 /**

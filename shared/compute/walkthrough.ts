@@ -9,6 +9,7 @@ import {
   type ItemState,
   type Timeline,
   type TimelineBlock,
+  type TimelineBlockType,
 } from './day/types';
 import { formatElapsed } from './units';
 
@@ -19,17 +20,8 @@ import { formatElapsed } from './units';
  * allocation-heavy work.
  */
 
-export type WalkStepType =
-  | 'start'
-  | 'egress'
-  | 'translate'
-  | 'swap'
-  | 'restraint-in'
-  | 'work'
-  | 'restraint-out'
-  | 'wait'
-  | 'ingress'
-  | 'arrive';
+/** A walkthrough step: one of the day's blocks, or the start and arrival of a route on its own. */
+export type WalkStepType = TimelineBlockType | 'start' | 'arrive';
 
 export interface WalkStep {
   /** stable within one derivation: `<crew>-<n>` or `r-<n>` */

@@ -38,15 +38,30 @@ function equipmentSteps(plan: PlanView, block: TimelineBlock, member: 'EV1' | 'E
     );
 }
 
-function blockNotes(block: TimelineBlock): string {
+function blockNotes(block: TimelineBlock, member: 'EV1' | 'EV2'): string {
   const notes: string[] = [];
   if (block.type === 'wait' || block.type === 'translate') notes.push(block.label);
+  if (block.arm) notes.push(armStepText(block, member));
   if (block.type === 'swap' && block.swapNode)
     notes.push(
       `clip the new hook at ${block.swapNode}, then release the old one at ${block.releaseNode ?? '?'}`,
     );
   if (block.unreached) notes.push('worksite not reached: see the plan warnings');
   return notes.join('; ');
+}
+
+/**
+ * An arm step in a cue card's words: "ARM-1 carries EV1 to PB3-W02, 2:10" (the time is how long the
+ * move takes, h:mm), getting on and off with the tether's change of anchor.
+ */
+export function armStepText(b: TimelineBlock, member: 'EV1' | 'EV2'): string {
+  const took = formatElapsed(b.end - b.start);
+  if (b.type === 'arm-ride') return `${b.arm} carries ${member} to ${b.to}, ${took}`;
+  if (b.type === 'restraint-in')
+    return `${member} gets onto ${b.arm}'s foot restraint at ${b.to}, tether from ${b.tetherAtStart?.anchor} to the arm, ${took}`;
+  if (b.type === 'restraint-out')
+    return `${member} gets off ${b.arm} at ${b.to} and clips the tether there, ${took}`;
+  return b.label;
 }
 
 /** One row per timeline block, both crew members, in time order within each. */
@@ -71,7 +86,7 @@ export function timelineCsv(plan: PlanView, timeline: PlanTimeline): string {
         tethers[k].anchor,
         Math.round(tethers[k].paidOutM * 10) / 10,
         equipmentSteps(plan, b, member).join('; '),
-        blockNotes(b),
+        blockNotes(b, member),
       ]);
     });
   }
@@ -124,6 +139,9 @@ function cueStep(plan: PlanView, b: TimelineBlock, timeline: PlanTimeline, membe
       text: `Tether swap at ${b.swapNode}: clip the new hook at ${b.swapNode}, then release the old one at ${b.releaseNode ?? '?'}`,
       details: b.paidOutM === undefined ? [] : [`${b.paidOutM.toFixed(1)} m paid out before the swap`],
     };
+  }
+  if (b.arm && b.type !== 'work' && b.type !== 'wait') {
+    return { ...base, text: armStepText(b, member) };
   }
   if (b.type === 'restraint-in' && b.socket) {
     return {

@@ -27,7 +27,8 @@ export function describeAction(
 export function tetherAfterBlocks(blocks: readonly TimelineBlock[], airlockKey: string): TetherState[] {
   let tether: TetherState = { anchor: airlockKey, paidOutM: 0 };
   return blocks.map((b) => {
-    if (b.type === 'translate' && b.tetherAtEnd) tether = b.tetherAtEnd;
+    // translate blocks, and getting on and off an arm (tethered to the arm, then clipped back)
+    if (b.tetherAtEnd) tether = b.tetherAtEnd;
     else if (b.type === 'swap' && b.swapNode) tether = { anchor: b.swapNode, paidOutM: 0 };
     return tether;
   });

@@ -14,8 +14,14 @@ export function dayStationOf(doc: StationDocument, compiled: CompiledStation): D
     byKey.set(n.key, { kind: n.kind, position: n.position, ...(n.normal ? { normal: n.normal } : {}) });
     if (n.kind === 'socket' && n.normal) sockets.push({ key: n.key, position: n.position, normal: n.normal });
   }
+  const arms = doc.arms.flatMap((a) => {
+    const base = byKey.get(a.baseNode);
+    return base ? [{ ...a, base: base.position }] : [];
+  });
   return {
     airlockKey: airlock.key,
+    arms,
+    keepOut: doc.hazards.filter((h) => h.kind === 'keep-out'),
     orbit: doc.orbit,
     settings: doc.settings,
     node: (key) => byKey.get(key),

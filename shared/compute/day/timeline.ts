@@ -12,6 +12,7 @@ import {
 } from '../orbit';
 import { reachCheck } from '../reach';
 import { formatElapsed, formatMinutes } from '../units';
+import { ArmDesk, armIngressOf, armRole } from './arm-session';
 import { ItemLedger, describeWhere, placeWhere, sameWhere } from './items';
 import type {
   CrewTimeline,
@@ -54,6 +55,9 @@ type Step =
   | { kind: 'sync'; task: number }
   | { kind: 'work'; task: number }
   | { kind: 'after-work'; task: number }
+  | { kind: 'arm-in'; task: number }
+  | { kind: 'arm-ride'; task: number }
+  | { kind: 'arm-out'; task: number }
   | { kind: 'home' }
   | { kind: 'sync-home' }
   | { kind: 'ingress' };
@@ -114,7 +118,9 @@ export function computeTimeline(
   const ledger = new ItemLedger(plan.manifest, airlockKey, start.items);
   const restraintSeconds = station.settings.restraintSeconds;
   const isAttach = (key: string) => ATTACH_KINDS.has(station.node(key)?.kind ?? '');
-  const known = (key: string) => key === 'airlock' || station.node(key) !== undefined;
+  const armKeys = new Set((station.arms ?? []).map((a) => a.key));
+  // an arm's key names the end of the arm: a foot restraint can be installed there
+  const known = (key: string) => key === 'airlock' || station.node(key) !== undefined || armKeys.has(key);
 
   // ── static checks: places, tools, reach ─────────────────────────────────────────────────────────
   const byNameOrKey = new Map<string, string[]>();
@@ -193,9 +199,15 @@ export function computeTimeline(
     const steps: Step[] = [];
     plan.tasks.forEach((task, i) => {
       if (!membersOf(task).includes(m)) return;
-      steps.push({ kind: 'travel', task: i }, { kind: 'restraint-in', task: i });
+      const onArm = armRole(plan.tasks, m, i);
+      if (onArm) {
+        if (onArm.first) steps.push({ kind: 'travel', task: i }, { kind: 'arm-in', task: i });
+        steps.push({ kind: 'arm-ride', task: i });
+      } else steps.push({ kind: 'travel', task: i }, { kind: 'restraint-in', task: i });
       if (task.crew === 'both') steps.push({ kind: 'sync', task: i });
-      steps.push({ kind: 'work', task: i }, { kind: 'after-work', task: i });
+      steps.push({ kind: 'work', task: i });
+      if (!onArm) steps.push({ kind: 'after-work', task: i });
+      else if (onArm.last) steps.push({ kind: 'arm-out', task: i });
     });
     steps.push({ kind: 'home' }, { kind: 'sync-home' }, { kind: 'ingress' });
     lanes[m] = {
@@ -265,7 +277,8 @@ export function computeTimeline(
     let result = route(request);
     // the best way in may leave too little tether to get out again: then the best way in that leaves
     // room (none: keep the best way in, and the way out will say why it fails)
-    const cap = taskIndex === undefined || !result.feasible ? undefined : endCap(taskIndex, tetherLengthM);
+    const toWork = taskIndex !== undefined && plan.tasks[taskIndex].worksite === to;
+    const cap = !toWork || !result.feasible ? undefined : endCap(taskIndex, tetherLengthM);
     if (cap !== undefined && result.feasible && tetherAtRouteEnd(result).paidOutM > cap + 1e-9) {
       const roomy = route({ ...request, endPaidOutMaxM: cap });
       if (roomy.feasible) result = roomy;
@@ -455,6 +468,18 @@ export function computeTimeline(
     });
   };
 
+  const arms = new ArmDesk({
+    plan,
+    station,
+    ledger,
+    warnings,
+    restraintSeconds,
+    lanes,
+    push,
+    isAttachNow: (key) => isAttach(key) || ledger.anchorNodes().includes(key),
+    taskName: (i) => taskName(plan.tasks[i], i),
+  });
+
   const nextSocketOf = (lane: Lane): string | undefined => {
     for (let pc = lane.pc; pc < lane.steps.length; pc++) {
       const s = lane.steps[pc];
@@ -474,10 +499,21 @@ export function computeTimeline(
           return;
         }
         getOut(lane, step.task);
-        lane.reached =
-          knownSite[step.task] && translate(lane, task.worksite, task.carrying || holdsLarge(m), step.task);
+        const ingress = armIngressOf(plan.tasks, m, step.task);
+        const to = ingress ?? task.worksite;
+        const knownTo = ingress === undefined ? knownSite[step.task] : station.node(ingress) !== undefined;
+        lane.reached = knownTo && translate(lane, to, task.carrying || holdsLarge(m), step.task);
         return;
       }
+      case 'arm-in':
+        arms.board(lane, step.task);
+        return;
+      case 'arm-ride':
+        arms.ride(lane, step.task);
+        return;
+      case 'arm-out':
+        arms.leave(lane, step.task);
+        return;
       case 'restraint-in':
         getIn(lane, plan.tasks[step.task], step.task);
         return;
@@ -524,6 +560,7 @@ export function computeTimeline(
     const active = CREW.map((m) => lanes[m]).filter((l) => l.pc < l.steps.length);
     if (active.length === 0) break;
     const ready = active.filter((l) => l.waitingAt === null);
+    if (ready.length === 0 && arms.breakDeadlock(active)) continue;
     if (ready.length === 0) {
       // both at a sync point: it must be the same one (tasks for both keep plan order in each lane)
       const [a, b] = active;
@@ -595,6 +632,7 @@ export function computeTimeline(
   return {
     crew: { EV1: summarise(lanes.EV1), EV2: summarise(lanes.EV2) },
     routes,
+    arms: arms.lanesOut(),
     equipment,
     reach,
     endSeconds,

@@ -1,7 +1,7 @@
 import type { CrewMember, ManifestItem, ManifestKind, Plan, Task } from '../../schemas/plan';
 import type { RouteFeasible, RouteMode, RouteResult } from '../../schemas/route';
 import type { ReachResult } from '../../schemas/sockets';
-import type { NodeKind, StationSettings, Vec3 } from '../../schemas/station';
+import type { Arm, Hazard, NodeKind, StationSettings, Vec3 } from '../../schemas/station';
 import type { OrbitInput, OrbitSummary, OrbitWindow } from '../orbit';
 
 export type { TetherState } from '../../schemas/route';
@@ -66,7 +66,13 @@ export interface DayStation {
    * ways open to a route; 0 at an attach point, null when none can be reached.
    */
   nearestAttachM(node: string, extraAttach: readonly string[], allowRide: boolean): number | null;
+  /** the station's robotic arms, with their base positions */
+  arms?: readonly DayArm[];
+  /** the keep-out volumes an arm's tip must stay clear of */
+  keepOut?: readonly Hazard[];
 }
+
+export type DayArm = Arm & { base: Vec3 };
 
 export type DayTask = Pick<
   Task,
@@ -81,7 +87,8 @@ export type DayTask = Pick<
   | 'sockets'
   | 'tools'
   | 'actions'
->;
+> &
+  Partial<Pick<Task, 'arm'>>;
 
 export type DayItem = Pick<ManifestItem, 'name' | 'kind' | 'carriedBy' | 'installedAt'> & {
   key: string;
@@ -116,7 +123,15 @@ export interface DayStart {
 }
 
 export type TimelineBlockType =
-  'egress' | 'translate' | 'swap' | 'restraint-in' | 'work' | 'restraint-out' | 'wait' | 'ingress';
+  | 'egress'
+  | 'translate'
+  | 'swap'
+  | 'restraint-in'
+  | 'work'
+  | 'restraint-out'
+  | 'wait'
+  | 'ingress'
+  | 'arm-ride';
 
 export interface TimelineBlock {
   type: TimelineBlockType;
@@ -148,6 +163,51 @@ export interface TimelineBlock {
   pitchSetDeg?: number;
   /** work: the crew member could not get to the worksite (see the warnings) */
   unreached?: boolean;
+  /**
+   * restraint-in, arm-ride, work, restraint-out on an arm: the arm's key. On an arm the crew member is
+   * tethered to it (`tetherAtEnd` of the get-in); the get-out clips them back to the station.
+   */
+  arm?: string;
+}
+
+/** A move of an arm's tip: a straight line, then the settle time. */
+export interface ArmBlock {
+  type: 'arm-move';
+  start: number;
+  end: number;
+  /** when the tip arrives; the arm settles from then to `end` */
+  travelEnd: number;
+  label: string;
+  /** node keys of the two ends */
+  from: string;
+  to: string;
+  fromPoint: Vec3;
+  toPoint: Vec3;
+  /** who stands on the arm's end, if anyone */
+  rider?: CrewMember;
+  taskIndex?: number;
+}
+
+/** One rider's time on an arm: from getting on at `ingress` to getting off at `egress`. */
+export interface ArmSession {
+  rider: CrewMember;
+  start: number;
+  end: number;
+  ingress: string;
+  egress: string;
+  /** the plan's tasks done from the arm in this session */
+  taskIndexes: number[];
+}
+
+/** An arm's lane in the day: its moves and who rides it when. */
+export interface ArmLane {
+  key: string;
+  label?: string;
+  base: Vec3;
+  /** where the tip is at the start of the day (the first session's ingress), null when never used */
+  startPoint: Vec3 | null;
+  blocks: ArmBlock[];
+  sessions: ArmSession[];
 }
 
 export interface CrewTimeline {
@@ -182,7 +242,12 @@ export type TimelineWarningCode =
   | 'unused-tool'
   | 'unknown-start'
   | 'unknown-place'
-  | 'left-outside';
+  | 'left-outside'
+  | 'unknown-arm'
+  | 'arm-out-of-reach'
+  | 'arm-path-keep-out'
+  | 'arm-busy'
+  | 'arm-egress-not-attach';
 
 export interface TimelineWarning {
   code: TimelineWarningCode;
@@ -195,6 +260,8 @@ export interface TimelineWarning {
   nextWindow?: { start: number; end: number; nightStart: number; nightEnd: number };
   /** socket-out-of-reach: sockets of the station that reach the worksite, nearest first */
   reachingSockets?: string[];
+  /** arm warnings: the arm's key */
+  arm?: string;
 }
 
 /** A foot restraint's reach for one crew member's task. */
@@ -211,6 +278,8 @@ export interface Timeline {
   crew: Record<CrewMember, CrewTimeline>;
   /** every route of the day, once; translate and swap blocks point into it */
   routes: RouteFeasible[];
+  /** the station's arms that the day uses: moves and riders */
+  arms: ArmLane[];
   equipment: EquipmentTrack[];
   reach: TaskReach[];
   endSeconds: number;

@@ -16,8 +16,9 @@ const BAND_TOP = 22;
 const LANE_H = 46;
 const LANE_GAP = 14;
 const laneTop = (i: number) => BAND_TOP + 6 + i * (LANE_H + LANE_GAP);
-const AXIS_Y = laneTop(2) - LANE_GAP + 8;
-const H = AXIS_Y + 40;
+/** The time axis under the crew lanes and one lane per arm the day uses. */
+const axisYBelow = (lanes: number) => laneTop(lanes) - LANE_GAP + 8;
+const ARM_LANE_H = 30;
 
 export const BLOCK_NAMES: Record<TimelineBlockType, string> = {
   egress: 'Egress',
@@ -28,6 +29,7 @@ export const BLOCK_NAMES: Record<TimelineBlockType, string> = {
   'restraint-out': 'Out of foot restraint',
   wait: 'Wait',
   ingress: 'Ingress',
+  'arm-ride': 'On the arm',
 };
 
 /** Fill per block type: a pattern as well as a colour, so the kinds differ without colour. */
@@ -40,6 +42,7 @@ const FILL: Record<TimelineBlockType, { fill: string; stroke: string; text: stri
   wait: { fill: palette.surface.panel, stroke: palette.text.muted, text: palette.text.muted, dash: '4 3' },
   egress: { fill: 'url(#tl-stripes)', stroke: palette.ink[700], text: palette.text.strong },
   ingress: { fill: 'url(#tl-stripes)', stroke: palette.ink[700], text: palette.text.strong },
+  'arm-ride': { fill: 'url(#tl-arm)', stroke: palette.accent.strong, text: palette.text.strong },
 };
 
 function tickStep(horizon: number): number {
@@ -111,6 +114,13 @@ export function BlockDetails({
           {block.yawSetDeg !== undefined && `: set yaw ${block.yawSetDeg}°, pitch ${block.pitchSetDeg}°`}
         </p>
       )}
+      {block.arm && (
+        <p>
+          On arm {block.arm}
+          {block.to && ` (${block.type === 'arm-ride' ? 'to' : 'at'} ${block.to})`}
+          {block.tetherAtEnd && `; tether then at ${block.tetherAtEnd.anchor}`}
+        </p>
+      )}
       {block.type === 'translate' && route && (
         <>
           <p>
@@ -142,6 +152,80 @@ export function BlockDetails({
   );
 }
 
+/**
+ * An arm's lane: who rides it when (a thin bar per session) and each move of its tip (a block named
+ * for the rider, or "empty" when it moves to meet the next one).
+ */
+function ArmLaneRow({
+  lane,
+  top,
+  x,
+}: {
+  lane: PlanTimeline['arms'][number];
+  top: number;
+  x: (t: number) => number;
+}) {
+  const y = top + (LANE_H - ARM_LANE_H) / 2;
+  return (
+    <g role="list" aria-label={`${lane.key} arm lane`} data-arm-lane={lane.key}>
+      <text x={8} y={top + LANE_H / 2 + 4} fontSize="11" fontWeight="600" fill={palette.text.strong}>
+        {lane.key}
+      </text>
+      {lane.sessions.map((s, k) => (
+        <g
+          key={`s${k}`}
+          role="listitem"
+          aria-label={`${s.rider} on ${lane.key} ${formatElapsed(s.start)} to ${formatElapsed(s.end)}, on at ${s.ingress}, off at ${s.egress}`}
+        >
+          <rect
+            x={x(s.start)}
+            y={y + ARM_LANE_H + 2}
+            width={Math.max(1, x(s.end) - x(s.start))}
+            height={5}
+            fill={s.rider === 'EV1' ? palette.accent.strong : palette.ink[700]}
+          />
+          {x(s.end) - x(s.start) > 60 && (
+            <text x={x(s.start) + 2} y={y - 3} fontSize="10" fill={palette.text.muted}>
+              {s.rider} rides
+            </text>
+          )}
+        </g>
+      ))}
+      {lane.blocks.map((b, k) => {
+        const bx = x(b.start);
+        const bw = Math.max(1, x(b.end) - bx);
+        const text = `${b.rider ?? 'empty'} → ${b.to}`;
+        return (
+          <g
+            key={k}
+            role="listitem"
+            tabIndex={0}
+            data-arm-block=""
+            aria-label={`${b.label}, ${formatElapsed(b.start)} to ${formatElapsed(b.end)}`}
+            className="outline-none"
+          >
+            <title>{`${b.label}, ${formatElapsed(b.start)}–${formatElapsed(b.end)}`}</title>
+            <rect
+              x={bx}
+              y={y}
+              width={bw}
+              height={ARM_LANE_H}
+              fill={b.rider ? 'url(#tl-arm)' : palette.surface.panel}
+              stroke={palette.accent.strong}
+              strokeDasharray={b.rider ? undefined : '4 3'}
+            />
+            {text.length * 5.8 < bw - 4 && (
+              <text x={bx + 3} y={y + ARM_LANE_H / 2 + 4} fontSize="10" fill={palette.text.strong}>
+                {text}
+              </text>
+            )}
+          </g>
+        );
+      })}
+    </g>
+  );
+}
+
 function Patterns() {
   return (
     <defs>
@@ -153,6 +237,10 @@ function Patterns() {
         <rect width="6" height="6" fill={palette.caution.soft} />
         <path d="M0 0L6 6M6 0L0 6" stroke={palette.caution.DEFAULT} strokeWidth="1" />
       </pattern>
+      <pattern id="tl-arm" width="10" height="10" patternUnits="userSpaceOnUse">
+        <rect width="10" height="10" fill={palette.accent.soft} />
+        <circle cx="5" cy="5" r="2" fill={palette.accent.strong} />
+      </pattern>
       <pattern id="tl-stripes" width="6" height="6" patternUnits="userSpaceOnUse">
         <rect width="6" height="6" fill={palette.ink[100]} />
         <line x1="1" y1="0" x2="1" y2="6" stroke={palette.ink[300]} strokeWidth="2" />
@@ -162,7 +250,15 @@ function Patterns() {
 }
 
 export function TimelineLegend() {
-  const kinds: TimelineBlockType[] = ['egress', 'translate', 'swap', 'restraint-in', 'work', 'wait'];
+  const kinds: TimelineBlockType[] = [
+    'egress',
+    'translate',
+    'swap',
+    'restraint-in',
+    'work',
+    'wait',
+    'arm-ride',
+  ];
   return (
     <ul aria-label="Legend" className="flex flex-wrap gap-x-4 gap-y-1 text-xs text-text">
       {kinds.map((k) => (
@@ -242,6 +338,9 @@ export function TimelineChart({ timeline, tasks }: TimelineChartProps) {
   const ticks: number[] = [];
   for (let t = 0; t <= horizon; t += step) ticks.push(t);
   const limitX = x(timeline.timeLimitSeconds);
+  const armLanes = timeline.arms ?? [];
+  const AXIS_Y = axisYBelow(CREW.length + armLanes.length);
+  const H = AXIS_Y + 40;
 
   return (
     <div className="space-y-3">
@@ -352,6 +451,9 @@ export function TimelineChart({ timeline, tasks }: TimelineChartProps) {
               );
             })}
           </g>
+        ))}
+        {armLanes.map((lane, a) => (
+          <ArmLaneRow key={lane.key} lane={lane} top={laneTop(CREW.length + a)} x={x} />
         ))}
         <g aria-hidden="true">
           <line

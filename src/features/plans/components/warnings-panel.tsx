@@ -38,6 +38,11 @@ const HEADINGS: Record<TimelineWarningCode, { heading: string; severity: Severit
   'unknown-start': { heading: 'Item starts at an unknown place', severity: 'danger' },
   'unknown-place': { heading: 'Item action at an unknown place', severity: 'danger' },
   'left-outside': { heading: 'Left outside', severity: 'caution' },
+  'unknown-arm': { heading: 'Unknown arm', severity: 'danger' },
+  'arm-out-of-reach': { heading: 'Outside the arm’s reach', severity: 'danger' },
+  'arm-path-keep-out': { heading: 'Arm path through a keep-out volume', severity: 'danger' },
+  'arm-busy': { heading: 'Arm in use: rider waits', severity: 'caution' },
+  'arm-egress-not-attach': { heading: 'Arm egress is not an attach point', severity: 'danger' },
 };
 
 const MARK = { danger: '⚠', caution: '△', note: 'ⓘ' } as const;

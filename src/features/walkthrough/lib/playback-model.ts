@@ -105,6 +105,7 @@ export const STEP_TYPE_LABELS: Record<WalkStep['type'], string> = {
   wait: 'Wait',
   ingress: 'Ingress',
   arrive: 'Arrive',
+  'arm-ride': 'On the arm',
 };
 
 export function isNight(windows: readonly OrbitWindow[], t: number): boolean {
