@@ -1,7 +1,7 @@
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { chromium, type BrowserContext, type ConsoleMessage, type Page } from 'playwright-core';
+import { chromium, type BrowserContext, type ConsoleMessage, type Locator, type Page } from 'playwright-core';
 import { afterEach, beforeEach, expect, inject } from 'vitest';
 
 const root = path.resolve(import.meta.dirname, '../..');
@@ -129,4 +129,34 @@ export async function signInAs(session: BrowserSession, role: string) {
   await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
   await page.getByRole('button', { name: 'Sign in' }).click();
   await page.getByRole('heading', { level: 1, name: /^Welcome, / }).waitFor();
+}
+
+/** How many frames the 3D scene in `scene` has drawn (the counter it keeps in `data-frames`). */
+export async function framesDrawn(scene: Locator): Promise<number> {
+  return Number((await scene.getAttribute('data-frames')) ?? 0);
+}
+
+/**
+ * Waits until the 3D scene in `scene` (the page's station scene unless given) has drawn a frame after
+ * its `data-frames` counter read `after`, and then drew none for three browser animation frames: what
+ * the last action set going (a route drawn, the camera's move) is on the canvas, ready to be counted.
+ * The scene draws on demand, so a still scene draws nothing and a moving one a frame each time.
+ */
+export async function sceneSettled(page: Page, after = 0, scene = page.getByTestId('station-scene')) {
+  await scene.evaluate(
+    (el, since) =>
+      new Promise<void>((resolve) => {
+        let last = -1;
+        let still = 0;
+        const tick = () => {
+          const frames = Number((el as HTMLElement).dataset.frames ?? 0);
+          still = frames > since && frames === last ? still + 1 : 0;
+          last = frames;
+          if (still >= 3) resolve();
+          else requestAnimationFrame(tick);
+        };
+        requestAnimationFrame(tick);
+      }),
+    after,
+  );
 }

@@ -1,5 +1,5 @@
 import { describe, it } from 'vitest';
-import { openBrowserPerTest, type BrowserSession } from './browser';
+import { framesDrawn, openBrowserPerTest, sceneSettled, type BrowserSession } from './browser';
 
 // Leaving a 3D screen (signing out, or going elsewhere) must take the scene and its labels down
 // cleanly: no page error, and the next screen shows.
@@ -20,8 +20,10 @@ describe('leaving the 3D station view', () => {
       await page.getByTestId('station-scene').locator('canvas').waitFor();
       // a node selected, so its label is up in the scene when the scene goes
       await page.getByLabel('Find a node').fill('AL-A01');
+      const framesBefore = await framesDrawn(page.getByTestId('station-scene'));
       await page.keyboard.press('Enter');
-      await page.waitForTimeout(800);
+      await page.locator('[data-testid="station-scene"][data-selected="node:AL-A01"]').waitFor();
+      await sceneSettled(page, framesBefore);
       await page.getByRole('button', { name: 'Sign out' }).click();
       await page.getByRole('button', { name: 'Sign in' }).waitFor();
     }

@@ -1,7 +1,14 @@
 import { request } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
 import type { StationSummary } from '@shared/schemas/station-edits';
-import { type BrowserSession, openBrowserPerTest, signInAs, DEMO_PASSWORD } from './browser';
+import {
+  type BrowserSession,
+  framesDrawn,
+  openBrowserPerTest,
+  sceneSettled,
+  signInAs,
+  DEMO_PASSWORD,
+} from './browser';
 
 // the two worksites at the ends of the long truss: far beyond one 25.9 m tether
 const FROM = 'PB4-W01';
@@ -75,12 +82,13 @@ describe('route finder', () => {
     await signIn('planner');
     await session.goto(`/stations/${id}`);
     await page.getByTestId('station-scene').locator('canvas').waitFor();
-    await page.waitForTimeout(1000);
+    await sceneSettled(page);
     const before = await overlayPixels(session);
     await page.getByRole('tab', { name: 'Route' }).click();
     await chooseNode('From', FROM);
     await chooseNode('To', TO);
     await page.getByRole('radio', { name: /^Fastest/ }).check();
+    const framesBeforeRoute = await framesDrawn(page.getByTestId('station-scene'));
     await page.getByRole('button', { name: 'Find route' }).click();
 
     const result = page.getByRole('region', { name: 'Route result' });
@@ -110,7 +118,8 @@ describe('route finder', () => {
     );
     await table.getByText('(best)').first().waitFor({ state: 'attached' });
 
-    await page.waitForTimeout(1000);
+    // the route is on the page: wait until the scene has drawn it and the camera has come to rest
+    await sceneSettled(page, framesBeforeRoute);
     await session.screenshot('route-finder-fastest');
     const drawn = await overlayPixels(session);
     console.info(`route overlay pixels before ${JSON.stringify(before)}, after ${JSON.stringify(drawn)}`);
@@ -128,8 +137,9 @@ describe('route finder', () => {
       trs.slice(1).map((tr) => Number(tr.querySelectorAll('td')[3].textContent!.replace(/\D.*$/, ''))),
     );
     expect(swapCells[1]).toBeLessThanOrEqual(swapCells[0]);
+    const framesBeforeReach = await framesDrawn(page.getByTestId('station-scene'));
     await page.getByRole('checkbox', { name: /Show tether reach in 3D/ }).check();
-    await page.waitForTimeout(600);
+    await sceneSettled(page, framesBeforeReach);
     await session.screenshot('route-finder-fewest-swaps');
   });
 });
