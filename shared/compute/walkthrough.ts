@@ -301,7 +301,7 @@ function taskEquipment(
   equipment: readonly EquipmentTrack[],
 ): string[] {
   if (!task?.crew) return [];
-  const items = equipment.map((e) => ({ key: e.item, name: e.name }));
+  const items = equipment.map((e) => ({ key: e.item, name: e.name, kind: e.kind }));
   const lines: string[] = [];
   for (const a of task.actions ?? []) {
     const by = a.by ?? (task.crew === 'both' ? 'EV1' : task.crew);

@@ -4,9 +4,59 @@ import userEvent from '@testing-library/user-event';
 import type { ManifestItem, Task } from '@shared/schemas/plan';
 import { TaskForm } from '@/features/plans/components/task-form';
 import { ManifestEditor } from '@/features/plans/components/manifest-editor';
-import type { PlanStationNodes } from '@/features/plans/types';
+import { TimelineChart } from '@/features/plans/components/timeline-chart';
+import type { PlanStationNodes, PlanTimeline } from '@/features/plans/types';
+import { computeTimeline } from '@shared/compute/day/timeline';
+import { CreatePlanInputSchema } from '@shared/schemas/plan';
+import { LINE_KEYS, dayEngine, lineStationDocument } from '../factories/day';
 
 afterEach(cleanup);
+
+// the real day on the line station (10 s a metre), see tests/factories/day.ts
+const engine = dayEngine(lineStationDocument());
+const chartTasks: Task[] = [
+  {
+    title: 'Inspect hinge',
+    worksite: LINE_KEYS.w3,
+    crew: 'EV1',
+    durationSeconds: 2700,
+    eclipseOnly: false,
+    carrying: false,
+    tools: [],
+    actions: [],
+  },
+  // an hour of eclipse-only work cannot fit a night window of about 36 minutes
+  {
+    title: 'Mate connectors',
+    worksite: LINE_KEYS.w2,
+    crew: 'EV2',
+    durationSeconds: 3600,
+    eclipseOnly: true,
+    carrying: false,
+    tools: [],
+    actions: [],
+  },
+];
+
+function chartTimeline(): PlanTimeline {
+  const plan = CreatePlanInputSchema.parse({
+    title: 'Chart day',
+    stationId: 1,
+    date: '2026-03-01',
+    crew: { EV1: { name: 'Ada', tetherLengthM: 25.9 }, EV2: { name: 'Lars', tetherLengthM: 25.9 } },
+    tasks: chartTasks,
+  });
+  const timeline = computeTimeline({ ...plan, manifest: [] }, engine.station, engine.route);
+  return {
+    ...timeline,
+    planId: 1,
+    planVersion: 1,
+    stationId: 1,
+    stationVersion: 1,
+    airlockKey: LINE_KEYS.airlock,
+    caution: '',
+  };
+}
 
 // jsdom has no modal dialogs: open and close them as the attribute says
 HTMLDialogElement.prototype.showModal ??= function (this: HTMLDialogElement) {
@@ -205,5 +255,40 @@ describe('manifest editor', () => {
       installedAt: 'A9',
       leaveOutside: true,
     });
+  });
+});
+
+describe('timeline chart: the 3D day’s cursor, picking a block, eclipse-only work outside night', () => {
+  it('marks on the chart each work block the day warns is outside night, and hands a clicked block over', async () => {
+    const timeline = chartTimeline();
+    const onPick = vi.fn();
+    const user = userEvent.setup();
+    const { container } = render(
+      <TimelineChart timeline={timeline} tasks={chartTasks} onPick={onPick} cursor={1234.4} />,
+    );
+    const warned = new Set(
+      timeline.warnings.filter((w) => w.code === 'eclipse-only-outside-night').map((w) => w.taskIndex),
+    );
+    expect(warned.size, 'the day puts an eclipse-only task outside night').toBe(1);
+    const marked = [...container.querySelectorAll('[data-outside-night]')];
+    const workOf = (i: number) =>
+      (['EV1', 'EV2'] as const)
+        .flatMap((m) => timeline.crew[m].blocks)
+        .filter((b) => b.type === 'work' && b.taskIndex === i);
+    expect(marked.length).toBe([...warned].flatMap((i) => workOf(i!)).length);
+    for (const el of marked)
+      expect(el.getAttribute('aria-label')).toMatch(/eclipse only but not inside a night window/);
+    expect(container.querySelector('[data-testid="timeline-cursor"]')?.getAttribute('data-t')).toBe('1234');
+
+    const ev2 = screen.getByRole('list', { name: 'EV2 blocks' });
+    const work = within(ev2)
+      .getAllByRole('listitem')
+      .find((el) => el.getAttribute('data-block-type') === 'work')!;
+    await user.click(work);
+    const block = timeline.crew.EV2.blocks.find((b) => b.type === 'work')!;
+    expect(onPick).toHaveBeenLastCalledWith({ crew: 'EV2', block });
+    work.focus();
+    await user.keyboard('{Enter}');
+    expect(onPick).toHaveBeenCalledTimes(2);
   });
 });

@@ -33,7 +33,7 @@ function equipmentSteps(plan: PlanView, block: TimelineBlock, member: 'EV1' | 'E
       describeAction(
         task,
         a,
-        plan.manifest.map((m, i) => ({ key: m.key ?? `item-${i + 1}`, name: m.name })),
+        plan.manifest.map((m, i) => ({ key: m.key ?? `item-${i + 1}`, name: m.name, kind: m.kind })),
       ),
     );
 }

@@ -3,8 +3,8 @@ import type { AppContext } from '../../context';
 import type { Db } from '../../db/client';
 import { plans, stations, users, walkthroughs } from '../../db/schema';
 import { badRequest, notFound, staleVersion } from '../../lib/http-error';
-import { planWalkthrough, routeWalkthrough, type CrewTrack } from '@shared/compute/walkthrough';
-import type { CrewMember } from '@shared/schemas/plan';
+import { planPlaybackOf, positionsOf } from '@shared/compute/plan-playback';
+import { routeWalkthrough } from '@shared/compute/walkthrough';
 import type { StationDocument, Vec3 } from '@shared/schemas/station';
 import {
   routeSummaryText,
@@ -31,8 +31,6 @@ export interface Actor {
 }
 
 type Row = typeof walkthroughs.$inferSelect;
-
-const CREW: readonly CrewMember[] = ['EV1', 'EV2'];
 
 function parseRoute(json: string | null): WalkthroughRouteSpec | null {
   return json ? WalkthroughRouteSpecSchema.parse(JSON.parse(json)) : null;
@@ -128,27 +126,7 @@ export function getWalkthrough(db: Db, id: number): Walkthrough {
   return toWalkthrough(findJoined(db, id));
 }
 
-/** Every node key a track names, with its position, so the client can draw anchors and tethers. */
-function positionsOf(doc: StationDocument, tracks: readonly CrewTrack[], extra: readonly string[] = []) {
-  const byKey = new Map(doc.nodes.map((n) => [n.key, n.position as Vec3]));
-  const out: Record<string, Vec3> = {};
-  const add = (key: string | undefined) => {
-    if (!key) return;
-    const p = byKey.get(key);
-    if (p) out[key] = p;
-  };
-  extra.forEach(add);
-  for (const t of tracks) {
-    for (const s of t.steps)
-      [s.nodeKey, s.fromKey, s.anchorKey, s.clipKey, s.releaseKey, s.socketKey].forEach(add);
-  }
-  return out;
-}
-
-const positionFn = (doc: StationDocument) => {
-  const byKey = new Map(doc.nodes.map((n) => [n.key, n.position as Vec3]));
-  return (key: string): Vec3 => byKey.get(key) ?? [0, 0, 0];
-};
+const nodesByKey = (doc: StationDocument) => new Map(doc.nodes.map((n) => [n.key, n]));
 
 /** The plan's playback, from the same timeline `GET /api/plans/:id/timeline` returns. */
 export function planPlayback(
@@ -157,33 +135,10 @@ export function planPlayback(
 ): { playback: PlanPlayback; planVersion: number } {
   const { plan, timeline } = planTimeline(ctx, planId);
   const { doc } = getCompiledStation(ctx, plan.stationId);
-  const walk = planWalkthrough(timeline, plan.tasks, timeline.airlockKey, positionFn(doc));
-  const crews = walk.crews;
-  const itemNodes = timeline.equipment.flatMap((e) =>
-    e.states.flatMap((s) => (s.where.kind === 'at' || s.where.kind === 'installed' ? [s.where.node] : [])),
-  );
-  const placed = new Set(itemNodes);
-  const normals: Record<string, Vec3> = {};
-  for (const n of doc.nodes) if (n.normal && placed.has(n.key)) normals[n.key] = n.normal;
-  const playback: PlanPlayback = {
-    kind: 'plan',
-    crews,
-    crewNames: { EV1: plan.crew.EV1.name, EV2: plan.crew.EV2.name },
-    tetherLengthM: { EV1: plan.crew.EV1.tetherLengthM, EV2: plan.crew.EV2.tetherLengthM },
-    endSeconds: walk.endSeconds,
-    timeLimitSeconds: timeline.timeLimitSeconds,
-    airlockKey: timeline.airlockKey,
-    nightWindows: timeline.nightWindows,
-    positions: positionsOf(
-      doc,
-      CREW.map((c) => crews[c]),
-      [timeline.airlockKey, ...placed],
-    ),
-    equipment: timeline.equipment,
-    normals,
-    warnings: timeline.warnings.map((w) => w.message),
+  return {
+    playback: planPlaybackOf(timeline, plan, timeline.airlockKey, doc.nodes),
+    planVersion: plan.version,
   };
-  return { playback, planVersion: plan.version };
 }
 
 type RoutePlaybackResult =
@@ -198,7 +153,8 @@ export function routePlayback(
   const entry = getCompiledStation(ctx, stationId);
   const route = routeOn(entry, spec, 'body.route');
   if (!route.feasible) return { ok: false, reason: route.reason, stationVersion: entry.version };
-  const track = routeWalkthrough(route, positionFn(entry.doc));
+  const byKey = nodesByKey(entry.doc);
+  const track = routeWalkthrough(route, (key) => (byKey.get(key)?.position as Vec3 | undefined) ?? [0, 0, 0]);
   return {
     ok: true,
     stationVersion: entry.version,
@@ -211,7 +167,7 @@ export function routePlayback(
       swapCount: route.swapCount,
       endSeconds: track.endSeconds,
       nightWindows: [],
-      positions: positionsOf(entry.doc, [track], route.nodes),
+      positions: positionsOf(byKey, [track], route.nodes),
       warnings: route.warnings,
     },
   };

@@ -13,12 +13,20 @@ const VERBS = {
 export function describeAction(
   task: Pick<DayTask, 'crew' | 'worksite' | 'socket' | 'sockets'>,
   action: DayTask['actions'][number],
-  items: readonly Pick<DayItem, 'key' | 'name'>[],
+  items: readonly (Pick<DayItem, 'key' | 'name'> & Partial<Pick<DayItem, 'kind'>>)[],
 ): string {
   const by: CrewMember = action.by ?? (task.crew === 'both' ? 'EV1' : task.crew);
-  const name = items.find((m) => m.key === action.item)?.name ?? action.item;
+  const item = items.find((m) => m.key === action.item);
+  const name = item?.name ?? action.item;
   if (action.do === 'hand-over') return `${by} hands ${name} to ${by === 'EV1' ? 'EV2' : 'EV1'}`;
-  const at = action.at ?? (task.crew === 'both' ? task.sockets?.[by] : task.socket) ?? task.worksite;
+  // as the timeline places it: a restraint goes into (or out of) the member's socket, the rest at the worksite
+  const socket =
+    item?.kind === 'foot-restraint' && (action.do === 'install' || action.do === 'remove')
+      ? task.crew === 'both'
+        ? task.sockets?.[by]
+        : task.socket
+      : undefined;
+  const at = action.at ?? socket ?? task.worksite;
   const where = action.do === 'pick-up' || action.do === 'remove' ? `from ${at}` : `at ${at}`;
   return `${by} ${VERBS[action.do]} ${name} ${where}`;
 }

@@ -1,3 +1,4 @@
+import type { PlanTimeline, PlanView } from '@shared/schemas/plan-views';
 export type { PlanListItem, PlanTimeline, PlanView } from '@shared/schemas/plan-views';
 export type { TaskReach } from '@shared/compute/day/types';
 
@@ -20,4 +21,20 @@ export interface PlanStationNodes {
   sockets: StationNodeOption[];
   /** every node, for the places an item action may name */
   all?: StationNodeOption[];
+}
+
+/** A stretch of the day to go to and frame in the 3D day: a block picked on the chart. */
+export interface DayFocus {
+  crew: 'EV1' | 'EV2';
+  start: number;
+  end: number;
+}
+
+/** The plan's day in 3D beside the chart, composed by the route (the scene is another feature's). */
+export interface DayViewProps {
+  timeline: PlanTimeline;
+  plan: PlanView;
+  focus: DayFocus | null;
+  /** the 3D day's clock, for the chart's cursor */
+  onTime: (t: number) => void;
 }

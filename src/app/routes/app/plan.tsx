@@ -5,8 +5,10 @@ import { paths } from '@/config/paths';
 import { requireUser, useUser } from '@/lib/authorization';
 import { getPlanQueryOptions } from '@/features/plans/api/get-plan';
 import { PlanEditor } from '@/features/plans/components/plan-editor';
-import type { PlanStationNodes } from '@/features/plans/types';
+import type { DayViewProps, PlanStationNodes } from '@/features/plans/types';
 import { getStationGraphQueryOptions } from '@/features/stations/api/get-station-graph';
+import { PlanDayPlayer } from '@/features/walkthrough/components/plan-day-player';
+import { PlaybackScene } from './playback-scene';
 
 export const clientLoader =
   (queryClient: QueryClient) =>
@@ -15,6 +17,23 @@ export const clientLoader =
     await queryClient.ensureQueryData(getPlanQueryOptions(Number(params.planId)));
     return null;
   };
+
+/** The plan's day in 3D, on the station's model (loaded once for the route). */
+function PlanDay({ timeline, plan, focus, onTime }: DayViewProps) {
+  const graph = useQuery(getStationGraphQueryOptions(plan.stationId));
+  if (!graph.data)
+    return <PlaybackScene stationId={plan.stationId} overlays={null} apiRef={() => {}} label="" />;
+  return (
+    <PlanDayPlayer
+      timeline={timeline}
+      plan={plan}
+      nodes={graph.data.nodes}
+      Scene={PlaybackScene}
+      focus={focus}
+      onTime={onTime}
+    />
+  );
+}
 
 export default function PlanRoute() {
   const planId = Number(useParams().planId);
@@ -36,6 +55,7 @@ export default function PlanRoute() {
       user={user}
       nodes={nodes}
       rehearseHref={paths.walkthroughs.getHref({ planId: plan.data.id })}
+      DayView={PlanDay}
     />
   );
 }

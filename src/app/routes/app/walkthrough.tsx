@@ -4,19 +4,15 @@ import { PageHeader } from '@/components/layouts/app-layout';
 import { Alert } from '@/components/ui/alert';
 import { Badge } from '@/components/ui/badge';
 import { PlanningCaution } from '@/components/ui/planning-caution';
-import { PageSpinner, Spinner } from '@/components/ui/spinner';
+import { PageSpinner } from '@/components/ui/spinner';
 import { TextLink } from '@/components/ui/text-link';
 import { paths } from '@/config/paths';
-import { ApiError, isApiError } from '@/lib/api-client';
+import { ApiError } from '@/lib/api-client';
 import { requireUser } from '@/lib/authorization';
 import { formatDateTime } from '@/lib/format';
-import { StationScene } from '@/features/scene-3d';
-import { useStationGraph } from '@/features/stations/api/get-station-graph';
 import { getWalkthroughQueryOptions, useWalkthrough } from '@/features/walkthrough/api/get-walkthrough';
-import {
-  WalkthroughPlayer,
-  type PlaybackSceneProps,
-} from '@/features/walkthrough/components/walkthrough-player';
+import { WalkthroughPlayer } from '@/features/walkthrough/components/walkthrough-player';
+import { PlaybackScene } from './playback-scene';
 
 function walkthroughId(params: { id?: string }): number {
   const id = Number(params.id);
@@ -31,32 +27,6 @@ export const clientLoader =
     await queryClient.ensureQueryData(getWalkthroughQueryOptions(walkthroughId(params)));
     return null;
   };
-
-/** The station the walkthrough is on, in 3D, with the playback drawn in it. */
-function PlaybackScene({ stationId, overlays, apiRef, label }: PlaybackSceneProps) {
-  const graph = useStationGraph(stationId);
-  if (graph.data)
-    return (
-      <StationScene
-        graph={graph.data}
-        apiRef={apiRef}
-        label={label}
-        className="h-[440px]"
-        overlays={overlays}
-      />
-    );
-  return (
-    <div className="flex h-[440px] items-center justify-center rounded-lg bg-ink-950 text-ink-100">
-      {graph.error ? (
-        <p>
-          The station model could not be loaded: {isApiError(graph.error) ? graph.error.message : 'error'}.
-        </p>
-      ) : (
-        <Spinner label="Loading the station" />
-      )}
-    </div>
-  );
-}
 
 export default function WalkthroughRoute() {
   const id = walkthroughId(useParams());

@@ -1,4 +1,4 @@
-import type { ReactNode } from 'react';
+import { useState, type ComponentType, type ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import type { User } from '@shared/schemas/auth';
 import { can } from '@shared/auth/permissions';
@@ -12,7 +12,7 @@ import { cn } from '@/lib/cn';
 import { planExportHref } from '../api/export-plan';
 import { usePlanTimeline } from '../api/get-plan-timeline';
 import { usePlanDraft } from '../lib/use-plan-draft';
-import type { PlanStationNodes, PlanView } from '../types';
+import type { DayFocus, DayViewProps, PlanStationNodes, PlanView } from '../types';
 import { ConflictNotice } from './conflict-notice';
 import { CrewEditor, SettingsEditor } from './crew-and-settings';
 import { ManifestEditor, itemRowId } from './manifest-editor';
@@ -59,9 +59,13 @@ interface PlanEditorProps {
   rehearseHref: string;
   /** an optional picker the route composes beside the task list, e.g. a small 3D view */
   extra?: ReactNode;
+  /** the day in 3D under the chart: a block picked on the chart is gone to and framed there */
+  DayView?: ComponentType<DayViewProps>;
 }
 
-export function PlanEditor({ plan, user, nodes, rehearseHref, extra }: PlanEditorProps) {
+export function PlanEditor({ plan, user, nodes, rehearseHref, extra, DayView }: PlanEditorProps) {
+  const [focus, setFocus] = useState<DayFocus | null>(null);
+  const [cursor, setCursor] = useState<number>();
   const editable = can(user, 'plans:edit') && plan.status === 'draft';
   const readOnly = !editable;
   const { draft, change, save, reload, conflict, state, error, savedVersion } = usePlanDraft(plan, editable);
@@ -126,7 +130,17 @@ export function PlanEditor({ plan, user, nodes, rehearseHref, extra }: PlanEdito
           <PlanningCaution />
           {tl ? (
             <>
-              <TimelineChart timeline={tl} tasks={plan.tasks} />
+              <TimelineChart
+                timeline={tl}
+                tasks={plan.tasks}
+                {...(DayView
+                  ? {
+                      cursor,
+                      onPick: ({ crew, block }) => setFocus({ crew, start: block.start, end: block.end }),
+                    }
+                  : {})}
+              />
+              {DayView && <DayView timeline={tl} plan={plan} focus={focus} onTime={setCursor} />}
               <TimelineTotals timeline={tl} names={{ EV1: plan.crew.EV1.name, EV2: plan.crew.EV2.name }} />
             </>
           ) : timeline.error ? (

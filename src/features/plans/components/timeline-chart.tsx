@@ -241,6 +241,16 @@ function Patterns() {
         <rect width="10" height="10" fill={palette.accent.soft} />
         <circle cx="5" cy="5" r="2" fill={palette.accent.strong} />
       </pattern>
+      <pattern
+        id="tl-off-night"
+        width="8"
+        height="8"
+        patternUnits="userSpaceOnUse"
+        patternTransform="rotate(-45)"
+      >
+        <rect width="8" height="8" fill={palette.danger.DEFAULT} />
+        <line x1="0" y1="0" x2="0" y2="8" stroke="#ffffff" strokeWidth="3" />
+      </pattern>
       <pattern id="tl-stripes" width="6" height="6" patternUnits="userSpaceOnUse">
         <rect width="6" height="6" fill={palette.ink[100]} />
         <line x1="1" y1="0" x2="1" y2="6" stroke={palette.ink[300]} strokeWidth="2" />
@@ -309,6 +319,20 @@ export function TimelineLegend() {
         </svg>
         Joint task (both crew)
       </li>
+      <li className="flex items-center gap-1.5">
+        <svg width="22" height="12" aria-hidden="true">
+          <Patterns />
+          <rect
+            x="0.5"
+            y="0.5"
+            width="21"
+            height="11"
+            fill="url(#tl-off-night)"
+            stroke={palette.danger.DEFAULT}
+          />
+        </svg>
+        ☾⚠ Eclipse-only task outside night
+      </li>
     </ul>
   );
 }
@@ -326,11 +350,25 @@ function jointStarts(timeline: PlanTimeline): { taskIndex: number; start: number
 interface TimelineChartProps {
   timeline: PlanTimeline;
   tasks: readonly Task[];
+  /** a block clicked (or Enter on it): e.g. go to it in the 3D day */
+  onPick?: (pick: ActiveBlock) => void;
+  /** the time shown in the 3D day, drawn as a line across both lanes */
+  cursor?: number;
+}
+
+/** Tasks the day warns are eclipse-only but not wholly inside a night window. */
+function outsideNight(timeline: PlanTimeline): Set<number> {
+  return new Set(
+    timeline.warnings.flatMap((w) =>
+      w.code === 'eclipse-only-outside-night' && w.taskIndex !== undefined ? [w.taskIndex] : [],
+    ),
+  );
 }
 
 /** The two-person day: one lane per crew member over the orbit's night bands, on elapsed time. */
-export function TimelineChart({ timeline, tasks }: TimelineChartProps) {
+export function TimelineChart({ timeline, tasks, onPick, cursor }: TimelineChartProps) {
   const [active, setActive] = useState<ActiveBlock | null>(null);
+  const dayNeeded = outsideNight(timeline);
   const detailsId = useId();
   const horizon = Math.max(timeline.timeLimitSeconds, timeline.endSeconds, 60) * 1.03;
   const x = (t: number) => LEFT + (t / horizon) * PLOT;
@@ -413,16 +451,25 @@ export function TimelineChart({ timeline, tasks }: TimelineChartProps) {
               const label = long.length * 6.2 < bw - 6 ? long : short;
               const fits = label !== '' && label.length * 6.2 < bw - 6;
               const isActive = active?.crew === m && active.block === b;
+              const offNight = b.type === 'work' && b.taskIndex !== undefined && dayNeeded.has(b.taskIndex);
+              const warn = b.unreached || offNight;
               return (
                 <g
                   key={k}
                   role="listitem"
                   tabIndex={0}
-                  aria-label={blockLabel(m, b, tasks)}
+                  aria-label={`${blockLabel(m, b, tasks)}${offNight ? ', eclipse only but not inside a night window' : ''}`}
                   data-block-type={b.type}
+                  data-outside-night={offNight ? '' : undefined}
                   className="cursor-pointer outline-none"
                   onMouseEnter={() => setActive({ crew: m, block: b })}
                   onFocus={() => setActive({ crew: m, block: b })}
+                  onClick={() => onPick?.({ crew: m, block: b })}
+                  onKeyDown={(e) => {
+                    if (e.key !== 'Enter' && e.key !== ' ') return;
+                    e.preventDefault();
+                    onPick?.({ crew: m, block: b });
+                  }}
                 >
                   <rect
                     x={bx}
@@ -430,12 +477,20 @@ export function TimelineChart({ timeline, tasks }: TimelineChartProps) {
                     width={bw}
                     height={LANE_H}
                     fill={look.fill}
-                    stroke={
-                      b.unreached ? palette.danger.DEFAULT : isActive ? palette.text.strong : look.stroke
-                    }
-                    strokeWidth={b.unreached || isActive ? 2.5 : 1}
-                    strokeDasharray={b.unreached ? undefined : look.dash}
+                    stroke={warn ? palette.danger.DEFAULT : isActive ? palette.text.strong : look.stroke}
+                    strokeWidth={warn || isActive ? 2.5 : 1}
+                    strokeDasharray={warn ? undefined : look.dash}
                   />
+                  {offNight && (
+                    <rect
+                      x={bx}
+                      y={laneTop(i) + LANE_H - 7}
+                      width={bw}
+                      height={7}
+                      fill="url(#tl-off-night)"
+                      aria-hidden="true"
+                    />
+                  )}
                   {fits && (
                     <text
                       x={bx + 4}
@@ -444,7 +499,7 @@ export function TimelineChart({ timeline, tasks }: TimelineChartProps) {
                       fill={look.text}
                       fontWeight={b.type === 'work' ? 600 : 400}
                     >
-                      {b.unreached ? `⚠ ${label}` : label}
+                      {offNight ? `☾⚠ ${label}` : b.unreached ? `⚠ ${label}` : label}
                     </text>
                   )}
                 </g>
@@ -455,6 +510,18 @@ export function TimelineChart({ timeline, tasks }: TimelineChartProps) {
         {armLanes.map((lane, a) => (
           <ArmLaneRow key={lane.key} lane={lane} top={laneTop(CREW.length + a)} x={x} />
         ))}
+        {cursor !== undefined && (
+          <g aria-hidden="true" data-testid="timeline-cursor" data-t={Math.round(cursor)}>
+            <line
+              x1={x(cursor)}
+              x2={x(cursor)}
+              y1={BAND_TOP}
+              y2={AXIS_Y + 4}
+              stroke={palette.text.strong}
+              strokeWidth="2.5"
+            />
+          </g>
+        )}
         <g aria-hidden="true">
           <line
             x1={limitX}

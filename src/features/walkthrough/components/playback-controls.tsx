@@ -132,9 +132,20 @@ export function PlaybackControls({
           step={1}
           defaultValue={0}
           onChange={(e) => clock.seek(Number(e.target.value))}
+          onKeyDown={(e) => {
+            // arrow keys step from one block of the day to the next; Page keys and Home/End as usual
+            const forward = e.key === 'ArrowRight' || e.key === 'ArrowUp';
+            if (!forward && e.key !== 'ArrowLeft' && e.key !== 'ArrowDown') return;
+            e.preventDefault();
+            jump(forward ? nextEventTime(eventTimes, clock.t) : previousEventTime(eventTimes, clock.t));
+          }}
+          aria-describedby="walkthrough-scrub-hint"
           className="relative w-full accent-accent focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-accent"
         />
-        {hasClock && <p className="mt-1 text-xs text-text-muted">Dark bands on the bar are orbital night.</p>}
+        <p id="walkthrough-scrub-hint" className="mt-1 text-xs text-text-muted">
+          {hasClock && 'Dark bands on the bar are orbital night. '}Arrow keys on the bar step from block to
+          block.
+        </p>
       </div>
       <div className="flex flex-wrap items-end gap-4">
         <label className="text-sm font-medium text-text-strong">

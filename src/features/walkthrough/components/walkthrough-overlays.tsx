@@ -3,10 +3,12 @@ import { Line } from '@react-three/drei';
 import { useFrame, useThree } from '@react-three/fiber';
 import * as THREE from 'three';
 import type { Line2, OrbitControls as OrbitControlsImpl } from 'three-stdlib';
+import type { EquipmentTrack } from '@shared/compute/day/types';
 import { sampleTrack } from '@shared/compute/walkthrough';
 import type { Vec3 } from '@shared/schemas/station';
 import type { PlaybackClock } from '../lib/playback-clock';
 import { trackPath, type Lane, type LaneId } from '../lib/playback-model';
+import { ItemsLayer } from './items-layer';
 import { LANE_STYLES } from './lane-styles';
 import { TextSprite } from '@/components/scene/text-sprite';
 
@@ -86,6 +88,8 @@ function CrewMarker({
           background={style.color}
           color="#0a1220"
           heightPx={20}
+          // EV1's tag above its marker, EV2's below: side by side at a worksite they never cover each other
+          shiftY={lane.id === 'EV2' ? 1.5 : -0.5}
         />
       </group>
     </>
@@ -196,11 +200,17 @@ export function WalkthroughOverlays({
   clock,
   lanes,
   positions,
+  equipment = [],
+  normals = {},
   onFrame,
 }: {
   clock: PlaybackClock;
   lanes: readonly Lane[];
   positions: Record<string, Vec3>;
+  /** a plan's items through the day, drawn where they are at the clock's time */
+  equipment?: readonly EquipmentTrack[];
+  /** sockets' outward normals, to stand an installed restraint on */
+  normals?: Record<string, Vec3>;
   /** asks the scene to frame these points: every path at first, the followed crew member later */
   onFrame?: (points: Vec3[]) => void;
 }) {
@@ -217,6 +227,14 @@ export function WalkthroughOverlays({
       {lanes.map((lane) => (
         <LanePath key={`path-${lane.id}`} lane={lane} size={size} positions={positions} />
       ))}
+      <ItemsLayer
+        equipment={equipment}
+        clock={clock}
+        lanes={lanes}
+        positions={positions}
+        normals={normals}
+        size={size}
+      />
       {lanes.map((lane) => (
         <CrewMarker key={lane.id} lane={lane} clock={clock} positions={positions} size={size} />
       ))}

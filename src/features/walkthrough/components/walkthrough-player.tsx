@@ -12,6 +12,7 @@ import { useCan } from '@/lib/authorization';
 import { useUpdateWalkthrough } from '../api/update-walkthrough';
 import { createPlaybackClock, useClock } from '../lib/playback-clock';
 import { currentStepIndices, eventTimes, lanesOf, mergeSteps } from '../lib/playback-model';
+import { DayState } from './day-state';
 import { PlaybackControls, TetherGauges } from './playback-controls';
 import { PRINT_CSS, StepCards } from './step-cards';
 import { StepCallout, StepList, currentStepOf, type CurrentSteps } from './step-list';
@@ -197,6 +198,9 @@ export function WalkthroughPlayer({ detail, printView, Scene }: WalkthroughPlaye
                   clock={clock}
                   lanes={lanes}
                   positions={playback.positions}
+                  {...(playback.kind === 'plan'
+                    ? { equipment: playback.equipment, normals: playback.normals }
+                    : {})}
                   onFrame={frame}
                 />
               }
@@ -211,6 +215,11 @@ export function WalkthroughPlayer({ detail, printView, Scene }: WalkthroughPlaye
             <Panel title="Tether">
               <TetherGauges clock={clock} lanes={lanes} />
             </Panel>
+            {playback.kind === 'plan' && (
+              <Panel title="At this moment">
+                <DayState clock={clock} lanes={lanes} equipment={playback.equipment} />
+              </Panel>
+            )}
             {playback.warnings.length > 0 && (
               <Alert tone="caution">
                 <details>

@@ -1,0 +1,108 @@
+import type { EquipmentTrack, ItemWhere } from '@shared/compute/day/types';
+import { itemStateAt, stepAt } from '@shared/compute/walkthrough';
+import { useClock, type PlaybackClock } from '../lib/playback-clock';
+import type { Lane } from '../lib/playback-model';
+import { ITEM_STYLE, LANE_STYLES } from './lane-styles';
+
+/** Where an item is, in a few words, and as a data value tests and tools can read. */
+export function whereText(where: ItemWhere): { text: string; value: string } {
+  switch (where.kind) {
+    case 'airlock':
+      return { text: 'in the airlock', value: 'airlock' };
+    case 'carried':
+      return { text: `held by ${where.crew}`, value: `carried:${where.crew}` };
+    case 'at':
+      return { text: `set down at ${where.node}`, value: `at:${where.node}` };
+    case 'installed':
+      return { text: `installed at ${where.node}`, value: `installed:${where.node}` };
+  }
+}
+
+const RESTRAINT_STEPS = new Set(['restraint-in', 'work', 'restraint-out']);
+
+/**
+ * The state of the day at the clock's time, in words: each crew member's step, tether anchor and
+ * foot restraint, and where every item is. It re-renders only when one of those changes.
+ */
+export function DayState({
+  clock,
+  lanes,
+  equipment,
+}: {
+  clock: PlaybackClock;
+  lanes: readonly Lane[];
+  equipment: readonly EquipmentTrack[];
+}) {
+  // one string per moment that differs: the steps under way and each item's state
+  const key = useClock(
+    clock,
+    (c) =>
+      `${lanes.map((l) => stepAt(l.track.steps, c.t)).join(',')}|${equipment
+        .map((e) => whereText(itemStateAt(e, c.t).where).value)
+        .join(',')}`,
+  );
+  const [stepPart, itemPart] = key.split('|');
+  const steps = stepPart.split(',').map(Number);
+  const wheres = itemPart ? itemPart.split(',') : [];
+  return (
+    <div className="space-y-3 text-sm" data-testid="day-state">
+      <ul className="space-y-2">
+        {lanes.map((lane, i) => {
+          const step = lane.track.steps[steps[i]];
+          const restraint = step && RESTRAINT_STEPS.has(step.type) ? step.socketKey : undefined;
+          const holding = equipment.filter((_, k) => wheres[k] === `carried:${lane.id}`).map((e) => e.name);
+          return (
+            <li
+              key={lane.id}
+              data-testid={`day-crew-${lane.id}`}
+              data-anchor={step?.anchorKey ?? ''}
+              data-restraint={restraint ?? ''}
+              data-step={step?.type ?? ''}
+              className="rounded-md border border-surface-line px-3 py-2"
+            >
+              <p className="font-semibold text-text-strong">
+                <span aria-hidden="true" style={{ color: LANE_STYLES[lane.id].color }}>
+                  {LANE_STYLES[lane.id].glyph}
+                </span>{' '}
+                {lane.label}: {step?.title ?? '—'}
+              </p>
+              <p className="text-text">
+                Tether clipped at <span className="font-mono">{step?.anchorKey ?? '—'}</span>
+                {restraint ? (
+                  <>
+                    {' '}
+                    · in the foot restraint on <span className="font-mono">{restraint}</span>
+                  </>
+                ) : null}
+              </p>
+              <p className="text-text-muted">Holding: {holding.length ? holding.join(', ') : 'nothing'}</p>
+            </li>
+          );
+        })}
+      </ul>
+      {equipment.length > 0 && (
+        <table className="w-full text-left text-xs">
+          <caption className="mb-1 text-left text-sm font-semibold text-text-strong">
+            Items at this moment
+          </caption>
+          <tbody>
+            {equipment.map((e, k) => {
+              const where = itemStateAt(e, clock.t).where;
+              return (
+                <tr key={e.item} data-testid={`day-item-${e.item}`} data-where={wheres[k]}>
+                  <th scope="row" className="py-0.5 pr-2 font-medium text-text-strong">
+                    <span aria-hidden="true" style={{ color: ITEM_STYLE.colors[e.kind] }}>
+                      ●
+                    </span>{' '}
+                    {e.name}
+                  </th>
+                  <td className="py-0.5 text-text">{whereText(where).text}</td>
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+      )}
+    </div>
+  );
+}
