@@ -1,7 +1,14 @@
 import { request, type APIRequestContext, type Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
 import type { StationGraph, StationSummary } from '@shared/schemas/station-edits';
-import { type BrowserSession, openBrowserPerTest, signInAs, DEMO_PASSWORD } from './browser';
+import {
+  type BrowserSession,
+  framesDrawn,
+  openBrowserPerTest,
+  sceneSettled,
+  signInAs,
+  DEMO_PASSWORD,
+} from './browser';
 
 const WORKSITES = ['SB3-W01', 'PB2-W01', 'SB1-W01'];
 
@@ -83,8 +90,9 @@ describe('socket planner', () => {
     await signIn('engineer');
     await session.goto(`/stations/${station.id}/sockets`);
     await page.getByRole('heading', { level: 1, name: 'Socket planner' }).waitFor();
-    await page.getByTestId('station-scene').locator('canvas').waitFor();
-    await page.waitForTimeout(1500);
+    const scene = page.getByTestId('station-scene');
+    await scene.locator('canvas').waitFor();
+    await sceneSettled(page);
     const before = await canvasPixels(page);
     expect(distinctColours(before), 'the model is drawn').toBeGreaterThan(20);
 
@@ -94,6 +102,7 @@ describe('socket planner', () => {
     await page.getByRole('button', { name: 'None', exact: true }).click();
     await page.getByRole('checkbox', { name: 'Add grid candidates over truss faces' }).check();
     await page.getByLabel('Grid spacing', { exact: true }).fill('1');
+    const framesBeforePlan = await framesDrawn(scene);
     await page.getByRole('button', { name: 'Plan sockets for 3 targets' }).click();
 
     const result = page.getByRole('region', { name: 'Socket plan' });
@@ -107,13 +116,14 @@ describe('socket planner', () => {
       await expect(row.getByRole('cell').nth(3).textContent()).resolves.toBe('Yes');
       await expect(row.getByRole('cell').nth(4).textContent()).resolves.toMatch(/^-?\d+\.\d° \/ -?\d+°$/);
     }
-    await page.waitForTimeout(800);
+    await sceneSettled(page, framesBeforePlan);
     await session.screenshot('socket-planner-result');
     const after = await canvasPixels(page);
     expect(distinctColours(after)).toBeGreaterThan(20);
     // framed on one new socket, its glyph and envelope fill part of the view
+    const framesBeforeFraming = await framesDrawn(scene);
     await result.getByRole('button', { name: 'Show New 1' }).click();
-    await page.waitForTimeout(800);
+    await sceneSettled(page, framesBeforeFraming);
     await session.screenshot('socket-planner-framed');
     const framed = await canvasPixels(page);
     console.info(

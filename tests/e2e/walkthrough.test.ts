@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { PlanPlayback, WalkthroughDetail, WalkthroughSummary } from '@shared/schemas/walkthrough';
-import { openBrowserPerTest, type BrowserSession, DEMO_PASSWORD } from './browser';
+import { framesDrawn, openBrowserPerTest, sceneSettled, type BrowserSession, DEMO_PASSWORD } from './browser';
 
 const DEMO_PLAN = 'External camera boom install';
 
@@ -114,8 +114,9 @@ describe('walkthrough: 3D playback, tether swap call-out and printable step card
     );
     await expect(page.getByTestId('elapsed').textContent()).resolves.toMatch(/^\d+:\d\d:\d\d$/);
     await expect(page.getByTestId('orbit-phase').textContent()).resolves.toMatch(/Orbital (day|night)/);
+    const framesBeforeCamera = await framesDrawn(page.getByTestId('station-scene'));
     await page.getByRole('combobox', { name: 'Camera' }).selectOption(crew);
-    await page.waitForTimeout(300);
+    await sceneSettled(page, framesBeforeCamera);
     await session.screenshot('walkthrough-first-swap');
 
     // a trainer's note is saved with the walkthrough and shown on the step
