@@ -12,10 +12,10 @@ import { generateTrussStation, seededRandom } from '@shared/compute/truss-genera
  * uses the label search on stations above CLIP_BUILD_FREE_NODES until then (building one at 100k
  * takes most of a minute, printed below as the clip-graph build), so on those sizes the label
  * search is timed too for the exact modes, once per query, and printed without a target of its
- * own (`fastest` runs the same A* with tether labels either way; only its fallback differs). A query
- * that starts from a tether state (here: half the tether already out from the start's anchor) is
- * answered by the label search on any size; its rows show what that costs against the clip graph's
- * fresh-clip answer to the same query.
+ * own (`fastest` runs the same A* with tether labels either way; only its fallback differs). On
+ * those sizes the same queries are also timed from a tether state as the day asks them (half the
+ * tether already out from the start's anchor, one extra attach point, and at most half the tether
+ * out on arrival), on the clip graph, against its answer from a fresh clip.
  */
 const CLIP = { strategy: 'clip-graph' } as const;
 const LABELS = { strategy: 'label-search' } as const;
@@ -27,7 +27,7 @@ const LABELS = { strategy: 'label-search' } as const;
  * comparison.
  *
  * Targets: `fastest` median within 1.5× the reference's; the exact modes' median within 5× (10k)
- * and 10× (100k), and for them a spread criterion. Random attach-to-attach queries range from
+ * and 10× (100k), and at 10k for them a spread criterion (at 100k the spread is printed only). Random attach-to-attach queries range from
  * neighbours to the whole truss, so raw times (the reference's too) have p95 far above their
  * median. What the engine controls is its cost relative to the plain search on the same query, so
  * the spread criterion is on the per-query ratio (mode time ÷ reference time): its p95 must be
@@ -37,8 +37,8 @@ const LABELS = { strategy: 'label-search' } as const;
 
 const SIZES = [
   { nodes: 1_000, queries: 200, targets: null },
-  { nodes: 10_000, queries: 150, targets: { fastest: 1.5, exact: 5 } },
-  { nodes: 100_000, queries: 100, targets: { fastest: 1.5, exact: 10 } },
+  { nodes: 10_000, queries: 150, targets: { fastest: 1.5, exact: 5, spread: true } },
+  { nodes: 100_000, queries: 100, targets: { fastest: 1.5, exact: 10, spread: false } },
 ] as const;
 /**
  * The p95 of 40 queries is their third worst, and one slow spell of the machine moved it by a
@@ -128,6 +128,8 @@ export async function run(): Promise<boolean> {
       const t = attach[Math.floor(rand() * attach.length)];
       if (s !== t) queries.push([s, t]);
     }
+    // one extra attach point per query, on any node (the tether-state rows)
+    const extraAttach = queries.map(() => c.keys[Math.floor(rand() * c.nodeCount)]);
 
     const ng = createGraph<unknown, { w: number }>();
     for (let e = 0; e < c.edgeCount; e++) {
@@ -182,10 +184,14 @@ export async function run(): Promise<boolean> {
           if (c.nodeCount > CLIP_BUILD_FREE_NODES && mode !== 'fastest' && i < OUTSIDE_QUERIES) {
             const name = `${mode} (label search)`;
             (times[name] ??= []).push(timed(() => findRoute(c, settings, request, LABELS)));
-            // the same query from a tether state: the clip graph answers only a fresh clip, so
-            // this is the label search whatever the strategy
-            const held = { ...request, startAnchor: request.from, startPaidOutM: settings.tetherLengthM / 2 };
-            const heldName = `${mode} (start state: label search)`;
+            const held = {
+              ...request,
+              startAnchor: request.from,
+              startPaidOutM: settings.tetherLengthM / 2,
+              extraAttach: [extraAttach[i]],
+              endPaidOutMaxM: settings.tetherLengthM / 2,
+            };
+            const heldName = `${mode} (tether state)`;
             (times[heldName] ??= []).push(timed(() => findRoute(c, settings, held, CLIP)));
           }
         }
@@ -235,27 +241,28 @@ export async function run(): Promise<boolean> {
         row['per-query ratio median'] = r.median.toFixed(2);
         row['per-query ratio p95'] = r.p95.toFixed(2);
       }
-      if (size.targets && ratios[name] && !name.endsWith('(label search)')) {
+      if (size.targets && (MODES as string[]).includes(name)) {
         const fastest = name === 'fastest';
+        const spread = !fastest && size.targets.spread;
         const limit = fastest ? size.targets.fastest : size.targets.exact;
         const r = summary(ratios[name]);
         const okRatio = median / refMedian <= limit;
-        const okSpread = fastest || r.p95 <= P95_SPREAD * r.median;
-        row.target = fastest ? `≤${limit}×` : `≤${limit}×, ratio p95 ≤${P95_SPREAD}× ratio median`;
+        const okSpread = !spread || r.p95 <= P95_SPREAD * r.median;
+        row.target = spread ? `≤${limit}×, ratio p95 ≤${P95_SPREAD}× ratio median` : `≤${limit}×`;
         row.result = okRatio && okSpread ? 'PASS' : 'FAIL';
         if (!okRatio || !okSpread) allPass = false;
       }
       return [name, row] as const;
     });
     console.table(Object.fromEntries(rows));
-    const startRatios = MODES.filter((m) => times[`${m} (start state: label search)`]).map((m) => {
-      const held = times[`${m} (start state: label search)`];
+    const startRatios = MODES.filter((m) => times[`${m} (tether state)`]).map((m) => {
+      const held = times[`${m} (tether state)`];
       const r = summary(held.map((took, i) => took / times[m][i]));
       return `${m} median ${r.median.toFixed(1)}×, p95 ${r.p95.toFixed(1)}×`;
     });
     if (startRatios.length)
       console.log(
-        `from a tether state (label search) against the clip graph's fresh clip, per query on the same ${OUTSIDE_QUERIES}: ${startRatios.join('; ')}`,
+        `from a tether state (with an extra attach point and a limit on arrival) against a fresh clip, both on the clip graph, per query on the same ${OUTSIDE_QUERIES}: ${startRatios.join('; ')}`,
       );
   }
   console.log(`routes bench took ${((performance.now() - started) / 1000).toFixed(1)} s`);

@@ -143,8 +143,8 @@ interface StretchGoal {
  * settled in time order and a label is dropped when a settled one at its node is no longer. The
  * first label settled at a node is its least time within the limit.
  *
- * Without a goal it lists each attach point (and `extra`) as first settled, with that time, in
- * hitNode/hitTime, and returns -1. With a goal it returns the label of the least-time walk to
+ * Without a goal it lists each node marked in `clips` (and `extra`) as first settled, with that
+ * time, in hitNode/hitTime, and returns -1. With a goal it returns the label of the least-time walk to
  * goal.dst (-1 if none), goal-directed: labels settle in order of time plus the landmark lower
  * bound on time to dst (consistent, so labels at one node still settle in time order and the same
  * dominance holds), and a label whose length plus the lower bound on metres to dst passes the
@@ -158,11 +158,12 @@ function stretchSearch(
   src: number,
   sc: StretchScratch,
   goal: StretchGoal | null,
+  clips: Uint8Array = c.isAttach,
   extra = -1,
 ): number {
   const stamp = sc.nextStamp();
   const { bestStamp, bestLen, heap, hitNode, hitTime } = sc;
-  const { offsets, targets, arcFlags, arcLengthM, isAttach } = c;
+  const { offsets, targets, arcFlags, arcLengthM } = c;
   const dst = goal ? goal.dst : -1;
   sc.size = 0;
   let hits = 0;
@@ -177,7 +178,7 @@ function stretchSearch(
       if (len >= bestLen[v]) continue;
     } else {
       if (v === dst) return x;
-      if (!goal && v !== src && (isAttach[v] || v === extra)) {
+      if (!goal && v !== src && (clips[v] || v === extra)) {
         hitNode[hits] = v;
         hitTime[hits++] = sc.time[x];
       }
@@ -671,30 +672,33 @@ export function hasClipGraph(weights: Float64Array, tetherLengthM: number, exclu
 }
 
 /**
- * Per-query arrays over attach points, reset by a stamp. In the search's arrays index A (one past
- * the last attach point) stands for t.
+ * Per-query arrays over clip slots, reset by a stamp. A slot is an attach point's index, or, past
+ * the station's A attach points, one of the query's extra attach points (A + j); in the search's
+ * arrays the slot after them (A + extras) stands for t.
  */
 interface ClipQueryState {
   stamp: number;
+  /** slots the arrays below hold, t's included */
+  capacity: number;
   /** the search: the best key parts so far at each clip (see searchClips) and the clip before it */
   seen: Int32Array;
   cost1: Float64Array;
   cost2: Float64Array;
   pred: Int32Array;
-  /** lower bounds on the rest of the route from a fresh clip at each attach point, memoised */
+  /** lower bounds on the rest of the route from a fresh clip at each slot, memoised */
   restStamp: Int32Array;
   rest1: Float64Array;
   rest2: Float64Array;
-  /** attach points one stretch from t (their last stretch's least time, stretch seconds) */
+  /** slots with a last stretch to t (its least time within the limit on arrival, stretch seconds) */
   lastStamp: Int32Array;
   last: Float64Array;
   lastList: Int32Array;
-  /** the first clips when s is not an attach point (the stretch time to each) */
+  /** the first clips (see firstClips), with the time of the first stretch to each */
   firstStamp: Int32Array;
   firstCount: number;
   firstList: Int32Array;
   firstTime: Float64Array;
-  /** fewest swaps from each levelled attach point to t (see swapLevels) */
+  /** fewest swaps from each levelled slot to t (see swapLevels) */
   levelStamp: Int32Array;
   level: Int32Array;
   queue: Int32Array;
@@ -705,43 +709,68 @@ interface ClipQueryState {
   /** per cost landmark: the least cost from it to t, and, for an attach-point t, between it and t plus a swap */
   markToEnd: Float64Array;
   markFromEnd: Float64Array;
+  /** extra attach point j's stretches: slots and times at extraRow[j] .. extraRow[j + 1] */
+  extraRow: number[];
+  extraTargets: number[];
+  extraSeconds: number[];
+  /** per attach point, its stretches to extra attach points: a list from toExtraHead through toExtraNext */
+  toExtraStamp: Int32Array;
+  toExtraHead: Int32Array;
+  toExtraNext: number[];
+  toExtraSlot: number[];
+  toExtraSeconds: number[];
+  /** per extra attach point j and cost landmark k, at j * count + k: its potentials ahead and back */
+  extraAhead: number[];
+  extraBack: number[];
   heap: MinHeap;
 }
 
-function queryState(cg: ClipGraph): ClipQueryState {
+function queryState(cg: ClipGraph, extras: number): ClipQueryState {
   const A = cg.attachNodes.length;
   let q = cg.query;
-  if (!q) {
+  if (!q || q.capacity < A + extras + 1) {
+    const n = A + 1 + Math.max(extras, 8);
     q = cg.query = {
-      stamp: 0,
-      seen: new Int32Array(A + 1),
-      cost1: new Float64Array(A + 1),
-      cost2: new Float64Array(A + 1),
-      pred: new Int32Array(A + 1),
-      restStamp: new Int32Array(A),
-      rest1: new Float64Array(A),
-      rest2: new Float64Array(A),
-      lastStamp: new Int32Array(A),
-      last: new Float64Array(A),
-      lastList: new Int32Array(A),
-      firstStamp: new Int32Array(A),
+      stamp: q?.stamp ?? 0,
+      capacity: n,
+      seen: new Int32Array(n),
+      cost1: new Float64Array(n),
+      cost2: new Float64Array(n),
+      pred: new Int32Array(n),
+      restStamp: new Int32Array(n),
+      rest1: new Float64Array(n),
+      rest2: new Float64Array(n),
+      lastStamp: new Int32Array(n),
+      last: new Float64Array(n),
+      lastList: new Int32Array(n),
+      firstStamp: new Int32Array(n),
       firstCount: 0,
-      firstList: new Int32Array(A),
-      firstTime: new Float64Array(A),
-      levelStamp: new Int32Array(A),
-      level: new Int32Array(A),
-      queue: new Int32Array(A),
+      firstList: new Int32Array(n),
+      firstTime: new Float64Array(n),
+      levelStamp: new Int32Array(n),
+      level: new Int32Array(n),
+      queue: new Int32Array(n),
       endHopsLo: new Int32Array(cg.landmarkCount),
       endHopsHi: new Int32Array(cg.landmarkCount),
       endHopsOff: new Uint8Array(cg.landmarkCount),
       markToEnd: new Float64Array(COST_MARKS),
       markFromEnd: new Float64Array(COST_MARKS),
+      extraRow: [],
+      extraTargets: [],
+      extraSeconds: [],
+      toExtraStamp: new Int32Array(A),
+      toExtraHead: new Int32Array(A),
+      toExtraNext: [],
+      toExtraSlot: [],
+      toExtraSeconds: [],
+      extraAhead: [],
+      extraBack: [],
       heap: new MinHeap(1024),
     };
   }
   if (++q.stamp >= 0x7fffffff) {
     q.stamp = 1;
-    for (const a of [q.seen, q.restStamp, q.lastStamp, q.firstStamp, q.levelStamp]) a.fill(0);
+    for (const a of [q.seen, q.restStamp, q.lastStamp, q.firstStamp, q.levelStamp, q.toExtraStamp]) a.fill(0);
   }
   return q;
 }
@@ -753,15 +782,37 @@ interface ClipQuery {
   p: LabelSearchParams;
   s: number;
   t: number;
+  /** the station's attach points: slots below A are theirs */
+  A: number;
+  /** the query's extra attach points (slot A + j is extras[j]); t only when the arrival is capped */
+  extras: readonly number[];
+  /** t's slot in the search's arrays */
+  end: number;
   /** attach indices of s and t, -1 for another node */
   sIdx: number;
   tIdx: number;
+  /** s's slot when s is an attach point (the station's or an extra one), else -1 */
+  sSlot: number;
+  /** t's slot when a clip at t counts (a swap at the end, to meet a limit on arrival), else -1 */
+  tSlot: number;
+  /** a slot never offered: t's, when a clip there cannot help */
+  tSkip: number;
   lex: boolean;
   /** the query's factor on stretch seconds (carrying) */
   f: number;
   swapCost: number;
   /** the tether, with the float margin */
   limit: number;
+  /** metres out at the start; 0 is a fresh clip at s (the anchor behind does not matter then) */
+  startPaid: number;
+  fresh: boolean;
+  /** at most this much out on arrival (the tether when the request sets no lower limit) */
+  cap: number;
+  capped: boolean;
+  /** the last stretches are t's row of the clip graph (t an attach point, no cap, no extras) */
+  plainEnd: boolean;
+  /** the query's attach points, node by node */
+  clips: Uint8Array;
   /** the stretches between the first clip and the last one (see middleRows) */
   rows: ClipRows;
   state: ClipQueryState;
@@ -775,70 +826,121 @@ interface ClipQuery {
 /**
  * The stretches the search follows between clips (a last stretch always comes from the full rows,
  * or from a search back from t): for free swaps the ones pruneStretches keeps; towards an
- * attach-point t the swap rows; else the full rows. Each keeps an optimum of its case.
+ * attach-point t with no limit on arrival and no extra attach points the swap rows; else the full
+ * rows. Each keeps an optimum of its case.
  */
-function middleRows(cg: ClipGraph, lex: boolean, swapCost: number, tIdx: number): ClipRows {
+function middleRows(cg: ClipGraph, lex: boolean, swapCost: number, plainEnd: boolean): ClipRows {
   if (!lex && swapCost === 0) return pruneStretches(cg, 0);
-  return tIdx >= 0 ? cg.swapRows : cg;
+  return plainEnd ? cg.swapRows : cg;
 }
 
-/**
- * Exact `lex` (fewest swaps, then least time) or `sum` (time + swapCost per swap) route by A* over
- * the clip graph, for a fresh clip at s on the station's own attach points; the same optimum as
- * labelSearch with the same parameters. A route is a chain of clips: s (when an attach point) or
- * the first attach point a swap is made at, then one per swap, then t; between two clips the
- * least-time stretch. Phases: the last stretches, the first clips, the swap levels (fewest swaps
- * only), the bounds, one A* over clips, and the walk along the chain found.
- */
-export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSearchParams): LabelPath | null {
-  if (p.startPaidOutM > 0 || p.isAttach !== c.isAttach || (p.endPaidOutMaxM ?? Infinity) < Infinity)
-    throw new Error('internal: the clip graph answers a fresh clip on the station attach points only');
-  const cg = clipGraphFor(c, p.weights, p.tetherLengthM, p.excludeMask);
-  const ns = scratchFor(c);
-  const toT = targetBound(c, ns, t, p.secondsFactor, p.maxSpeedMps, p.landmarkTimesValid);
-  if (!toT(s)) return null;
+function clipQuery(
+  c: CompiledStation,
+  cg: ClipGraph,
+  p: LabelSearchParams,
+  s: number,
+  t: number,
+  toT: (v: number) => boolean,
+  ns: ReturnType<typeof scratchFor>,
+): ClipQuery {
   const lex = p.objective === 'lex';
+  const tether = p.tetherLengthM;
+  const capped = (p.endPaidOutMaxM ?? Infinity) < tether;
+  const cap = capped ? p.endPaidOutMaxM! : tether;
+  // without a limit on arrival a swap at t never helps: t is then no clip
+  const extras = (p.extraAttach ?? []).filter((v) => capped || v !== t);
+  const A = cg.attachNodes.length;
+  const slotOf = (v: number) => {
+    const j = extras.indexOf(v);
+    return cg.attachIndex[v] >= 0 ? cg.attachIndex[v] : j < 0 ? -1 : A + j;
+  };
   const tIdx = cg.attachIndex[t];
-  const cq: ClipQuery = {
+  const plainEnd = tIdx >= 0 && !capped && extras.length === 0;
+  const sSlot = p.isAttach[s] ? slotOf(s) : -1;
+  return {
     c,
     cg,
     p,
     s,
     t,
+    A,
+    extras,
+    end: A + extras.length,
     sIdx: cg.attachIndex[s],
     tIdx,
+    sSlot,
+    tSlot: capped && p.isAttach[t] ? slotOf(t) : -1,
+    tSkip: capped ? -1 : tIdx,
     lex,
     f: p.secondsFactor,
     swapCost: p.swapCost,
-    limit: p.tetherLengthM + TETHER_EPS_M,
-    rows: middleRows(cg, lex, p.swapCost, tIdx),
-    state: queryState(cg),
+    limit: tether + TETHER_EPS_M,
+    startPaid: p.startPaidOutM,
+    fresh: p.startPaidOutM <= 0,
+    cap,
+    capped,
+    plainEnd,
+    clips: p.isAttach,
+    rows: middleRows(cg, lex, p.swapCost, plainEnd),
+    state: queryState(cg, extras.length),
     stretch: stretchScratchFor(c),
     toT,
     hSeconds: ns.hSeconds,
     hMetres: ns.hMetres,
   };
-  const straight = () => walkClips(c, p, cq.limit, [s, t], cq.stretch);
+}
+
+/** The slot of a node the query's stretch searches list: its attach index, else its extra slot, else -1. */
+function slotOf(cq: ClipQuery, v: number): number {
+  const a = cq.cg.attachIndex[v];
+  if (a >= 0) return a;
+  const j = cq.extras.indexOf(v);
+  return j < 0 ? -1 : cq.A + j;
+}
+
+function nodeOf(cq: ClipQuery, slot: number): number {
+  return slot < cq.A ? cq.cg.attachNodes[slot] : cq.extras[slot - cq.A];
+}
+
+/**
+ * Exact `lex` (fewest swaps, then least time) or `sum` (time + swapCost per swap) route by A* over
+ * the clip graph; the same optimum as labelSearch with the same parameters. A route is a chain of
+ * clips: s (when a fresh clip at an attach point) or the first attach point a swap is made at,
+ * then one per swap, then t; between two clips the least-time stretch within the tether. A start
+ * state makes the first stretch shorter (tether less the metres out), extra attach points are
+ * clips with stretches searched per query, and a limit on arrival makes the last stretch shorter,
+ * with a swap at t as one more way to meet it. Phases: the extra attach points' stretches, the
+ * last stretches, the first clips, the swap levels (fewest swaps only), the bounds, one A* over
+ * clips, and the walk along the chain found.
+ */
+export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSearchParams): LabelPath | null {
+  const cg = clipGraphFor(c, p.weights, p.tetherLengthM, p.excludeMask);
+  const ns = scratchFor(c);
+  const toT = targetBound(c, ns, t, p.secondsFactor, p.maxSpeedMps, p.landmarkTimesValid);
+  if (!toT(s)) return null;
+  const cq = clipQuery(c, cg, p, s, t, toT, ns);
+  const straight = () => walkClips(cq, [s, t]);
   if (straightAcross(cq)) return straight();
+  if (cq.extras.length) extraRows(cq);
   const lastCount = lastStretches(cq);
   const direct = firstClips(cq);
   // a stretch straight to t needs no swap: the answer for fewest swaps, and for a swap cost when
   // no route with a swap (at least that cost plus the least time) could be cheaper
-  if (direct < Infinity && (lex || direct <= cq.swapCost + cq.hSeconds[s])) return straight();
-  const levelsTo = lex ? swapLevels(cq, lastCount) : -1;
+  if (direct < Infinity && (cq.lex || direct <= cq.swapCost + cq.hSeconds[s])) return straight();
+  const levelsTo = cq.lex ? swapLevels(cq, lastCount) : -1;
   const rest = restBound(cq, lastCount, levelsTo);
   const chain = searchClips(cq, rest, direct, levelsTo);
-  return chain ? walkClips(c, p, cq.limit, chain, cq.stretch) : null;
+  return chain ? walkClips(cq, chain) : null;
 }
 
 /**
- * Between two attach points one stretch apart, that stretch is the answer for fewest swaps (no
- * swap), and for a swap cost when it takes no longer than a swap plus the least time of any route.
- * Checked before any other per-query work.
+ * Between two attach points one stretch apart, from a fresh clip and with no limit on arrival,
+ * that stretch is the answer for fewest swaps (no swap), and for a swap cost when it takes no
+ * longer than a swap plus the least time of any route. Checked before any other per-query work.
  */
 function straightAcross(cq: ClipQuery): boolean {
   const { cg, sIdx, tIdx } = cq;
-  if (sIdx < 0 || tIdx < 0) return false;
+  if (sIdx < 0 || tIdx < 0 || !cq.fresh || cq.capped) return false;
   for (let e = cg.offsets[tIdx], end = cg.offsets[tIdx + 1]; e < end; e++) {
     if (cg.targets[e] === sIdx) return cq.lex || cq.f * cg.seconds[e] <= cq.swapCost + cq.hSeconds[cq.s];
   }
@@ -846,133 +948,187 @@ function straightAcross(cq: ClipQuery): boolean {
 }
 
 /**
- * The last stretches: the attach points within one stretch of t, each with the least time of that
- * stretch (t's row of the clip graph, or a stretch search from t when t is not an attach point:
- * stretch times are the same both ways). Returns how many, listed in state.lastList.
+ * The extra attach points' stretches: each one's row (a stretch search from it over the query's
+ * attach points) and, since stretch times are the same both ways, the same stretch from each
+ * attach point of that row back to it.
+ */
+function extraRows(cq: ClipQuery): void {
+  const { state: q, stretch: st, A } = cq;
+  const { toExtraStamp, toExtraHead, stamp } = q;
+  q.extraRow.length = 0;
+  q.extraTargets.length = 0;
+  q.extraSeconds.length = 0;
+  q.toExtraNext.length = 0;
+  q.toExtraSlot.length = 0;
+  q.toExtraSeconds.length = 0;
+  q.extraRow.push(0);
+  cq.extras.forEach((x, j) => {
+    stretchSearch(cq.c, cq.p.weights, cq.p.excludeMask, cq.limit, x, st, null, cq.clips);
+    for (let h = 0; h < st.hitCount; h++) {
+      const b = slotOf(cq, st.hitNode[h]);
+      if (b < 0) continue;
+      q.extraTargets.push(b);
+      q.extraSeconds.push(st.hitTime[h]);
+      if (b >= A) continue;
+      if (toExtraStamp[b] !== stamp) {
+        toExtraStamp[b] = stamp;
+        toExtraHead[b] = -1;
+      }
+      q.toExtraNext.push(toExtraHead[b]);
+      q.toExtraSlot.push(A + j);
+      q.toExtraSeconds.push(st.hitTime[h]);
+      toExtraHead[b] = q.toExtraSlot.length - 1;
+    }
+    q.extraRow.push(q.extraTargets.length);
+  });
+}
+
+/**
+ * The last stretches: the slots within one stretch of t, within the limit on arrival, each with
+ * the least time of that stretch (t's row of the clip graph, or a stretch search from t: stretch
+ * times are the same both ways), and t's own slot with no time when a clip at t counts. Returns
+ * how many, listed in state.lastList.
  */
 function lastStretches(cq: ClipQuery): number {
   const { cg, state: q, tIdx } = cq;
   const { lastStamp, last, lastList, stamp } = q;
   let count = 0;
-  if (tIdx >= 0) {
-    for (let e = cg.offsets[tIdx], end = cg.offsets[tIdx + 1]; e < end; e++) {
-      const b = cg.targets[e];
-      lastStamp[b] = stamp;
-      last[b] = cg.seconds[e];
-      lastList[count++] = b;
-    }
+  const add = (b: number, time: number) => {
+    lastStamp[b] = stamp;
+    last[b] = time;
+    lastList[count++] = b;
+  };
+  if (cq.plainEnd) {
+    for (let e = cg.offsets[tIdx], end = cg.offsets[tIdx + 1]; e < end; e++)
+      add(cg.targets[e], cg.seconds[e]);
     return count;
   }
   const st = cq.stretch;
-  stretchSearch(cq.c, cq.p.weights, cq.p.excludeMask, cq.limit, cq.t, st, null);
+  stretchSearch(cq.c, cq.p.weights, cq.p.excludeMask, cq.cap + TETHER_EPS_M, cq.t, st, null, cq.clips);
   for (let h = 0; h < st.hitCount; h++) {
-    const b = cg.attachIndex[st.hitNode[h]];
-    lastStamp[b] = stamp;
-    last[b] = st.hitTime[h];
-    lastList[count++] = b;
+    const b = slotOf(cq, st.hitNode[h]);
+    if (b >= 0) add(b, st.hitTime[h]);
   }
+  if (cq.tSlot >= 0) add(cq.tSlot, 0);
   return count;
 }
 
 /**
- * The first clips: s itself when it is an attach point, else every attach point one stretch from
- * s (a swap each), listed with their stretch time in state.firstList/firstTime. Returns the time
- * (times f) of a stretch straight from s to t, Infinity when t is more than a tether away.
+ * The first clips: from a fresh clip at an attach point s, s itself; else every slot one first
+ * stretch from s (within the tether less the metres out at the start), a swap each, and s itself
+ * when it is an attach point (a swap where the crew member stands). Listed with the first
+ * stretch's time in state.firstList/firstTime. Returns the time (times f) of a first stretch
+ * straight to t within the limit on arrival, Infinity when there is none.
  */
 function firstClips(cq: ClipQuery): number {
-  const { cg, state: q, sIdx, f } = cq;
+  const { state: q, sSlot, f, s, t } = cq;
   q.firstCount = 0;
-  if (sIdx >= 0) {
-    q.firstStamp[sIdx] = q.stamp;
-    return q.lastStamp[sIdx] === q.stamp ? f * q.last[sIdx] : Infinity;
+  if (cq.fresh && sSlot >= 0) {
+    q.firstStamp[sSlot] = q.stamp;
+    return q.lastStamp[sSlot] === q.stamp ? f * q.last[sSlot] : Infinity;
   }
+  const add = (a: number, time: number) => {
+    q.firstStamp[a] = q.stamp;
+    q.firstList[q.firstCount] = a;
+    q.firstTime[q.firstCount++] = time;
+  };
   const st = cq.stretch;
-  stretchSearch(cq.c, cq.p.weights, cq.p.excludeMask, cq.limit, cq.s, st, null, cq.t);
+  const room = cq.p.tetherLengthM - cq.startPaid;
+  stretchSearch(cq.c, cq.p.weights, cq.p.excludeMask, room + TETHER_EPS_M, s, st, null, cq.clips, t);
   let direct = Infinity;
   for (let h = 0; h < st.hitCount; h++) {
     const v = st.hitNode[h];
-    if (v === cq.t) {
-      direct = f * st.hitTime[h];
-      continue;
+    if (v === t) {
+      if (!cq.capped) direct = f * st.hitTime[h];
+      if (cq.tSlot < 0) continue;
     }
-    const a = cg.attachIndex[v];
-    q.firstStamp[a] = q.stamp;
-    q.firstList[q.firstCount] = a;
-    q.firstTime[q.firstCount++] = st.hitTime[h];
+    const a = slotOf(cq, v);
+    if (a >= 0) add(a, st.hitTime[h]);
+  }
+  if (sSlot >= 0) add(sSlot, 0);
+  const endRoom = cq.cap - cq.startPaid + TETHER_EPS_M;
+  if (cq.capped && endRoom >= 0) {
+    stretchSearch(cq.c, cq.p.weights, cq.p.excludeMask, endRoom, s, st, null, cq.clips, t);
+    for (let h = 0; h < st.hitCount; h++) if (st.hitNode[h] === t) direct = f * st.hitTime[h];
   }
   return direct;
 }
 
 /**
- * Swap levels, for fewest swaps: the fewest swaps from a fresh clip at each attach point to t,
- * breadth-first from the last-stretch attach points (level 0) backwards over the rows the search
- * uses (the full rows are their own transpose; the swap rows have theirs), until the level where
- * a first clip is met is complete. Afterwards every levelled attach point has its exact level and
- * every other one needs more swaps than the returned level; -1 when the levels ran out first (no
- * first clip reaches t at any number of swaps).
+ * Swap levels, for fewest swaps: the fewest swaps from a fresh clip at each slot to t,
+ * breadth-first from the last-stretch slots (level 0) backwards over the stretches the search
+ * uses (the full rows and the extra attach points' stretches are their own transpose; the swap
+ * rows have theirs), until the level where a first clip is met is complete. Afterwards every
+ * levelled slot has its exact level and every other one needs more swaps than the returned
+ * level; -1 when the levels ran out first (no first clip reaches t at any number of swaps).
  */
 function swapLevels(cq: ClipQuery, lastCount: number): number {
-  const { cg, state: q, tIdx } = cq;
+  const { cg, state: q, tSkip, A } = cq;
   const { levelStamp, level, queue, firstStamp, lastList, stamp } = q;
   const full = cq.rows === cg;
   const inOffsets = full ? cg.offsets : cg.swapRowsIn.offsets;
   const inSources = full ? cg.targets : cg.swapRowsIn.sources;
+  const withExtras = cq.extras.length > 0;
   let qt = 0;
   let reached = -1;
-  for (let h = 0; h < lastCount; h++) {
-    const b = lastList[h];
-    if (levelStamp[b] === stamp) continue;
-    levelStamp[b] = stamp;
-    level[b] = 0;
-    queue[qt++] = b;
-    if (firstStamp[b] === stamp) reached = 0;
-  }
+  const visit = (a: number, next: number) => {
+    if (levelStamp[a] === stamp || a === tSkip) return;
+    levelStamp[a] = stamp;
+    level[a] = next;
+    queue[qt++] = a;
+    if (reached < 0 && firstStamp[a] === stamp) reached = next;
+  };
+  for (let h = 0; h < lastCount; h++) visit(lastList[h], 0);
   for (let qh = 0; qh < qt; qh++) {
     const b = queue[qh];
     const next = level[b] + 1;
     if (reached >= 0 && next > reached) break;
-    for (let e = inOffsets[b], end = inOffsets[b + 1]; e < end; e++) {
-      const a = inSources[e];
-      if (levelStamp[a] === stamp || a === tIdx) continue;
-      levelStamp[a] = stamp;
-      level[a] = next;
-      queue[qt++] = a;
-      if (reached < 0 && firstStamp[a] === stamp) reached = next;
+    if (b >= A) {
+      for (let e = q.extraRow[b - A], end = q.extraRow[b - A + 1]; e < end; e++)
+        visit(q.extraTargets[e], next);
+      continue;
     }
+    for (let e = inOffsets[b], end = inOffsets[b + 1]; e < end; e++) visit(inSources[e], next);
+    if (withExtras && q.toExtraStamp[b] === stamp)
+      for (let x = q.toExtraHead[b]; x !== -1; x = q.toExtraNext[x]) visit(q.toExtraSlot[x], next);
   }
   return reached;
 }
 
 /**
- * The lower bound on the rest of a route from a fresh clip at attach point a: `rest(a)` fills
+ * The lower bound on the rest of a route from a fresh clip at slot a: `rest(a)` fills
  * state.rest1[a] and rest2[a] (the two key parts, see searchClips) and returns false when a cannot
- * reach t. Memoised per query. The bounds, each consistent:
+ * reach t. Memoised per query. The bounds:
  * - time: the station landmarks' bound on time to t;
  * - swaps (fewest swaps): the exact level where a is levelled, else one more than the last level;
- *   without levels, the metres landmark bound over the tether and the clip landmarks' stretch
- *   counts to t's last stretches;
- * - with a swap cost, the cost landmarks (see costMarksFor) on time and swaps together; towards
- *   an attach point they alone are the bound (time plus swaps is seldom higher there).
+ *   without levels, the metres landmark bound over the tether and, with no extra attach points
+ *   (they shorten stretch counts), the clip landmarks' stretch counts to t's last stretches;
+ * - with a swap cost, the cost landmarks (see costMarksTowards) on time and swaps together;
+ *   towards an attach point with no extra attach points they alone are the bound (time plus swaps
+ *   is seldom higher there).
+ * A limit on arrival only removes routes, so a bound without it still holds.
  */
 function restBound(cq: ClipQuery, lastCount: number, levelsTo: number): (a: number) => boolean {
   const { cg, state: q, lex, swapCost, tIdx } = cq;
   const { restStamp, rest1, rest2, stamp } = q;
+  const withExtras = cq.extras.length > 0;
   const marks = !lex && swapCost > 0 ? costMarksTowards(cq, lastCount) : null;
-  if (marks && tIdx >= 0) {
+  if (marks && tIdx >= 0 && !withExtras) {
     return (a: number): boolean => {
       if (restStamp[a] === stamp) return rest1[a] !== Infinity;
       restStamp[a] = stamp;
-      const h = marks(a, 0);
+      // a clip at t has nothing left (t's row, which the landmarks' end cost comes from, lacks t)
+      const h = a === cq.tSlot ? 0 : marks(a, 0);
       rest1[a] = h;
       rest2[a] = 0;
       return h !== Infinity;
     };
   }
-  endHopRanges(cq, lastCount);
+  if (!withExtras) endHopRanges(cq, lastCount);
   const { endHopsLo, endHopsHi, endHopsOff, level, levelStamp } = q;
   const { hSeconds, hMetres, toT } = cq;
   const hops = cg.landmarkHops;
-  const K = cg.landmarkCount;
+  const K = withExtras ? 0 : cg.landmarkCount;
   const tether = cq.p.tetherLengthM;
   const swapsAfter = (a: number, v: number): number => {
     if (lex && levelStamp[a] === stamp) return level[a];
@@ -993,7 +1149,7 @@ function restBound(cq: ClipQuery, lastCount: number, levelsTo: number): (a: numb
   return (a: number): boolean => {
     if (restStamp[a] === stamp) return rest1[a] !== Infinity;
     restStamp[a] = stamp;
-    const v = cg.attachNodes[a];
+    const v = nodeOf(cq, a);
     const sw = lastCount > 0 && toT(v) ? swapsAfter(a, v) : Infinity;
     if (sw === Infinity) {
       rest1[a] = Infinity;
@@ -1016,7 +1172,7 @@ function endHopRanges(cq: ClipQuery, lastCount: number): void {
   const { cg, state: q, tIdx } = cq;
   const { endHopsLo, endHopsHi, endHopsOff } = q;
   const K = cg.landmarkCount;
-  if (tIdx >= 0) {
+  if (cq.plainEnd) {
     for (let k = 0, at = tIdx * K; k < K; k++) {
       endHopsLo[k] = cg.rowHopsLo[at + k];
       endHopsHi[k] = cg.rowHopsHi[at + k];
@@ -1042,44 +1198,56 @@ function endHopRanges(cq: ClipQuery, lastCount: number): void {
 
 /**
  * The cost-landmark bound for a swap cost: `marks(a, h)` is the larger of h and the landmarks'
- * bound from attach point a, Infinity when a cannot reach t. For each landmark L:
+ * bound from slot a, Infinity when a cannot reach t. For each landmark L:
  * cost(a → t) ≥ cost(L → t) − cost(L → a) (ahead), and, towards an attach point t, since stretch
  * times are the same both ways, cost(a → t) ≥ cost(a ↔ L) − cost(t ↔ L) − swapCost (back). A
  * landmark that reaches a but not t makes the bound ahead +Infinity, and one that reaches an
  * attach-point t but not a the bound back, as they should (a and t are then in different parts);
  * one that reaches neither makes NaN, which no comparison takes. The factor and a float margin
  * (less a hair, so rounding in the sums cannot lift the bound past the cost) go on the largest.
+ * Extra attach points are not in the landmarks' chains: see extraPotentials.
  */
 function costMarksTowards(cq: ClipQuery, lastCount: number): (a: number, h: number) => number {
-  const { cg, state: q, tIdx, f, swapCost } = cq;
+  const { cg, state: q, tIdx, f, swapCost, A } = cq;
   const marks = costMarksFor(cg, swapCost / f);
   const count = marks.count;
   const cost = marks.cost;
-  const { markToEnd, markFromEnd } = q;
+  const { markToEnd, markFromEnd, extraAhead, extraBack } = q;
+  const withExtras = cq.extras.length > 0;
   markFromEnd.fill(Infinity);
-  if (tIdx >= 0) {
-    for (let k = 0; k < count; k++) {
-      markToEnd[k] = marks.toEnd[tIdx * count + k];
-      markFromEnd[k] = cost[tIdx * count + k] + swapCost / f;
-    }
+  if (tIdx >= 0) for (let k = 0; k < count; k++) markFromEnd[k] = cost[tIdx * count + k] + swapCost / f;
+  if (tIdx >= 0 && !withExtras) {
+    for (let k = 0; k < count; k++) markToEnd[k] = marks.toEnd[tIdx * count + k];
   } else {
+    if (withExtras) extraPotentials(cq, marks);
     markToEnd.fill(Infinity);
     for (let h = 0; h < lastCount; h++) {
       const b = q.lastList[h];
-      for (let k = 0, base = b * count; k < count; k++) {
-        const v = cost[base + k] + q.last[b];
+      for (let k = 0; k < count; k++) {
+        const d = b < A ? cost[b * count + k] : extraAhead[(b - A) * count + k];
+        const v = d + q.last[b];
         if (v < markToEnd[k]) markToEnd[k] = v;
       }
     }
+    if (withExtras) extraGains(cq, marks);
   }
   return (a: number, h: number): number => {
     let m = 0;
-    for (let k = 0, base = a * count; k < count; k++) {
-      const d = cost[base + k];
-      const ahead = markToEnd[k] - d;
-      if (ahead > m) m = ahead;
-      const back = d - markFromEnd[k];
-      if (back > m) m = back;
+    if (a < A) {
+      for (let k = 0, base = a * count; k < count; k++) {
+        const d = cost[base + k];
+        const ahead = markToEnd[k] - d;
+        if (ahead > m) m = ahead;
+        const back = d - markFromEnd[k];
+        if (back > m) m = back;
+      }
+    } else {
+      for (let k = 0, base = (a - A) * count; k < count; k++) {
+        const ahead = markToEnd[k] - extraAhead[base + k];
+        if (ahead > m) m = ahead;
+        const back = extraBack[base + k] - markFromEnd[k];
+        if (back > m) m = back;
+      }
     }
     if (m === Infinity) return Infinity;
     const lb = f * m * (1 - 1e-12) - 1e-9;
@@ -1088,13 +1256,96 @@ function costMarksTowards(cq: ClipQuery, lastCount: number): (a: number, h: numb
 }
 
 /**
+ * Cost-landmark potentials of the extra attach points. The landmark bounds are differences of a
+ * potential (ahead: cost(L → a); back: minus cost(a ↔ L)) that no stretch between the station's
+ * attach points rises by more than its cost. An extra attach point x takes, ahead, the least
+ * potential of a station attach point of its row plus the stretch and swap to x, and back the
+ * greatest less them, so no stretch into x rises by more than its cost; see extraGains for the
+ * stretches out of x.
+ */
+function extraPotentials(cq: ClipQuery, marks: CostMarks): void {
+  const { state: q, A } = cq;
+  const { count, cost } = marks;
+  const sc = cq.swapCost / cq.f;
+  const E = cq.extras.length;
+  q.extraAhead.length = E * count;
+  q.extraBack.length = E * count;
+  for (let j = 0; j < E; j++) {
+    for (let k = 0; k < count; k++) {
+      let ahead = Infinity;
+      let back = -Infinity;
+      for (let e = q.extraRow[j], end = q.extraRow[j + 1]; e < end; e++) {
+        const u = q.extraTargets[e];
+        if (u >= A) continue;
+        const d = cost[u * count + k];
+        const c = q.extraSeconds[e] + sc;
+        if (d + c < ahead) ahead = d + c;
+        if (d - c > back) back = d - c;
+      }
+      q.extraAhead[j * count + k] = ahead;
+      q.extraBack[j * count + k] = back;
+    }
+  }
+}
+
+/**
+ * A stretch out of an extra attach point x can rise in potential by more than its cost (x may
+ * join attach points the station's chains keep far apart). A route passes each clip at most once,
+ * so the bounds stay below the cost when each landmark's end potential is lowered by the sum, over
+ * the extra attach points, of the most any stretch out of one rises beyond its cost (the last
+ * stretch to t included). A sum that is not finite drops the landmark from the bound.
+ */
+function extraGains(cq: ClipQuery, marks: CostMarks): void {
+  const { state: q, A } = cq;
+  const { count, cost } = marks;
+  const { markToEnd, markFromEnd, extraAhead, extraBack } = q;
+  const sc = cq.swapCost / cq.f;
+  const E = cq.extras.length;
+  for (let k = 0; k < count; k++) {
+    let gainAhead = 0;
+    let gainBack = 0;
+    for (let j = 0; j < E; j++) {
+      const x = A + j;
+      const ax = extraAhead[j * count + k];
+      const bx = extraBack[j * count + k];
+      let ga = 0;
+      let gb = 0;
+      for (let e = q.extraRow[j], end = q.extraRow[j + 1]; e < end; e++) {
+        const w = q.extraTargets[e];
+        const c = q.extraSeconds[e] + sc;
+        const aw = w < A ? cost[w * count + k] : extraAhead[(w - A) * count + k];
+        const bw = w < A ? cost[w * count + k] : extraBack[(w - A) * count + k];
+        // NaN (both potentials infinite) counts as an unbounded rise
+        const up = aw - ax - c;
+        if (!(up <= ga)) ga = up === up ? up : Infinity;
+        const down = bx - bw - c;
+        if (!(down <= gb)) gb = down === down ? down : Infinity;
+      }
+      if (q.lastStamp[x] === q.stamp) {
+        const up = markToEnd[k] - ax - q.last[x];
+        if (!(up <= ga)) ga = up === up ? up : Infinity;
+        if (markFromEnd[k] !== Infinity) {
+          const down = bx - markFromEnd[k] - q.last[x];
+          if (!(down <= gb)) gb = down === down ? down : Infinity;
+        }
+      }
+      gainAhead += ga;
+      gainBack += gb;
+    }
+    markToEnd[k] = gainAhead < Infinity ? markToEnd[k] - gainAhead : -Infinity;
+    markFromEnd[k] = gainBack < Infinity ? markFromEnd[k] + gainBack : Infinity;
+  }
+}
+
+/**
  * A* over clips. The key of a clip has two parts: fewest swaps, (swaps, seconds); with a swap
  * cost, (seconds + swapCost × swaps, 0); seconds are times f. A clip is kept only when no
- * earlier one at its attach point is as good in both parts, and it is settled in key order plus
- * `rest` (consistent), so the first time t is settled its cost is the least. With swap levels,
- * a clip at b lies on a route with the fewest swaps only if b is levelled and its level makes up
- * that count: any other is dropped before its bound is looked up. Returns the chain of clip
- * nodes s … t, or null.
+ * earlier one at its slot is as good in both parts, and it is settled in key order plus `rest`
+ * (a lower bound; a clip settled again when a better key reaches it), so the first time t is
+ * settled its cost is the least. With swap levels, a clip at b lies on a route with the fewest
+ * swaps only if b is levelled and its level makes up that count: any other is dropped before its
+ * bound is looked up. Returns the chain of clip nodes s … t (s twice when the route swaps where
+ * it starts), or null.
  */
 function searchClips(
   cq: ClipQuery,
@@ -1102,23 +1353,24 @@ function searchClips(
   direct: number,
   levelsTo: number,
 ): number[] | null {
-  const { cg, state: q, lex, f, swapCost, tIdx, sIdx } = cq;
-  const A = cg.attachNodes.length;
+  const { state: q, lex, f, swapCost, tSkip, sSlot, A, end: T } = cq;
   const { seen, cost1, cost2, pred, rest1, rest2, lastStamp, last, levelStamp, level, heap, stamp } = q;
   const { offsets: ro, targets: rt, seconds: rs } = cq.rows;
   const levelled = lex;
-  // the fewest swaps of any route (from a start off the attach points, the first clip is a swap)
-  const fewest = sIdx >= 0 ? levelsTo : levelsTo + 1;
+  const withExtras = cq.extras.length > 0;
+  const freshAtS = cq.fresh && sSlot >= 0;
+  // the fewest swaps of any route (unless the start is a fresh clip at s, the first clip is a swap)
+  const fewest = freshAtS ? levelsTo : levelsTo + 1;
   const offerEnd = (from: number, c1: number, c2: number) => {
-    if (seen[A] === stamp && (cost1[A] < c1 || (cost1[A] === c1 && cost2[A] <= c2))) return;
-    seen[A] = stamp;
-    cost1[A] = c1;
-    cost2[A] = c2;
-    pred[A] = from;
-    heap.push(A, c1, c2);
+    if (seen[T] === stamp && (cost1[T] < c1 || (cost1[T] === c1 && cost2[T] <= c2))) return;
+    seen[T] = stamp;
+    cost1[T] = c1;
+    cost2[T] = c2;
+    pred[T] = from;
+    heap.push(T, c1, c2);
   };
   const offer = (b: number, from: number, c1: number, c2: number) => {
-    if (b === tIdx) return;
+    if (b === tSkip) return;
     if (seen[b] === stamp && (cost1[b] < c1 || (cost1[b] === c1 && cost2[b] <= c2))) return;
     if (levelled && (levelStamp[b] !== stamp || c1 + level[b] > fewest)) return;
     if (!rest(b)) return;
@@ -1130,13 +1382,13 @@ function searchClips(
   };
 
   heap.clear();
-  if (sIdx >= 0) {
-    if (!rest(sIdx)) return null;
-    seen[sIdx] = stamp;
-    cost1[sIdx] = 0;
-    cost2[sIdx] = 0;
-    pred[sIdx] = -1;
-    heap.push(sIdx, rest1[sIdx], rest2[sIdx]);
+  if (freshAtS) {
+    if (!rest(sSlot)) return null;
+    seen[sSlot] = stamp;
+    cost1[sSlot] = 0;
+    cost2[sSlot] = 0;
+    pred[sSlot] = -1;
+    heap.push(sSlot, rest1[sSlot], rest2[sSlot]);
   } else {
     if (direct < Infinity) offerEnd(-1, lex ? 0 : direct, lex ? direct : 0);
     for (let i = 0; i < q.firstCount; i++) {
@@ -1149,8 +1401,8 @@ function searchClips(
     const k1 = heap.topKey1();
     const k2 = heap.topKey2();
     const a = heap.pop();
-    if (a === A) {
-      if (k1 !== cost1[A] || k2 !== cost2[A]) continue;
+    if (a === T) {
+      if (k1 !== cost1[T] || k2 !== cost2[T]) continue;
       found = true;
       break;
     }
@@ -1162,30 +1414,44 @@ function searchClips(
       offerEnd(a, lex ? c1 : c1 + time, lex ? c2 + time : 0);
     }
     const swapped = lex ? c1 + 1 : c1 + swapCost;
+    if (a >= A) {
+      for (let e = q.extraRow[a - A], end = q.extraRow[a - A + 1]; e < end; e++) {
+        const time = f * q.extraSeconds[e];
+        offer(q.extraTargets[e], a, lex ? swapped : swapped + time, lex ? c2 + time : 0);
+      }
+      continue;
+    }
     for (let e = ro[a], end = ro[a + 1]; e < end; e++) {
       const time = f * rs[e];
       offer(rt[e], a, lex ? swapped : swapped + time, lex ? c2 + time : 0);
     }
+    if (withExtras && q.toExtraStamp[a] === stamp) {
+      for (let x = q.toExtraHead[a]; x !== -1; x = q.toExtraNext[x]) {
+        const time = f * q.toExtraSeconds[x];
+        offer(q.toExtraSlot[x], a, lex ? swapped : swapped + time, lex ? c2 + time : 0);
+      }
+    }
   }
   if (!found) return null;
   const chain: number[] = [cq.t];
-  for (let a = pred[A]; a !== -1; a = pred[a]) chain.push(cg.attachNodes[a]);
-  if (chain[chain.length - 1] !== cq.s) chain.push(cq.s);
+  for (let a = pred[T]; a !== -1; a = pred[a]) chain.push(nodeOf(cq, a));
+  if (!freshAtS || pred[T] === -1) chain.push(cq.s);
   return chain.reverse();
 }
 
-/** The walk along a chain of clip points: the least-time walk of each stretch within the tether. */
-function walkClips(
-  c: CompiledStation,
-  p: LabelSearchParams,
-  limit: number,
-  clips: number[],
-  st: StretchScratch,
-): LabelPath {
+/**
+ * The walk along a chain of clip points: the least-time walk of each stretch within the tether,
+ * the first within what the start leaves of it, the last within the limit on arrival.
+ */
+function walkClips(cq: ClipQuery, clips: number[]): LabelPath {
+  const { c, p, stretch: st } = cq;
   const arcs: number[] = [];
   let total = 0;
   for (let i = 0; i + 1 < clips.length; i++) {
-    let x = stretchWalk(c, p, limit, clips[i], clips[i + 1], st);
+    const before = i === 0 ? cq.startPaid : 0;
+    let room = p.tetherLengthM - before;
+    if (i === clips.length - 2) room = Math.min(room, cq.cap - before);
+    let x = stretchWalk(c, p, room + TETHER_EPS_M, clips[i], clips[i + 1], st);
     if (x < 0) throw new Error('internal: a clip-graph stretch has no walk');
     total += st.time[x];
     const from = arcs.length;

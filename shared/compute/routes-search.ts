@@ -339,6 +339,8 @@ export interface LabelSearchParams {
   maxSpeedMps: number;
   /** the query's attach points: the station's, plus any that count for this query only */
   isAttach: Uint8Array;
+  /** the nodes isAttach marks beyond the station's attach points (none when absent) */
+  extraAttach?: readonly number[];
   /** metres already paid out at the start (a swap at the start, when it is an attach point, resets it) */
   startPaidOutM: number;
   /** arrive with at most this much out (a label at the end with more goes on, to swap and come back) */

@@ -51,13 +51,13 @@ interface Query {
   clipBuildFreeNodes: number;
   /** the station's attach points, plus the request's extra ones */
   isAttach: Uint8Array;
+  /** the request's extra attach points that are not the station's */
+  extraAttach: number[];
   /** the node the tether is clipped to at the start, and the metres out since it */
   startAnchor: number;
   startPaidOutM: number;
   /** the request gave a start state */
   startGiven: boolean;
-  /** the start is a fresh clip at s on the station's own attach points: the clip graph answers it */
-  fresh: boolean;
   /** at most this many metres out on arrival (Infinity: no limit) */
   endCap: number;
 }
@@ -138,12 +138,11 @@ function searchTerms(c: CompiledStation, settings: StationSettings, request: Rou
 }
 
 /**
- * The exact search. The clip graph is built for the station's own attach points and a fresh clip
- * at the start; a query with tether already out at the start, or with extra attach points, runs
- * the label search (the route bench prints what that costs).
+ * The exact search: over the clip graph (which takes the start state, the extra attach points and
+ * the limit on arrival per query), else the label search.
  */
 function search(q: Query, objective: 'sum' | 'lex', swapCost: number) {
-  const search = q.fresh && useClipGraph(q) ? clipSearch : labelSearch;
+  const search = useClipGraph(q) ? clipSearch : labelSearch;
   return search(q.c, q.s, q.t, searchParams(q, objective, swapCost));
 }
 
@@ -158,6 +157,7 @@ function searchParams(q: Query, objective: 'sum' | 'lex', swapCost: number): Lab
     landmarkTimesValid: q.landmarkTimesValid,
     maxSpeedMps: maxSpeed(q.settings),
     isAttach: q.isAttach,
+    extraAttach: q.extraAttach,
     startPaidOutM: q.startPaidOutM,
     endPaidOutMaxM: q.endCap,
   };
@@ -429,12 +429,18 @@ export function routeRequestProblems(
   return problems;
 }
 
-/** The station's attach points, plus a query's extra ones (a copy only when there are any). */
-function attachWith(c: CompiledStation, extra: readonly string[] | undefined): Uint8Array {
-  if (!extra?.length) return c.isAttach;
-  const marks = c.isAttach.slice();
-  for (const key of extra) marks[c.keyToIndex.get(key)!] = 1;
-  return marks;
+/**
+ * The station's attach points plus a query's extra ones (a copy only when there are any), and the
+ * extra ones that are not the station's.
+ */
+function attachWith(c: CompiledStation, extra: readonly string[] | undefined) {
+  const added = [...new Set((extra ?? []).map((key) => c.keyToIndex.get(key)!))].filter(
+    (v) => !c.isAttach[v],
+  );
+  if (!added.length) return { isAttach: c.isAttach, added };
+  const isAttach = c.isAttach.slice();
+  for (const v of added) isAttach[v] = 1;
+  return { isAttach, added };
 }
 
 /**
@@ -459,7 +465,7 @@ export function findRoute(
   const s = c.keyToIndex.get(request.from)!;
   const t = c.keyToIndex.get(request.to)!;
   const { tether, mask, arcSeconds, landmarkTimesValid } = searchTerms(c, settings, request);
-  const isAttach = attachWith(c, request.extraAttach);
+  const { isAttach, added } = attachWith(c, request.extraAttach);
   const startAnchor = request.startAnchor === undefined ? s : c.keyToIndex.get(request.startAnchor)!;
   const startPaidOutM = request.startPaidOutM ?? 0;
   const q: Query = {
@@ -476,12 +482,11 @@ export function findRoute(
     strategy: options.strategy ?? 'auto',
     clipBuildFreeNodes: options.clipBuildFreeNodes ?? CLIP_BUILD_FREE_NODES,
     isAttach,
+    extraAttach: added,
     startAnchor,
     startPaidOutM,
     startGiven: request.startAnchor !== undefined,
     endCap: request.endPaidOutMaxM ?? Infinity,
-    // with nothing out, the anchor behind does not matter to the tether: a fresh clip at s
-    fresh: startPaidOutM === 0 && isAttach === c.isAttach && request.endPaidOutMaxM === undefined,
   };
   if (s === t) return infeasible(q, 'same-node', `The route starts and ends at ${request.from}.`);
 

@@ -208,6 +208,38 @@ describe('clip-graph search against the label-setting search', () => {
     );
   });
 
+  it('gives the same optimum from a tether state, with extra attach points and a limit on arrival', () => {
+    fc.assert(
+      fc.property(
+        fc.constantFrom(...keys),
+        fc.constantFrom(...keys, ...sparse),
+        fc.array(fc.constantFrom(...keys), { maxLength: 3 }),
+        fc.nat(),
+        fc.integer({ min: 0, max: 99 }).map((v) => v / 100),
+        fc.option(
+          fc.integer({ min: 0, max: 100 }).map((v) => v / 100),
+          { nil: undefined },
+        ),
+        fc.boolean(),
+        (from, to, extraAttach, anchorPick, share, capShare, carrying) => {
+          fc.pre(from !== to);
+          const anchors = [...attach, ...extraAttach];
+          const tetherLengthM = doc.settings.tetherLengthM;
+          compare(c, doc.settings, {
+            from,
+            to,
+            carrying,
+            extraAttach,
+            startAnchor: anchors[anchorPick % anchors.length],
+            startPaidOutM: share * tetherLengthM,
+            ...(capShare === undefined ? {} : { endPaidOutMaxM: capShare * tetherLengthM }),
+          });
+        },
+      ),
+      { numRuns: 120 },
+    );
+  });
+
   it('gives the same optimum with station settings other than the compiled ones', () => {
     const settings = {
       ...doc.settings,

@@ -351,6 +351,51 @@ describe('exact modes against exhaustive walk search', () => {
     );
   });
 
+  it('finds the best walk from a tether state, with extra attach points and a limit on arrival, by either search', () => {
+    fc.assert(
+      fc.property(
+        smallStationArb,
+        fc.tuple(fc.nat(), fc.nat(), fc.nat()),
+        fc.array(fc.nat(), { minLength: 1, maxLength: 3 }),
+        fc.integer({ min: 0, max: 99 }).map((v) => v / 100),
+        fc.integer({ min: 0, max: 100 }).map((v) => v / 100),
+        (doc, picks, extraPicks, share, capShare) => {
+          // the ends, the extra attach points and the anchor behind the start, by index
+          const [s, t, anchorPick] = picks.map((v) => v % doc.nodes.length);
+          fc.pre(s !== t);
+          const extra = [...new Set(extraPicks.map((v) => v % doc.nodes.length))];
+          const attach = attachMarks(doc, extra);
+          const anchor = attach.flatMap((m, i) => (m ? [i] : []))[anchorPick % attach.filter(Boolean).length];
+          const tether = doc.settings.tetherLengthM;
+          const paidOutM = share * tether;
+          const endCapM = capShare * tether;
+          const c = compileStation(doc);
+          const adj = adjacency(doc, { blocked: keepOutEdges(doc) });
+          const best = exhaustive(doc, adj, s, t, tether, MAX_EDGES, {
+            paidOutM,
+            extraAttach: extra,
+            endCapM,
+          });
+          const start = { anchor: doc.nodes[anchor].key, paidOutM, attach, endCapM };
+          for (const mode of modes) {
+            const request: RouteRequest = {
+              from: doc.nodes[s].key,
+              to: doc.nodes[t].key,
+              mode,
+              startAnchor: doc.nodes[anchor].key,
+              startPaidOutM: paidOutM,
+              extraAttach: extra.map((v) => doc.nodes[v].key),
+              endPaidOutMaxM: endCapM,
+            };
+            for (const strategy of ['clip-graph', 'label-search'] as const)
+              checkAgainstOracle(doc, findRoute(c, doc.settings, request, { strategy }), mode, best, start);
+          }
+        },
+      ),
+      { numRuns: 400 },
+    );
+  });
+
   it('detours to a dead-end anchor to swap and comes back', () => {
     // s —10 m— j —10 m— t with a 12 m tether: only a swap at the stub anchor D (1 m off j) makes it.
     const doc = station({
