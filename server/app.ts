@@ -17,6 +17,7 @@ import { apiNotFound, errorHandler } from './middleware/error-handler';
 import { sameOriginWrites } from './middleware/same-origin';
 import { sessionMiddleware } from './middleware/session';
 import { configureClipBuilds, logClipBuild, stopClipBuilds } from './modules/compute/clip-builder';
+import { setClipMemoryBudget } from '@shared/compute/routes-clip';
 import { RoutePool } from './modules/compute/route-pool';
 import { TaskPool } from './modules/compute/task-pool';
 import { emitStationChanged } from './modules/stations/stations.service';
@@ -66,12 +67,14 @@ export async function createApp(options: CreateAppOptions = {}): Promise<AppInst
     onReceive: (mail) => storeMessage(handle.db, mail),
   });
   configureClipBuilds({ inlineNodes: config.routeClipInlineNodes, onEvent: (e) => logClipBuild(logger, e) });
+  setClipMemoryBudget(config.routeClipMemoryMb * 2 ** 20);
   const routePool =
     config.routeWorkers > 0
       ? new RoutePool({
           size: config.routeWorkers,
           queueLimit: config.routeQueueLimit,
           clipInlineNodes: config.routeClipInlineNodes,
+          clipMemoryBytes: config.routeClipMemoryMb * 2 ** 20,
           logger,
         })
       : null;

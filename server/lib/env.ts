@@ -3,6 +3,7 @@ import path from 'node:path';
 import crypto from 'node:crypto';
 import os from 'node:os';
 import { CLIP_BUILD_FREE_NODES } from '@shared/compute/routes';
+import { DEFAULT_CLIP_MEMORY_BYTES } from '@shared/compute/routes-clip';
 
 export interface AppConfig {
   port: number;
@@ -28,6 +29,8 @@ export interface AppConfig {
   routeQueueLimit: number;
   /** stations up to this many nodes build a clip graph within a route query; larger ones in a builder thread */
   routeClipInlineNodes: number;
+  /** clip graphs one thread (each route worker, and the main thread) keeps at the most, MB together */
+  routeClipMemoryMb: number;
   /** imports and socket plans on this many worker threads; 0 → on the main thread */
   taskWorkers: number;
   /** tasks waiting or running at the most before 503 */
@@ -118,6 +121,9 @@ export function loadConfig(
     routeQueueLimit: overrides.routeQueueLimit ?? intFromEnv(env.ROUTE_QUEUE_LIMIT, 64),
     routeClipInlineNodes:
       overrides.routeClipInlineNodes ?? intFromEnv(env.ROUTE_CLIP_INLINE_NODES, CLIP_BUILD_FREE_NODES),
+    routeClipMemoryMb:
+      overrides.routeClipMemoryMb ??
+      intFromEnv(env.ROUTE_CLIP_MEMORY_MB, DEFAULT_CLIP_MEMORY_BYTES / 2 ** 20),
     taskWorkers: overrides.taskWorkers ?? intFromEnv(env.TASK_WORKERS, 1),
     taskQueueLimit: overrides.taskQueueLimit ?? intFromEnv(env.TASK_QUEUE_LIMIT, 16),
     taskWorkerHeapMb: overrides.taskWorkerHeapMb ?? intFromEnv(env.TASK_WORKER_HEAP_MB, 2048),

@@ -34,6 +34,7 @@ export const PERMISSIONS = {
   'plans:review': 'Approve or return a plan authored by someone else',
   'annotations:write': 'Pin notes to the model, reply, attach images, resolve',
   'walkthroughs:edit': 'Create and edit saved walkthroughs',
+  'server:stats': "See the compute workers' load and the memory their caches take",
 } as const;
 export type Permission = keyof typeof PERMISSIONS;
 

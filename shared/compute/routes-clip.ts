@@ -598,13 +598,59 @@ export function clipGraphFor(
   return remember(weights, key, held ?? buildClipGraph(c, weights, tetherLengthM, excludeMask));
 }
 
-/** Files a clip graph as the most recent for its weights, dropping the oldest beyond the few kept. */
+/** Clip graphs kept in this thread, least recently used first: what the memory budget counts. */
+const kept: { weights: Float64Array; key: string; cg: ClipGraph }[] = [];
+
+/**
+ * Bytes the kept clip graphs of this thread may take together (their typed arrays, as
+ * `memoryBytes` counts them). The most recent one is always kept, whatever its size; older ones
+ * go, least recently used first, until the rest fit.
+ */
+export const DEFAULT_CLIP_MEMORY_BYTES = 512 * 2 ** 20;
+let budgetBytes = DEFAULT_CLIP_MEMORY_BYTES;
+
+export function setClipMemoryBudget(bytes: number): void {
+  budgetBytes = bytes;
+  evictOverBudget();
+}
+
+/** The clip graphs kept in this thread: how many, their bytes, and the budget they live within. */
+export function clipMemory(): { graphs: number; bytes: number; budgetBytes: number } {
+  return { graphs: kept.length, bytes: kept.reduce((n, k) => n + k.cg.memoryBytes, 0), budgetBytes };
+}
+
+function forget(index: number): void {
+  const [gone] = kept.splice(index, 1);
+  clipCache.get(gone.weights)?.delete(gone.key);
+}
+
+function evictOverBudget(): void {
+  // memoryBytes grows as a graph gains pruned rows and cost marks, so the sum is taken afresh
+  let total = clipMemory().bytes;
+  while (kept.length > 1 && total > budgetBytes) {
+    total -= kept[0].cg.memoryBytes;
+    forget(0);
+  }
+}
+
+/**
+ * Files a clip graph as the most recent, dropping the oldest for its weights beyond the few kept
+ * and then the least recently used of any weights while all of them exceed the memory budget.
+ */
 function remember(weights: Float64Array, key: string, cg: ClipGraph): ClipGraph {
   let byKey = clipCache.get(weights);
   if (!byKey) clipCache.set(weights, (byKey = new Map()));
-  byKey.delete(key);
-  if (byKey.size >= CACHED_PER_WEIGHTS) byKey.delete(byKey.keys().next().value!);
+  const at = kept.findIndex((k) => k.weights === weights && k.key === key);
+  if (at >= 0) kept.splice(at, 1);
+  else if (byKey.size >= CACHED_PER_WEIGHTS) {
+    const oldest = byKey.keys().next().value!;
+    const i = kept.findIndex((k) => k.weights === weights && k.key === oldest);
+    if (i >= 0) forget(i);
+    else byKey.delete(oldest);
+  }
   byKey.set(key, cg);
+  kept.push({ weights, key, cg });
+  evictOverBudget();
   return cg;
 }
 

@@ -28,6 +28,7 @@ const MATRIX: Record<string, Who> = {
   'PATCH /api/users/:id': ADMIN,
   'POST /api/users/:id/resend-invite': ADMIN,
   'GET /api/mailbox/': ADMIN,
+  'GET /api/compute/stats': ADMIN,
   'DELETE /api/mailbox/': ADMIN,
   'GET /api/activity/': 'everyone',
   'GET /api/stations/': 'everyone',

@@ -91,6 +91,15 @@ describe('route worker pool', () => {
         expect((await viewer.post(`/api/stations/${id}/routes`).send(r)).status).toBe(200);
       const stats = other.ctx.routePool!.stats();
       expect(stats.reduce((n, s) => n + s.compiles, 0)).toBe(1);
+      // the worker that answered reports the clip graphs it keeps, within the configured budget
+      const busy = stats.find((s) => s.answered > 0)!;
+      expect(busy.clip.budgetBytes).toBe(other.ctx.config.routeClipMemoryMb * 2 ** 20);
+      expect(busy.clip.graphs).toBeGreaterThan(0);
+      expect(busy.clip.bytes).toBeGreaterThan(0);
+      expect(busy.clip.bytes).toBeLessThanOrEqual(busy.clip.budgetBytes);
+      const seen = (await (await other.agent('admin')).get('/api/compute/stats')).body;
+      expect(seen.routeWorkers[busy.slot].clip).toEqual(busy.clip);
+      expect(seen.mainThreadClip.budgetBytes).toBe(busy.clip.budgetBytes);
       expect(stats.filter((s) => s.answered > 0)).toHaveLength(1);
     } finally {
       await other.close();

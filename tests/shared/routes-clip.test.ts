@@ -5,7 +5,11 @@ import { compileStation } from '@shared/compute/compiled-station';
 import { findRoute, type RouteStrategy } from '@shared/compute/routes';
 import {
   clipGraphFor,
+  clipMemory,
   costMarksFor,
+  DEFAULT_CLIP_MEMORY_BYTES,
+  hasClipGraph,
+  setClipMemoryBudget,
   pruneStretches,
   type ClipGraph,
   type ClipRows,
@@ -307,3 +311,37 @@ describe('clip-graph search against the label-setting search', () => {
     expect(one.targets.length).toBeGreaterThan(one.attachNodes.length);
   });
 });
+
+describe('clip graphs kept within a memory budget', () => {
+  it('drops the least recently used beyond the budget, always keeps the newest, and answers the same after', () => {
+    const doc = generateTrussStation({ nodes: 600, seed: 7 });
+    const c = compileStation(doc);
+    const lengths = [15, 17, 19, 21];
+    const graphs = lengths.map((l) => clipGraphFor(c, c.arcSeconds, l, 0));
+    const bytes = graphs.map((g) => g.memoryBytes);
+    expect(clipHeld(c, lengths)).toEqual([true, true, true, true]);
+    try {
+      // room for the two most recent: they stay (a longer tether's graph is the larger)
+      expect(bytes[3]).toBeGreaterThan(bytes[0]);
+      setClipMemoryBudget(bytes[2] + bytes[3]);
+      expect(clipHeld(c, lengths)).toEqual([false, false, true, true]);
+      expect(clipMemory().bytes).toBeLessThanOrEqual(clipMemory().budgetBytes);
+      // using one makes it the most recent: the other goes when a new one comes
+      clipGraphFor(c, c.arcSeconds, 19, 0);
+      clipGraphFor(c, c.arcSeconds, 15, 0);
+      expect(clipHeld(c, lengths)).toEqual([true, false, true, false]);
+      // a budget smaller than any graph still keeps the newest one
+      setClipMemoryBudget(1);
+      expect(clipMemory().graphs).toBe(1);
+      expect(clipHeld(c, lengths)).toEqual([true, false, false, false]);
+      // a dropped graph is rebuilt when asked for: the routes are the ones the label search finds
+      compare(c, doc.settings, { from: doc.nodes[0].key, to: doc.nodes[400].key, tetherLengthM: 21 });
+    } finally {
+      setClipMemoryBudget(DEFAULT_CLIP_MEMORY_BYTES);
+    }
+  });
+});
+
+function clipHeld(c: ReturnType<typeof compileStation>, lengths: number[]) {
+  return lengths.map((l) => hasClipGraph(c.arcSeconds, l, 0));
+}

@@ -7,6 +7,7 @@ import { ReachRequestSchema, SocketPlanRequestSchema } from '@shared/schemas/soc
 import { AcceptSocketPlanInputSchema } from '@shared/schemas/sockets';
 import { OrbitQuerySchema } from './compute.schemas';
 import { acceptSocketPlan, computeReach, computeRoute, orbitFor } from './compute.service';
+import { clipMemory } from '@shared/compute/routes-clip';
 import { runTask } from './tasks';
 
 /** A computation on one station, open to every signed-in role: the body is parsed with `body`. */
@@ -39,6 +40,17 @@ export function computeRouter(ctx: AppContext) {
       status: 201,
       input: { params: IdParamsSchema, body: AcceptSocketPlanInputSchema },
       handler: (req, _res, { params, body }) => acceptSocketPlan(ctx, params.id, body, req.user!),
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/compute/stats',
+      access: 'server:stats',
+      handler: () => ({
+        routeWorkers: ctx.routePool?.stats() ?? [],
+        taskWorkers: ctx.taskPool?.stats() ?? [],
+        // clip graphs kept on the main thread (routes computed there when there is no pool)
+        mainThreadClip: clipMemory(),
+      }),
     }),
     defineRoute({
       method: 'get',

@@ -1,5 +1,6 @@
 import { Worker } from 'node:worker_threads';
 import { CLIP_BUILD_FREE_NODES } from '@shared/compute/routes';
+import { DEFAULT_CLIP_MEMORY_BYTES } from '@shared/compute/routes-clip';
 import type { RouteRequest } from '@shared/schemas/route';
 import type { StationDocument } from '@shared/schemas/station';
 import { HttpError, unavailable } from '../../lib/http-error';
@@ -12,6 +13,7 @@ import {
   type RouteWorkerData,
   type WorkerError,
   type WorkerReply,
+  type ClipMemory,
 } from './route-protocol';
 
 // registers tsx in the thread, then loads the entry named in argv
@@ -47,6 +49,8 @@ export interface RoutePoolOptions {
   queueLimit: number;
   /** see AppConfig.routeClipInlineNodes (default CLIP_BUILD_FREE_NODES) */
   clipInlineNodes?: number;
+  /** see AppConfig.routeClipMemoryMb, in bytes (default DEFAULT_CLIP_MEMORY_BYTES) */
+  clipMemoryBytes?: number;
   logger: Logger;
 }
 
@@ -61,6 +65,8 @@ export interface RouteWorkerStats {
   restarts: number;
   /** clip graphs this slot's workers built off the request path and now use */
   clipBuilds: number;
+  /** clip graphs the worker keeps, their bytes and its budget for them, as of its last answer */
+  clip: ClipMemory;
 }
 
 interface Pending {
@@ -81,6 +87,7 @@ interface Slot {
   answered: number;
   restarts: number;
   clipBuilds: number;
+  clip: ClipMemory;
   respawn: NodeJS.Timeout | null;
 }
 
@@ -121,6 +128,7 @@ export class RoutePool {
       answered: 0,
       restarts: 0,
       clipBuilds: 0,
+      clip: { graphs: 0, bytes: 0, budgetBytes: options.clipMemoryBytes ?? DEFAULT_CLIP_MEMORY_BYTES },
       respawn: null,
     }));
   }
@@ -143,6 +151,7 @@ export class RoutePool {
       answered: s.answered,
       restarts: s.restarts,
       clipBuilds: s.clipBuilds,
+      clip: { ...s.clip },
     }));
   }
 
@@ -232,6 +241,7 @@ export class RoutePool {
       argv: ['./route-worker.ts'],
       workerData: {
         clipInlineNodes: this.options.clipInlineNodes ?? CLIP_BUILD_FREE_NODES,
+        clipMemoryBytes: this.options.clipMemoryBytes ?? DEFAULT_CLIP_MEMORY_BYTES,
       } satisfies RouteWorkerData,
       execArgv: [],
       name: `route-worker-${slot.index}`,
@@ -267,6 +277,7 @@ export class RoutePool {
     slot.answered++;
     if (reply.kind === 'result' || reply.kind === 'bytes') {
       if (reply.compiled) slot.compiles++;
+      slot.clip = reply.clip;
       pending.resolve(reply.kind === 'result' ? { text: reply.json } : { bytes: reply.bytes });
     } else {
       pending.reject(workerError(reply.error));

@@ -10,6 +10,15 @@ import type { ErrorCode, ErrorDetail } from '@shared/errors';
 export interface RouteWorkerData {
   /** see AppConfig.routeClipInlineNodes */
   clipInlineNodes: number;
+  /** see AppConfig.routeClipMemoryMb, in bytes */
+  clipMemoryBytes: number;
+}
+
+/** The clip graphs a worker keeps after an answer (see clipMemory in routes-clip). */
+export interface ClipMemory {
+  graphs: number;
+  bytes: number;
+  budgetBytes: number;
 }
 
 /** Compiled stations a route worker keeps, least recently used out first (as the main-thread cache). */
@@ -42,9 +51,9 @@ export interface RouteMessage {
 export type WorkerReply =
   | { kind: 'ready' }
   /** the answer as text (JSON of a RouteResult or timeline, or CSV), sent by the main thread as it is */
-  | { kind: 'result'; id: number; json: string; compiled: boolean }
+  | { kind: 'result'; id: number; json: string; compiled: boolean; clip: ClipMemory }
   /** a PDF export's bytes */
-  | { kind: 'bytes'; id: number; bytes: Uint8Array; compiled: boolean }
+  | { kind: 'bytes'; id: number; bytes: Uint8Array; compiled: boolean; clip: ClipMemory }
   /** the worker does not hold this version (evicted, or never sent): send the document */
   | { kind: 'need-document'; id: number }
   /** a clip graph built off the request path in this worker finished (or failed) */

@@ -3,6 +3,7 @@
 import { parentPort, workerData } from 'node:worker_threads';
 import { compileStation, type CompiledStation } from '@shared/compute/compiled-station';
 import type { StationDocument } from '@shared/schemas/station';
+import { clipMemory, setClipMemoryBudget } from '@shared/compute/routes-clip';
 import { configureClipBuilds, routeOffPath } from './clip-builder';
 import { HttpError } from '../../lib/http-error';
 import { dayOutputOn } from '../plans/plan-day';
@@ -10,6 +11,7 @@ import { WORKER_STATIONS, type RouteMessage, type RouteWorkerData, type WorkerRe
 
 if (!parentPort) throw new Error('route-worker.ts runs as a worker thread (see route-pool.ts)');
 const port = parentPort;
+setClipMemoryBudget((workerData as RouteWorkerData).clipMemoryBytes);
 configureClipBuilds({
   inlineNodes: (workerData as RouteWorkerData).clipInlineNodes,
   onEvent: (event) => port.postMessage({ kind: 'clip-build', event } satisfies WorkerReply),
@@ -38,11 +40,11 @@ async function answer(msg: RouteMessage): Promise<WorkerReply> {
   if (msg.day) {
     const out = await dayOutputOn(entry, msg.day.plan, msg.day.output, msg.day.start, msg.day.extra);
     return 'text' in out
-      ? { kind: 'result', id: msg.id, json: out.text, compiled }
-      : { kind: 'bytes', id: msg.id, bytes: out.bytes, compiled };
+      ? { kind: 'result', id: msg.id, json: out.text, compiled, clip: clipMemory() }
+      : { kind: 'bytes', id: msg.id, bytes: out.bytes, compiled, clip: clipMemory() };
   }
   const result = routeOffPath(entry.compiled, entry.doc, msg.request!);
-  return { kind: 'result', id: msg.id, json: JSON.stringify(result), compiled };
+  return { kind: 'result', id: msg.id, json: JSON.stringify(result), compiled, clip: clipMemory() };
 }
 
 /** An error as it crosses to the main thread; an HttpError (a 4xx the day raises) keeps its code. */
