@@ -24,6 +24,10 @@ export const paths = {
     path: '/plans/:planId',
     getHref: (planId: string | number) => `/plans/${encodeURIComponent(planId)}`,
   },
+  series: {
+    path: '/series/:seriesId',
+    getHref: (seriesId: string | number) => `/series/${encodeURIComponent(seriesId)}`,
+  },
   walkthroughs: {
     path: '/walkthroughs',
     /** with `planId`, the list opens its "new walkthrough" form for that plan */

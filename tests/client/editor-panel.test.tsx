@@ -65,6 +65,9 @@ function fakeStationApi(current: { version: number; by: string }) {
     const path = new URL(url, 'http://test').pathname;
     const method = init.method ?? 'GET';
     if (method === 'GET') return Response.json({ items: [], total: 0, page: 1, pageSize: 30 });
+    // the editor first asks which reviewed plans the change would touch: none here
+    if (new URL(url, 'http://test').searchParams.get('dryRun') === '1')
+      return Response.json({ dryRun: true, version: current.version, affectedPlans: [] });
     const body = JSON.parse(String(init.body ?? '{}'));
     sent.push({ method, path, body });
     if (body.version !== current.version) {

@@ -4,7 +4,9 @@ import { PageSpinner } from '@/components/ui/spinner';
 import { paths } from '@/config/paths';
 import { requireUser, useUser } from '@/lib/authorization';
 import { getPlanQueryOptions } from '@/features/plans/api/get-plan';
+import { ChangedSinceSubmission } from '@/features/plans/components/changed-since-submission';
 import { PlanEditor } from '@/features/plans/components/plan-editor';
+import { StationChangeBanner } from '@/features/plans/components/station-change-banner';
 import type { DayViewProps, PlanStationNodes } from '@/features/plans/types';
 import { getStationGraphQueryOptions } from '@/features/stations/api/get-station-graph';
 import { PlanDayPlayer } from '@/features/walkthrough/components/plan-day-player';
@@ -49,13 +51,17 @@ export default function PlanRoute() {
     all: graph.data.nodes,
   };
   return (
-    <PlanEditor
-      key={plan.data.id}
-      plan={plan.data}
-      user={user}
-      nodes={nodes}
-      rehearseHref={paths.walkthroughs.getHref({ planId: plan.data.id })}
-      DayView={PlanDay}
-    />
+    <>
+      <StationChangeBanner plan={plan.data} />
+      <ChangedSinceSubmission plan={plan.data} />
+      <PlanEditor
+        key={plan.data.id}
+        plan={plan.data}
+        user={user}
+        nodes={nodes}
+        rehearseHref={paths.walkthroughs.getHref({ planId: plan.data.id })}
+        DayView={PlanDay}
+      />
+    </>
   );
 }

@@ -12,6 +12,8 @@ import { getPlansQueryOptions } from '@/features/plans/api/get-plans';
 import { CreatePlanForm } from '@/features/plans/components/create-plan-form';
 import { PlansList } from '@/features/plans/components/plans-list';
 import { getStationsQueryOptions } from '@/features/stations/api/get-stations';
+import { getSeriesListQueryOptions } from '@/features/series/api/get-series';
+import { SeriesList } from '@/features/series/components/series-list';
 
 export const clientLoader =
   (queryClient: QueryClient) =>
@@ -26,6 +28,7 @@ export default function PlansRoute() {
   // signing out clears the cache while this page is still mounted: nothing is fetched without a user
   const plans = useQuery({ ...getPlansQueryOptions(), enabled: !!user });
   const stations = useQuery({ ...getStationsQueryOptions(), enabled: !!user });
+  const series = useQuery({ ...getSeriesListQueryOptions(), enabled: !!user });
   const canEdit = useCan('plans:edit');
   const navigate = useNavigate();
   const [creating, setCreating] = useState(false);
@@ -49,6 +52,7 @@ export default function PlansRoute() {
         }
       />
       <Panel>{plans.data ? <PlansList plans={plans.data} /> : <PageSpinner />}</Panel>
+      <Panel title="Series">{series.data ? <SeriesList series={series.data} /> : <PageSpinner />}</Panel>
       <Dialog open={creating} title="New plan" onClose={() => setCreating(false)}>
         <CreatePlanForm
           stations={choices}

@@ -1,9 +1,10 @@
 import { queryOptions } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
-import type { PlanView } from '../types';
+import type { PlanDetail } from '@shared/schemas/plan-views';
 import { planKeys } from './keys';
 
-export function getPlan(id: number): Promise<PlanView> {
+/** The plan with what it says about its station (pinned version, changes since approval, notices). */
+export function getPlan(id: number): Promise<PlanDetail> {
   return api.get(`/plans/${id}`);
 }
 

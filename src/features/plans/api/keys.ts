@@ -12,4 +12,5 @@ export const planKeys = {
   details: () => [...planKeys.all, 'detail'] as const,
   detail: (id: number) => [...planKeys.details(), id] as const,
   timeline: (id: number) => [...planKeys.detail(id), 'timeline'] as const,
+  compare: (id: number, from: number, to: number) => [...planKeys.detail(id), 'compare', from, to] as const,
 };

@@ -5,6 +5,7 @@ import type {
   NodeChangesSchema,
   UpdateStationInput,
 } from '@shared/schemas/station-edits';
+import type { AffectedPlan } from '@shared/schemas/plan-views';
 import type { z } from 'zod';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api, isApiError } from '@/lib/api-client';
@@ -31,36 +32,56 @@ export interface StationEditVariables {
 
 export interface StationEditResult {
   version: number;
+  /** the plans in review or approved the edit touched (listed on them, their authors mailed) */
+  affectedPlans?: AffectedPlan[];
+}
+
+/** A dry run's answer: the plans the edit would touch; nothing was written. */
+export interface StationEditPreview {
+  dryRun: true;
+  version: number;
+  affectedPlans: AffectedPlan[];
 }
 
 export function editStation(
   stationId: number,
   { version, edit }: StationEditVariables,
+  options: { dryRun?: boolean } = {},
 ): Promise<StationEditResult> {
   const base = `/stations/${stationId}`;
-  const q = `?version=${version}`;
+  const dry = options.dryRun ? 'dryRun=1' : '';
+  const q = `?version=${version}${dry ? `&${dry}` : ''}`;
+  const d = dry ? `?${dry}` : '';
   switch (edit.type) {
     case 'create-node':
-      return api.post(`${base}/nodes`, { version, node: edit.node });
+      return api.post(`${base}/nodes${d}`, { version, node: edit.node });
     case 'update-node':
-      return api.patch(`${base}/nodes/${encodeURIComponent(edit.key)}`, { version, node: edit.node });
+      return api.patch(`${base}/nodes/${encodeURIComponent(edit.key)}${d}`, { version, node: edit.node });
     case 'delete-node':
       return api.delete(`${base}/nodes/${encodeURIComponent(edit.key)}${q}`);
     case 'create-edge':
-      return api.post(`${base}/edges`, { version, edge: edit.edge });
+      return api.post(`${base}/edges${d}`, { version, edge: edit.edge });
     case 'update-edge':
-      return api.patch(`${base}/edges/${edit.edgeId}`, { version, edge: edit.edge });
+      return api.patch(`${base}/edges/${edit.edgeId}${d}`, { version, edge: edit.edge });
     case 'delete-edge':
       return api.delete(`${base}/edges/${edit.edgeId}${q}`);
     case 'create-hazard':
-      return api.post(`${base}/hazards`, { version, hazard: edit.hazard });
+      return api.post(`${base}/hazards${d}`, { version, hazard: edit.hazard });
     case 'update-hazard':
-      return api.patch(`${base}/hazards/${encodeURIComponent(edit.key)}`, { version, hazard: edit.hazard });
+      return api.patch(`${base}/hazards/${encodeURIComponent(edit.key)}${d}`, {
+        version,
+        hazard: edit.hazard,
+      });
     case 'delete-hazard':
       return api.delete(`${base}/hazards/${encodeURIComponent(edit.key)}${q}`);
     case 'update-station':
-      return api.patch(base, { version, ...edit.changes });
+      return api.patch(`${base}${d}`, { version, ...edit.changes });
   }
+}
+
+/** Which plans in review or approved an edit would touch, asked before it is made (nothing is written). */
+export function previewStationEdit(stationId: number, variables: StationEditVariables) {
+  return editStation(stationId, variables, { dryRun: true }) as unknown as Promise<StationEditPreview>;
 }
 
 /** What the edit does, in a few words, for messages ("Your change … was not saved"). */

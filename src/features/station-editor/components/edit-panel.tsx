@@ -4,7 +4,14 @@ import { Alert } from '@/components/ui/alert';
 import { Badge } from '@/components/ui/badge';
 import { Button } from '@/components/ui/button';
 import { EmptyState } from '@/components/ui/card';
-import { describeStationEdit, useEditStation, type StationEdit } from '../api/edit-station';
+import type { AffectedPlan } from '@shared/schemas/plan-views';
+import {
+  describeStationEdit,
+  previewStationEdit,
+  useEditStation,
+  type StationEdit,
+} from '../api/edit-station';
+import { AffectedPlansPrompt } from './affected-plans-prompt';
 import type { EditableGraph, SurfacePick } from '../utils/types';
 import { AuditList } from './audit-list';
 import { ConflictNotice } from './conflict-notice';
@@ -61,19 +68,33 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
       if (edit.type.endsWith('-hazard')) setHazardKey(null);
     },
   });
-  const submit = (edit: StationEdit) => {
+  // a change that touches plans in review or approved is put to the engineer first (a dry run)
+  const [asking, setAsking] = useState<{ edit: StationEdit; plans: AffectedPlan[] } | null>(null);
+  const [checking, setChecking] = useState(false);
+  const ask = async (edit: StationEdit) => {
     setSaved(null);
+    setAsking(null);
+    setChecking(true);
+    try {
+      const preview = await previewStationEdit(stationId, { version, edit });
+      if (preview.affectedPlans.length) return setAsking({ edit, plans: preview.affectedPlans });
+    } catch {
+      // a refusal (stale version, bad input) shows when the change itself is sent
+    } finally {
+      setChecking(false);
+    }
     mutation.mutate({ version, edit });
   };
-  const isSaving = mutation.isPending;
+  const submit = (edit: StationEdit) => void ask(edit);
+  const isSaving = mutation.isPending || checking;
   const failedEdit = mutation.isError ? mutation.variables?.edit : undefined;
   // the outcome shows above the sections; the Save button that caused it may be far below
   const status = useRef<HTMLDivElement>(null);
   useEffect(() => {
-    if (!failedEdit && !saved) return;
+    if (!failedEdit && !saved && !asking) return;
     status.current?.scrollIntoView?.({ block: 'nearest' });
     status.current?.focus({ preventScroll: true });
-  }, [failedEdit, saved]);
+  }, [failedEdit, saved, asking]);
   const selected = selectedKey ? graph.nodes.find((n) => n.key === selectedKey) : undefined;
   const around: Vec3 = selected?.position ?? [0, 0, 0];
   const editingHazard = graph.hazards.find((h) => h.key === hazardKey);
@@ -94,6 +115,18 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
               onChanged();
             }}
             onReapply={(current) => mutation.mutate({ version: current, edit: failedEdit })}
+          />
+        )}
+        {asking && (
+          <AffectedPlansPrompt
+            what={describeStationEdit(asking.edit)}
+            plans={asking.plans}
+            isSaving={isSaving}
+            onCancel={() => setAsking(null)}
+            onConfirm={() => {
+              setAsking(null);
+              mutation.mutate({ version, edit: asking.edit });
+            }}
           />
         )}
         {saved && !mutation.isError && <Alert tone="success">{saved}</Alert>}
