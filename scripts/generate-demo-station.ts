@@ -208,6 +208,34 @@ function build(): StationDocument {
   // The arm ride: from the core zenith to the starboard outer end.
   link(coreRuns[0][3], runs.get('zenith1')![xs.length - 1], 'ride', { label: 'Robotic arm ride' });
 
+  // The robotic arm that positions a crew member: based on a pedestal over the SB1 zenith face, it
+  // reaches the stowage platform, the pump site on SB3 and a survey point forward of the truss that
+  // no handrail or socket reaches (made before the pedestal: the station's last node stays one a
+  // handrail reaches).
+  const survey = addNode('SB1', 'worksite', v3(8, 4, 8), { label: 'Forward mast survey point (arm only)' });
+  const armBase = addNode('SB1', 'junction', v3(6, -0.75, 2.2), { label: 'Robotic arm base pedestal' });
+  const onPedestal = nodes
+    .filter((n) => n.kind === 'anchor' && n.position[2] === HALF)
+    .reduce((best, n) =>
+      dist(n.position, [6, -0.75, HALF]) < dist(best.position, [6, -0.75, HALF]) ? n : best,
+    );
+  link(onPedestal.key, armBase, 'handrail');
+  // only the arm gets there (a ride, for the route finder when arm rides are allowed)
+  link(armBase, survey, 'ride', { label: 'Arm ride to the survey point' });
+  const arms: StationDocument['arms'] = [
+    {
+      key: 'ARM-1',
+      label: 'Station robotic arm',
+      baseNode: armBase,
+      // the station's main arm is about 17.6 m long (fact of the trade); minimum reach, tip speed with
+      // a person on it and settle time are planning defaults from memory
+      reachM: 17.6,
+      minReachM: 2,
+      tipSpeedMps: 0.05,
+      settleSeconds: 60,
+    },
+  ];
+
   const segments: Segment[] = [
     ...BAYS.map((b) => ({
       key: b.key,
@@ -256,7 +284,7 @@ function build(): StationDocument {
     nodes,
     edges,
     hazards,
-    arms: [],
+    arms,
   };
 }
 

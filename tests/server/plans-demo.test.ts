@@ -82,3 +82,42 @@ describe('demo plans on Kestrel Station', () => {
     for (const b of swaps) expect(b.start).toBeGreaterThanOrEqual(installed.start);
   });
 });
+
+describe('the pump swap uses the arm as a team would', () => {
+  it('a restraint fitted on its end, a ride to a worksite no socket reaches, the spare pump handed from the rider', async () => {
+    const viewer = await t.agent('viewer');
+    const plan = (await viewer.get('/api/plans')).body.find(
+      (p: { title: string }) => p.title === 'Coolant pump module swap',
+    );
+    const full = (await viewer.get(`/api/plans/${plan.id}`)).body;
+    const timeline = (await viewer.get(`/api/plans/${plan.id}/timeline`)).body;
+    const graph = (await viewer.get(`/api/stations/${full.stationId}/graph`)).body;
+    const actions = full.tasks.flatMap(
+      (x: { actions: { do: string; item: string; at?: string }[] }) => x.actions,
+    );
+    expect(actions).toContainEqual(expect.objectContaining({ do: 'install', at: 'ARM-1' }));
+    const armTasks = full.tasks.filter((x: { arm?: unknown }) => x.arm);
+    expect(armTasks.length).toBeGreaterThanOrEqual(2);
+    // some arm worksite is out of reach of every socket of the station (the reach settings' sphere)
+    const { standOffM, radiusM } = graph.station.settings.reach;
+    const pos = new Map(graph.nodes.map((n: { key: string; position: number[] }) => [n.key, n.position]));
+    const sockets = graph.nodes.filter((n: { kind: string }) => n.kind === 'socket');
+    const reachable = (site: number[]) =>
+      sockets.some((s: { position: number[]; normal: number[] }) => {
+        const c = s.position.map((p, k) => p + s.normal[k] * standOffM);
+        return Math.hypot(...c.map((v, k) => v - site[k])) <= radiusM;
+      });
+    expect(armTasks.some((x: { worksite: string }) => !reachable(pos.get(x.worksite) as number[]))).toBe(
+      true,
+    );
+    const handOver = armTasks.find((x: { crew: string }) => x.crew === 'both');
+    expect(handOver.actions).toContainEqual(
+      expect.objectContaining({ do: 'hand-over', by: handOver.arm.rider }),
+    );
+    expect(timeline.arms).toHaveLength(1);
+    expect(timeline.arms[0].sessions).toHaveLength(1);
+    expect(timeline.arms[0].blocks.filter((b: { rider?: string }) => b.rider).length).toBeGreaterThanOrEqual(
+      3,
+    );
+  });
+});

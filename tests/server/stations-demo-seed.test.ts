@@ -36,7 +36,7 @@ describe('the Kestrel demo station', () => {
     }
   });
 
-  it('has the parts the demo needs: modules, port and starboard bays, worksites with sockets, a ride', () => {
+  it('has the parts the demo needs: modules, port and starboard bays, worksites with sockets, rides, an arm', () => {
     const segKeys = g.segments.map((s) => s.key);
     expect(segKeys).toEqual(
       expect.arrayContaining(['CB', 'PB1', 'PB2', 'PB3', 'PB4', 'SB1', 'SB2', 'SB3', 'SB4']),
@@ -54,7 +54,9 @@ describe('the Kestrel demo station', () => {
     );
     for (const s of g.nodes.filter((n) => n.kind === 'socket'))
       expect(Math.hypot(...s.normal!)).toBeCloseTo(1, 9);
-    expect(g.edges.filter((e) => e.kind === 'ride')).toHaveLength(1);
+    // the core-to-starboard ride, and the arm's ride to the survey point only it reaches
+    expect(g.edges.filter((e) => e.kind === 'ride')).toHaveLength(2);
+    expect(g.arms.map((a) => [a.key, g.nodes.some((n) => n.key === a.baseNode)])).toEqual([['ARM-1', true]]);
     expect(g.edges.filter((e) => e.kind === 'hop').length).toBeGreaterThan(10);
   });
 

@@ -14,7 +14,9 @@ const min = (m: number) => m * 60;
  * planning numbers, not from any real EVA. Each carries its hardware the way a team would: a
  * portable foot restraint installed before the task that stands in it, tools in the hands of whoever
  * uses them, a portable tether anchor set up early for the later translations, and a large item one
- * crew member carries out and hands to the other. Each has one eclipse-only connector task, and the
+ * crew member carries out and hands to the other. The pump swap uses the station's arm the way a team
+ * would: a foot restraint fitted on its end, a ride to a survey point no socket reaches, and the
+ * spare pump handed from the arm's rider to the partner. Each has one eclipse-only connector task, and the
  * orbit phase at start is chosen so that task falls in orbital night.
  */
 export function demoPlanInputs(stationId: number): {
@@ -39,6 +41,14 @@ export function demoPlanInputs(stationId: number): {
         crew: 'EV2',
         durationSeconds: min(5),
         actions: [{ do: 'install', item: 'anchor-1', at: 'CORE-J03' }],
+      },
+      {
+        title: "Fit the foot restraint on the arm's end",
+        worksite: 'CORE-W01',
+        crew: 'EV2',
+        durationSeconds: min(10),
+        actions: [{ do: 'install', item: 'arm-restraint', at: 'ARM-1' }],
+        notes: 'The arm is parked with its end beside the core module.',
       },
       {
         title: 'Install the foot restraint at the pump module',
@@ -76,11 +86,21 @@ export function demoPlanInputs(stationId: number): {
         ],
       },
       {
+        title: 'Survey the forward mast from the arm',
+        worksite: 'SB1-W02',
+        crew: 'EV2',
+        durationSeconds: min(15),
+        arm: { key: 'ARM-1', ingress: 'CB-A05' },
+        notes:
+          'No handrail or socket reaches the survey point: the arm carries EV2 there, spare pump in hand.',
+      },
+      {
         title: 'Hand the spare pump up',
         worksite: 'SB3-W01',
         crew: 'both',
         durationSeconds: min(10),
         sockets: { EV1: 'SB3-S05' },
+        arm: { key: 'ARM-1', ingress: 'CB-A05', egress: 'SB3-A01', rider: 'EV2' },
         actions: [{ do: 'hand-over', item: 'spare-pump', by: 'EV2' }],
       },
       {
@@ -112,6 +132,14 @@ export function demoPlanInputs(stationId: number): {
       { key: 'connector-tool', name: 'Connector tool', kind: 'tool', carriedBy: 'EV1' },
       { key: 'restraint-1', name: 'Portable foot restraint', kind: 'foot-restraint', carriedBy: 'EV1' },
       { key: 'anchor-1', name: 'Portable tether anchor', kind: 'tether-anchor', carriedBy: 'EV2' },
+      {
+        key: 'arm-restraint',
+        name: 'Arm foot restraint',
+        kind: 'foot-restraint',
+        carriedBy: 'EV2',
+        leaveOutside: true,
+        notes: "Stays on the arm's end for the next EVA.",
+      },
       {
         key: 'failed-pump',
         name: 'Failed pump module',
