@@ -10,5 +10,8 @@ export function comparePlan(id: number, from: number, to: number): Promise<PlanC
 export const comparePlanQueryOptions = (id: number, from: number, to: number) =>
   queryOptions({ queryKey: planKeys.compare(id, from, to), queryFn: () => comparePlan(id, from, to) });
 
-export const useComparePlan = (id: number, from: number | null, to: number) =>
-  useQuery({ ...comparePlanQueryOptions(id, from ?? 0, to), enabled: from !== null && from !== to });
+export const useComparePlan = (id: number, from: number | null | undefined, to: number) =>
+  useQuery({
+    ...comparePlanQueryOptions(id, from ?? 0, to),
+    enabled: from != null && from > 0 && from !== to,
+  });

@@ -8,7 +8,8 @@ const when = (c: Change<number>) => `${formatElapsed(c.from)} → ${formatElapse
 
 /** For a resubmitted plan: what changed since the submission before, and what it does to the day. */
 export function ChangedSinceSubmission({ plan }: { plan: PlanDetail }) {
-  const from = plan.status === 'in-review' ? plan.previousSubmissionVersion : null;
+  // a plan answered by a review step carries no previousSubmissionVersion until it is read again
+  const from = plan.status === 'in-review' ? (plan.previousSubmissionVersion ?? null) : null;
   const compare = useComparePlan(plan.id, from, plan.version);
   const c = compare.data;
   if (from === null || !c) return null;
