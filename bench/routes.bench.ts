@@ -193,6 +193,8 @@ export async function run(): Promise<boolean> {
             };
             const heldName = `${mode} (tether state)`;
             (times[heldName] ??= []).push(timed(() => findRoute(c, settings, held, CLIP)));
+            const heldLabels = `${mode} (tether state, label search)`;
+            (times[heldLabels] ??= []).push(timed(() => findRoute(c, settings, held, LABELS)));
           }
         }
       }

@@ -1158,13 +1158,15 @@ function restBound(cq: ClipQuery, lastCount: number, levelsTo: number): (a: numb
   const { cg, state: q, lex, swapCost, tIdx } = cq;
   const { restStamp, rest1, rest2, stamp } = q;
   const withExtras = cq.extras.length > 0;
+  const { tSlot, A, extras } = cq;
+  const attachNodes = cg.attachNodes;
   const marks = !lex && swapCost > 0 ? costMarksTowards(cq, lastCount) : null;
   if (marks && tIdx >= 0 && !withExtras) {
     return (a: number): boolean => {
       if (restStamp[a] === stamp) return rest1[a] !== Infinity;
       restStamp[a] = stamp;
       // a clip at t has nothing left (t's row, which the landmarks' end cost comes from, lacks t)
-      const h = a === cq.tSlot ? 0 : marks(a, 0);
+      const h = a === tSlot ? 0 : marks(a, 0);
       rest1[a] = h;
       rest2[a] = 0;
       return h !== Infinity;
@@ -1195,7 +1197,7 @@ function restBound(cq: ClipQuery, lastCount: number, levelsTo: number): (a: numb
   return (a: number): boolean => {
     if (restStamp[a] === stamp) return rest1[a] !== Infinity;
     restStamp[a] = stamp;
-    const v = nodeOf(cq, a);
+    const v = a < A ? attachNodes[a] : extras[a - A];
     const sw = lastCount > 0 && toT(v) ? swapsAfter(a, v) : Infinity;
     if (sw === Infinity) {
       rest1[a] = Infinity;
@@ -1277,27 +1279,34 @@ function costMarksTowards(cq: ClipQuery, lastCount: number): (a: number, h: numb
     }
     if (withExtras) extraGains(cq, marks);
   }
-  return (a: number, h: number): number => {
-    let m = 0;
-    if (a < A) {
-      for (let k = 0, base = a * count; k < count; k++) {
-        const d = cost[base + k];
-        const ahead = markToEnd[k] - d;
-        if (ahead > m) m = ahead;
-        const back = d - markFromEnd[k];
-        if (back > m) m = back;
-      }
-    } else {
-      for (let k = 0, base = (a - A) * count; k < count; k++) {
-        const ahead = markToEnd[k] - extraAhead[base + k];
-        if (ahead > m) m = ahead;
-        const back = extraBack[base + k] - markFromEnd[k];
-        if (back > m) m = back;
-      }
-    }
+  const bound = (m: number, h: number): number => {
     if (m === Infinity) return Infinity;
     const lb = f * m * (1 - 1e-12) - 1e-9;
     return lb > h ? lb : h;
+  };
+  // the station's attach points and the extra ones apart: the first is the search's inner loop
+  const station = (a: number, h: number): number => {
+    let m = 0;
+    for (let k = 0, base = a * count; k < count; k++) {
+      const d = cost[base + k];
+      const ahead = markToEnd[k] - d;
+      if (ahead > m) m = ahead;
+      const back = d - markFromEnd[k];
+      if (back > m) m = back;
+    }
+    return bound(m, h);
+  };
+  if (!withExtras) return station;
+  return (a: number, h: number): number => {
+    if (a < A) return station(a, h);
+    let m = 0;
+    for (let k = 0, base = (a - A) * count; k < count; k++) {
+      const ahead = markToEnd[k] - extraAhead[base + k];
+      if (ahead > m) m = ahead;
+      const back = extraBack[base + k] - markFromEnd[k];
+      if (back > m) m = back;
+    }
+    return bound(m, h);
   };
 }
 
