@@ -1,15 +1,14 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildStationDocument, FIXTURE_KEYS, stationDocumentFile } from '../factories/station-document';
 import { postStationDocument } from '../setup/stations';
-import { makeTestApp, type TestAgent, type TestApp } from '../setup/test-app';
+import { makeTestAppAs, type TestAgent, type TestApp } from '../setup/test-app';
 import { STATION_FILE_MAX_BYTES } from '../../server/modules/stations/stations.router';
 
 let t: TestApp;
 let engineer: TestAgent;
 
 beforeAll(async () => {
-  t = await makeTestApp();
-  engineer = await t.agent('engineer');
+  ({ t, agent: engineer } = await makeTestAppAs('engineer'));
 });
 afterAll(() => t.close());
 

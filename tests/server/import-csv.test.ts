@@ -1,14 +1,13 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildStationDocument, FIXTURE_KEYS } from '../factories/station-document';
 import { importStation, stationGraph } from '../setup/stations';
-import { makeTestApp, type TestAgent, type TestApp } from '../setup/test-app';
+import { makeTestAppAs, type TestAgent, type TestApp } from '../setup/test-app';
 
 let t: TestApp;
 let engineer: TestAgent;
 
 beforeAll(async () => {
-  t = await makeTestApp();
-  engineer = await t.agent('engineer');
+  ({ t, agent: engineer } = await makeTestAppAs('engineer'));
 });
 afterAll(() => t.close());
 

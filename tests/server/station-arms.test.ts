@@ -1,14 +1,13 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { StationGraph } from '@shared/schemas/station-edits';
-import { buildStationDocument, FIXTURE_KEYS as K, stationDocumentFile } from '../factories/station-document';
-import { makeTestApp, type TestAgent, type TestApp } from '../setup/test-app';
+import { buildStationDocument, FIXTURE_KEYS as K } from '../factories/station-document';
+import { postStationDocument, stationGraph } from '../setup/stations';
+import { makeTestAppAs, type TestAgent, type TestApp } from '../setup/test-app';
 
 let t: TestApp;
 let engineer: TestAgent;
 
 beforeAll(async () => {
-  t = await makeTestApp();
-  engineer = await t.agent('engineer');
+  ({ t, agent: engineer } = await makeTestAppAs('engineer'));
 });
 afterAll(() => t.close());
 
@@ -22,13 +21,9 @@ const arm = {
   settleSeconds: 60,
 };
 
-async function newStation(doc: unknown = buildStationDocument({ arms: [arm] })) {
-  const res = await engineer.post('/api/stations/import').attach('file', stationDocumentFile(doc), 's.json');
-  return res;
-}
-async function graph(id: number): Promise<StationGraph> {
-  return (await engineer.get(`/api/stations/${id}/graph`)).body;
-}
+const newStation = (doc: unknown = buildStationDocument({ arms: [arm] })) =>
+  postStationDocument(engineer, doc);
+const graph = (id: number) => stationGraph(engineer, id);
 const csv = (...lines: string[]) => Buffer.from(lines.join('\n') + '\n');
 
 describe('station arms', () => {

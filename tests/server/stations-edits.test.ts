@@ -3,14 +3,13 @@ import { readStaleVersion } from '@shared/errors';
 import { onStationChanged } from '../../server/modules/stations/stations.service';
 import { FIXTURE_KEYS as K } from '../factories/station-document';
 import { importStation, stationGraph } from '../setup/stations';
-import { makeTestApp, type TestAgent, type TestApp } from '../setup/test-app';
+import { makeTestAppAs, type TestAgent, type TestApp } from '../setup/test-app';
 
 let t: TestApp;
 let engineer: TestAgent;
 
 beforeAll(async () => {
-  t = await makeTestApp();
-  engineer = await t.agent('engineer');
+  ({ t, agent: engineer } = await makeTestAppAs('engineer'));
 });
 afterAll(() => t.close());
 

@@ -5,7 +5,7 @@ import { parseStationDocument, type StationDocumentInput } from '@shared/schemas
 import type { StationGraph } from '@shared/schemas/station-edits';
 import { buildStationDocument, FIXTURE_KEYS, stationDocumentFile } from '../factories/station-document';
 import { postStationDocument, stationGraph } from '../setup/stations';
-import { makeTestApp, type TestAgent, type TestApp } from '../setup/test-app';
+import { makeTestAppAs, type TestAgent, type TestApp } from '../setup/test-app';
 
 /**
  * A station document as an outside tool writes it, every part of the format present: settings, a
@@ -41,8 +41,7 @@ let t: TestApp;
 let engineer: TestAgent;
 
 beforeAll(async () => {
-  t = await makeTestApp();
-  engineer = await t.agent('engineer');
+  ({ t, agent: engineer } = await makeTestAppAs('engineer'));
 });
 afterAll(() => t.close());
 

@@ -64,3 +64,9 @@ export async function makeTestApp(overrides: Partial<AppConfig> = {}): Promise<T
     },
   };
 }
+
+/** A fresh test app (see `makeTestApp`) and the agent signed in on it as `role`. */
+export async function makeTestAppAs(role: Role | 'planner2', overrides: Partial<AppConfig> = {}) {
+  const t = await makeTestApp(overrides);
+  return { t, agent: await t.agent(role) };
+}
