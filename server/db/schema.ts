@@ -324,6 +324,10 @@ export const tasks = sqliteTable(
     actionsJson: text('actions_json').notNull().default('[]'),
     /** done from an arm's foot restraint: `{ key, ingress, egress?, rider? }`, JSON */
     armJson: text('arm_json'),
+    /** ids of the tasks of the same plan that must end before this one starts its work, JSON */
+    afterJson: text('after_json').notNull().default('[]'),
+    /** get-ahead work that may be dropped */
+    optional: integer('optional', { mode: 'boolean' }).notNull().default(false),
     notes: text('notes'),
   },
   (t) => [index('tasks_plan_idx').on(t.planId)],

@@ -141,6 +141,10 @@ export const TaskSchema = z.strictObject({
     .default([]),
   /** done from an arm's foot restraint */
   arm: TaskArmSchema.optional(),
+  /** ids of tasks of the same plan that must end before this one starts its work */
+  after: z.array(IdSchema).max(MAX_TASKS, `at most ${MAX_TASKS} tasks`).default([]),
+  /** get-ahead work: done when the day has room, dropped when it runs late */
+  optional: z.boolean().default(false),
   notes: notes.optional(),
 });
 export type Task = z.infer<typeof TaskSchema>;
@@ -223,17 +227,76 @@ export interface PlanProblem {
   message: string;
 }
 
+type TaskOrderFields = Partial<Pick<Task, 'id' | 'title'>> & { after?: readonly number[] };
+
+/**
+ * The order rules between tasks: task ids are unique, and `after` names other tasks of the same plan
+ * by id without ever leading back to the task it starts from (a task waiting, however indirectly, for
+ * itself would never start). A loop is reported once, at the `after` entry that closes it.
+ */
+export function taskOrderProblems(tasks: readonly TaskOrderFields[]): PlanProblem[] {
+  const problems: PlanProblem[] = [];
+  const indexOf = new Map<number, number>();
+  tasks.forEach((t, i) => {
+    if (t.id === undefined) return;
+    const first = indexOf.get(t.id);
+    if (first === undefined) indexOf.set(t.id, i);
+    else
+      problems.push({
+        path: ['tasks', i, 'id'],
+        message: `duplicate task id ${t.id} (first at tasks[${first}])`,
+      });
+  });
+  const name = (i: number) => `task ${i + 1}${tasks[i].title ? ` "${tasks[i].title}"` : ''}`;
+  const edges = tasks.map((t, i) =>
+    (t.after ?? []).flatMap((id, j) => {
+      const k = indexOf.get(id);
+      if (k === undefined) {
+        problems.push({ path: ['tasks', i, 'after', j], message: `no task of this plan has the id ${id}` });
+        return [];
+      }
+      if (k === i) {
+        problems.push({ path: ['tasks', i, 'after', j], message: 'a task cannot wait for itself' });
+        return [];
+      }
+      return [{ j, k }];
+    }),
+  );
+  // depth first over `after`: an edge to a task still on the path closes a loop
+  const state = new Uint8Array(tasks.length);
+  const path: number[] = [];
+  const visit = (i: number) => {
+    state[i] = 1;
+    path.push(i);
+    for (const { j, k } of edges[i]) {
+      if (state[k] === 1) {
+        const loop = [...path.slice(path.indexOf(k)), k].map(name);
+        problems.push({
+          path: ['tasks', i, 'after', j],
+          message: `this makes a loop of tasks that each wait for the next: ${loop.join(' → ')}`,
+        });
+      } else if (state[k] === 0) visit(k);
+    }
+    path.pop();
+    state[i] = 2;
+  };
+  tasks.forEach((_, i) => state[i] === 0 && visit(i));
+  return problems;
+}
+
 /**
  * Rules between a plan's tasks and its manifest that no single field can check: item keys unique and
  * known to the actions that name them, `socket` only on a one-person task and `sockets` only on a task
  * for both, a hand-over only in a task for both, `by` one of the task's crew, `installedAt` only on
- * restraints and anchors. Station rules (which nodes exist) are checked against the station elsewhere.
+ * restraints and anchors, and the order rules of taskOrderProblems. Station rules (which nodes exist) are checked against the station elsewhere.
  */
 export function planReferenceProblems(
-  tasks: readonly (Pick<Task, 'crew' | 'socket' | 'sockets' | 'actions'> & { arm?: Task['arm'] })[],
+  tasks: readonly (Pick<Task, 'crew' | 'socket' | 'sockets' | 'actions'> & {
+    arm?: Task['arm'];
+  } & TaskOrderFields)[],
   manifest: readonly Pick<ManifestItem, 'key' | 'name' | 'kind' | 'installedAt' | 'startsAt' | 'endsAt'>[],
 ): PlanProblem[] {
-  const problems: PlanProblem[] = [];
+  const problems: PlanProblem[] = taskOrderProblems(tasks);
   const keyed = withItemKeys(manifest);
   const firstAt = new Map<string, number>();
   keyed.forEach((m, i) => {

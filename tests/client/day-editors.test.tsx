@@ -24,6 +24,8 @@ const chartTasks: Task[] = [
     carrying: false,
     tools: [],
     actions: [],
+    after: [],
+    optional: false,
   },
   // an hour of eclipse-only work cannot fit a night window of about 36 minutes
   {
@@ -35,6 +37,8 @@ const chartTasks: Task[] = [
     carrying: false,
     tools: [],
     actions: [],
+    after: [],
+    optional: false,
   },
 ];
 
@@ -108,6 +112,8 @@ const task: Task = {
   crew: 'both',
   durationSeconds: 1800,
   eclipseOnly: false,
+  after: [],
+  optional: false,
   carrying: false,
   tools: [],
   actions: [],
@@ -115,7 +121,16 @@ const task: Task = {
 
 function renderTaskForm(given: Task = task) {
   const onSubmit = vi.fn<(task: Task, added: ManifestItem[]) => void>();
-  render(<TaskForm task={given} nodes={nodes} manifest={manifest} onSubmit={onSubmit} onCancel={() => {}} />);
+  render(
+    <TaskForm
+      task={given}
+      others={[]}
+      nodes={nodes}
+      manifest={manifest}
+      onSubmit={onSubmit}
+      onCancel={() => {}}
+    />,
+  );
   return { onSubmit, user: userEvent.setup() };
 }
 

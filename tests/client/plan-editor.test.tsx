@@ -23,6 +23,8 @@ const tasks: Task[] = [
     carrying: false,
     tools: [],
     actions: [],
+    after: [],
+    optional: false,
   },
   {
     title: 'Inspect hinge',
@@ -33,6 +35,8 @@ const tasks: Task[] = [
     carrying: false,
     tools: [],
     actions: [],
+    after: [],
+    optional: false,
   },
   {
     title: 'Route cable',
@@ -43,6 +47,8 @@ const tasks: Task[] = [
     carrying: false,
     tools: [],
     actions: [],
+    after: [],
+    optional: false,
   },
 ];
 

@@ -169,6 +169,8 @@ export function getPlan(db: Db, id: number): PlanView {
       tools: JSON.parse(t.toolsJson) as string[],
       actions: JSON.parse(t.actionsJson) as Task['actions'],
       ...(t.armJson ? { arm: JSON.parse(t.armJson) as NonNullable<Task['arm']> } : {}),
+      after: JSON.parse(t.afterJson) as number[],
+      optional: t.optional,
       ...(t.notes ? { notes: t.notes } : {}),
     })),
     manifest: itemRows.map((m): ManifestItem & { key: string } => ({
@@ -288,12 +290,28 @@ function writeCrew(db: Db, planId: number, crew: CreatePlanInput['crew']) {
   }
 }
 
+/**
+ * Replaces the plan's task list. A task keeps its id when it is one of this plan's tasks already (so
+ * `after` and anything else that names it keeps meaning the same task); any other task, a new one or
+ * one copied from elsewhere with its id, gets a fresh id, and the `after` entries that named it by
+ * the id it came with are rewritten to the new one.
+ */
 function writeTasks(db: Db, planId: number, list: readonly Task[]) {
-  db.delete(tasks).where(eq(tasks.planId, planId)).run();
-  list.map(withOwnSockets).forEach((t, ord) =>
+  const own = new Set(
     db
+      .select({ id: tasks.id })
+      .from(tasks)
+      .where(eq(tasks.planId, planId))
+      .all()
+      .map((r) => r.id),
+  );
+  db.delete(tasks).where(eq(tasks.planId, planId)).run();
+  const idOf = new Map<number, number>();
+  const rows = list.map(withOwnSockets).map((t, ord) => {
+    const row = db
       .insert(tasks)
       .values({
+        ...(t.id !== undefined && own.has(t.id) ? { id: t.id } : {}),
         planId,
         ord,
         title: t.title,
@@ -307,10 +325,21 @@ function writeTasks(db: Db, planId: number, list: readonly Task[]) {
         toolsJson: JSON.stringify(t.tools),
         actionsJson: JSON.stringify(t.actions),
         armJson: t.arm ? JSON.stringify(t.arm) : null,
+        optional: t.optional,
         notes: t.notes ?? null,
       })
-      .run(),
-  );
+      .returning({ id: tasks.id })
+      .get();
+    if (t.id !== undefined) idOf.set(t.id, row.id);
+    return { id: row.id, after: t.after };
+  });
+  for (const row of rows) {
+    if (row.after.length === 0) continue;
+    db.update(tasks)
+      .set({ afterJson: JSON.stringify(row.after.map((id) => idOf.get(id) ?? id)) })
+      .where(eq(tasks.id, row.id))
+      .run();
+  }
 }
 
 function writeManifest(db: Db, planId: number, list: readonly ManifestItem[]) {

@@ -51,6 +51,7 @@ export function socketFor(task: Pick<DayTask, 'crew' | 'socket' | 'sockets'>, m:
 
 type Step =
   | { kind: 'travel'; task: number }
+  | { kind: 'after'; task: number }
   | { kind: 'restraint-in'; task: number }
   | { kind: 'sync'; task: number }
   | { kind: 'work'; task: number }
@@ -193,6 +194,30 @@ export function computeTimeline(
     }
   }
 
+  // ── precedence: a task's work starts after the work of the tasks it is `after` has ended ─────────
+  // Only tasks earlier in the plan are waited for: then the first task not yet done in plan order can
+  // always go ahead, so the two lanes never wait for each other in a circle.
+  const indexById = new Map<number, number>();
+  plan.tasks.forEach((t, i) => t.id !== undefined && indexById.set(t.id, i));
+  const afterOf = plan.tasks.map((task, i) =>
+    (task.after ?? []).flatMap((id) => {
+      const j = indexById.get(id);
+      if (j === undefined || j === i) return [];
+      if (j > i) {
+        warnings.push({
+          code: 'after-out-of-order',
+          message: `${taskName(task, i)} is to start after ${taskName(plan.tasks[j], j)}, which comes later in the plan: move it above, or the day cannot keep that order`,
+          taskIndex: i,
+        });
+        return [];
+      }
+      return [j];
+    }),
+  );
+  /** each task's work end, once its work block is laid */
+  const workEnd: (number | undefined)[] = [];
+  const afterReady = (task: number) => afterOf[task].every((j) => workEnd[j] !== undefined);
+
   // ── the simulation ──────────────────────────────────────────────────────────────────────────────
   const lanes = {} as Record<CrewMember, Lane>;
   for (const m of CREW) {
@@ -200,10 +225,12 @@ export function computeTimeline(
     plan.tasks.forEach((task, i) => {
       if (!membersOf(task).includes(m)) return;
       const onArm = armRole(plan.tasks, m, i);
+      const wait: Step[] = afterOf[i].length ? [{ kind: 'after', task: i }] : [];
       if (onArm) {
-        if (onArm.first) steps.push({ kind: 'travel', task: i }, { kind: 'arm-in', task: i });
+        if (onArm.first) steps.push({ kind: 'travel', task: i }, ...wait, { kind: 'arm-in', task: i });
+        else steps.push(...wait);
         steps.push({ kind: 'arm-ride', task: i });
-      } else steps.push({ kind: 'travel', task: i }, { kind: 'restraint-in', task: i });
+      } else steps.push({ kind: 'travel', task: i }, ...wait, { kind: 'restraint-in', task: i });
       if (task.crew === 'both') steps.push({ kind: 'sync', task: i });
       steps.push({ kind: 'work', task: i });
       if (!onArm) steps.push({ kind: 'after-work', task: i });
@@ -514,6 +541,21 @@ export function computeTimeline(
       case 'arm-out':
         arms.leave(lane, step.task);
         return;
+      case 'after': {
+        if (!afterReady(step.task)) {
+          // the partner has yet to start one of them: look again once it has
+          lane.waitingAt = `after:${step.task}`;
+          lane.pc--;
+          return;
+        }
+        const last = afterOf[step.task].reduce((a, j) => (workEnd[j]! > workEnd[a]! ? j : a));
+        if (workEnd[last]! > lane.t) {
+          push(lane, 'wait', workEnd[last]! - lane.t, `Wait for ${taskName(plan.tasks[last], last)} to end`, {
+            taskIndex: step.task,
+          });
+        }
+        return;
+      }
       case 'restraint-in':
         getIn(lane, plan.tasks[step.task], step.task);
         return;
@@ -525,6 +567,7 @@ export function computeTimeline(
         const members = membersOf(task);
         if (!actionsDone.has(step.task)) {
           actionsDone.add(step.task);
+          workEnd[step.task] = lane.t + task.durationSeconds;
           if (members.every((x) => lanes[x].reached)) startWork(task, step.task, lane.t, members);
           if (task.eclipseOnly)
             eclipseTasks.push({ index: step.task, start: lane.t, end: lane.t + task.durationSeconds });
@@ -559,6 +602,9 @@ export function computeTimeline(
   for (;;) {
     const active = CREW.map((m) => lanes[m]).filter((l) => l.pc < l.steps.length);
     if (active.length === 0) break;
+    for (const l of active) {
+      if (l.waitingAt?.startsWith('after:') && afterReady(Number(l.waitingAt.slice(6)))) l.waitingAt = null;
+    }
     const ready = active.filter((l) => l.waitingAt === null);
     if (ready.length === 0 && arms.breakDeadlock(active)) continue;
     if (ready.length === 0) {

@@ -88,7 +88,7 @@ export type DayTask = Pick<
   | 'tools'
   | 'actions'
 > &
-  Partial<Pick<Task, 'arm'>>;
+  Partial<Pick<Task, 'arm' | 'after' | 'optional'>>;
 
 export type DayItem = Pick<ManifestItem, 'name' | 'kind' | 'carriedBy' | 'installedAt'> & {
   key: string;
@@ -247,7 +247,8 @@ export type TimelineWarningCode =
   | 'arm-out-of-reach'
   | 'arm-path-keep-out'
   | 'arm-busy'
-  | 'arm-egress-not-attach';
+  | 'arm-egress-not-attach'
+  | 'after-out-of-order';
 
 export interface TimelineWarning {
   code: TimelineWarningCode;

@@ -8,6 +8,7 @@ import { Select } from '@/components/ui/select';
 import { cn } from '@/lib/cn';
 import { taskFormDefaults, taskFormSchema } from '../lib/task-form-schema';
 import type { PlanStationNodes, StationNodeOption } from '../types';
+import { AfterChips, type OtherTask } from './after-chips';
 import { ItemActionsField, type PlaceOption } from './item-actions-field';
 import { ToolChips } from './tool-chips';
 
@@ -20,6 +21,8 @@ const MAX_PLACES = 40;
 
 interface TaskFormProps {
   task?: Task;
+  /** the plan's other tasks, to start after */
+  others: readonly OtherTask[];
   nodes: PlanStationNodes;
   /** the plan's manifest: items to act on and to need at hand */
   manifest: readonly ManifestItem[];
@@ -32,7 +35,7 @@ interface TaskFormProps {
  * Add or edit one task: where (a searchable list of the station's worksites), who, how long, each
  * member's foot restraint, what it needs at hand and what it does with the manifest's items.
  */
-export function TaskForm({ task, nodes, manifest, onSubmit, onCancel }: TaskFormProps) {
+export function TaskForm({ task, others, nodes, manifest, onSubmit, onCancel }: TaskFormProps) {
   const [search, setSearch] = useState('');
   const [added, setAdded] = useState<ManifestItem[]>([]);
   const known = useMemo(() => [...manifest, ...added], [manifest, added]);
@@ -146,6 +149,10 @@ export function TaskForm({ task, nodes, manifest, onSubmit, onCancel }: TaskForm
           <input type="checkbox" className="size-4 accent-accent" {...register('carrying')} />
           Carrying a large item on the way
         </label>
+        <label className="flex items-center gap-2 text-sm font-medium text-text-strong">
+          <input type="checkbox" className="size-4 accent-accent" {...register('optional')} />
+          Optional (get-ahead work that can be dropped)
+        </label>
       </div>
       {crew === 'both' ? (
         <fieldset className="grid gap-4 sm:grid-cols-2">
@@ -177,6 +184,11 @@ export function TaskForm({ task, nodes, manifest, onSubmit, onCancel }: TaskForm
             error={fieldState.error?.message}
           />
         )}
+      />
+      <Controller
+        control={control}
+        name="after"
+        render={({ field }) => <AfterChips value={field.value} onChange={field.onChange} others={others} />}
       />
       <ItemActionsField form={form} manifest={known} places={places} />
       <Field label="Notes" error={errors.notes?.message}>

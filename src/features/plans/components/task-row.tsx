@@ -35,6 +35,8 @@ interface TaskRowProps {
   worksiteLabel?: string;
   reach?: TaskReach;
   warnings: number;
+  /** 1-based positions of the tasks this one waits for */
+  after: number[];
   /** this row is being dragged */
   dragged: boolean;
   /** another row is being dragged over this one */
@@ -55,6 +57,7 @@ export function TaskRow({
   worksiteLabel,
   reach,
   warnings,
+  after,
   dragged,
   dropTarget,
   rowRef,
@@ -100,6 +103,12 @@ export function TaskRow({
         <div className="flex flex-wrap gap-1.5">
           {t.eclipseOnly && <Badge tone="accent">☾ Eclipse only</Badge>}
           {t.carrying && <Badge tone="neutral">Carrying</Badge>}
+          {t.optional && <Badge tone="neutral">Optional (get-ahead)</Badge>}
+          {after.length > 0 && (
+            <Badge tone="neutral">
+              ⤷ After task{after.length === 1 ? '' : 's'} {after.join(', ')}
+            </Badge>
+          )}
           <ReachStatus reach={reach} />
           {warnings > 0 && (
             <Badge tone="danger">

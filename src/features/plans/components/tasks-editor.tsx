@@ -4,6 +4,7 @@ import { Button } from '@/components/ui/button';
 import { EmptyState } from '@/components/ui/card';
 import { Dialog } from '@/components/ui/dialog';
 import { moveItem } from '../lib/plan-draft';
+import { afterPositions, removeTask, waitingFor } from '../lib/task-order';
 import type { PlanStationNodes, TaskReach } from '../types';
 import { TaskForm } from './task-form';
 import { TaskRow } from './task-row';
@@ -62,6 +63,22 @@ export function TasksEditor({
     }
   };
 
+  // what the task being edited may wait for: the others, but not one that waits for it already
+  const editingId = typeof editing === 'number' ? tasks[editing]?.id : undefined;
+  const blocked = editingId === undefined ? new Set<number>() : waitingFor(tasks, editingId);
+  const otherTasks = tasks.flatMap((t, i) =>
+    i === editing
+      ? []
+      : [
+          {
+            id: t.id,
+            title: t.title,
+            position: i + 1,
+            waitsForThis: t.id !== undefined && blocked.has(t.id),
+          },
+        ],
+  );
+
   const save = (task: Task, added: ManifestItem[]) => {
     if (editing === 'new') {
       onChange([...tasks, task], added);
@@ -97,6 +114,7 @@ export function TasksEditor({
                 (x) => x.taskIndex === i && x.socket === t.socket && x.worksite === t.worksite,
               )}
               warnings={warningCounts.get(i) ?? 0}
+              after={afterPositions(tasks, t.after)}
               dragged={dragFrom === i}
               dropTarget={dropAt === i && dragFrom !== i}
               rowRef={(el) => {
@@ -128,7 +146,7 @@ export function TasksEditor({
               onMove={(to) => move(i, to)}
               onEdit={() => setEditing(i)}
               onRemove={() => {
-                onChange(tasks.filter((_, k) => k !== i));
+                onChange(removeTask(tasks, i));
                 setAnnouncement(`Removed task “${t.title}”.`);
               }}
             />
@@ -150,6 +168,7 @@ export function TasksEditor({
       >
         <TaskForm
           task={typeof editing === 'number' ? tasks[editing] : undefined}
+          others={otherTasks}
           nodes={nodes}
           manifest={manifest}
           onSubmit={save}

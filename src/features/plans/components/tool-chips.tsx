@@ -1,9 +1,9 @@
 import { useId, useState } from 'react';
 import type { ManifestItem, TaskCrew } from '@shared/schemas/plan';
-import { Button, focusRing } from '@/components/ui/button';
+import { Button } from '@/components/ui/button';
 import { Input } from '@/components/ui/input';
-import { cn } from '@/lib/cn';
 import { newManifestItem } from '../lib/task-form-schema';
+import { ToggleChip } from './toggle-chip';
 
 interface ToolChipsProps {
   /** item keys (or, from older plans, names no item answers to) */
@@ -37,28 +37,12 @@ export function ToolChips({ value, onChange, manifest, crew, onAddItem, error }:
     setNameError(undefined);
   };
 
-  const chip = (key: string, label: string, missing: boolean) => {
-    const on = value.includes(key);
-    return (
-      <button
-        key={key}
-        type="button"
-        aria-pressed={on}
-        onClick={() => toggle(key)}
-        className={cn(
-          'rounded-full border px-3 py-1 text-sm',
-          focusRing,
-          on
-            ? 'border-accent bg-accent-soft font-medium text-accent-strong'
-            : 'border-surface-line bg-surface-panel text-text',
-        )}
-      >
-        <span aria-hidden="true">{on ? '✓ ' : '+ '}</span>
-        {label}
-        {missing && <span className="ml-1 text-danger">(not in manifest)</span>}
-      </button>
-    );
-  };
+  const chip = (key: string, label: string, missing: boolean) => (
+    <ToggleChip key={key} on={value.includes(key)} onToggle={() => toggle(key)}>
+      {label}
+      {missing && <span className="ml-1 text-danger">(not in manifest)</span>}
+    </ToggleChip>
+  );
 
   return (
     <fieldset className="space-y-2">

@@ -43,6 +43,7 @@ const HEADINGS: Record<TimelineWarningCode, { heading: string; severity: Severit
   'arm-path-keep-out': { heading: 'Arm path through a keep-out volume', severity: 'danger' },
   'arm-busy': { heading: 'Arm in use: rider waits', severity: 'caution' },
   'arm-egress-not-attach': { heading: 'Arm egress is not an attach point', severity: 'danger' },
+  'after-out-of-order': { heading: 'Starts after a later task', severity: 'danger' },
 };
 
 const MARK = { danger: '⚠', caution: '△', note: 'ⓘ' } as const;

@@ -69,6 +69,8 @@ const TASK_FIELDS: { key: keyof Task; label: string; show: (t: Task) => string }
   { key: 'sockets', label: 'sockets', show: (t) => (t.sockets ? JSON.stringify(t.sockets) : 'none') },
   { key: 'actions', label: 'item actions', show: (t) => String(t.actions.length) },
   { key: 'tools', label: 'tools', show: (t) => t.tools.join(', ') || 'none' },
+  { key: 'after', label: 'starts after', show: (t) => t.after.join(', ') || 'none' },
+  { key: 'optional', label: 'optional', show: (t) => (t.optional ? 'yes' : 'no') },
   { key: 'notes', label: 'notes', show: (t) => (t.notes ? q(t.notes) : 'none') },
 ];
 

@@ -39,6 +39,8 @@ const TaskFieldsSchema = z.object({
   socket: blank(KeyField),
   sockets: z.object({ EV1: blank(KeyField), EV2: blank(KeyField) }),
   tools: TaskSchema.shape.tools.unwrap(),
+  after: TaskSchema.shape.after.unwrap(),
+  optional: z.boolean(),
   actions: z
     .array(ActionRowSchema)
     .max(MAX_ACTIONS_PER_TASK, `at most ${MAX_ACTIONS_PER_TASK} item actions per task`),
@@ -74,6 +76,8 @@ function toTask(v: z.output<typeof TaskFieldsSchema>): TaskFormTask {
       ...(a.by && v.crew === 'both' ? { by: a.by } : {}),
       ...(a.at && a.do !== 'hand-over' ? { at: a.at } : {}),
     })),
+    after: v.after,
+    optional: v.optional,
     ...(v.notes.trim() ? { notes: v.notes } : {}),
   };
 }
@@ -125,6 +129,8 @@ export function taskFormDefaults(task: Task | undefined, manifest: readonly Mani
       by: a.by ?? '',
       at: a.at ?? '',
     })),
+    after: task?.after ?? [],
+    optional: task?.optional ?? false,
     notes: task?.notes ?? '',
   };
 }

@@ -52,7 +52,16 @@ export function usePlanDraft(plan: PlanView, editable: boolean) {
     update.mutate(
       { id: plan.id, data: changes },
       {
-        onSuccess: (saved) => setBase({ draft: sent, version: saved.version }),
+        onSuccess: (saved) => {
+          // new tasks get their ids from the save, so other tasks can name them in `after`
+          const withId = (t: PlanDraft['tasks'][number]) => {
+            const k = sent.tasks.indexOf(t);
+            const id = k >= 0 && t.id === undefined ? saved.tasks[k]?.id : undefined;
+            return id === undefined ? t : { ...t, id };
+          };
+          setBase({ draft: { ...sent, tasks: sent.tasks.map(withId) }, version: saved.version });
+          setDraft((d) => ({ ...d, tasks: d.tasks.map(withId) }));
+        },
         onError: async (error) => {
           const stale = staleVersionOf(error);
           if (!stale) return;

@@ -1,0 +1,80 @@
+import { act } from 'react';
+import { afterEach, describe, expect, it } from 'vitest';
+import type { Task } from '@shared/schemas/plan';
+import { TasksEditor } from '@/features/plans/components/tasks-editor';
+import { waitingFor } from '@/features/plans/lib/task-order';
+import { render, type Rendered } from './render';
+
+const task = (id: number, title: string, more: Partial<Task> = {}): Task => ({
+  id,
+  title,
+  worksite: 'W1',
+  crew: 'EV1',
+  durationSeconds: 600,
+  eclipseOnly: false,
+  carrying: false,
+  tools: [],
+  actions: [],
+  after: [],
+  optional: false,
+  ...more,
+});
+
+const tasks = [
+  task(1, 'Open the panel'),
+  task(2, 'Swap the box', { after: [1], optional: true }),
+  task(3, 'Close the panel', { after: [1, 2] }),
+];
+
+let rendered: Rendered | null = null;
+afterEach(() => rendered?.unmount());
+
+describe('task order in the task list', () => {
+  it('each row says which tasks it starts after and whether it is optional', async () => {
+    rendered = await render(
+      <TasksEditor
+        tasks={tasks}
+        onChange={() => {}}
+        readOnly={false}
+        nodes={{ worksites: [], sockets: [] }}
+        manifest={[]}
+        reach={[]}
+        warningCounts={new Map()}
+      />,
+    );
+    const row = (n: number) => rendered!.container.querySelector(`#plan-task-${n}`)!.textContent;
+    expect(row(1)).not.toContain('After');
+    expect(row(2)).toContain('After task 1');
+    expect(row(2)).toContain('Optional (get-ahead)');
+    expect(row(3)).toContain('After tasks 1, 2');
+  });
+
+  it('removing a task takes it out of the `after` of the tasks that waited for it', async () => {
+    let latest: Task[] = tasks;
+    rendered = await render(
+      <TasksEditor
+        tasks={tasks}
+        onChange={(next) => {
+          latest = next;
+        }}
+        readOnly={false}
+        nodes={{ worksites: [], sockets: [] }}
+        manifest={[]}
+        reach={[]}
+        warningCounts={new Map()}
+      />,
+    );
+    const remove = rendered.container.querySelector<HTMLButtonElement>('[aria-label="Remove task 1"]')!;
+    await act(async () => remove.click());
+    expect(latest.map((t) => [t.id, t.after])).toEqual([
+      [2, []],
+      [3, [2]],
+    ]);
+  });
+
+  it('the tasks that wait for a task, directly or through others, cannot be chosen to come before it', () => {
+    expect([...waitingFor(tasks, 1)].sort()).toEqual([2, 3]);
+    expect([...waitingFor(tasks, 2)]).toEqual([3]);
+    expect([...waitingFor(tasks, 3)]).toEqual([]);
+  });
+});
