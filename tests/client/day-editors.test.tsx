@@ -2,6 +2,7 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import { cleanup, render, screen, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import type { ManifestItem, Task } from '@shared/schemas/plan';
+import type { OtherTask } from '@/features/plans/components/after-chips';
 import { TaskForm } from '@/features/plans/components/task-form';
 import { ManifestEditor } from '@/features/plans/components/manifest-editor';
 import { TimelineChart } from '@/features/plans/components/timeline-chart';
@@ -119,12 +120,12 @@ const task: Task = {
   actions: [],
 };
 
-function renderTaskForm(given: Task = task) {
+function renderTaskForm(given: Task = task, others: OtherTask[] = []) {
   const onSubmit = vi.fn<(task: Task, added: ManifestItem[]) => void>();
   render(
     <TaskForm
       task={given}
-      others={[]}
+      others={others}
       nodes={nodes}
       manifest={manifest}
       onSubmit={onSubmit}
@@ -135,6 +136,26 @@ function renderTaskForm(given: Task = task) {
 }
 
 const apply = () => screen.getByRole('button', { name: 'Apply changes' });
+
+describe('task form: order between tasks', () => {
+  it('starts after the tasks chosen, is marked optional, and offers no task that waits for it', async () => {
+    const { onSubmit, user } = renderTaskForm({ ...task, id: 3 }, [
+      { id: 1, title: 'Stage the bag', position: 1, waitsForThis: false },
+      { id: 2, title: 'Close out', position: 2, waitsForThis: true },
+      { title: 'Just added', position: 4, waitsForThis: false },
+    ]);
+    expect(screen.getByRole('button', { name: /2\. Close out/ }).hasAttribute('disabled')).toBe(true);
+    expect(screen.getByRole('button', { name: /4\. Just added/ }).hasAttribute('disabled')).toBe(true);
+    await user.click(screen.getByRole('button', { name: /1\. Stage the bag/ }));
+    await user.click(screen.getByLabelText(/Optional/));
+    await user.click(apply());
+    expect(onSubmit).toHaveBeenCalledOnce();
+    const [saved] = onSubmit.mock.calls[0];
+    expect(saved.after).toEqual([1]);
+    expect(saved.optional).toBe(true);
+    expect(saved.id).toBe(3);
+  });
+});
 
 describe('task form: foot restraints for a task for both', () => {
   it('names each member’s socket, and refuses one restraint for two people', async () => {

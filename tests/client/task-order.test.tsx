@@ -1,9 +1,9 @@
-import { act } from 'react';
-import { afterEach, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
+import { render, screen } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
 import type { Task } from '@shared/schemas/plan';
 import { TasksEditor } from '@/features/plans/components/tasks-editor';
 import { waitingFor } from '@/features/plans/lib/task-order';
-import { render, type Rendered } from './render';
 
 const task = (id: number, title: string, more: Partial<Task> = {}): Task => ({
   id,
@@ -26,12 +26,9 @@ const tasks = [
   task(3, 'Close the panel', { after: [1, 2] }),
 ];
 
-let rendered: Rendered | null = null;
-afterEach(() => rendered?.unmount());
-
 describe('task order in the task list', () => {
   it('each row says which tasks it starts after and whether it is optional', async () => {
-    rendered = await render(
+    const { container } = render(
       <TasksEditor
         tasks={tasks}
         onChange={() => {}}
@@ -42,7 +39,7 @@ describe('task order in the task list', () => {
         warningCounts={new Map()}
       />,
     );
-    const row = (n: number) => rendered!.container.querySelector(`#plan-task-${n}`)!.textContent;
+    const row = (n: number) => container.querySelector(`#plan-task-${n}`)!.textContent;
     expect(row(1)).not.toContain('After');
     expect(row(2)).toContain('After task 1');
     expect(row(2)).toContain('Optional (get-ahead)');
@@ -51,7 +48,7 @@ describe('task order in the task list', () => {
 
   it('removing a task takes it out of the `after` of the tasks that waited for it', async () => {
     let latest: Task[] = tasks;
-    rendered = await render(
+    render(
       <TasksEditor
         tasks={tasks}
         onChange={(next) => {
@@ -64,8 +61,7 @@ describe('task order in the task list', () => {
         warningCounts={new Map()}
       />,
     );
-    const remove = rendered.container.querySelector<HTMLButtonElement>('[aria-label="Remove task 1"]')!;
-    await act(async () => remove.click());
+    await userEvent.setup().click(screen.getByRole('button', { name: 'Remove task 1' }));
     expect(latest.map((t) => [t.id, t.after])).toEqual([
       [2, []],
       [3, [2]],

@@ -89,7 +89,8 @@ function toTask(v: z.output<typeof TaskFieldsSchema>): TaskFormTask {
 export function taskFormSchema(manifest: readonly ManifestItem[]) {
   return TaskFieldsSchema.transform(toTask).superRefine((task, ctx) => {
     for (const p of planReferenceProblems([task], manifest)) {
-      if (p.path[0] !== 'tasks') continue;
+      // `after` names the plan's other tasks, which the form does not hold: the editor offers only those
+      if (p.path[0] !== 'tasks' || p.path[2] === 'after') continue;
       ctx.addIssue({ code: 'custom', path: p.path.slice(2), message: p.message });
     }
   });
