@@ -366,9 +366,11 @@ function addBlock(
         start: block.start,
         end: block.end,
         title: block.label,
-        detail: into
-          ? `Get into the foot restraint on socket ${socket}.${angles}`
-          : `Get out of the foot restraint on socket ${socket}.`,
+        detail: block.arm
+          ? `${block.label}.`
+          : into
+            ? `Get into the foot restraint on socket ${socket}.${angles}`
+            : `Get out of the foot restraint on socket ${socket}.`,
         nodeKey: b.at,
         socketKey: socket,
         paidOutM: b.paid,

@@ -81,10 +81,15 @@ export function stepCallout(step: WalkStep): string {
       const words = describeSwap(step.clipKey ?? step.nodeKey, step.releaseKey ?? step.anchorKey);
       return `${words.title}: ${words.instruction}`;
     }
+    // on an arm's end there is no socket: the step's own title says which arm and where
     case 'restraint-in':
-      return `Foot restraint in: set the restraint on socket ${step.socketKey} and get in`;
+      return step.socketKey
+        ? `Foot restraint in: set the restraint on socket ${step.socketKey} and get in`
+        : step.title;
     case 'restraint-out':
-      return `Foot restraint out: get out of the restraint on socket ${step.socketKey}`;
+      return step.socketKey
+        ? `Foot restraint out: get out of the restraint on socket ${step.socketKey}`
+        : step.title;
     case 'work':
       return step.socketKey
         ? `${step.title} — working from the foot restraint on ${step.socketKey}`
