@@ -76,6 +76,7 @@ const MATRIX: Record<string, Who> = {
   'POST /api/plans/:id/approve': PLANNERS,
   'POST /api/plans/:id/return': PLANNERS,
   'GET /api/plans/:id/timeline': 'everyone',
+  'POST /api/plans/:id/timeline-preview': 'everyone',
   'POST /api/plans/:id/duplicate': PLANNERS,
   'GET /api/plans/:id/revisions': 'everyone',
   'GET /api/plans/:id/compare': 'everyone',

@@ -1,7 +1,8 @@
 import type { AppContext } from '../../context';
 import type { DayStart } from '@shared/compute/day/types';
 import { getCompiledStationAt, stationVersion } from '../compute/compiled-cache';
-import { getPlan, type PlanView } from './plans.service';
+import type { PreviewPlanInput } from '@shared/schemas/sequence';
+import { assertKeys, getPlan, stationDocFor, type PlanView } from './plans.service';
 import { dayOutputOn, planTimelineOn, type DayExtra, type DayOutput, type DayResult } from './plan-day';
 
 export type { PlanTimeline } from '@shared/schemas/plan-views';
@@ -58,4 +59,27 @@ export async function planDayOutput(
     extra,
   });
   return { plan, result };
+}
+
+/**
+ * The timeline the saved plan would have with `input`'s fields laid over it, as JSON text; the
+ * fields are checked as an edit's would be (station keys, references, order), and nothing is saved.
+ */
+export async function previewTimeline(
+  ctx: AppContext,
+  planId: number,
+  input: PreviewPlanInput,
+): Promise<string> {
+  const saved = getPlan(ctx.db, planId);
+  const { betaDegOverride, ...fields } = input;
+  const plan: PlanView = { ...saved, ...fields };
+  if (betaDegOverride !== undefined) {
+    if (betaDegOverride === null) delete plan.betaDegOverride;
+    else plan.betaDegOverride = betaDegOverride;
+  }
+  if (input.stationId !== undefined) stationDocFor(ctx, input.stationId);
+  if (input.stationId !== undefined || input.tasks !== undefined || input.manifest !== undefined)
+    assertKeys(planStation(ctx, plan).doc, plan.tasks, plan.manifest);
+  const { result } = await planDayOutput(ctx, planId, 'timeline', { plan });
+  return 'text' in result ? result.text : '';
 }

@@ -23,7 +23,8 @@ import {
   submitPlan,
   updatePlan,
 } from './plans.service';
-import { planDayOutput } from './plan-timeline.service';
+import { PreviewPlanInputSchema } from '@shared/schemas/sequence';
+import { planDayOutput, previewTimeline } from './plan-timeline.service';
 import { planChangeControl } from './plan-station.service';
 import { seriesStartOf } from '../series/series.service';
 import { comparePlans, listPlanRevisions, previousSubmissionVersion } from './plan-revisions.service';
@@ -165,6 +166,14 @@ export function plansRouter(ctx: AppContext) {
         });
         return new JsonText('text' in result ? result.text : '');
       },
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/:id/timeline-preview',
+      access: 'read',
+      input: { params: IdParamsSchema, body: PreviewPlanInputSchema },
+      handler: async (_req, _res, { params, body }) =>
+        new JsonText(await previewTimeline(ctx, params.id, body)),
     }),
     defineRoute({
       method: 'get',

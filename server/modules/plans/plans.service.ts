@@ -260,7 +260,7 @@ export function checkTaskKeys(
   return details;
 }
 
-function stationDocFor(ctx: AppContext, stationId: number): StationDocument {
+export function stationDocFor(ctx: AppContext, stationId: number): StationDocument {
   if (stationVersion(ctx.db, stationId) === null) {
     throw badRequest(`There is no station ${stationId}.`, [
       { path: 'body.stationId', message: 'no such station' },
@@ -269,7 +269,11 @@ function stationDocFor(ctx: AppContext, stationId: number): StationDocument {
   return getCompiledStation(ctx, stationId).doc;
 }
 
-function assertKeys(doc: StationDocument, planTasks: readonly Task[], manifest: readonly ManifestItem[]) {
+export function assertKeys(
+  doc: StationDocument,
+  planTasks: readonly Task[],
+  manifest: readonly ManifestItem[],
+) {
   const details = [
     ...planReferenceProblems(planTasks, manifest).map((p) => ({
       path: `body.${formatIssuePath(p.path)}`,
