@@ -487,3 +487,45 @@ export const mailboxMessages = sqliteTable('mailbox_messages', {
   text: text('text').notNull(),
   receivedAt: text('received_at').notNull(),
 });
+
+// ── Runs: an approved plan as it is flown ───────────────────────────────────────────────────────
+
+/** A run keeps the plan as it was opened on (JSON), so a later edit of the plan never changes it. */
+export const runs = sqliteTable(
+  'runs',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    planId: integer('plan_id')
+      .notNull()
+      .references(() => plans.id, { onDelete: 'cascade' }),
+    planVersion: integer('plan_version').notNull(),
+    planJson: text('plan_json').notNull(),
+    /** EVA elapsed time 0, ISO */
+    startedAt: text('started_at').notNull(),
+    openedBy: integer('opened_by').references(() => users.id, { onDelete: 'set null' }),
+    /** bumped by every event appended */
+    version: integer('version').notNull().default(1),
+    createdAt: timestamps.createdAt,
+  },
+  (t) => [index('runs_plan_idx').on(t.planId)],
+);
+
+/** What happened during a run: append-only, each row naming who logged it and when. */
+export const runEvents = sqliteTable(
+  'run_events',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    runId: integer('run_id')
+      .notNull()
+      .references(() => runs.id, { onDelete: 'cascade' }),
+    crew: text('crew', { enum: ['EV1', 'EV2'] }).notNull(),
+    kind: text('kind').notNull(),
+    taskId: integer('task_id'),
+    /** seconds of EVA elapsed time */
+    at: real('at').notNull(),
+    text: text('text'),
+    userId: integer('user_id').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: timestamps.createdAt,
+  },
+  (t) => [index('run_events_run_idx').on(t.runId)],
+);

@@ -11,6 +11,7 @@ import { computeRouter } from './compute/compute.router';
 import { plansRouter } from './plans/plans.router';
 import { walkthroughsRouter } from './walkthroughs/walkthroughs.router';
 import { seriesRouter } from './series/series.router';
+import { runsRouter } from './runs/runs.router';
 
 /** Every API module, mounted in this order. Add a module's router here. */
 export const apiModules: ((ctx: AppContext) => Router)[] = [
@@ -25,4 +26,5 @@ export const apiModules: ((ctx: AppContext) => Router)[] = [
   plansRouter,
   seriesRouter,
   walkthroughsRouter,
+  runsRouter,
 ];

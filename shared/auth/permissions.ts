@@ -35,6 +35,7 @@ export const PERMISSIONS = {
   'annotations:write': 'Pin notes to the model, reply, attach images, resolve',
   'walkthroughs:edit': 'Create and edit saved walkthroughs',
   'server:stats': "See the compute workers' load and the memory their caches take",
+  'runs:fly': 'Open runs of approved plans and log what happens during the EVA',
 } as const;
 export type Permission = keyof typeof PERMISSIONS;
 
@@ -42,7 +43,7 @@ const ALL = Object.keys(PERMISSIONS) as Permission[];
 
 export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
   admin: ALL,
-  planner: ['read', 'plans:edit', 'plans:submit', 'plans:review', 'annotations:write'],
+  planner: ['read', 'plans:edit', 'plans:submit', 'plans:review', 'annotations:write', 'runs:fly'],
   engineer: ['read', 'stations:edit', 'stations:import', 'sockets:save', 'annotations:write'],
   trainer: ['read', 'annotations:write', 'walkthroughs:edit'],
   viewer: ['read'],

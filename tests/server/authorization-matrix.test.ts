@@ -92,6 +92,10 @@ const MATRIX: Record<string, Who> = {
   'GET /api/walkthroughs/:id': 'everyone',
   'PATCH /api/walkthroughs/:id': TRAINERS,
   'DELETE /api/walkthroughs/:id': TRAINERS,
+  'POST /api/plans/:id/runs': PLANNERS,
+  'GET /api/plans/:id/runs': 'everyone',
+  'GET /api/runs/:id': 'everyone',
+  'POST /api/runs/:id/events': PLANNERS,
 };
 
 let t: TestApp;

@@ -226,7 +226,15 @@ export class RoutePool {
       version: job.version,
       ...('request' in job
         ? { request: job.request }
-        : { day: { plan: job.plan, output: job.output, start: job.start, extra: job.extra } }),
+        : {
+            day: {
+              plan: job.plan,
+              output: job.output,
+              start: job.start,
+              extra: job.extra,
+              ...(job.run ? { run: job.run } : {}),
+            },
+          }),
     };
     if (withDocument) msg.doc = job.doc;
     slot.held.delete(job.station);

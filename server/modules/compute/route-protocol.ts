@@ -1,9 +1,10 @@
 import type { RouteRequest } from '@shared/schemas/route';
 import type { DayStart } from '@shared/compute/day/types';
-import type { DayExtra } from '../plans/plan-day';
 import type { PlanView } from '@shared/schemas/plan-views';
 import type { StationDocument } from '@shared/schemas/station';
 import type { ClipBuildEvent } from './clip-builder';
+import type { DayExtra, DayOutput } from '../plans/plan-day';
+import type { RunWork } from '../runs/run-day';
 import type { ErrorCode, ErrorDetail } from '@shared/errors';
 
 /** What a route worker starts with. */
@@ -27,10 +28,11 @@ export const WORKER_STATIONS = 4;
 /** A plan's day to compute on the worker's station: the timeline as JSON text, or an export of it. */
 export interface DayWork {
   plan: PlanView;
-  output: 'timeline' | 'csv' | 'pdf';
+  output: DayOutput;
   /** where the day's items start, when an earlier EVA of a series left them somewhere */
   start?: DayStart;
   extra?: DayExtra;
+  run?: RunWork;
 }
 
 /**

@@ -38,7 +38,14 @@ async function answer(msg: RouteMessage): Promise<WorkerReply> {
   held.set(msg.station, entry);
   while (held.size > WORKER_STATIONS) held.delete(held.keys().next().value!);
   if (msg.day) {
-    const out = await dayOutputOn(entry, msg.day.plan, msg.day.output, msg.day.start, msg.day.extra);
+    const out = await dayOutputOn(
+      entry,
+      msg.day.plan,
+      msg.day.output,
+      msg.day.start,
+      msg.day.extra,
+      msg.day.run,
+    );
     return 'text' in out
       ? { kind: 'result', id: msg.id, json: out.text, compiled, clip: clipMemory() }
       : { kind: 'bytes', id: msg.id, bytes: out.bytes, compiled, clip: clipMemory() };

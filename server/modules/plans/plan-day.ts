@@ -1,21 +1,13 @@
 import { computeTimeline } from '@shared/compute/day/timeline';
 import type { DayStart } from '@shared/compute/day/types';
-import { dayStationOf } from '@shared/compute/day/station';
 import { toWire } from '@shared/compute/day/wire';
-import type { CompiledStation } from '@shared/compute/compiled-station';
 import type { PlanTimeline, PlanView } from '@shared/schemas/plan-views';
-import type { StationDocument } from '@shared/schemas/station';
 import { PLANNING_CAUTION } from '@shared/caution';
-import { badRequest } from '../../lib/http-error';
-import { routeOffPath } from '../compute/clip-builder';
 import { timelineCsv, timelinePdf } from './plan-export.service';
+import { runViewOn, type RunWork } from '../runs/run-day';
+import { dayOf, type DayStationVersion } from './day-of';
 
-/** A station version as the day is computed on it: the document and its compiled index. */
-export interface DayStationVersion {
-  doc: StationDocument;
-  compiled: CompiledStation;
-  version: number;
-}
+export type { DayStationVersion } from './day-of';
 
 /**
  * The plan's day on one station version: one pass over the day's state (routes from each crew
@@ -28,29 +20,21 @@ export function planTimelineOn(
   start: DayStart = {},
   extra: DayExtra = {},
 ): PlanTimeline {
-  const { doc, compiled, version } = station;
-  const day = dayStationOf(doc, compiled);
-  if (!day)
-    throw badRequest(`The station "${doc.name}" has no airlock, so no EVA day can be laid out on it.`);
-  const timeline = computeTimeline(
-    { ...plan, manifest: plan.manifest.map((m, i) => ({ ...m, key: m.key ?? `item-${i + 1}` })) },
-    day,
-    (request) => routeOffPath(compiled, doc, request),
-    start,
-  );
+  const { day, dayPlan, route } = dayOf(station, plan);
+  const timeline = computeTimeline(dayPlan, day, route, start);
   return {
     ...timeline,
     ...extra,
     planId: plan.id,
     planVersion: plan.version,
     stationId: plan.stationId,
-    stationVersion: version,
+    stationVersion: station.version,
     airlockKey: day.airlockKey,
     caution: PLANNING_CAUTION,
   };
 }
 
-export type DayOutput = 'timeline' | 'csv' | 'pdf';
+export type DayOutput = 'timeline' | 'csv' | 'pdf' | 'run';
 
 /** What the server adds to a day it computes: whether the plan's station moved on since approval. */
 export type DayExtra = Partial<Pick<PlanTimeline, 'stationChangedSinceApproval' | 'stationChanges'>>;
@@ -65,7 +49,12 @@ export async function dayOutputOn(
   output: DayOutput,
   start: DayStart = {},
   extra: DayExtra = {},
+  run?: RunWork,
 ): Promise<DayResult> {
+  if (output === 'run') {
+    if (!run) throw new Error('internal: a run job without its run');
+    return { text: JSON.stringify(runViewOn(station, plan, run)) };
+  }
   const timeline = planTimelineOn(station, plan, start, extra);
   if (output === 'timeline') return { text: JSON.stringify(toWire(timeline)) };
   if (output === 'csv') return { text: timelineCsv(plan, timeline) };

@@ -3,6 +3,7 @@ import type { DayStart } from '@shared/compute/day/types';
 import { getCompiledStationAt, stationVersion } from '../compute/compiled-cache';
 import type { PreviewPlanInput } from '@shared/schemas/sequence';
 import { assertKeys, getPlan, stationDocFor, type PlanView } from './plans.service';
+import type { RunWork } from '../runs/run-day';
 import { dayOutputOn, planTimelineOn, type DayExtra, type DayOutput, type DayResult } from './plan-day';
 
 export type { PlanTimeline } from '@shared/schemas/plan-views';
@@ -41,12 +42,12 @@ export async function planDayOutput(
   ctx: AppContext,
   planId: number,
   output: DayOutput,
-  more: { start?: DayStart; extra?: DayExtra; plan?: PlanView } = {},
+  more: { start?: DayStart; extra?: DayExtra; plan?: PlanView; run?: RunWork } = {},
 ): Promise<{ plan: PlanView; result: DayResult }> {
   const plan = more.plan ?? getPlan(ctx.db, planId);
   const station = planStation(ctx, plan);
-  const { start = {}, extra = {} } = more;
-  if (!ctx.routePool) return { plan, result: await dayOutputOn(station, plan, output, start, extra) };
+  const { start = {}, extra = {}, run } = more;
+  if (!ctx.routePool) return { plan, result: await dayOutputOn(station, plan, output, start, extra, run) };
   const live = station.version === stationVersion(ctx.db, plan.stationId);
   const result = await ctx.routePool.day({
     // a kept version is held by the worker beside the live one, not in its place
@@ -57,6 +58,7 @@ export async function planDayOutput(
     output,
     start,
     extra,
+    ...(run ? { run } : {}),
   });
   return { plan, result };
 }

@@ -16,11 +16,13 @@ import { ArmDesk, armIngressOf, armRole } from './arm-session';
 import { ItemLedger, describeWhere, placeWhere, sameWhere } from './items';
 import type {
   CrewTimeline,
+  DayFlown,
   DayPlan,
   DayRouteFn,
   DayStart,
   DayStation,
   DayTask,
+  FlownWork,
   TaskReach,
   TetherState,
   Timeline,
@@ -249,7 +251,8 @@ export function computeTimeline(
       pc: 0,
       waitingAt: null,
     };
-    if (plan.egressSeconds > 0) push(lanes[m], 'egress', plan.egressSeconds, 'Egress');
+    const egressSeconds = flownEgress(plan.egressSeconds, start.flown, m);
+    if (egressSeconds > 0) push(lanes[m], 'egress', egressSeconds, 'Egress');
   }
 
   const pending: Pending[] = [];
@@ -390,8 +393,13 @@ export function computeTimeline(
   };
 
   /** Checks a task's tools and its item actions at the start of its work; schedules the effects. */
-  const startWork = (task: DayTask, i: number, start: number, members: readonly CrewMember[]) => {
-    const end = start + task.durationSeconds;
+  const startWork = (
+    task: DayTask,
+    i: number,
+    start: number,
+    members: readonly CrewMember[],
+    end = start + task.durationSeconds,
+  ) => {
     for (const tool of new Set(task.tools)) {
       const items = toolItems(tool);
       if (items.length === 0) continue;
@@ -565,15 +573,26 @@ export function computeTimeline(
       case 'work': {
         const task = plan.tasks[step.task];
         const members = membersOf(task);
+        const span = flownSpan(lane.t, task.durationSeconds, start.flown, flownWork(start.flown, task, m));
+        if (span.start > lane.t) {
+          push(
+            lane,
+            'wait',
+            span.start - lane.t,
+            `Behind the plan: ${task.title} starts at ${hm(span.start)}`,
+            {
+              taskIndex: step.task,
+            },
+          );
+        }
         if (!actionsDone.has(step.task)) {
           actionsDone.add(step.task);
-          workEnd[step.task] = lane.t + task.durationSeconds;
-          if (members.every((x) => lanes[x].reached)) startWork(task, step.task, lane.t, members);
-          if (task.eclipseOnly)
-            eclipseTasks.push({ index: step.task, start: lane.t, end: lane.t + task.durationSeconds });
+          workEnd[step.task] = span.end;
+          if (members.every((x) => lanes[x].reached)) startWork(task, step.task, lane.t, members, span.end);
+          if (task.eclipseOnly) eclipseTasks.push({ index: step.task, ...span });
         }
         const socket = lane.restraint ?? undefined;
-        push(lane, 'work', task.durationSeconds, task.title, {
+        push(lane, 'work', span.end - span.start, task.title, {
           taskIndex: step.task,
           ...(task.id === undefined ? {} : { taskId: task.id }),
           ...(socket ? { socket } : {}),
@@ -593,7 +612,9 @@ export function computeTimeline(
         return;
       case 'ingress': {
         for (const item of ledger.heldBy(m)) ledger.move(item.key, lane.t, { kind: 'airlock' });
-        if (plan.ingressSeconds > 0) push(lane, 'ingress', plan.ingressSeconds, 'Ingress');
+        const span = flownSpan(lane.t, plan.ingressSeconds, start.flown, start.flown?.ingress);
+        if (span.start > lane.t) push(lane, 'wait', span.start - lane.t, 'Behind the plan: ingress');
+        if (span.end > span.start) push(lane, 'ingress', span.end - span.start, 'Ingress');
         return;
       }
     }
@@ -690,6 +711,43 @@ export function computeTimeline(
     nightWindows: shown.filter((w) => w.kind === 'night'),
     warnings,
   };
+}
+
+/** The egress as flown: its logged end, else as planned once passed, else no earlier than now. */
+function flownEgress(planned: number, flown: DayFlown | undefined, m: CrewMember): number {
+  if (!flown) return planned;
+  const end = flown.egressEnd[m];
+  if (end === null) return planned;
+  return end ?? Math.max(planned, flown.now);
+}
+
+/** What a crew member was logged doing in a task; a task for both takes the partner's log when they have none. */
+function flownWork(flown: DayFlown | undefined, task: DayTask, m: CrewMember): FlownWork | undefined {
+  if (!flown || task.id === undefined) return undefined;
+  const logged = flown.work[task.id];
+  return logged?.[m] ?? (task.crew === 'both' ? logged?.[partnerOf(m)] : undefined);
+}
+
+/**
+ * A block as flown, reached at `t`: planned (from `t`) without a flight; a step still ahead starts no
+ * earlier than now; a logged start and end replace the planned ones (never before `t`), and a block
+ * in progress ends no earlier than now.
+ */
+function flownSpan(
+  t: number,
+  seconds: number,
+  flown: DayFlown | undefined,
+  work: FlownWork | undefined,
+): { start: number; end: number } {
+  if (!flown) return { start: t, end: t + seconds };
+  if (!work) {
+    const start = Math.max(t, flown.now);
+    return { start, end: start + seconds };
+  }
+  const start = Math.max(t, work.start ?? t);
+  const planned = (work.start ?? start) + seconds;
+  const end = work.end ?? (work.inProgress ? Math.max(planned, flown.now) : planned);
+  return { start, end: Math.max(start, end) };
 }
 
 function push(

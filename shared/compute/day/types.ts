@@ -120,6 +120,31 @@ export type DayPlan = Pick<
  */
 export interface DayStart {
   items?: Readonly<Record<string, ItemWhere>>;
+  /** the day as flown so far: the rest is re-projected from it */
+  flown?: DayFlown;
+}
+
+/** What a crew member was logged doing in one task (seconds of EVA elapsed time). */
+export interface FlownWork {
+  start?: number;
+  end?: number;
+  /** started and not done by `now`: it ends no earlier than now */
+  inProgress?: boolean;
+}
+
+/**
+ * The day as flown up to `now`, for re-projecting the rest of it with the same pass. A logged time
+ * replaces the planned one; a step with nothing logged that the crew member has moved past keeps
+ * its planned length; a step still ahead starts no earlier than `now`.
+ */
+export interface DayFlown {
+  now: number;
+  /** when each crew member's egress ended; null: not logged, but they have moved on */
+  egressEnd: Partial<Record<CrewMember, number | null>>;
+  /** by task id, then crew member: present once the crew member got to the task or past it */
+  work: Readonly<Record<number, Partial<Record<CrewMember, FlownWork>>>>;
+  /** the shared ingress block, once logged */
+  ingress?: FlownWork;
 }
 
 export type TimelineBlockType =

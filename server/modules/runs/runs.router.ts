@@ -1,0 +1,42 @@
+import type { AppContext } from '../../context';
+import { JsonText, defineRoute, mountRoutes } from '../../lib/route';
+import { IdParamsSchema } from '@shared/schemas/auth';
+import { OpenRunInputSchema, RunEventInputSchema, RunQuerySchema } from '@shared/schemas/run';
+import { appendRunEvent, listRuns, openRun, runViewText } from './runs.service';
+
+/** Runs: an approved plan as it is flown, its append-only events, and the day re-projected from now. */
+export function runsRouter(ctx: AppContext) {
+  return mountRoutes('/api', [
+    defineRoute({
+      method: 'post',
+      path: '/plans/:id/runs',
+      access: 'runs:fly',
+      status: 201,
+      input: { params: IdParamsSchema, body: OpenRunInputSchema },
+      handler: (req, _res, { params, body }) => openRun(ctx, params.id, body, req.user!),
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/plans/:id/runs',
+      access: 'read',
+      input: { params: IdParamsSchema },
+      handler: (_req, _res, { params }) => listRuns(ctx, params.id),
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/runs/:id',
+      access: 'read',
+      input: { params: IdParamsSchema, query: RunQuerySchema },
+      handler: async (_req, _res, { params, query }) =>
+        new JsonText(await runViewText(ctx, params.id, query.at)),
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/runs/:id/events',
+      access: 'runs:fly',
+      status: 201,
+      input: { params: IdParamsSchema, body: RunEventInputSchema },
+      handler: (req, _res, { params, body }) => appendRunEvent(ctx, params.id, body, req.user!),
+    }),
+  ]);
+}

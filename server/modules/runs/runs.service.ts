@@ -1,0 +1,190 @@
+import { asc, desc, eq, sql } from 'drizzle-orm';
+import type { AppContext } from '../../context';
+import type { Db } from '../../db/client';
+import { runEvents, runs, users } from '../../db/schema';
+import { badRequest, conflict, notFound, staleVersion } from '../../lib/http-error';
+import type { PlanView } from '@shared/schemas/plan-views';
+import {
+  MAX_RUN_EVENTS,
+  MAX_RUN_SECONDS,
+  type OpenRunInput,
+  type RunEvent,
+  type RunEventInput,
+  type RunSummary,
+} from '@shared/schemas/run';
+import { recordActivity } from '../activity/activity.service';
+import { planDayOutput } from '../plans/plan-timeline.service';
+import { getPlan, type Actor } from '../plans/plans.service';
+
+interface RunRecord {
+  summary: RunSummary;
+  plan: PlanView;
+}
+
+function readRun(db: Db, id: number): RunRecord {
+  const row = db
+    .select({ run: runs, openedBy: users.name })
+    .from(runs)
+    .leftJoin(users, eq(users.id, runs.openedBy))
+    .where(eq(runs.id, id))
+    .get();
+  if (!row) throw notFound('Run');
+  const plan = JSON.parse(row.run.planJson) as PlanView;
+  return {
+    plan,
+    summary: {
+      id: row.run.id,
+      planId: row.run.planId,
+      planVersion: row.run.planVersion,
+      planTitle: plan.title,
+      startedAt: row.run.startedAt,
+      version: row.run.version,
+      openedBy: row.openedBy,
+      createdAt: row.run.createdAt,
+    },
+  };
+}
+
+function readEvents(db: Db, runId: number): RunEvent[] {
+  return db
+    .select({
+      id: runEvents.id,
+      crew: runEvents.crew,
+      kind: runEvents.kind,
+      taskId: runEvents.taskId,
+      at: runEvents.at,
+      text: runEvents.text,
+      userId: runEvents.userId,
+      userName: users.name,
+      createdAt: runEvents.createdAt,
+    })
+    .from(runEvents)
+    .leftJoin(users, eq(users.id, runEvents.userId))
+    .where(eq(runEvents.runId, runId))
+    .orderBy(asc(runEvents.id))
+    .all() as RunEvent[];
+}
+
+/** Opens a run of an approved plan: the plan is kept as it is now, so later edits never change the run. */
+export function openRun(ctx: AppContext, planId: number, input: OpenRunInput, actor: Actor): RunSummary {
+  const plan = getPlan(ctx.db, planId);
+  if (plan.status !== 'approved')
+    throw conflict(
+      `Only an approved plan can be flown; this one is ${plan.status === 'draft' ? 'a draft' : 'in review'}.`,
+    );
+  const { editors: _editors, ...kept } = plan;
+  const row = ctx.db
+    .insert(runs)
+    .values({
+      planId,
+      planVersion: plan.version,
+      planJson: JSON.stringify(kept),
+      startedAt: new Date(input.startedAt).toISOString(),
+      openedBy: actor.id,
+    })
+    .returning({ id: runs.id })
+    .get();
+  recordActivity(ctx.db, {
+    userId: actor.id,
+    kind: 'run.opened',
+    summary: `${actor.name} opened a run of "${plan.title}"`,
+    link: `/runs/${row.id}`,
+  });
+  return readRun(ctx.db, row.id).summary;
+}
+
+export function listRuns(ctx: AppContext, planId: number): RunSummary[] {
+  getPlan(ctx.db, planId);
+  return ctx.db
+    .select({ id: runs.id })
+    .from(runs)
+    .where(eq(runs.planId, planId))
+    .orderBy(desc(runs.id))
+    .all()
+    .map((r) => readRun(ctx.db, r.id).summary);
+}
+
+/**
+ * Appends one event to a run (never changes or removes one). With `version`, the append is refused
+ * with 409 when someone else logged meanwhile. A task event names a task of the plan that the crew
+ * member takes part in; a task is not done before it started.
+ */
+export function appendRunEvent(
+  ctx: AppContext,
+  runId: number,
+  input: RunEventInput,
+  actor: Actor,
+): { event: RunEvent; version: number } {
+  return ctx.db.transaction((tx) => {
+    const db = tx as unknown as Db;
+    const { summary, plan } = readRun(db, runId);
+    if (input.version !== undefined && input.version !== summary.version) {
+      const last = readEvents(db, runId).at(-1);
+      throw staleVersion('The run', input.version, {
+        currentVersion: summary.version,
+        changedBy: last?.userName ?? null,
+        changedAt: last?.createdAt ?? null,
+      });
+    }
+    const count = db
+      .select({ n: sql<number>`count(*)` })
+      .from(runEvents)
+      .where(eq(runEvents.runId, runId))
+      .get();
+    if ((count?.n ?? 0) >= MAX_RUN_EVENTS) throw conflict(`A run keeps at most ${MAX_RUN_EVENTS} events.`);
+    if (input.taskId !== undefined) {
+      const task = plan.tasks.find((t) => t.id === input.taskId);
+      if (!task)
+        throw badRequest('No task of the plan has this id', [
+          { path: 'body.taskId', message: `no task ${input.taskId}` },
+        ]);
+      if (task.crew !== 'both' && task.crew !== input.crew)
+        throw badRequest(`The task is ${task.crew}'s`, [
+          { path: 'body.crew', message: `task "${task.title}" is done by ${task.crew}, not ${input.crew}` },
+        ]);
+      if (input.kind === 'task-done') {
+        const start = readEvents(db, runId)
+          .filter((e) => e.kind === 'task-start' && e.taskId === input.taskId && e.crew === input.crew)
+          .at(-1);
+        if (start && input.at < start.at)
+          throw badRequest('A task is not done before it started', [
+            { path: 'body.at', message: `task "${task.title}" started at ${start.at} s` },
+          ]);
+      }
+    }
+    const version = summary.version + 1;
+    const row = db
+      .insert(runEvents)
+      .values({
+        runId,
+        crew: input.crew,
+        kind: input.kind,
+        taskId: input.taskId ?? null,
+        at: input.at,
+        text: input.text ?? null,
+        userId: actor.id,
+      })
+      .returning({ id: runEvents.id })
+      .get();
+    db.update(runs).set({ version }).where(eq(runs.id, runId)).run();
+    const event = readEvents(db, runId).find((e) => e.id === row.id)!;
+    return { event, version };
+  });
+}
+
+/** Seconds of EVA elapsed time on the clock: since the run's start, within [0, a day]. */
+export function elapsedNow(startedAt: string, nowMs = Date.now()): number {
+  return Math.min(MAX_RUN_SECONDS, Math.max(0, (nowMs - Date.parse(startedAt)) / 1000));
+}
+
+/**
+ * The run with the day as flown and re-projected from `at` (default: the clock), as JSON text.
+ * The projection re-runs the day (and, to find what to drop, a few more times), so with a worker
+ * pool it runs there, on the station the plan is computed on.
+ */
+export async function runViewText(ctx: AppContext, runId: number, at?: number): Promise<string> {
+  const { summary, plan } = readRun(ctx.db, runId);
+  const work = { run: summary, events: readEvents(ctx.db, runId), now: at ?? elapsedNow(summary.startedAt) };
+  const { result } = await planDayOutput(ctx, plan.id, 'run', { plan, run: work });
+  return 'text' in result ? result.text : '';
+}
