@@ -14,7 +14,7 @@ function ReachStatus({ reach }: { reach?: TaskReach }) {
   const r = reach.reach;
   return r.reachable ? (
     <Badge tone="approved">
-      ✓ in reach · restraint yaw {r.yawDeg}° pitch {r.pitchDeg}°
+      ✓ in reach · restraint set yaw {r.yawSetDeg}° pitch {r.pitchSetDeg}°
     </Badge>
   ) : (
     <Badge tone="danger">⚠ out of reach by {(r.distanceM - r.radiusM).toFixed(2)} m</Badge>
