@@ -306,3 +306,79 @@ describe('EditPanel settings and hazards', () => {
     expect(sent).toEqual([]);
   });
 });
+
+describe('EditPanel arms', () => {
+  const renderPanel = (graph: StationGraph, selectedKey: string | null = null) =>
+    renderWithQueryClient(
+      <EditPanel
+        graph={graph}
+        selectedKey={selectedKey}
+        onSelectNode={vi.fn()}
+        pick={null}
+        onChanged={vi.fn()}
+      />,
+    );
+  const withArm = (version: number): StationGraph => ({
+    ...graphAt(version),
+    arms: [
+      { key: 'ARM-A', baseNode: FIXTURE_KEYS.junction, reachM: 12, tipSpeedMps: 0.05, settleSeconds: 60 },
+    ],
+  });
+
+  it('adds an arm on the selected node: the whole list goes out with the loaded version', async () => {
+    const sent = fakeStationApi({ version: 4, by: 'Erin Engineer' });
+    renderPanel(withArm(4), FIXTURE_KEYS.anchorFar);
+    const user = userEvent.setup();
+    const arm = form('Add arm');
+    expect(arm.field('Base node').value).toBe(FIXTURE_KEYS.anchorFar);
+    await retype(user, arm.field('Arm key'), 'ARM-B');
+    await retype(user, arm.field('Reach (m)'), '9.5');
+    await user.clear(arm.field('Minimum reach (m)'));
+    await user.click(arm.button('Add arm'));
+    await waitFor(() => expect(sent).toHaveLength(1));
+    expect(sent[0]).toMatchObject({ method: 'PATCH', path: '/api/stations/1' });
+    expect(sent[0].body).toEqual({
+      version: 4,
+      arms: [
+        withArm(4).arms[0],
+        { key: 'ARM-B', baseNode: FIXTURE_KEYS.anchorFar, reachM: 9.5, tipSpeedMps: 0.05, settleSeconds: 60 },
+      ],
+    });
+    await screen.findByText(/Saved: add arm ARM-B/);
+  });
+
+  it('refuses an unknown base, a key a node has, and a minimum reach not below the reach; sends nothing', async () => {
+    const sent = fakeStationApi({ version: 4, by: 'Erin Engineer' });
+    renderPanel(withArm(4));
+    const user = userEvent.setup();
+    const arm = form('Add arm');
+    await retype(user, arm.field('Arm key'), FIXTURE_KEYS.airlock);
+    await retype(user, arm.field('Base node'), 'NO-SUCH-NODE');
+    await user.click(arm.button('Add arm'));
+    await within(arm.element).findByText(/already a node key/);
+    within(arm.element).getByText(/unknown node key "NO-SUCH-NODE"/);
+    await retype(user, arm.field('Arm key'), 'ARM-A');
+    await retype(user, arm.field('Base node'), FIXTURE_KEYS.junction);
+    await retype(user, arm.field('Minimum reach (m)'), '20');
+    await user.click(arm.button('Add arm'));
+    await within(arm.element).findByText(/minimum reach must be below the reach/);
+    within(arm.element).getByText(/duplicate arm key "ARM-A"/);
+    expect(sent).toEqual([]);
+  });
+
+  it('changes an arm in place and removes one', async () => {
+    const sent = fakeStationApi({ version: 4, by: 'Erin Engineer' });
+    renderPanel(withArm(4));
+    const user = userEvent.setup();
+    await user.click(screen.getByRole('button', { name: 'Change arm ARM-A' }));
+    const arm = form('Change arm ARM-A');
+    await retype(user, arm.field('Tip speed (m/s)'), '0.08');
+    await user.click(arm.button('Save arm'));
+    await waitFor(() => expect(sent).toHaveLength(1));
+    expect(sent[0].body).toEqual({ version: 4, arms: [{ ...withArm(4).arms[0], tipSpeedMps: 0.08 }] });
+    await user.click(screen.getByRole('button', { name: 'Remove arm ARM-A' }));
+    await waitFor(() => expect(sent).toHaveLength(2));
+    // the fake answered version 5 to the first change: the next carries it
+    expect(sent[1].body).toEqual({ version: 5, arms: [] });
+  });
+});

@@ -1,4 +1,4 @@
-import type { StationNode, StationEdge, Hazard } from '@shared/schemas/station';
+import type { Arm, StationNode, StationEdge, Hazard } from '@shared/schemas/station';
 import type {
   EdgeChangesSchema,
   HazardChangesSchema,
@@ -22,7 +22,9 @@ export type StationEdit =
   | { type: 'create-hazard'; hazard: Hazard }
   | { type: 'update-hazard'; key: string; hazard: z.infer<typeof HazardChangesSchema> }
   | { type: 'delete-hazard'; key: string }
-  | { type: 'update-station'; changes: Omit<UpdateStationInput, 'version'> };
+  | { type: 'update-station'; changes: Omit<UpdateStationInput, 'version'> }
+  /** the arms as a whole list (the API replaces it); `what` says the change in words */
+  | { type: 'set-arms'; arms: Arm[]; what: string };
 
 export interface StationEditVariables {
   /** the station version the edit was made against */
@@ -76,6 +78,8 @@ export function editStation(
       return api.delete(`${base}/hazards/${encodeURIComponent(edit.key)}${q}`);
     case 'update-station':
       return api.patch(`${base}${d}`, { version, ...edit.changes });
+    case 'set-arms':
+      return api.patch(`${base}${d}`, { version, arms: edit.arms });
   }
 }
 
@@ -107,6 +111,8 @@ export function describeStationEdit(edit: StationEdit): string {
       return `delete hazard ${edit.key}`;
     case 'update-station':
       return 'change station settings';
+    case 'set-arms':
+      return edit.what;
   }
 }
 

@@ -1,8 +1,7 @@
-import { useEffect, useRef, useState, type ReactNode } from 'react';
+import { useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
 import type { Vec3 } from '@shared/schemas/station';
 import { Alert } from '@/components/ui/alert';
 import { Badge } from '@/components/ui/badge';
-import { Button } from '@/components/ui/button';
 import { EmptyState } from '@/components/ui/card';
 import type { AffectedPlan } from '@shared/schemas/plan-views';
 import {
@@ -13,11 +12,13 @@ import {
 } from '../api/edit-station';
 import { AffectedPlansPrompt } from './affected-plans-prompt';
 import type { EditableGraph, SurfacePick } from '../utils/types';
+import { ArmsEditor } from './arms-editor';
 import { AuditList } from './audit-list';
 import { ConflictNotice } from './conflict-notice';
 import { ConnectForm } from './connect-form';
 import { DeleteNodeButton } from './delete-node-button';
 import { HazardForm } from './hazard-form';
+import { KeyedRow } from './keyed-row';
 import { NodeEdges } from './node-edges';
 import { NodeForm } from './node-form';
 import { SettingsForm } from './settings-form';
@@ -98,6 +99,7 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
   const selected = selectedKey ? graph.nodes.find((n) => n.key === selectedKey) : undefined;
   const around: Vec3 = selected?.position ?? [0, 0, 0];
   const editingHazard = graph.hazards.find((h) => h.key === hazardKey);
+  const nodeKeys = useMemo(() => new Set(graph.nodes.map((n) => n.key)), [graph.nodes]);
 
   return (
     <div className="space-y-3" aria-label="Edit the station model">
@@ -176,28 +178,18 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
       <Section title={`Hazards (${graph.hazards.length})`}>
         <ul className="divide-y divide-surface-line text-sm" aria-label="Hazards">
           {graph.hazards.map((h) => (
-            <li key={h.key} className="flex flex-wrap items-center gap-2 py-2">
-              <span className="flex-1 font-mono">{h.key}</span>
+            <KeyedRow
+              key={h.key}
+              noun="hazard"
+              itemKey={h.key}
+              removeWord="Delete"
+              isSaving={isSaving}
+              onChange={() => setHazardKey(h.key)}
+              onRemove={() => submit({ type: 'delete-hazard', key: h.key })}
+            >
               <Badge tone={h.kind === 'keep-out' ? 'danger' : 'caution'}>{h.kind}</Badge>
               <span className="text-xs text-text-muted">{h.shape}</span>
-              <Button
-                size="sm"
-                variant="secondary"
-                aria-label={`Change hazard ${h.key}`}
-                onClick={() => setHazardKey(h.key)}
-              >
-                Change
-              </Button>
-              <Button
-                size="sm"
-                variant="ghost"
-                disabled={isSaving}
-                aria-label={`Delete hazard ${h.key}`}
-                onClick={() => submit({ type: 'delete-hazard', key: h.key })}
-              >
-                Delete
-              </Button>
-            </li>
+            </KeyedRow>
           ))}
         </ul>
         <h4 className="text-sm font-semibold text-text-strong">
@@ -211,6 +203,17 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
           isSaving={isSaving}
           onSubmit={submit}
           onCancel={editingHazard ? () => setHazardKey(null) : undefined}
+        />
+      </Section>
+
+      <Section title={`Arms (${graph.arms.length})`}>
+        <ArmsEditor
+          arms={graph.arms}
+          isNode={(key) => nodeKeys.has(key)}
+          selectedKey={selectedKey}
+          version={graph.station.version}
+          isSaving={isSaving}
+          onSubmit={submit}
         />
       </Section>
 

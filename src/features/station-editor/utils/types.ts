@@ -8,4 +8,7 @@ export interface SurfacePick {
 }
 
 /** The parts of the station graph the editor reads (the stations feature's graph fits it). */
-export type EditableGraph = Pick<StationGraph, 'station' | 'segments' | 'nodes' | 'edges' | 'hazards'>;
+export type EditableGraph = Pick<
+  StationGraph,
+  'station' | 'segments' | 'nodes' | 'edges' | 'hazards' | 'arms'
+>;
