@@ -20,10 +20,12 @@ import { configureClipBuilds, logClipBuild, stopClipBuilds } from './modules/com
 import { setClipMemoryBudget } from '@shared/compute/routes-clip';
 import { RoutePool } from './modules/compute/route-pool';
 import { TaskPool } from './modules/compute/task-pool';
-import { emitStationChanged } from './modules/stations/stations.service';
+import { emitStationChanged, onStationChanged } from './modules/stations/stations.service';
+import { EventHub } from './modules/events/event-hub';
 import { storeMessage } from './modules/mailbox/mailbox.service';
 import { ensureVersionBaselines } from './modules/stations/stations.service';
 import { apiModules } from './modules';
+import { setChangeSink } from './lib/route';
 
 export interface CreateAppOptions {
   config?: Partial<AppConfig>;
@@ -96,11 +98,23 @@ export async function createApp(options: CreateAppOptions = {}): Promise<AppInst
     mailer,
     routePool,
     taskPool,
+    events: new EventHub({
+      heartbeatMs: config.eventHeartbeatMs,
+      ringSize: config.eventRingSize,
+      clientBufferBytes: config.eventClientBufferBytes,
+      maxClients: config.eventMaxStreams,
+      maxClientsPerUser: config.eventMaxStreamsPerUser,
+    }),
   };
+  // every committed station write, on this thread or a task worker's, reaches the live stream
+  const stopStationEvents = onStationChanged((c) =>
+    ctx.events.publish({ kind: 'station', id: c.stationId, version: c.version }),
+  );
   if (options.seed ?? true) await seedDatabase(ctx);
 
   const app = express();
   app.disable('x-powered-by');
+  setChangeSink(app, ctx.events);
   // the client address (rate limits, sign-in lockout) behind a reverse proxy: TRUST_PROXY
   app.set('trust proxy', config.trustProxy);
   app.use(
@@ -184,6 +198,8 @@ export async function createApp(options: CreateAppOptions = {}): Promise<AppInst
     app,
     ctx,
     async close() {
+      stopStationEvents();
+      ctx.events.close();
       await routePool?.close();
       await taskPool?.close();
       await stopClipBuilds();

@@ -5,6 +5,7 @@ import type { Logger } from './lib/logger';
 import type { Mailer } from './lib/mail';
 import type { RoutePool } from './modules/compute/route-pool';
 import type { TaskPool } from './modules/compute/task-pool';
+import type { EventHub } from './modules/events/event-hub';
 
 /** What every service needs, made once in createApp() and handed to each module. */
 export interface AppContext {
@@ -17,4 +18,6 @@ export interface AppContext {
   routePool: RoutePool | null;
   /** imports and socket plans off the main thread; null when `taskWorkers` is 0 */
   taskPool: TaskPool | null;
+  /** the live stream's hub: open streams, recent changes, presence */
+  events: EventHub;
 }

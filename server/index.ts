@@ -10,6 +10,8 @@ function shutdown(signal: string) {
   if (stopping) return;
   stopping = true;
   ctx.logger.info({ signal }, 'shutting down');
+  // live streams never end by themselves: end them so the server can close
+  ctx.events.close();
   server.close(() => {
     close().finally(() => process.exit(0));
   });

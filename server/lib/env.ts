@@ -41,6 +41,15 @@ export interface AppConfig {
   trustProxy: boolean | number | string;
   /** a station version keeps its whole document every this many versions (the rest keep changes only) */
   stationSnapshotEvery: number;
+  /** the live stream: a heartbeat this often, ms */
+  eventHeartbeatMs: number;
+  /** recent changes kept to replay to a stream that reconnects */
+  eventRingSize: number;
+  /** bytes one stream may hold waiting in the server before it is dropped */
+  eventClientBufferBytes: number;
+  /** live streams open at once, all together and per person */
+  eventMaxStreams: number;
+  eventMaxStreamsPerUser: number;
   logLevel: string;
   /** folder of the built client; null → API only */
   clientDir: string | null;
@@ -129,6 +138,11 @@ export function loadConfig(
     taskWorkerHeapMb: overrides.taskWorkerHeapMb ?? intFromEnv(env.TASK_WORKER_HEAP_MB, 2048),
     trustProxy: overrides.trustProxy ?? trustProxyFromEnv(env.TRUST_PROXY),
     stationSnapshotEvery: overrides.stationSnapshotEvery ?? 50,
+    eventHeartbeatMs: overrides.eventHeartbeatMs ?? intFromEnv(env.EVENT_HEARTBEAT_MS, 15_000),
+    eventRingSize: overrides.eventRingSize ?? 500,
+    eventClientBufferBytes: overrides.eventClientBufferBytes ?? 64 * 1024,
+    eventMaxStreams: overrides.eventMaxStreams ?? intFromEnv(env.EVENT_MAX_STREAMS, 2000),
+    eventMaxStreamsPerUser: overrides.eventMaxStreamsPerUser ?? 20,
     logLevel: overrides.logLevel ?? env.LOG_LEVEL ?? 'info',
     clientDir: overrides.clientDir !== undefined ? overrides.clientDir : path.resolve('dist'),
     mailFrom: overrides.mailFrom ?? env.MAIL_FROM ?? 'Tetherwise <no-reply@tetherwise.local>',

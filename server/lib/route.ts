@@ -1,6 +1,7 @@
 import express, { type NextFunction, type Request, type RequestHandler, type Response } from 'express';
 import type { z } from 'zod';
 import { can, type Permission } from '@shared/auth/permissions';
+import type { ChangeEvent } from '@shared/schemas/events';
 import { HttpError } from './http-error';
 import { parseInput } from '../middleware/validate';
 
@@ -32,6 +33,21 @@ export interface RouteDef<S extends InputSchemas = InputSchemas> {
   /** returns the JSON body (status 200, or `status`) or a JsonText, or undefined after writing `res` itself */
   handler: (req: Request, res: Response, input: Parsed<S>) => unknown;
   status?: number;
+  /**
+   * What a write changed, for the live stream: called with the input and the handler's result once
+   * the handler succeeded (null: nothing to tell).
+   */
+  emits?: (input: Parsed<S>, result: unknown) => ChangeEvent | null;
+}
+
+/** Where routes tell what their writes changed (the live stream's hub). */
+export interface ChangeSink {
+  publish(change: ChangeEvent): void;
+}
+
+/** The app's change sink, set once by createApp (`app.locals`), so every router reaches the same one. */
+export function setChangeSink(app: express.Express, sink: ChangeSink) {
+  app.locals.changeSink = sink;
 }
 
 /** A response body already serialised as JSON (by a worker thread, say): sent as it is. */
@@ -71,6 +87,8 @@ export function mountRoutes(base: string, defs: RouteDef<any>[]): express.Router
     router[def.method](base + def.path, accessGuard(def.access), ...(def.before ?? []), async (req, res) => {
       const input = parseInput(def.input ?? {}, req);
       const result = await def.handler(req, res, input as never);
+      const change = def.emits?.(input as never, result);
+      if (change) (req.app.locals.changeSink as ChangeSink).publish(change);
       if (res.headersSent) return;
       if (result === undefined) res.status(def.status ?? 204).end();
       else if (result instanceof JsonText) {

@@ -12,6 +12,7 @@ import { plansRouter } from './plans/plans.router';
 import { walkthroughsRouter } from './walkthroughs/walkthroughs.router';
 import { seriesRouter } from './series/series.router';
 import { runsRouter } from './runs/runs.router';
+import { eventsRouter } from './events/events.router';
 
 /** Every API module, mounted in this order. Add a module's router here. */
 export const apiModules: ((ctx: AppContext) => Router)[] = [
@@ -27,4 +28,5 @@ export const apiModules: ((ctx: AppContext) => Router)[] = [
   seriesRouter,
   walkthroughsRouter,
   runsRouter,
+  eventsRouter,
 ];

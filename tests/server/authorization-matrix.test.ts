@@ -96,6 +96,8 @@ const MATRIX: Record<string, Who> = {
   'GET /api/plans/:id/runs': 'everyone',
   'GET /api/runs/:id': 'everyone',
   'POST /api/runs/:id/events': PLANNERS,
+  'GET /api/events/': 'everyone',
+  'POST /api/events/presence': 'everyone',
 };
 
 let t: TestApp;
@@ -117,7 +119,8 @@ const fill = (path: string) =>
 
 async function call(role: Role | null, method: string, path: string) {
   const agent = role ? await t.agent(role) : t.anonymous();
-  const url = fill(path);
+  // the live stream stays open when it is let through: a too-long query makes it a 400 instead
+  const url = path === '/api/events/' ? `${path}?lastEventId=${'x'.repeat(100)}` : fill(path);
   const m = method.toLowerCase() as 'get' | 'post' | 'put' | 'patch' | 'delete';
   const req = agent[m](url);
   return method === 'GET' || method === 'DELETE' ? req : req.send({});

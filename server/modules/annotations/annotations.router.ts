@@ -20,6 +20,7 @@ import {
   openAttachment,
   updateAnnotation,
 } from './annotations.service';
+import { answered, atParam } from '../events/changes';
 
 export const ATTACHMENT_MAX_BYTES = 5 * MB;
 
@@ -42,6 +43,7 @@ export function annotationsRouter(ctx: AppContext) {
       status: 201,
       input: { params: StationIdParamsSchema, body: CreateAnnotationInputSchema },
       handler: (req, _res, { params, body }) => createAnnotation(ctx, params.id, body, author(req)),
+      emits: answered('annotation'),
     }),
     defineRoute({
       method: 'get',
@@ -56,6 +58,7 @@ export function annotationsRouter(ctx: AppContext) {
       access: 'annotations:write',
       input: { params: IdParamsSchema, body: UpdateAnnotationInputSchema },
       handler: (req, _res, { params, body }) => updateAnnotation(ctx, params.id, body, author(req)),
+      emits: answered('annotation'),
     }),
     defineRoute({
       method: 'post',
@@ -64,6 +67,7 @@ export function annotationsRouter(ctx: AppContext) {
       status: 201,
       input: { params: IdParamsSchema, body: CreateReplyInputSchema },
       handler: (req, _res, { params, body }) => addReply(ctx, params.id, body, author(req)),
+      emits: atParam('annotation'),
     }),
     defineRoute({
       method: 'post',
@@ -88,6 +92,7 @@ export function annotationsRouter(ctx: AppContext) {
           ),
         };
       },
+      emits: atParam('annotation'),
     }),
     defineRoute({
       method: 'get',

@@ -30,6 +30,7 @@ import { seriesStartOf } from '../series/series.service';
 import { comparePlans, listPlanRevisions, previousSubmissionVersion } from './plan-revisions.service';
 import type { PlanDetail } from '@shared/schemas/plan-views';
 import { exportFileName } from './plan-export.service';
+import { answered, atParam } from '../events/changes';
 
 const ReviewBodySchema = ReviewActionInputSchema.extend({ version: VersionSchema });
 /** `stationVersion`: the station version the reviewer saw the plan computed on; stale → 409 */
@@ -56,6 +57,7 @@ function reviewRoute(
     access,
     input: { params: IdParamsSchema, body: ReviewBodySchema },
     handler: (req, _res, { params, body }) => run(req, params.id, body),
+    emits: answered('plan'),
   });
 }
 
@@ -79,6 +81,7 @@ export function plansRouter(ctx: AppContext) {
       status: 201,
       input: { body: CreatePlanInputSchema },
       handler: (req, _res, { body }) => createPlan(ctx, body, req.user!),
+      emits: answered('plan'),
     }),
     defineRoute({
       method: 'get',
@@ -100,6 +103,7 @@ export function plansRouter(ctx: AppContext) {
       access: 'plans:edit',
       input: { params: IdParamsSchema, body: UpdatePlanInputSchema },
       handler: (req, _res, { params, body }) => updatePlan(ctx, params.id, body, req.user!),
+      emits: answered('plan'),
     }),
     defineRoute({
       method: 'delete',
@@ -109,6 +113,7 @@ export function plansRouter(ctx: AppContext) {
       handler: (req, _res, { params, query }) => {
         deletePlan(ctx, params.id, query.version, req.user!);
       },
+      emits: atParam('plan', { deleted: true }),
     }),
     reviewRoute('submit', 'plans:submit', (req, id, body) =>
       submitPlan(ctx, id, body.version, body.comment || undefined, req.user!),
@@ -120,6 +125,7 @@ export function plansRouter(ctx: AppContext) {
       input: { params: IdParamsSchema, body: ApproveBodySchema },
       handler: (req, _res, { params, body }) =>
         approvePlan(ctx, params.id, body.version, body.comment || undefined, req.user!, body.stationVersion),
+      emits: answered('plan'),
     }),
     defineRoute({
       method: 'post',
@@ -128,6 +134,7 @@ export function plansRouter(ctx: AppContext) {
       input: { params: IdParamsSchema, body: ReturnBodySchema },
       handler: (req, _res, { params, body }) =>
         returnPlan(ctx, params.id, body.version, body.comment, req.user!),
+      emits: answered('plan'),
     }),
     defineRoute({
       method: 'post',
@@ -136,6 +143,7 @@ export function plansRouter(ctx: AppContext) {
       status: 201,
       input: { params: IdParamsSchema, body: DuplicateBodySchema },
       handler: (req, _res, { params, body }) => duplicatePlan(ctx, params.id, req.user!, body.title),
+      emits: answered('plan'),
     }),
     defineRoute({
       method: 'get',

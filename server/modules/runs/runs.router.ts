@@ -2,6 +2,8 @@ import type { AppContext } from '../../context';
 import { JsonText, defineRoute, mountRoutes } from '../../lib/route';
 import { IdParamsSchema } from '@shared/schemas/auth';
 import { OpenRunInputSchema, RunEventInputSchema, RunQuerySchema } from '@shared/schemas/run';
+import { atParam } from '../events/changes';
+import type { ChangeEvent } from '@shared/schemas/events';
 import { appendRunEvent, listRuns, openRun, runViewText } from './runs.service';
 
 /** Runs: an approved plan as it is flown, its append-only events, and the day re-projected from now. */
@@ -14,6 +16,10 @@ export function runsRouter(ctx: AppContext) {
       status: 201,
       input: { params: IdParamsSchema, body: OpenRunInputSchema },
       handler: (req, _res, { params, body }) => openRun(ctx, params.id, body, req.user!),
+      emits: ({ params }, r): ChangeEvent => {
+        const run = r as { id: number; version: number };
+        return { kind: 'run', id: run.id, version: run.version, planId: params.id };
+      },
     }),
     defineRoute({
       method: 'get',
@@ -37,6 +43,7 @@ export function runsRouter(ctx: AppContext) {
       status: 201,
       input: { params: IdParamsSchema, body: RunEventInputSchema },
       handler: (req, _res, { params, body }) => appendRunEvent(ctx, params.id, body, req.user!),
+      emits: atParam('run'),
     }),
   ]);
 }

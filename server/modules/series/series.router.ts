@@ -5,6 +5,7 @@ import { IdParamsSchema } from '@shared/schemas/auth';
 import { CreateSeriesInputSchema, UpdateSeriesInputSchema } from '@shared/schemas/series';
 import { VersionTextSchema } from '@shared/schemas/version';
 import { createSeries, deleteSeries, getSeries, listSeries, updateSeries } from './series.service';
+import { answered, atParam } from '../events/changes';
 
 const DeleteQuerySchema = z.strictObject({ version: VersionTextSchema });
 
@@ -19,6 +20,7 @@ export function seriesRouter(ctx: AppContext) {
       status: 201,
       input: { body: CreateSeriesInputSchema },
       handler: (req, _res, { body }) => createSeries(ctx, body, req.user!),
+      emits: answered('series'),
     }),
     defineRoute({
       method: 'get',
@@ -33,6 +35,7 @@ export function seriesRouter(ctx: AppContext) {
       access: 'plans:edit',
       input: { params: IdParamsSchema, body: UpdateSeriesInputSchema },
       handler: (req, _res, { params, body }) => updateSeries(ctx, params.id, body, req.user!),
+      emits: answered('series'),
     }),
     defineRoute({
       method: 'delete',
@@ -42,6 +45,7 @@ export function seriesRouter(ctx: AppContext) {
       handler: (req, _res, { params, query }) => {
         deleteSeries(ctx, params.id, query.version, req.user!);
       },
+      emits: atParam('series', { deleted: true }),
     }),
   ]);
 }

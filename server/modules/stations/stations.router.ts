@@ -37,6 +37,7 @@ import {
   type Editor,
 } from './stations.service';
 import { noticeStationWrite, previewAffectedPlans } from '../plans/plan-station.service';
+import { answered, atParam } from '../events/changes';
 
 /** A station document of several hundred thousand nodes is well under this. */
 export const STATION_FILE_MAX_BYTES = 20 * MB;
@@ -179,6 +180,7 @@ export function stationsRouter(ctx: AppContext) {
       before: [documentUpload],
       handler: (req) =>
         runTask(ctx, 'station-import', { file: stationDocumentFile(req), editor: editor(req) }),
+      emits: (_input, r) => answered('station')(_input, (r as { station?: unknown }).station),
     }),
     defineRoute({
       method: 'get',
@@ -281,6 +283,7 @@ export function stationsRouter(ctx: AppContext) {
       handler: (req, _res, { params, query }) => {
         deleteStation(ctx, { stationId: params.id, expectedVersion: query.version, editor: editor(req) });
       },
+      emits: atParam('station', { deleted: true }),
     }),
     defineRoute({
       method: 'get',

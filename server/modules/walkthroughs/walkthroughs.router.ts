@@ -14,6 +14,7 @@ import {
   updateWalkthrough,
   walkthroughDetail,
 } from './walkthroughs.service';
+import { answered, atParam } from '../events/changes';
 
 const ListQuerySchema = z.strictObject({
   planId: z.coerce.number().int().positive().optional(),
@@ -37,6 +38,7 @@ export function walkthroughsRouter(ctx: AppContext) {
       status: 201,
       input: { body: CreateWalkthroughInputSchema },
       handler: (req, _res, { body }) => createWalkthrough(ctx, body, req.user!),
+      emits: answered('walkthrough'),
     }),
     defineRoute({
       method: 'get',
@@ -51,6 +53,7 @@ export function walkthroughsRouter(ctx: AppContext) {
       access: 'walkthroughs:edit',
       input: { params: IdParamsSchema, body: UpdateWalkthroughInputSchema },
       handler: (req, _res, { params, body }) => updateWalkthrough(ctx, params.id, body, req.user!),
+      emits: answered('walkthrough'),
     }),
     defineRoute({
       method: 'delete',
@@ -60,6 +63,7 @@ export function walkthroughsRouter(ctx: AppContext) {
       handler: (_req, _res, { params, query }) => {
         deleteWalkthrough(ctx, params.id, query.version);
       },
+      emits: atParam('walkthrough', { deleted: true }),
     }),
   ]);
 }
