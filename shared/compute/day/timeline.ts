@@ -284,7 +284,8 @@ export function computeTimeline(
       if (a.do === 'remove') after.delete(at);
     }
     const d = station.nearestAttachM(task.worksite, [...after], plan.allowRide);
-    return d === null || d <= 0 ? undefined : tetherLengthM - d;
+    // no attach point within the tether: no arrival leaves room, so none is asked for
+    return d === null || d <= 0 || d >= tetherLengthM ? undefined : tetherLengthM - d;
   };
 
   const translate = (lane: Lane, to: string, carrying: boolean, taskIndex?: number): boolean => {
@@ -304,15 +305,13 @@ export function computeTimeline(
       startPaidOutM: Math.min(lane.tether.paidOutM, tetherLengthM * (1 - 1e-12)),
       extraAttach: [...extra].sort(),
     };
-    let result = route(request);
-    // the best way in may leave too little tether to get out again: then the best way in that leaves
-    // room (none: keep the best way in, and the way out will say why it fails)
+    // into a worksite, the best way in that leaves tether enough to get out again (one search: it is
+    // the best way in whenever that leaves room); none: the best way in, and the way out will say
+    // why it fails
     const toWork = taskIndex !== undefined && plan.tasks[taskIndex].worksite === to;
-    const cap = !toWork || !result.feasible ? undefined : endCap(taskIndex, tetherLengthM);
-    if (cap !== undefined && result.feasible && tetherAtRouteEnd(result).paidOutM > cap + 1e-9) {
-      const roomy = route({ ...request, endPaidOutMaxM: cap });
-      if (roomy.feasible) result = roomy;
-    }
+    const cap = toWork ? endCap(taskIndex, tetherLengthM) : undefined;
+    let result = cap === undefined ? route(request) : route({ ...request, endPaidOutMaxM: cap });
+    if (!result.feasible && cap !== undefined) result = route(request);
     const where =
       taskIndex === undefined ? 'the airlock' : `${taskName(plan.tasks[taskIndex], taskIndex)} at ${to}`;
     if (!result.feasible) {
@@ -757,7 +756,11 @@ function push(
   label: string,
   extra: Partial<TimelineBlock> = {},
 ) {
-  const block: TimelineBlock = { type, start: lane.t, end: lane.t + seconds, label, ...extra };
+  lay(lane, { type, start: lane.t, end: lane.t + seconds, label, ...extra });
+}
+
+/** Appends a block made by the caller (it starts at the lane's clock) and moves the clock to its end. */
+function lay(lane: Lane, block: TimelineBlock) {
   lane.blocks.push(block);
   lane.t = block.end;
 }
@@ -772,7 +775,8 @@ function layRoute(lane: Lane, route: RouteFeasible, routeIndex: number, taskInde
   const travel = route.totalSeconds - route.swapSeconds;
   const legSum = legs.reduce((s, l) => s + l.seconds, 0);
   const scale = legSum > 0 ? travel / legSum : 0;
-  const tag = taskIndex === undefined ? {} : { taskIndex };
+  // blocks as literals of one shape each: a day lays thousands, and spreading the optional fields
+  // into each was most of the day's time outside its routes
   let tether: TetherState = { ...tetherAtRouteStart(route) };
   let pieceStart = 0;
   let pieceSeconds = 0;
@@ -782,8 +786,12 @@ function layRoute(lane: Lane, route: RouteFeasible, routeIndex: number, taskInde
     const from = legs[pieceStart].from;
     const to = legs[legEnd - 1].to;
     const atEnd = { anchor: tether.anchor, paidOutM: tether.paidOutM + pieceM };
-    push(lane, 'translate', pieceSeconds, `Translate ${from} → ${to}`, {
-      ...tag,
+    const block: TimelineBlock = {
+      type: 'translate',
+      start: lane.t,
+      end: lane.t + pieceSeconds,
+      label: `Translate ${from} → ${to}`,
+      taskIndex,
       from,
       to,
       routeIndex,
@@ -791,7 +799,9 @@ function layRoute(lane: Lane, route: RouteFeasible, routeIndex: number, taskInde
       legEnd,
       tetherAtStart: tether,
       tetherAtEnd: atEnd,
-    });
+    };
+    if (taskIndex === undefined) delete block.taskIndex;
+    lay(lane, block);
     tether = atEnd;
     pieceStart = legEnd;
     pieceSeconds = 0;
@@ -802,13 +812,19 @@ function layRoute(lane: Lane, route: RouteFeasible, routeIndex: number, taskInde
     while (s < swaps.length && swaps[s].atM <= atM + ALONG_EPS_M) {
       flush(legIndex);
       const sw = swaps[s++];
-      push(lane, 'swap', perSwap, `Tether swap at ${sw.node}`, {
-        ...tag,
+      const block: TimelineBlock = {
+        type: 'swap',
+        start: lane.t,
+        end: lane.t + perSwap,
+        label: `Tether swap at ${sw.node}`,
+        taskIndex,
         routeIndex,
         swapNode: sw.node,
         releaseNode: tether.anchor,
         paidOutM: sw.paidOutM,
-      });
+      };
+      if (taskIndex === undefined) delete block.taskIndex;
+      lay(lane, block);
       tether = { anchor: sw.node, paidOutM: 0 };
     }
   };
