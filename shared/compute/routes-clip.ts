@@ -36,6 +36,8 @@ export interface ClipGraph {
   buildMs: number;
   memoryBytes: number;
   query: ClipQueryState | null;
+  /** tether balls of nodes that are not attach points (extra attach points of queries), see ballOf */
+  balls: Map<number, Ball>;
   /** stretches kept for a `sum` search, by swap cost in stretch seconds (see pruneStretches) */
   pruned: Map<number, ClipRows>;
   /** the stretches worth a swap at their far end (see swapPointRows) */
@@ -217,6 +219,48 @@ function stretchWalk(
   return stretchSearch(c, p.weights, p.excludeMask, limit, src, sc, goal);
 }
 
+/** Every node within one tether of a node, by least time, with that time (see ballOf). */
+interface Ball {
+  nodes: Int32Array;
+  seconds: Float64Array;
+}
+
+/** Balls a clip graph keeps at the most: a day's portable anchors, many times over. */
+const BALLS_KEPT = 64;
+
+const everyNode = new WeakMap<CompiledStation, Uint8Array>();
+
+/**
+ * The least-time stretch within the tether from node v to every node it reaches, in the order a
+ * stretch search from v settles them (v itself left out): the stretch search from v lists, for any
+ * set of clips, exactly the nodes of this list that are clips, in this order and with these times,
+ * since which nodes are clips only decides what it lists, not what it settles. Kept per clip graph
+ * (its weights, tether and exclusions are the ball's), so a day's queries that share an extra
+ * attach point search its stretches once.
+ */
+function ballOf(cq: ClipQuery, v: number): Ball {
+  const { cg, c } = cq;
+  const held = cg.balls.get(v);
+  if (held) {
+    cg.balls.delete(v);
+    cg.balls.set(v, held);
+    return held;
+  }
+  let all = everyNode.get(c);
+  if (!all) everyNode.set(c, (all = new Uint8Array(c.nodeCount).fill(1)));
+  const st = cq.stretch;
+  stretchSearch(c, cq.p.weights, cg.excludeMask, cq.limit, v, st, null, all);
+  const ball = { nodes: st.hitNode.slice(0, st.hitCount), seconds: st.hitTime.slice(0, st.hitCount) };
+  if (cg.balls.size >= BALLS_KEPT) {
+    const [oldest, gone] = cg.balls.entries().next().value!;
+    cg.balls.delete(oldest);
+    cg.memoryBytes -= gone.nodes.byteLength + gone.seconds.byteLength;
+  }
+  cg.balls.set(v, ball);
+  cg.memoryBytes += ball.nodes.byteLength + ball.seconds.byteLength;
+  return ball;
+}
+
 /** Farthest-first landmarks over the clip graph, by stretch count (breadth-first). */
 function clipLandmarks(offsets: Int32Array, targets: Int32Array, count: number): Int32Array {
   const A = offsets.length - 1;
@@ -338,6 +382,7 @@ function buildClipGraph(
     buildMs: 0,
     memoryBytes: 0,
     query: null,
+    balls: new Map(),
     pruned: new Map(),
     swapRows,
     swapRowsIn,
@@ -655,7 +700,7 @@ function remember(weights: Float64Array, key: string, cg: ClipGraph): ClipGraph 
 }
 
 /** A clip graph as plain data: typed arrays a worker thread can build and hand over without a copy. */
-export type ClipGraphParts = Omit<ClipGraph, 'query' | 'pruned' | 'costMarks'> & {
+export type ClipGraphParts = Omit<ClipGraph, 'query' | 'balls' | 'pruned' | 'costMarks'> & {
   pruned: [number, ClipRows][];
   costMarks: [number, CostMarks][];
 };
@@ -676,7 +721,7 @@ export function buildClipGraphParts(
   const cg = clipGraphFor(c, weights, tetherLengthM, excludeMask);
   pruneStretches(cg, 0);
   for (const sc of swapCosts) if (sc > 0) costMarksFor(cg, sc);
-  const { query: _query, pruned, costMarks, ...rest } = cg;
+  const { query: _query, balls: _balls, pruned, costMarks, ...rest } = cg;
   const parts: ClipGraphParts = { ...rest, pruned: [...pruned], costMarks: [...costMarks] };
   const rows = [parts.swapRows, ...parts.pruned.map(([, r]) => r)];
   const arrays = [
@@ -706,6 +751,7 @@ export function adoptClipGraph(weights: Float64Array, parts: ClipGraphParts): Cl
   const cg: ClipGraph = {
     ...parts,
     query: null,
+    balls: new Map(),
     pruned: new Map(parts.pruned),
     costMarks: new Map(parts.costMarks),
   };
@@ -861,6 +907,8 @@ interface ClipQuery {
   clips: Uint8Array;
   /** the stretches between the first clip and the last one (see middleRows) */
   rows: ClipRows;
+  /** the swap rows, where they serve a clip far from the end and the extra attach points (see nearEnd); else null */
+  farRows: ClipRows | null;
   state: ClipQueryState;
   stretch: StretchScratch;
   /** station landmark bounds to t: after toT(v), hSeconds[v] (times f) and hMetres[v] */
@@ -873,11 +921,46 @@ interface ClipQuery {
  * The stretches the search follows between clips (a last stretch always comes from the full rows,
  * or from a search back from t): for free swaps the ones pruneStretches keeps; towards an
  * attach-point t with no limit on arrival and no extra attach points the swap rows; else the full
- * rows. Each keeps an optimum of its case.
+ * rows, and the swap rows out of a clip far from the end (see nearEnd). Each keeps an optimum of
+ * its case.
  */
 function middleRows(cg: ClipGraph, lex: boolean, swapCost: number, plainEnd: boolean): ClipRows {
   if (!lex && swapCost === 0) return pruneStretches(cg, 0);
   return plainEnd ? cg.swapRows : cg;
+}
+
+/**
+ * Whether a station attach point a may have a stretch to a clip whose next stretch is not one of
+ * the swap rows' kind: a last stretch to t, or a stretch to an extra attach point. Such a clip is
+ * within one tether of t or of an extra attach point, so a is within two, and the station
+ * landmarks' lower bound on metres rules that out for most a. Out of any other a the swap rows
+ * keep an optimum: on an optimal chain a → c → d with c neither kind, d is an attach point of
+ * c's row, and the swap rows drop a → c only where a → d, or a → b → d with a → b kept, is as good
+ * (see swapPointRows); replacing stretch by stretch from the start of the chain ends on one whose
+ * stretches out of such an a are all swap rows, as good.
+ */
+function nearEnd(cq: ClipQuery, a: number): boolean {
+  const v = cq.cg.attachNodes[a];
+  const reach = 2 * cq.limit;
+  if (!cq.toT(v) || cq.hMetres[v] <= reach) return true;
+  const lm = cq.c.landmarks;
+  const K = lm.count;
+  const metres = lm.metres;
+  for (const x of cq.extras) {
+    let bound = 0;
+    for (let k = 0; k < K; k++) {
+      const mx = metres[x * K + k];
+      const mv = metres[v * K + k];
+      if (mx === Infinity || mv === Infinity) {
+        if (mx !== mv) bound = Infinity;
+        continue;
+      }
+      const d = mx > mv ? mx - mv : mv - mx;
+      if (d > bound) bound = d;
+    }
+    if (bound <= reach) return true;
+  }
+  return false;
 }
 
 function clipQuery(
@@ -928,6 +1011,7 @@ function clipQuery(
     plainEnd,
     clips: p.isAttach,
     rows: middleRows(cg, lex, p.swapCost, plainEnd),
+    farRows: plainEnd || (!lex && p.swapCost === 0) ? null : cg.swapRows,
     state: queryState(cg, extras.length),
     stretch: stretchScratchFor(c),
     toT,
@@ -994,12 +1078,12 @@ function straightAcross(cq: ClipQuery): boolean {
 }
 
 /**
- * The extra attach points' stretches: each one's row (a stretch search from it over the query's
- * attach points) and, since stretch times are the same both ways, the same stretch from each
- * attach point of that row back to it.
+ * The extra attach points' stretches: each one's row (the query's attach points in its ball) and,
+ * since stretch times are the same both ways, the same stretch from each attach point of that row
+ * back to it.
  */
 function extraRows(cq: ClipQuery): void {
-  const { state: q, stretch: st, A } = cq;
+  const { state: q, A } = cq;
   const { toExtraStamp, toExtraHead, stamp } = q;
   q.extraRow.length = 0;
   q.extraTargets.length = 0;
@@ -1008,13 +1092,17 @@ function extraRows(cq: ClipQuery): void {
   q.toExtraSlot.length = 0;
   q.toExtraSeconds.length = 0;
   q.extraRow.push(0);
+  const clips = cq.clips;
   cq.extras.forEach((x, j) => {
-    stretchSearch(cq.c, cq.p.weights, cq.p.excludeMask, cq.limit, x, st, null, cq.clips);
-    for (let h = 0; h < st.hitCount; h++) {
-      const b = slotOf(cq, st.hitNode[h]);
+    const ball = ballOf(cq, x);
+    for (let h = 0; h < ball.nodes.length; h++) {
+      const v = ball.nodes[h];
+      if (!clips[v]) continue;
+      const b = slotOf(cq, v);
       if (b < 0) continue;
+      const time = ball.seconds[h];
       q.extraTargets.push(b);
-      q.extraSeconds.push(st.hitTime[h]);
+      q.extraSeconds.push(time);
       if (b >= A) continue;
       if (toExtraStamp[b] !== stamp) {
         toExtraStamp[b] = stamp;
@@ -1022,7 +1110,7 @@ function extraRows(cq: ClipQuery): void {
       }
       q.toExtraNext.push(toExtraHead[b]);
       q.toExtraSlot.push(A + j);
-      q.toExtraSeconds.push(st.hitTime[h]);
+      q.toExtraSeconds.push(time);
       toExtraHead[b] = q.toExtraSlot.length - 1;
     }
     q.extraRow.push(q.extraTargets.length);
@@ -1411,6 +1499,7 @@ function searchClips(
   const { state: q, lex, f, swapCost, tSkip, sSlot, A, end: T } = cq;
   const { seen, cost1, cost2, pred, rest1, rest2, lastStamp, last, levelStamp, level, heap, stamp } = q;
   const { offsets: ro, targets: rt, seconds: rs } = cq.rows;
+  const far = cq.farRows;
   const levelled = lex;
   const withExtras = cq.extras.length > 0;
   const freshAtS = cq.fresh && sSlot >= 0;
@@ -1476,9 +1565,17 @@ function searchClips(
       }
       continue;
     }
-    for (let e = ro[a], end = ro[a + 1]; e < end; e++) {
-      const time = f * rs[e];
-      offer(rt[e], a, lex ? swapped : swapped + time, lex ? c2 + time : 0);
+    let o = ro;
+    let tg = rt;
+    let sec = rs;
+    if (far !== null && !nearEnd(cq, a)) {
+      o = far.offsets;
+      tg = far.targets;
+      sec = far.seconds;
+    }
+    for (let e = o[a], end = o[a + 1]; e < end; e++) {
+      const time = f * sec[e];
+      offer(tg[e], a, lex ? swapped : swapped + time, lex ? c2 + time : 0);
     }
     if (withExtras && q.toExtraStamp[a] === stamp) {
       for (let x = q.toExtraHead[a]; x !== -1; x = q.toExtraNext[x]) {
