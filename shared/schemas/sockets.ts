@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { FiniteSchema, KeySchema, Vec3Schema, keyListSchema, type StationNode } from './station';
 import { VersionSchema } from './version';
+import type { AffectedPlan } from './plan-views';
 
 export const MAX_PLAN_TARGETS = 500;
 export const MIN_GRID_SPACING_M = 0.25;
@@ -104,6 +105,8 @@ export const AcceptSocketPlanInputSchema = z.strictObject({
         normal: NonZeroVec3Schema,
         key: KeySchema.optional(),
         label: z.string().trim().max(200, 'label must be at most 200 characters').optional(),
+        /** what the socket is for, kept on the node (e.g. the targets it was planned to serve) */
+        notes: z.string().trim().max(4000, 'notes must be at most 4000 characters').optional(),
       }),
     )
     .min(1, 'give at least one socket')
@@ -121,4 +124,14 @@ export interface AcceptedSocket extends StationNode {
 export interface AcceptSocketPlanResult {
   version: number;
   sockets: AcceptedSocket[];
+  /** the plans in review or approved the new sockets touch (named only when there are some) */
+  affectedPlans?: AffectedPlan[];
+}
+
+/** `?dryRun=1`: what the accept would add and the reviewed plans it would touch; nothing is written. */
+export interface AcceptSocketPlanPreview {
+  dryRun: true;
+  version: number;
+  sockets: AcceptedSocket[];
+  affectedPlans: AffectedPlan[];
 }

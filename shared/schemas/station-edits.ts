@@ -229,6 +229,17 @@ export interface ImportStationResult {
   counts: StationCounts;
 }
 
+/**
+ * `POST /api/stations/import?dryRun=1`: the document read and checked, nothing written; the stations
+ * already named as it is (so the importer can rename it, replace one of them, or stop).
+ */
+export interface ImportStationPreview {
+  dryRun: true;
+  name: string;
+  counts: StationCounts;
+  sameName: Pick<StationSummary, 'id' | 'name' | 'version'>[];
+}
+
 /** An edge in the graph view: its id for edits, and its length resolved (given, or from the positions). */
 export interface GraphEdge {
   id: number;

@@ -260,14 +260,24 @@ export interface DocumentProblem {
 export const edgePairKey = (e: Pick<StationEdge, 'from' | 'to' | 'kind'>) =>
   [e.from, e.to].sort().join('\u0000') + '\u0000' + e.kind;
 
+/** What the graph rules read of a document: keys and edge ends (a key that is not text is skipped). */
+export interface GraphRulesInput {
+  nodes: readonly { key?: unknown }[];
+  segments: readonly { key?: unknown }[];
+  hazards: readonly { key?: unknown }[];
+  edges: readonly { from?: unknown; to?: unknown; kind?: unknown }[];
+  arms: readonly { key?: unknown; baseNode?: unknown }[];
+}
+
 /**
  * Graph rules the schema cannot express: unique keys (nodes, segments and hazards each), edges that
  * name known nodes, no self-loops, no duplicate edges between the same pair of the same kind.
  */
-export function checkStationGraphRules(doc: StationDocument): DocumentProblem[] {
+export function checkStationGraphRules(doc: GraphRulesInput): DocumentProblem[] {
   const problems: DocumentProblem[] = [];
   const seen = new Map<string, number>();
   doc.nodes.forEach((n, i) => {
+    if (typeof n.key !== 'string') return;
     const first = seen.get(n.key);
     if (first !== undefined) {
       problems.push({
@@ -278,6 +288,7 @@ export function checkStationGraphRules(doc: StationDocument): DocumentProblem[] 
   });
   const segKeys = new Map<string, number>();
   doc.segments.forEach((s, i) => {
+    if (typeof s.key !== 'string') return;
     const first = segKeys.get(s.key);
     if (first !== undefined) {
       problems.push({
@@ -288,6 +299,7 @@ export function checkStationGraphRules(doc: StationDocument): DocumentProblem[] 
   });
   const hazKeys = new Map<string, number>();
   doc.hazards.forEach((h, i) => {
+    if (typeof h.key !== 'string') return;
     const first = hazKeys.get(h.key);
     if (first !== undefined) {
       problems.push({
@@ -296,15 +308,25 @@ export function checkStationGraphRules(doc: StationDocument): DocumentProblem[] 
       });
     } else hazKeys.set(h.key, i);
   });
-  problems.push(...armProblems(doc.arms, (key) => seen.has(key)));
+  const textKeys = (a: { key?: unknown; baseNode?: unknown }) =>
+    typeof a.key === 'string' && typeof a.baseNode === 'string';
+  problems.push(
+    ...armProblems(
+      doc.arms.filter(textKeys) as Pick<Arm, 'key' | 'baseNode'>[],
+      (key) => seen.has(key),
+      'arms',
+      doc.arms.map((a, i) => (textKeys(a) ? i : -1)).filter((i) => i >= 0),
+    ),
+  );
   const pairs = new Map<string, number>();
   doc.edges.forEach((e, i) => {
+    if (typeof e.from !== 'string' || typeof e.to !== 'string' || typeof e.kind !== 'string') return;
     if (!seen.has(e.from))
       problems.push({ path: `edges[${i}].from`, message: `unknown node key "${e.from}"` });
     if (!seen.has(e.to)) problems.push({ path: `edges[${i}].to`, message: `unknown node key "${e.to}"` });
     if (e.from === e.to)
       problems.push({ path: `edges[${i}]`, message: `an edge cannot join "${e.from}" to itself` });
-    const pair = edgePairKey(e);
+    const pair = edgePairKey(e as Pick<StationEdge, 'from' | 'to' | 'kind'>);
     const first = pairs.get(pair);
     if (first !== undefined) {
       problems.push({
@@ -324,10 +346,13 @@ export function armProblems(
   arms: readonly Pick<Arm, 'key' | 'baseNode'>[],
   isNode: (key: string) => boolean,
   prefix = 'arms',
+  /** each arm's index in the list the paths name, when `arms` is a part of it */
+  indices?: readonly number[],
 ): DocumentProblem[] {
   const problems: DocumentProblem[] = [];
   const first = new Map<string, number>();
-  arms.forEach((a, i) => {
+  arms.forEach((a, k) => {
+    const i = indices?.[k] ?? k;
     const at = first.get(a.key);
     if (at !== undefined)
       problems.push({
@@ -356,16 +381,31 @@ export function formatIssuePath(path: ReadonlyArray<PropertyKey>): string {
   return out || '(document)';
 }
 
+/** The lists of a document that failed its schema, as far as they can be read (anything else: empty). */
+function looseGraphOf(input: unknown): GraphRulesInput {
+  const doc = (typeof input === 'object' && input !== null ? input : {}) as Record<string, unknown>;
+  const list = (name: string) =>
+    (Array.isArray(doc[name]) ? doc[name] : []).map((v: unknown) =>
+      typeof v === 'object' && v !== null ? (v as Record<string, unknown>) : {},
+    );
+  return {
+    nodes: list('nodes'),
+    segments: list('segments'),
+    hazards: list('hazards'),
+    edges: list('edges'),
+    arms: list('arms'),
+  };
+}
+
 /** Parses and checks a station document; returns the document or every problem found. */
 export function parseStationDocument(
   input: unknown,
 ): { ok: true; doc: StationDocument } | { ok: false; problems: DocumentProblem[] } {
   const parsed = StationDocumentSchema.safeParse(input);
   if (!parsed.success) {
-    return {
-      ok: false,
-      problems: parsed.error.issues.map((i) => ({ path: formatIssuePath(i.path), message: i.message })),
-    };
+    // the graph rules too, on what can be read, so one answer names every problem of the document
+    const problems = parsed.error.issues.map((i) => ({ path: formatIssuePath(i.path), message: i.message }));
+    return { ok: false, problems: [...problems, ...checkStationGraphRules(looseGraphOf(input))] };
   }
   const problems = checkStationGraphRules(parsed.data);
   return problems.length ? { ok: false, problems } : { ok: true, doc: parsed.data };

@@ -135,10 +135,28 @@ describe('socket planner', () => {
     await page.getByLabel('Planning caution').first().waitFor();
     await session.screenshot('socket-planner-result');
 
-    await result.getByRole('button', { name: 'Accept 3 new sockets' }).click();
+    // asked first: what would be added, named after the bays, each joined to a handrail node
+    await result.getByRole('button', { name: 'Accept 3 new sockets…' }).click();
+    const toAdd = result.getByRole('table', { name: 'Sockets to add' });
+    await toAdd.waitFor();
+    const addRows = toAdd.locator('tbody tr');
+    await expect(addRows.count()).resolves.toBe(3);
+    const unchanged = (await (await api.get(`/api/stations/${station.id}/graph`)).json()) as StationGraph;
+    const kindOf = new Map(unchanged.nodes.map((n) => [n.key, n.kind]));
+    for (const row of await addRows.all()) {
+      const [key, label, joined] = await row.getByRole('cell').allTextContents();
+      expect(key).toMatch(/^[PS]B\d-S\d{2}$/);
+      expect(label).toMatch(
+        /^(Port|Starboard) bay \d (zenith|nadir|fore|aft|port|starboard) foot restraint socket \(planned\)$/,
+      );
+      expect(['junction', 'anchor']).toContain(kindOf.get(joined.split(' ')[0]));
+    }
+    expect(unchanged.station.version, 'nothing is written before the confirm').toBe(station.version);
+    await session.screenshot('socket-planner-confirm');
+    await result.getByRole('button', { name: 'Add 3 sockets' }).click();
     const success = result.getByText(/^Added 3 sockets \(station version \d+\)$/);
     await success.waitFor();
-    const links = result.getByRole('link', { name: /^SKT-\d{3}$/ });
+    const links = result.getByRole('link', { name: /^[PS]B\d-S\d{2}$/ });
     await expect(links.count()).resolves.toBe(3);
     const keys = await links.allTextContents();
     await session.screenshot('socket-planner-accepted');

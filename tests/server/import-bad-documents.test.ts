@@ -133,6 +133,17 @@ describe('bad station documents: 400 naming the problem, nothing written', () =>
       expect.arrayContaining(['nodes[0].kind', 'edges[1].lengthM']),
     );
   });
+
+  it('names schema problems, duplicate keys and dangling edges together in one answer', async () => {
+    const d = withNode(0, { kind: 'hatch' });
+    d.nodes[2] = { ...d.nodes[2], key: d.nodes[1].key };
+    d.edges[3] = { ...d.edges[3], to: 'NO-SUCH-NODE' };
+    const error = await expectRefused(stationDocumentFile(d), 400);
+    const paths = error.details!.map((x) => x.path);
+    expect(paths).toEqual(expect.arrayContaining(['nodes[0].kind', 'nodes[2].key', 'edges[3].to']));
+    expect(error.details!.find((x) => x.path === 'nodes[2].key')!.message).toContain('duplicate node key');
+    expect(error.details!.find((x) => x.path === 'edges[3].to')!.message).toContain('NO-SUCH-NODE');
+  });
 });
 
 describe('files that are not station documents', () => {

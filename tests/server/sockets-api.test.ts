@@ -124,6 +124,17 @@ describe('POST /api/stations/:id/socket-plan/accept', () => {
     );
     expect(denied.status).toBe(403);
 
+    // asked first: a dry run names what would be added and writes nothing
+    const preview = await post(
+      `socket-plan/accept?dryRun=1`,
+      { version: before.station.version, sockets: [planned] },
+      'engineer',
+    );
+    expect(preview.status, JSON.stringify(preview.body)).toBe(200);
+    expect(preview.body).toMatchObject({ dryRun: true, version: before.station.version, affectedPlans: [] });
+    expect(preview.body.sockets.map((s: { key: string }) => s.key)).toEqual(['T1-S01']);
+    expect((await engineer.get(`/api/stations/${stationId}`)).body.version).toBe(before.station.version);
+
     const res = await post(
       'socket-plan/accept',
       { version: before.station.version, sockets: [planned] },
@@ -132,29 +143,32 @@ describe('POST /api/stations/:id/socket-plan/accept', () => {
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body.version).toBe(before.station.version + 1);
     const [saved] = res.body.sockets;
-    expect(saved.key).toBe('SKT-001');
-    // T1-J01 at (5, 0, 1.5) is the nearest junction, anchor or worksite on a handrail
+    // named after the bay it is on, like the model's own sockets, and labelled with bay and face
+    expect(saved.key).toBe('T1-S01');
+    expect(saved.label).toBe('Test truss bay 1 fore foot restraint socket (planned)');
+    // T1-J01 at (5, 0, 1.5) is the nearest junction or anchor on a handrail
     expect(saved.joinedTo).toBe(K.junction);
+    expect(preview.body.sockets).toEqual(res.body.sockets);
 
     const after = (await engineer.get(`/api/stations/${stationId}/graph`)).body;
-    expect(after.nodes.find((n: { key: string }) => n.key === 'SKT-001')).toMatchObject({
+    expect(after.nodes.find((n: { key: string }) => n.key === 'T1-S01')).toMatchObject({
       kind: 'socket',
       normal: [0, 1, 0],
     });
     expect(
       after.edges.some(
         (e: { from: string; to: string; kind: string }) =>
-          e.from === K.junction && e.to === 'SKT-001' && e.kind === 'hop',
+          e.from === K.junction && e.to === 'T1-S01' && e.kind === 'hop',
       ),
     ).toBe(true);
     const audit = (await engineer.get(`/api/stations/${stationId}/audit`)).body;
     expect(JSON.stringify(audit)).toContain('sockets.accept');
 
     // the new socket is routable and plannable at once (the compiled cache follows the version)
-    const route = await post('routes', { from: K.airlock, to: 'SKT-001', mode: 'balanced' });
+    const route = await post('routes', { from: K.airlock, to: 'T1-S01', mode: 'balanced' });
     expect(route.body.feasible).toBe(true);
     const replan = await post('socket-plan', { targets: [[5, 2.5, 0]] });
-    expect(replan.body.sockets).toEqual(['SKT-001']);
+    expect(replan.body.sockets).toEqual(['T1-S01']);
   });
 
   it('a stale version is 409 and adds nothing; a duplicate key is 400', async () => {

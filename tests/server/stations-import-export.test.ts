@@ -373,3 +373,41 @@ describe('PUT /api/stations/:id/import', () => {
     expect(comparable(after)).toEqual(comparable(before));
   });
 });
+
+describe('importing as a new station beside one of the same name', () => {
+  it('a dry run names the stations of that name and writes nothing; a given name is the new station’s', async () => {
+    const name = `Same name ${Date.now()}`;
+    const first = await postStationDocument(engineer, buildStationDocument({ name }));
+    expect(first.status).toBe(201);
+    const count = (await engineer.get('/api/stations')).body.length;
+
+    const preview = await engineer
+      .post('/api/stations/import?dryRun=1')
+      .attach('file', stationDocumentFile(buildStationDocument({ name })), 'station.json');
+    expect(preview.status, JSON.stringify(preview.body)).toBe(200);
+    expect(preview.body).toMatchObject({
+      dryRun: true,
+      name,
+      sameName: [{ id: first.body.station.id, name, version: 1 }],
+    });
+    expect(preview.body.counts.nodes).toBe(buildStationDocument().nodes.length);
+    expect((await engineer.get('/api/stations')).body.length).toBe(count);
+
+    const renamed = await engineer
+      .post('/api/stations/import')
+      .field('name', `${name} (2)`)
+      .attach('file', stationDocumentFile(buildStationDocument({ name })), 'station.json');
+    expect(renamed.status).toBe(201);
+    expect(renamed.body.station.name).toBe(`${name} (2)`);
+    const none = await engineer
+      .post('/api/stations/import?dryRun=1')
+      .field('name', `${name} (3)`)
+      .attach('file', stationDocumentFile(buildStationDocument({ name })), 'station.json');
+    expect(none.body.sameName).toEqual([]);
+    const blank = await engineer
+      .post('/api/stations/import')
+      .field('name', '  ')
+      .attach('file', stationDocumentFile(buildStationDocument({ name })), 'station.json');
+    expect(blank.status).toBe(400);
+  });
+});

@@ -9,6 +9,7 @@ import { OrbitQuerySchema } from './compute.schemas';
 import { acceptSocketPlan, computeReach, computeRoute, orbitFor } from './compute.service';
 import { clipMemory } from '@shared/compute/routes-clip';
 import { runTask } from './tasks';
+import { DryRunQuerySchema, withAffectedPlans, withDryRun } from '../stations/stations.router';
 
 /** A computation on one station, open to every signed-in role: the body is parsed with `body`. */
 function onStation<S extends z.ZodType>(
@@ -38,8 +39,18 @@ export function computeRouter(ctx: AppContext) {
       path: '/stations/:id/socket-plan/accept',
       access: 'sockets:save',
       status: 201,
-      input: { params: IdParamsSchema, body: AcceptSocketPlanInputSchema },
-      handler: (req, _res, { params, body }) => acceptSocketPlan(ctx, params.id, body, req.user!),
+      input: { params: IdParamsSchema, query: DryRunQuerySchema, body: AcceptSocketPlanInputSchema },
+      handler: async (req, res, { params, query, body }) => {
+        const answer = await withAffectedPlans(
+          ctx,
+          req,
+          params.id,
+          acceptSocketPlan(withDryRun(ctx, query.dryRun), params.id, body, req.user!),
+        );
+        if (!query.dryRun) return answer;
+        // a dry run wrote nothing: 200 with what it would add and the reviewed plans it would touch
+        res.status(200).json(answer);
+      },
     }),
     defineRoute({
       method: 'get',

@@ -11,6 +11,7 @@ import { orbitSummary } from '@shared/compute/orbit';
 import type { RouteRequest, RouteResult } from '@shared/schemas/route';
 import {
   MAX_SOCKET_CANDIDATES,
+  type AcceptedSocket,
   type AcceptSocketPlanInput,
   type AcceptSocketPlanResult,
   type ReachRequest,
@@ -27,16 +28,18 @@ import {
 } from '@shared/schemas/station';
 import {
   changeSince,
-  notDryRun,
+  isDryRun,
   edgeToRow,
   findStationRow,
   loadDocument,
   nodeToRow,
   segmentFromRow,
   writeStation,
+  type DryRunAnswer,
   type Editor,
   type Tx,
 } from '../stations/stations.service';
+import { socketNameFor } from '@shared/compute/socket-names';
 import { routeRequestProblems } from '@shared/compute/routes';
 import { routeOffPath } from './clip-builder';
 import { getCompiledStation, type CompiledEntry } from './compiled-cache';
@@ -254,40 +257,46 @@ export function socketPlanOn(db: Db, stationId: number, request: SocketPlanReque
   return plan;
 }
 
-const HANDRAIL_JOIN_KINDS = new Set(['junction', 'anchor', 'worksite']);
+/** Nodes a new socket may be joined to: the junctions and anchors of a handrail (never a worksite). */
+const HANDRAIL_JOIN_KINDS = new Set(['junction', 'anchor']);
 
-/** The first `SKT-NNN` key the station does not use yet. */
-function nextSocketKey(taken: Set<string>): string {
-  for (let i = 1; ; i++) {
-    const key = `SKT-${String(i).padStart(3, '0')}`;
-    if (!taken.has(key)) return key;
-  }
-}
+/** What an accept of planned sockets writes (or, on a dry run, would write). */
+export type AcceptSocketsAnswer = AcceptSocketPlanResult | (DryRunAnswer & { sockets: AcceptedSocket[] });
 
 /**
- * Saves planned sockets as socket nodes, each joined by a hop edge to the nearest handrail node
- * (a junction, anchor or worksite on a handrail edge), through the stations module's one write
- * path: one transaction, version checked and bumped, audited.
+ * Saves planned sockets as socket nodes named after their bay (`PB3-S05`, labelled with the bay and
+ * face), each joined by a hop edge to the nearest junction or anchor on a handrail, through the
+ * stations module's one write path: one transaction, version checked and bumped, audited. On a dry
+ * run (`ctx.dryRun`) nothing is written and the answer lists the sockets it would add.
  */
 export function acceptSocketPlan(
   ctx: AppContext,
   stationId: number,
   input: AcceptSocketPlanInput,
   editor: Editor,
-): AcceptSocketPlanResult {
+): AcceptSocketsAnswer {
+  let sockets: AcceptedSocket[] = [];
   const written = writeStation(ctx, { stationId, expectedVersion: input.version, editor }, (tx) => {
     const doc = loadDocument(tx, findStationRow(tx, stationId));
     const onHandrail = new Set(doc.edges.filter((e) => e.kind === 'handrail').flatMap((e) => [e.from, e.to]));
     const joinable = doc.nodes.filter((n) => HANDRAIL_JOIN_KINDS.has(n.kind) && onHandrail.has(n.key));
-    if (joinable.length === 0) throw badRequest('The station has no handrail node to join a new socket to.');
+    if (joinable.length === 0)
+      throw badRequest('The station has no handrail junction or anchor to join a new socket to.');
     const taken = new Set(doc.nodes.map((n) => n.key));
     const details: { path: string; message: string }[] = [];
-    const added = input.sockets.map((s, i) => {
+    input.sockets.forEach((s, i) => {
       if (s.key && taken.has(s.key))
         details.push({ path: `body.sockets.${i}.key`, message: `the key "${s.key}" is already used` });
-      const key = s.key ?? nextSocketKey(taken);
-      taken.add(key);
+      if (s.key) taken.add(s.key);
+    });
+    if (details.length)
+      throw badRequest(`The request is not valid: ${details[0].path} ${details[0].message}`, details);
+    const added = input.sockets.map((s) => {
       const len = Math.hypot(...s.normal);
+      const normal = s.normal.map((v) => v / len) as Vec3;
+      const named = s.key
+        ? { key: s.key, label: s.label || socketNameFor({ ...s, normal }, doc.segments, new Set()).label }
+        : socketNameFor({ ...s, normal }, doc.segments, taken);
       let nearest = joinable[0];
       let best = Infinity;
       for (const n of joinable) {
@@ -299,17 +308,16 @@ export function acceptSocketPlan(
         if (d < best) [nearest, best] = [n, d];
       }
       const node: StationNode = {
-        key,
+        key: named.key,
         kind: 'socket',
-        label: s.label || 'Planned foot-restraint socket',
+        label: s.label || named.label,
         position: s.position,
-        normal: s.normal.map((v) => v / len) as Vec3,
+        normal,
+        ...(s.notes ? { notes: s.notes } : {}),
       };
-      const edge: StationEdge = { from: nearest.key, to: key, kind: 'hop' };
+      const edge: StationEdge = { from: nearest.key, to: named.key, kind: 'hop' };
       return { node, edge, hopM: best };
     });
-    if (details.length)
-      throw badRequest(`The request is not valid: ${details[0].path} ${details[0].message}`, details);
     const ord = (table: typeof nodes | typeof edges) =>
       (tx
         .select({ m: max(table.ord) })
@@ -327,18 +335,19 @@ export function acceptSocketPlan(
         .run();
     });
     const keys = added.map((a) => a.node.key);
+    sockets = added.map((a) => ({ ...a.node, joinedTo: a.edge.from, hopM: a.hopM }));
     return {
       action: 'sockets.accept',
       target: keys.join(', '),
       before: undefined,
       after: { nodes: added.map((a) => a.node), edges: added.map((a) => a.edge) },
       summary: `added ${keys.length} planned foot-restraint socket${keys.length === 1 ? '' : 's'} (${keys.join(', ')})`,
-      result: { sockets: added.map((a) => ({ ...a.node, joinedTo: a.edge.from, hopM: a.hopM })) },
+      result: { sockets },
       revalidate: true,
       change: changeSince(tx, stationId, doc),
     };
   });
-  return notDryRun(written);
+  return isDryRun(written) ? { ...written, sockets } : written;
 }
 
 export function orbitFor(query: OrbitQuery) {

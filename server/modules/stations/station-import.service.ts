@@ -1,8 +1,11 @@
 import type { Db } from '../../db/client';
 import { readStoredUpload, readTextUpload } from '../../lib/uploads';
-import type { ImportStationResult } from '@shared/schemas/station-edits';
+import { asc, eq } from 'drizzle-orm';
+import { stations } from '../../db/schema';
+import type { ImportStationPreview, ImportStationResult } from '@shared/schemas/station-edits';
 import { importStationCsv } from './station-csv.service';
 import {
+  docCounts,
   importStation,
   parseStationDocumentText,
   replaceStationModel,
@@ -33,10 +36,26 @@ async function documentOf(file: UploadedFile) {
 export interface ImportDocumentJob {
   file: UploadedFile;
   editor: Editor;
+  /** the new station's name in place of the document's (importing an export beside its station) */
+  name?: string;
+  /** read and check the document and name the stations of the same name; write nothing */
+  dryRun?: boolean;
 }
 
-export async function importDocumentJob(db: Db, job: ImportDocumentJob): Promise<ImportStationResult> {
-  return importStation({ db }, await documentOf(job.file), job.editor);
+export async function importDocumentJob(
+  db: Db,
+  job: ImportDocumentJob,
+): Promise<ImportStationResult | ImportStationPreview> {
+  const read = await documentOf(job.file);
+  const doc = job.name ? { ...read, name: job.name } : read;
+  if (!job.dryRun) return importStation({ db }, doc, job.editor);
+  const sameName = db
+    .select({ id: stations.id, name: stations.name, version: stations.version })
+    .from(stations)
+    .where(eq(stations.name, doc.name))
+    .orderBy(asc(stations.id))
+    .all();
+  return { dryRun: true, name: doc.name, counts: docCounts(doc), sameName };
 }
 
 export interface ReplaceDocumentJob {

@@ -46,6 +46,11 @@ export const CSV_FILE_MAX_BYTES = 10 * MB;
 const GraphQuerySchema = z.object({ version: VersionTextSchema.optional() });
 const StationVersionParamsSchema = StationIdParamsSchema.extend({ version: VersionTextSchema });
 
+/** A new station's import form: `name` in place of the document's (a form field). */
+const ImportFormSchema = z.object({
+  name: z.string().trim().min(1, 'a station needs a name').max(200).optional(),
+});
+
 /** The `version` of a multipart form: a form field or `?version=` (a field wins). */
 const MultipartVersionSchema = z.object({ version: VersionTextSchema.optional() });
 
@@ -66,7 +71,7 @@ function stationDocumentFile(req: Request): UploadedFile {
 const editor = (req: Request): Editor => ({ id: req.user!.id, name: req.user!.name });
 
 /** `?dryRun=1` on a station write: answer the reviewed plans it would touch, and write nothing. */
-const DryRunQuerySchema = z.object({
+export const DryRunQuerySchema = z.object({
   dryRun: z
     .enum(['0', '1', 'false', 'true'])
     .optional()
@@ -74,7 +79,7 @@ const DryRunQuerySchema = z.object({
 });
 type DryRunQuery = z.infer<typeof DryRunQuerySchema>;
 /** The app as a write sees it: with `dryRun`, the write rolls back and answers the model it would make. */
-const withDryRun = (ctx: AppContext, dryRun: boolean): AppContext =>
+export const withDryRun = (ctx: AppContext, dryRun: boolean): AppContext =>
   dryRun ? ({ ...ctx, dryRun } as AppContext) : ctx;
 const DeleteQuerySchema = VersionQuerySchema.extend(DryRunQuerySchema.shape);
 const MultipartQuerySchema = MultipartVersionSchema.extend(DryRunQuerySchema.shape);
@@ -84,14 +89,13 @@ const MultipartQuerySchema = MultipartVersionSchema.extend(DryRunQuerySchema.sha
  * get the change listed on them and their authors a mail. A dry run always answers the list (maybe
  * empty) and writes nothing.
  */
-async function withAffectedPlans(ctx: AppContext, req: Request, stationId: number, written: unknown) {
+export async function withAffectedPlans(ctx: AppContext, req: Request, stationId: number, written: unknown) {
   const r = (await written) as DryRunAnswer | { version?: number; station?: { version: number } };
-  if (isDryRun(r))
-    return {
-      dryRun: true,
-      version: r.version,
-      affectedPlans: previewAffectedPlans(ctx, stationId, r.version, r.document),
-    };
+  if (isDryRun(r)) {
+    // what else the write says it would do (the sockets an accept adds) stays; the model does not
+    const { document, ...rest } = r;
+    return { ...rest, affectedPlans: previewAffectedPlans(ctx, stationId, r.version, document) };
+  }
   const version = r.version ?? r.station!.version;
   const affectedPlans = await noticeStationWrite(ctx, stationId, version, editor(req));
   // named only when there are some: a write that touches no reviewed plan answers as it always has
@@ -178,9 +182,20 @@ export function stationsRouter(ctx: AppContext) {
       access: 'stations:import',
       status: 201,
       before: [documentUpload],
-      handler: (req) =>
-        runTask(ctx, 'station-import', { file: stationDocumentFile(req), editor: editor(req) }),
-      emits: (_input, r) => answered('station')(_input, (r as { station?: unknown }).station),
+      input: { query: DryRunQuerySchema, body: ImportFormSchema },
+      handler: async (req, res, { query, body }) => {
+        const answer = await runTask(ctx, 'station-import', {
+          file: stationDocumentFile(req),
+          editor: editor(req),
+          ...(body.name ? { name: body.name } : {}),
+          dryRun: query.dryRun,
+        });
+        if (!query.dryRun) return answer;
+        // a dry run wrote nothing: 200 with the document's name, counts and the stations named so
+        res.status(200).json(answer);
+      },
+      // nothing to tell after a dry run (its answer went out above; the handler returned nothing)
+      emits: (_input, r) => answered('station')(_input, (r as { station?: unknown } | undefined)?.station),
     }),
     defineRoute({
       method: 'get',

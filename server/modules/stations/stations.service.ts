@@ -665,7 +665,7 @@ function deleteModel(tx: Tx, stationId: number) {
     tx.delete(table).where(eq(table.stationId, stationId)).run();
 }
 
-const docCounts = (doc: StationDocument): StationCounts => ({
+export const docCounts = (doc: StationDocument): StationCounts => ({
   nodes: doc.nodes.length,
   edges: doc.edges.length,
   hazards: doc.hazards.length,

@@ -1,11 +1,11 @@
 import { useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
 import { useQueryClient, type QueryClient } from '@tanstack/react-query';
-import { useParams, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { Link, useParams, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
 import type { Vec3 } from '@shared/schemas/station';
 import type { StationGraph } from '@shared/schemas/station-edits';
 import { PageHeader } from '@/components/layouts/app-layout';
 import { Alert } from '@/components/ui/alert';
-import { Button } from '@/components/ui/button';
+import { Button, focusRing } from '@/components/ui/button';
 import { Panel } from '@/components/ui/card';
 import { Dialog } from '@/components/ui/dialog';
 import { PlanningCaution } from '@/components/ui/planning-caution';
@@ -13,6 +13,8 @@ import { PageSpinner } from '@/components/ui/spinner';
 import { apiErrorMessage } from '@/lib/api-client';
 import { useCan } from '@/lib/authorization';
 import { formatDateTime } from '@/lib/format';
+import { cn } from '@/lib/cn';
+import { paths } from '@/config/paths';
 import {
   ALL_LAYERS_ON,
   SceneLegend,
@@ -26,6 +28,7 @@ import {
 import { downloadStationExport } from '@/features/stations/api/export-station';
 import { getStationGraphQueryOptions, useStationGraph } from '@/features/stations/api/get-station-graph';
 import { ImportStationForm } from '@/features/stations/components/import-station-form';
+import { DeleteStationButton } from '@/features/stations/components/delete-station-button';
 import { NodeList } from '@/features/stations/components/node-list';
 import { PanelTabs } from '@/features/stations/components/panel-tabs';
 import { edgesOf, type StationSelection } from '@/features/stations/components/selection';
@@ -37,6 +40,11 @@ import { EditPanel } from '@/features/station-editor';
 import { stationKeys } from '@/features/stations/api/keys';
 
 const stationIdOf = (raw: string | undefined) => Number(raw);
+
+const linkButtonClass = cn(
+  'inline-flex h-10 items-center rounded-md border border-surface-line bg-surface-panel px-4 text-sm font-medium text-text-strong hover:bg-surface-sunken',
+  focusRing,
+);
 
 export const clientLoader =
   (queryClient: QueryClient) =>
@@ -178,6 +186,7 @@ export function StationView({
 
 function StationActions({ graph }: { graph: StationGraph }) {
   const canImport = useCan('stations:import');
+  const canPlanSockets = useCan('sockets:save');
   const [replacing, setReplacing] = useState(false);
   const [exportError, setExportError] = useState<unknown>(null);
   const [exporting, setExporting] = useState(false);
@@ -201,11 +210,17 @@ function StationActions({ graph }: { graph: StationGraph }) {
       >
         Export JSON
       </Button>
+      {canPlanSockets && (
+        <Link className={linkButtonClass} to={paths.sockets.getHref(station.id)}>
+          Plan foot-restraint sockets
+        </Link>
+      )}
       {canImport && (
         <Button variant="secondary" onClick={() => setReplacing(true)}>
           Replace model…
         </Button>
       )}
+      {canImport && <DeleteStationButton station={station} />}
       {exportError != null && (
         <Alert tone="danger">{apiErrorMessage(exportError, 'The export failed.')}</Alert>
       )}
@@ -214,7 +229,9 @@ function StationActions({ graph }: { graph: StationGraph }) {
         title={`Replace the model of ${station.name}`}
         onClose={() => setReplacing(false)}
       >
-        <ImportStationForm target={{ mode: 'replace', stationId: station.id, version: station.version }} />
+        <ImportStationForm
+          target={{ mode: 'replace', stationId: station.id, version: station.version, name: station.name }}
+        />
       </Dialog>
     </>
   );

@@ -51,7 +51,11 @@ export default function StationsRoute() {
         )}
       </Panel>
       <Dialog open={importing} title="Import a station" onClose={() => setImporting(false)}>
-        <ImportStationForm target={{ mode: 'new' }} onSuccess={({ station }) => setImported(station)} />
+        <ImportStationForm
+          target={{ mode: 'new' }}
+          stationNames={stations.data?.map((s) => s.name) ?? []}
+          onSuccess={({ station }) => setImported(station)}
+        />
         {imported && (
           <p className="mt-3 text-sm">
             <TextLink to={paths.station.getHref(imported.id)}>Open {imported.name}</TextLink>

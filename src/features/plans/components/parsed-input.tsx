@@ -2,6 +2,7 @@ import { useEffect, useRef, useState } from 'react';
 import type { z } from 'zod';
 import { Field } from '@/components/ui/field';
 import { Input } from '@/components/ui/input';
+import { useReportFieldError } from '../lib/field-validity';
 
 interface ParsedInputProps {
   label: string;
@@ -22,6 +23,8 @@ export function ParsedInput({ label, hint, value, format, schema, onCommit, read
   const [text, setText] = useState(() => format(value));
   const [error, setError] = useState<string>();
   const focused = useRef(false);
+  // the draft keeps the last good value: the page's save state must still say this field is not saved
+  useReportFieldError(readOnly ? undefined : error);
 
   useEffect(() => {
     if (!focused.current) setText(format(value));

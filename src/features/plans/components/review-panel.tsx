@@ -49,9 +49,11 @@ interface ReviewPanelProps {
   user: User;
   /** the editor has changes the server has not saved yet */
   unsaved: boolean;
+  /** why they are not saved, when it is more than a moment's wait (fields to fix) */
+  unsavedText?: string;
 }
 
-export function ReviewPanel({ plan, user, unsaved }: ReviewPanelProps) {
+export function ReviewPanel({ plan, user, unsaved, unsavedText }: ReviewPanelProps) {
   const queryClient = useQueryClient();
   const [comment, setComment] = useState('');
   const [done, setDone] = useState<string | null>(null);
@@ -131,7 +133,7 @@ export function ReviewPanel({ plan, user, unsaved }: ReviewPanelProps) {
             )}
           </div>
           {canSubmit && unsaved && (
-            <p className="text-sm text-caution">Save your changes before submitting.</p>
+            <p className="text-sm text-caution">{unsavedText ?? 'Save your changes before submitting.'}</p>
           )}
           {canSubmit && !unsaved && plan.tasks.length === 0 && (
             <p className="text-sm text-text-muted">Add the day’s tasks before submitting the plan.</p>

@@ -14,13 +14,22 @@ const TEXT: Record<SaveState, { mark: string; text: string; tone: string }> = {
 export function SaveIndicator({
   state,
   version,
+  invalidCount = 0,
   onSave,
 }: {
   state: SaveState;
   version: number;
+  /** fields to fix before the plan can be saved */
+  invalidCount?: number;
   onSave: () => void;
 }) {
-  const t = TEXT[state];
+  const t =
+    state === 'invalid' && invalidCount > 0
+      ? {
+          ...TEXT.invalid,
+          text: `Not saved: fix ${invalidCount} field${invalidCount === 1 ? '' : 's'}`,
+        }
+      : TEXT[state];
   return (
     <div className="flex items-center gap-3">
       <p

@@ -25,7 +25,12 @@ export type SaveState = 'saved' | 'unsaved' | 'saving' | 'invalid' | 'conflict' 
  * stops saving and reports what the server's plan has that the draft does not; nothing is sent
  * over it until the planner reloads.
  */
-export function usePlanDraft(plan: PlanView, editable: boolean) {
+export function usePlanDraft(
+  plan: PlanView,
+  editable: boolean,
+  /** fields on the page holding text that does not read as a value (not in the draft, so not saved) */
+  unreadableFields = 0,
+) {
   const queryClient = useQueryClient();
   const [draft, setDraft] = useState(() => draftFromPlan(plan));
   const [base, setBase] = useState(() => ({ draft: draftFromPlan(plan), version: plan.version }));
@@ -35,6 +40,8 @@ export function usePlanDraft(plan: PlanView, editable: boolean) {
   const changes = draftChanges(base.draft, draft, base.version);
   const parsed = changes ? UpdatePlanInputSchema.safeParse(changes) : null;
   const invalid = parsed && !parsed.success ? parsed.error.issues : null;
+  /** fields to fix before anything is saved: the draft's own and those the page could not read */
+  const invalidCount = (invalid?.length ?? 0) + unreadableFields;
 
   // a review step or a reload elsewhere: take the server's plan when nothing here is unsaved
   const [seenVersion, setSeenVersion] = useState(plan.version);
@@ -47,7 +54,7 @@ export function usePlanDraft(plan: PlanView, editable: boolean) {
   }
 
   const save = useCallback(() => {
-    if (!changes || invalid || update.isPending || conflict || !editable) return;
+    if (!changes || invalidCount || update.isPending || conflict || !editable) return;
     const sent = draft;
     update.mutate(
       { id: plan.id, data: changes },
@@ -75,13 +82,13 @@ export function usePlanDraft(plan: PlanView, editable: boolean) {
         },
       },
     );
-  }, [changes, invalid, update, conflict, editable, draft, plan.id]);
+  }, [changes, invalidCount, update, conflict, editable, draft, plan.id]);
 
   useEffect(() => {
-    if (!changes || invalid || update.isPending || conflict || !editable || update.isError) return;
+    if (!changes || invalidCount || update.isPending || conflict || !editable || update.isError) return;
     const timer = setTimeout(save, AUTOSAVE_DELAY_MS);
     return () => clearTimeout(timer);
-  }, [changes, invalid, update.isPending, update.isError, conflict, editable, save]);
+  }, [changes, invalidCount, update.isPending, update.isError, conflict, editable, save]);
 
   const change = useCallback(
     (patch: Partial<PlanDraft>) => {
@@ -108,7 +115,7 @@ export function usePlanDraft(plan: PlanView, editable: boolean) {
       ? 'saving'
       : update.isError
         ? 'error'
-        : invalid
+        : invalidCount
           ? 'invalid'
           : changes
             ? 'unsaved'
@@ -123,6 +130,7 @@ export function usePlanDraft(plan: PlanView, editable: boolean) {
     state,
     error: update.error,
     invalid,
+    invalidCount,
     savedVersion: base.version,
   };
 }

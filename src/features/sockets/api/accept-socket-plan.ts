@@ -1,5 +1,9 @@
 import type { QueryKey } from '@tanstack/react-query';
-import type { AcceptSocketPlanInput, AcceptSocketPlanResult } from '@shared/schemas/sockets';
+import type {
+  AcceptSocketPlanInput,
+  AcceptSocketPlanPreview,
+  AcceptSocketPlanResult,
+} from '@shared/schemas/sockets';
 import { api } from '@/lib/api-client';
 import { useInvalidatingMutation } from '@/lib/mutation';
 
@@ -8,6 +12,14 @@ export function acceptSocketPlan({
   ...body
 }: AcceptSocketPlanInput & { stationId: number }): Promise<AcceptSocketPlanResult> {
   return api.post(`/stations/${stationId}/socket-plan/accept`, body);
+}
+
+/** What the accept would add (keys, labels, joins) and the reviewed plans it touches; nothing is written. */
+export function previewSocketPlanAccept({
+  stationId,
+  ...body
+}: AcceptSocketPlanInput & { stationId: number }): Promise<AcceptSocketPlanPreview> {
+  return api.post(`/stations/${stationId}/socket-plan/accept?dryRun=1`, body);
 }
 
 /**

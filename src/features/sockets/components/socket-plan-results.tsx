@@ -1,4 +1,6 @@
-import { formatLength } from '@shared/compute/units';
+import { formatLength, type LengthUnit } from '@shared/compute/units';
+import type { AcceptSocketPlanPreview } from '@shared/schemas/sockets';
+import { AffectedPlansList, InlineConfirm, affectedPlansText } from '@/components/affected-plans-prompt';
 import { Alert } from '@/components/ui/alert';
 import { Button, focusRing } from '@/components/ui/button';
 import { Spinner } from '@/components/ui/spinner';
@@ -17,11 +19,81 @@ interface SocketPlanResultsProps {
   onReload: () => void;
 }
 
+/** What an accept would write, asked before it is: the new nodes and hops, and any reviewed plans touched. */
+function AcceptConfirm({
+  preview,
+  unit,
+  isSaving,
+  onConfirm,
+  onCancel,
+}: {
+  preview: AcceptSocketPlanPreview;
+  unit: LengthUnit;
+  isSaving: boolean;
+  onConfirm: () => void;
+  onCancel: () => void;
+}) {
+  const n = preview.sockets.length;
+  const what = `add ${n} socket${n === 1 ? '' : 's'}`;
+  return (
+    <Alert
+      tone={preview.affectedPlans.length ? 'caution' : 'info'}
+      title={`Add ${n} socket${n === 1 ? '' : 's'} to the station model (version ${preview.version})?`}
+    >
+      <table className="mt-1 w-full text-left text-sm" aria-label="Sockets to add">
+        <thead>
+          <tr className="text-xs text-text-muted">
+            <th className="py-0.5 pr-3 font-medium">Key</th>
+            <th className="py-0.5 pr-3 font-medium">Label</th>
+            <th className="py-0.5 font-medium">Joined to</th>
+          </tr>
+        </thead>
+        <tbody>
+          {preview.sockets.map((s) => (
+            <tr key={s.key}>
+              <td className="py-0.5 pr-3 font-mono font-semibold">{s.key}</td>
+              <td className="py-0.5 pr-3">{s.label}</td>
+              <td className="py-0.5">
+                {s.joinedTo} by a {formatLength(s.hopM, unit)} hop
+              </td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      {preview.affectedPlans.length > 0 && (
+        <>
+          <p className="mt-2 font-medium">This change touches reviewed plans.</p>
+          <p>{affectedPlansText(what, preview.affectedPlans.length)}</p>
+          <AffectedPlansList plans={preview.affectedPlans} />
+        </>
+      )}
+      <InlineConfirm
+        label={`Add ${n} socket${n === 1 ? '' : 's'}`}
+        isLoading={isSaving}
+        onConfirm={onConfirm}
+        onCancel={onCancel}
+      />
+    </Alert>
+  );
+}
+
 /** The run's sockets, what each serves, the assignments, and the accept of the new ones. */
 export function SocketPlanResults({ planner, nodeHref, onReload }: SocketPlanResultsProps) {
   const canSave = useCan('sockets:save');
-  const { station, run, plan, views, rows, newCount, framed, setFramed, accept, accepted, conflict } =
-    planner;
+  const {
+    station,
+    run,
+    plan,
+    views,
+    rows,
+    newCount,
+    framed,
+    setFramed,
+    accept,
+    preview,
+    accepted,
+    conflict,
+  } = planner;
   if (!run) return null;
   return (
     <section aria-label="Socket plan" className="space-y-4">
@@ -84,22 +156,35 @@ export function SocketPlanResults({ planner, nodeHref, onReload }: SocketPlanRes
             ))}
           </ul>
           <SocketPlanTable rows={rows} unit={run.unit} />
-          {canSave && newCount > 0 && !accepted && (
+          {canSave && newCount > 0 && !accepted && !preview.data && (
             <div className="flex items-center gap-3">
-              <Button isLoading={accept.isPending} onClick={planner.acceptNew}>
-                Accept {newCount} new socket{newCount === 1 ? '' : 's'}
+              <Button isLoading={preview.isPending || accept.isPending} onClick={planner.previewNew}>
+                Accept {newCount} new socket{newCount === 1 ? '' : 's'}…
               </Button>
               <span className="text-xs text-text-muted">
-                Adds them to the station model, each joined by a hop to the nearest handrail node.
+                Shows what would be added to the station model first: each socket named after its bay and
+                joined by a hop to the nearest handrail junction or anchor.
               </span>
             </div>
+          )}
+          {preview.data && (
+            <AcceptConfirm
+              preview={preview.data}
+              unit={run.unit}
+              isSaving={accept.isPending}
+              onConfirm={planner.acceptNew}
+              onCancel={planner.cancelAccept}
+            />
           )}
           {canSave && newCount === 0 && (
             <p className="text-sm text-text-muted">Every chosen socket already exists: nothing to add.</p>
           )}
           {conflict && (
             <Alert tone="danger" title="The station changed since this plan was computed">
-              <p>{accept.error?.message} Reload the station and plan again; nothing was saved.</p>
+              <p>
+                {(accept.error ?? preview.error)?.message} Reload the station and plan again; nothing was
+                saved.
+              </p>
               <Button
                 size="sm"
                 variant="secondary"
@@ -113,8 +198,10 @@ export function SocketPlanResults({ planner, nodeHref, onReload }: SocketPlanRes
               </Button>
             </Alert>
           )}
-          {accept.error && !conflict && (
-            <Alert tone="danger">{apiErrorMessage(accept.error, 'The sockets could not be saved.')}</Alert>
+          {(accept.error ?? preview.error) && !conflict && (
+            <Alert tone="danger">
+              {apiErrorMessage(accept.error ?? preview.error, 'The sockets could not be saved.')}
+            </Alert>
           )}
           {accepted && (
             <Alert
@@ -127,7 +214,7 @@ export function SocketPlanResults({ planner, nodeHref, onReload }: SocketPlanRes
                     <a className={cn('font-mono font-semibold underline', focusRing)} href={nodeHref(s.key)}>
                       {s.key}
                     </a>{' '}
-                    joined to {s.joinedTo} by a {formatLength(s.hopM, run.unit)} hop
+                    {s.label} · joined to {s.joinedTo} by a {formatLength(s.hopM, run.unit)} hop
                   </li>
                 ))}
               </ul>

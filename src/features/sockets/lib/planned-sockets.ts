@@ -104,16 +104,19 @@ export function assignmentRows(
   });
 }
 
-/** The body of the accept request: only the new sockets, labelled by the targets they serve. */
+/**
+ * The body of the accept request: only the new sockets, with the targets they serve as notes (the
+ * server names and labels them after their bay, like the model's own sockets).
+ */
 export function newSocketsToAccept(sockets: readonly PlannedSocketView[], targets: readonly PlanTarget[]) {
   return sockets
     .filter((s) => s.isNew)
     .map((s) => ({
       position: s.position,
       normal: s.normal,
-      label: `Planned socket for ${s.targets.map((t) => targets[t].label).join(', ') || 'no target'}`.slice(
+      notes: `Planned to serve ${s.targets.map((t) => targets[t].label).join(', ') || 'no target'}.`.slice(
         0,
-        200,
+        4000,
       ),
     }));
 }

@@ -1,10 +1,10 @@
 import { useMemo, useState } from 'react';
-import type { QueryKey } from '@tanstack/react-query';
+import { useMutation, type QueryKey } from '@tanstack/react-query';
 import type { AcceptSocketPlanResult, SocketPlanRequest } from '@shared/schemas/sockets';
 import type { NodeKind, Vec3 } from '@shared/schemas/station';
 import type { LengthUnit } from '@shared/compute/units';
 import { staleVersionOf } from '@/lib/api-client';
-import { useAcceptSocketPlan } from '../api/accept-socket-plan';
+import { previewSocketPlanAccept, useAcceptSocketPlan } from '../api/accept-socket-plan';
 import { useSocketPlan } from '../api/get-socket-plan';
 import { assignmentRows, newSocketsToAccept, plannedSocketViews, type PlanTarget } from './planned-sockets';
 
@@ -45,6 +45,8 @@ export function useSocketPlanner(
 
   const plan = useSocketPlan(station.id, run?.version ?? station.version, run?.request ?? null);
   const accept = useAcceptSocketPlan({ invalidates: options.invalidates, onSuccess: setAccepted });
+  // the accept is asked first: a dry run lists what it adds and the reviewed plans it touches
+  const preview = useMutation({ mutationFn: previewSocketPlanAccept });
   const views = useMemo(
     () => (plan.data && run ? plannedSocketViews(plan.data, nodesByKey, station.reach) : []),
     [plan.data, run, nodesByKey, station.reach],
@@ -83,12 +85,14 @@ export function useSocketPlanner(
       setAccepted(null);
       setFramed(null);
       accept.reset();
+      preview.reset();
       setRun({ ...next, version: station.version });
     },
     /** drops the run, e.g. after the station changed under it */
     discard: () => {
       setRun(null);
       accept.reset();
+      preview.reset();
     },
     plan,
     views,
@@ -98,17 +102,27 @@ export function useSocketPlanner(
     setFramed,
     focus,
     accept,
-    acceptNew: () => {
+    preview,
+    /** asks the server what accepting the new sockets would add (nothing is written) */
+    previewNew: () => {
+      accept.reset();
       if (run)
-        accept.mutate({
+        preview.mutate({
           stationId: station.id,
           version: run.version,
           sockets: newSocketsToAccept(views, run.targets),
         });
     },
+    /** writes what the preview showed */
+    acceptNew: () => {
+      const asked = preview.variables;
+      preview.reset();
+      if (asked) accept.mutate(asked);
+    },
+    cancelAccept: () => preview.reset(),
     accepted,
     /** the accept was refused because the station changed since the run */
-    conflict: staleVersionOf(accept.error) !== null,
+    conflict: staleVersionOf(accept.error ?? preview.error) !== null,
   };
 }
 

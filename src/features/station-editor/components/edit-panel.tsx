@@ -10,7 +10,7 @@ import {
   useEditStation,
   type StationEdit,
 } from '../api/edit-station';
-import { AffectedPlansPrompt } from './affected-plans-prompt';
+import { AffectedPlansPrompt } from '@/components/affected-plans-prompt';
 import type { EditableGraph, SurfacePick } from '../utils/types';
 import { ArmsEditor } from './arms-editor';
 import { AuditList } from './audit-list';
