@@ -1,4 +1,5 @@
 import type { Arm, Hazard } from '../schemas/station';
+import type { ArmBlock } from './day/types';
 import { dist, segmentIntersectsAabb, segmentIntersectsSphere, type ReadonlyVec3 } from './geometry';
 
 /** Metres: a point this close to the shell's surface counts as inside it. */
@@ -65,4 +66,29 @@ export function armTipAt(
 ): [number, number, number] {
   const f = travelEnd <= start ? 1 : Math.min(1, Math.max(0, (t - start) / (travelEnd - start)));
   return [a[0] + (b[0] - a[0]) * f, a[1] + (b[1] - a[1]) * f, a[2] + (b[2] - a[2]) * f];
+}
+
+/**
+ * Where an arm's tip is at time `t` of the day, from its moves (in time order): at the start point
+ * before the first, along a move while it travels, at the move's end from then until the next.
+ * Null for an arm the day never moves or boards.
+ */
+export function armTipAtTime(
+  lane: {
+    startPoint: ReadonlyVec3 | null;
+    blocks: readonly Pick<ArmBlock, 'start' | 'travelEnd' | 'fromPoint' | 'toPoint'>[];
+  },
+  t: number,
+): [number, number, number] | null {
+  let lo = 0;
+  let hi = lane.blocks.length;
+  // the first move that starts after t
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (lane.blocks[mid].start <= t) lo = mid + 1;
+    else hi = mid;
+  }
+  if (lo === 0) return lane.startPoint ? [...lane.startPoint] : null;
+  const b = lane.blocks[lo - 1];
+  return armTipAt(b.fromPoint, b.toPoint, b.start, b.travelEnd, t);
 }

@@ -16,7 +16,8 @@ export interface PlaybackNode {
 type PlaybackDay = Pick<
   Timeline,
   'crew' | 'routes' | 'endSeconds' | 'equipment' | 'timeLimitSeconds' | 'nightWindows' | 'warnings'
->;
+> &
+  Partial<Pick<Timeline, 'arms'>>;
 
 /**
  * A plan's day as a playback — crew tracks, tether states, items and installed restraints on the
@@ -58,6 +59,7 @@ export function planPlaybackOf(
     ),
     equipment: timeline.equipment,
     normals,
+    arms: timeline.arms ?? [],
     warnings: timeline.warnings.map((w) => w.message),
   };
 }

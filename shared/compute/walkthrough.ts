@@ -352,6 +352,37 @@ function addBlock(
         swap(b, block.swapNode, block.paidOutM ?? b.paid, block.start, block.end, block.taskIndex);
       } else hold(b, block.start, block.end);
       return;
+    case 'arm-ride': {
+      // the arm carries the rider in a straight line, then settles
+      const from = b.at;
+      const to = block.to ?? b.at;
+      const arrive = Math.min(block.end, Math.max(block.start, block.travelEnd ?? block.end));
+      if (arrive > block.start)
+        b.pieces.push({
+          t0: block.start,
+          t1: arrive,
+          from: b.position(from),
+          to: b.position(to),
+          anchorKey: b.anchorKey,
+          paid0: b.paid,
+          paid1: b.paid,
+        });
+      b.at = to;
+      hold(b, arrive, block.end);
+      addStep(b, {
+        type: 'arm-ride',
+        start: block.start,
+        end: block.end,
+        title: block.label,
+        detail: `${block.label}: ${from} to ${to}, ${formatElapsed(block.end - block.start)}; tethered to the arm.`,
+        nodeKey: to,
+        fromKey: from,
+        paidOutM: b.paid,
+        anchorKey: b.anchorKey,
+        ...tag,
+      });
+      return;
+    }
     case 'restraint-in':
     case 'restraint-out': {
       const socket = block.socket ?? '';
@@ -361,6 +392,12 @@ function addBlock(
           ? ` Set yaw ${block.yawSetDeg}°, pitch ${block.pitchSetDeg}°.`
           : '';
       hold(b, block.start, block.end);
+      // getting on an arm tethers to it; getting off clips back to the station where they are
+      if (block.arm && block.tetherAtEnd) {
+        if (block.to) b.at = block.to;
+        b.anchorKey = block.tetherAtEnd.anchor;
+        b.paid = block.tetherAtEnd.paidOutM;
+      }
       addStep(b, {
         type: block.type,
         start: block.start,

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import type { EquipmentTrack } from '../compute/day/types';
+import type { ArmLane, EquipmentTrack } from '../compute/day/types';
 import type { CrewTrack } from '../compute/walkthrough';
 import type { OrbitWindow } from '../compute/orbit';
 import type { CrewMember, PlanStatus } from './plan';
@@ -130,6 +130,8 @@ export interface PlanPlayback extends PlaybackCommon {
   equipment: EquipmentTrack[];
   /** outward normals of the sockets an item is installed in, to stand the restraint on */
   normals: Record<string, Vec3>;
+  /** the arms the day uses: base, shell and every move of the tip (absent in older answers) */
+  arms?: ArmLane[];
 }
 
 export interface RoutePlayback extends PlaybackCommon {

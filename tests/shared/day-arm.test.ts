@@ -5,31 +5,14 @@ import type { DayPlan, Timeline } from '@shared/compute/day/types';
 import type { CrewMember } from '@shared/schemas/plan';
 import type { StationDocumentInput } from '@shared/schemas/station';
 import { LINE_KEYS as K, buildDayPlan, dayEngine, dayTask, lineStationDocument } from '../factories/day';
+import { ARM_1, armLineDocument, restraintOnArm } from '../factories/day-arm';
 
-/**
- * The line station (see the factory) with an arm based at A2 (16, 0, 0): reach 1–20 m, tip 0.1 m/s,
- * 30 s settle; and a worksite WX at (8, 6, 8), off every handrail, 10 m from A1 and √164 ≈ 12.8 m
- * from the arm's base. A second, short arm ARM-2 at A3 (24, 0, 0), reach 6 m.
- */
-const ARM = { key: 'ARM-1', baseNode: K.a2, reachM: 20, minReachM: 1, tipSpeedMps: 0.1, settleSeconds: 30 };
+/** The arm line station (see the factory), and a second, short arm ARM-2 at A3 (24, 0, 0), reach 6 m. */
+const ARM = ARM_1;
 const ARM2 = { key: 'ARM-2', baseNode: K.a3, reachM: 6, tipSpeedMps: 0.1, settleSeconds: 30 };
 function armStation(over: Partial<StationDocumentInput> = {}) {
-  const base = lineStationDocument();
-  return dayEngine(
-    lineStationDocument({
-      nodes: [...base.nodes, { key: 'WX', kind: 'worksite', position: [8, 6, 8] }],
-      arms: [ARM, ARM2],
-      ...over,
-    }),
-  );
+  return dayEngine(armLineDocument({ arms: [ARM, ARM2], ...over }));
 }
-const restraintOnArm = {
-  key: 'afr',
-  name: 'Arm foot restraint',
-  kind: 'foot-restraint' as const,
-  installedAt: 'ARM-1',
-  leaveOutside: true,
-};
 const plan = (over: Partial<DayPlan>) =>
   buildDayPlan({ egressSeconds: 0, ingressSeconds: 0, manifest: [restraintOnArm], ...over });
 const onArm = (ingress: string, more: object = {}) => ({ arm: { key: 'ARM-1', ingress, ...more } });

@@ -347,6 +347,8 @@ export class ArmDesk<L extends RiderLane> {
         key: s.arm.key,
         ...(s.arm.label ? { label: s.arm.label } : {}),
         base: s.arm.base,
+        reachM: s.arm.reachM,
+        ...(s.arm.minReachM !== undefined ? { minReachM: s.arm.minReachM } : {}),
         startPoint: s.startPoint,
         blocks: s.blocks,
         sessions: s.sessions,
@@ -358,7 +360,13 @@ export class ArmDesk<L extends RiderLane> {
     const seconds = armTipMoveSeconds(state.arm, state.tip!, point);
     if (seconds === 0) return;
     this.move(state, to, point, lane.t, lane.crew, i);
-    this.ctx.push(lane, 'arm-ride', seconds, label, { taskIndex: i, arm: state.arm.key, from: lane.at, to });
+    this.ctx.push(lane, 'arm-ride', seconds, label, {
+      taskIndex: i,
+      arm: state.arm.key,
+      from: lane.at,
+      to,
+      travelEnd: lane.t + seconds - state.arm.settleSeconds,
+    });
     lane.at = to;
   }
 

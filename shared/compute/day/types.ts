@@ -193,6 +193,8 @@ export interface TimelineBlock {
    * tethered to it (`tetherAtEnd` of the get-in); the get-out clips them back to the station.
    */
   arm?: string;
+  /** arm-ride: when the tip arrives; the arm settles from then to `end` */
+  travelEnd?: number;
 }
 
 /** A move of an arm's tip: a straight line, then the settle time. */
@@ -229,6 +231,9 @@ export interface ArmLane {
   key: string;
   label?: string;
   base: Vec3;
+  /** the arm's shell, to draw it: minReachM ≤ |tip − base| ≤ reachM */
+  reachM: number;
+  minReachM?: number;
   /** where the tip is at the start of the day (the first session's ingress), null when never used */
   startPoint: Vec3 | null;
   blocks: ArmBlock[];

@@ -5,7 +5,7 @@ import { isApiError } from '@/lib/api-client';
 import type { PlaybackSceneProps } from '@/features/walkthrough/components/walkthrough-player';
 
 /** The station in 3D with a playback drawn in it (the walkthrough and the plan's day both use it). */
-export function PlaybackScene({ stationId, overlays, apiRef, label }: PlaybackSceneProps) {
+export function PlaybackScene({ stationId, overlays, apiRef, label, movingArms }: PlaybackSceneProps) {
   const graph = useStationGraph(stationId);
   if (graph.data)
     return (
@@ -15,6 +15,7 @@ export function PlaybackScene({ stationId, overlays, apiRef, label }: PlaybackSc
         label={label}
         className="h-[440px]"
         overlays={overlays}
+        hiddenArms={movingArms}
       />
     );
   return (

@@ -16,7 +16,7 @@ import { formatDateTime } from '@/lib/format';
 import { cn } from '@/lib/cn';
 import { paths } from '@/config/paths';
 import {
-  ALL_LAYERS_ON,
+  DEFAULT_LAYERS,
   SceneLegend,
   SceneToolbar,
   StationScene,
@@ -97,7 +97,7 @@ export function StationView({
   const [selection, setSelection] = useState<StationSelection>(() =>
     linkedNode && graph.nodes.some((n) => n.key === linkedNode) ? { type: 'node', key: linkedNode } : null,
   );
-  const [layers, setLayers] = useState<SceneLayers>(ALL_LAYERS_ON);
+  const [layers, setLayers] = useState<SceneLayers>(DEFAULT_LAYERS);
   const [lastSurfacePick, setLastSurfacePick] = useState<SurfacePick | null>(null);
   const api = useMemo<SceneApi>(
     () => ({

@@ -1,6 +1,7 @@
 import * as THREE from 'three';
 import {
   NODE_KINDS,
+  type Arm,
   type Hazard,
   type NodeKind,
   type Segment,
@@ -20,12 +21,25 @@ export interface SceneStation {
   nodes: readonly StationNode[];
   edges: readonly SceneEdge[];
   hazards: readonly Hazard[];
+  /** robotic arms, drawn as booms in their own layer (the graph endpoint answers them) */
+  arms?: readonly Arm[];
 }
 
-export const LAYER_IDS = ['truss', 'handrails', ...NODE_KINDS, 'hazards', 'labels', 'annotations'] as const;
+export const LAYER_IDS = [
+  'truss',
+  'handrails',
+  ...NODE_KINDS,
+  'arms',
+  'armReach',
+  'hazards',
+  'labels',
+  'annotations',
+] as const;
 export type LayerId = (typeof LAYER_IDS)[number];
 export type SceneLayers = Record<LayerId, boolean>;
 export const ALL_LAYERS_ON = Object.fromEntries(LAYER_IDS.map((id) => [id, true])) as SceneLayers;
+/** What a scene opens with: everything but the arms' reach shells, which are large and see-through. */
+export const DEFAULT_LAYERS: SceneLayers = { ...ALL_LAYERS_ON, armReach: false };
 
 export type PickType = 'node' | 'segment' | 'hazard';
 export interface PickData {

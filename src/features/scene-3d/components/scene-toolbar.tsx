@@ -14,6 +14,8 @@ export const LAYER_LABELS: Record<LayerId, string> = {
   anchor: 'Anchors',
   socket: 'Sockets',
   worksite: 'Worksites',
+  arms: 'Arms',
+  armReach: 'Arm reach',
   hazards: 'Hazards',
   labels: 'Labels',
   annotations: 'Annotations',
@@ -22,6 +24,7 @@ export const LAYER_LABELS: Record<LayerId, string> = {
 const LAYER_GROUPS: [string, readonly LayerId[]][] = [
   ['Structure', ['truss', 'handrails']],
   ['Nodes', NODE_KINDS],
+  ['Arms', ['arms', 'armReach']],
   ['Overlays', ['hazards', 'labels', 'annotations']],
 ];
 

@@ -6,11 +6,12 @@ import { STATION_UP } from '../builders/frame';
 import type { SurfacePick } from '../builders/picking';
 import { SCENE_COLORS } from '../builders/scene-colors';
 import {
-  ALL_LAYERS_ON,
+  DEFAULT_LAYERS,
   buildStationObjects,
   type SceneLayers,
   type SceneStation,
 } from '../builders/station-objects';
+import { ArmsLayer } from './arms-layer';
 import { CameraRig } from './camera-rig';
 import { DrawCallProbe } from './draw-call-probe';
 import { HoverLabel, NodeLabels, SelectionHighlight, type SceneSelection } from './highlights';
@@ -28,6 +29,8 @@ export interface StationSceneProps {
   layers?: SceneLayers;
   /** extra r3f children drawn in the same canvas: route paths, swap markers, envelopes, pins */
   overlays?: ReactNode;
+  /** arms an overlay draws itself (a playback moving them): left out of the arms layer */
+  hiddenArms?: readonly string[];
   apiRef?: Ref<SceneApi>;
   label?: string;
   className?: string;
@@ -50,8 +53,9 @@ export function StationScene({
   onSelectHazard,
   onPickSurface,
   onHoverNode,
-  layers = ALL_LAYERS_ON,
+  layers = DEFAULT_LAYERS,
   overlays,
+  hiddenArms,
   apiRef,
   label = '3D view of the station',
   className,
@@ -113,6 +117,7 @@ export function StationScene({
           {layers.labels && (
             <NodeLabels station={graph} hidden={selection?.type === 'node' ? selection.key : null} />
           )}
+          <ArmsLayer station={graph} layers={layers} hidden={hiddenArms} />
           {overlays}
           <CameraRig outline={objects.outline} apiRef={innerApi} />
           <GizmoHelper alignment="bottom-left" margin={[64, 64]}>

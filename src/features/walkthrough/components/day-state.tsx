@@ -5,7 +5,11 @@ import type { Lane } from '../lib/playback-model';
 import { ITEM_STYLE, LANE_STYLES } from './lane-styles';
 
 /** Where an item is, in a few words, and as a data value tests and tools can read. */
-export function whereText(where: ItemWhere): { text: string; value: string } {
+export function whereText(
+  where: ItemWhere,
+  /** the station's arm keys: an item installed "at" one is on that arm's end */
+  arms: ReadonlySet<string> = new Set(),
+): { text: string; value: string } {
   switch (where.kind) {
     case 'airlock':
       return { text: 'in the airlock', value: 'airlock' };
@@ -14,7 +18,10 @@ export function whereText(where: ItemWhere): { text: string; value: string } {
     case 'at':
       return { text: `set down at ${where.node}`, value: `at:${where.node}` };
     case 'installed':
-      return { text: `installed at ${where.node}`, value: `installed:${where.node}` };
+      return {
+        text: arms.has(where.node) ? `installed on the end of ${where.node}` : `installed at ${where.node}`,
+        value: `installed:${where.node}`,
+      };
   }
 }
 
@@ -28,10 +35,12 @@ export function DayState({
   clock,
   lanes,
   equipment,
+  armKeys,
 }: {
   clock: PlaybackClock;
   lanes: readonly Lane[];
   equipment: readonly EquipmentTrack[];
+  armKeys?: ReadonlySet<string>;
 }) {
   // one string per moment that differs: the steps under way and each item's state
   const key = useClock(
@@ -96,7 +105,7 @@ export function DayState({
                     </span>{' '}
                     {e.name}
                   </th>
-                  <td className="py-0.5 text-text">{whereText(where).text}</td>
+                  <td className="py-0.5 text-text">{whereText(where, armKeys).text}</td>
                 </tr>
               );
             })}

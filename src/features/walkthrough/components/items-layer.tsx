@@ -19,6 +19,8 @@ export function itemPlacement(
   t: number,
   lanes: readonly Lane[],
   positions: Record<string, Vec3>,
+  /** where an arm's end is at `t` (an item installed "at" an arm's key is on its end) */
+  armTip?: (key: string, t: number) => Vec3 | null,
 ): { position: Vec3; node?: string; carried: boolean; installed: boolean } | null {
   const where = itemStateAt(track, t).where;
   if (where.kind === 'airlock') return null;
@@ -26,7 +28,7 @@ export function itemPlacement(
     const lane = lanes.find((l) => l.id === where.crew);
     return lane ? { position: sampleTrack(lane.track, t).position, carried: true, installed: false } : null;
   }
-  const p = positions[where.node];
+  const p = positions[where.node] ?? armTip?.(where.node, t) ?? undefined;
   return p ? { position: p, node: where.node, carried: false, installed: where.kind === 'installed' } : null;
 }
 
@@ -69,6 +71,7 @@ function ItemMarker({
   lanes,
   positions,
   normals,
+  armTip,
   size,
 }: {
   track: EquipmentTrack;
@@ -80,6 +83,7 @@ function ItemMarker({
   lanes: readonly Lane[];
   positions: Record<string, Vec3>;
   normals: Record<string, Vec3>;
+  armTip?: (key: string, t: number) => Vec3 | null;
   size: number;
 }) {
   const group = useRef<THREE.Group>(null);
@@ -90,7 +94,7 @@ function ItemMarker({
   useFrame(() => {
     const g = group.current;
     if (!g) return;
-    const at = itemPlacement(track, clock.t, lanes, positions);
+    const at = itemPlacement(track, clock.t, lanes, positions, armTip);
     g.visible = at !== null;
     if (!at) return;
     // carried items ride a ring round their holder; items at a node fan out a little
@@ -133,6 +137,7 @@ export function ItemsLayer({
   lanes,
   positions,
   normals,
+  armTip,
   size,
 }: {
   equipment: readonly EquipmentTrack[];
@@ -140,6 +145,7 @@ export function ItemsLayer({
   lanes: readonly Lane[];
   positions: Record<string, Vec3>;
   normals: Record<string, Vec3>;
+  armTip?: (key: string, t: number) => Vec3 | null;
   size: number;
 }) {
   // only items ever set down or installed show a label (a held one is listed beside its holder)
@@ -161,6 +167,7 @@ export function ItemsLayer({
           lanes={lanes}
           positions={positions}
           normals={normals}
+          armTip={armTip}
           size={size}
         />
       ))}

@@ -86,6 +86,7 @@ export function PlanDayPlayer({ timeline, plan, nodes, Scene, focus, onTime }: P
           stationId={plan.stationId}
           apiRef={setSceneApi}
           label="The day in 3D: crew, tethers, items and foot restraints at the scrubber's time"
+          movingArms={playback.arms?.map((a) => a.key)}
           overlays={
             <WalkthroughOverlays
               clock={clock}
@@ -93,6 +94,7 @@ export function PlanDayPlayer({ timeline, plan, nodes, Scene, focus, onTime }: P
               positions={playback.positions}
               equipment={playback.equipment}
               normals={playback.normals}
+              arms={playback.arms}
               onFrame={frame}
             />
           }
@@ -106,7 +108,12 @@ export function PlanDayPlayer({ timeline, plan, nodes, Scene, focus, onTime }: P
       </div>
       <div className="space-y-4">
         <TetherGauges clock={clock} lanes={lanes} />
-        <DayState clock={clock} lanes={lanes} equipment={playback.equipment} />
+        <DayState
+          clock={clock}
+          lanes={lanes}
+          equipment={playback.equipment}
+          armKeys={new Set((playback.arms ?? []).map((a) => a.key))}
+        />
       </div>
     </div>
   );

@@ -3,13 +3,15 @@ import { Line } from '@react-three/drei';
 import { useFrame, useThree } from '@react-three/fiber';
 import * as THREE from 'three';
 import type { Line2, OrbitControls as OrbitControlsImpl } from 'three-stdlib';
-import type { EquipmentTrack } from '@shared/compute/day/types';
+import { armTipAtTime } from '@shared/compute/arm';
+import type { ArmLane, EquipmentTrack } from '@shared/compute/day/types';
 import { sampleTrack } from '@shared/compute/walkthrough';
 import type { Vec3 } from '@shared/schemas/station';
 import type { PlaybackClock } from '../lib/playback-clock';
 import { trackPath, type Lane, type LaneId } from '../lib/playback-model';
 import { ItemsLayer } from './items-layer';
 import { LANE_STYLES } from './lane-styles';
+import { ArmBoom } from '@/components/scene/arm-boom';
 import { TextSprite } from '@/components/scene/text-sprite';
 
 const noRaycast = () => null;
@@ -195,6 +197,33 @@ function ClockDriver({
   return null;
 }
 
+/** Where each arm's tip is at a time (its start point before its first move). */
+export function armTipsOf(arms: readonly ArmLane[]) {
+  const byKey = new Map(arms.map((a) => [a.key, a]));
+  return (key: string, t: number): Vec3 | null => {
+    const lane = byKey.get(key);
+    return lane ? armTipAtTime(lane, t) : null;
+  };
+}
+
+/** The arms the day uses, each boom following its tip's moves on the clock. */
+function MovingArms({ arms, clock, size }: { arms: readonly ArmLane[]; clock: PlaybackClock; size: number }) {
+  return (
+    <>
+      {arms.map((arm) => (
+        <ArmBoom
+          key={arm.key}
+          armKey={arm.key}
+          base={arm.base}
+          reachM={arm.reachM}
+          size={size * 0.45}
+          tip={() => armTipAtTime(arm, clock.t) ?? arm.base}
+        />
+      ))}
+    </>
+  );
+}
+
 /** Everything the walkthrough draws inside the station scene (pass as `StationScene`'s `overlays`). */
 export function WalkthroughOverlays({
   clock,
@@ -202,6 +231,7 @@ export function WalkthroughOverlays({
   positions,
   equipment = [],
   normals = {},
+  arms = [],
   onFrame,
 }: {
   clock: PlaybackClock;
@@ -211,11 +241,14 @@ export function WalkthroughOverlays({
   equipment?: readonly EquipmentTrack[];
   /** sockets' outward normals, to stand an installed restraint on */
   normals?: Record<string, Vec3>;
+  /** the arms the day uses: their booms move with their riders, and items on their ends with them */
+  arms?: readonly ArmLane[];
   /** asks the scene to frame these points: every path at first, the followed crew member later */
   onFrame?: (points: Vec3[]) => void;
 }) {
   const points = useMemo(() => lanes.flatMap((l) => trackPath(l.track)), [lanes]);
   const size = Math.min(1.2, Math.max(0.25, extentOf(points) / 90));
+  const armTip = useMemo(() => armTipsOf(arms), [arms]);
   useEffect(() => {
     // after the camera rig's own first framing
     const id = setTimeout(() => onFrame?.(points), 50);
@@ -227,8 +260,10 @@ export function WalkthroughOverlays({
       {lanes.map((lane) => (
         <LanePath key={`path-${lane.id}`} lane={lane} size={size} positions={positions} />
       ))}
+      <MovingArms arms={arms} clock={clock} size={size} />
       <ItemsLayer
         equipment={equipment}
+        armTip={armTip}
         clock={clock}
         lanes={lanes}
         positions={positions}

@@ -74,6 +74,8 @@ export interface PlaybackSceneProps {
   overlays: ReactNode;
   apiRef: SceneFramingRef;
   label: string;
+  /** the arms the overlays move (the scene leaves them out of its arms at rest) */
+  movingArms?: readonly string[];
 }
 
 /** What the playback asks of the 3D scene: to bring points into view. */
@@ -193,13 +195,14 @@ export function WalkthroughPlayer({ detail, printView, Scene }: WalkthroughPlaye
               stationId={walkthrough.stationId}
               apiRef={setSceneApi}
               label={`3D playback of ${walkthrough.name}`}
+              movingArms={playback.kind === 'plan' ? playback.arms?.map((a) => a.key) : undefined}
               overlays={
                 <WalkthroughOverlays
                   clock={clock}
                   lanes={lanes}
                   positions={playback.positions}
                   {...(playback.kind === 'plan'
-                    ? { equipment: playback.equipment, normals: playback.normals }
+                    ? { equipment: playback.equipment, normals: playback.normals, arms: playback.arms }
                     : {})}
                   onFrame={frame}
                 />
@@ -217,7 +220,12 @@ export function WalkthroughPlayer({ detail, printView, Scene }: WalkthroughPlaye
             </Panel>
             {playback.kind === 'plan' && (
               <Panel title="At this moment">
-                <DayState clock={clock} lanes={lanes} equipment={playback.equipment} />
+                <DayState
+                  clock={clock}
+                  lanes={lanes}
+                  equipment={playback.equipment}
+                  armKeys={new Set((playback.arms ?? []).map((a) => a.key))}
+                />
               </Panel>
             )}
             {playback.warnings.length > 0 && (
