@@ -6,16 +6,15 @@
 // time on each, with /api/health sampled meanwhile (the main-thread server keeps imports and socket
 // plans on its main thread too). Bounded: each run has a fixed duration or is one request; the whole
 // thing stops itself in about six minutes (LOAD_*_SECONDS shorten the timed runs).
-import { spawn, type ChildProcess } from 'node:child_process';
 import fs from 'node:fs';
-import net from 'node:net';
 import os from 'node:os';
-import path from 'node:path';
 import autocannon from 'autocannon';
 import { generateTrussStation } from '../shared/compute/truss-generator';
 import { MAX_TASKS } from '../shared/schemas/plan';
 import { defaultRouteWorkers } from '../server/lib/env';
 import { bigStation } from '../tests/factories/big-station';
+import { DEMO_PASSWORD } from '../server/db/seed/demo-users';
+import { signIn, startLoopbackServer, type Server } from './serve';
 import { multipartBody, sampleHealthWhile, send, type HealthSample } from '../tests/setup/loopback';
 
 const RUN_SECONDS = Number(process.env.LOAD_RUN_SECONDS ?? 10);
@@ -26,36 +25,11 @@ const CONNECTIONS = Number(process.env.LOAD_CONNECTIONS ?? 10);
 const LIGHT_CONNECTIONS = Number(process.env.LOAD_LIGHT_CONNECTIONS ?? 2);
 /** pool size of the pool run; the server's default when that is not 0 */
 const POOL_WORKERS = Number(process.env.LOAD_POOL_WORKERS ?? (defaultRouteWorkers() || 2));
-const PASSWORD = 'tetherwise-demo';
-
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = net.createServer();
-    srv.listen(0, '127.0.0.1', () => {
-      const port = (srv.address() as net.AddressInfo).port;
-      srv.close(() => resolve(port));
-    });
-    srv.on('error', reject);
-  });
-}
 
 function rssMiB(pid: number): number {
   const status = fs.readFileSync(`/proc/${pid}/status`, 'utf8');
   const kb = Number(/VmRSS:\s+(\d+)/.exec(status)?.[1] ?? 0);
   return kb / 1024;
-}
-
-async function signIn(base: string, email: string): Promise<string> {
-  const res = await fetch(`${base}/api/auth/sign-in`, {
-    method: 'POST',
-    headers: { 'content-type': 'application/json' },
-    body: JSON.stringify({ email, password: PASSWORD }),
-  });
-  if (res.status !== 200) throw new Error(`sign-in ${email}: ${res.status}`);
-  return res.headers
-    .getSetCookie()
-    .map((c) => c.split(';')[0])
-    .join('; ');
 }
 
 interface Row {
@@ -92,53 +66,12 @@ function routeRequests(keys: string[], count: number, seed: number) {
   });
 }
 
-interface Server {
-  base: string;
-  process: ChildProcess;
-  /** SIGTERM, then wait for the process to end (so the next server has the machine to itself) */
-  stop(): Promise<void>;
-}
-
-async function startServer(routeWorkers: number): Promise<Server> {
+function startServer(routeWorkers: number): Promise<Server> {
   // the main-thread server keeps imports and socket plans there too; the pool server takes the default
-  const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'tetherwise-load-'));
-  const port = await freePort();
-  const base = `http://127.0.0.1:${port}`;
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
-    env: {
-      ...process.env,
-      PORT: String(port),
-      DATABASE_URL: path.join(dir, 'load.db'),
-      DATA_DIR: dir,
-      SEED_DEMO: '1',
-      LOG_LEVEL: 'warn',
-      ROUTE_WORKERS: String(routeWorkers),
-      ...(routeWorkers === 0 ? { TASK_WORKERS: '0' } : {}),
-      // the limiters would turn a load test into a rate-limit test
-      API_REQUESTS_PER_MINUTE: '100000000',
-      SIGN_IN_ATTEMPTS: '100000000',
-      SIGN_IN_ACCOUNT_ATTEMPTS: '100000000',
-    },
-    stdio: ['ignore', 'inherit', 'inherit'],
+  return startLoopbackServer({
+    ROUTE_WORKERS: String(routeWorkers),
+    ...(routeWorkers === 0 ? { TASK_WORKERS: '0' } : {}),
   });
-  const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
-  const kill = () => child.kill('SIGTERM');
-  process.on('exit', kill);
-  const stop = async () => {
-    kill();
-    await Promise.race([exited, new Promise((r) => setTimeout(r, 10_000))]);
-    fs.rmSync(dir, { recursive: true, force: true });
-  };
-  for (let i = 0; i < 200; i++) {
-    try {
-      if ((await fetch(`${base}/api/health`)).ok) return { base, process: child, stop };
-    } catch {
-      /* not up yet */
-    }
-    await new Promise((r) => setTimeout(r, 100));
-  }
-  await stop();
-  throw new Error('the server did not start');
 }
 
 interface Scenario {
@@ -352,7 +285,7 @@ async function prepare(routeWorkers: number): Promise<Target> {
         url: `${base}/api/auth/sign-in`,
         method: 'POST',
         headers: { 'content-type': 'application/json' },
-        body: JSON.stringify({ email: 'viewer@example.org', password: PASSWORD }),
+        body: JSON.stringify({ email: 'viewer@example.org', password: DEMO_PASSWORD }),
       }),
       {
         // route load on the 10k station while a few others open the demo station's graph

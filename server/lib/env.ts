@@ -27,6 +27,8 @@ export interface AppConfig {
   routeWorkers: number;
   /** route computations waiting or running in the worker pool at the most before 503 */
   routeQueueLimit: number;
+  /** stations up to this many nodes answer small route queries on the main thread, without a worker hop */
+  routeInlineNodes: number;
   /** stations up to this many nodes build a clip graph within a route query; larger ones in a builder thread */
   routeClipInlineNodes: number;
   /** clip graphs one thread (each route worker, and the main thread) keeps at the most, MB together */
@@ -128,6 +130,7 @@ export function loadConfig(
     apiRequestsPerMinute: overrides.apiRequestsPerMinute ?? intFromEnv(env.API_REQUESTS_PER_MINUTE, 1200),
     routeWorkers: overrides.routeWorkers ?? intFromEnv(env.ROUTE_WORKERS, defaultRouteWorkers()),
     routeQueueLimit: overrides.routeQueueLimit ?? intFromEnv(env.ROUTE_QUEUE_LIMIT, 64),
+    routeInlineNodes: overrides.routeInlineNodes ?? intFromEnv(env.ROUTE_INLINE_NODES, 20_000),
     routeClipInlineNodes:
       overrides.routeClipInlineNodes ?? intFromEnv(env.ROUTE_CLIP_INLINE_NODES, CLIP_BUILD_FREE_NODES),
     routeClipMemoryMb:

@@ -1,3 +1,4 @@
+import zlib from 'node:zlib';
 import express, { type NextFunction, type Request, type RequestHandler, type Response } from 'express';
 import type { z } from 'zod';
 import { can, type Permission } from '@shared/auth/permissions';
@@ -68,6 +69,29 @@ export interface RouteRule {
 /** Every route mounted through `mountRoutes`, with its access rule: the authorisation table. */
 export const routeTable: RouteRule[] = [];
 
+/** JSON answers from 1 kB (where `compression` starts) up to this size are gzipped on the request's thread. */
+export const INLINE_GZIP_MAX_BYTES = 64 * 1024;
+const INLINE_GZIP_MIN_BYTES = 1024;
+
+/**
+ * Sends a JSON text. One of a few kB (a route, a plan) is gzipped here, at the fastest level: that
+ * costs less than handing it to the thread pool and waiting for it back, which `compression` does
+ * for everything else (the header set here tells it the body is encoded already).
+ */
+function sendJsonText(req: Request, res: Response, status: number, text: string) {
+  res.status(status).type('json');
+  const size = Buffer.byteLength(text);
+  if (
+    size < INLINE_GZIP_MIN_BYTES ||
+    size > INLINE_GZIP_MAX_BYTES ||
+    req.acceptsEncodings('gzip', 'identity') !== 'gzip'
+  )
+    return res.send(text);
+  res.vary('Accept-Encoding');
+  res.setHeader('Content-Encoding', 'gzip');
+  res.send(zlib.gzipSync(text, { level: zlib.constants.Z_BEST_SPEED }));
+}
+
 function accessGuard(access: Access): RequestHandler {
   return (req: Request, _res: Response, next: NextFunction) => {
     if (access === 'public') return next();
@@ -91,10 +115,13 @@ export function mountRoutes(base: string, defs: RouteDef<any>[]): express.Router
       if (change) (req.app.locals.changeSink as ChangeSink).publish(change);
       if (res.headersSent) return;
       if (result === undefined) res.status(def.status ?? 204).end();
-      else if (result instanceof JsonText) {
-        res.type('json');
-        res.status(def.status ?? 200).send(result.text);
-      } else res.status(def.status ?? 200).json(result);
+      else
+        sendJsonText(
+          req,
+          res,
+          def.status ?? 200,
+          result instanceof JsonText ? result.text : JSON.stringify(result),
+        );
     });
   }
   return router;

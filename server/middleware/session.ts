@@ -3,6 +3,7 @@ import type { Request, RequestHandler, Response } from 'express';
 import jwt from 'jsonwebtoken';
 import type { AppContext } from '../context';
 import { findSessionUser, isSessionRevoked, revokeSession } from '../modules/auth/auth.service';
+import { heldSessionUser, holdSessionUser } from '../modules/auth/session-cache';
 
 export const SESSION_COOKIE = 'tw_session';
 
@@ -58,14 +59,24 @@ function verifiedToken(ctx: AppContext, req: Request): { token: string; claims: 
 /**
  * Reads the session cookie; a valid token that was not signed out, whose user still exists, is
  * enabled and has the same token version, sets `req.user`. Anything else is treated as signed out
- * (routes decide whether that is 401).
+ * (routes decide whether that is 401). A token seen in the last few seconds is answered from the
+ * session cache, which every sign-out and change to a person forgets (see session-cache.ts).
  */
 export function sessionMiddleware(ctx: AppContext): RequestHandler {
   return (req, _res, next) => {
+    const token: unknown = req.cookies?.[SESSION_COOKIE];
+    const held = typeof token === 'string' && token ? heldSessionUser(ctx.db, token) : null;
+    if (held) {
+      req.user = held;
+      return next();
+    }
     const session = verifiedToken(ctx, req);
     if (session && !isSessionRevoked(ctx.db, session.token)) {
       const user = findSessionUser(ctx.db, Number(session.claims.sub), session.claims.tv);
-      if (user) req.user = user;
+      if (user) {
+        req.user = user;
+        holdSessionUser(ctx.db, session.token, user, session.claims.exp * 1000);
+      }
     }
     next();
   };

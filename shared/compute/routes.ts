@@ -128,6 +128,12 @@ export function wantsClipGraph(
   return missing ? { tetherLengthM: tether, excludeMask: mask, weights: arcSeconds } : null;
 }
 
+/** Whether the clip graph this request's exact search would use is already built in this thread. */
+export function clipGraphHeld(c: CompiledStation, settings: StationSettings, request: RouteRequest): boolean {
+  const { tether, mask, arcSeconds } = searchTerms(c, settings, request);
+  return hasClipGraph(arcSeconds, tether, mask);
+}
+
 /** What a request searches with: tether, excluded arcs, arc times and whether the landmark times hold. */
 function searchTerms(c: CompiledStation, settings: StationSettings, request: RouteRequest) {
   return {

@@ -102,7 +102,12 @@ describe('clip graphs built off the request path', () => {
 describe('the routes endpoint on a station above the inline limit', () => {
   for (const routeWorkers of [0, 1]) {
     it(`builds the clip graph off the request path and keeps answering (${routeWorkers ? 'worker pool' : 'main thread'})`, async () => {
-      const app = await makeTestApp({ seedDemo: true, routeWorkers, routeClipInlineNodes: 100 });
+      const app = await makeTestApp({
+        seedDemo: true,
+        routeWorkers,
+        routeClipInlineNodes: 100,
+        routeInlineNodes: 0,
+      });
       try {
         const viewer = await app.agent('viewer');
         const stationId = (await viewer.get('/api/stations')).body[0].id as number;

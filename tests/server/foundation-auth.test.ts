@@ -80,6 +80,28 @@ describe('health and the fixed auth interface', () => {
     expect((await agent.get('/api/auth/me')).status).toBe(401);
   });
 
+  it('a session just used (and so held for a few seconds) is refused at once after sign-out, copies of its cookie too', async () => {
+    const agent = request.agent(t.app);
+    const signedIn = await agent
+      .post('/api/auth/sign-in')
+      .send({ email: 'viewer@example.org', password: 'tetherwise-demo' });
+    const cookie = signedIn.headers['set-cookie'][0].split(';')[0];
+    for (let i = 0; i < 3; i++)
+      expect((await t.anonymous().get('/api/auth/me').set('Cookie', cookie)).status).toBe(200);
+    expect((await agent.post('/api/auth/sign-out')).status).toBe(204);
+    expect((await t.anonymous().get('/api/auth/me').set('Cookie', cookie)).status).toBe(401);
+  });
+
+  it('a held session sees its person as they are now: a new name shows on the next request', async () => {
+    const admin = await t.agent('admin');
+    const engineer = await t.agent('engineer');
+    const me = (await engineer.get('/api/auth/me')).body.user as { id: number; name: string };
+    const renamed = await admin.patch(`/api/users/${me.id}`).send({ name: 'Renamed Engineer' });
+    expect(renamed.status).toBe(200);
+    expect((await engineer.get('/api/auth/me')).body.user.name).toBe('Renamed Engineer');
+    await admin.patch(`/api/users/${me.id}`).send({ name: me.name });
+  });
+
   it('a forged token, an unsigned token and an expired token → 401', async () => {
     const forged = jwt.sign({ tv: 0 }, 'some-other-secret', { subject: '1', expiresIn: '1h' });
     const unsigned = jwt.sign({ tv: 0 }, '', { subject: '1', algorithm: 'none' as never });

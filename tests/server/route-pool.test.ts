@@ -18,7 +18,7 @@ let stationId: number;
 let keys: string[];
 
 beforeAll(async () => {
-  t = await makeTestApp({ seedDemo: true, routeWorkers: 2 });
+  t = await makeTestApp({ seedDemo: true, routeWorkers: 2, routeInlineNodes: 0 });
   const viewer = await t.agent('viewer');
   stationId = (await viewer.get('/api/stations')).body[0].id;
   keys = (await viewer.get(`/api/stations/${stationId}/graph`)).body.nodes.map((n: { key: string }) => n.key);
@@ -83,7 +83,7 @@ describe('route worker pool', () => {
   });
 
   it('keeps a station on one worker while the load allows (sequential queries compile it once); app.close() stops the workers', async () => {
-    const other = await makeTestApp({ seedDemo: true, routeWorkers: 2 });
+    const other = await makeTestApp({ seedDemo: true, routeWorkers: 2, routeInlineNodes: 0 });
     try {
       const viewer = await other.agent('viewer');
       const id = (await viewer.get('/api/stations')).body[0].id;
@@ -105,6 +105,41 @@ describe('route worker pool', () => {
       await other.close();
     }
     expect(other.ctx.routePool!.stats().every((s) => !s.alive)).toBe(true);
+  });
+
+  it('answers fastest routes on a small station on the main thread once it holds the index, exactly as the pool does', async () => {
+    const inline = await makeTestApp({ seedDemo: true, routeWorkers: 1 });
+    try {
+      const viewer = await inline.agent('viewer');
+      const id = (await viewer.get('/api/stations')).body[0].id;
+      const requests = randomRequests(40, 11).filter((r) => r.mode === 'fastest');
+      // the first query may go to the pool; the main thread then compiles the station after it
+      expect((await viewer.post(`/api/stations/${id}/routes`).send(requests[0])).status).toBe(200);
+      const answered = () => inline.ctx.routePool!.stats().reduce((n, s) => n + s.answered, 0);
+      await new Promise((r) => setImmediate(r));
+      expect(getCompiledStation(inline.ctx, id).isCompiled).toBe(true);
+      const before = answered();
+      for (const r of requests) {
+        const res = await viewer.post(`/api/stations/${id}/routes`).send(r);
+        expect(res.status).toBe(200);
+        expect(res.text).toBe(JSON.stringify(routeOn(getCompiledStation(inline.ctx, id), r)));
+        expect(res.text).toBe(
+          await pool().route({
+            station: `other#${id}`,
+            version: 1,
+            doc: getCompiledStation(inline.ctx, id).doc,
+            request: r,
+          }),
+        );
+      }
+      expect(answered()).toBe(before);
+      // an exact mode without a clip graph on the main thread still goes to the pool
+      const exact = randomRequests(40, 12).find((r) => r.mode === 'balanced' && !r.extraAttach)!;
+      expect((await viewer.post(`/api/stations/${id}/routes`).send(exact)).status).toBe(200);
+      expect(answered()).toBe(before + 1);
+    } finally {
+      await inline.close();
+    }
   });
 
   it('sees an edit at once: the next route after closing an edge uses the new version on every worker', async () => {
@@ -153,7 +188,7 @@ describe('route worker pool limits and failures', () => {
 
   it('refuses queries over the queue bound with 503, Retry-After and the error shape', async () => {
     // a fresh pool: its worker is still starting, so the burst waits and the bound is reached
-    const small = await makeTestApp({ routeWorkers: 1, routeQueueLimit: 2 });
+    const small = await makeTestApp({ routeWorkers: 1, routeQueueLimit: 2, routeInlineNodes: 0 });
     try {
       const engineer = await small.agent('engineer');
       const imported = await importStation(engineer);

@@ -6,6 +6,7 @@ import { passwordTokens, revokedSessions, users } from '../../db/schema';
 import { HttpError } from '../../lib/http-error';
 import type { User } from '@shared/schemas/auth';
 import type { Role } from '@shared/auth/permissions';
+import { forgetSessionToken, forgetSessionsOf } from './session-cache';
 
 export const BCRYPT_COST = 10;
 /** compared against when the e-mail is unknown, so both cases take the same time */
@@ -18,7 +19,15 @@ export const toPublicUser = (u: { id: number; email: string; name: string; role:
   role: u.role,
 });
 
-export function findSessionUser(db: Db, id: number, tokenVersion: number) {
+export interface SessionUser {
+  id: number;
+  email: string;
+  name: string;
+  role: Role;
+  tokenVersion: number;
+}
+
+export function findSessionUser(db: Db, id: number, tokenVersion: number): SessionUser | null {
   if (!Number.isInteger(id)) return null;
   const u = db.select().from(users).where(eq(users.id, id)).get();
   if (!u || u.disabled || u.tokenVersion !== tokenVersion) return null;
@@ -40,6 +49,7 @@ export function endAllSessions(db: Db, userId: number) {
     .set({ tokenVersion: sql`${users.tokenVersion} + 1`, updatedAt: new Date().toISOString() })
     .where(eq(users.id, userId))
     .run();
+  forgetSessionsOf(db, userId);
 }
 
 export const hashToken = (token: string) => crypto.createHash('sha256').update(token).digest('hex');
@@ -64,6 +74,7 @@ export function revokeSession(db: Db, token: string, expiresAt: Date) {
       .onConflictDoNothing()
       .run();
   });
+  forgetSessionToken(db, token);
 }
 
 export function newToken(): string {
@@ -94,7 +105,7 @@ export function getInvitation(db: Db, token: string) {
 /** Sets the password from a single-use link; the token is spent and older sessions end. */
 export async function setPasswordWithToken(db: Db, token: string, password: string) {
   const hash = await bcrypt.hash(password, BCRYPT_COST);
-  return db.transaction((tx) => {
+  const updated = db.transaction((tx) => {
     const row = findLiveToken(tx as unknown as Db, token);
     const u = row && tx.select().from(users).where(eq(users.id, row.userId)).get();
     if (!row || !u || u.disabled)
@@ -110,4 +121,6 @@ export async function setPasswordWithToken(db: Db, token: string, password: stri
       .run();
     return { ...u, tokenVersion: u.tokenVersion + 1 };
   });
+  forgetSessionsOf(db, updated.id);
+  return updated;
 }

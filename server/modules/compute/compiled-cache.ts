@@ -31,6 +31,11 @@ export class CompiledEntry {
   get compiled(): CompiledStation {
     return (this.index ??= compileStation(this.doc));
   }
+
+  /** whether the query index is compiled already (reading `compiled` would not compile it now) */
+  get isCompiled(): boolean {
+    return this.index !== null;
+  }
 }
 
 /** A few stations at a time: compiling a large truss costs far more than keeping its index. */

@@ -40,7 +40,7 @@ import {
   type Tx,
 } from '../stations/stations.service';
 import { socketNameFor } from '@shared/compute/socket-names';
-import { routeRequestProblems } from '@shared/compute/routes';
+import { clipGraphHeld, routeRequestProblems } from '@shared/compute/routes';
 import { routeOffPath } from './clip-builder';
 import { getCompiledStation, type CompiledEntry } from './compiled-cache';
 import type { OrbitQuery } from './compute.schemas';
@@ -98,8 +98,24 @@ export function routeOn(entry: CompiledEntry, request: RouteRequest, at = 'body'
 }
 
 /**
- * `POST /api/stations/:id/routes`: on the worker pool when there is one (the answer comes back as
- * JSON text, sent as it is), else on the main thread.
+ * Whether a query is answered on the main thread although there is a pool: on a station of at
+ * most `routeInlineNodes` nodes whose index the main thread already holds, a fastest route (a
+ * few tenths of a millisecond at 10k nodes), or an exact one whose clip graph this thread holds.
+ * The hop to a worker and back costs more than that. Anything else goes to the pool, and a station
+ * small enough whose index is not held yet is compiled here once the answer is on its way.
+ */
+function answersInline(ctx: AppContext, entry: CompiledEntry, request: RouteRequest): boolean {
+  if (entry.doc.nodes.length > ctx.config.routeInlineNodes) return false;
+  if (!entry.isCompiled) {
+    setImmediate(() => void entry.compiled);
+    return false;
+  }
+  return request.mode === 'fastest' || clipGraphHeld(entry.compiled, entry.doc.settings, request);
+}
+
+/**
+ * `POST /api/stations/:id/routes`: small queries on the main thread (see answersInline), the rest
+ * on the worker pool when there is one (the answer comes back as JSON text, sent as it is).
  */
 export function computeRoute(
   ctx: AppContext,
@@ -107,7 +123,7 @@ export function computeRoute(
   request: RouteRequest,
 ): RouteResult | Promise<JsonText> {
   const entry = getCompiledStation(ctx, stationId);
-  if (!ctx.routePool) return routeOn(entry, request);
+  if (!ctx.routePool || answersInline(ctx, entry, request)) return routeOn(entry, request);
   checkRouteRequest(entry, request, 'body');
   const station = `${ctx.config.databaseUrl}#${stationId}`;
   return ctx.routePool

@@ -5,6 +5,7 @@ import { passwordTokens, users } from '../../db/schema';
 import { HttpError } from '../../lib/http-error';
 import type { InviteUserInput, UpdateUserInput, UserAdminView } from '@shared/schemas/auth';
 import { hashToken, newToken, toPublicUser } from '../auth/auth.service';
+import { forgetSessionsOf } from '../auth/session-cache';
 import { recordActivity } from '../activity/activity.service';
 
 export const INVITE_HOURS = 72;
@@ -102,7 +103,7 @@ export async function resendInvitation(
 }
 
 export function updateUser(db: Db, userId: number, input: UpdateUserInput, actor: { id: number }) {
-  return db.transaction((tx) => {
+  const view = db.transaction((tx) => {
     const u = tx.select().from(users).where(eq(users.id, userId)).get();
     if (!u) throw new HttpError('NOT_FOUND', 'No such person.');
     if (u.id === actor.id && (input.disabled === true || (input.role && input.role !== 'admin'))) {
@@ -131,4 +132,7 @@ export function updateUser(db: Db, userId: number, input: UpdateUserInput, actor
       .get();
     return toAdminView(updated);
   });
+  // whatever changed (role, name, disabled), the next request reads the person afresh
+  forgetSessionsOf(db, userId);
+  return view;
 }
