@@ -83,6 +83,7 @@ const nodes: PlanStationNodes = {
     { key: 'S2', kind: 'socket', position: [0, 2, 0] },
     { key: 'A9', kind: 'anchor', position: [0, 0, 3] },
   ],
+  arms: [{ key: 'ARM-1', label: 'Main arm', baseNode: 'A9' }],
 };
 
 const manifest: ManifestItem[] = [
@@ -182,6 +183,34 @@ describe('task form: foot restraints for a task for both', () => {
     const [saved] = onSubmit.mock.calls[0];
     expect(saved.socket).toBe('S2');
     expect(saved.sockets).toBeUndefined();
+  });
+});
+
+describe('task form: a task done from an arm', () => {
+  it('a task for both: the rider stands on the arm, the partner keeps their socket', async () => {
+    const { onSubmit, user } = renderTaskForm({ ...task, sockets: { EV1: 'S1', EV2: 'S2' } });
+    await user.selectOptions(screen.getByLabelText('Done from an arm'), 'ARM-1');
+    await user.click(apply());
+    expect(await screen.findByText('the node where the rider gets on')).toBeTruthy();
+    expect(onSubmit).not.toHaveBeenCalled();
+
+    await user.type(screen.getByLabelText('Gets on at'), 'A9');
+    await user.selectOptions(screen.getByLabelText('Arm rider'), 'EV1');
+    await user.click(apply());
+    const [saved] = onSubmit.mock.calls[0];
+    expect(saved.arm).toEqual({ key: 'ARM-1', ingress: 'A9', rider: 'EV1' });
+    expect(saved.sockets).toEqual({ EV2: 'S2' });
+  });
+
+  it('editing an arm task keeps its arm; choosing no arm drops it', async () => {
+    const armTask: Task = { ...task, crew: 'EV2', arm: { key: 'ARM-1', ingress: 'A9', egress: 'S1' } };
+    const { onSubmit, user } = renderTaskForm(armTask);
+    expect(screen.queryByLabelText('Foot-restraint socket')).toBeNull();
+    await user.click(apply());
+    expect(onSubmit.mock.calls[0][0].arm).toEqual({ key: 'ARM-1', ingress: 'A9', egress: 'S1' });
+    await user.selectOptions(screen.getByLabelText('Done from an arm'), '');
+    await user.click(apply());
+    expect(onSubmit.mock.calls[1][0].arm).toBeUndefined();
   });
 });
 

@@ -21,6 +21,8 @@ export interface PlanStationNodes {
   sockets: StationNodeOption[];
   /** every node, for the places an item action may name */
   all?: StationNodeOption[];
+  /** the station's robotic arms, for a task done from one */
+  arms?: { key: string; label?: string; baseNode: string }[];
 }
 
 /** A stretch of the day to go to and frame in the 3D day: a block picked on the chart. */

@@ -49,6 +49,7 @@ export default function PlanRoute() {
     worksites: graph.data.nodes.filter((n) => n.kind === 'worksite'),
     sockets: graph.data.nodes.filter((n) => n.kind === 'socket'),
     all: graph.data.nodes,
+    arms: graph.data.arms,
   };
   return (
     <>

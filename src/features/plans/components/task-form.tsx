@@ -49,6 +49,8 @@ export function TaskForm({ task, others, nodes, manifest, onSubmit, onCancel }: 
   } = form;
   const worksite = useWatch({ control, name: 'worksite' });
   const crew = useWatch({ control, name: 'crew' });
+  const armKey = useWatch({ control, name: 'arm.key' });
+  const arms = nodes.arms ?? [];
   const needle = search.trim().toLowerCase();
   const worksites = nodes.worksites.filter(
     (n) =>
@@ -154,7 +156,54 @@ export function TaskForm({ task, others, nodes, manifest, onSubmit, onCancel }: 
           Optional (get-ahead work that can be dropped)
         </label>
       </div>
-      {crew === 'both' ? (
+      {arms.length > 0 && (
+        <fieldset className="grid gap-4 sm:grid-cols-2">
+          <legend className="mb-1.5 text-sm font-medium text-text-strong">Robotic arm</legend>
+          <Field label="Done from an arm" error={errors.arm?.key?.message}>
+            <Select
+              options={[
+                { value: '', label: 'No arm' },
+                ...arms.map((a) => ({
+                  value: a.key,
+                  label: `${a.key}${a.label ? ` — ${a.label}` : ''} (on ${a.baseNode})`,
+                })),
+              ]}
+              {...register('arm.key')}
+            />
+          </Field>
+          {armKey && crew === 'both' && (
+            <Field label="Arm rider" error={errors.arm?.rider?.message}>
+              <Select
+                options={[
+                  { value: '', label: 'EV1 (default)' },
+                  { value: 'EV1', label: 'EV1' },
+                  { value: 'EV2', label: 'EV2' },
+                ]}
+                {...register('arm.rider')}
+              />
+            </Field>
+          )}
+          {armKey && (
+            <>
+              <Field
+                label="Gets on at"
+                error={errors.arm?.ingress?.message}
+                hint="node key where the rider gets onto the arm"
+              >
+                <Input autoComplete="off" className="font-mono" {...register('arm.ingress')} />
+              </Field>
+              <Field
+                label="Gets off at"
+                error={errors.arm?.egress?.message}
+                hint="an attach point; blank: where they got on"
+              >
+                <Input autoComplete="off" className="font-mono" {...register('arm.egress')} />
+              </Field>
+            </>
+          )}
+        </fieldset>
+      )}
+      {armKey && crew !== 'both' ? null : crew === 'both' ? (
         <fieldset className="grid gap-4 sm:grid-cols-2">
           <legend className="mb-1.5 text-sm font-medium text-text-strong">
             Foot restraints (one person each)

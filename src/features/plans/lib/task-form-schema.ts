@@ -5,6 +5,7 @@ import {
   ItemActionSchema,
   ManifestItemSchema,
   MAX_ACTIONS_PER_TASK,
+  TaskArmSchema,
   TaskCrewSchema,
   TaskSchema,
   withItemKeys,
@@ -41,6 +42,13 @@ const TaskFieldsSchema = z.object({
   tools: TaskSchema.shape.tools.unwrap(),
   after: TaskSchema.shape.after.unwrap(),
   optional: z.boolean(),
+  /** done from an arm's foot restraint: '' for none */
+  arm: z.object({
+    key: z.string(),
+    ingress: z.string(),
+    egress: z.string(),
+    rider: z.union([z.literal(''), CrewMemberSchema]),
+  }),
   actions: z
     .array(ActionRowSchema)
     .max(MAX_ACTIONS_PER_TASK, `at most ${MAX_ACTIONS_PER_TASK} item actions per task`),
@@ -59,6 +67,19 @@ function restraintOf(crew: TaskCrew, socket: string | undefined, sockets: Task['
   return own && Object.keys(own).length ? { sockets: own } : {};
 }
 
+/** The arm a task is done from, as the plan holds it; a rider is said only in a task for both. */
+function armOf(crew: TaskCrew, arm: z.output<typeof TaskFieldsSchema>['arm']): Pick<Task, 'arm'> {
+  if (!arm.key) return {};
+  return {
+    arm: {
+      key: arm.key,
+      ingress: arm.ingress.trim(),
+      ...(arm.egress.trim() ? { egress: arm.egress.trim() } : {}),
+      ...(crew === 'both' && arm.rider ? { rider: arm.rider } : {}),
+    },
+  };
+}
+
 function toTask(v: z.output<typeof TaskFieldsSchema>): TaskFormTask {
   return {
     title: v.title,
@@ -67,7 +88,13 @@ function toTask(v: z.output<typeof TaskFieldsSchema>): TaskFormTask {
     durationSeconds: v.duration,
     eclipseOnly: v.eclipseOnly,
     carrying: v.carrying,
-    ...restraintOf(v.crew, v.socket, v.sockets),
+    // the rider stands in the arm's foot restraint; in a task for both the partner may have a socket
+    ...restraintOf(
+      v.crew,
+      v.arm.key ? undefined : v.socket,
+      v.arm.key ? { ...v.sockets, [v.arm.rider || 'EV1']: undefined } : v.sockets,
+    ),
+    ...armOf(v.crew, v.arm),
     tools: v.tools,
     actions: v.actions.map((a) => ({
       do: a.do,
@@ -87,13 +114,24 @@ function toTask(v: z.output<typeof TaskFieldsSchema>): TaskFormTask {
  * manifest (`planReferenceProblems`, the server's own check) reported on the fields they concern.
  */
 export function taskFormSchema(manifest: readonly ManifestItem[]) {
-  return TaskFieldsSchema.transform(toTask).superRefine((task, ctx) => {
-    for (const p of planReferenceProblems([task], manifest)) {
-      // `after` names the plan's other tasks, which the form does not hold: the editor offers only those
-      if (p.path[0] !== 'tasks' || p.path[2] === 'after') continue;
-      ctx.addIssue({ code: 'custom', path: p.path.slice(2), message: p.message });
-    }
-  });
+  return TaskFieldsSchema.superRefine((v, ctx) => {
+    if (!v.arm.key) return;
+    // the plan's own schema says what a key must be; here only that the arm's fields are filled
+    const ingress = TaskArmSchema.shape.ingress.safeParse(v.arm.ingress.trim());
+    if (!ingress.success)
+      ctx.addIssue({ code: 'custom', path: ['arm', 'ingress'], message: 'the node where the rider gets on' });
+    const egress = v.arm.egress.trim();
+    if (egress && !TaskArmSchema.shape.ingress.safeParse(egress).success)
+      ctx.addIssue({ code: 'custom', path: ['arm', 'egress'], message: 'a node key, or blank' });
+  })
+    .transform(toTask)
+    .superRefine((task, ctx) => {
+      for (const p of planReferenceProblems([task], manifest)) {
+        // `after` names the plan's other tasks, which the form does not hold: the editor offers only those
+        if (p.path[0] !== 'tasks' || p.path[2] === 'after') continue;
+        ctx.addIssue({ code: 'custom', path: p.path.slice(2), message: p.message });
+      }
+    });
 }
 
 /**
@@ -132,6 +170,12 @@ export function taskFormDefaults(task: Task | undefined, manifest: readonly Mani
     })),
     after: task?.after ?? [],
     optional: task?.optional ?? false,
+    arm: {
+      key: task?.arm?.key ?? '',
+      ingress: task?.arm?.ingress ?? '',
+      egress: task?.arm?.egress ?? '',
+      rider: task?.arm?.rider ?? '',
+    },
     notes: task?.notes ?? '',
   };
 }
