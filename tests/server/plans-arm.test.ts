@@ -212,3 +212,36 @@ describe('bad arm tasks are 400s with the path', () => {
     ]);
   });
 });
+
+describe('a large item handed between the arm rider and the partner, through the API', () => {
+  it('EV1, brought by the arm, hands the pump to EV2 who came by handrail; the walkthrough plays it', async () => {
+    const pump = { key: 'pump', name: 'Pump module', kind: 'large-item', carriedBy: 'EV1' };
+    const { id, codes, body } = await day(
+      [
+        task('Hand the pump over', K.w1, 'both', {
+          ...onArm(K.a1, { rider: 'EV1' }),
+          actions: [{ do: 'hand-over', item: 'pump', by: 'EV1' }],
+        }),
+      ],
+      [armRestraint, pump],
+    );
+    expect(codes).toEqual([]);
+    const track = body.equipment.find((e: { item: string }) => e.item === 'pump');
+    expect(track.states.map((s: { where: unknown }) => s.where)).toEqual([
+      { kind: 'carried', crew: 'EV1' },
+      { kind: 'carried', crew: 'EV2' },
+      { kind: 'airlock' },
+    ]);
+    const riderHands = track.states[0].end;
+    const work = body.crew.EV1.blocks.find((b: { type: string }) => b.type === 'work');
+    // the hand-over takes effect when the task's work ends, the rider still on the arm
+    expect(riderHands).toBe(work.end);
+    expect(body.arms[0].sessions.map((s: { rider: string }) => s.rider)).toEqual(['EV1']);
+    const trainer = await t.agent('trainer');
+    const walk = await trainer.post('/api/walkthroughs').send({ name: 'Hand-over', stationId, planId: id });
+    expect(walk.status, JSON.stringify(walk.body)).toBe(201);
+    expect(walk.body.playback.arms.map((a: { key: string }) => a.key)).toEqual(['ARM-1']);
+    const steps = walk.body.playback.crews.EV1.steps.map((s: { type: string }) => s.type);
+    expect(steps).toContain('arm-ride');
+  });
+});

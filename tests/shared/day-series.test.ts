@@ -3,6 +3,7 @@ import { computeSeries } from '@shared/compute/day/series';
 import { computeTimeline } from '@shared/compute/day/timeline';
 import type { DayPlan, Timeline } from '@shared/compute/day/types';
 import { LINE_KEYS as K, buildDayPlan, dayEngine, dayTask, lineStationDocument } from '../factories/day';
+import { armLineDocument } from '../factories/day-arm';
 
 const engine = dayEngine(lineStationDocument());
 const eva = (plan: DayPlan) => ({ plan, ...engine });
@@ -118,5 +119,46 @@ describe('a series of EVAs: each starts where the one before left its items (wor
     expect(two.warnings.map((w) => w.code)).toEqual(['start-differs']);
     expect(two.warnings[0].message).toContain('at W1');
     expect(firstWhere(two.timeline, 'bag-1')).toEqual({ kind: 'at', node: K.w2 });
+  });
+});
+
+describe('a series with an arm: the foot restraint left on its end starts the next EVA there', () => {
+  const armEngine = dayEngine(armLineDocument());
+  const armEva = (plan: DayPlan) => ({ plan, ...armEngine });
+  const restraint = { key: 'afr', name: 'Arm foot restraint', kind: 'foot-restraint' as const };
+  /** EVA 1: EV1 carries the restraint out and installs it on ARM-1's end (or brings it back in). */
+  const setUp = (install: boolean) =>
+    buildDayPlan({
+      manifest: [{ ...restraint, carriedBy: 'EV1', leaveOutside: install }],
+      tasks: [
+        dayTask('Put the restraint on the arm', K.a1, 'EV1', 300, {
+          actions: install ? [{ do: 'install' as const, item: 'afr', at: 'ARM-1' }] : [],
+        }),
+      ],
+    });
+  /** EVA 2 rides the arm; its manifest expects the restraint on the arm's end. */
+  const ride = buildDayPlan({
+    manifest: [{ ...restraint, installedAt: 'ARM-1', leaveOutside: true }],
+    tasks: [dayTask('Off the truss', 'WX', 'EV1', 600, { arm: { key: 'ARM-1', ingress: K.a1 } })],
+  });
+
+  it('installed in EVA 1, it is on the arm when EVA 2 begins: no warning, and it is listed as found outside', () => {
+    const [one, two] = computeSeries([armEva(setUp(true)), armEva(ride)]);
+    expect(codes(one.timeline)).toEqual([]);
+    expect(one.outsideAfter.map((o) => [o.item, o.where])).toEqual([
+      ['afr', { kind: 'installed', node: 'ARM-1' }],
+    ]);
+    expect(two.start.items).toEqual({ afr: { kind: 'installed', node: 'ARM-1' } });
+    expect(firstWhere(two.timeline, 'afr')).toEqual({ kind: 'installed', node: 'ARM-1' });
+    expect(codes(two.timeline)).toEqual([]);
+    expect(two.warnings).toEqual([]);
+    expect(two.foundOutside.map((o) => [o.item, o.leftBy])).toEqual([['afr', 0]]);
+  });
+
+  it('brought back in by EVA 1, EVA 2 starts with it in the airlock: told so, and the arm has no restraint', () => {
+    const [, two] = computeSeries([armEva(setUp(false)), armEva(ride)]);
+    expect(two.start.items).toEqual({ afr: { kind: 'airlock' } });
+    expect(codes(two.timeline)).toContain('restraint-missing');
+    expect(two.warnings.map((w) => w.code).sort()).toEqual(['restraint-missing', 'start-differs']);
   });
 });
