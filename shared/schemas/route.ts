@@ -118,3 +118,30 @@ export interface RouteInfeasible {
 }
 
 export type RouteResult = RouteFeasible | RouteInfeasible;
+
+/** Nodes one route matrix may name: rows and columns both. */
+export const MAX_MATRIX_NODES = 200;
+
+/**
+ * Body of `POST /api/stations/:id/route-matrix`: the route between every ordered pair of `nodes`,
+ * each from a fresh clip where it starts, as the routes endpoint answers it without a start state.
+ */
+export const RouteMatrixRequestSchema = RouteRequestSchema.pick({
+  mode: true,
+  tetherLengthM: true,
+  carrying: true,
+  allowRide: true,
+}).extend({
+  nodes: z
+    .array(KeySchema)
+    .min(1, 'name at least one node')
+    .max(MAX_MATRIX_NODES, `at most ${MAX_MATRIX_NODES} nodes`),
+});
+export type RouteMatrixRequest = z.infer<typeof RouteMatrixRequestSchema>;
+
+/** Row `i`, column `j`: the route from `nodes[i]` to `nodes[j]`; null where it is infeasible. */
+export interface RouteMatrix {
+  nodes: string[];
+  seconds: (number | null)[][];
+  swaps: (number | null)[][];
+}

@@ -7,7 +7,8 @@ import {
   wantsClipGraph,
   type FindRouteOptions,
 } from '@shared/compute/routes';
-import type { RouteRequest, RouteResult } from '@shared/schemas/route';
+import type { RouteMatrix, RouteMatrixRequest, RouteRequest, RouteResult } from '@shared/schemas/route';
+import { routeMatrix } from '@shared/compute/route-matrix';
 import type { StationDocument } from '@shared/schemas/station';
 import type { Logger } from '../../lib/logger';
 
@@ -129,4 +130,12 @@ export async function stopClipBuilds(): Promise<void> {
 /** Resolves when no builder thread is running (for tests and benchmarks). */
 export async function clipBuildsSettled(): Promise<void> {
   while (builds.running.size > 0) await Promise.all([...builds.running.values()]);
+}
+
+/** Every route between `request.nodes`, each as `routeOffPath` answers it (a route worker, or the main thread). */
+export function routeMatrixOn(
+  entry: { compiled: CompiledStation; doc: StationDocument },
+  request: RouteMatrixRequest,
+): RouteMatrix {
+  return routeMatrix(request, (r) => routeOffPath(entry.compiled, entry.doc, r));
 }

@@ -2,11 +2,17 @@ import type { z } from 'zod';
 import type { AppContext } from '../../context';
 import { defineRoute, mountRoutes } from '../../lib/route';
 import { IdParamsSchema } from '@shared/schemas/auth';
-import { RouteRequestSchema } from '@shared/schemas/route';
+import { RouteMatrixRequestSchema, RouteRequestSchema } from '@shared/schemas/route';
 import { ReachRequestSchema, SocketPlanRequestSchema } from '@shared/schemas/sockets';
 import { AcceptSocketPlanInputSchema } from '@shared/schemas/sockets';
 import { OrbitQuerySchema } from './compute.schemas';
-import { acceptSocketPlan, computeReach, computeRoute, orbitFor } from './compute.service';
+import {
+  acceptSocketPlan,
+  computeReach,
+  computeRoute,
+  computeRouteMatrix,
+  orbitFor,
+} from './compute.service';
 import { clipMemory } from '@shared/compute/routes-clip';
 import { runTask } from './tasks';
 import { DryRunQuerySchema, withAffectedPlans, withDryRun } from '../stations/stations.router';
@@ -30,6 +36,7 @@ function onStation<S extends z.ZodType>(
 export function computeRouter(ctx: AppContext) {
   return mountRoutes('/api', [
     onStation('routes', RouteRequestSchema, (id, body) => computeRoute(ctx, id, body)),
+    onStation('route-matrix', RouteMatrixRequestSchema, (id, body) => computeRouteMatrix(ctx, id, body)),
     onStation('reach', ReachRequestSchema, (id, body) => computeReach(ctx, id, body)),
     onStation('socket-plan', SocketPlanRequestSchema, (id, body) =>
       runTask(ctx, 'socket-plan', { stationId: id, request: body }),

@@ -8,7 +8,14 @@ import { reachCheck } from '@shared/compute/reach';
 import { planSockets, type SocketCandidate } from '@shared/compute/socket-planner';
 import { GridTooLargeError, gridCandidates, type FaceCandidate } from '@shared/compute/truss-faces';
 import { orbitSummary } from '@shared/compute/orbit';
-import type { RouteRequest, RouteResult } from '@shared/schemas/route';
+import {
+  MAX_MATRIX_NODES,
+  type RouteMatrix,
+  type RouteMatrixRequest,
+  type RouteRequest,
+  type RouteResult,
+} from '@shared/schemas/route';
+import { matrixNodesFor } from '@shared/compute/route-matrix';
 import {
   MAX_SOCKET_CANDIDATES,
   type AcceptedSocket,
@@ -41,7 +48,7 @@ import {
 } from '../stations/stations.service';
 import { socketNameFor } from '@shared/compute/socket-names';
 import { clipGraphHeld, routeRequestProblems } from '@shared/compute/routes';
-import { routeOffPath } from './clip-builder';
+import { routeMatrixOn, routeOffPath } from './clip-builder';
 import { getCompiledStation, type CompiledEntry } from './compiled-cache';
 import type { OrbitQuery } from './compute.schemas';
 
@@ -128,6 +135,37 @@ export function computeRoute(
   const station = `${ctx.config.databaseUrl}#${stationId}`;
   return ctx.routePool
     .route({ station, version: entry.version, doc: entry.doc, request })
+    .then((json) => new JsonText(json));
+}
+
+/**
+ * `POST /api/stations/:id/route-matrix`: every node known (else 404 naming it and its path), the
+ * matrix within the work a station of this size allows (else 400 naming the most nodes it takes),
+ * computed on the worker pool when there is one.
+ */
+export function computeRouteMatrix(
+  ctx: AppContext,
+  stationId: number,
+  request: RouteMatrixRequest,
+): RouteMatrix | Promise<JsonText> {
+  const entry = getCompiledStation(ctx, stationId);
+  const unknown = request.nodes.flatMap((key, i) => (entry.nodeKeys.has(key) ? [] : [{ key, i }]));
+  if (unknown.length) {
+    throw new HttpError(
+      'NOT_FOUND',
+      `The station has no node "${unknown[0].key}".`,
+      unknown.map(({ key, i }) => ({ path: `body.nodes[${i}]`, message: `no node "${key}"` })),
+    );
+  }
+  const most = matrixNodesFor(entry.doc.nodes.length, MAX_MATRIX_NODES);
+  if (request.nodes.length > most) {
+    const message = `at most ${most} nodes on a station of ${entry.doc.nodes.length} nodes`;
+    throw badRequest(`The matrix is too large: ${message}.`, [{ path: 'body.nodes', message }]);
+  }
+  if (!ctx.routePool) return routeMatrixOn(entry, request);
+  const station = `${ctx.config.databaseUrl}#${stationId}`;
+  return ctx.routePool
+    .matrix({ station, version: entry.version, doc: entry.doc, matrix: request })
     .then((json) => new JsonText(json));
 }
 

@@ -1,7 +1,7 @@
 import { Worker } from 'node:worker_threads';
 import { CLIP_BUILD_FREE_NODES } from '@shared/compute/routes';
 import { DEFAULT_CLIP_MEMORY_BYTES } from '@shared/compute/routes-clip';
-import type { RouteRequest } from '@shared/schemas/route';
+import type { RouteMatrixRequest, RouteRequest } from '@shared/schemas/route';
 import type { StationDocument } from '@shared/schemas/station';
 import { HttpError, unavailable } from '../../lib/http-error';
 import type { Logger } from '../../lib/logger';
@@ -38,10 +38,15 @@ export interface RouteJob extends StationJob {
   request: RouteRequest;
 }
 
+/** Every route between some nodes of the station. */
+export interface MatrixJob extends StationJob {
+  matrix: RouteMatrixRequest;
+}
+
 /** A plan's day on the station: its timeline as JSON text, or an export (CSV text, PDF bytes). */
 export interface DayJob extends StationJob, DayWork {}
 
-type Job = RouteJob | DayJob;
+type Job = RouteJob | MatrixJob | DayJob;
 
 export interface RoutePoolOptions {
   size: number;
@@ -161,6 +166,12 @@ export class RoutePool {
     return 'text' in result ? result.text : '';
   }
 
+  /** A route matrix as the JSON text of its RouteMatrix. */
+  async matrix(job: MatrixJob): Promise<string> {
+    const result = await this.run(job);
+    return 'text' in result ? result.text : '';
+  }
+
   /** A plan's day: the timeline as JSON text, or an export (CSV text, PDF bytes). */
   day(job: DayJob): Promise<{ text: string } | { bytes: Uint8Array }> {
     return this.run(job);
@@ -226,15 +237,18 @@ export class RoutePool {
       version: job.version,
       ...('request' in job
         ? { request: job.request }
-        : {
-            day: {
-              plan: job.plan,
-              output: job.output,
-              start: job.start,
-              extra: job.extra,
-              ...(job.run ? { run: job.run } : {}),
-            },
-          }),
+        : 'matrix' in job
+          ? { matrix: job.matrix }
+          : {
+              day: {
+                plan: job.plan,
+                output: job.output,
+                start: job.start,
+                extra: job.extra,
+                ...(job.run ? { run: job.run } : {}),
+                ...(job.sequence ? { sequence: job.sequence } : {}),
+              },
+            }),
     };
     if (withDocument) msg.doc = job.doc;
     slot.held.delete(job.station);

@@ -1,10 +1,11 @@
-import type { RouteRequest } from '@shared/schemas/route';
+import type { RouteMatrixRequest, RouteRequest } from '@shared/schemas/route';
 import type { DayStart } from '@shared/compute/day/types';
 import type { PlanView } from '@shared/schemas/plan-views';
 import type { StationDocument } from '@shared/schemas/station';
 import type { ClipBuildEvent } from './clip-builder';
 import type { DayExtra, DayOutput } from '../plans/plan-day';
 import type { RunWork } from '../runs/run-day';
+import type { SequenceWork } from '../plans/plan-sequence';
 import type { ErrorCode, ErrorDetail } from '@shared/errors';
 
 /** What a route worker starts with. */
@@ -33,10 +34,11 @@ export interface DayWork {
   start?: DayStart;
   extra?: DayExtra;
   run?: RunWork;
+  sequence?: SequenceWork;
 }
 
 /**
- * Main thread → worker: one route query (`request`) or one plan's day (`day`). `station` names the
+ * Main thread → worker: one route query (`request`), a route matrix (`matrix`) or one plan's day (`day`). `station` names the
  * station within one database (`<database>#<id>`); `doc` is sent only when the main thread believes
  * the worker does not hold `version` yet.
  */
@@ -46,6 +48,8 @@ export interface RouteMessage {
   version: number;
   doc?: StationDocument;
   request?: RouteRequest;
+  /** every route between the nodes: a RouteMatrix */
+  matrix?: RouteMatrixRequest;
   day?: DayWork;
 }
 

@@ -4,7 +4,7 @@ import { parentPort, workerData } from 'node:worker_threads';
 import { compileStation, type CompiledStation } from '@shared/compute/compiled-station';
 import type { StationDocument } from '@shared/schemas/station';
 import { clipMemory, setClipMemoryBudget } from '@shared/compute/routes-clip';
-import { configureClipBuilds, routeOffPath } from './clip-builder';
+import { configureClipBuilds, routeMatrixOn, routeOffPath } from './clip-builder';
 import { HttpError } from '../../lib/http-error';
 import { dayOutputOn } from '../plans/plan-day';
 import { WORKER_STATIONS, type RouteMessage, type RouteWorkerData, type WorkerReply } from './route-protocol';
@@ -38,19 +38,17 @@ async function answer(msg: RouteMessage): Promise<WorkerReply> {
   held.set(msg.station, entry);
   while (held.size > WORKER_STATIONS) held.delete(held.keys().next().value!);
   if (msg.day) {
-    const out = await dayOutputOn(
-      entry,
-      msg.day.plan,
-      msg.day.output,
-      msg.day.start,
-      msg.day.extra,
-      msg.day.run,
-    );
+    const out = await dayOutputOn(entry, msg.day.plan, msg.day.output, msg.day.start, msg.day.extra, {
+      run: msg.day.run,
+      sequence: msg.day.sequence,
+    });
     return 'text' in out
       ? { kind: 'result', id: msg.id, json: out.text, compiled, clip: clipMemory() }
       : { kind: 'bytes', id: msg.id, bytes: out.bytes, compiled, clip: clipMemory() };
   }
-  const result = routeOffPath(entry.compiled, entry.doc, msg.request!);
+  const result = msg.matrix
+    ? routeMatrixOn(entry, msg.matrix)
+    : routeOffPath(entry.compiled, entry.doc, msg.request!);
   return { kind: 'result', id: msg.id, json: JSON.stringify(result), compiled, clip: clipMemory() };
 }
 

@@ -6,6 +6,7 @@ import { PLANNING_CAUTION } from '@shared/caution';
 import { timelineCsv, timelinePdf } from './plan-export.service';
 import { runViewOn, type RunWork } from '../runs/run-day';
 import { dayOf, type DayStationVersion } from './day-of';
+import { planSequenceOn, type SequenceWork } from './plan-sequence';
 
 export type { DayStationVersion } from './day-of';
 
@@ -34,7 +35,7 @@ export function planTimelineOn(
   };
 }
 
-export type DayOutput = 'timeline' | 'csv' | 'pdf' | 'run';
+export type DayOutput = 'timeline' | 'csv' | 'pdf' | 'run' | 'sequence';
 
 /** What the server adds to a day it computes: whether the plan's station moved on since approval. */
 export type DayExtra = Partial<Pick<PlanTimeline, 'stationChangedSinceApproval' | 'stationChanges'>>;
@@ -49,8 +50,11 @@ export async function dayOutputOn(
   output: DayOutput,
   start: DayStart = {},
   extra: DayExtra = {},
-  run?: RunWork,
+  job: { run?: RunWork; sequence?: SequenceWork } = {},
 ): Promise<DayResult> {
+  const { run } = job;
+  if (output === 'sequence')
+    return { text: JSON.stringify(planSequenceOn(station, plan, start, job.sequence)) };
   if (output === 'run') {
     if (!run) throw new Error('internal: a run job without its run');
     return { text: JSON.stringify(runViewOn(station, plan, run)) };

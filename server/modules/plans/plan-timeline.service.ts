@@ -4,6 +4,7 @@ import { getCompiledStationAt, stationVersion } from '../compute/compiled-cache'
 import type { PreviewPlanInput } from '@shared/schemas/sequence';
 import { assertKeys, getPlan, stationDocFor, type PlanView } from './plans.service';
 import type { RunWork } from '../runs/run-day';
+import type { SequenceWork } from './plan-sequence';
 import { dayOutputOn, planTimelineOn, type DayExtra, type DayOutput, type DayResult } from './plan-day';
 
 export type { PlanTimeline } from '@shared/schemas/plan-views';
@@ -42,12 +43,13 @@ export async function planDayOutput(
   ctx: AppContext,
   planId: number,
   output: DayOutput,
-  more: { start?: DayStart; extra?: DayExtra; plan?: PlanView; run?: RunWork } = {},
+  more: { start?: DayStart; extra?: DayExtra; plan?: PlanView; run?: RunWork; sequence?: SequenceWork } = {},
 ): Promise<{ plan: PlanView; result: DayResult }> {
   const plan = more.plan ?? getPlan(ctx.db, planId);
   const station = planStation(ctx, plan);
-  const { start = {}, extra = {}, run } = more;
-  if (!ctx.routePool) return { plan, result: await dayOutputOn(station, plan, output, start, extra, run) };
+  const { start = {}, extra = {}, run, sequence } = more;
+  if (!ctx.routePool)
+    return { plan, result: await dayOutputOn(station, plan, output, start, extra, { run, sequence }) };
   const live = station.version === stationVersion(ctx.db, plan.stationId);
   const result = await ctx.routePool.day({
     // a kept version is held by the worker beside the live one, not in its place
@@ -59,6 +61,7 @@ export async function planDayOutput(
     start,
     extra,
     ...(run ? { run } : {}),
+    ...(sequence ? { sequence } : {}),
   });
   return { plan, result };
 }

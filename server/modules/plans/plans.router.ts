@@ -23,7 +23,7 @@ import {
   submitPlan,
   updatePlan,
 } from './plans.service';
-import { PreviewPlanInputSchema } from '@shared/schemas/sequence';
+import { PreviewPlanInputSchema, SequenceInputSchema } from '@shared/schemas/sequence';
 import { planDayOutput, previewTimeline } from './plan-timeline.service';
 import { planChangeControl } from './plan-station.service';
 import { seriesStartOf } from '../series/series.service';
@@ -182,6 +182,21 @@ export function plansRouter(ctx: AppContext) {
       input: { params: IdParamsSchema, body: PreviewPlanInputSchema },
       handler: async (_req, _res, { params, body }) =>
         new JsonText(await previewTimeline(ctx, params.id, body)),
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/:id/sequence',
+      access: 'read',
+      input: { params: IdParamsSchema, body: SequenceInputSchema },
+      handler: async (_req, _res, { params, body }) => {
+        const plan = getPlan(ctx.db, params.id);
+        const { result } = await planDayOutput(ctx, params.id, 'sequence', {
+          plan,
+          start: seriesStartOf(ctx, plan),
+          sequence: { budgetMs: body.budgetMs },
+        });
+        return new JsonText('text' in result ? result.text : '');
+      },
     }),
     defineRoute({
       method: 'get',
