@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { RUN_EVENT_KINDS, type RunProjection } from '../compute/day/run';
 import type { WireTimeline } from '../compute/day/wire';
 import { CrewMemberSchema, type CrewMember } from './plan';
+import type { PlanView } from './plan-views';
 import { VersionSchema } from './version';
 
 /** The longest EVA a run logs, in seconds of elapsed time: a day. */
@@ -73,6 +74,9 @@ export interface RunSummary {
 /** `GET /api/runs/:id`: the run, its events, and the day as flown and re-projected from now. */
 export interface RunView extends Omit<RunProjection, 'planned' | 'projected'> {
   run: RunSummary;
+  /** the plan as it was when the run opened */
+  plan: Pick<PlanView, 'id' | 'title' | 'stationId' | 'crew' | 'tasks'>;
+  airlockKey: string;
   events: RunEvent[];
   /** the approved day and the re-projected one, as the timeline travels on the wire */
   planned: WireTimeline;

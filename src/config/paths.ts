@@ -24,6 +24,10 @@ export const paths = {
     path: '/plans/:planId',
     getHref: (planId: string | number) => `/plans/${encodeURIComponent(planId)}`,
   },
+  run: {
+    path: '/runs/:runId',
+    getHref: (runId: string | number) => `/runs/${encodeURIComponent(runId)}`,
+  },
   series: {
     path: '/series/:seriesId',
     getHref: (seriesId: string | number) => `/series/${encodeURIComponent(seriesId)}`,

@@ -21,6 +21,8 @@ export function runViewOn(station: DayStationVersion, plan: PlanView, work: RunW
   return {
     ...rest,
     run: work.run,
+    plan: { id: plan.id, title: plan.title, stationId: plan.stationId, crew: plan.crew, tasks: plan.tasks },
+    airlockKey: day.airlockKey,
     events: work.events,
     planned: toWire(planned),
     projected: toWire(projected),

@@ -11,6 +11,9 @@ import type { DayViewProps, PlanStationNodes } from '@/features/plans/types';
 import { getStationGraphQueryOptions } from '@/features/stations/api/get-station-graph';
 import { PlanDayPlayer } from '@/features/walkthrough/components/plan-day-player';
 import { PlaybackScene } from './playback-scene';
+import { usePlanPresence } from '@/features/live/live-updates';
+import { PresenceList } from '@/features/live/components/presence-list';
+import { PlanRuns } from '@/features/runs/components/plan-runs';
 
 export const clientLoader =
   (queryClient: QueryClient) =>
@@ -44,6 +47,7 @@ export default function PlanRoute() {
   const plan = useQuery({ ...getPlanQueryOptions(planId), enabled: !!user });
   const stationId = plan.data?.stationId ?? 0;
   const graph = useQuery({ ...getStationGraphQueryOptions(stationId), enabled: !!user && stationId > 0 });
+  const viewers = usePlanPresence(planId);
   if (!plan.data || !user) return <PageSpinner />;
   const nodes: PlanStationNodes | undefined = graph.data && {
     worksites: graph.data.nodes.filter((n) => n.kind === 'worksite'),
@@ -53,8 +57,10 @@ export default function PlanRoute() {
   };
   return (
     <>
+      <PresenceList viewers={viewers} selfId={user.id} />
       <StationChangeBanner plan={plan.data} />
       <ChangedSinceSubmission plan={plan.data} />
+      {plan.data.status === 'approved' && <PlanRuns planId={plan.data.id} runHref={paths.run.getHref} />}
       <PlanEditor
         key={plan.data.id}
         plan={plan.data}

@@ -2,6 +2,8 @@ import type { QueryClient } from '@tanstack/react-query';
 import { Outlet, type LoaderFunctionArgs } from 'react-router-dom';
 import { AppLayout } from '@/components/layouts/app-layout';
 import { ProtectedRoute, requireUser } from '@/lib/authorization';
+import { LiveUpdates } from '@/features/live/live-updates';
+import { staleKeysOf } from '../../live-keys';
 
 export const clientLoader =
   (queryClient: QueryClient) =>
@@ -13,9 +15,11 @@ export const clientLoader =
 export default function AppRoot() {
   return (
     <ProtectedRoute>
-      <AppLayout>
-        <Outlet />
-      </AppLayout>
+      <LiveUpdates staleKeysOf={staleKeysOf}>
+        <AppLayout>
+          <Outlet />
+        </AppLayout>
+      </LiveUpdates>
     </ProtectedRoute>
   );
 }
