@@ -3,6 +3,7 @@ import type { Page } from 'playwright-core';
 import type { PlanTimeline } from '@shared/schemas/plan-views';
 import type { WalkthroughSummary } from '@shared/schemas/walkthrough';
 import { openBrowserPerTest, sceneSettled, signInAs, type BrowserSession } from './browser';
+import { fromWire } from '@shared/compute/day/wire';
 
 const DEMO_PLAN = 'External camera boom install';
 
@@ -47,9 +48,9 @@ describe('the day in 3D: scrub the plan, see the tether, the restraint and the i
     const plans = (await (await page.request.get('/api/plans')).json()) as { id: number; title: string }[];
     const plan = plans.find((p) => p.title === DEMO_PLAN)!;
     expect(plan, 'the approved demo plan is seeded').toBeDefined();
-    const timeline = (await (
-      await page.request.get(`/api/plans/${plan.id}/timeline`)
-    ).json()) as PlanTimeline;
+    const timeline = fromWire<PlanTimeline>(
+      await (await page.request.get(`/api/plans/${plan.id}/timeline`)).json(),
+    );
     const boom = timeline.equipment.find((e) => e.item === 'boom')!;
     const restraint = timeline.equipment.find((e) => e.item === 'restraint-1')!;
     // the boom goes out with EV2, is handed to EV1, then set down at the mount

@@ -6,6 +6,7 @@ import { MAX_TASKS } from '@shared/schemas/plan';
 import { stationDocumentFile } from '../factories/station-document';
 import { blockedSamples, listenOnLoopback, sampleHealthWhile, signInCookie } from '../setup/loopback';
 import { makeTestApp, type TestApp } from '../setup/test-app';
+import { fromWire } from '@shared/compute/day/wire';
 
 /**
  * A plan of the most tasks a plan may have, on a 10k-node station: its timeline and both exports are
@@ -84,7 +85,7 @@ describe('a long plan on a large station', () => {
   // the first request sends the station to the worker; the guard below measures the steady state
   it('the timeline lists each route once: blocks point into it, and the answer stays small', async () => {
     const res = await timed(`/api/plans/${planId}/timeline`);
-    const tl = JSON.parse(res.body.toString());
+    const tl: ReturnType<typeof JSON.parse> = fromWire(JSON.parse(res.body.toString()));
     const translates = [...tl.crew.EV1.blocks, ...tl.crew.EV2.blocks].filter(
       (b: { type: string }) => b.type === 'translate',
     );
@@ -98,7 +99,7 @@ describe('a long plan on a large station', () => {
     const { encoding, raw } = await gzipped(`/api/plans/${planId}/timeline`);
     expect(encoding).toBe('gzip');
     expect(raw.length).toBeLessThan(res.bytes / 3);
-    expect(JSON.parse(zlib.gunzipSync(raw).toString())).toEqual(tl);
+    expect(fromWire(JSON.parse(zlib.gunzipSync(raw).toString()))).toEqual(tl);
   }, 120_000);
 
   it('timeline, CSV and PDF at once: /api/health answers under 250 ms throughout', async () => {

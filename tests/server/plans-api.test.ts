@@ -7,6 +7,7 @@ import { pdfText } from '../setup/pdf-text';
 import { makeAppWithStation } from '../setup/stations';
 import type { TestAgent, TestApp } from '../setup/test-app';
 import { CSV_HEADER } from '../../server/modules/plans/plan-export.service';
+import { fromWire } from '@shared/compute/day/wire';
 
 const ORIGIN = 'http://tetherwise.test';
 const NEAR_SITE = 'T2-W2';
@@ -339,7 +340,7 @@ describe('timeline and exports', () => {
     planId = (await createPlan({ title: 'Timeline plan' })).id;
     const res = await (await t.agent('viewer')).get(`/api/plans/${planId}/timeline`);
     expect(res.status, JSON.stringify(res.body)).toBe(200);
-    timeline = res.body;
+    timeline = fromWire(res.body) as unknown as typeof timeline;
   });
 
   it('lays out both crew members from egress to ingress, with work blocks for their tasks', () => {

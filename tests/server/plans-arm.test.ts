@@ -3,6 +3,7 @@ import { LINE_KEYS as K, lineStationDocument } from '../factories/day';
 import { pdfText } from '../setup/pdf-text';
 import { importStation, makeAppWithStation } from '../setup/stations';
 import type { TestAgent, TestApp } from '../setup/test-app';
+import { fromWire } from '@shared/compute/day/wire';
 
 /**
  * The line station with an arm based at A2 (16, 0, 0), reach 1–20 m, and a worksite WX at (8, 6, 8)
@@ -79,7 +80,7 @@ async function day(tasks: unknown[], manifest?: unknown[], station?: number) {
   return {
     id: created.body.id as number,
     codes: [...new Set(res.body.warnings.map((w: { code: string }) => w.code))].sort() as string[],
-    body: res.body,
+    body: fromWire(res.body) as ReturnType<typeof JSON.parse>,
   };
 }
 

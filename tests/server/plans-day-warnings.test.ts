@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { LINE_KEYS as K, lineStationDocument } from '../factories/day';
 import { makeAppWithStation } from '../setup/stations';
 import type { TestAgent, TestApp } from '../setup/test-app';
+import { fromWire } from '@shared/compute/day/wire';
 
 let t: TestApp;
 let planner: TestAgent;
@@ -49,7 +50,7 @@ async function dayCodes(tasks: unknown[], manifest: unknown[] = []) {
   expect(res.status, JSON.stringify(res.body)).toBe(200);
   return {
     codes: [...new Set(res.body.warnings.map((w: { code: string }) => w.code))].sort() as string[],
-    body: res.body,
+    body: fromWire(res.body) as ReturnType<typeof JSON.parse>,
   };
 }
 

@@ -1,6 +1,10 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seedDemoPlans } from '../../server/db/seed/demo-plans';
 import { makeTestApp, type TestApp } from '../setup/test-app';
+import { fromWire } from '@shared/compute/day/wire';
+
+/** A timeline answer as the client reads it (the wire format decoded), as loosely typed as a body. */
+const bodyOf = (res: { body: unknown }): ReturnType<typeof JSON.parse> => fromWire(res.body as never);
 
 let t: TestApp;
 beforeAll(async () => {
@@ -39,7 +43,7 @@ describe('demo plans on Kestrel Station', () => {
     async (title) => {
       const viewer = await t.agent('viewer');
       const plan = (await viewer.get('/api/plans')).body.find((p: { title: string }) => p.title === title);
-      const timeline = (await viewer.get(`/api/plans/${plan.id}/timeline`)).body;
+      const timeline = bodyOf(await viewer.get(`/api/plans/${plan.id}/timeline`));
       const full = (await viewer.get(`/api/plans/${plan.id}`)).body;
       expect(full.tasks.filter((x: { eclipseOnly: boolean }) => x.eclipseOnly)).toHaveLength(1);
       expect(timeline.warnings as Warning[], JSON.stringify(timeline.warnings)).toEqual([]);
@@ -71,7 +75,7 @@ describe('demo plans on Kestrel Station', () => {
     const plan = (await viewer.get('/api/plans')).body.find(
       (p: { title: string }) => p.title === 'External camera boom install',
     );
-    const timeline = (await viewer.get(`/api/plans/${plan.id}/timeline`)).body;
+    const timeline = bodyOf(await viewer.get(`/api/plans/${plan.id}/timeline`));
     const anchor = timeline.equipment.find((e: { kind: string }) => e.kind === 'tether-anchor');
     const installed = anchor.states.find((s: { where: { kind: string } }) => s.where.kind === 'installed');
     const swaps = timeline.crew.EV2.blocks.filter(
@@ -90,7 +94,7 @@ describe('the pump swap uses the arm as a team would', () => {
       (p: { title: string }) => p.title === 'Coolant pump module swap',
     );
     const full = (await viewer.get(`/api/plans/${plan.id}`)).body;
-    const timeline = (await viewer.get(`/api/plans/${plan.id}/timeline`)).body;
+    const timeline = bodyOf(await viewer.get(`/api/plans/${plan.id}/timeline`));
     const graph = (await viewer.get(`/api/stations/${full.stationId}/graph`)).body;
     const actions = full.tasks.flatMap(
       (x: { actions: { do: string; item: string; at?: string }[] }) => x.actions,

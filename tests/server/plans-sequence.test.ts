@@ -51,7 +51,7 @@ describe('timeline preview: any plan fields in, the timeline out, nothing saved'
     const preview = fromWire(res.body);
     // worked by hand: the first task's work is 20 min longer, nothing else changes
     expect(preview.endSeconds - saved.endSeconds).toBeCloseTo(1200, 6);
-    expect(Array.isArray(res.body.routes[0].legs[0])).toBe(true);
+    expect(res.body.legTypes[res.body.routes[0].legs[0]]).toHaveLength(3);
     const after = (await planner.get(`/api/plans/${plan.id}`)).body;
     expect(after.version).toBe(plan.version);
     expect(after.tasks[0].durationSeconds).toBe(600);

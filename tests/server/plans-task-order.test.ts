@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { LINE_KEYS as K, lineStationDocument } from '../factories/day';
 import { stationDocumentFile } from '../factories/station-document';
 import { makeTestApp, type TestAgent, type TestApp } from '../setup/test-app';
+import { fromWire } from '@shared/compute/day/wire';
 
 let t: TestApp;
 let planner: TestAgent;
@@ -74,7 +75,9 @@ describe('task order fields: after and optional', () => {
     expect([b2.id, a2.id]).toEqual([b.id, a.id]);
     expect(c.id).not.toBe(a.id);
     expect(c.after).toEqual([a.id, b.id]);
-    const timeline = (await planner.get(`/api/plans/${created.id}/timeline`)).body;
+    const timeline: ReturnType<typeof JSON.parse> = fromWire(
+      (await planner.get(`/api/plans/${created.id}/timeline`)).body,
+    );
     const work = (i: number) =>
       [...timeline.crew.EV1.blocks, ...timeline.crew.EV2.blocks].find(
         (x: { type: string; taskIndex?: number }) => x.type === 'work' && x.taskIndex === i,

@@ -215,11 +215,16 @@ describe('the continuous day (fast-check, random plans on the line station)', ()
 });
 
 describe('the timeline on the wire', () => {
-  it('gives back every route leg by leg (ends, kind, start along the route), to the millimetre and the hundredth second', () => {
+  it('gives back every route leg by leg (ends, kind, start along the route), to the millimetre and the hundredth second, and every block exactly', () => {
     fc.assert(
       fc.property(planArb, (plan) => {
         const t = computeTimeline(plan, station, route);
-        const back = fromWire(JSON.parse(JSON.stringify(toWire(t))) as WireTimeline);
+        const wire = toWire(t);
+        // every translate and swap block travels as its route's one block
+        for (const m of ['EV1', 'EV2'] as const) {
+          expect(wire.crew[m].blocks.filter((b) => b.type === 'translate' || b.type === 'swap')).toEqual([]);
+        }
+        const back = fromWire(JSON.parse(JSON.stringify(wire)) as WireTimeline);
         expect(back.routes.length).toBe(t.routes.length);
         back.routes.forEach((r, i) => {
           const legs = t.routes[i].legs;
