@@ -28,19 +28,19 @@ afterAll(() => t.close());
  * EV1 works two tasks at the pump site (the second eclipse-only), then both swap the pump, then EV2
  * inspects: EV2's joint task waits for EV1, so a delay of EV1's first task carries into both lanes.
  */
-async function approvedPlan(orbitPhaseAtStartDeg = 0) {
+async function approvedPlan(
+  orbitPhaseAtStartDeg = 0,
+  tasks = [
+    buildTask({ title: 'Open the cover', durationSeconds: 600 }),
+    buildTask({ title: 'Demate connectors', durationSeconds: 600, eclipseOnly: true }),
+    buildTask({ title: 'Swap the pump', crew: 'both', durationSeconds: 900 }),
+    buildTask({ title: 'Inspect the site', crew: 'EV2', durationSeconds: 300 }),
+  ],
+) {
   const planner = await t.agent('planner');
-  const created = await planner.post('/api/plans').send(
-    buildPlanInput(stationId, {
-      orbitPhaseAtStartDeg,
-      tasks: [
-        buildTask({ title: 'Open the cover', durationSeconds: 600 }),
-        buildTask({ title: 'Demate connectors', durationSeconds: 600, eclipseOnly: true }),
-        buildTask({ title: 'Swap the pump', crew: 'both', durationSeconds: 900 }),
-        buildTask({ title: 'Inspect the site', crew: 'EV2', durationSeconds: 300 }),
-      ],
-    }),
-  );
+  const created = await planner
+    .post('/api/plans')
+    .send(buildPlanInput(stationId, { orbitPhaseAtStartDeg, tasks }));
   expect(created.status, JSON.stringify(created.body)).toBe(201);
   const submitted = await planner.post(`/api/plans/${created.body.id}/submit`).send({ version: 1 });
   expect(submitted.status).toBe(200);
@@ -228,5 +228,29 @@ describe('runs of an approved plan', () => {
     expect(missed.nextWindow!.nightStart).toBeCloseTo(nightStart + o.periodSeconds, 3);
     expect(missed.nextWindow!.start).toBeCloseTo(nightStart + o.periodSeconds, 3);
     expect(missed.nextWindow!.end - missed.nextWindow!.start).toBeCloseTo(600, 6);
+  });
+
+  it('restores the margin when the drop suggestion says it does: the same day flown without those tasks', async () => {
+    const cover = buildTask({ title: 'Open the cover', durationSeconds: 600 });
+    const getAhead = buildTask({ title: 'Clean the radiator', durationSeconds: 1500, optional: true });
+    const close = buildTask({ title: 'Close the cover', durationSeconds: 600 });
+    const delay = 1200;
+    const plan = await approvedPlan(0, [cover, getAhead, close]);
+    const run = await openRun(plan.id);
+    const planned = (await view(run.id, 0)).plannedDay;
+    const now = await flyFirstTask(run.id, plan, planned, delay);
+    const flown = await view(run.id, now);
+    expect(flown.marginSeconds).toBeCloseTo(flown.plannedMarginSeconds - delay, 6);
+    expect(flown.drop).toMatchObject({ taskIds: [plan.tasks[1].id], restores: true });
+    expect(flown.drop!.targetMarginSeconds).toBe(Math.max(0, flown.plannedMarginSeconds));
+
+    // the day it stands for, flown for real: the plan approved without the dropped task, same logs
+    const without = await approvedPlan(0, [cover, close]);
+    const again = await openRun(without.id);
+    await flyFirstTask(again.id, without, planned, delay);
+    const check = await view(again.id, now);
+    expect(check.marginSeconds).toBeCloseTo(flown.drop!.marginSeconds, 6);
+    expect(check.marginSeconds).toBeGreaterThanOrEqual(flown.drop!.targetMarginSeconds);
+    expect(check.drop).toBeNull();
   });
 });
