@@ -14,6 +14,7 @@ import { PlansList } from '@/features/plans/components/plans-list';
 import { getStationsQueryOptions } from '@/features/stations/api/get-stations';
 import { getSeriesListQueryOptions } from '@/features/series/api/get-series';
 import { SeriesList } from '@/features/series/components/series-list';
+import { CreateSeriesForm } from '@/features/series/components/create-series-form';
 
 export const clientLoader =
   (queryClient: QueryClient) =>
@@ -32,6 +33,8 @@ export default function PlansRoute() {
   const canEdit = useCan('plans:edit');
   const navigate = useNavigate();
   const [creating, setCreating] = useState(false);
+  const [creatingSeries, setCreatingSeries] = useState(false);
+  const inSeries = new Set((series.data ?? []).flatMap((s) => s.planIds));
   const choices = (stations.data ?? []).map((s) => ({
     id: s.id,
     name: s.name,
@@ -52,7 +55,28 @@ export default function PlansRoute() {
         }
       />
       <Panel>{plans.data ? <PlansList plans={plans.data} /> : <PageSpinner />}</Panel>
-      <Panel title="Series">{series.data ? <SeriesList series={series.data} /> : <PageSpinner />}</Panel>
+      <Panel
+        title="Series"
+        actions={
+          canEdit && (
+            <Button size="sm" variant="secondary" onClick={() => setCreatingSeries(true)}>
+              New series
+            </Button>
+          )
+        }
+      >
+        {series.data ? <SeriesList series={series.data} /> : <PageSpinner />}
+      </Panel>
+      <Dialog open={creatingSeries} title="New series" onClose={() => setCreatingSeries(false)}>
+        <CreateSeriesForm
+          plans={(plans.data ?? []).filter((p) => !inSeries.has(p.id))}
+          onCancel={() => setCreatingSeries(false)}
+          onSuccess={(created) => {
+            setCreatingSeries(false);
+            navigate(paths.series.getHref(created.id));
+          }}
+        />
+      </Dialog>
       <Dialog open={creating} title="New plan" onClose={() => setCreating(false)}>
         <CreatePlanForm
           stations={choices}

@@ -1,4 +1,4 @@
-import { Fragment } from 'react';
+import { Fragment, type ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import type { OutsideItem, SeriesEva, SeriesView } from '@shared/schemas/series';
 import { formatElapsed } from '@shared/compute/units';
@@ -22,7 +22,7 @@ function where(o: OutsideItem): string {
   }
 }
 
-function EvaCard({ eva, index }: { eva: SeriesEva; index: number }) {
+function EvaCard({ eva, index, controls }: { eva: SeriesEva; index: number; controls?: ReactNode }) {
   return (
     <li
       className="w-64 shrink-0 rounded-md border border-surface-line bg-surface p-3"
@@ -64,6 +64,7 @@ function EvaCard({ eva, index }: { eva: SeriesEva; index: number }) {
           ))}
         </ul>
       )}
+      {controls}
     </li>
   );
 }
@@ -91,12 +92,19 @@ function Between({ items, after }: { items: OutsideItem[]; after: number }) {
 }
 
 /** The EVAs of a series in order, with what stays outside between each and the next (and after the last). */
-export function SeriesStrip({ series }: { series: SeriesView }) {
+export function SeriesStrip({
+  series,
+  controls,
+}: {
+  series: SeriesView;
+  /** per EVA: buttons to move or remove it (for those who edit plans) */
+  controls?: (index: number) => ReactNode;
+}) {
   return (
     <ol className="flex items-stretch gap-2 overflow-x-auto pb-2" aria-label="EVAs of the series">
       {series.evas.map((eva, i) => (
         <Fragment key={eva.planId}>
-          <EvaCard eva={eva} index={i} />
+          <EvaCard eva={eva} index={i} controls={controls?.(i)} />
           <Between items={eva.outsideAfter} after={i} />
         </Fragment>
       ))}
