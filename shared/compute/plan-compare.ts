@@ -1,6 +1,6 @@
 import type { CrewMember, ManifestItem, Plan, Task } from '../schemas/plan';
 import { PLAN_SETTING_KEYS } from '../schemas/plan';
-import type { Timeline } from './day/types';
+import type { DaySummary } from './day/summary';
 import { sameValue } from './station-changes';
 
 /** A value before and after. */
@@ -91,16 +91,22 @@ function compareList<T extends { id?: number }>(
   return out;
 }
 
-const crewEnd = (t: Timeline, m: CrewMember) => t.crew[m].totalSeconds;
+/** What a comparison reads of a day: a timeline, or its summary from the thread that computed it. */
+export type DayFigures = Pick<
+  DaySummary,
+  'endSeconds' | 'marginSeconds' | 'timeLimitSeconds' | 'warnings' | 'crew'
+>;
+
+const crewEnd = (t: DayFigures, m: CrewMember) => t.crew[m].totalSeconds;
 
 /** What changed from revision `a` (version `from`) to `b` (version `to`), given each one's day. */
 export function comparePlanRevisions(
   from: number,
   a: PlanRevisionContent,
-  dayA: Timeline,
+  dayA: DayFigures,
   to: number,
   b: PlanRevisionContent,
-  dayB: Timeline,
+  dayB: DayFigures,
 ): PlanComparison {
   const settings: FieldChange[] = [];
   const field = (name: string, x: unknown, y: unknown) => {

@@ -117,4 +117,34 @@ describe('a long plan on a large station', () => {
     expect(blocked, JSON.stringify(blocked)).toEqual([]);
     expect(pdf.body.subarray(0, 5).toString()).toBe('%PDF-');
   }, 120_000);
+
+  it('a series of two long days, the second EVA’s timeline and a comparison of two revisions: /api/health answers under 250 ms throughout', async () => {
+    const planner = await t.agent('planner');
+    const copy = await planner.post(`/api/plans/${planId}/duplicate`).send({});
+    expect(copy.status, JSON.stringify(copy.body)).toBe(201);
+    const later = await planner
+      .patch(`/api/plans/${copy.body.id}`)
+      .send({ version: copy.body.version, timeLimitSeconds: 23 * 3600 });
+    expect(later.status, JSON.stringify(later.body)).toBe(200);
+    const made = await planner
+      .post('/api/series')
+      .send({ title: 'Two long days', planIds: [planId, copy.body.id] });
+    expect(made.status, JSON.stringify(made.body)).toBe(201);
+    const { result, samples } = await sampleHealthWhile(base, () =>
+      Promise.all([
+        timed(`/api/series/${made.body.id}`),
+        timed(`/api/plans/${copy.body.id}/timeline`),
+        timed(`/api/plans/${copy.body.id}/compare?from=${copy.body.version}&to=${later.body.version}`),
+      ]),
+    );
+    const [series, timeline, compare] = result;
+    expect([series.status, timeline.status, compare.status]).toEqual([200, 200, 200]);
+    expect(JSON.parse(series.body.toString()).evas).toHaveLength(2);
+    expect(JSON.parse(compare.body.toString()).settings).toEqual([
+      { field: 'timeLimitSeconds', from: 24 * 3600, to: 23 * 3600 },
+    ]);
+    expect(samples.length).toBeGreaterThan(3);
+    const blocked = blockedSamples(samples, HEALTH_LIMIT_MS);
+    expect(blocked, JSON.stringify(blocked)).toEqual([]);
+  }, 180_000);
 });

@@ -1,6 +1,7 @@
 import { computeTimeline } from '@shared/compute/day/timeline';
 import type { DayStart } from '@shared/compute/day/types';
 import { toWire } from '@shared/compute/day/wire';
+import { summaryOf } from '@shared/compute/day/summary';
 import type { PlanTimeline, PlanView } from '@shared/schemas/plan-views';
 import { PLANNING_CAUTION } from '@shared/caution';
 import { timelineCsv, timelinePdf } from './plan-export.service';
@@ -35,7 +36,8 @@ export function planTimelineOn(
   };
 }
 
-export type DayOutput = 'timeline' | 'csv' | 'pdf' | 'run' | 'sequence';
+/** `summary`: only the figures a series or a comparison reads (`DaySummary`), as JSON text. */
+export type DayOutput = 'timeline' | 'csv' | 'pdf' | 'run' | 'sequence' | 'summary';
 
 /** What the server adds to a day it computes: whether the plan's station moved on since approval. */
 export type DayExtra = Partial<Pick<PlanTimeline, 'stationChangedSinceApproval' | 'stationChanges'>>;
@@ -61,6 +63,7 @@ export async function dayOutputOn(
   }
   const timeline = planTimelineOn(station, plan, start, extra);
   if (output === 'timeline') return { text: JSON.stringify(toWire(timeline)) };
+  if (output === 'summary') return { text: JSON.stringify(summaryOf(timeline)) };
   if (output === 'csv') return { text: timelineCsv(plan, timeline) };
   return { bytes: new Uint8Array(await timelinePdf(plan, timeline)) };
 }

@@ -5,8 +5,7 @@ import { planAudit, users } from '../../db/schema';
 import { notFound } from '../../lib/http-error';
 import { comparePlanRevisions, type PlanComparison } from '@shared/compute/plan-compare';
 import type { PlanRevisionEntry, PlanView } from '@shared/schemas/plan-views';
-import { planTimelineOn } from './plan-day';
-import { planStation } from './plan-timeline.service';
+import { planDaySummary, planStation } from './plan-timeline.service';
 import { getPlan } from './plans.service';
 
 /** A plan's revisions listed at the most (newest first); every one stays readable by version. */
@@ -74,10 +73,19 @@ export function previousSubmissionVersion(db: Db, planId: number): number | null
  * the day: both days computed on the station version the plan is computed on now, so the difference
  * is the plan's own.
  */
-export function comparePlans(ctx: AppContext, planId: number, from: number, to: number): PlanComparison {
+export async function comparePlans(
+  ctx: AppContext,
+  planId: number,
+  from: number,
+  to: number,
+): Promise<PlanComparison> {
   const current = getPlan(ctx.db, planId);
   const a = planAtVersion(ctx.db, planId, from);
   const b = planAtVersion(ctx.db, planId, to);
   const station = planStation(ctx, current);
-  return comparePlanRevisions(from, a, planTimelineOn(station, a), to, b, planTimelineOn(station, b));
+  // both days off this thread (a route worker, when there is a pool), on the one station version
+  // (a revision that named another station is computed on this one, as the plan is now)
+  const on = (p: PlanView) => planDaySummary(ctx, { ...p, stationId: current.stationId }, { station });
+  const [dayA, dayB] = await Promise.all([on(a), on(b)]);
+  return comparePlanRevisions(from, a, dayA, to, b, dayB);
 }

@@ -1,5 +1,6 @@
 import type { AppContext } from '../../context';
 import type { DayStart } from '@shared/compute/day/types';
+import type { DaySummary } from '@shared/compute/day/summary';
 import { getCompiledStationAt, stationVersion } from '../compute/compiled-cache';
 import type { PreviewPlanInput } from '@shared/schemas/sequence';
 import { assertKeys, getPlan, stationDocFor, type PlanView } from './plans.service';
@@ -43,10 +44,18 @@ export async function planDayOutput(
   ctx: AppContext,
   planId: number,
   output: DayOutput,
-  more: { start?: DayStart; extra?: DayExtra; plan?: PlanView; run?: RunWork; sequence?: SequenceWork } = {},
+  more: {
+    start?: DayStart;
+    extra?: DayExtra;
+    plan?: PlanView;
+    run?: RunWork;
+    sequence?: SequenceWork;
+    /** the station version to compute on, when not the plan's own (a revision compared on today's) */
+    station?: ReturnType<typeof planStation>;
+  } = {},
 ): Promise<{ plan: PlanView; result: DayResult }> {
   const plan = more.plan ?? getPlan(ctx.db, planId);
-  const station = planStation(ctx, plan);
+  const station = more.station ?? planStation(ctx, plan);
   const { start = {}, extra = {}, run, sequence } = more;
   if (!ctx.routePool)
     return { plan, result: await dayOutputOn(station, plan, output, start, extra, { run, sequence }) };
@@ -64,6 +73,19 @@ export async function planDayOutput(
     ...(sequence ? { sequence } : {}),
   });
   return { plan, result };
+}
+
+/**
+ * A plan's day reduced to what a series or a comparison reads, computed where its timeline would be
+ * (a route worker when there is a pool): this thread only reads the answer's few figures.
+ */
+export async function planDaySummary(
+  ctx: AppContext,
+  plan: PlanView,
+  more: { start?: DayStart; station?: ReturnType<typeof planStation> } = {},
+): Promise<DaySummary> {
+  const { result } = await planDayOutput(ctx, plan.id, 'summary', { plan, ...more });
+  return JSON.parse('text' in result ? result.text : 'null') as DaySummary;
 }
 
 /**

@@ -169,7 +169,7 @@ export function plansRouter(ctx: AppContext) {
         const { stationChangedSinceApproval, stationChanges } = planChangeControl(ctx, plan);
         const { result } = await planDayOutput(ctx, params.id, 'timeline', {
           plan,
-          start: seriesStartOf(ctx, plan),
+          start: await seriesStartOf(ctx, plan),
           extra: { stationChangedSinceApproval, stationChanges },
         });
         return new JsonText('text' in result ? result.text : '');
@@ -192,7 +192,7 @@ export function plansRouter(ctx: AppContext) {
         const plan = getPlan(ctx.db, params.id);
         const { result } = await planDayOutput(ctx, params.id, 'sequence', {
           plan,
-          start: seriesStartOf(ctx, plan),
+          start: await seriesStartOf(ctx, plan),
           sequence: { budgetMs: body.budgetMs },
         });
         return new JsonText('text' in result ? result.text : '');
@@ -207,7 +207,7 @@ export function plansRouter(ctx: AppContext) {
         const plan = getPlan(ctx.db, params.id);
         const { result } = await planDayOutput(ctx, params.id, 'csv', {
           plan,
-          start: seriesStartOf(ctx, plan),
+          start: await seriesStartOf(ctx, plan),
         });
         res
           .type('text/csv; charset=utf-8')
@@ -224,7 +224,7 @@ export function plansRouter(ctx: AppContext) {
         const plan = getPlan(ctx.db, params.id);
         const { result } = await planDayOutput(ctx, params.id, 'pdf', {
           plan,
-          start: seriesStartOf(ctx, plan),
+          start: await seriesStartOf(ctx, plan),
         });
         const pdf = 'bytes' in result ? Buffer.from(result.bytes) : Buffer.alloc(0);
         res.type('application/pdf').attachment(exportFileName(plan, 'pdf')).send(pdf);

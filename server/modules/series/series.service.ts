@@ -4,8 +4,7 @@ import type { AppContext } from '../../context';
 import type { Db } from '../../db/client';
 import { plans, series, seriesPlans, users } from '../../db/schema';
 import { badRequest, conflict, notFound, staleVersion } from '../../lib/http-error';
-import { computeSeries, type SeriesEvaInput } from '@shared/compute/day/series';
-import { dayStationOf } from '@shared/compute/day/station';
+import { SeriesChain, carriedOverWarnings } from '@shared/compute/day/series';
 import type { DayStart } from '@shared/compute/day/types';
 import type {
   CreateSeriesInput,
@@ -15,8 +14,7 @@ import type {
   UpdateSeriesInput,
 } from '@shared/schemas/series';
 import { recordActivity } from '../activity/activity.service';
-import { routeOffPath } from '../compute/clip-builder';
-import { planStation } from '../plans/plan-timeline.service';
+import { planDaySummary, planStation } from '../plans/plan-timeline.service';
 import { getPlan, type Actor, type PlanView } from '../plans/plans.service';
 
 const author = alias(users, 'author');
@@ -51,17 +49,48 @@ export function seriesOfPlan(db: Db, planId: number): { seriesId: number; before
   return { seriesId: row.seriesId, before: ids.slice(0, ids.indexOf(planId)) };
 }
 
-/** Each EVA's day input: the plan on the station version it is computed on. */
-function evaInput(ctx: AppContext, plan: PlanView): SeriesEvaInput {
-  const entry = planStation(ctx, plan);
-  const station = dayStationOf(entry.doc, entry.compiled);
-  if (!station)
-    throw badRequest(`The station "${entry.doc.name}" has no airlock, so no EVA day can be laid out on it.`);
-  return {
-    plan: { ...plan, manifest: plan.manifest.map((m, i) => ({ ...m, key: m.key ?? `item-${i + 1}` })) },
-    station,
-    route: (request) => routeOffPath(entry.compiled, entry.doc, request),
-  };
+/** The plan as the day reads it: every item with its key (given, or `item-<n>`). */
+const withItemKeys = (plan: PlanView) => ({
+  ...plan,
+  manifest: plan.manifest.map((m, i) => ({ ...m, key: m.key ?? `item-${i + 1}` })),
+});
+
+/** The airlock of the station version a plan is computed on (a day starts and ends there). */
+function airlockOf(station: ReturnType<typeof planStation>): string {
+  const airlock = station.doc.nodes.find((n) => n.kind === 'airlock');
+  if (!airlock)
+    throw badRequest(
+      `The station "${station.doc.name}" has no airlock, so no EVA day can be laid out on it.`,
+    );
+  return airlock.key;
+}
+
+/**
+ * The EVAs of a series in order, each on the station version it is computed on and starting where
+ * the ones before left its items. The days are computed where a plan's timeline is (a route worker
+ * when there is a pool); this thread keeps only the chain of item states between them. With
+ * `alone`, each EVA that starts with carried-over items is also computed on its own, so the
+ * warnings the carried-over start brings about can be told apart.
+ */
+async function seriesDays(
+  ctx: AppContext,
+  list: readonly PlanView[],
+  alone: boolean,
+  chain = new SeriesChain(),
+) {
+  const out = [];
+  for (const [index, plan] of list.entries()) {
+    const station = planStation(ctx, plan);
+    const { start, foundOutside, warnings } = chain.begin(withItemKeys(plan), airlockOf(station));
+    const [day, plain] = await Promise.all([
+      planDaySummary(ctx, plan, { start, station }),
+      alone && start.items ? planDaySummary(ctx, plan, { station }) : null,
+    ]);
+    if (plain) warnings.push(...carriedOverWarnings(day.warnings, plain.warnings));
+    const outsideAfter = chain.end(index, day.itemsAtEnd);
+    out.push({ start, foundOutside, day, outsideAfter, warnings });
+  }
+  return out;
 }
 
 /**
@@ -69,11 +98,17 @@ function evaInput(ctx: AppContext, plan: PlanView): SeriesEvaInput {
  * (computed afresh, so a change to an earlier EVA re-checks this one). Empty when it is in no series
  * or is the first EVA.
  */
-export function seriesStartOf(ctx: AppContext, plan: PlanView): DayStart {
+export async function seriesStartOf(ctx: AppContext, plan: PlanView): Promise<DayStart> {
   const membership = seriesOfPlan(ctx.db, plan.id);
   if (!membership || membership.before.length === 0) return {};
-  const evas = [...membership.before.map((id) => evaInput(ctx, getPlan(ctx.db, id))), evaInput(ctx, plan)];
-  return computeSeries(evas)[evas.length - 1].start;
+  const chain = new SeriesChain();
+  await seriesDays(
+    ctx,
+    membership.before.map((id) => getPlan(ctx.db, id)),
+    false,
+    chain,
+  );
+  return chain.begin(withItemKeys(plan), airlockOf(planStation(ctx, plan))).start;
 }
 
 /**
@@ -134,7 +169,7 @@ export function listSeries(db: Db): SeriesListItem[] {
 }
 
 /** The series with every EVA's day computed in order, each starting where the one before left its items. */
-export function getSeries(ctx: AppContext, id: number): SeriesView {
+export async function getSeries(ctx: AppContext, id: number): Promise<SeriesView> {
   const row = seriesRow(ctx.db, id);
   const authorName =
     row.authorId === null
@@ -142,16 +177,16 @@ export function getSeries(ctx: AppContext, id: number): SeriesView {
       : (ctx.db.select({ name: author.name }).from(author).where(eq(author.id, row.authorId)).get()?.name ??
         null);
   const list = planIdsOf(ctx.db, id).map((planId) => getPlan(ctx.db, planId));
-  const days = computeSeries(list.map((p) => evaInput(ctx, p)));
+  const days = await seriesDays(ctx, list, true);
   const evas: SeriesEva[] = list.map((p, i) => ({
     planId: p.id,
     title: p.title,
     status: p.status,
     version: p.version,
     date: p.date,
-    endSeconds: days[i].timeline.endSeconds,
-    marginSeconds: days[i].timeline.marginSeconds,
-    warningCount: days[i].timeline.warnings.length,
+    endSeconds: days[i].day.endSeconds,
+    marginSeconds: days[i].day.marginSeconds,
+    warningCount: days[i].day.warnings.length,
     foundOutside: days[i].foundOutside,
     outsideAfter: days[i].outsideAfter,
     carriedOver: days[i].warnings,
@@ -169,7 +204,7 @@ export function getSeries(ctx: AppContext, id: number): SeriesView {
   };
 }
 
-export function createSeries(ctx: AppContext, input: CreateSeriesInput, actor: Actor): SeriesView {
+export function createSeries(ctx: AppContext, input: CreateSeriesInput, actor: Actor): Promise<SeriesView> {
   const id = ctx.db.transaction((tx) => {
     const db = tx as unknown as Db;
     checkPlans(db, input.planIds, null);
@@ -215,7 +250,7 @@ export function updateSeries(
   id: number,
   input: UpdateSeriesInput,
   actor: Actor,
-): SeriesView {
+): Promise<SeriesView> {
   ctx.db.transaction((tx) => {
     const db = tx as unknown as Db;
     const row = seriesRow(db, id);

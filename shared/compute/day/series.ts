@@ -1,5 +1,6 @@
 import type { ManifestKind } from '../../schemas/plan';
 import { describeWhere, initialWhere, sameWhere } from './items';
+import { summaryOf, type DaySummary } from './summary';
 import { computeTimeline } from './timeline';
 import type {
   DayPlan,
@@ -54,25 +55,34 @@ const sameWarning = (a: TimelineWarning, b: TimelineWarning) =>
 /** In the airlock or in a crew member's hands at egress: either way, inside when the day begins. */
 const inside = (w: ItemWhere) => w.kind === 'airlock' || w.kind === 'carried';
 
+/** Warnings of `withStart` the same plan computed alone does not have: those the carried-over start brings. */
+export function carriedOverWarnings(
+  withStart: readonly TimelineWarning[],
+  alone: readonly TimelineWarning[],
+): SeriesWarning[] {
+  return withStart
+    .filter((w) => !alone.some((a) => sameWarning(a, w)))
+    .map((w) => ({ ...w, carriedOver: true as const }));
+}
+
 /**
- * The EVAs of a series in order, each computed by the one timeline pass with its items starting where
- * the EVAs before left them: an item of an EVA's manifest that shares its key with an item an earlier
- * EVA had starts at that EVA's end state (an installed restraint or anchor stays installed, a bag set
- * down stays at its node, an item brought in is in the airlock). Items no later EVA names stay where
- * they were left. Warnings that only the carried-over start brings about are listed per EVA.
+ * The state a series carries from one EVA to the next: where each item was left, and by which EVA.
+ * `begin` gives an EVA's start from the ones before; `end` takes where its day left the items. The
+ * days themselves are computed by the caller, here or on another thread.
  */
-export function computeSeries(evas: readonly SeriesEvaInput[]): SeriesEvaDay[] {
-  const world = new Map<string, OutsideItem>();
-  const out: SeriesEvaDay[] = [];
-  evas.forEach(({ plan, station, route }, index) => {
+export class SeriesChain {
+  private readonly world = new Map<string, OutsideItem>();
+
+  /** Where the next EVA's items start (those an earlier EVA had), what it finds outside, and the starts that differ. */
+  begin(plan: Pick<DayPlan, 'manifest'>, airlockKey: string) {
     const items: Record<string, ItemWhere> = {};
     const foundOutside: OutsideItem[] = [];
     const warnings: SeriesWarning[] = [];
     for (const item of plan.manifest) {
-      const before = world.get(item.key);
+      const before = this.world.get(item.key);
       if (!before) continue;
       items[item.key] = before.where;
-      const declared = initialWhere(item, station.airlockKey);
+      const declared = initialWhere(item, airlockKey);
       if (!inside(before.where)) foundOutside.push({ ...before, name: item.name, kind: item.kind });
       if (inside(declared) ? !inside(before.where) : !sameWhere(declared, before.where)) {
         warnings.push({
@@ -84,27 +94,37 @@ export function computeSeries(evas: readonly SeriesEvaInput[]): SeriesEvaDay[] {
       }
     }
     const start: DayStart = Object.keys(items).length ? { items } : {};
-    const timeline = computeTimeline(plan, station, route, start);
-    if (start.items) {
-      const alone = computeTimeline(plan, station, route);
-      for (const w of timeline.warnings) {
-        if (!alone.warnings.some((a) => sameWarning(a, w))) warnings.push({ ...w, carriedOver: true });
-      }
-    }
-    for (const track of timeline.equipment) {
-      const where = track.states[track.states.length - 1].where;
-      const was = world.get(track.item);
+    return { start, foundOutside, warnings };
+  }
+
+  /** EVA `index` left its items so: what is outside after it (every item of the series, whichever EVA left it). */
+  end(index: number, itemsAtEnd: DaySummary['itemsAtEnd']): OutsideItem[] {
+    for (const { item, name, kind, where } of itemsAtEnd) {
+      const was = this.world.get(item);
       const moved = !was || !sameWhere(was.where, where);
-      world.set(track.item, {
-        item: track.item,
-        name: track.name,
-        kind: track.kind,
-        where,
-        leftBy: moved ? index : was.leftBy,
-      });
+      this.world.set(item, { item, name, kind, where, leftBy: moved ? index : was.leftBy });
     }
-    const outsideAfter = [...world.values()].filter((w) => !inside(w.where));
-    out.push({ start, foundOutside, timeline, outsideAfter, warnings });
+    return [...this.world.values()].filter((w) => !inside(w.where));
+  }
+}
+
+/**
+ * The EVAs of a series in order, each computed by the one timeline pass with its items starting where
+ * the EVAs before left them: an item of an EVA's manifest that shares its key with an item an earlier
+ * EVA had starts at that EVA's end state (an installed restraint or anchor stays installed, a bag set
+ * down stays at its node, an item brought in is in the airlock). Items no later EVA names stay where
+ * they were left. Warnings that only the carried-over start brings about are listed per EVA.
+ */
+export function computeSeries(evas: readonly SeriesEvaInput[]): SeriesEvaDay[] {
+  const chain = new SeriesChain();
+  return evas.map(({ plan, station, route }, index) => {
+    const { start, foundOutside, warnings } = chain.begin(plan, station.airlockKey);
+    const timeline = computeTimeline(plan, station, route, start);
+    if (start.items)
+      warnings.push(
+        ...carriedOverWarnings(timeline.warnings, computeTimeline(plan, station, route).warnings),
+      );
+    const outsideAfter = chain.end(index, summaryOf(timeline).itemsAtEnd);
+    return { start, foundOutside, timeline, outsideAfter, warnings };
   });
-  return out;
 }
