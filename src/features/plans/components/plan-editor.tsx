@@ -18,6 +18,7 @@ import type { DayFocus, DayViewProps, PlanStationNodes, PlanView } from '../type
 import { ConflictNotice } from './conflict-notice';
 import { CrewEditor, SettingsEditor } from './crew-and-settings';
 import { ManifestEditor, itemRowId } from './manifest-editor';
+import { OrderSuggestion } from './order-suggestion';
 import { PlanStatusBadge } from './plan-status-badge';
 import { ReviewPanel } from './review-panel';
 import { PlanActions } from './plan-actions';
@@ -210,6 +211,15 @@ export function PlanEditor({ plan, user, nodes, rehearseHref, extra, DayView }: 
             </Panel>
           </div>
           <div className="space-y-5">
+            <Panel title="Order of the day">
+              <OrderSuggestion
+                planId={plan.id}
+                tasks={draft.tasks}
+                canApply={editable}
+                unsaved={editable && unsaved}
+                onApply={(tasks) => change({ tasks })}
+              />
+            </Panel>
             <Panel title={`Warnings${tl ? ` (${tl.warnings.length})` : ''}`}>
               {tl ? (
                 <WarningsPanel timeline={tl} itemKeys={plan.manifest.map((m) => m.key ?? '')} onGoTo={goTo} />
