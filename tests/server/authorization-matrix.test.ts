@@ -98,6 +98,7 @@ const MATRIX: Record<string, Who> = {
   'GET /api/plans/:id/runs': 'everyone',
   'GET /api/runs/:id': 'everyone',
   'POST /api/runs/:id/events': PLANNERS,
+  'GET /api/runs/:id/export.csv': 'everyone',
   'GET /api/events/': 'everyone',
   'POST /api/events/presence': 'everyone',
 };

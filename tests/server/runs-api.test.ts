@@ -253,4 +253,23 @@ describe('runs of an approved plan', () => {
     expect(check.marginSeconds).toBeGreaterThanOrEqual(flown.drop!.targetMarginSeconds);
     expect(check.drop).toBeNull();
   });
+
+  it('exports the run as flown: every task planned beside flown, in minutes', async () => {
+    const plan = await approvedPlan();
+    const run = await openRun(plan.id);
+    const planned = (await view(run.id, 0)).plannedDay;
+    await flyFirstTask(run.id, plan, planned, 300);
+    const res = await (await t.agent('viewer')).get(`/api/runs/${run.id}/export.csv`);
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toMatch(/^text\/csv/);
+    const lines = res.text.split('\r\n');
+    expect(lines[0]).toBe(
+      'task,crew,worksite,planned start (min),planned end (min),planned (min),flown start (min),flown end (min),flown (min),flown minus planned (min)',
+    );
+    const first = lines.find((l) => l.startsWith('Open the cover,EV1,'))!.split(',');
+    expect(first.slice(5)).toEqual(['10', first[3], String(Number(first[3]) + 15), '15', '5']);
+    const notFlown = lines.find((l) => l.startsWith('Inspect the site,EV2,'))!.split(',');
+    expect(notFlown.slice(6)).toEqual(['', '', '', '']);
+    expect(res.text).toContain('planning aid');
+  });
 });

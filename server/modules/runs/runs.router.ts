@@ -4,7 +4,7 @@ import { IdParamsSchema } from '@shared/schemas/auth';
 import { OpenRunInputSchema, RunEventInputSchema, RunQuerySchema } from '@shared/schemas/run';
 import { atParam } from '../events/changes';
 import type { ChangeEvent } from '@shared/schemas/events';
-import { appendRunEvent, listRuns, openRun, runViewText } from './runs.service';
+import { appendRunEvent, listRuns, openRun, runAsFlownCsv, runViewText } from './runs.service';
 
 /** Runs: an approved plan as it is flown, its append-only events, and the day re-projected from now. */
 export function runsRouter(ctx: AppContext) {
@@ -35,6 +35,16 @@ export function runsRouter(ctx: AppContext) {
       input: { params: IdParamsSchema, query: RunQuerySchema },
       handler: async (_req, _res, { params, query }) =>
         new JsonText(await runViewText(ctx, params.id, query.at)),
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/runs/:id/export.csv',
+      access: 'read',
+      input: { params: IdParamsSchema },
+      handler: async (_req, res, { params }) => {
+        const csv = await runAsFlownCsv(ctx, params.id);
+        res.type('text/csv; charset=utf-8').attachment(`run-${params.id}-as-flown.csv`).send(csv);
+      },
     }),
     defineRoute({
       method: 'post',

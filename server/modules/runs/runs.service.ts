@@ -13,6 +13,12 @@ import {
   type RunSummary,
 } from '@shared/schemas/run';
 import { recordActivity } from '../activity/activity.service';
+import { asFlownRows } from '@shared/compute/day/as-flown';
+import type { Timeline } from '@shared/compute/day/types';
+import { fromWire } from '@shared/compute/day/wire';
+import type { RunView } from '@shared/schemas/run';
+import { PLANNING_CAUTION } from '@shared/caution';
+import { toCsv } from '../../lib/csv';
 import { planDayOutput } from '../plans/plan-timeline.service';
 import { getPlan, type Actor } from '../plans/plans.service';
 
@@ -187,4 +193,41 @@ export async function runViewText(ctx: AppContext, runId: number, at?: number): 
   const work = { run: summary, events: readEvents(ctx.db, runId), now: at ?? elapsedNow(summary.startedAt) };
   const { result } = await planDayOutput(ctx, plan.id, 'run', { plan, run: work });
   return 'text' in result ? result.text : '';
+}
+
+const minutes = (s: number | null) => (s === null ? '' : Math.round((s / 60) * 10) / 10);
+
+/** The as-flown record as CSV: every task of each crew member, planned beside flown, in minutes of elapsed time. */
+export async function runAsFlownCsv(ctx: AppContext, runId: number): Promise<string> {
+  const view = JSON.parse(await runViewText(ctx, runId)) as RunView;
+  const planned = fromWire(view.planned) as Timeline;
+  const rows = asFlownRows(planned, view.actual).map((r) => {
+    const task = view.tasks[r.taskIndex];
+    const flown = r.flownStart === null || r.flownEnd === null ? null : r.flownEnd - r.flownStart;
+    return [
+      task.title,
+      r.crew,
+      task.worksite,
+      minutes(r.plannedStart),
+      minutes(r.plannedEnd),
+      minutes(r.plannedEnd - r.plannedStart),
+      minutes(r.flownStart),
+      minutes(r.flownEnd),
+      minutes(flown),
+      flown === null ? '' : minutes(flown - (r.plannedEnd - r.plannedStart)),
+    ];
+  });
+  const header = [
+    'task',
+    'crew',
+    'worksite',
+    'planned start (min)',
+    'planned end (min)',
+    'planned (min)',
+    'flown start (min)',
+    'flown end (min)',
+    'flown (min)',
+    'flown minus planned (min)',
+  ];
+  return `${toCsv(header, rows)}\r\n\r\n${toCsv(['note'], [[PLANNING_CAUTION]])}\r\n`;
 }

@@ -70,6 +70,10 @@ export default function RunRoute() {
             <Link className="underline" to={paths.plan.getHref(view.plan.id)}>
               The plan
             </Link>{' '}
+            ·{' '}
+            <a className="underline" href={`/api/runs/${view.run.id}/export.csv`} download>
+              As flown (CSV)
+            </a>{' '}
             · {view.events.length} logged · started {view.run.startedAt.slice(0, 19).replace('T', ' ')} GMT
           </p>
           <PresenceList viewers={viewers} selfId={user.id} />
