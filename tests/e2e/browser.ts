@@ -160,3 +160,14 @@ export async function sceneSettled(page: Page, after = 0, scene = page.getByTest
     after,
   );
 }
+
+/** Steps the scrubber block by block with the arrow key until `done` holds (at most `max` steps). */
+export async function stepUntil(page: Page, done: () => Promise<boolean>, max = 120): Promise<void> {
+  const scrub = page.getByRole('slider', { name: 'Elapsed time' });
+  await scrub.focus();
+  for (let i = 0; i < max; i++) {
+    if (await done()) return;
+    await scrub.press('ArrowRight');
+  }
+  expect(await done(), 'reached the state by stepping block to block').toBe(true);
+}

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import type { PlanTimeline } from '@shared/schemas/plan-views';
 import type { WalkthroughSummary } from '@shared/schemas/walkthrough';
-import { openBrowserPerTest, sceneSettled, signInAs, type BrowserSession } from './browser';
+import { openBrowserPerTest, sceneSettled, signInAs, stepUntil, type BrowserSession } from './browser';
 import { fromWire } from '@shared/compute/day/wire';
 
 const DEMO_PLAN = 'External camera boom install';
@@ -29,17 +29,6 @@ async function dayState(page: Page): Promise<Record<string, string>> {
 }
 
 const where = (page: Page, item: string) => page.getByTestId(`day-item-${item}`).getAttribute('data-where');
-
-/** Steps the scrubber block by block with the arrow key until `done` holds (at most `max` steps). */
-async function stepUntil(page: Page, done: () => Promise<boolean>, max = 120): Promise<void> {
-  const scrub = page.getByRole('slider', { name: 'Elapsed time' });
-  await scrub.focus();
-  for (let i = 0; i < max; i++) {
-    if (await done()) return;
-    await scrub.press('ArrowRight');
-  }
-  expect(await done(), 'reached the state by stepping block to block').toBe(true);
-}
 
 describe('the day in 3D: scrub the plan, see the tether, the restraint and the items move', () => {
   it('planner scrubs the approved demo plan; the trainer’s walkthrough shows the same states', async () => {

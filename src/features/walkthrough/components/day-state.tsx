@@ -1,4 +1,5 @@
-import type { EquipmentTrack, ItemWhere } from '@shared/compute/day/types';
+import { armTipAtTime } from '@shared/compute/arm';
+import type { ArmLane, EquipmentTrack, ItemWhere } from '@shared/compute/day/types';
 import { itemStateAt, stepAt } from '@shared/compute/walkthrough';
 import { useClock, type PlaybackClock } from '../lib/playback-clock';
 import type { Lane } from '../lib/playback-model';
@@ -25,6 +26,20 @@ export function whereText(
   }
 }
 
+/** What an arm is doing at `t`, in words, and its tip rounded to the centimetre (for tests and tools). */
+export function armStateAt(arm: ArmLane, t: number): { text: string; rider: string; tip: string } {
+  const move = arm.blocks.find((b) => b.start <= t && t < b.end);
+  const session = arm.sessions.find((x) => x.start <= t && t < x.end);
+  const last = [...arm.blocks].reverse().find((b) => b.end <= t);
+  const at = last?.to ?? arm.sessions[0]?.ingress ?? '—';
+  const tip = armTipAtTime(arm, t);
+  return {
+    text: move ? move.label : `${arm.key} at ${at}${session ? `, ${session.rider} on it` : ', nobody on it'}`,
+    rider: session?.rider ?? '',
+    tip: tip ? tip.map((v) => v.toFixed(2)).join(',') : '',
+  };
+}
+
 const RESTRAINT_STEPS = new Set(['restraint-in', 'work', 'restraint-out']);
 
 /**
@@ -35,20 +50,22 @@ export function DayState({
   clock,
   lanes,
   equipment,
-  armKeys,
+  arms = [],
 }: {
   clock: PlaybackClock;
   lanes: readonly Lane[];
   equipment: readonly EquipmentTrack[];
-  armKeys?: ReadonlySet<string>;
+  /** the arms the day uses: who rides each and where its tip is */
+  arms?: readonly ArmLane[];
 }) {
+  const armKeys = new Set(arms.map((a) => a.key));
   // one string per moment that differs: the steps under way and each item's state
   const key = useClock(
     clock,
     (c) =>
       `${lanes.map((l) => stepAt(l.track.steps, c.t)).join(',')}|${equipment
         .map((e) => whereText(itemStateAt(e, c.t).where).value)
-        .join(',')}`,
+        .join(',')}|${arms.map((a) => armStateAt(a, c.t).tip).join(';')}`,
   );
   const [stepPart, itemPart] = key.split('|');
   const steps = stepPart.split(',').map(Number);
@@ -89,6 +106,24 @@ export function DayState({
           );
         })}
       </ul>
+      {arms.length > 0 && (
+        <ul className="space-y-1" aria-label="Arms at this moment">
+          {arms.map((arm) => {
+            const state = armStateAt(arm, clock.t);
+            return (
+              <li
+                key={arm.key}
+                data-testid={`day-arm-${arm.key}`}
+                data-rider={state.rider}
+                data-tip={state.tip}
+                className="rounded-md border border-surface-line px-3 py-1.5 text-text"
+              >
+                {state.text}
+              </li>
+            );
+          })}
+        </ul>
+      )}
       {equipment.length > 0 && (
         <table className="w-full text-left text-xs">
           <caption className="mb-1 text-left text-sm font-semibold text-text-strong">

@@ -108,12 +108,7 @@ export function PlanDayPlayer({ timeline, plan, nodes, Scene, focus, onTime }: P
       </div>
       <div className="space-y-4">
         <TetherGauges clock={clock} lanes={lanes} />
-        <DayState
-          clock={clock}
-          lanes={lanes}
-          equipment={playback.equipment}
-          armKeys={new Set((playback.arms ?? []).map((a) => a.key))}
-        />
+        <DayState clock={clock} lanes={lanes} equipment={playback.equipment} arms={playback.arms} />
       </div>
     </div>
   );

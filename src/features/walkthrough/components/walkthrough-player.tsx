@@ -220,12 +220,7 @@ export function WalkthroughPlayer({ detail, printView, Scene }: WalkthroughPlaye
             </Panel>
             {playback.kind === 'plan' && (
               <Panel title="At this moment">
-                <DayState
-                  clock={clock}
-                  lanes={lanes}
-                  equipment={playback.equipment}
-                  armKeys={new Set((playback.arms ?? []).map((a) => a.key))}
-                />
+                <DayState clock={clock} lanes={lanes} equipment={playback.equipment} arms={playback.arms} />
               </Panel>
             )}
             {playback.warnings.length > 0 && (
