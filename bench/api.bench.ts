@@ -5,56 +5,11 @@
 // alike. Target: a `fastest` route's median within 1 ms of health's. The reference server sends
 // every route through the worker pool (ROUTE_INLINE_NODES=0), as all routes went before.
 import http from 'node:http';
-import { generateTrussStation } from '../shared/compute/truss-generator';
-import { multipartBody, send } from '../tests/setup/loopback';
-import { signIn, startLoopbackServer, type Server } from './serve';
+import { median, serverWithStation, signIn, timedRequest, type Server } from './serve';
 
-const STATION_NODES = 10_000;
 const WARM_PAIRS = 150;
 const PAIRS = Number(process.env.BENCH_API_PAIRS ?? 600);
 const TARGET_MS = 1;
-
-/** One request on a kept-alive connection: its round trip, ms, and status. */
-export function timedRequest(
-  agent: http.Agent,
-  url: string,
-  method: string,
-  headers: Record<string, string>,
-  body?: string,
-): Promise<{ ms: number; status: number; bytes: number }> {
-  return new Promise((resolve, reject) => {
-    const t0 = performance.now();
-    let bytes = 0;
-    const req = http.request(url, { method, agent, headers }, (res) => {
-      res.on('data', (c: Buffer) => (bytes += c.length));
-      res.on('end', () => resolve({ ms: performance.now() - t0, status: res.statusCode ?? 0, bytes }));
-    });
-    req.on('error', reject);
-    req.end(body);
-  });
-}
-
-export const median = (xs: number[]) => {
-  const s = [...xs].sort((a, b) => a - b);
-  return s[s.length >> 1];
-};
-
-/** A started server with the 10k station imported: its base, the engineer's cookie and the station. */
-export async function serverWithStation(env: Record<string, string>) {
-  const server = await startLoopbackServer({ LOG_LEVEL: 'info', ...env }, { quiet: true });
-  const engineer = await signIn(server.base, 'engineer@example.org');
-  const doc = generateTrussStation({ nodes: STATION_NODES, seed: 3 });
-  const form = multipartBody([{ field: 'file', fileName: 'station.json', content: JSON.stringify(doc) }]);
-  const imported = await send(
-    server.base,
-    'POST',
-    '/api/stations/import',
-    { cookie: engineer, 'content-type': form.contentType },
-    form.body,
-  );
-  if (imported.status !== 201) throw new Error(`import: ${imported.status} ${imported.text}`);
-  return { server, engineer, doc, stationId: (imported.body.station as { id: number }).id };
-}
 
 interface Target {
   name: string;
@@ -92,7 +47,7 @@ export async function run(): Promise<boolean> {
   const bodies: string[] = [];
   console.log(
     `median of ${PAIRS} interleaved pairs after ${WARM_PAIRS} to warm up; health without a cookie, ` +
-      `routes signed in with gzip accepted; ${STATION_NODES / 1000}k-node generated station`,
+      `routes signed in with gzip accepted; 10k-node generated station`,
   );
   console.log(
     'server'.padEnd(50),

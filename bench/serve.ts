@@ -4,7 +4,10 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import fs from 'node:fs';
 import net from 'node:net';
 import os from 'node:os';
+import http from 'node:http';
 import path from 'node:path';
+import { generateTrussStation } from '../shared/compute/truss-generator';
+import { multipartBody, send } from '../tests/setup/loopback';
 
 import { DEMO_PASSWORD } from '../server/db/seed/demo-users';
 
@@ -87,4 +90,50 @@ export async function startLoopbackServer(
   }
   await stop();
   throw new Error('the server did not start');
+}
+
+/** One request on a kept-alive connection: its round trip (ms), status and body as it came (maybe gzipped). */
+export function timedRequest(
+  agent: http.Agent,
+  url: string,
+  method: string,
+  headers: Record<string, string>,
+  body?: string,
+): Promise<{ ms: number; status: number; bytes: number; body: Buffer }> {
+  return new Promise((resolve, reject) => {
+    const t0 = performance.now();
+    const chunks: Buffer[] = [];
+    const req = http.request(url, { method, agent, headers }, (res) => {
+      res.on('data', (c: Buffer) => chunks.push(c));
+      res.on('end', () => {
+        const ms = performance.now() - t0;
+        const body = Buffer.concat(chunks);
+        resolve({ ms, status: res.statusCode ?? 0, bytes: body.length, body });
+      });
+    });
+    req.on('error', reject);
+    req.end(body);
+  });
+}
+
+export const median = (xs: number[]) => {
+  const s = [...xs].sort((a, b) => a - b);
+  return s[s.length >> 1];
+};
+
+/** A started server with the 10k station imported: its base, the engineer's cookie and the station. */
+export async function serverWithStation(env: Record<string, string>, nodes = 10_000) {
+  const server = await startLoopbackServer({ LOG_LEVEL: 'info', ...env }, { quiet: true });
+  const engineer = await signIn(server.base, 'engineer@example.org');
+  const doc = generateTrussStation({ nodes, seed: 3 });
+  const form = multipartBody([{ field: 'file', fileName: 'station.json', content: JSON.stringify(doc) }]);
+  const imported = await send(
+    server.base,
+    'POST',
+    '/api/stations/import',
+    { cookie: engineer, 'content-type': form.contentType },
+    form.body,
+  );
+  if (imported.status !== 201) throw new Error(`import: ${imported.status} ${imported.text}`);
+  return { server, engineer, doc, stationId: (imported.body.station as { id: number }).id };
 }

@@ -94,7 +94,12 @@ export function isEmptyChange(change: StationChange): boolean {
   return Object.values(change).every((v) => v === undefined);
 }
 
-function applyCollection<T>(items: readonly T[], change: CollectionChange<T>, id: (item: T) => string): T[] {
+function applyCollection<T>(
+  items: readonly T[],
+  change: CollectionChange<T>,
+  id: (item: T) => string,
+  keep: <X>(x: X) => X,
+): T[] {
   if (change.all) return change.all.map((x) => structuredClone(x));
   const byId = new Map<string, T>();
   for (const item of change.changed ?? []) byId.set(id(item), item);
@@ -107,7 +112,7 @@ function applyCollection<T>(items: readonly T[], change: CollectionChange<T>, id
     if (removed.has(k)) continue;
     const next = byId.get(k);
     if (next !== undefined) seen.add(k);
-    out.push(structuredClone(next ?? item));
+    out.push(next === undefined ? keep(item) : structuredClone(next));
   }
   for (const k of byId.keys()) {
     if (!seen.has(k)) throw new Error(`the change names an item "${k}" the station does not have`);
@@ -116,8 +121,17 @@ function applyCollection<T>(items: readonly T[], change: CollectionChange<T>, id
   return out;
 }
 
-/** The document after a change: a new object, the input untouched. */
-export function applyStationChange(doc: StationDocument, change: StationChange): StationDocument {
+/**
+ * The document after a change: a new object, the input untouched. With `share`, the items the
+ * change leaves alone are the input's own objects (not copies): for a caller that never mutates
+ * either document, a change costs the items it brings, not a copy of the whole station.
+ */
+export function applyStationChange(
+  doc: StationDocument,
+  change: StationChange,
+  { share = false }: { share?: boolean } = {},
+): StationDocument {
+  const keep = share ? <X>(x: X) => x : <X>(x: X) => structuredClone(x);
   const next: StationDocument = {
     ...doc,
     name: change.name ?? doc.name,
@@ -130,8 +144,10 @@ export function applyStationChange(doc: StationDocument, change: StationChange):
     // documents kept from before stations had arms have no `arms` list
     const items = (doc[c] as unknown[] | undefined) ?? [];
     (next as unknown as Record<Collection, unknown[]>)[c] = part
-      ? applyCollection(items, part as CollectionChange<unknown>, id)
-      : items.map((x) => structuredClone(x));
+      ? applyCollection(items, part as CollectionChange<unknown>, id, keep)
+      : share
+        ? items
+        : items.map((x) => structuredClone(x));
   }
   return next;
 }
@@ -141,7 +157,7 @@ export function replayStationChanges(
   changes: readonly StationChange[],
   from: StationDocument = emptyStationDocument(),
 ): StationDocument {
-  return changes.reduce(applyStationChange, from);
+  return changes.reduce((doc, change) => applyStationChange(doc, change), from);
 }
 
 function diffCollection<T>(

@@ -235,16 +235,19 @@ export const ArmSchema = z
   });
 export type Arm = z.infer<typeof ArmSchema>;
 
+/** How many items of each collection a station may hold. */
+export const STATION_LIMITS = { segments: 20000, nodes: 200000, edges: 400000, hazards: 1000 } as const;
+
 export const StationDocumentSchema = z.object({
   format: z.literal('tetherwise.station'),
   version: z.literal(1),
   name: z.string().trim().min(1, 'a station needs a name').max(200),
   orbit: OrbitSettingsSchema.default({ altitudeKm: 410, betaDeg: 20 }),
   settings: StationSettingsSchema.default(StationSettingsSchema.parse({})),
-  segments: z.array(SegmentSchema).max(20000).default([]),
-  nodes: z.array(NodeSchema).max(200000),
-  edges: z.array(EdgeSchema).max(400000),
-  hazards: z.array(HazardSchema).max(1000).default([]),
+  segments: z.array(SegmentSchema).max(STATION_LIMITS.segments).default([]),
+  nodes: z.array(NodeSchema).max(STATION_LIMITS.nodes),
+  edges: z.array(EdgeSchema).max(STATION_LIMITS.edges),
+  hazards: z.array(HazardSchema).max(STATION_LIMITS.hazards).default([]),
   arms: z.array(ArmSchema).max(MAX_ARMS, `at most ${MAX_ARMS} arms`).default([]),
 });
 export type StationDocument = z.infer<typeof StationDocumentSchema>;

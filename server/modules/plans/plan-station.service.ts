@@ -145,6 +145,8 @@ export async function noticeStationWrite(
     .where(and(eq(stationVersions.stationId, stationId), eq(stationVersions.version, version)))
     .get();
   if (!row) return [];
+  // no plan in review or approved on the station: nothing to touch, no versions to rebuild
+  if (reviewedPlans(ctx, stationId, version - 1).length === 0) return [];
   const before = stationDocumentAt(ctx.db, stationId, version - 1);
   const after = stationDocumentAt(ctx.db, stationId, version);
   const touched = touchedPlans(ctx, stationId, before, after, version - 1);

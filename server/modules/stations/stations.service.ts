@@ -21,11 +21,13 @@ import { removeStoredUpload } from '../../lib/uploads';
 import { HttpError, badRequest, conflict, notFound, staleVersion } from '../../lib/http-error';
 import { recordActivity } from '../activity/activity.service';
 import {
+  applyStationChange,
   diffStationDocuments,
   emptyStationDocument,
   summarizeStationChange,
   type StationChange as ModelChange,
 } from '@shared/compute/station-changes';
+import { changeProblems } from '@shared/compute/station-validation';
 import {
   StationSettingsSchema,
   parseStationDocument,
@@ -559,7 +561,8 @@ export function writeStation<R>(
     if (err instanceof DryRunRollback) return err.answer;
     throw err;
   }
-  const { outcome, version, name } = written;
+  const { outcome, version, name, after } = written;
+  if (after) holdModel(ctx.db, req.stationId, version, after);
   recordActivity(ctx.db, {
     userId: req.editor.id,
     kind: `station.${outcome.action}`,
@@ -580,14 +583,23 @@ function writeStationTx<R>(
     if (req.expectedVersion !== undefined && req.expectedVersion !== row.version)
       throw staleStation(tx, row, req.expectedVersion);
     ensureVersionBaseline(tx, row);
+    // the model as of the version the write starts from, when the last edit left it in memory
+    const held = heldModel(ctx.db, row);
     const outcome = change(tx, row);
-    if (outcome.revalidate) {
-      const current = findStationRow(tx, req.stationId);
-      const checked = parseStationDocument(loadDocument(tx, current));
+    let after: StationDocument | null = null;
+    if (outcome.revalidate && held) {
+      // it passed the document rules: check what the change brings, and the graph
+      const checked = changeProblems(held, outcome.change);
+      if (checked.problems.length)
+        throw problemsError('The change would break the station model', checked.problems);
+      after = checked.doc;
+    } else if (outcome.revalidate) {
+      const checked = parseStationDocument(loadDocument(tx, findStationRow(tx, req.stationId)));
       if (!checked.ok) throw problemsError('The change would break the station model', checked.problems);
-    }
+      after = checked.doc;
+    } else if (held) after = applyStationChange(held, outcome.change, { share: true });
     if (ctx.dryRun) {
-      const document = loadDocument(tx, findStationRow(tx, req.stationId));
+      const document = after ?? loadDocument(tx, findStationRow(tx, req.stationId));
       throw new DryRunRollback({ dryRun: true, version: row.version, document });
     }
     const version = row.version + 1;
@@ -617,9 +629,33 @@ function writeStationTx<R>(
       change: outcome.change,
       document: () => loadDocument(tx, findStationRow(tx, row.id)),
     });
-    return { outcome, version, name: findStationRow(tx, row.id).name };
+    return { outcome, version, name: findStationRow(tx, row.id).name, after };
   });
 }
+
+// per database, each station's model as its latest write left it (see heldModel)
+const heldModels = new WeakMap<Db, Map<number, { version: number; doc: StationDocument }>>();
+
+/**
+ * The station's model as of `row`'s version when the write that made that version left it in
+ * memory (no other write came between), else null. Documents are never mutated, so holding one
+ * costs only the items later edits replace.
+ */
+function heldModel(db: Db, row: StationRow): StationDocument | null {
+  const held = heldModels.get(db)?.get(row.id);
+  return held && held.version === row.version ? held.doc : null;
+}
+
+function holdModel(db: Db, stationId: number, version: number, doc: StationDocument) {
+  let held = heldModels.get(db);
+  if (!held) heldModels.set(db, (held = new Map()));
+  held.delete(stationId);
+  held.set(stationId, { version, doc });
+  while (held.size > HELD_MODELS) held.delete(held.keys().next().value!);
+}
+
+/** stations whose latest model is held at the most, least recently written out first */
+const HELD_MODELS = 4;
 
 /** What a bulk write changed: the model now against the document it started from. */
 export function changeSince(tx: Tx, stationId: number, before: StationDocument): ModelChange {
