@@ -3,7 +3,7 @@ import type { AppContext } from '../../context';
 import { plans, stations, users } from '../schema';
 import { CreatePlanInputSchema, type CreatePlanInput } from '@shared/schemas/plan';
 import { createPlan, reviewTransition, type Actor } from '../../modules/plans/plans.service';
-import { createSeries } from '../../modules/series/series.service';
+import { insertSeries } from '../../modules/series/series.service';
 
 export const DEMO_STATION_NAME = 'Kestrel Station';
 
@@ -347,6 +347,7 @@ export function seedDemoPlans(ctx: AppContext) {
     planner2,
   );
   const cabling = createPlan(ctx, followUp, planner);
-  createSeries(ctx, { title: 'Camera boom install, two EVAs', planIds: [camera.id, cabling.id] }, planner);
+  // the write only: a seed computes no EVA's day (that would start work on the route workers)
+  insertSeries(ctx, { title: 'Camera boom install, two EVAs', planIds: [camera.id, cabling.id] }, planner);
   ctx.logger.info('seeded the demo plans');
 }

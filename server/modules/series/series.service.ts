@@ -205,6 +205,11 @@ export async function getSeries(ctx: AppContext, id: number): Promise<SeriesView
 }
 
 export function createSeries(ctx: AppContext, input: CreateSeriesInput, actor: Actor): Promise<SeriesView> {
+  return getSeries(ctx, insertSeries(ctx, input, actor));
+}
+
+/** Writes a new series and its activity line; answers its id without computing any EVA's day. */
+export function insertSeries(ctx: AppContext, input: CreateSeriesInput, actor: Actor): number {
   const id = ctx.db.transaction((tx) => {
     const db = tx as unknown as Db;
     checkPlans(db, input.planIds, null);
@@ -222,7 +227,7 @@ export function createSeries(ctx: AppContext, input: CreateSeriesInput, actor: A
     summary: `${actor.name} planned the series "${input.title}" (${input.planIds.length} EVA${input.planIds.length === 1 ? '' : 's'})`,
     link: `/series/${id}`,
   });
-  return getSeries(ctx, id);
+  return id;
 }
 
 function assertSeriesVersion(db: Db, row: SeriesRow, version: number) {
