@@ -6,6 +6,9 @@ const sub = (a: V, b: V): Vec3 => [a[0] - b[0], a[1] - b[1], a[2] - b[2]];
 const dot = (a: V, b: V) => a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
 const len = (a: V) => Math.sqrt(dot(a, a));
 
+/** Draw calls one boom costs: pedestal, two links, elbow, end plate and its key label. */
+export const BOOM_DRAW_CALLS = 6;
+
 /**
  * Where the elbow of a two-link boom is when its base is at `base` and its tip at `tip`: two links of
  * half the reach each, bent away from the base–tip line towards `up` (or, when that line is along

@@ -39,8 +39,11 @@ class LiveClient {
       if (this.planId !== null) this.tellPresence();
     });
     source.addEventListener('change', (e) => {
-      for (const queryKey of staleKeysOf(JSON.parse(e.data) as ChangeEvent))
-        void queryClient.invalidateQueries({ queryKey });
+      const change = JSON.parse(e.data) as ChangeEvent;
+      // a deletion only marks what it touches stale: refetching a record that is gone would 404
+      const refetchType = change.deleted ? 'none' : 'active';
+      for (const queryKey of staleKeysOf(change))
+        void queryClient.invalidateQueries({ queryKey, refetchType });
     });
     source.addEventListener('reset', () => void queryClient.invalidateQueries());
     source.addEventListener('presence', (e) => this.presence.set(JSON.parse(e.data) as PresenceEvent));

@@ -51,7 +51,10 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
   const [saved, setSaved] = useState<string | null>(null);
   const [createdCount, setCreatedCount] = useState(0);
   const [hazardKey, setHazardKey] = useState<string | null>(null);
-  const version = Math.max(graph.station.version, savedVersion);
+  // the version the forms on screen were loaded at: a change someone else makes (seen live) does
+  // not move it, so a save made against what the engineer saw is refused (409), never applied over it
+  const [loadedVersion, setLoadedVersion] = useState(graph.station.version);
+  const version = Math.max(loadedVersion, savedVersion);
 
   const mutation = useEditStation({
     stationId,
@@ -114,6 +117,7 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
             what={describeStationEdit(failedEdit)}
             onReload={() => {
               mutation.reset();
+              setLoadedVersion(graph.station.version);
               onChanged();
             }}
             onReapply={(current) => mutation.mutate({ version: current, edit: failedEdit })}
@@ -138,7 +142,7 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
         {selected ? (
           <>
             <NodeForm
-              key={`${selected.key}@${graph.station.version}`}
+              key={`${selected.key}@${version}`}
               graph={graph}
               node={selected}
               isSaving={isSaving}
@@ -196,7 +200,7 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
           {editingHazard ? `Change ${editingHazard.key}` : 'Add a hazard'}
         </h4>
         <HazardForm
-          key={`${hazardKey ?? 'new'}@${graph.station.version}`}
+          key={`${hazardKey ?? 'new'}@${version}`}
           hazard={editingHazard}
           existingKeys={graph.hazards.map((h) => h.key)}
           around={around}
@@ -211,19 +215,14 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
           arms={graph.arms}
           isNode={(key) => nodeKeys.has(key)}
           selectedKey={selectedKey}
-          version={graph.station.version}
+          version={version}
           isSaving={isSaving}
           onSubmit={submit}
         />
       </Section>
 
       <Section title="Station settings and orbit">
-        <SettingsForm
-          key={graph.station.version}
-          station={graph.station}
-          isSaving={isSaving}
-          onSubmit={submit}
-        />
+        <SettingsForm key={version} station={graph.station} isSaving={isSaving} onSubmit={submit} />
       </Section>
 
       <Section title="Recent edits" open>
