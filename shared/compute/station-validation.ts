@@ -1,6 +1,8 @@
 import {
+  armProblems,
   ArmSchema,
   checkStationGraphRules,
+  edgePairKey,
   EdgeSchema,
   formatIssuePath,
   HazardSchema,
@@ -11,6 +13,7 @@ import {
   STATION_LIMITS,
   type DocumentProblem,
   type StationDocument,
+  type StationEdge,
 } from '../schemas/station';
 import { applyStationChange, COLLECTIONS, type Collection, type StationChange } from './station-changes';
 import type { z } from 'zod';
@@ -33,15 +36,16 @@ export function changeProblemsFull(before: StationDocument, change: StationChang
  * The same problems as changeProblemsFull for a `before` that passes the document rules, found
  * without checking again what the change leaves alone: the schemas run on the station's own fields
  * and on the items the change brings (an item it leaves is the same object in the new document),
- * and the graph rules on the whole model (keys, edge ends, twins and arms: lookups, a few
- * milliseconds at 10k nodes, where the schemas take tens). Also answers the
- * new document, which shares the untouched items with `before`: neither may be mutated.
+ * and the graph rules on what the change brings and takes away, against an index of the model's
+ * keys, edge pairs and edge ends (see GraphIndex). Also answers the new document, which shares the
+ * untouched items with `before`: neither may be mutated.
  */
 export function changeProblems(
   before: StationDocument,
   change: StationChange,
 ): { doc: StationDocument; problems: DocumentProblem[] } {
   const doc = applyStationChange(before, change, { share: true });
+  const delta = deltaOf(before, doc);
   const problems: DocumentProblem[] = [];
   const issue = (prefix: string) => (i: z.core.$ZodIssue) =>
     problems.push({ path: formatIssuePath([...prefixPath(prefix), ...i.path]), message: i.message });
@@ -55,20 +59,157 @@ export function changeProblems(
   });
   if (!sizes.success) sizes.error.issues.forEach(issue(''));
   for (const c of COLLECTIONS) {
-    if (c === 'arms' || !change[c]) continue;
-    const old = new Set<unknown>(before[c]);
-    (doc[c] as unknown[]).forEach((item, i) => {
-      if (old.has(item)) return;
+    if (c === 'arms') continue;
+    for (const { item, at } of delta.came[c]) {
       const parsed = ITEM_SCHEMA[c].safeParse(item);
-      if (!parsed.success) parsed.error.issues.forEach(issue(`${c}.${i}`));
-    });
+      if (!parsed.success) parsed.error.issues.forEach(issue(`${c}.${at}`));
+    }
   }
   const over = Object.entries(STATION_LIMITS).filter(
     ([c, max]) => doc[c as keyof typeof STATION_LIMITS].length > max,
   );
   // a collection past its size is what the whole schema reports first: leave it to the full check
   if (over.length) return { doc, problems: changeProblemsFull(before, change) };
-  return { doc, problems: [...problems, ...checkStationGraphRules(doc)] };
+  // an item the schemas refused may have keys or ends that are not text: the whole graph rules
+  // then, which skip what they cannot read
+  if (problems.length) return { doc, problems: [...problems, ...checkStationGraphRules(doc)] };
+  const index = indexOf(before);
+  // a problem found: the whole graph rules name it (paths, first occurrences) as the full check does
+  if (graphBroken(index, delta, doc)) return { doc, problems: checkStationGraphRules(doc) };
+  moveIndex(before, doc, index, delta);
+  return { doc, problems: [] };
+}
+
+/**
+ * The document after a change its caller knows keeps the document rules (a deletion that takes the
+ * node's edges with it): applyStationChange with shared items, carrying `before`'s graph index
+ * over so the next checked edit does not rebuild it.
+ */
+export function applyValidChange(before: StationDocument, change: StationChange): StationDocument {
+  const doc = applyStationChange(before, change, { share: true });
+  const index = indexes.get(before);
+  if (index) moveIndex(before, doc, index, deltaOf(before, doc));
+  return doc;
+}
+
+/**
+ * What the graph rules need of a document that passes them: its node, segment and hazard keys, its
+ * edges by pair (both ends in key order and the kind, as the rule on twins reads them) and how many
+ * edges name each node. One per document, moved to the document an edit makes from it (so an older
+ * document that is checked again rebuilds its own).
+ */
+interface GraphIndex {
+  nodes: Set<string>;
+  segments: Set<string>;
+  hazards: Set<string>;
+  pairs: Set<string>;
+  ends: Map<string, number>;
+}
+
+const indexes = new WeakMap<StationDocument, GraphIndex>();
+
+function indexOf(doc: StationDocument): GraphIndex {
+  let index = indexes.get(doc);
+  if (index) return index;
+  index = {
+    nodes: new Set(doc.nodes.map((n) => n.key)),
+    segments: new Set(doc.segments.map((s) => s.key)),
+    hazards: new Set(doc.hazards.map((h) => h.key)),
+    pairs: new Set(doc.edges.map(edgePairKey)),
+    ends: new Map(),
+  };
+  for (const e of doc.edges) countEnds(index.ends, e, 1);
+  indexes.set(doc, index);
+  return index;
+}
+
+function countEnds(ends: Map<string, number>, e: StationEdge, by: number) {
+  ends.set(e.from, (ends.get(e.from) ?? 0) + by);
+  ends.set(e.to, (ends.get(e.to) ?? 0) + by);
+}
+
+type Keyed = 'nodes' | 'segments' | 'hazards';
+const KEYED: readonly Keyed[] = ['nodes', 'segments', 'hazards'];
+
+/**
+ * The items an edit took out of each collection and those it brought in, with their places in the
+ * new document (a changed item is both: an edit never reuses an object). Found by object identity,
+ * so it holds for any change, a whole list given included; a collection the edit left alone is the
+ * same array and costs nothing.
+ */
+interface Delta {
+  gone: { [C in Collection]: StationDocument[C][number][] };
+  came: { [C in Collection]: { item: StationDocument[C][number]; at: number }[] };
+}
+
+function deltaOf(before: StationDocument, doc: StationDocument): Delta {
+  const delta: Delta = {
+    gone: { segments: [], nodes: [], edges: [], hazards: [], arms: [] },
+    came: { segments: [], nodes: [], edges: [], hazards: [], arms: [] },
+  };
+  for (const c of COLLECTIONS) {
+    const [a, b] = [(before[c] ?? []) as unknown[], doc[c] as unknown[]];
+    if (a === b) continue;
+    const inA = new Set(a);
+    const inB = new Set(b);
+    for (const x of a) if (!inB.has(x)) (delta.gone[c] as unknown[]).push(x);
+    b.forEach((item, at) => {
+      if (!inA.has(item)) (delta.came[c] as unknown[]).push({ item, at });
+    });
+  }
+  return delta;
+}
+
+/** Whether `doc`, made from the indexed document by `delta`, breaks any graph rule. */
+function graphBroken(index: GraphIndex, delta: Delta, doc: StationDocument): boolean {
+  const gone = {
+    nodes: new Set(delta.gone.nodes.map((x) => x.key)),
+    segments: new Set(delta.gone.segments.map((x) => x.key)),
+    hazards: new Set(delta.gone.hazards.map((x) => x.key)),
+  };
+  const came = { nodes: new Set<string>(), segments: new Set<string>(), hazards: new Set<string>() };
+  for (const c of KEYED) {
+    for (const { item } of delta.came[c]) {
+      // a key twice among those brought, or one the model keeps
+      if (came[c].has(item.key) || (index[c].has(item.key) && !gone[c].has(item.key))) return true;
+      came[c].add(item.key);
+    }
+  }
+  const isNode = (key: string) => came.nodes.has(key) || (index.nodes.has(key) && !gone.nodes.has(key));
+  const pairsGone = new Set(delta.gone.edges.map(edgePairKey));
+  const pairsCame = new Set<string>();
+  for (const { item: e } of delta.came.edges) {
+    if (!isNode(e.from) || !isNode(e.to) || e.from === e.to) return true;
+    const pair = edgePairKey(e);
+    if (pairsCame.has(pair) || (index.pairs.has(pair) && !pairsGone.has(pair))) return true;
+    pairsCame.add(pair);
+  }
+  // an edge the change left alone that names a node it took away
+  const endsGone = new Map<string, number>();
+  for (const e of delta.gone.edges) countEnds(endsGone, e, 1);
+  for (const key of gone.nodes) {
+    if (isNode(key)) continue;
+    if ((index.ends.get(key) ?? 0) - (endsGone.get(key) ?? 0) > 0) return true;
+  }
+  return armProblems(doc.arms, isNode).length > 0;
+}
+
+/** Makes `index` describe `doc` (made from `before` by `delta`) and hands it over to it. */
+function moveIndex(before: StationDocument, doc: StationDocument, index: GraphIndex, delta: Delta) {
+  for (const c of KEYED) {
+    for (const x of delta.gone[c]) index[c].delete(x.key);
+    for (const { item } of delta.came[c]) index[c].add(item.key);
+  }
+  for (const e of delta.gone.edges) {
+    index.pairs.delete(edgePairKey(e));
+    countEnds(index.ends, e, -1);
+  }
+  for (const { item: e } of delta.came.edges) {
+    index.pairs.add(edgePairKey(e));
+    countEnds(index.ends, e, 1);
+  }
+  indexes.delete(before);
+  indexes.set(doc, index);
 }
 
 const prefixPath = (prefix: string): PropertyKey[] =>

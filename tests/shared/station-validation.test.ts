@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { applyStationChange, type StationChange } from '@shared/compute/station-changes';
-import { changeProblems, changeProblemsFull } from '@shared/compute/station-validation';
+import { applyStationChange, edgeId, type StationChange } from '@shared/compute/station-changes';
+import { applyValidChange, changeProblems, changeProblemsFull } from '@shared/compute/station-validation';
 import { generateTrussStation } from '@shared/compute/truss-generator';
 import { StationDocumentSchema, type StationDocument } from '@shared/schemas/station';
 import { buildStationDocument } from '../factories/station-document';
@@ -13,7 +13,10 @@ const NEW_KEYS = ['N1', 'N2', 'N3'];
  * One edit of the kinds the editor makes (move, add, remove, note, kind, edge add/remove/close,
  * hazard, segment, arms, name), drawn over the document's own keys and a few new ones, valid or not:
  * non-finite or out-of-range numbers, unknown ends, self-loops, twins, duplicate keys, a socket
- * without a normal, an arm on an unknown base.
+ * without a normal, an arm on an unknown base. Also what bulk writes and the graph rules' corners
+ * make: a node renamed in place, a node deleted with its edges, taken out and put back in one
+ * change, two nodes added at once, an edge given new ends, the node list reordered, a segment or
+ * hazard under a key already used.
  */
 function editArb(doc: StationDocument): fc.Arbitrary<StationChange> {
   const keys = doc.nodes.map((n) => n.key);
@@ -59,6 +62,43 @@ function editArb(doc: StationDocument): fc.Arbitrary<StationChange> {
       arms: { all: [{ key: 'ARM-1', baseNode: base, reachM: reach, tipSpeedMps: 0.05, settleSeconds: 60 }] },
     })),
     fc.constantFrom('', 'Renamed').map((name) => ({ name })),
+    fc
+      .record({ n: node, key: anyKey })
+      .map(({ n, key }) => (n ? { nodes: { replaced: [{ id: n.key, item: { ...n, key } }] } } : {})),
+    node.map((n) =>
+      n
+        ? {
+            nodes: { removed: [n.key] },
+            edges: { removed: doc.edges.filter((e) => e.from === n.key || e.to === n.key).map(edgeId) },
+          }
+        : {},
+    ),
+    node.map((n) => (n ? { nodes: { removed: [n.key], added: [{ ...n }] } } : {})),
+    fc.record({ a: anyKey, b: anyKey, p: vec }).map(({ a, b, p }) => ({
+      nodes: {
+        added: [
+          { key: a, kind: 'anchor' as const, position: p },
+          { key: b, kind: 'junction' as const, position: p },
+        ],
+      },
+    })),
+    fc
+      .record({ e: edge, from: anyKey, to: anyKey })
+      .map(({ e, from, to }) =>
+        e ? { edges: { replaced: [{ id: edgeId(e), item: { ...e, from, to } }] } } : {},
+      ),
+    fc.constant({ nodes: { all: [...doc.nodes].reverse() } }),
+    fc
+      .record({
+        s: fc.constantFrom(...doc.segments),
+        key: fc.constantFrom('NEW', ...doc.segments.map((x) => x.key)),
+      })
+      .map(({ s, key }) => ({ segments: { added: [{ ...s, key }] } })),
+    fc.constantFrom(...doc.hazards.map((h) => h.key), 'H2').map((key) => ({
+      hazards: {
+        added: [{ key, kind: 'caution' as const, shape: 'box' as const, min: [0, 0, 0], max: [1, 1, 1] }],
+      },
+    })),
   ) as fc.Arbitrary<StationChange>;
 }
 
@@ -77,6 +117,14 @@ describe('incremental station validation', () => {
           for (let i = 0; i < steps; i++) {
             const [change] = fc.sample(editArb(doc), { seed: rnd[i], numRuns: 1 });
             const full = changeProblemsFull(doc, change);
+            // every third valid edit is applied as a write that checks nothing (a deletion does)
+            // would: the next checked edit then starts from the index that write carried over
+            if (full.length === 0 && i % 3 === 2) {
+              const next = applyValidChange(doc, change);
+              expect(next).toEqual(applyStationChange(doc, change));
+              doc = next;
+              continue;
+            }
             const incremental = changeProblems(doc, change);
             expect(bySet(incremental.problems)).toEqual(bySet(full));
             expect(incremental.doc).toEqual(applyStationChange(doc, change));

@@ -21,13 +21,12 @@ import { removeStoredUpload } from '../../lib/uploads';
 import { HttpError, badRequest, conflict, notFound, staleVersion } from '../../lib/http-error';
 import { recordActivity } from '../activity/activity.service';
 import {
-  applyStationChange,
   diffStationDocuments,
   emptyStationDocument,
   summarizeStationChange,
   type StationChange as ModelChange,
 } from '@shared/compute/station-changes';
-import { changeProblems } from '@shared/compute/station-validation';
+import { applyValidChange, changeProblems } from '@shared/compute/station-validation';
 import {
   StationSettingsSchema,
   parseStationDocument,
@@ -597,7 +596,7 @@ function writeStationTx<R>(
       const checked = parseStationDocument(loadDocument(tx, findStationRow(tx, req.stationId)));
       if (!checked.ok) throw problemsError('The change would break the station model', checked.problems);
       after = checked.doc;
-    } else if (held) after = applyStationChange(held, outcome.change, { share: true });
+    } else if (held) after = applyValidChange(held, outcome.change);
     if (ctx.dryRun) {
       const document = after ?? loadDocument(tx, findStationRow(tx, req.stationId));
       throw new DryRunRollback({ dryRun: true, version: row.version, document });
