@@ -175,3 +175,98 @@ export function isWithinNight(windows: readonly OrbitWindow[], start: number, en
     (w) => w.kind === 'night' && w.start <= start + WINDOW_EPSILON_S && end <= w.end + WINDOW_EPSILON_S,
   );
 }
+
+/** The orbit event a start time is read from. */
+export type OrbitEvent = 'sunrise' | 'sunset';
+
+/**
+ * The EVA's start read as a planner reads it: so many minutes after or before orbital sunrise or
+ * sunset. `offsetSeconds` is signed (negative: before the event).
+ */
+export interface OrbitStart {
+  event: OrbitEvent;
+  offsetSeconds: number;
+}
+
+/** Where in the orbit the EVA clock starts, read against the orbit's sunrise and sunset. */
+export interface OrbitStartReading extends OrbitStart {
+  /** the arc the EVA starts in; always `day` when the orbit sees no shadow */
+  arc: OrbitWindowKind;
+  /** seconds into that arc (since sunrise in the day arc, since sunset at night) */
+  intoArcSeconds: number;
+  /** seconds to the arc's end (the next sunset or sunrise); null when the orbit sees no shadow */
+  leftInArcSeconds: number | null;
+  periodSeconds: number;
+  eclipseSeconds: number;
+}
+
+/** An orbit's period and its sunlit and night arcs (`orbitSummary` gives them), seconds. */
+export type OrbitArcs = Pick<OrbitSummary, 'periodSeconds' | 'sunlitSeconds' | 'eclipseSeconds'>;
+
+const wrap = (s: number, T: number) => ((s % T) + T) % T;
+
+/**
+ * A phase at start (0° is orbital sunrise, 360° per orbit, the sunlit arc first) as minutes from the
+ * nearer end of the arc it falls in: "12 min after sunrise" early in the day arc, "5 min before
+ * sunrise" late in the night arc. With no shadow the phase is read from sunrise alone.
+ */
+export function orbitStartOfPhase(phaseDeg: number, orbit: OrbitArcs): OrbitStartReading {
+  const { periodSeconds: T, sunlitSeconds: D, eclipseSeconds: E } = orbit;
+  const s = wrap((phaseDeg / 360) * T, T);
+  if (E <= 0) {
+    return {
+      event: 'sunrise',
+      offsetSeconds: s,
+      arc: 'day',
+      intoArcSeconds: s,
+      leftInArcSeconds: null,
+      periodSeconds: T,
+      eclipseSeconds: 0,
+    };
+  }
+  const day = s < D;
+  const into = day ? s : s - D;
+  const left = day ? D - s : T - s;
+  const [begins, ends]: [OrbitEvent, OrbitEvent] = day ? ['sunrise', 'sunset'] : ['sunset', 'sunrise'];
+  const nearer: OrbitStart =
+    into <= left ? { event: begins, offsetSeconds: into } : { event: ends, offsetSeconds: -left };
+  return {
+    ...nearer,
+    arc: day ? 'day' : 'night',
+    intoArcSeconds: into,
+    leftInArcSeconds: left,
+    periodSeconds: T,
+    eclipseSeconds: E,
+  };
+}
+
+/** The phase at start (degrees in [0, 360)) of a start given against sunrise or sunset. */
+export function phaseOfOrbitStart(start: OrbitStart, orbit: OrbitArcs): number {
+  if (!Number.isFinite(start.offsetSeconds))
+    throw new RangeError(`the offset must be a finite number of seconds (got ${start.offsetSeconds})`);
+  const { periodSeconds: T, sunlitSeconds: D } = orbit;
+  const s = wrap((start.event === 'sunrise' ? 0 : D) + start.offsetSeconds, T);
+  const deg = (s / T) * 360;
+  // a whole orbit back to sunrise can round to 360: that is sunrise itself
+  return deg >= 360 ? 0 : deg;
+}
+
+/** Minutes to a tenth, without a trailing ".0": "12 min", "2.5 min". */
+const minutesText = (seconds: number) => {
+  const tenths = Math.round(Math.abs(seconds) / 6);
+  return `${tenths % 10 === 0 ? tenths / 10 : (tenths / 10).toFixed(1)} min`;
+};
+
+/** "starts 12 min after orbital sunrise", "starts 5 min before orbital sunset", "starts at orbital sunrise". */
+export function orbitStartText(start: OrbitStart): string {
+  if (Math.round(Math.abs(start.offsetSeconds) / 6) === 0) return `starts at orbital ${start.event}`;
+  const side = start.offsetSeconds < 0 ? 'before' : 'after';
+  return `starts ${minutesText(start.offsetSeconds)} ${side} orbital ${start.event}`;
+}
+
+/** What is left of the start's arc, to the minute: "in daylight, sunset 42 min later". */
+export function orbitStartArcText(reading: OrbitStartReading): string {
+  if (reading.leftInArcSeconds === null) return 'no night on this orbit at this beta angle';
+  const left = `${Math.round(reading.leftInArcSeconds / 60)} min`;
+  return reading.arc === 'day' ? `in daylight, sunset ${left} later` : `in night, sunrise ${left} later`;
+}

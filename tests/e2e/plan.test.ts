@@ -62,7 +62,7 @@ describe('plan: build, time, review and export an EVA plan in the built app', ()
     await create.getByLabel('EV2 tether length').fill('55 ft');
     await create.getByText('= 16.8 m = 55.0 ft').waitFor();
     // the clock starts at orbital sunrise, so the first hour of the EVA is in daylight
-    await create.getByLabel('Orbit phase at start (°)').fill('0');
+    await create.getByLabel('Start: minutes').fill('0');
     await create.getByRole('button', { name: 'Create plan' }).click();
     await page.waitForURL(/\/plans\/\d+$/);
     const planId = Number(new URL(page.url()).pathname.split('/').pop());

@@ -10,6 +10,10 @@ import {
   nextNightWindowFitting,
   orbitSummary,
   orbitalPeriodSeconds,
+  orbitStartArcText,
+  orbitStartOfPhase,
+  orbitStartText,
+  phaseOfOrbitStart,
   type OrbitWindow,
 } from '@shared/compute/orbit';
 
@@ -209,5 +213,99 @@ describe('nextNightWindowFitting', () => {
         },
       ),
     );
+  });
+});
+
+describe('the start as a clock phase: minutes from orbital sunrise or sunset', () => {
+  // worked by hand: a 90 min orbit with a 54 min sunlit arc and 36 min of night
+  const arcs = { periodSeconds: 5400, sunlitSeconds: 3240, eclipseSeconds: 2160 };
+
+  it('reads a phase from the nearer end of its arc (worked by hand)', () => {
+    // 8° of 360° is 120 s into the orbit: 2 min after sunrise, 52 min to sunset
+    expect(orbitStartOfPhase(8, arcs)).toMatchObject({
+      event: 'sunrise',
+      offsetSeconds: 120,
+      arc: 'day',
+      intoArcSeconds: 120,
+      leftInArcSeconds: 3120,
+    });
+    // 168° is 2520 s: 720 s (12 min) before the sunset at 3240 s
+    expect(orbitStartOfPhase(168, arcs)).toMatchObject({ event: 'sunset', offsetSeconds: -720, arc: 'day' });
+    // 240° is 3600 s: 6 min after sunset, 30 min to sunrise
+    expect(orbitStartOfPhase(240, arcs)).toMatchObject({
+      event: 'sunset',
+      offsetSeconds: 360,
+      arc: 'night',
+      leftInArcSeconds: 1800,
+    });
+    // 340° is 5100 s: 5 min before the next sunrise at 5400 s
+    expect(orbitStartOfPhase(340, arcs)).toMatchObject({
+      event: 'sunrise',
+      offsetSeconds: -300,
+      arc: 'night',
+    });
+  });
+
+  it('turns minutes after or before sunrise or sunset into the stored phase (worked by hand)', () => {
+    expect(phaseOfOrbitStart({ event: 'sunrise', offsetSeconds: 12 * 60 }, arcs)).toBeCloseTo(48, 12);
+    expect(phaseOfOrbitStart({ event: 'sunset', offsetSeconds: -12 * 60 }, arcs)).toBeCloseTo(168, 12);
+    expect(phaseOfOrbitStart({ event: 'sunset', offsetSeconds: 6 * 60 }, arcs)).toBeCloseTo(240, 12);
+    expect(phaseOfOrbitStart({ event: 'sunrise', offsetSeconds: -5 * 60 }, arcs)).toBeCloseTo(340, 12);
+    // more than an orbit away wraps to the same place in the orbit
+    expect(phaseOfOrbitStart({ event: 'sunrise', offsetSeconds: 5400 + 120 }, arcs)).toBeCloseTo(8, 9);
+    expect(phaseOfOrbitStart({ event: 'sunrise', offsetSeconds: 0 }, arcs)).toBe(0);
+    expect(() => phaseOfOrbitStart({ event: 'sunset', offsetSeconds: NaN }, arcs)).toThrow(RangeError);
+  });
+
+  it('with no shadow the phase is read from sunrise alone', () => {
+    const noNight = orbitSummary({ altitudeKm: 400, betaDeg: 80 });
+    const r = orbitStartOfPhase(90, noNight);
+    expect(r).toMatchObject({ event: 'sunrise', arc: 'day', leftInArcSeconds: null });
+    expect(r.offsetSeconds).toBeCloseTo(noNight.periodSeconds / 4, 9);
+  });
+
+  const orbit = fc.record({
+    altitudeKm: fc.double({ min: 200, max: 1000, noNaN: true }),
+    betaDeg: fc.double({ min: -60, max: 60, noNaN: true }),
+  });
+  const phase = fc.double({ min: 0, max: 359.999, noNaN: true });
+
+  it('the reading is the day-night windows of the same start: its arc first, ending when they say (fast-check)', () => {
+    fc.assert(
+      fc.property(orbit, phase, (o, phaseAtStartDeg) => {
+        const s = orbitSummary(o);
+        const r = orbitStartOfPhase(phaseAtStartDeg, s);
+        const [first] = dayNightWindows({ ...o, phaseAtStartDeg, durationSeconds: 2 * s.periodSeconds });
+        expect(first.kind).toBe(r.arc);
+        if (r.leftInArcSeconds !== null && r.leftInArcSeconds > 1e-3)
+          expect(first.end).toBeCloseTo(r.leftInArcSeconds, 6);
+      }),
+    );
+  });
+
+  it('reading a phase and turning the reading back gives the phase (fast-check)', () => {
+    fc.assert(
+      fc.property(orbit, phase, (o, p) => {
+        const s = orbitSummary(o);
+        const back = phaseOfOrbitStart(orbitStartOfPhase(p, s), s);
+        // the same place in the orbit: equal, or across the 0°/360° seam
+        const gap = Math.abs(back - p);
+        expect(Math.min(gap, 360 - gap)).toBeLessThan(1e-9);
+      }),
+    );
+  });
+});
+
+describe('the start in words', () => {
+  const arcs = { periodSeconds: 5400, sunlitSeconds: 3240, eclipseSeconds: 2160 };
+  it('says minutes after or before the event, to a tenth, and what is left of the arc', () => {
+    expect(orbitStartText(orbitStartOfPhase(48, arcs))).toBe('starts 12 min after orbital sunrise');
+    expect(orbitStartText(orbitStartOfPhase(340, arcs))).toBe('starts 5 min before orbital sunrise');
+    expect(orbitStartText({ event: 'sunset', offsetSeconds: -150 })).toBe(
+      'starts 2.5 min before orbital sunset',
+    );
+    expect(orbitStartText({ event: 'sunset', offsetSeconds: 2 })).toBe('starts at orbital sunset');
+    expect(orbitStartArcText(orbitStartOfPhase(8, arcs))).toBe('in daylight, sunset 52 min later');
+    expect(orbitStartArcText(orbitStartOfPhase(240, arcs))).toBe('in night, sunrise 30 min later');
   });
 });

@@ -1,4 +1,5 @@
 import type { PlanTimeline, PlanView } from '@shared/schemas/plan-views';
+import type { OrbitSettings } from '@shared/schemas/station';
 export type { PlanListItem, PlanTimeline, PlanView } from '@shared/schemas/plan-views';
 export type { TaskReach } from '@shared/compute/day/types';
 
@@ -7,6 +8,8 @@ export interface StationChoice {
   id: number;
   name: string;
   tetherLengthM: number;
+  /** to read the plan's start against orbital sunrise and sunset */
+  orbit: OrbitSettings;
 }
 
 export interface StationNodeOption {

@@ -66,6 +66,7 @@ export default function PlanRoute() {
         plan={plan.data}
         user={user}
         nodes={nodes}
+        orbit={graph.data?.station.orbit}
         rehearseHref={paths.walkthroughs.getHref({ planId: plan.data.id })}
         DayView={PlanDay}
       />

@@ -39,6 +39,7 @@ export default function PlansRoute() {
     id: s.id,
     name: s.name,
     tetherLengthM: s.settings.tetherLengthM,
+    orbit: s.orbit,
   }));
 
   return (

@@ -1,5 +1,6 @@
 import { useWatch, type Control } from 'react-hook-form';
 import { z } from 'zod';
+import { phaseOfOrbitStart } from '@shared/compute/orbit';
 import { parseLength, formatLength, metresToFeet } from '@shared/compute/units';
 import {
   CrewSlotSchema,
@@ -15,9 +16,18 @@ import { FormError } from '@/components/ui/form-error';
 import { Input } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import { useCreatePlan } from '../api/create-plan';
-import { durationField, lengthText, numberText, optionalBetaText, planField } from '../lib/form-fields';
+import {
+  durationField,
+  lengthText,
+  optionalBetaText,
+  orbitStartFields,
+  orbitStartOf,
+  planField,
+  planOrbitArcs,
+} from '../lib/form-fields';
 import { durationText } from '../lib/plan-draft';
 import type { PlanView, StationChoice } from '../types';
+import { OrbitStartControls, orbitStartHint } from './orbit-start-field';
 import { ROUTE_MODE_LABELS } from './route-mode-labels';
 
 const CreatePlanFormSchema = z.object({
@@ -30,7 +40,9 @@ const CreatePlanFormSchema = z.object({
   ev2Tether: lengthText(CrewSlotSchema.shape.tetherLengthM.unwrap()),
   routeMode: planField.routeMode,
   allowRide: z.boolean(),
-  orbitPhaseAtStartDeg: numberText(planField.orbitPhaseAtStartDeg),
+  startMinutes: orbitStartFields.minutes,
+  startSide: orbitStartFields.side,
+  startEvent: orbitStartFields.event,
   betaDegOverride: optionalBetaText,
   timeLimit: durationField(planField.timeLimitSeconds),
   egress: durationField(planField.egressSeconds),
@@ -39,7 +51,7 @@ const CreatePlanFormSchema = z.object({
 type FormInput = z.input<typeof CreatePlanFormSchema>;
 type FormOutput = z.output<typeof CreatePlanFormSchema>;
 
-const toCreateInput = (v: FormOutput): CreatePlanInput => ({
+const toCreateInput = (v: FormOutput, station: StationChoice): CreatePlanInput => ({
   title: v.title,
   stationId: v.stationId,
   date: v.date,
@@ -49,7 +61,10 @@ const toCreateInput = (v: FormOutput): CreatePlanInput => ({
   },
   routeMode: v.routeMode,
   allowRide: v.allowRide,
-  orbitPhaseAtStartDeg: v.orbitPhaseAtStartDeg,
+  orbitPhaseAtStartDeg: phaseOfOrbitStart(
+    orbitStartOf(v.startMinutes, v.startSide, v.startEvent),
+    planOrbitArcs(station.orbit, v.betaDegOverride),
+  ),
   ...(v.betaDegOverride === undefined ? {} : { betaDegOverride: v.betaDegOverride }),
   timeLimitSeconds: v.timeLimit,
   egressSeconds: v.egress,
@@ -76,6 +91,26 @@ function TetherEcho({
   );
 }
 
+/** What the start typed means on the chosen station's orbit: the arc it falls in and the phase. */
+function StartEcho({
+  control,
+  stations,
+}: {
+  control: Control<FormInput, unknown, FormOutput>;
+  stations: StationChoice[];
+}) {
+  const [stationId, minutes, side, event, beta] = useWatch({
+    control,
+    name: ['stationId', 'startMinutes', 'startSide', 'startEvent', 'betaDegOverride'],
+  });
+  const station = stations.find((s) => String(s.id) === stationId);
+  const m = orbitStartFields.minutes.safeParse(minutes ?? '');
+  const b = optionalBetaText.safeParse(beta ?? '');
+  if (!station || !m.success || !b.success) return null;
+  const arcs = planOrbitArcs(station.orbit, b.data);
+  return <>{orbitStartHint(phaseOfOrbitStart(orbitStartOf(m.data, side, event), arcs), arcs)}</>;
+}
+
 interface CreatePlanFormProps {
   stations: StationChoice[];
   onSuccess: (plan: PlanView) => void;
@@ -97,7 +132,9 @@ export function CreatePlanForm({ stations, onSuccess, onCancel }: CreatePlanForm
       ev2Tether: tether,
       routeMode: 'balanced',
       allowRide: false,
-      orbitPhaseAtStartDeg: '0',
+      startMinutes: '0',
+      startSide: 'after',
+      startEvent: 'sunrise',
       betaDegOverride: '',
       timeLimit: durationText(DEFAULT_TIME_LIMIT_SECONDS),
       egress: durationText(DEFAULT_EGRESS_SECONDS),
@@ -113,7 +150,13 @@ export function CreatePlanForm({ stations, onSuccess, onCancel }: CreatePlanForm
   const stationField = register('stationId');
 
   return (
-    <Form form={form} onSubmit={(v) => create.mutate(toCreateInput(v))}>
+    <Form
+      form={form}
+      onSubmit={(v) => {
+        const station = stations.find((s) => s.id === v.stationId);
+        if (station) create.mutate(toCreateInput(v, station));
+      }}
+    >
       <FormError error={create.error} fallback="The plan could not be created." />
       <Field label="Title" error={errors.title?.message}>
         <Input autoComplete="off" {...register('title')} />
@@ -171,13 +214,13 @@ export function CreatePlanForm({ stations, onSuccess, onCancel }: CreatePlanForm
           <input type="checkbox" className="size-4 accent-accent" {...register('allowRide')} />
           Arm ride allowed
         </label>
-        <Field
-          label="Orbit phase at start (°)"
-          error={errors.orbitPhaseAtStartDeg?.message}
-          hint="0° = orbital sunrise"
-        >
-          <Input inputMode="decimal" {...register('orbitPhaseAtStartDeg')} />
-        </Field>
+        <OrbitStartControls
+          minutes={register('startMinutes')}
+          side={register('startSide')}
+          event={register('startEvent')}
+          hint={<StartEcho control={control} stations={stations} />}
+          error={errors.startMinutes?.message}
+        />
         <Field
           label="Beta angle override (°)"
           error={errors.betaDegOverride?.message}

@@ -1,5 +1,6 @@
 import { useCallback } from 'react';
 import { z } from 'zod';
+import type { OrbitArcs } from '@shared/compute/orbit';
 import { formatLength, metresToFeet } from '@shared/compute/units';
 import { CrewSlotSchema, type Crew, type CrewMember } from '@shared/schemas/plan';
 import { ROUTE_MODES, type RouteMode } from '@shared/schemas/route';
@@ -8,6 +9,7 @@ import { Input } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import { durationField, lengthText, numberText, optionalBetaText, planField } from '../lib/form-fields';
 import { durationText, type PlanDraft } from '../lib/plan-draft';
+import { OrbitStartField } from './orbit-start-field';
 import { ParsedInput } from './parsed-input';
 import { ROUTE_MODE_LABELS } from './route-mode-labels';
 
@@ -26,6 +28,11 @@ interface Props {
   draft: PlanDraft;
   onChange: (patch: Partial<PlanDraft>) => void;
   readOnly: boolean;
+}
+
+interface SettingsProps extends Props {
+  /** the orbit's arcs at the draft's beta angle; undefined while the station loads */
+  arcs?: OrbitArcs;
 }
 
 export function CrewEditor({ draft, onChange, readOnly }: Props) {
@@ -66,7 +73,7 @@ export function CrewEditor({ draft, onChange, readOnly }: Props) {
   );
 }
 
-export function SettingsEditor({ draft, onChange, readOnly }: Props) {
+export function SettingsEditor({ draft, onChange, readOnly, arcs }: SettingsProps) {
   const titleError = planField.title.safeParse(draft.title).success ? undefined : 'title must not be empty';
   const dateOk = z.iso.date().safeParse(draft.date).success;
   return (
@@ -120,15 +127,24 @@ export function SettingsEditor({ draft, onChange, readOnly }: Props) {
         readOnly={readOnly}
         onCommit={(v) => v !== null && onChange({ ingressSeconds: v })}
       />
-      <ParsedInput
-        label="Orbit phase at start (°)"
-        hint="0° = orbital sunrise"
-        value={draft.orbitPhaseAtStartDeg}
-        format={fmtNumber}
-        schema={phaseText}
-        readOnly={readOnly}
-        onCommit={(v) => v !== null && onChange({ orbitPhaseAtStartDeg: v })}
-      />
+      {arcs ? (
+        <OrbitStartField
+          value={draft.orbitPhaseAtStartDeg}
+          arcs={arcs}
+          readOnly={readOnly}
+          onCommit={(v) => onChange({ orbitPhaseAtStartDeg: v })}
+        />
+      ) : (
+        <ParsedInput
+          label="Orbit phase at start (°)"
+          hint="0° = orbital sunrise"
+          value={draft.orbitPhaseAtStartDeg}
+          format={fmtNumber}
+          schema={phaseText}
+          readOnly={readOnly}
+          onCommit={(v) => v !== null && onChange({ orbitPhaseAtStartDeg: v })}
+        />
+      )}
       <ParsedInput
         label="Beta angle override (°)"
         hint="Blank: the station's beta angle"

@@ -1,6 +1,7 @@
-import { useState, type ComponentType, type ReactNode } from 'react';
+import { useMemo, useState, type ComponentType, type ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import type { User } from '@shared/schemas/auth';
+import type { OrbitSettings } from '@shared/schemas/station';
 import { can } from '@shared/auth/permissions';
 import { Alert } from '@/components/ui/alert';
 import { focusRing } from '@/components/ui/button';
@@ -14,11 +15,13 @@ import { planExportHref } from '../api/export-plan';
 import { usePlanTimeline } from '../api/get-plan-timeline';
 import { usePlanDraft } from '../lib/use-plan-draft';
 import { FieldValidityContext, useFieldValidity } from '../lib/field-validity';
+import { planOrbitArcs } from '../lib/form-fields';
 import type { DayFocus, DayViewProps, PlanStationNodes, PlanView } from '../types';
 import { ConflictNotice } from './conflict-notice';
 import { CrewEditor, SettingsEditor } from './crew-and-settings';
 import { ManifestEditor, itemRowId } from './manifest-editor';
 import { OrderSuggestion } from './order-suggestion';
+import { orbitStartWords } from './orbit-start-field';
 import { PlanStatusBadge } from './plan-status-badge';
 import { ReviewPanel } from './review-panel';
 import { PlanActions } from './plan-actions';
@@ -59,6 +62,8 @@ interface PlanEditorProps {
   user: User;
   /** the station's worksites and sockets; undefined while they load */
   nodes?: PlanStationNodes;
+  /** the station's orbit, to read the start against sunrise and sunset; undefined while it loads */
+  orbit?: OrbitSettings;
   /** the walkthrough screen for this plan, composed by the route */
   rehearseHref: string;
   /** an optional picker the route composes beside the task list, e.g. a small 3D view */
@@ -67,7 +72,7 @@ interface PlanEditorProps {
   DayView?: ComponentType<DayViewProps>;
 }
 
-export function PlanEditor({ plan, user, nodes, rehearseHref, extra, DayView }: PlanEditorProps) {
+export function PlanEditor({ plan, user, nodes, orbit, rehearseHref, extra, DayView }: PlanEditorProps) {
   const [focus, setFocus] = useState<DayFocus | null>(null);
   const [cursor, setCursor] = useState<number>();
   const editable = can(user, 'plans:edit') && plan.status === 'draft';
@@ -83,6 +88,8 @@ export function PlanEditor({ plan, user, nodes, rehearseHref, extra, DayView }: 
   const tl = timeline.data;
   const places = nodes?.worksites.map((n) => n.key) ?? [];
   const unsaved = state !== 'saved';
+  const beta = draft.betaDegOverride;
+  const arcs = useMemo(() => (orbit ? planOrbitArcs(orbit, beta) : undefined), [orbit, beta]);
 
   return (
     <FieldValidityContext.Provider value={fields.report}>
@@ -106,8 +113,9 @@ export function PlanEditor({ plan, user, nodes, rehearseHref, extra, DayView }: 
               <PlanStatusBadge status={plan.status} />
             </div>
             <p className="text-sm text-text-muted">
-              {plan.stationName} · EVA {plan.date} · version {plan.version} · written by{' '}
-              {plan.authorName ?? 'someone no longer here'}
+              {plan.stationName} · EVA {draft.date}
+              {arcs && <> · {orbitStartWords(draft.orbitPhaseAtStartDeg, arcs)}</>} · version {plan.version} ·
+              written by {plan.authorName ?? 'someone no longer here'}
               {plan.approverName && <> · approved by {plan.approverName}</>}
             </p>
           </div>
@@ -207,7 +215,7 @@ export function PlanEditor({ plan, user, nodes, rehearseHref, extra, DayView }: 
               <CrewEditor draft={draft} onChange={change} readOnly={readOnly} />
             </Panel>
             <Panel title="EVA settings">
-              <SettingsEditor draft={draft} onChange={change} readOnly={readOnly} />
+              <SettingsEditor draft={draft} onChange={change} readOnly={readOnly} arcs={arcs} />
             </Panel>
           </div>
           <div className="space-y-5">

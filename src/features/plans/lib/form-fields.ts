@@ -1,5 +1,7 @@
 import { z } from 'zod';
+import { orbitSummary, type OrbitArcs, type OrbitEvent, type OrbitStart } from '@shared/compute/orbit';
 import { parseDuration, parseLength } from '@shared/compute/units';
+import type { OrbitSettings } from '@shared/schemas/station';
 import { UpdatePlanInputSchema } from '@shared/schemas/plan';
 
 type Parse = (text: string) => { ok: true; value: number } | { ok: false; message: string };
@@ -45,3 +47,26 @@ export const optionalBetaText = z.union([
   z.literal('').transform(() => undefined),
   numberText(planField.betaDegOverride),
 ]);
+
+/** The start as a planner gives it: minutes after or before orbital sunrise or sunset. */
+export const orbitStartFields = {
+  minutes: numberText(
+    z
+      .number()
+      .min(0, 'minutes must not be negative')
+      .max(120, 'at most 120 min: an orbit is about 90 min, so count from the nearer sunrise or sunset'),
+  ),
+  side: z.enum(['after', 'before']),
+  event: z.enum(['sunrise', 'sunset']),
+};
+export type OrbitStartSide = z.infer<typeof orbitStartFields.side>;
+
+/** Minutes and a side as the signed offset the orbit computations take. */
+export const orbitStartOf = (minutes: number, side: OrbitStartSide, event: OrbitEvent): OrbitStart => ({
+  event,
+  offsetSeconds: (side === 'before' ? -minutes : minutes) * 60,
+});
+
+/** The orbit's arcs for a station's orbit and the plan's beta angle override (blank: the station's). */
+export const planOrbitArcs = (orbit: OrbitSettings, betaDegOverride: number | null | undefined): OrbitArcs =>
+  orbitSummary({ altitudeKm: orbit.altitudeKm, betaDeg: betaDegOverride ?? orbit.betaDeg });
