@@ -35,6 +35,8 @@ export interface WalkStep {
   /** where the step happens (translate: where it ends) */
   nodeKey: string;
   fromKey?: string;
+  /** translate: the nodes passed between `fromKey` and `nodeKey`, in walk order */
+  via?: string[];
   lengthM?: number;
   /** swap: the new hook is clipped here … */
   clipKey?: string;
@@ -150,6 +152,7 @@ function translate(
     detail: `From ${first.from} ${kinds} to ${last.to}, ${legs.length} leg${legs.length === 1 ? '' : 's'}; clipped at ${b.anchorKey}, ${b.paid.toFixed(1)} m of tether out on arrival.`,
     nodeKey: last.to,
     fromKey: first.from,
+    ...(legs.length > 1 ? { via: legs.slice(0, -1).map((l) => l.to) } : {}),
     lengthM,
     paidOutM: b.paid,
     anchorKey: b.anchorKey,

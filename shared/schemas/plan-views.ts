@@ -1,6 +1,7 @@
 import type { Plan, PlanStatus } from './plan';
 import type { Timeline } from '../compute/day/types';
 import type { PlanTouch } from '../compute/plan-touches';
+import type { DayNote } from '../compute/station-notes';
 
 export type { PlanTouch };
 
@@ -36,6 +37,8 @@ export interface PlanTimeline extends Timeline {
   /** approved, and the station has changed since: the day is still computed on the approved version */
   stationChangedSinceApproval?: boolean;
   stationChanges?: PlanTouch[];
+  /** the station's open notes pinned to nodes the day passes through or uses, with where */
+  stationNotes?: DayNote[];
   planVersion: number;
   stationId: number;
   stationVersion: number;

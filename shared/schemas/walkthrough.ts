@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import type { ArmLane, EquipmentTrack } from '../compute/day/types';
 import type { CrewTrack } from '../compute/walkthrough';
+import type { StepNote } from '../compute/station-notes';
 import type { OrbitWindow } from '../compute/orbit';
 import type { CrewMember, PlanStatus } from './plan';
 import { RouteRequestSchema, type RouteMode } from './route';
@@ -156,6 +157,8 @@ export interface WalkthroughDetail {
   notice?: string;
   /** version of the plan (or station) now */
   currentVersion: number;
+  /** the station's open notes pinned to nodes the steps pass through or use, with those steps */
+  stationNotes: StepNote[];
   caution: string;
 }
 

@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readStaleVersion } from '@shared/errors';
 import { buildStationDocument, FIXTURE_KEYS as K } from '../factories/station-document';
 import { buildManifestItem, buildPlanInput, buildTask } from '../factories/plan';
-import { pdfText } from '../setup/pdf-text';
+import { getPdf, pdfText } from '../setup/pdf-text';
 import { makeAppWithStation } from '../setup/stations';
 import type { TestAgent, TestApp } from '../setup/test-app';
 import { CSV_HEADER } from '../../server/modules/plans/plan-export.service';
@@ -399,16 +399,7 @@ describe('timeline and exports', () => {
   });
 
   it('PDF: a cue-card document in Inter with the crew steps and the caution', async () => {
-    const res = await (
-      await t.agent('trainer')
-    )
-      .get(`/api/plans/${planId}/export.pdf`)
-      .buffer(true)
-      .parse((r, cb) => {
-        const chunks: Buffer[] = [];
-        r.on('data', (c: Buffer) => chunks.push(c));
-        r.on('end', () => cb(null, Buffer.concat(chunks)));
-      });
+    const res = await getPdf(await t.agent('trainer'), `/api/plans/${planId}/export.pdf`);
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toBe('application/pdf');
     const pdf = res.body as Buffer;

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { LINE_KEYS as K, lineStationDocument } from '../factories/day';
-import { pdfText } from '../setup/pdf-text';
+import { getPdf, pdfText } from '../setup/pdf-text';
 import { importStation, makeAppWithStation } from '../setup/stations';
 import type { TestAgent, TestApp } from '../setup/test-app';
 import { fromWire } from '@shared/compute/day/wire';
@@ -162,14 +162,7 @@ describe('arm warnings, each with the plan that triggers it and the one that cle
     // A1 → WX is 10 m at 0.1 m/s plus 30 s settle: 130 s, 0:02 as h:mm
     expect(csv.text).toContain('ARM-1 carries EV1 to WX, 0:02');
     expect(csv.text).toContain('EV1 gets off ARM-1 at A1 and clips the tether there');
-    const pdf = await planner
-      .get(`/api/plans/${id}/export.pdf`)
-      .buffer(true)
-      .parse((r, cb) => {
-        const chunks: Buffer[] = [];
-        r.on('data', (c: Buffer) => chunks.push(c));
-        r.on('end', () => cb(null, Buffer.concat(chunks)));
-      });
+    const pdf = await getPdf(planner, `/api/plans/${id}/export.pdf`);
     expect(pdf.status).toBe(200);
     expect(pdfText(pdf.body as Buffer)).toContain('ARM-1 carries EV1 to WX, 0:02');
   });

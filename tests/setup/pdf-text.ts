@@ -1,3 +1,5 @@
+import type { TestAgent } from './test-app';
+
 /**
  * The text of an uncompressed pdfkit PDF: each font's ToUnicode map decodes the hex glyph strings
  * of the TJ operators that follow its `Tf`.
@@ -40,4 +42,16 @@ export function pdfText(pdf: Buffer): string {
     }
   }
   return out;
+}
+
+/** GET a PDF with the agent, its body as bytes. */
+export function getPdf(agent: TestAgent, url: string) {
+  return agent
+    .get(url)
+    .buffer(true)
+    .parse((r, cb) => {
+      const chunks: Buffer[] = [];
+      r.on('data', (c: Buffer) => chunks.push(c));
+      r.on('end', () => cb(null, Buffer.concat(chunks)));
+    });
 }

@@ -1,5 +1,5 @@
 import fs from 'node:fs';
-import { and, asc, desc, eq, inArray } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, isNotNull } from 'drizzle-orm';
 import type { AppContext } from '../../context';
 import type { Db } from '../../db/client';
 import { annotationReplies, annotations, attachments, nodes, users } from '../../db/schema';
@@ -20,6 +20,7 @@ import type {
   PersonRef,
   UpdateAnnotationInput,
 } from '@shared/schemas/annotations';
+import type { NodeNote } from '@shared/compute/station-notes';
 import { recordActivity } from '../activity/activity.service';
 import { findStationRow } from '../stations/stations.service';
 
@@ -110,6 +111,41 @@ export function listAnnotations(db: Db, stationId: number, status?: AnnotationSt
     ? and(eq(annotations.stationId, stationId), eq(annotations.status, status))
     : eq(annotations.stationId, stationId);
   return toAnnotations(db, db.select().from(annotations).where(where).orderBy(desc(annotations.id)).all());
+}
+
+/** The most notes a plan's day or a walkthrough is matched against: the newest open ones. */
+export const MAX_DAY_NOTES = 500;
+const NOTE_BODY_CHARS = 280;
+
+/**
+ * The station's open notes pinned to a node, newest first, for a plan's day and a walkthrough to
+ * show where the work passes (a long text cut to its start: the station screen has the whole note).
+ */
+export function openNodeNotes(db: Db, stationId: number): NodeNote[] {
+  return db
+    .select({
+      id: annotations.id,
+      nodeKey: annotations.nodeKey,
+      title: annotations.title,
+      body: annotations.body,
+    })
+    .from(annotations)
+    .where(
+      and(
+        eq(annotations.stationId, stationId),
+        eq(annotations.status, 'open'),
+        isNotNull(annotations.nodeKey),
+      ),
+    )
+    .orderBy(desc(annotations.id))
+    .limit(MAX_DAY_NOTES)
+    .all()
+    .map((r) => ({
+      id: r.id,
+      nodeKey: r.nodeKey!,
+      title: r.title,
+      body: r.body.length > NOTE_BODY_CHARS ? `${r.body.slice(0, NOTE_BODY_CHARS - 1)}…` : r.body,
+    }));
 }
 
 const annotationLink = (r: { stationId: number; id: number }) =>

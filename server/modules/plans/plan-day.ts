@@ -1,6 +1,7 @@
 import { computeTimeline } from '@shared/compute/day/timeline';
 import type { DayStart } from '@shared/compute/day/types';
 import { toWire } from '@shared/compute/day/wire';
+import { notesOnDay, type NodeNote } from '@shared/compute/station-notes';
 import { summaryOf } from '@shared/compute/day/summary';
 import type { PlanTimeline, PlanView } from '@shared/schemas/plan-views';
 import { PLANNING_CAUTION } from '@shared/caution';
@@ -24,9 +25,11 @@ export function planTimelineOn(
 ): PlanTimeline {
   const { day, dayPlan, route } = dayOf(station, plan);
   const timeline = computeTimeline(dayPlan, day, route, start);
+  const { notes, ...told } = extra;
   return {
     ...timeline,
-    ...extra,
+    ...told,
+    ...(notes ? { stationNotes: notesOnDay(notes, timeline, plan.tasks, day.airlockKey) } : {}),
     planId: plan.id,
     planVersion: plan.version,
     stationId: plan.stationId,
@@ -39,8 +42,13 @@ export function planTimelineOn(
 /** `summary`: only the figures a series or a comparison reads (`DaySummary`), as JSON text. */
 export type DayOutput = 'timeline' | 'csv' | 'pdf' | 'run' | 'sequence' | 'summary';
 
-/** What the server adds to a day it computes: whether the plan's station moved on since approval. */
-export type DayExtra = Partial<Pick<PlanTimeline, 'stationChangedSinceApproval' | 'stationChanges'>>;
+/**
+ * What the server adds to a day it computes: whether the plan's station moved on since approval,
+ * and the station's notes, of which the day lists those on its way (`stationNotes`).
+ */
+export type DayExtra = Partial<Pick<PlanTimeline, 'stationChangedSinceApproval' | 'stationChanges'>> & {
+  notes?: readonly NodeNote[];
+};
 
 /** What a day job answers: JSON or CSV text, or the bytes of a PDF. */
 export type DayResult = { text: string } | { bytes: Uint8Array };

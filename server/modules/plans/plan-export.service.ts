@@ -108,6 +108,20 @@ export function exportFileName(plan: PlanView, ext: string): string {
 const overlapsNight = (b: { start: number; end: number }, nights: PlanTimeline['nightWindows']) =>
   nights.some((w) => b.start < w.end && b.end > w.start);
 
+/** The station notes at each block of a crew member's day, as cue-card lines, by block index. */
+function noteLines(timeline: PlanTimeline, member: 'EV1' | 'EV2'): Map<number, string[]> {
+  const out = new Map<number, string[]>();
+  for (const n of timeline.stationNotes ?? [])
+    for (const p of n.places)
+      if (p.crew === member)
+        out.set(p.block, [...(out.get(p.block) ?? []), `NOTE at ${n.nodeKey}: ${n.title}`]);
+  return out;
+}
+
+function withNotes(step: CueStep, lines: string[] | undefined): CueStep {
+  return lines ? { ...step, details: [...(step.details ?? []), ...lines] } : step;
+}
+
 function cueStep(plan: PlanView, b: TimelineBlock, timeline: PlanTimeline, member: 'EV1' | 'EV2'): CueStep {
   const night = overlapsNight(b, timeline.nightWindows);
   const base = { start: b.start, end: b.end, kind: b.type, night };
@@ -171,12 +185,15 @@ export function cueCardDocument(plan: PlanView, timeline: PlanTimeline): CueCard
     const tools = plan.manifest
       .filter((m) => m.carriedBy === member && m.startsAt === 'airlock' && !m.installedAt)
       .map((m) => (m.quantity > 1 ? `${m.name} ×${m.quantity}` : m.name));
+    const notes = noteLines(timeline, member);
     return {
       member,
       name: plan.crew[member].name,
       tetherLengthM: plan.crew[member].tetherLengthM,
       tools,
-      steps: timeline.crew[member].blocks.map((b) => cueStep(plan, b, timeline, member)),
+      steps: timeline.crew[member].blocks.map((b, k) =>
+        withNotes(cueStep(plan, b, timeline, member), notes.get(k)),
+      ),
     };
   });
   return {

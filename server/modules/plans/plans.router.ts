@@ -31,6 +31,7 @@ import { comparePlans, listPlanRevisions, previousSubmissionVersion } from './pl
 import type { PlanDetail } from '@shared/schemas/plan-views';
 import { exportFileName } from './plan-export.service';
 import { answered, atParam } from '../events/changes';
+import { openNodeNotes } from '../annotations/annotations.service';
 
 const ReviewBodySchema = ReviewActionInputSchema.extend({ version: VersionSchema });
 /** `stationVersion`: the station version the reviewer saw the plan computed on; stale → 409 */
@@ -170,7 +171,11 @@ export function plansRouter(ctx: AppContext) {
         const { result } = await planDayOutput(ctx, params.id, 'timeline', {
           plan,
           start: await seriesStartOf(ctx, plan),
-          extra: { stationChangedSinceApproval, stationChanges },
+          extra: {
+            stationChangedSinceApproval,
+            stationChanges,
+            notes: openNodeNotes(ctx.db, plan.stationId),
+          },
         });
         return new JsonText('text' in result ? result.text : '');
       },
@@ -225,6 +230,7 @@ export function plansRouter(ctx: AppContext) {
         const { result } = await planDayOutput(ctx, params.id, 'pdf', {
           plan,
           start: await seriesStartOf(ctx, plan),
+          extra: { notes: openNodeNotes(ctx.db, plan.stationId) },
         });
         const pdf = 'bytes' in result ? Buffer.from(result.bytes) : Buffer.alloc(0);
         res.type('application/pdf').attachment(exportFileName(plan, 'pdf')).send(pdf);

@@ -5,6 +5,7 @@ import { plans, stations, users, walkthroughs } from '../../db/schema';
 import { badRequest, notFound, staleVersion } from '../../lib/http-error';
 import { planPlaybackOf, positionsOf } from '@shared/compute/plan-playback';
 import { routeWalkthrough } from '@shared/compute/walkthrough';
+import { notesOnSteps } from '@shared/compute/station-notes';
 import type { StationDocument, Vec3 } from '@shared/schemas/station';
 import {
   routeSummaryText,
@@ -20,6 +21,7 @@ import {
   type WalkthroughSummary,
 } from '@shared/schemas/walkthrough';
 import { recordActivity } from '../activity/activity.service';
+import { openNodeNotes } from '../annotations/annotations.service';
 import { getCompiledStation } from '../compute/compiled-cache';
 import { routeOn } from '../compute/compute.service';
 import { planTimeline } from '../plans/plan-timeline.service';
@@ -180,7 +182,7 @@ function changeNotice(kind: 'plan' | 'route', based: number, current: number) {
 
 export function walkthroughDetail(ctx: AppContext, id: number): WalkthroughDetail {
   const walkthrough = getWalkthrough(ctx.db, id);
-  let detail: Omit<WalkthroughDetail, 'changedSince' | 'notice' | 'walkthrough' | 'caution'>;
+  let detail: Omit<WalkthroughDetail, 'changedSince' | 'notice' | 'walkthrough' | 'caution' | 'stationNotes'>;
   if (walkthrough.planId !== null) {
     const { playback, planVersion } = planPlayback(ctx, walkthrough.planId);
     detail = { playback, currentVersion: planVersion };
@@ -195,9 +197,16 @@ export function walkthroughDetail(ctx: AppContext, id: number): WalkthroughDetai
         };
   }
   const changedSince = detail.currentVersion !== walkthrough.basedOnVersion;
+  const playback = detail.playback;
+  const steps = !playback
+    ? []
+    : playback.kind === 'plan'
+      ? [...playback.crews.EV1.steps, ...playback.crews.EV2.steps]
+      : playback.track.steps;
   return {
     walkthrough,
     ...detail,
+    stationNotes: steps.length ? notesOnSteps(openNodeNotes(ctx.db, walkthrough.stationId), steps) : [],
     changedSince,
     ...(changedSince
       ? { notice: changeNotice(walkthrough.kind, walkthrough.basedOnVersion, detail.currentVersion) }
