@@ -71,7 +71,11 @@ describe('station notes on a plan’s day (the line station, worked by hand)', (
     const ev1Out = walk.crews.EV1.steps.find((s) => s.type === 'translate' && s.via?.includes(K.w1));
     expect(ev1Out).toBeDefined();
     expect(onSteps.find((n) => n.id === 1)!.steps).toContain(ev1Out!.id);
-    expect(onSteps.find((n) => n.id === 3)!.steps).toContain(ev1Out!.id);
+    const ev1Steps = new Map(walk.crews.EV1.steps.map((s) => [s.id, s]));
+    for (const id of onSteps.find((n) => n.id === 3)!.steps) {
+      const s = ev1Steps.get(id)!;
+      expect([s.fromKey, ...(s.via ?? []), s.nodeKey, s.clipKey, s.releaseKey]).toContain(K.a3);
+    }
   });
 });
 
