@@ -31,6 +31,8 @@ export interface CueCardDocument {
   nightWindows: { start: number; end: number }[];
   warnings: string[];
   formatTime: (seconds: number) => string;
+  /** the GMT clock time of an elapsed time, when the plan has a start time: shown under each step's times */
+  formatGmt?: (seconds: number) => string;
 }
 
 const fontDir = path.join(path.dirname(createRequire(import.meta.url).resolve('@fontsource/inter')), 'files');
@@ -121,6 +123,10 @@ export function buildCueCardPdf(input: CueCardDocument): Promise<Buffer> {
         .fontSize(7)
         .fillColor(MUTED)
         .text(KIND_LABEL[step.kind] + (step.night ? ' · NIGHT' : ''), MARGIN, top + 11, { width: 62 });
+      if (input.formatGmt)
+        doc.text(`${input.formatGmt(step.start)}–${input.formatGmt(step.end)} GMT`, MARGIN, top + 20, {
+          width: 62,
+        });
       doc
         .font('Inter')
         .fontSize(9)
@@ -133,7 +139,7 @@ export function buildCueCardPdf(input: CueCardDocument): Promise<Buffer> {
           .text(pdfSafe(d), MARGIN + 74, doc.y, { width: width - 74 });
       }
       doc.x = MARGIN;
-      doc.y = Math.max(doc.y, top + 20) + 4;
+      doc.y = Math.max(doc.y, top + (input.formatGmt ? 29 : 20)) + 4;
     }
   });
   if (input.warnings.length) {

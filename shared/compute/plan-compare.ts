@@ -119,7 +119,8 @@ export function comparePlanRevisions(
     field(`crew.${m}.name`, a.crew[m].name, b.crew[m].name);
     field(`crew.${m}.tetherLengthM`, a.crew[m].tetherLengthM, b.crew[m].tetherLengthM);
   }
-  for (const k of PLAN_SETTING_KEYS) field(k, a[k], b[k]);
+  // a setting an older revision lacks (a start time, say) is the same as one set to nothing
+  for (const k of PLAN_SETTING_KEYS) field(k, a[k] ?? null, b[k] ?? null);
   const change = <T>(x: T, y: T): Change<T> => ({ from: x, to: y });
   const crewDay = (m: CrewMember): CrewDayChange => ({
     endSeconds: change(crewEnd(dayA, m), crewEnd(dayB, m)),

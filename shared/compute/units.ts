@@ -46,6 +46,43 @@ export function formatElapsed(seconds: number, options: { withSeconds?: boolean 
   return options.withSeconds ? `${sign}${h}:${mm}:${String(s).padStart(2, '0')}` : `${sign}${h}:${mm}`;
 }
 
+/**
+ * The GMT clock time `seconds` of EVA elapsed time after `startGmt` (an ISO date and time): `HH:MM`
+ * (the nearest minute) or, with `withSeconds`, `HH:MM:SS`. Wraps past midnight like a clock.
+ */
+export function formatGmt(
+  startGmt: string,
+  seconds: number,
+  options: { withSeconds?: boolean } = {},
+): string {
+  const at = Date.parse(startGmt) + seconds * 1000;
+  if (!Number.isFinite(at)) return '–';
+  const unit = options.withSeconds ? 1000 : 60_000;
+  const text = new Date(Math.round(at / unit) * unit).toISOString();
+  return text.slice(11, options.withSeconds ? 19 : 16);
+}
+
+const GMT_TIME_RE = /^([01]?\d|2[0-3]):([0-5]\d)$/;
+const GMT_DATE_TIME_RE = /^(\d{4}-\d{2}-\d{2})[ T]([01]\d|2[0-3]):([0-5]\d)$/;
+
+/**
+ * Reads a start time typed in the UI: `09:30` (GMT on `date`) or `2031-06-12 09:30` (another day);
+ * blank is no start time. The value is `YYYY-MM-DDTHH:MM:00Z`.
+ */
+export function parseGmtStart(
+  text: string,
+  date: string,
+): { ok: true; value: string | null } | { ok: false; message: string } {
+  const t = text.trim();
+  if (t === '') return { ok: true, value: null };
+  const time = GMT_TIME_RE.exec(t);
+  if (time) return { ok: true, value: `${date}T${time[1].padStart(2, '0')}:${time[2]}:00Z` };
+  const full = GMT_DATE_TIME_RE.exec(t);
+  if (full && Number.isFinite(Date.parse(`${full[1]}T00:00:00Z`)))
+    return { ok: true, value: `${full[1]}T${full[2]}:${full[3]}:00Z` };
+  return { ok: false, message: 'enter a GMT time as hh:mm (or YYYY-MM-DD hh:mm for another day)' };
+}
+
 /** Seconds as minutes: `36 min`, or `36.1 min` with one digit. */
 export function formatMinutes(seconds: number, digits = 0): string {
   if (!Number.isFinite(seconds)) return '–';

@@ -423,6 +423,13 @@ const planFields = {
     (v) => v >= -90 && v <= 90,
     'beta angle must be between -90 and 90 degrees',
   ),
+  /**
+   * GMT when the EVA clock starts: an ISO date and time, or an ISO time of day (GMT on the plan's
+   * date); kept as `YYYY-MM-DDTHH:MM:SSZ`
+   */
+  startGmt: z.union([z.iso.datetime({ offset: true }), z.iso.time()], {
+    error: 'start must be an ISO date and time (2031-06-12T09:30:00Z) or a GMT time of day (09:30)',
+  }),
   timeLimitSeconds: seconds('time limit', 60),
   egressSeconds: seconds('egress block', 0),
   ingressSeconds: seconds('ingress block', 0),
@@ -438,6 +445,7 @@ export const CreatePlanInputSchema = z.strictObject({
   allowRide: planFields.allowRide.default(false),
   orbitPhaseAtStartDeg: planFields.orbitPhaseAtStartDeg.default(0),
   betaDegOverride: planFields.betaDegOverride.optional(),
+  startGmt: planFields.startGmt.nullable().optional(),
   timeLimitSeconds: planFields.timeLimitSeconds.default(DEFAULT_TIME_LIMIT_SECONDS),
   egressSeconds: planFields.egressSeconds.default(DEFAULT_EGRESS_SECONDS),
   ingressSeconds: planFields.ingressSeconds.default(DEFAULT_INGRESS_SECONDS),
@@ -450,6 +458,7 @@ export type CreatePlanInput = z.infer<typeof CreatePlanInputSchema>;
 export const UpdatePlanInputSchema = z.strictObject(planFields).partial().extend({
   // null clears the override
   betaDegOverride: planFields.betaDegOverride.nullable().optional(),
+  startGmt: planFields.startGmt.nullable().optional(),
   version: VersionSchema,
 });
 export type UpdatePlanInput = z.infer<typeof UpdatePlanInputSchema>;
@@ -482,6 +491,7 @@ export const PlanSchema = z.strictObject({
   id: IdSchema,
   ...CreatePlanInputSchema.shape,
   betaDegOverride: planFields.betaDegOverride.nullable().optional(),
+  startGmt: z.string().nullable().optional(),
   status: PlanStatusSchema,
   version: VersionSchema,
   authorId: IdSchema.nullable(),
@@ -503,20 +513,36 @@ export const PLAN_SETTING_KEYS = [
   'allowRide',
   'orbitPhaseAtStartDeg',
   'betaDegOverride',
+  'startGmt',
   'timeLimitSeconds',
   'egressSeconds',
   'ingressSeconds',
 ] as const;
 type PlanSettingKey = (typeof PLAN_SETTING_KEYS)[number];
 
-/** The settings with "no beta override" as null, which survives JSON where undefined does not. */
-export type PlanSettings = Pick<Plan, Exclude<PlanSettingKey, 'betaDegOverride'>> & {
+/** The settings with "no beta override" and "no start time" as null, which survives JSON where undefined does not. */
+type NullableSetting = 'betaDegOverride' | 'startGmt';
+export type PlanSettings = Pick<Plan, Exclude<PlanSettingKey, NullableSetting>> & {
   betaDegOverride: number | null;
+  startGmt: string | null;
 };
 
 export function planSettingsOf(
-  p: Pick<Plan, Exclude<PlanSettingKey, 'betaDegOverride'>> & { betaDegOverride?: number | null },
+  p: Pick<Plan, Exclude<PlanSettingKey, NullableSetting>> & {
+    betaDegOverride?: number | null;
+    startGmt?: string | null;
+  },
 ): PlanSettings {
   const settings = Object.fromEntries(PLAN_SETTING_KEYS.map((k) => [k, p[k]])) as PlanSettings;
-  return { ...settings, betaDegOverride: p.betaDegOverride ?? null };
+  return { ...settings, betaDegOverride: p.betaDegOverride ?? null, startGmt: p.startGmt ?? null };
+}
+
+/**
+ * A plan's start as it is kept: `YYYY-MM-DDTHH:MM:SSZ` in GMT; a time of day alone is on `date`.
+ * Null stays null (no start time).
+ */
+export function startGmtOn(value: string | null | undefined, date: string): string | null {
+  if (value === null || value === undefined) return null;
+  const iso = value.includes('T') ? value : `${date}T${value}Z`;
+  return new Date(Date.parse(iso)).toISOString().replace(/\.\d{3}Z$/, 'Z');
 }

@@ -75,7 +75,7 @@ export interface RunSummary {
 export interface RunView extends Omit<RunProjection, 'planned' | 'projected'> {
   run: RunSummary;
   /** the plan as it was when the run opened */
-  plan: Pick<PlanView, 'id' | 'title' | 'stationId' | 'crew' | 'tasks'>;
+  plan: Pick<PlanView, 'id' | 'title' | 'stationId' | 'crew' | 'tasks'> & { startGmt: string | null };
   airlockKey: string;
   events: RunEvent[];
   /** the approved day and the re-projected one, as the timeline travels on the wire */

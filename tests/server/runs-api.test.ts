@@ -264,12 +264,17 @@ describe('runs of an approved plan', () => {
     expect(res.headers['content-type']).toMatch(/^text\/csv/);
     const lines = res.text.split('\r\n');
     expect(lines[0]).toBe(
-      'task,crew,worksite,planned start (min),planned end (min),planned (min),flown start (min),flown end (min),flown (min),flown minus planned (min)',
+      'task,crew,worksite,planned start (min),planned end (min),planned (min),flown start (min),flown end (min),flown (min),flown minus planned (min),planned start (GMT),flown start (GMT)',
     );
     const first = lines.find((l) => l.startsWith('Open the cover,EV1,'))!.split(',');
-    expect(first.slice(5)).toEqual(['10', first[3], String(Number(first[3]) + 15), '15', '5']);
+    expect(first.slice(5, 10)).toEqual(['10', first[3], String(Number(first[3]) + 15), '15', '5']);
+    // the run started at 08:00 GMT; the plan has no start time
+    // (minutes shown to 0.1, the clock to the nearest minute)
+    expect(first[10]).toBe('');
+    const [h, m] = first[11].split(':').map(Number);
+    expect(Math.abs(h * 60 + m - (8 * 60 + Number(first[6])))).toBeLessThanOrEqual(0.55);
     const notFlown = lines.find((l) => l.startsWith('Inspect the site,EV2,'))!.split(',');
-    expect(notFlown.slice(6)).toEqual(['', '', '', '']);
+    expect(notFlown.slice(6)).toEqual(['', '', '', '', '', '']);
     expect(res.text).toContain('planning aid');
   });
 });

@@ -4,8 +4,10 @@ import {
   METRES_PER_FOOT,
   feetToMetres,
   formatElapsed,
+  formatGmt,
   formatLength,
   formatMinutes,
+  parseGmtStart,
   metresToFeet,
   parseDuration,
   parseLength,
@@ -65,6 +67,35 @@ describe('elapsed time', () => {
     expect(formatElapsed(3661, { withSeconds: true })).toBe('1:01:01');
     expect(formatElapsed(-900)).toBe('-0:15');
     expect(formatElapsed(36 * 3600 + 5 * 60)).toBe('36:05');
+  });
+
+  it('GMT clock times from a start and elapsed seconds (worked by hand)', () => {
+    expect(formatGmt('2031-06-12T09:30:00Z', 0)).toBe('09:30');
+    expect(formatGmt('2031-06-12T09:30:00Z', 6.5 * 3600 + 29)).toBe('16:00');
+    expect(formatGmt('2031-06-12T09:30:00Z', 3661, { withSeconds: true })).toBe('10:31:01');
+    // an offset is read as the moment it names; past midnight the clock wraps
+    expect(formatGmt('2031-06-12T23:30:00+02:00', 3 * 3600)).toBe('00:30');
+    expect(formatGmt('not a time', 0)).toBe('–');
+  });
+
+  it('GMT clock minus the start is the elapsed time, to the minute (fast-check)', () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 0, max: 23 * 3600 }), (s) => {
+        const [h, m] = formatGmt('2031-06-12T00:00:00Z', s).split(':').map(Number);
+        expect(h * 60 + m).toBe(Math.round(s / 60) % (24 * 60));
+      }),
+    );
+  });
+
+  it('reads a typed start: hh:mm on the plan date, a date and time, or blank for none', () => {
+    expect(parseGmtStart('9:05', '2031-06-12')).toEqual({ ok: true, value: '2031-06-12T09:05:00Z' });
+    expect(parseGmtStart(' 2031-06-13 00:10 ', '2031-06-12')).toEqual({
+      ok: true,
+      value: '2031-06-13T00:10:00Z',
+    });
+    expect(parseGmtStart('', '2031-06-12')).toEqual({ ok: true, value: null });
+    for (const bad of ['24:00', '9.05', '2031-13-40 09:00', 'noon'])
+      expect(parseGmtStart(bad, '2031-06-12').ok).toBe(false);
   });
 
   it('formats minutes', () => {

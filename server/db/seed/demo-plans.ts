@@ -162,6 +162,7 @@ export function demoPlanInputs(stationId: number): {
     title: 'External camera boom install',
     stationId,
     date: '2031-04-03',
+    startGmt: '2031-04-03T13:05:00Z',
     crew: {
       EV1: { name: 'Lena Harrowgate', tetherLengthM: 25.9 },
       EV2: { name: 'Tariq Olufemi', tetherLengthM: 16.8 },

@@ -1,6 +1,6 @@
 import { toCsv } from '../../lib/csv';
 import { buildCueCardPdf, type CueCardDocument, type CueStep } from '../../lib/pdf';
-import { formatElapsed } from '@shared/compute/units';
+import { formatElapsed, formatGmt } from '@shared/compute/units';
 import type { TimelineBlock } from '@shared/compute/day/types';
 import { describeAction, tetherAfterBlocks } from '@shared/compute/day/describe';
 import type { PlanView } from './plans.service';
@@ -21,6 +21,8 @@ export const CSV_HEADER = [
   'tether_out_m',
   'equipment',
   'notes',
+  'start_gmt',
+  'end_gmt',
 ];
 
 /** What the crew member does with items in this block: the task's actions, on its work block. */
@@ -67,6 +69,7 @@ export function armStepText(b: TimelineBlock, member: 'EV1' | 'EV2'): string {
 /** One row per timeline block, both crew members, in time order within each. */
 export function timelineCsv(plan: PlanView, timeline: PlanTimeline): string {
   const rows: (string | number)[][] = [];
+  const gmt = (seconds: number) => (plan.startGmt ? formatGmt(plan.startGmt, seconds) : '');
   for (const member of ['EV1', 'EV2'] as const) {
     const blocks = timeline.crew[member].blocks;
     const tethers = tetherAfterBlocks(blocks, timeline.airlockKey);
@@ -87,6 +90,8 @@ export function timelineCsv(plan: PlanView, timeline: PlanTimeline): string {
         Math.round(tethers[k].paidOutM * 10) / 10,
         equipmentSteps(plan, b, member).join('; '),
         blockNotes(b, member),
+        gmt(b.start),
+        gmt(b.end),
       ]);
     });
   }
@@ -196,14 +201,16 @@ export function cueCardDocument(plan: PlanView, timeline: PlanTimeline): CueCard
       ),
     };
   });
+  const start = plan.startGmt;
   return {
     title: plan.title,
-    subtitle: `${plan.stationName} · ${plan.date} · ${plan.status} · version ${plan.version} · ends ${formatElapsed(timeline.endSeconds)} of ${formatElapsed(timeline.timeLimitSeconds)}`,
+    subtitle: `${plan.stationName} · ${plan.date}${start ? ` · starts ${formatGmt(start, 0)} GMT` : ''} · ${plan.status} · version ${plan.version} · ends ${formatElapsed(timeline.endSeconds)} of ${formatElapsed(timeline.timeLimitSeconds)}`,
     caution: timeline.caution,
     cards,
     nightWindows: timeline.nightWindows,
     warnings: timeline.warnings.map((w) => w.message),
     formatTime: (s) => formatElapsed(s),
+    ...(start ? { formatGmt: (s: number) => formatGmt(start, s) } : {}),
   };
 }
 

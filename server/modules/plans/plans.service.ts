@@ -22,6 +22,7 @@ import {
   PLAN_SETTING_KEYS,
   planReferenceProblems,
   planSettingsOf,
+  startGmtOn,
   withItemKeys,
   withOwnSockets,
   type CreatePlanInput,
@@ -156,6 +157,7 @@ export function getPlan(db: Db, id: number): PlanView {
     date: p.date,
     crew: { EV1: slot('EV1'), EV2: slot('EV2') },
     ...settings,
+    startGmt: settings.startGmt ?? null,
     tasks: taskRows.map((t): Task => ({
       id: t.id,
       title: t.title,
@@ -397,7 +399,7 @@ function audit(
 export function createPlan(ctx: AppContext, input: CreatePlanInput, actor: Actor): PlanView {
   const doc = stationDocFor(ctx, input.stationId);
   assertKeys(doc, input.tasks, input.manifest);
-  const settings = planSettingsOf(input);
+  const settings = { ...planSettingsOf(input), startGmt: startGmtOn(input.startGmt, input.date) };
   const plan = ctx.db.transaction((tx) => {
     const db = tx as unknown as Db;
     const row = db
@@ -475,6 +477,7 @@ export function updatePlan(ctx: AppContext, id: number, input: UpdatePlanInput, 
   const settings: PlanSettings = planSettingsOf(current);
   for (const k of PLAN_SETTING_KEYS)
     if (input[k] !== undefined) (settings as unknown as Record<string, unknown>)[k] = input[k];
+  settings.startGmt = startGmtOn(settings.startGmt, input.date ?? current.date);
   const plan = ctx.db.transaction((tx) => {
     const db = tx as unknown as Db;
     const before = getPlan(db, id);

@@ -21,7 +21,14 @@ export function runViewOn(station: DayStationVersion, plan: PlanView, work: RunW
   return {
     ...rest,
     run: work.run,
-    plan: { id: plan.id, title: plan.title, stationId: plan.stationId, crew: plan.crew, tasks: plan.tasks },
+    plan: {
+      id: plan.id,
+      title: plan.title,
+      stationId: plan.stationId,
+      crew: plan.crew,
+      tasks: plan.tasks,
+      startGmt: plan.startGmt ?? null,
+    },
     airlockKey: day.airlockKey,
     events: work.events,
     planned: toWire(planned),

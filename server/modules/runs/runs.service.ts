@@ -19,6 +19,7 @@ import { fromWire } from '@shared/compute/day/wire';
 import type { RunView } from '@shared/schemas/run';
 import { PLANNING_CAUTION } from '@shared/caution';
 import { toCsv } from '../../lib/csv';
+import { formatGmt } from '@shared/compute/units';
 import { planDayOutput } from '../plans/plan-timeline.service';
 import { getPlan, type Actor } from '../plans/plans.service';
 
@@ -215,6 +216,8 @@ export async function runAsFlownCsv(ctx: AppContext, runId: number): Promise<str
       minutes(r.flownEnd),
       minutes(flown),
       flown === null ? '' : minutes(flown - (r.plannedEnd - r.plannedStart)),
+      view.plan.startGmt ? formatGmt(view.plan.startGmt, r.plannedStart) : '',
+      r.flownStart === null ? '' : formatGmt(view.run.startedAt, r.flownStart),
     ];
   });
   const header = [
@@ -228,6 +231,8 @@ export async function runAsFlownCsv(ctx: AppContext, runId: number): Promise<str
     'flown end (min)',
     'flown (min)',
     'flown minus planned (min)',
+    'planned start (GMT)',
+    'flown start (GMT)',
   ];
   return `${toCsv(header, rows)}\r\n\r\n${toCsv(['note'], [[PLANNING_CAUTION]])}\r\n`;
 }

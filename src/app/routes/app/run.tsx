@@ -10,7 +10,7 @@ import { requireUser, useCan, useUser } from '@/lib/authorization';
 import { PresenceList } from '@/features/live/components/presence-list';
 import { usePlanPresence } from '@/features/live/live-updates';
 import { getRunQueryOptions } from '@/features/runs/api/get-run';
-import { RunClock, useElapsed } from '@/features/runs/components/run-clock';
+import { PlannedStart, RunClock, useElapsed } from '@/features/runs/components/run-clock';
 import { RunLanes } from '@/features/runs/components/run-lanes';
 import { RunLogger } from '@/features/runs/components/run-logger';
 import { RunSummary } from '@/features/runs/components/run-summary';
@@ -75,6 +75,7 @@ export default function RunRoute() {
               As flown (CSV)
             </a>{' '}
             · {view.events.length} logged · started {view.run.startedAt.slice(0, 19).replace('T', ' ')} GMT
+            {view.plan.startGmt && <PlannedStart planned={view.plan.startGmt} started={view.run.startedAt} />}
           </p>
           <PresenceList viewers={viewers} selfId={user.id} />
         </div>
@@ -89,6 +90,7 @@ export default function RunRoute() {
           actual={view.actual}
           titleOf={titleOf}
           crewNames={crewNames}
+          startedAt={view.run.startedAt}
         />
       </Panel>
       <div className="grid gap-4 lg:grid-cols-[3fr_2fr]">

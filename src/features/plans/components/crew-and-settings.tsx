@@ -1,7 +1,7 @@
-import { useCallback } from 'react';
+import { useCallback, useEffect, useMemo, useRef } from 'react';
 import { z } from 'zod';
 import type { OrbitArcs } from '@shared/compute/orbit';
-import { formatLength, metresToFeet } from '@shared/compute/units';
+import { formatLength, metresToFeet, parseGmtStart } from '@shared/compute/units';
 import { CrewSlotSchema, type Crew, type CrewMember } from '@shared/schemas/plan';
 import { ROUTE_MODES, type RouteMode } from '@shared/schemas/route';
 import { Field } from '@/components/ui/field';
@@ -73,9 +73,35 @@ export function CrewEditor({ draft, onChange, readOnly }: Props) {
   );
 }
 
+/** A start time on the plan's date shows as `hh:mm`, on another day with its date. */
+const startText = (date: string) => (v: string | null) =>
+  v === null ? '' : v.slice(0, 10) === date ? v.slice(11, 16) : `${v.slice(0, 10)} ${v.slice(11, 16)}`;
+
+const startSchema = (date: string) =>
+  z.string().transform((text, ctx) => {
+    const result = parseGmtStart(text, date);
+    if (result.ok) return result.value;
+    ctx.addIssue({ code: 'custom', message: result.message });
+    return z.NEVER;
+  });
+
 export function SettingsEditor({ draft, onChange, readOnly, arcs }: SettingsProps) {
   const titleError = planField.title.safeParse(draft.title).success ? undefined : 'title must not be empty';
   const dateOk = z.iso.date().safeParse(draft.date).success;
+  const formatStart = useMemo(() => startText(draft.date), [draft.date]);
+  const startTextSchema = useMemo(() => startSchema(draft.date), [draft.date]);
+  // a start on the EVA date moves with it (the date field is blank for a moment while retyped)
+  const lastDate = useRef(draft.date);
+  useEffect(() => {
+    if (dateOk) lastDate.current = draft.date;
+  }, [dateOk, draft.date]);
+  const setDate = (date: string) =>
+    onChange({
+      date,
+      ...(draft.startGmt?.slice(0, 10) === lastDate.current && z.iso.date().safeParse(date).success
+        ? { startGmt: `${date}${draft.startGmt.slice(10)}` }
+        : {}),
+    });
   return (
     <div className="grid gap-4 md:grid-cols-3">
       <Field label="Title" error={titleError}>
@@ -92,9 +118,18 @@ export function SettingsEditor({ draft, onChange, readOnly, arcs }: SettingsProp
           type="date"
           value={draft.date}
           readOnly={readOnly}
-          onChange={(e) => onChange({ date: e.target.value })}
+          onChange={(e) => setDate(e.target.value)}
         />
       </Field>
+      <ParsedInput<string>
+        label="Start (GMT)"
+        hint="hh:mm GMT on the EVA date; blank: elapsed time only"
+        value={draft.startGmt}
+        format={formatStart}
+        schema={startTextSchema}
+        readOnly={readOnly}
+        onCommit={(v) => onChange({ startGmt: v })}
+      />
       <Field label="Route mode">
         <Select
           options={ROUTE_MODES.map((m) => ({ value: m, label: ROUTE_MODE_LABELS[m] }))}

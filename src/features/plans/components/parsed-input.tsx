@@ -4,14 +4,14 @@ import { Field } from '@/components/ui/field';
 import { Input } from '@/components/ui/input';
 import { useReportFieldError } from '../lib/field-validity';
 
-interface ParsedInputProps {
+interface ParsedInputProps<T> {
   label: string;
   hint?: string;
-  value: number | null;
-  format: (value: number | null) => string;
-  /** the field's schema, e.g. `lengthText(...)`: text in, the stored number out */
-  schema: z.ZodType<number | null | undefined, string>;
-  onCommit: (value: number | null) => void;
+  value: T | null;
+  format: (value: T | null) => string;
+  /** the field's schema, e.g. `lengthText(...)`: text in, the stored value out */
+  schema: z.ZodType<T | null | undefined, string>;
+  onCommit: (value: T | null) => void;
   readOnly: boolean;
 }
 
@@ -19,7 +19,15 @@ interface ParsedInputProps {
  * A number typed as text (`85 ft`, `1:30`): the draft changes only when the text reads as a valid
  * value, so half-typed input never reaches a save.
  */
-export function ParsedInput({ label, hint, value, format, schema, onCommit, readOnly }: ParsedInputProps) {
+export function ParsedInput<T = number>({
+  label,
+  hint,
+  value,
+  format,
+  schema,
+  onCommit,
+  readOnly,
+}: ParsedInputProps<T>) {
   const [text, setText] = useState(() => format(value));
   const [error, setError] = useState<string>();
   const focused = useRef(false);

@@ -165,6 +165,7 @@ export function PlanEditor({ plan, user, nodes, orbit, rehearseHref, extra, DayV
                 <TimelineChart
                   timeline={tl}
                   tasks={plan.tasks}
+                  startGmt={plan.startGmt}
                   {...(DayView
                     ? {
                         cursor,
@@ -173,7 +174,11 @@ export function PlanEditor({ plan, user, nodes, orbit, rehearseHref, extra, DayV
                     : {})}
                 />
                 {DayView && <DayView timeline={tl} plan={plan} focus={focus} onTime={setCursor} />}
-                <TimelineTotals timeline={tl} names={{ EV1: plan.crew.EV1.name, EV2: plan.crew.EV2.name }} />
+                <TimelineTotals
+                  timeline={tl}
+                  names={{ EV1: plan.crew.EV1.name, EV2: plan.crew.EV2.name }}
+                  startGmt={plan.startGmt}
+                />
               </>
             ) : timeline.error ? (
               <FormError error={timeline.error} fallback="The timeline could not be computed." />

@@ -3,7 +3,7 @@ import type { CrewMember, Task } from '@shared/schemas/plan';
 import type { TimelineBlock, TimelineBlockType } from '@shared/compute/day/types';
 import type { RouteFeasible } from '@shared/schemas/route';
 import { describeSwap } from '@shared/compute/day/describe';
-import { formatElapsed, formatLength } from '@shared/compute/units';
+import { formatElapsed, formatGmt, formatLength } from '@shared/compute/units';
 import { palette } from '../../../../tailwind.config';
 import type { PlanTimeline } from '../types';
 
@@ -82,10 +82,12 @@ export function BlockDetails({
   active,
   tasks,
   routes,
+  startGmt,
 }: {
   active: ActiveBlock | null;
   tasks: readonly Task[];
   routes: readonly RouteFeasible[];
+  startGmt?: string | null;
 }) {
   if (!active) {
     return <p className="text-sm text-text-muted">Point at or focus a block to see its times and route.</p>;
@@ -98,7 +100,8 @@ export function BlockDetails({
         {crew} · {BLOCK_NAMES[block.type]} · {blockTitle(block, tasks)}
       </p>
       <p>
-        {formatElapsed(block.start)}–{formatElapsed(block.end)} elapsed (
+        {formatElapsed(block.start)}–{formatElapsed(block.end)} elapsed
+        {startGmt && ` · ${formatGmt(startGmt, block.start)}–${formatGmt(startGmt, block.end)} GMT`} (
         {formatElapsed(block.end - block.start, { withSeconds: true })})
         {block.unreached && <span className="ml-2 font-semibold text-danger">⚠ worksite not reached</span>}
       </p>
@@ -354,6 +357,8 @@ interface TimelineChartProps {
   onPick?: (pick: ActiveBlock) => void;
   /** the time shown in the 3D day, drawn as a line across both lanes */
   cursor?: number;
+  /** the plan's start: GMT clock times beside elapsed ones */
+  startGmt?: string | null;
 }
 
 /** Tasks the day warns are eclipse-only but not wholly inside a night window. */
@@ -366,7 +371,7 @@ function outsideNight(timeline: PlanTimeline): Set<number> {
 }
 
 /** The two-person day: one lane per crew member over the orbit's night bands, on elapsed time. */
-export function TimelineChart({ timeline, tasks, onPick, cursor }: TimelineChartProps) {
+export function TimelineChart({ timeline, tasks, onPick, cursor, startGmt }: TimelineChartProps) {
   const [active, setActive] = useState<ActiveBlock | null>(null);
   const dayNeeded = outsideNight(timeline);
   const detailsId = useId();
@@ -378,7 +383,8 @@ export function TimelineChart({ timeline, tasks, onPick, cursor }: TimelineChart
   const limitX = x(timeline.timeLimitSeconds);
   const armLanes = timeline.arms ?? [];
   const AXIS_Y = axisYBelow(CREW.length + armLanes.length);
-  const H = AXIS_Y + 40;
+  const gmtRow = startGmt ? 13 : 0;
+  const H = AXIS_Y + 40 + gmtRow;
 
   return (
     <div className="space-y-3">
@@ -534,7 +540,7 @@ export function TimelineChart({ timeline, tasks, onPick, cursor }: TimelineChart
           />
           <text
             x={limitX + 4}
-            y={AXIS_Y + 34}
+            y={AXIS_Y + 34 + gmtRow}
             fontSize="11"
             fontWeight="600"
             textAnchor="end"
@@ -549,6 +555,11 @@ export function TimelineChart({ timeline, tasks, onPick, cursor }: TimelineChart
               <text x={x(t)} y={AXIS_Y + 18} fontSize="11" textAnchor="middle" fill={palette.text.muted}>
                 {formatElapsed(t)}
               </text>
+              {startGmt && (
+                <text x={x(t)} y={AXIS_Y + 31} fontSize="10" textAnchor="middle" fill={palette.text.muted}>
+                  {formatGmt(startGmt, t)}
+                </text>
+              )}
             </g>
           ))}
         </g>
@@ -559,7 +570,7 @@ export function TimelineChart({ timeline, tasks, onPick, cursor }: TimelineChart
         aria-live="polite"
         className="min-h-16 rounded-md border border-surface-line bg-surface-sunken px-4 py-3"
       >
-        <BlockDetails active={active} tasks={tasks} routes={timeline.routes} />
+        <BlockDetails active={active} tasks={tasks} routes={timeline.routes} startGmt={startGmt} />
       </div>
     </div>
   );

@@ -1,5 +1,5 @@
 import type { CrewMember } from '@shared/schemas/plan';
-import { formatElapsed } from '@shared/compute/units';
+import { formatElapsed, formatGmt } from '@shared/compute/units';
 import { Table, Td, Th } from '@/components/ui/table';
 import type { PlanTimeline } from '../types';
 
@@ -8,9 +8,11 @@ const CREW: CrewMember[] = ['EV1', 'EV2'];
 export function TimelineTotals({
   timeline,
   names,
+  startGmt,
 }: {
   timeline: PlanTimeline;
   names: Record<CrewMember, string>;
+  startGmt?: string | null;
 }) {
   const over = timeline.marginSeconds < 0;
   return (
@@ -47,7 +49,9 @@ export function TimelineTotals({
         </tbody>
       </Table>
       <p className="text-sm" data-testid="timeline-margin">
-        Day ends at <strong>{formatElapsed(timeline.endSeconds)}</strong> elapsed against a limit of{' '}
+        {startGmt && <>Starts at {formatGmt(startGmt, 0)} GMT. </>}
+        Day ends at <strong>{formatElapsed(timeline.endSeconds)}</strong> elapsed
+        {startGmt && ` (${formatGmt(startGmt, timeline.endSeconds)} GMT)`} against a limit of{' '}
         {formatElapsed(timeline.timeLimitSeconds)}:{' '}
         {over ? (
           <strong className="text-danger">

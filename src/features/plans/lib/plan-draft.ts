@@ -127,6 +127,8 @@ export function describeDifferences(mine: PlanDraft, theirs: PlanDraft): string[
   scalar('Orbit phase at start', `${mine.orbitPhaseAtStartDeg}°`, `${theirs.orbitPhaseAtStartDeg}°`);
   const beta = (v: number | null) => (v === null ? 'station default' : `${v}°`);
   scalar('Beta angle', beta(mine.betaDegOverride), beta(theirs.betaDegOverride));
+  const start = (v: string | null) => (v === null ? 'none' : `${v.slice(0, 16).replace('T', ' ')} GMT`);
+  scalar('Start', start(mine.startGmt), start(theirs.startGmt));
   scalar('Time limit', formatElapsed(mine.timeLimitSeconds), formatElapsed(theirs.timeLimitSeconds));
   scalar('Egress', formatElapsed(mine.egressSeconds), formatElapsed(theirs.egressSeconds));
   scalar('Ingress', formatElapsed(mine.ingressSeconds), formatElapsed(theirs.ingressSeconds));

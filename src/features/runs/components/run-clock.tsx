@@ -1,5 +1,5 @@
 import { useEffect, useState } from 'react';
-import { formatElapsed } from '@shared/compute/units';
+import { formatElapsed, formatGmt, formatMinutes } from '@shared/compute/units';
 
 /** Seconds of EVA elapsed time since `startedAt`, ticking once a second. */
 export function useElapsed(startedAt: string): number {
@@ -11,10 +11,6 @@ export function useElapsed(startedAt: string): number {
   return Math.max(0, (nowMs - Date.parse(startedAt)) / 1000);
 }
 
-/** GMT of a moment of EVA elapsed time, `HH:MM:SS`. */
-export const gmtAt = (startedAt: string, elapsed: number) =>
-  new Date(Date.parse(startedAt) + elapsed * 1000).toISOString().slice(11, 19);
-
 /** The big clock: GMT and EVA elapsed time, readable across a room. */
 export function RunClock({ startedAt, elapsed }: { startedAt: string; elapsed: number }) {
   return (
@@ -25,7 +21,7 @@ export function RunClock({ startedAt, elapsed }: { startedAt: string; elapsed: n
           className="font-mono text-5xl font-semibold text-text-strong tabular-nums"
           data-testid="clock-gmt"
         >
-          {gmtAt(startedAt, elapsed)}
+          {formatGmt(startedAt, elapsed, { withSeconds: true })}
         </div>
       </div>
       <div>
@@ -38,5 +34,17 @@ export function RunClock({ startedAt, elapsed }: { startedAt: string; elapsed: n
         </div>
       </div>
     </div>
+  );
+}
+
+/** The plan's start time beside the run's: how late (or early) the EVA clock started. */
+export function PlannedStart({ planned, started }: { planned: string; started: string }) {
+  const late = (Date.parse(started) - Date.parse(planned)) / 1000;
+  return (
+    <span data-testid="planned-start">
+      {' '}
+      · planned {formatGmt(planned, 0)} GMT (
+      {Math.abs(late) < 30 ? 'on time' : `${late > 0 ? '+' : '−'}${formatMinutes(Math.abs(late))}`})
+    </span>
   );
 }

@@ -1,7 +1,7 @@
 import type { CrewMember } from '@shared/schemas/plan';
 import type { ActualBlock } from '@shared/compute/day/run';
 import type { TimelineBlock } from '@shared/compute/day/types';
-import { formatElapsed } from '@shared/compute/units';
+import { formatElapsed, formatGmt } from '@shared/compute/units';
 import { palette } from '../../../../tailwind.config';
 
 const CREW: CrewMember[] = ['EV1', 'EV2'];
@@ -23,13 +23,15 @@ interface RunLanesProps {
   projected: Record<CrewMember, TimelineBlock[]>;
   titleOf: (taskIndex: number | undefined) => string;
   crewNames: Record<CrewMember, string>;
+  /** GMT of elapsed time 0: the axis shows clock times under elapsed ones */
+  startedAt?: string;
 }
 
 /**
  * Two crew lanes, each the planned day above what was flown (solid) and the rest re-projected from
  * now (lighter), with the now line across both.
  */
-export function RunLanes({ now, planned, actual, projected, titleOf, crewNames }: RunLanesProps) {
+export function RunLanes({ now, planned, actual, projected, titleOf, crewNames, startedAt }: RunLanesProps) {
   const ends = CREW.flatMap((m) => [...planned[m], ...projected[m], ...actual[m]].map((b) => b.end));
   const horizon = Math.max(now, ...ends, 600) * 1.02;
   const x = (t: number) => LEFT + (t / horizon) * PLOT;
@@ -83,7 +85,7 @@ export function RunLanes({ now, planned, actual, projected, titleOf, crewNames }
 
   return (
     <svg
-      viewBox={`0 0 ${W} ${AXIS_Y + 24}`}
+      viewBox={`0 0 ${W} ${AXIS_Y + (startedAt ? 36 : 24)}`}
       className="w-full"
       role="img"
       aria-label="Crew lanes: planned above, flown and projected below, with the now line"
@@ -95,6 +97,11 @@ export function RunLanes({ now, planned, actual, projected, titleOf, crewNames }
           <text x={x(t)} y={AXIS_Y + 16} fontSize={12} textAnchor="middle" fill={palette.text.muted}>
             {formatElapsed(t)}
           </text>
+          {startedAt && (
+            <text x={x(t)} y={AXIS_Y + 30} fontSize={11} textAnchor="middle" fill={palette.text.muted}>
+              {formatGmt(startedAt, t)}
+            </text>
+          )}
         </g>
       ))}
       {CREW.map((m, i) => {

@@ -1,7 +1,6 @@
-import { formatElapsed, formatMinutes } from '@shared/compute/units';
+import { formatElapsed, formatGmt, formatMinutes } from '@shared/compute/units';
 import { Alert } from '@/components/ui/alert';
 import type { RunScreenData } from '../api/get-run';
-import { gmtAt } from './run-clock';
 
 /** Where the day is heading: projected end and margin against the plan's, nights missed, what to drop. */
 export function RunSummary({ view }: { view: RunScreenData }) {
@@ -13,11 +12,13 @@ export function RunSummary({ view }: { view: RunScreenData }) {
       <dl className="grid grid-cols-2 gap-x-6 gap-y-2 text-base">
         <dt className="text-text-muted">Projected end</dt>
         <dd className="font-mono font-semibold" data-testid="projected-end">
-          {formatElapsed(view.projectedEndSeconds)} ({gmtAt(startedAt, view.projectedEndSeconds).slice(0, 5)}{' '}
-          GMT)
+          {formatElapsed(view.projectedEndSeconds)} ({formatGmt(startedAt, view.projectedEndSeconds)} GMT)
         </dd>
         <dt className="text-text-muted">Planned end</dt>
-        <dd className="font-mono">{formatElapsed(view.plannedEndSeconds)}</dd>
+        <dd className="font-mono">
+          {formatElapsed(view.plannedEndSeconds)}
+          {view.plan.startGmt && ` (${formatGmt(view.plan.startGmt, view.plannedEndSeconds)} GMT planned)`}
+        </dd>
         <dt className="text-text-muted">Margin now</dt>
         <dd
           className={
