@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { computeTimeline } from '@shared/compute/day/timeline';
+import { computeTimeline, placeDay } from '@shared/compute/day/timeline';
 import { fromWire, toWire, type WireTimeline } from '@shared/compute/day/wire';
 import { planWalkthrough, sampleTrack } from '@shared/compute/walkthrough';
 import type { DayPlan, DayRouteFn, DayRouteRequest, Timeline } from '@shared/compute/day/types';
@@ -239,6 +239,52 @@ describe('the timeline on the wire', () => {
         expect({ ...back, routes: [] }).toEqual({ ...t, routes: [] });
       }),
       { numRuns: 50 },
+    );
+  });
+
+  it('the day placed task by task, copied and extended at any point, is the day computed on the whole order', () => {
+    const withLinks = fc
+      .tuple(
+        planArb,
+        fc.array(fc.tuple(fc.nat(20), fc.nat(20)), { maxLength: 4 }),
+        fc.array(fc.boolean(), { minLength: 8, maxLength: 8 }),
+        fc.array(fc.nat(1000), { minLength: 8, maxLength: 8 }),
+        fc.nat(8),
+      )
+      .map(([plan, links, eclipse, keys, branchAt]) => {
+        const n = plan.tasks.length;
+        const tasks = plan.tasks.map((t, i) => ({
+          ...t,
+          id: i + 1,
+          eclipseOnly: eclipse[i],
+          // any links, also to tasks later in the order: the day warns and leaves them out
+          after: links.filter(([a]) => n > 0 && a % n === i).map(([, b]) => (b % n) + 1),
+        }));
+        // a random order of the tasks
+        const order = tasks.map((_, i) => i).sort((a, b) => keys[a] - keys[b] || a - b);
+        return { plan: { ...plan, tasks }, order, branchAt: Math.min(branchAt, n) };
+      });
+    const sorted = (t: Timeline) => ({
+      ...t,
+      // placed task by task, a link to a task not placed yet cannot name its place in the order
+      warnings: t.warnings
+        .map((w) => JSON.stringify(w.code === 'after-out-of-order' ? { ...w, message: '' } : w))
+        .sort(),
+      reach: t.reach.map((r) => JSON.stringify(r)).sort(),
+    });
+    fc.assert(
+      fc.property(withLinks, ({ plan, order, branchAt }) => {
+        const whole = computeTimeline({ ...plan, tasks: order.map((i) => plan.tasks[i]) }, station, route);
+        const day = placeDay(plan, station, route);
+        order.slice(0, branchAt).forEach((i) => day.place(i));
+        // a copy taken part way and extended to the end leaves the original as it was
+        const copy = day.copy();
+        order.slice(branchAt).forEach((i) => copy.place(i));
+        order.slice(branchAt).forEach((i) => day.place(i));
+        expect(sorted(copy.finish())).toEqual(sorted(whole));
+        expect(sorted(day.finish())).toEqual(sorted(whole));
+      }),
+      { numRuns: 150 },
     );
   });
 });

@@ -64,6 +64,15 @@ export class ItemLedger {
     }
   }
 
+  /** A copy whose changes leave this ledger as it is. */
+  copy(): ItemLedger {
+    const out = new ItemLedger([], '');
+    for (const [k, e] of this.entries) {
+      out.entries.set(k, { item: e.item, where: e.where, states: e.states.map((s) => ({ ...s })) });
+    }
+    return out;
+  }
+
   has(key: string): boolean {
     return this.entries.has(key);
   }

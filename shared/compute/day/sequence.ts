@@ -1,6 +1,16 @@
 import type { CrewMember } from '../../schemas/plan';
 import type { RouteResult } from '../../schemas/route';
-import { computeTimeline, CREW, membersOf, partnerOf, socketFor } from './timeline';
+import {
+  computeTimeline,
+  CREW,
+  membersOf,
+  partnerOf,
+  ownEndOf,
+  placeDay,
+  socketFor,
+  type LaneProgress,
+  type PlacedDay,
+} from './timeline';
 import type { DayPlan, DayRouteFn, DayStart, DayStation, DayTask, Timeline, TimelineWarning } from './types';
 
 /** Tasks per crew member up to which the order is searched exhaustively (with bounds). */
@@ -55,7 +65,10 @@ interface Scored {
 }
 
 /** A warning as the same problem whatever the order: its code, the task (by plan index), crew and item. */
-const warningKey = (w: TimelineWarning, order: readonly number[]) =>
+const warningKey = (
+  w: Pick<TimelineWarning, 'code' | 'taskIndex' | 'crew' | 'item' | 'arm'>,
+  order: readonly number[],
+) =>
   `${w.code}|${w.taskIndex === undefined ? '' : order[w.taskIndex]}|${w.crew ?? ''}|${w.item ?? ''}|${w.arm ?? ''}`;
 
 function warningCounts(timeline: Timeline, order: readonly number[]): Map<string, number> {
@@ -99,11 +112,7 @@ export function keepsAfter(tasks: readonly DayTask[], order: readonly number[]):
 
 /** A crew member's own end of the day: back at the airlock, before waiting for the partner and ingress. */
 export function ownEnd(timeline: Timeline, m: CrewMember): number {
-  const blocks = timeline.crew[m].blocks;
-  for (let k = blocks.length - 1; k >= 0; k--) {
-    if (blocks[k].type !== 'wait' && blocks[k].type !== 'ingress') return blocks[k].end;
-  }
-  return 0;
+  return ownEndOf(timeline.crew[m].blocks);
 }
 
 /**
@@ -111,14 +120,14 @@ export function ownEnd(timeline: Timeline, m: CrewMember): number {
  * task comes after the tasks it waits for) and give the day no warning the current order does not
  * have: so both-crew sync, eclipse-only work in night windows, restraints and the equipment rules
  * (an item picked up before it is used) hold wherever the current order keeps them, and the
- * proposal never ends later than the current order. Every candidate is scored by `computeTimeline`
- * itself; each distinct route request is asked once.
+ * proposal never ends later than the current order. Every candidate is the day the timeline computes
+ * on it: placed task by task (`placeDay`), a day shared by every order with the same first tasks,
+ * or computed whole when the plan has arm tasks; each distinct route request is asked once.
  *
  * Up to `exactUpTo` tasks per crew member a short local search finds a good order, then a branch and
  * bound over the crew members' sequences runs, and is exact when it finishes within its share of the
- * budget (see `branchAndBound`); beyond, or
- * when that share runs out first, an iterated local search from the best order so far takes the
- * rest of the budget, and `exact` is false.
+ * budget (see `branchAndBound`); beyond, or when that share runs out first, an iterated local search
+ * from the best order so far takes the rest of the budget, and `exact` is false.
  */
 export function proposeOrder(
   plan: DayPlan,
@@ -161,58 +170,63 @@ export function proposeOrder(
   const identity = plan.tasks.map((_, i) => i);
   const current = timelineOf(identity);
   const base = warningCounts(current, identity);
-  const score = (order: number[], timeline = timelineOf(order)): Scored => ({
-    order,
-    timeline,
-    added: addedWarnings(base, timeline, order),
-  });
+  const search = searchFor(plan, current, base, day, memoRoute, options, timelineOf, () => explored++);
+  const scorer = new Scorer(search);
   let best: Scored | null = keepsAfter(plan.tasks, identity)
     ? { order: identity, timeline: current, added: 0 }
     : null;
 
-  const perCrew = Math.max(...CREW.map((m) => plan.tasks.filter((t) => membersOf(t).includes(m)).length));
+  const perCrew = Math.max(...CREW.map((m) => search.laneTasks[m].length));
   let exact = n <= 1 && best !== null;
   if (!exact && perCrew <= (options.exactUpTo ?? EXACT_TASKS_PER_CREW)) {
     // a good order first, so the bound cuts more of the tree from the start
-    const warm = localSearch(plan.tasks, best, score, started + budget * WARM_SHARE, now, options.seed ?? 1);
+    const warm = localSearch(search, scorer, best, started + budget * WARM_SHARE, now, options.seed ?? 1);
     if (warm && warm.added === 0) best = warm;
-    const search: Search = {
-      plan,
-      timelineOf,
-      score,
-      deadline: started + budget * EXACT_SHARE,
-      now,
-      between: betweenFor(plan, current, station, options.travelSeconds),
-    };
+    search.deadline = started + budget * EXACT_SHARE;
+    search.now = now;
     const found = independentLanes(plan) ? laneByLane(search, best) : branchAndBound(search, best);
     best = found.best;
     exact = found.complete;
   }
   if (!exact) {
-    best = localSearch(plan.tasks, best, score, started + budget, now, options.seed ?? 1);
+    best = localSearch(search, scorer, best, started + budget, now, options.seed ?? 1);
   }
   const chosen = best && best.added === 0 ? best : { order: identity, timeline: current, added: 0 };
+  // the day as the timeline lists it (a day placed task by task may list its warnings in another order)
+  const proposal = chosen.order === identity ? current : timelineOf(chosen.order);
   return {
     order: chosen.order,
-    endSeconds: chosen.timeline.endSeconds,
+    endSeconds: proposal.endSeconds,
     currentEndSeconds: current.endSeconds,
     exact,
     explored,
-    proposal: chosen.timeline,
+    proposal,
     current,
   };
 }
 
-// ── the bound ──────────────────────────────────────────────────────────────────────────────────────
+// ── days placed task by task, and what every completion of one must spend ──────────────────────────
 
 interface Search {
   plan: DayPlan;
+  tasks: readonly DayTask[];
+  afterOf: number[][];
+  laneTasks: Record<CrewMember, number[]>;
+  /** the current order's warnings, counted per code, task, crew member and item */
+  base: Map<string, number>;
+  /** a day with no task placed; null when the plan has arm tasks (every order is computed whole) */
+  root: PlacedDay | null;
+  /** a copy of `day` with the tasks placed after it */
+  extend: (day: PlacedDay, xs: readonly number[]) => PlacedDay;
   timelineOf: (order: readonly number[]) => Timeline;
-  score: (order: number[], timeline?: Timeline) => Scored;
-  deadline: number;
-  now: () => number;
   /** least seconds from the end of task a's work to the start of task b's work for m (null: the airlock) */
   between: (m: CrewMember, a: number | null, b: number | null) => number;
+  /** an eclipse-only task the current order keeps in night, so every allowed order must */
+  mustNight: (x: number) => boolean;
+  /** the bound holds: work takes its planned time (not a day as flown) */
+  bounded: boolean;
+  deadline: number;
+  now: () => number;
 }
 
 const UNREACHED_CODES = new Set([
@@ -224,13 +238,53 @@ const UNREACHED_CODES = new Set([
   'restraint-occupied',
 ]);
 
+function searchFor(
+  plan: DayPlan,
+  current: Timeline,
+  base: Map<string, number>,
+  station: DayStation,
+  route: DayRouteFn,
+  options: SequenceOptions,
+  timelineOf: (order: readonly number[]) => Timeline,
+  counted: () => void,
+): Search {
+  const tasks = plan.tasks;
+  const root = tasks.some((t) => t.arm) ? null : placeDay(plan, station, route, options.start);
+  return {
+    plan,
+    tasks,
+    afterOf: afterIndexes(tasks),
+    laneTasks: Object.fromEntries(
+      CREW.map((m) => [m, tasks.flatMap((t, i) => (membersOf(t).includes(m) ? [i] : []))]),
+    ) as Record<CrewMember, number[]>,
+    base,
+    root,
+    extend(day, xs) {
+      const next = day.copy();
+      for (const x of xs) {
+        counted();
+        next.place(x);
+      }
+      return next;
+    },
+    timelineOf,
+    between: betweenFor(plan, current, station, options.travelSeconds),
+    mustNight: (x) =>
+      tasks[x].eclipseOnly &&
+      !base.has(warningKey({ code: 'eclipse-only-outside-night', taskIndex: 0 }, [x])),
+    bounded: options.start?.flown === undefined,
+    deadline: Infinity,
+    now: () => 0,
+  };
+}
+
 /**
  * The least time a crew member can spend between two tasks: nothing when they stay in the same
  * restraint, else getting out of one restraint, the least translation time between the worksites
  * and getting into the next restraint. Translation and restraint time count only when the current
  * order reaches every worksite and restraint and no task is done from an arm (an order that fails a
  * route spends no time on it, and an arm session travels differently); the proposal may not add such
- * a warning, so in a clean day no allowed order skips them.
+ * a warning, so in a clean day no allowed order skips them. Kept as a table per crew member.
  */
 function betweenFor(
   plan: DayPlan,
@@ -239,10 +293,11 @@ function betweenFor(
   travelSeconds?: (from: string, to: string) => number,
 ): Search['between'] {
   const tasks = plan.tasks;
+  const n = tasks.length;
   const clean = !current.warnings.some((w) => UNREACHED_CODES.has(w.code)) && !tasks.some((t) => t.arm);
   const restraintS = clean ? station.settings.restraintSeconds : 0;
   const travel = (a: string, b: string) => (!clean || a === b || !travelSeconds ? 0 : travelSeconds(a, b));
-  return (m, a, b) => {
+  const cost = (m: CrewMember, a: number | null, b: number | null) => {
     const sa = a === null ? undefined : socketFor(tasks[a], m);
     const sb = b === null ? undefined : socketFor(tasks[b], m);
     if (sa !== undefined && sa === sb) return 0;
@@ -250,63 +305,99 @@ function betweenFor(
     const to = b === null ? station.airlockKey : tasks[b].worksite;
     return (sa !== undefined ? restraintS : 0) + (sb !== undefined ? restraintS : 0) + travel(from, to);
   };
+  // row and column 0 are the airlock
+  const table = Object.fromEntries(
+    CREW.map((m) => {
+      const t = new Float64Array((n + 1) * (n + 1));
+      for (let a = -1; a < n; a++)
+        for (let b = -1; b < n; b++)
+          t[(a + 1) * (n + 1) + b + 1] = cost(m, a < 0 ? null : a, b < 0 ? null : b);
+      return [m, t];
+    }),
+  ) as Record<CrewMember, Float64Array>;
+  return (m, a, b) => table[m][((a ?? -1) + 1) * (n + 1) + (b ?? -1) + 1];
 }
 
 /**
- * A lower bound on crew member `m`'s own end (back at the airlock) over every completion of a partial
- * order, from the day computed on the partial order. `H` is a time before which that day's blocks are
- * the same in every completion (see `branchAndBound`). From the end of the crew member's last block
- * that ends by `H`, and not after the work of their last task placed (`t0`), what is left is at least: the work of each of their tasks whose work had
- * not ended by then, the least time into each (from the task before it when that is fixed, else from
- * any task that could come before it; the way into the first one may be under way and counts zero),
- * and the least way home from a task that could be last. Waits and swaps count zero. The way into a
- * task still to place is never under way by `H`: a crew member with tasks to place ends the work of
- * their last placed task at `H` or later.
+ * Whether a day placed so far already has a warning the current order does not (a day placed further
+ * only adds warnings), or an eclipse-only task outside night that the current order keeps in night.
  */
+function spoiled(s: Search, day: PlacedDay): boolean {
+  const order = day.placed();
+  const counts = new Map<string, number>();
+  for (const w of day.warningsSoFar()) {
+    const k = warningKey(w, order);
+    const c = (counts.get(k) ?? 0) + 1;
+    counts.set(k, c);
+    if (c > (s.base.get(k) ?? 0)) return true;
+  }
+  return day.outsideNight().some((x) => s.mustNight(x));
+}
+
+/**
+ * A lower bound on the day's end over every completion of a day placed so far. Every step the day
+ * has taken is the same in every completion (`placeDay`), so each crew member goes on from their
+ * clock. Per crew member, at the least: the tasks placed and not started, in their order, each after
+ * the least way in from the one before (`between`; the first one's counts only when all of it is
+ * ahead); then each task still to place with its least way in from any task that could come before
+ * it, and the least way home from a task that could be last. A task's work starts no earlier than
+ * where that chain puts it, nor than the end of the work of a task it is `after` that is laid, nor,
+ * for a task for both, than the partner's chain puts it (a second pass); an eclipse-only task the
+ * current order keeps in night starts no earlier than the first night window from then that holds
+ * its work (no allowed order puts it outside night). Waits otherwise and swaps count zero. The day
+ * ends at the later crew member's end plus ingress.
+ */
+function dayBound(s: Search, day: PlacedDay, left: Record<CrewMember, readonly number[]>): number {
+  if (!s.bounded) return 0;
+  const progress = CREW.map((m) => day.progress(m));
+  const joint =
+    CREW.some((m) => left[m].some((x) => s.tasks[x].crew === 'both')) ||
+    progress.some((p) => p.notStarted.some((x) => s.tasks[x].crew === 'both'));
+  let partner = new Map<number, number>();
+  let bound = 0;
+  for (let pass = 0; pass < (joint ? 2 : 1); pass++) {
+    const starts = new Map<number, number>();
+    const startAt = (x: number, earliest: number) => {
+      let t = Math.max(earliest, partner.get(x) ?? 0);
+      for (const j of s.afterOf[x]) t = Math.max(t, day.workEndOf(j) ?? 0);
+      if (s.mustNight(x)) t = day.nightStart(t, s.tasks[x].durationSeconds);
+      starts.set(x, Math.max(starts.get(x) ?? 0, t));
+      return t;
+    };
+    bound = Math.max(...CREW.map((m, k) => laneBound(s, m, progress[k], left[m], startAt)));
+    partner = starts;
+  }
+  return bound + s.plan.ingressSeconds;
+}
+
+/** One crew member's part of `dayBound`: the earliest they can be back at the airlock. */
 function laneBound(
   s: Search,
   m: CrewMember,
-  sequence: readonly number[],
+  p: LaneProgress,
   left: readonly number[],
-  order: readonly number[],
-  timeline: Timeline,
-  H: number,
+  startAt: (x: number, earliest: number) => number,
 ): number {
-  const tasks = s.plan.tasks;
-  let t0 = 0;
-  const done = new Set<number>();
-  const lastAt = sequence.length ? order.indexOf(sequence[sequence.length - 1]) : -1;
-  for (const b of timeline.crew[m].blocks) {
-    if (b.end > H) break;
-    t0 = b.end;
-    if (b.type === 'work' && b.taskIndex !== undefined) done.add(order[b.taskIndex]);
-    // what follows (the way home on the partial order) is counted below
-    if (lastAt === -1 ? b.type === 'egress' : b.type === 'work' && b.taskIndex === lastAt) break;
-  }
-  let rest = 0;
-  let prev: number | null = null;
-  let first = true;
-  for (const x of sequence) {
-    if (!done.has(x)) {
-      rest += tasks[x].durationSeconds + (first ? 0 : s.between(m, prev, x));
-      first = false;
-    }
+  if (p.back !== null) return p.back;
+  const dur = (x: number) => s.tasks[x].durationSeconds;
+  let t = p.t;
+  let prev = p.lastStarted;
+  p.notStarted.forEach((x, k) => {
+    if (k > 0 || p.wayInAhead) t += s.between(m, prev, x);
+    t = startAt(x, t) + dur(x);
     prev = x;
-  }
+  });
+  let rest = 0;
+  let latest = 0;
   for (const x of left) {
     let into = s.between(m, prev, x);
     for (const y of left) if (y !== x) into = Math.min(into, s.between(m, y, x));
-    rest += tasks[x].durationSeconds + into;
+    rest += into + dur(x);
+    latest = Math.max(latest, startAt(x, t + into) + dur(x));
   }
-  const home = left.length ? Math.min(...left.map((x) => s.between(m, x, null))) : s.between(m, prev, null);
-  return t0 + rest + home;
-}
-
-/** End of `m`'s work on task `x` in a day computed on `order`; `fallback` when not there. */
-function workEnd(timeline: Timeline, m: CrewMember, order: readonly number[], x: number, fallback: number) {
-  const at = order.indexOf(x);
-  const block = timeline.crew[m].blocks.find((b) => b.type === 'work' && b.taskIndex === at);
-  return block ? block.end : fallback;
+  let home = left.length ? Infinity : s.between(m, prev, null);
+  for (const x of left) home = Math.min(home, s.between(m, x, null));
+  return Math.max(t + rest, latest) + home;
 }
 
 // ── branch and bound over both crew members' sequences ─────────────────────────────────────────────
@@ -322,50 +413,25 @@ interface Node {
 
 /**
  * Exhaustive search over both crew members' sequences. A node fixes a prefix of the plan order that
- * keeps every `after`; its day is computed by `computeTimeline` on that prefix. The day is simulated
- * in time order and a task's effects (items, anchors, the partner's wait) start no earlier than its
- * crew member's end of work on the task before it, so for `H`, the earliest end of work on the last
- * task so far among crew members with tasks still to place, every block that ends by `H` is the same
- * on the prefix and on any completion of it. The bound of a node is the later of the two crew
- * members' `laneBound`s plus ingress; a node whose bound is not below the best day found is dropped.
- * The crew member whose last task ends first chooses next (so `H` grows), among their tasks whose
- * `after` tasks are placed; a task for both, or one waiting for a task of the partner's still to come,
- * is reserved while the partner places tasks up to it. Every pair of sequences that keeps `after` and
- * can be laid out without the two waiting for each other is a leaf, so when the search ends within
- * the budget the best leaf is the earliest day end.
+ * keeps every `after`; its day is the parent's placed further (`placeDay`): every step it has taken
+ * is the same in any completion. A node whose day already has a warning the current order does not
+ * is dropped (warnings only add up), and so is one whose `dayBound` is not below the best day found.
+ * The crew member the day waits for chooses next, among their tasks whose `after` tasks are placed;
+ * a task for both, or one waiting for a task of the partner's still to come, is reserved while the
+ * partner places tasks up to it. Every pair of sequences that keeps `after` is a leaf, so when the
+ * search ends within the budget the best leaf is the earliest day end.
  */
 function branchAndBound(s: Search, incumbent: Scored | null): { best: Scored | null; complete: boolean } {
-  const tasks = s.plan.tasks;
+  const root = s.root;
+  if (!root) return { best: incumbent, complete: false };
+  const tasks = s.tasks;
   const n = tasks.length;
-  const afterOf = afterIndexes(tasks);
-  const laneTasks = Object.fromEntries(
-    CREW.map((m) => [m, tasks.flatMap((t, i) => (membersOf(t).includes(m) ? [i] : []))]),
-  ) as Record<CrewMember, number[]>;
-  const ingress = s.plan.ingressSeconds;
-  const egress = s.plan.egressSeconds;
+  const { afterOf, laneTasks } = s;
 
   let best = incumbent;
   let complete = true;
   const chosen = new Uint8Array(n);
   const mark = (node: Node, v: 0 | 1) => node.list.forEach((x) => (chosen[x] = v));
-  const hasLeft = (m: CrewMember) => laneTasks[m].some((x) => !chosen[x]);
-  const lastEnd = (node: Node, timeline: Timeline, m: CrewMember) => {
-    const last = node.lane[m][node.lane[m].length - 1];
-    return last === undefined ? egress : workEnd(timeline, m, node.list, last, egress);
-  };
-
-  /** call with the node's tasks marked chosen */
-  const lowerBound = (node: Node, timeline: Timeline): number => {
-    const open = CREW.filter(hasLeft);
-    const H = open.length ? Math.min(...open.map((m) => lastEnd(node, timeline, m))) : Infinity;
-    let bound = 0;
-    for (const m of CREW) {
-      const left = laneTasks[m].filter((x) => !chosen[x]);
-      bound = Math.max(bound, laneBound(s, m, node.lane[m], left, node.list, timeline, H));
-    }
-    return bound + ingress;
-  };
-
   const eligible = (x: number) => afterOf[x].every((j) => chosen[j]);
   const append = (node: Node, x: number): Node => {
     const lane = { ...node.lane };
@@ -378,7 +444,7 @@ function branchAndBound(s: Search, incumbent: Scored | null): { best: Scored | n
   });
 
   /** the children of a node (its tasks marked chosen) */
-  const children = (node: Node, timeline: Timeline): Node[] => {
+  const children = (node: Node, day: PlacedDay): Node[] => {
     const holder = CREW.find((m) => node.reserved[m] !== null);
     const out: Node[] = [];
     if (holder) {
@@ -409,8 +475,8 @@ function branchAndBound(s: Search, incumbent: Scored | null): { best: Scored | n
       }
       return out;
     }
-    const open = CREW.filter(hasLeft).sort((a, b) => lastEnd(node, timeline, a) - lastEnd(node, timeline, b));
-    const m = open[0];
+    const m = day.waitsFor();
+    if (m === null) return out;
     const other = partnerOf(m);
     for (const x of laneTasks[m]) {
       if (chosen[x]) continue;
@@ -426,44 +492,50 @@ function branchAndBound(s: Search, incumbent: Scored | null): { best: Scored | n
     return out;
   };
 
-  const evaluate = (node: Node, parent?: { node: Node; timeline: Timeline }) => {
+  const evaluate = (node: Node, parent?: { node: Node; day: PlacedDay }) => {
     // a reservation leaves the plan order as it was: the same day
-    const timeline =
-      parent && parent.node.list.length === node.list.length ? parent.timeline : s.timelineOf(node.list);
+    const from = parent ? parent.day : root;
+    const placedBefore = parent ? parent.node.list.length : 0;
+    const day = placedBefore === node.list.length ? from : s.extend(from, node.list.slice(placedBefore));
+    if (day !== from && spoiled(s, day)) return null;
     mark(node, 1);
-    const lb = lowerBound(node, timeline);
+    const left = Object.fromEntries(CREW.map((m) => [m, laneTasks[m].filter((x) => !chosen[x])])) as Record<
+      CrewMember,
+      number[]
+    >;
+    const lb = dayBound(s, day, left);
     mark(node, 0);
-    return { node, timeline, lb };
+    return { node, day, lb };
   };
 
-  const visit = (node: Node, timeline: Timeline, lb: number): void => {
+  const visit = (node: Node, day: PlacedDay, lb: number): void => {
     if (s.now() > s.deadline) {
       complete = false;
       return;
     }
     if (best && lb >= best.timeline.endSeconds - END_EPS) return;
     if (node.list.length === n) {
-      const scored = s.score(node.list, timeline);
-      if (
-        scored.added === 0 &&
-        (best === null || scored.timeline.endSeconds < best.timeline.endSeconds - END_EPS)
-      )
+      const timeline = day.finish();
+      const scored = { order: node.list, timeline, added: addedWarnings(s.base, timeline, node.list) };
+      if (scored.added === 0 && (best === null || timeline.endSeconds < best.timeline.endSeconds - END_EPS))
         best = scored;
       return;
     }
     mark(node, 1);
-    const kids = children(node, timeline);
+    const kids = children(node, day);
     mark(node, 0);
-    const scored = kids.map((k) => evaluate(k, { node, timeline })).sort((a, b) => a.lb - b.lb);
+    const scored = kids
+      .map((k) => evaluate(k, { node, day }))
+      .filter((k) => k !== null)
+      .sort((a, b) => a.lb - b.lb);
     for (const k of scored) {
-      visit(k.node, k.timeline, k.lb);
+      visit(k.node, k.day, k.lb);
       if (!complete) return;
     }
   };
 
-  const root: Node = { list: [], lane: { EV1: [], EV2: [] }, reserved: { EV1: null, EV2: null } };
-  const r = evaluate(root);
-  visit(root, r.timeline, r.lb);
+  const r = evaluate({ list: [], lane: { EV1: [], EV2: [] }, reserved: { EV1: null, EV2: null } })!;
+  visit(r.node, r.day, r.lb);
   return { best, complete };
 }
 
@@ -506,59 +578,61 @@ export function independentLanes(plan: DayPlan): boolean {
 /**
  * When the crew members' days are independent, the day end is the later of their own ends plus
  * ingress, and each own end depends on that crew member's sequence alone: each sequence is searched
- * on its own (the partner's kept as it is), for the earliest own end, with `laneBound` (here `H` is
- * the end of work on the last task placed, since nothing else moves) and without adding a warning.
- * An order that keeps the current one's own end is kept as it is.
+ * on its own (the partner's kept as it is and placed first), for the earliest own end, with
+ * `laneBound`, and without adding a warning. An order that keeps the current one's own end is kept.
  */
 function laneByLane(s: Search, incumbent: Scored | null): { best: Scored | null; complete: boolean } {
-  const tasks = s.plan.tasks;
-  const afterOf = afterIndexes(tasks);
+  const root = s.root;
+  if (!root) return { best: incumbent, complete: false };
+  const tasks = s.tasks;
+  const { afterOf } = s;
   let order = incumbent?.order ?? topological(tasks);
   let best = incumbent;
   for (const m of CREW) {
-    const mine = tasks.flatMap((t, i) => (t.crew === m ? [i] : []));
+    const mine = s.laneTasks[m];
     const others = order.filter((i) => tasks[i].crew !== m);
-    // the partner's tasks keep their order among themselves; theirs all come after m's in the list
-    const full = (seq: readonly number[]) => [...seq, ...others];
+    // the partner's tasks keep their order among themselves, placed first: the day then waits for m
+    const full = (seq: readonly number[]) => [...others, ...seq];
+    const start = s.extend(root, others);
     let laneBest: { seq: number[]; end: number; scored: Scored } | null = null;
+    const leaf = (seq: readonly number[], day: PlacedDay) => {
+      const timeline = day.finish();
+      const list = full(seq);
+      const added = addedWarnings(s.base, timeline, list);
+      const end = ownEnd(timeline, m);
+      if (added === 0 && (laneBest === null || end < laneBest.end - END_EPS))
+        laneBest = { seq: [...seq], end, scored: { order: list, timeline, added } };
+    };
     if (best) {
       const seq = best.order.filter((i) => tasks[i].crew === m);
-      if (keepsAfter(tasks, full(seq))) {
-        const scored = s.score(full(seq));
-        if (scored.added === 0) laneBest = { seq, end: ownEnd(scored.timeline, m), scored };
-      }
+      if (keepsAfter(tasks, full(seq))) leaf(seq, s.extend(start, seq));
     }
     const chosen = new Uint8Array(tasks.length);
     let complete = true;
-    const visit = (seq: number[]) => {
+    const startAt = (x: number, earliest: number) =>
+      s.mustNight(x) && s.bounded ? start.nightStart(earliest, tasks[x].durationSeconds) : earliest;
+    const visit = (seq: number[], day: PlacedDay) => {
       if (s.now() > s.deadline) {
         complete = false;
         return;
       }
-      const list = full(seq);
-      const timeline = s.timelineOf(list);
-      if (seq.length === mine.length) {
-        const scored = s.score(list, timeline);
-        const end = ownEnd(timeline, m);
-        if (scored.added === 0 && (laneBest === null || end < laneBest.end - END_EPS))
-          laneBest = { seq: [...seq], end, scored };
-        return;
-      }
+      if (seq.length === mine.length) return leaf(seq, day);
       const left = mine.filter((x) => !chosen[x]);
-      const last = seq[seq.length - 1];
-      const H = last === undefined ? s.plan.egressSeconds : workEnd(timeline, m, list, last, 0);
-      if (laneBest && laneBound(s, m, seq, left, list, timeline, H) >= laneBest.end - END_EPS) return;
-      const next = left.filter((x) => afterOf[x].every((j) => chosen[j]));
-      for (const x of next) {
+      if (laneBest && s.bounded && laneBound(s, m, day.progress(m), left, startAt) >= laneBest.end - END_EPS)
+        return;
+      for (const x of left) {
+        if (!afterOf[x].every((j) => chosen[j])) continue;
+        const next = s.extend(day, [x]);
+        if (spoiled(s, next)) continue;
         chosen[x] = 1;
         seq.push(x);
-        visit(seq);
+        visit(seq, next);
         seq.pop();
         chosen[x] = 0;
         if (!complete) return;
       }
     };
-    visit([]);
+    if (!spoiled(s, start)) visit([], start);
     if (!complete) return { best, complete: false };
     if (laneBest === null) return { best, complete: true };
     const found = laneBest as { seq: number[]; end: number; scored: Scored };
@@ -580,33 +654,84 @@ const better = (a: Scored, b: Scored | null) =>
   (a.added === b.added && a.timeline.endSeconds < b.timeline.endSeconds - END_EPS);
 
 /**
- * Iterated local search: from the best order so far, move one task to another place while that
- * improves the day (fewer added warnings first, then the end; orders with the same two crew
- * sequences are computed once), then from the best make a few random moves and climb again, until the
- * budget, MAX_LOCAL_EVALUATIONS, or STALE_CLIMBS climbs in a row that met only orders already seen.
+ * Scores orders for the local search. Each day is placed from the day of the longest prefix it shares
+ * with the reference order (the climb's current one), whose prefixes' days are kept; when only an
+ * order that adds no warning and ends before `cutoff` can matter, placing stops at the first added
+ * warning or once `dayBound` reaches the cutoff (null). Plans with arm tasks are computed whole.
+ */
+class Scorer {
+  private reference: readonly number[] = [];
+  private prefixes: PlacedDay[] = [];
+
+  constructor(private readonly s: Search) {}
+
+  setReference(order: readonly number[]) {
+    if (order === this.reference) return;
+    this.reference = order;
+    this.prefixes = this.s.root ? [this.s.root] : [];
+  }
+
+  score(order: number[], cutoff: number | null): Scored | null {
+    const s = this.s;
+    if (!s.root) {
+      const timeline = s.timelineOf(order);
+      return { order, timeline, added: addedWarnings(s.base, timeline, order) };
+    }
+    let k = 0;
+    while (k < order.length && order[k] === this.reference[k]) k++;
+    while (this.prefixes.length <= k) {
+      const at = this.prefixes.length - 1;
+      this.prefixes.push(s.extend(this.prefixes[at], [this.reference[at]]));
+    }
+    let day = this.prefixes[k].copy();
+    const left = Object.fromEntries(CREW.map((m) => [m, [] as number[]])) as Record<CrewMember, number[]>;
+    for (let j = k; j < order.length; j++)
+      for (const m of membersOf(s.tasks[order[j]])) left[m].push(order[j]);
+    for (let j = k; j < order.length; j++) {
+      const x = order[j];
+      day = s.extend(day, [x]);
+      for (const m of membersOf(s.tasks[x])) left[m].splice(left[m].indexOf(x), 1);
+      if (cutoff !== null && (spoiled(s, day) || dayBound(s, day, left) >= cutoff - END_EPS)) return null;
+    }
+    const timeline = day.finish();
+    return { order, timeline, added: addedWarnings(s.base, timeline, order) };
+  }
+}
+
+/**
+ * Iterated local search: from the best order so far, move one task to another place, or reverse a
+ * run of tasks, while that improves the day (fewer added warnings first, then the end; orders with
+ * the same two crew sequences are computed once), then from the best make a few random moves and
+ * climb again, until the budget, MAX_LOCAL_EVALUATIONS, or STALE_CLIMBS climbs in a row that met only
+ * orders already seen.
  */
 function localSearch(
-  tasks: readonly DayTask[],
+  s: Search,
+  scorer: Scorer,
   start: Scored | null,
-  score: (order: number[]) => Scored,
   deadline: number,
   now: () => number,
   seed: number,
 ): Scored | null {
-  const seen = new Map<string, Scored>();
+  const tasks = s.tasks;
+  const seen = new Map<string, Scored | null>();
   let evaluations = 0;
   const out = () => now() > deadline || evaluations >= MAX_LOCAL_EVALUATIONS;
+  let from: Scored | null = null;
+  /** the order's day, or null when it breaks `after`, or cannot be better than `from` */
   const scoreOf = (order: number[]): Scored | null => {
     if (!keepsAfter(tasks, order)) return null;
     const key = laneKey(tasks, order);
-    let s = seen.get(key);
-    if (!s) {
-      evaluations++;
-      seen.set(key, (s = score(order)));
-    }
-    return s;
+    if (seen.has(key)) return seen.get(key)!;
+    evaluations++;
+    // once the climb adds no warning, an order matters only if it adds none and ends earlier
+    const cutoff = from && from.added === 0 ? from.timeline.endSeconds : null;
+    const scored = scorer.score(order, cutoff);
+    // an order cut off against one climb may matter to another: remembered only when scored whole
+    if (scored) seen.set(key, scored);
+    return scored;
   };
-  let from = start ?? scoreOf(topological(tasks));
+  from = start ?? scoreOf(topological(tasks));
   if (!from) return null;
   let best = from;
   let rand = seed >>> 0 || 1;
@@ -622,6 +747,11 @@ function localSearch(
     next.splice(j, 0, x);
     return next;
   };
+  const reversed = (order: readonly number[], i: number, j: number) => [
+    ...order.slice(0, i),
+    ...order.slice(i, j + 1).reverse(),
+    ...order.slice(j + 1),
+  ];
   const n = tasks.length;
   if (n < 2) return best;
   let before = evaluations;
@@ -630,13 +760,23 @@ function localSearch(
     let improved = true;
     while (improved && !out()) {
       improved = false;
+      scorer.setReference(from.order);
       for (let i = 0; i < n && !out(); i++) {
         for (let j = 0; j < n && !out(); j++) {
           if (i === j) continue;
-          const s = scoreOf(moved(from.order, i, j));
-          if (s && better(s, from)) {
-            from = s;
+          const s1 = scoreOf(moved(from.order, i, j));
+          if (s1 && better(s1, from)) {
+            from = s1;
             improved = true;
+            scorer.setReference(from.order);
+          }
+          if (j > i + 1) {
+            const s2 = scoreOf(reversed(from.order, i, j));
+            if (s2 && better(s2, from)) {
+              from = s2;
+              improved = true;
+              scorer.setReference(from.order);
+            }
           }
         }
       }
@@ -652,6 +792,7 @@ function localSearch(
       const next = moved(order, random(n), random(n));
       if (keepsAfter(tasks, next)) order = next;
     }
+    from = null;
     from = scoreOf(order) ?? best;
   }
   return best;
