@@ -48,6 +48,8 @@ type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
 export interface RequestOptions {
   body?: unknown;
   signal?: AbortSignal;
+  /** the request outlives the page (a save sent as the page is left); bodies up to 64 KiB */
+  keepalive?: boolean;
 }
 
 async function toApiError(response: Response): Promise<ApiError> {
@@ -89,6 +91,7 @@ export async function request<T>(method: Method, path: string, options: RequestO
       body,
       credentials: 'same-origin',
       signal: options.signal,
+      ...(options.keepalive ? { keepalive: true } : {}),
     });
   } catch (error) {
     if (error instanceof DOMException && error.name === 'AbortError') throw error;

@@ -3,12 +3,13 @@ import { act, render, screen } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import fc from 'fast-check';
 import { computeTimeline } from '@shared/compute/day/timeline';
-import { CreatePlanInputSchema, type Task } from '@shared/schemas/plan';
+import type { Task } from '@shared/schemas/plan';
 import { TimelineChart } from '@/features/plans/components/timeline-chart';
 import { TasksEditor } from '@/features/plans/components/tasks-editor';
 import { describeDifferences, draftChanges, draftFromPlan, moveItem } from '@/features/plans/lib/plan-draft';
 import type { PlanTimeline, PlanView } from '@/features/plans/types';
 import { LINE_KEYS, dayEngine, lineStationDocument } from '../factories/day';
+import { buildPlanView } from '../factories/plan-view';
 
 // the real day on the line station (10 s a metre, 12 m default tether), see tests/factories/day.ts
 const engine = dayEngine(lineStationDocument());
@@ -53,28 +54,7 @@ const tasks: Task[] = [
 ];
 
 function planView(overrides: Partial<PlanView> = {}): PlanView {
-  const input = CreatePlanInputSchema.parse({
-    title: 'Test EVA',
-    stationId: 1,
-    date: '2026-03-01',
-    crew: { EV1: { name: 'Ada', tetherLengthM: 25.9 }, EV2: { name: 'Lars', tetherLengthM: 16.8 } },
-    tasks,
-  });
-  return {
-    ...input,
-    id: 7,
-    status: 'draft',
-    version: 3,
-    authorId: 1,
-    createdAt: '2026-01-01T00:00:00Z',
-    updatedAt: '2026-01-01T00:00:00Z',
-    reviewComments: [],
-    stationName: 'Line Station',
-    authorName: 'Priya',
-    approverName: null,
-    editors: [{ id: 1, name: 'Priya' }],
-    ...overrides,
-  };
+  return buildPlanView(tasks, overrides);
 }
 
 function planTimeline(plan: PlanView): PlanTimeline {

@@ -83,3 +83,67 @@ describe('plan workspace: the planner’s screen in the built app', () => {
     expect(await again.getByLabel('Start: orbit event').inputValue()).toBe('sunset');
   });
 });
+
+async function newPlan(title: string): Promise<number> {
+  const station = await kestrel();
+  const response = await session.page.request.post('/api/plans', {
+    data: {
+      title,
+      stationId: station.id,
+      date: '2026-12-20',
+      crew: {
+        EV1: { name: 'Ada Okonkwo', tetherLengthM: 25.9 },
+        EV2: { name: 'Lars Vinter', tetherLengthM: 25.9 },
+      },
+    },
+  });
+  expect(response.status()).toBe(201);
+  return ((await response.json()) as { id: number }).id;
+}
+
+describe('plan workspace: autosave counts a person’s saves and never drops an edit', () => {
+  it('typing in several fields makes one version; leaving or reloading right after typing keeps the edit', async () => {
+    const { page } = session;
+    await signInAs(session, 'planner');
+    const first = `Autosave burst ${Date.now().toString(36)}`;
+    const planId = await newPlan(first);
+    await session.goto(`/plans/${planId}`);
+    const header = page.locator('main header').first();
+    await header.getByText('All changes saved').waitFor();
+    const before = (await planOf(planId)).version;
+
+    // a burst of work: the title and both crew names typed at a person's pace
+    const title = page.getByLabel('Title', { exact: true });
+    await title.click();
+    await title.press('End');
+    await title.pressSequentially(' (rev)', { delay: 90 });
+    await page.getByLabel('EV1 name').fill('');
+    await page.getByLabel('EV1 name').pressSequentially('Ada O.', { delay: 90 });
+    await page.getByLabel('EV2 name').fill('');
+    await page.getByLabel('EV2 name').pressSequentially('Lars V.', { delay: 90 });
+    await header.getByText('Unsaved changes').waitFor();
+    await saved();
+    const afterBurst = await planOf(planId);
+    expect(afterBurst.title).toBe(`${first} (rev)`);
+    expect(afterBurst.version, 'one burst of typing, one version').toBe(before + 1);
+
+    // leaving for another screen right after typing saves first, and asks nothing
+    await title.press('End');
+    await title.pressSequentially(' left', { delay: 30 });
+    await page.getByRole('link', { name: 'Plans', exact: true }).click();
+    await page.getByRole('heading', { level: 1, name: 'Plans' }).waitFor();
+    expect(await page.getByRole('dialog', { name: 'Leave without saving?' }).count()).toBe(0);
+    expect((await planOf(planId)).title).toBe(`${first} (rev) left`);
+
+    // reloading right after typing: the save goes out as the page goes
+    await session.goto(`/plans/${planId}`);
+    await header.getByText('All changes saved').waitFor();
+    await page.getByLabel('Title', { exact: true }).press('End');
+    await page.getByLabel('Title', { exact: true }).pressSequentially(' reloaded', { delay: 30 });
+    await page.reload();
+    await expect
+      .poll(() => page.getByLabel('Title', { exact: true }).inputValue(), { timeout: 15_000 })
+      .toBe(`${first} (rev) left reloaded`);
+    expect((await planOf(planId)).version, 'three saves a person made').toBe(before + 3);
+  });
+});

@@ -4,8 +4,17 @@ import { api } from '@/lib/api-client';
 import type { PlanView } from '../types';
 import { planKeys } from './keys';
 
-export function updatePlan({ id, data }: { id: number; data: UpdatePlanInput }): Promise<PlanView> {
-  return api.patch(`/plans/${id}`, data);
+export function updatePlan({
+  id,
+  data,
+  keepalive,
+}: {
+  id: number;
+  data: UpdatePlanInput;
+  /** sent as the page is left: the request outlives it */
+  keepalive?: boolean;
+}): Promise<PlanView> {
+  return api.patch(`/plans/${id}`, data, keepalive ? { keepalive } : undefined);
 }
 
 /** The saved plan replaces the cached one at once, so the next save carries its new version. */

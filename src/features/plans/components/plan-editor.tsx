@@ -78,11 +78,8 @@ export function PlanEditor({ plan, user, nodes, orbit, rehearseHref, extra, DayV
   const editable = can(user, 'plans:edit') && plan.status === 'draft';
   const readOnly = !editable;
   const fields = useFieldValidity();
-  const { draft, change, save, reload, conflict, state, error, savedVersion, invalidCount } = usePlanDraft(
-    plan,
-    editable,
-    fields.count,
-  );
+  const { draft, change, save, keep, reload, conflict, state, error, savedVersion, invalidCount } =
+    usePlanDraft(plan, editable, fields.count);
   const [deleted, setDeleted] = useState(false);
   const timeline = usePlanTimeline(plan.id);
   const tl = timeline.data;
@@ -96,6 +93,8 @@ export function PlanEditor({ plan, user, nodes, orbit, rehearseHref, extra, DayV
       <div className="space-y-5">
         <LeaveGuard
           when={editable && unsaved && !deleted}
+          keep={keep}
+          busy={state === 'saving'}
           reason={
             state === 'invalid'
               ? `${invalidCount || 'Some'} field${invalidCount === 1 ? ' holds' : 's hold'} text that is not saved until it is fixed; leaving drops it.`
@@ -121,7 +120,12 @@ export function PlanEditor({ plan, user, nodes, orbit, rehearseHref, extra, DayV
           </div>
           <div className="flex flex-wrap items-center gap-2">
             {editable && (
-              <SaveIndicator state={state} version={savedVersion} invalidCount={invalidCount} onSave={save} />
+              <SaveIndicator
+                state={state}
+                version={savedVersion}
+                invalidCount={invalidCount}
+                onSave={() => save()}
+              />
             )}
             <a className={linkClass} href={planExportHref(plan.id, 'csv')} download>
               ⤓ Timeline CSV

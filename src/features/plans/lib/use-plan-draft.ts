@@ -1,4 +1,4 @@
-import { useCallback, useEffect, useState } from 'react';
+import { useCallback, useEffect, useRef, useState } from 'react';
 import { useQueryClient } from '@tanstack/react-query';
 import { UpdatePlanInputSchema } from '@shared/schemas/plan';
 import { staleVersionOf } from '@/lib/api-client';
@@ -8,8 +8,15 @@ import { useUpdatePlan } from '../api/update-plan';
 import type { PlanView } from '../types';
 import { describeDifferences, draftChanges, draftFromPlan, type PlanDraft } from './plan-draft';
 
-/** Pause after the last keystroke before a save goes out. */
-export const AUTOSAVE_DELAY_MS = 700;
+/**
+ * An editing burst ends when the planner stops for this long; its edits go out as one save, so the
+ * plan's version counts bursts of work, not keystrokes.
+ */
+export const AUTOSAVE_IDLE_MS = 2500;
+/** A burst that never pauses is still saved this often after its first edit. */
+export const AUTOSAVE_MAX_WAIT_MS = 20_000;
+/** A save sent as the page goes (keepalive) carries at most 64 KiB; a larger one asks first instead. */
+const KEEPALIVE_MAX_CHARS = 60_000;
 
 export interface PlanConflict {
   version: number;
@@ -21,9 +28,10 @@ export interface PlanConflict {
 export type SaveState = 'saved' | 'unsaved' | 'saving' | 'invalid' | 'conflict' | 'error';
 
 /**
- * The editor's working copy of a plan, saved by PATCH a moment after each change. A stale version
- * stops saving and reports what the server's plan has that the draft does not; nothing is sent
- * over it until the planner reloads.
+ * The editor's working copy of a plan, saved by PATCH when an editing burst ends (a pause, at most
+ * `AUTOSAVE_MAX_WAIT_MS` after its first edit), when the page is hidden, and as it is left (`keep`).
+ * A stale version stops saving and reports what the server's plan has that the draft does not;
+ * nothing is sent over it until the planner reloads.
  */
 export function usePlanDraft(
   plan: PlanView,
@@ -53,50 +61,89 @@ export function usePlanDraft(
     }
   }
 
-  const save = useCallback(() => {
-    if (!changes || invalidCount || update.isPending || conflict || !editable) return;
-    const sent = draft;
-    update.mutate(
-      { id: plan.id, data: changes },
-      {
-        onSuccess: (saved) => {
-          // new tasks get their ids from the save, so other tasks can name them in `after`
-          const withId = (t: PlanDraft['tasks'][number]) => {
-            const k = sent.tasks.indexOf(t);
-            const id = k >= 0 && t.id === undefined ? saved.tasks[k]?.id : undefined;
-            return id === undefined ? t : { ...t, id };
-          };
-          setBase({ draft: { ...sent, tasks: sent.tasks.map(withId) }, version: saved.version });
-          setDraft((d) => ({ ...d, tasks: d.tasks.map(withId) }));
-        },
-        onError: async (error) => {
-          const stale = staleVersionOf(error);
-          if (!stale) return;
-          const current = await getPlan(plan.id);
-          setConflict({
-            version: current.version,
-            changedBy: stale.changedBy,
-            differences: describeDifferences(sent, draftFromPlan(current)),
-            current,
-          });
-        },
-      },
-    );
-  }, [changes, invalidCount, update, conflict, editable, draft, plan.id]);
+  /** when the first edit not yet sent was made (null: none) */
+  const burstStart = useRef<number | null>(null);
+  const [edits, setEdits] = useState(0);
+  /** the version the last save was sent from */
+  const sentFrom = useRef<number | null>(null);
 
+  /** Sends the draft's changes now; false when there is nothing it may send. */
+  const save = useCallback(
+    ({ keepalive = false }: { keepalive?: boolean } = {}) => {
+      if (!changes || invalidCount || update.isPending || conflict || !editable) return false;
+      // a save from this base is on its way (the pending state has not rendered yet): never twice
+      if (sentFrom.current === base.version) return false;
+      if (keepalive && JSON.stringify(changes).length > KEEPALIVE_MAX_CHARS) return false;
+      const sent = draft;
+      burstStart.current = null;
+      sentFrom.current = base.version;
+      update.mutate(
+        { id: plan.id, data: changes, keepalive },
+        {
+          onSuccess: (saved) => {
+            // new tasks get their ids from the save, so other tasks can name them in `after`
+            const withId = (t: PlanDraft['tasks'][number]) => {
+              const k = sent.tasks.indexOf(t);
+              const id = k >= 0 && t.id === undefined ? saved.tasks[k]?.id : undefined;
+              return id === undefined ? t : { ...t, id };
+            };
+            setBase({ draft: { ...sent, tasks: sent.tasks.map(withId) }, version: saved.version });
+            setDraft((d) => ({ ...d, tasks: d.tasks.map(withId) }));
+          },
+          onError: async (error) => {
+            sentFrom.current = null;
+            const stale = staleVersionOf(error);
+            if (!stale) return;
+            const current = await getPlan(plan.id);
+            setConflict({
+              version: current.version,
+              changedBy: stale.changedBy,
+              differences: describeDifferences(sent, draftFromPlan(current)),
+              current,
+            });
+          },
+        },
+      );
+      return true;
+    },
+    [changes, invalidCount, update, conflict, editable, draft, plan.id, base.version],
+  );
+  const latestSave = useRef(save);
   useEffect(() => {
-    if (!changes || invalidCount || update.isPending || conflict || !editable || update.isError) return;
-    const timer = setTimeout(save, AUTOSAVE_DELAY_MS);
+    latestSave.current = save;
+  });
+
+  // one timer per burst: restarted by each edit, not by renders that change nothing
+  const savable = !!changes && !invalidCount && !update.isPending && !conflict && editable && !update.isError;
+  useEffect(() => {
+    if (!savable) return;
+    const since = burstStart.current ?? Date.now();
+    const wait = Math.min(AUTOSAVE_IDLE_MS, Math.max(0, since + AUTOSAVE_MAX_WAIT_MS - Date.now()));
+    const timer = setTimeout(() => latestSave.current(), wait);
     return () => clearTimeout(timer);
-  }, [changes, invalidCount, update.isPending, update.isError, conflict, editable, save]);
+  }, [edits, savable]);
+
+  // a hidden tab may never come back (closed, discarded): its edits go out at once
+  useEffect(() => {
+    const hidden = () => {
+      if (document.visibilityState === 'hidden') latestSave.current({ keepalive: true });
+    };
+    document.addEventListener('visibilitychange', hidden);
+    return () => document.removeEventListener('visibilitychange', hidden);
+  }, []);
 
   const change = useCallback(
     (patch: Partial<PlanDraft>) => {
       if (update.isError) update.reset();
+      burstStart.current ??= Date.now();
+      setEdits((n) => n + 1);
       setDraft((d) => ({ ...d, ...patch }));
     },
     [update],
   );
+
+  /** Sends what is not saved as the page is left (the request outlives the page); false: ask first. */
+  const keep = useCallback(() => latestSave.current({ keepalive: true }), []);
 
   /** Drops the draft for the server's current plan. */
   const reload = () => {
@@ -125,6 +172,7 @@ export function usePlanDraft(
     draft,
     change,
     save,
+    keep,
     reload,
     conflict,
     state,
