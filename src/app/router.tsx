@@ -28,6 +28,8 @@ export function createAppRouter(queryClient: QueryClient) {
         })),
     }) as RouteObject;
   const top = { HydrateFallback: PageSpinner };
+  /** screens built round the 3D view take the window's whole width */
+  const workspace = { handle: { workspace: true } };
 
   return createBrowserRouter([
     route(paths.signIn.path, () => import('./routes/auth/sign-in'), top),
@@ -39,14 +41,14 @@ export function createAppRouter(queryClient: QueryClient) {
         route(paths.people.path, () => import('./routes/app/people')),
         route(paths.mailbox.path, () => import('./routes/app/mailbox')),
         route(paths.stations.path, () => import('./routes/app/stations')),
-        route(paths.station.path, () => import('./routes/app/station')),
-        route(paths.sockets.path, () => import('./routes/app/station-sockets')),
+        route(paths.station.path, () => import('./routes/app/station'), workspace),
+        route(paths.sockets.path, () => import('./routes/app/station-sockets'), workspace),
         route(paths.plans.path, () => import('./routes/app/plans')),
         route(paths.plan.path, () => import('./routes/app/plan')),
         route(paths.run.path, () => import('./routes/app/run')),
         route(paths.series.path, () => import('./routes/app/series')),
         route(paths.walkthroughs.path, () => import('./routes/app/walkthroughs')),
-        route(paths.walkthrough.path, () => import('./routes/app/walkthrough')),
+        route(paths.walkthrough.path, () => import('./routes/app/walkthrough'), workspace),
       ],
     }),
     route('*', () => import('./routes/not-found'), top),

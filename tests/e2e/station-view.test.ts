@@ -79,7 +79,82 @@ async function openKestrel(): Promise<StationGraph> {
   return apiGet<StationGraph>(`/api/stations/${id}/graph`);
 }
 
+/** The drawn tags' boxes the scene reports, and how many of its tags it drew. */
+async function drawnLabels() {
+  const rects = JSON.parse((await scene().getAttribute('data-label-rects')) ?? '[]') as number[][];
+  const [drawn, all] = ((await scene().getAttribute('data-labels')) ?? '0/0').split('/').map(Number);
+  return { rects, drawn, all };
+}
+
+const touching = (a: number[], b: number[]) =>
+  a[0] < b[0] + b[2] && b[0] < a[0] + a[2] && a[1] < b[1] + b[3] && b[1] < a[1] + a[3];
+
+async function canvasShare(): Promise<number> {
+  const box = await scene().locator('canvas').boundingBox();
+  const view = session.page.viewportSize()!;
+  return (box!.width * box!.height) / (view.width * view.height);
+}
+
 describe('station view: 3D model, selection, layers, tables and import', () => {
+  it('gives the window to the 3D view: panels beside it fold, tables in a drawer, labels never on top of each other', async () => {
+    const { page } = session;
+    await page.setViewportSize({ width: 1440, height: 900 });
+    await signIn('engineer');
+    const graph = await openKestrel();
+    const share = await canvasShare();
+    console.info(`station canvas share at 1440x900: ${(share * 100).toFixed(1)} %`);
+    expect(share, 'share of a 1440 x 900 window the 3D view covers').toBeGreaterThanOrEqual(0.55);
+    // the page itself does not scroll: the workspace fits the window
+    expect(await page.evaluate(() => document.documentElement.scrollHeight)).toBeLessThanOrEqual(900);
+
+    const labelsOk = async () => {
+      const { rects, drawn } = await drawnLabels();
+      expect(rects.length).toBe(drawn);
+      for (let i = 0; i < rects.length; i++)
+        for (let j = i + 1; j < rects.length; j++)
+          expect(touching(rects[i], rects[j]), `labels ${i} and ${j} overlap`).toBe(false);
+    };
+    await labelsOk();
+    await session.screenshot('station-1440');
+
+    // a selection from the finder is framed and its label drawn first
+    const worksite = graph.nodes.find((n) => n.kind === 'worksite')!;
+    let before = await frames();
+    const search = page.getByLabel('Find a node');
+    await search.fill(worksite.key);
+    await search.press('Enter');
+    await expect.poll(() => scene().getAttribute('data-selected')).toBe(`node:${worksite.key}`);
+    await frameAfter(before);
+    await labelsOk();
+    const framed = await drawnLabels();
+    expect(framed.drawn).toBeGreaterThan(0);
+    // the list folds away once the focus leaves the finder, giving the model back
+    await search.press('Escape');
+    await expect(page.getByRole('listbox', { name: 'Nodes' }).isVisible()).resolves.toBe(false);
+
+    // folding the side panel widens the view; unfolding brings the tabs back
+    const open = await canvasShare();
+    await page.getByRole('button', { name: 'Hide selection and tools' }).click();
+    await expect.poll(canvasShare).toBeGreaterThan(open + 0.1);
+    await page.getByRole('button', { name: 'Show selection and tools' }).click();
+    await page.getByRole('tab', { name: 'Details' }).waitFor();
+
+    // the tables open in a drawer under the view, which stays on screen
+    await page.getByRole('button', { name: /^Tables/ }).click();
+    const tables = page.getByRole('region', { name: 'Tables' });
+    await tables.getByRole('table', { name: 'Nodes' }).waitFor();
+    expect(await canvasShare()).toBeGreaterThan(0.25);
+    await tables.getByRole('button', { name: 'Close tables' }).click();
+
+    await page.setViewportSize({ width: 1024, height: 768 });
+    before = await frames();
+    await page.getByRole('button', { name: 'Fit to view' }).click();
+    await frameAfter(before);
+    await labelsOk();
+    console.info(`station canvas share at 1024x768: ${((await canvasShare()) * 100).toFixed(1)} %`);
+    await session.screenshot('station-1024');
+  });
+
   it('draws Kestrel Station in few draw calls, selects a node from the list and hides glyph layers', async () => {
     const { page } = session;
     await signIn('engineer');
@@ -132,6 +207,7 @@ describe('station view: 3D model, selection, layers, tables and import', () => {
     await frameAfter(before);
     const withGlyphs = await litPixels();
     const callsWithGlyphs = await liveCalls();
+    await page.getByRole('button', { name: /^Layers/ }).click();
     for (const label of ['Airlocks', 'Junctions', 'Anchors', 'Sockets', 'Worksites']) {
       const toggle = page.getByRole('group', { name: 'Nodes layers' }).getByRole('button', { name: label });
       await toggle.click();
@@ -140,6 +216,7 @@ describe('station view: 3D model, selection, layers, tables and import', () => {
     before = await frames();
     await page.getByRole('button', { name: 'Oblique' }).click();
     await frameAfter(before);
+    await page.keyboard.press('Escape');
     expect(await modelCalls()).toBe(expected - kinds.size);
     expect(await liveCalls()).toBeLessThan(callsWithGlyphs);
     const withoutGlyphs = await litPixels();
@@ -151,9 +228,8 @@ describe('station view: 3D model, selection, layers, tables and import', () => {
     const { page } = session;
     await signIn('viewer');
     const graph = await openKestrel();
-    const tables = page
-      .getByRole('region', { name: 'Tables' })
-      .or(page.locator('section', { has: page.getByRole('heading', { name: 'Tables' }) }));
+    await page.getByRole('button', { name: /^Tables/ }).click();
+    const tables = page.getByRole('region', { name: 'Tables' });
     const key = graph.nodes.find((n) => n.kind === 'worksite')!.key;
     const expected = graph.nodes.filter((n) => n.key.toLowerCase().includes(key.toLowerCase()));
     await tables.getByLabel('Search by key').fill(key);

@@ -63,6 +63,7 @@ async function signIn(email: string) {
 describe('walkthrough: 3D playback, tether swap call-out and printable step cards', () => {
   it('lets a trainer open the demo plan’s walkthrough, step to the first tether swap and print the cards', async () => {
     const { page } = session;
+    await page.setViewportSize({ width: 1440, height: 900 });
     const planId = await ensureDemoPlan();
     await session.page.request.post('/api/auth/sign-out');
     await session.goto('/sign-in');
@@ -101,6 +102,21 @@ describe('walkthrough: 3D playback, tether swap call-out and printable step card
     );
     await expect(page.getByLabel('Planning caution').first().isVisible()).resolves.toBe(true);
 
+    // at the start both crew stand at the airlock: no tag is drawn over another or over a marker
+    const scene = page.getByTestId('station-scene');
+    await sceneSettled(page, 0);
+    const rects = JSON.parse((await scene.getAttribute('data-label-rects')) ?? '[]') as number[][];
+    expect(rects.length).toBeGreaterThan(0);
+    for (let i = 0; i < rects.length; i++)
+      for (let j = i + 1; j < rects.length; j++) {
+        const [a, b] = [rects[i], rects[j]];
+        const overlap = a[0] < b[0] + b[2] && b[0] < a[0] + a[2] && a[1] < b[1] + b[3] && b[1] < a[1] + a[3];
+        expect(overlap, `tags ${i} and ${j} overlap at the start`).toBe(false);
+      }
+    await session.screenshot('walkthrough-1440');
+    const canvasTop = async () => (await scene.locator('canvas').boundingBox())!.y;
+    const topBefore = await canvasTop();
+
     // step through events until the first swap is under way
     const callout = page.getByTestId('step-callout');
     const swapText = `Tether swap at ${firstSwap.clipKey}: clip the new hook at ${firstSwap.clipKey}, then release the old one at ${firstSwap.releaseKey}`;
@@ -108,6 +124,13 @@ describe('walkthrough: 3D playback, tether swap call-out and printable step card
       await page.getByRole('button', { name: 'Next step' }).click();
     }
     await expect(callout.textContent()).resolves.toContain(swapText);
+    // stepping moved neither the page nor the model: Play and Next are still in the window
+    expect(await page.evaluate(() => window.scrollY)).toBe(0);
+    expect(await canvasTop()).toBe(topBefore);
+    for (const name of ['Next step', 'Previous step']) {
+      const box = (await page.getByRole('button', { name }).boundingBox())!;
+      expect(box.y + box.height).toBeLessThanOrEqual(900);
+    }
     const crew = firstSwap.crew!;
     await expect(page.getByTestId(`paid-out-${crew}`).textContent()).resolves.toContain(
       `clipped at ${firstSwap.releaseKey}`,

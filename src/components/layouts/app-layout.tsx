@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import { NavLink, useNavigate } from 'react-router-dom';
+import { NavLink, useMatches, useNavigate } from 'react-router-dom';
 import { can, ROLE_LABELS, type Permission } from '@shared/auth/permissions';
 import { paths } from '@/config/paths';
 import { useSignOut, useUser } from '@/lib/authorization';
@@ -28,6 +28,8 @@ export function AppLayout({ children }: { children: ReactNode }) {
   const navigate = useNavigate();
   const signOut = useSignOut({ onSuccess: () => navigate(paths.signIn.getHref(), { replace: true }) });
   const items = NAV_ITEMS.filter((item) => can(user, item.permission));
+  // a 3D workspace (route handle `workspace`) takes the window's whole width
+  const workspace = useMatches().some((m) => (m.handle as { workspace?: boolean } | undefined)?.workspace);
 
   return (
     <div className="flex min-h-screen flex-col">
@@ -38,7 +40,12 @@ export function AppLayout({ children }: { children: ReactNode }) {
         Skip to content
       </a>
       <header className="bg-ink-900 text-ink-100">
-        <div className="mx-auto flex h-14 max-w-7xl items-center gap-6 px-4 sm:px-6">
+        <div
+          className={cn(
+            'mx-auto flex h-14 items-center gap-6',
+            workspace ? 'px-3 sm:px-4' : 'max-w-7xl px-4 sm:px-6',
+          )}
+        >
           <NavLink to={paths.home.getHref()} className={cn('flex items-center gap-2 rounded', focusRing)}>
             <BrandMark />
             <span className="text-base font-semibold tracking-tight text-white">Tetherwise</span>
@@ -81,7 +88,13 @@ export function AppLayout({ children }: { children: ReactNode }) {
           )}
         </div>
       </header>
-      <main id="main" className="mx-auto w-full max-w-7xl flex-1 px-4 py-6 sm:px-6">
+      <main
+        id="main"
+        className={cn(
+          'mx-auto w-full flex-1',
+          workspace ? 'px-3 pt-2 pb-0 sm:px-4' : 'max-w-7xl px-4 py-6 sm:px-6',
+        )}
+      >
         {children}
       </main>
     </div>
@@ -92,16 +105,28 @@ export function PageHeader({
   title,
   description,
   actions,
+  compact = false,
 }: {
   title: string;
   description?: ReactNode;
   actions?: ReactNode;
+  /** one tight line over a 3D workspace, which gets the height */
+  compact?: boolean;
 }) {
   return (
-    <div className="mb-6 flex flex-wrap items-end justify-between gap-4">
-      <div>
-        <h1 className="text-2xl font-semibold tracking-tight text-text-strong">{title}</h1>
-        {description && <p className="mt-1 max-w-3xl text-sm text-text-muted">{description}</p>}
+    <div
+      className={cn(
+        'flex flex-wrap justify-between',
+        compact ? 'mb-2 items-center gap-x-4 gap-y-1' : 'mb-6 items-end gap-4',
+      )}
+    >
+      <div className={compact ? 'flex min-w-0 flex-wrap items-baseline gap-x-3' : undefined}>
+        <h1 className={cn('font-semibold tracking-tight text-text-strong', compact ? 'text-xl' : 'text-2xl')}>
+          {title}
+        </h1>
+        {description && (
+          <p className={cn('text-sm text-text-muted', compact ? '' : 'mt-1 max-w-3xl')}>{description}</p>
+        )}
       </div>
       {actions && <div className="flex items-center gap-2">{actions}</div>}
     </div>

@@ -1,6 +1,8 @@
-import { useEffect, useMemo } from 'react';
+import { useEffect, useMemo, useRef } from 'react';
 import { useThree } from '@react-three/fiber';
 import * as THREE from 'three';
+import { LABEL_PRIORITY } from './declutter';
+import { usePlacedLabel } from './label-layer';
 
 const FONT_PX = 26;
 const PAD_PX = 8;
@@ -41,6 +43,8 @@ export function TextSprite({
   shiftX = -0.12,
   shiftY = 0.5,
   renderOrder = 16,
+  priority = LABEL_PRIORITY.node,
+  group,
 }: {
   text: string;
   background: string;
@@ -50,7 +54,12 @@ export function TextSprite({
   shiftY?: number;
   /** drawn after everything with a lower order (labels of a marker sit under the marker itself) */
   renderOrder?: number;
+  /** which tags keep their place when tags would cover each other (`LABEL_PRIORITY`) */
+  priority?: number;
+  /** the marker this tag belongs to (it may sit against that marker's shape) */
+  group?: unknown;
 }) {
+  const sprite = useRef<THREE.Sprite>(null);
   const label = useMemo(() => labelTexture(text, background, color), [text, background, color]);
   useEffect(() => () => label.texture.dispose(), [label]);
   const camera = useThree((s) => s.camera) as THREE.PerspectiveCamera;
@@ -58,8 +67,14 @@ export function TextSprite({
   // with sizeAttenuation off a sprite's scale is in view units: convert the wanted pixel height
   const sy = (2 * heightPx * Math.tan(((camera.fov ?? 45) * Math.PI) / 360)) / Math.max(1, viewHeight);
   const sx = (sy * label.width) / label.height;
+  usePlacedLabel(sprite, {
+    priority,
+    group,
+    tag: { widthPx: (heightPx * label.width) / label.height, heightPx, shiftX, shiftY },
+  });
   return (
     <sprite
+      ref={sprite}
       scale={[sx, sy, 1]}
       center={new THREE.Vector2(shiftX, shiftY)}
       renderOrder={renderOrder}

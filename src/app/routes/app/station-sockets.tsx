@@ -2,7 +2,7 @@ import { useCallback, useEffect, useRef } from 'react';
 import { useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { PageHeader } from '@/components/layouts/app-layout';
-import { Panel } from '@/components/ui/card';
+import { SidePanel, useSidePanelState, Workspace } from '@/components/layouts/workspace';
 import { PlanningCaution } from '@/components/ui/planning-caution';
 import { PageSpinner } from '@/components/ui/spinner';
 import { TextLink } from '@/components/ui/text-link';
@@ -11,7 +11,7 @@ import { ApiError } from '@/lib/api-client';
 import { requireUser } from '@/lib/authorization';
 import { getPlanQueryOptions } from '@/features/plans/api/get-plan';
 import { usePlans } from '@/features/plans/api/get-plans';
-import { StationScene, scenePieces, type SceneApi } from '@/features/scene-3d';
+import { SceneToolbar, StationScene, scenePieces, type SceneApi } from '@/features/scene-3d';
 import { getStationGraphQueryOptions, useStationGraph } from '@/features/stations/api/get-station-graph';
 import { stationKeys } from '@/features/stations/api/keys';
 import {
@@ -54,6 +54,7 @@ function SocketPlannerPage({ graph }: { graph: StationGraph }) {
     [queryClient],
   );
   const sceneApi = useRef<SceneApi>(null);
+  const [panelOpen, setPanelOpen] = useSidePanelState(0);
   const planner = useSocketPlanner(station, { invalidates: [stationKeys.graph(stationId)] });
 
   const { focus } = planner;
@@ -64,6 +65,7 @@ function SocketPlannerPage({ graph }: { graph: StationGraph }) {
   return (
     <>
       <PageHeader
+        compact
         title="Socket planner"
         description={
           <>
@@ -73,53 +75,70 @@ function SocketPlannerPage({ graph }: { graph: StationGraph }) {
           </>
         }
       />
-      <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_380px]">
-        <div className="space-y-3">
+      <Workspace
+        right={
+          <SidePanel
+            title="Plan sockets"
+            side="right"
+            open={panelOpen}
+            onOpenChange={setPanelOpen}
+            className="w-[26rem]"
+          >
+            <div className="relative min-h-0 flex-1 space-y-5 overflow-y-auto p-4">
+              <SocketPlannerControls
+                planner={planner}
+                plans={plans.data ?? []}
+                loadPlanWorksites={loadPlanWorksites}
+              />
+              <section aria-label="Result" className="space-y-2 border-t border-surface-line pt-4">
+                <h2 className="text-base font-semibold text-text-strong">Result</h2>
+                {planner.run ? (
+                  <SocketPlanResults
+                    planner={planner}
+                    nodeHref={(key) => `${paths.station.getHref(stationId)}?node=${encodeURIComponent(key)}`}
+                    onReload={() =>
+                      void queryClient.invalidateQueries({ queryKey: stationKeys.graph(stationId) })
+                    }
+                  />
+                ) : (
+                  <p className="text-sm text-text-muted">
+                    Choose targets and plan: the result shows here and in 3D.
+                  </p>
+                )}
+              </section>
+              <section aria-label="Restraint angles" className="space-y-2 border-t border-surface-line pt-4">
+                <h2 className="text-base font-semibold text-text-strong">Restraint angles</h2>
+                <YawPitchDiagram />
+              </section>
+              <PlanningCaution className="px-3 py-2 text-xs" />
+              <p className="text-xs text-text-muted">
+                The reach stand-off and radius are planning defaults from memory, not verified suited
+                work-envelope dimensions.
+              </p>
+            </div>
+          </SidePanel>
+        }
+      >
+        <SceneToolbar api={sceneApi} />
+        <div className="relative min-h-0 flex-1">
           <StationScene
             graph={graph}
             apiRef={sceneApi}
             label={`3D view of ${graph.station.name} with the planned sockets and their work envelopes`}
-            className={planner.picking ? 'h-[560px] cursor-crosshair ring-2 ring-accent' : 'h-[560px]'}
+            className={planner.picking ? 'h-full cursor-crosshair ring-2 ring-accent' : 'h-full'}
             onPickSurface={(pick) => void planner.pickSurface(pick)}
             overlays={<SocketPlannerOverlay planner={planner} pieces={scenePieces} />}
           />
           {planner.picking && (
-            <p role="status" className="text-sm text-accent-strong">
+            <p
+              role="status"
+              className="absolute top-2 left-2 rounded-md bg-surface-panel/95 px-3 py-1.5 text-sm text-accent-strong shadow"
+            >
               Click a truss or module surface to add a target point there.
             </p>
           )}
         </div>
-        <Panel title="Plan sockets">
-          <SocketPlannerControls
-            planner={planner}
-            plans={plans.data ?? []}
-            loadPlanWorksites={loadPlanWorksites}
-          />
-        </Panel>
-      </div>
-      <div className="mt-6 grid gap-6 lg:grid-cols-[minmax(0,1fr)_380px]">
-        <Panel title="Result">
-          {planner.run ? (
-            <SocketPlanResults
-              planner={planner}
-              nodeHref={(key) => `${paths.station.getHref(stationId)}?node=${encodeURIComponent(key)}`}
-              onReload={() => void queryClient.invalidateQueries({ queryKey: stationKeys.graph(stationId) })}
-            />
-          ) : (
-            <p className="text-sm text-text-muted">
-              Choose targets and plan: the result shows here and in 3D.
-            </p>
-          )}
-        </Panel>
-        <Panel title="Restraint angles">
-          <YawPitchDiagram />
-        </Panel>
-      </div>
-      <PlanningCaution className="mt-6" />
-      <p className="mt-2 text-xs text-text-muted">
-        The reach stand-off and radius are planning defaults from memory, not verified suited work-envelope
-        dimensions.
-      </p>
+      </Workspace>
     </>
   );
 }

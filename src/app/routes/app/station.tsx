@@ -1,12 +1,11 @@
 import { useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
 import { useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { Link, useParams, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
-import type { Vec3 } from '@shared/schemas/station';
 import type { StationGraph } from '@shared/schemas/station-edits';
 import { PageHeader } from '@/components/layouts/app-layout';
+import { SidePanel, useSidePanelState, Workspace } from '@/components/layouts/workspace';
 import { Alert } from '@/components/ui/alert';
 import { Button, focusRing } from '@/components/ui/button';
-import { Panel } from '@/components/ui/card';
 import { Dialog } from '@/components/ui/dialog';
 import { PlanningCaution } from '@/components/ui/planning-caution';
 import { PageSpinner } from '@/components/ui/spinner';
@@ -17,7 +16,6 @@ import { cn } from '@/lib/cn';
 import { paths } from '@/config/paths';
 import {
   DEFAULT_LAYERS,
-  SceneLegend,
   SceneToolbar,
   StationScene,
   scenePieces,
@@ -30,8 +28,8 @@ import { getStationGraphQueryOptions, useStationGraph } from '@/features/station
 import { ImportStationForm } from '@/features/stations/components/import-station-form';
 import { DeleteStationButton } from '@/features/stations/components/delete-station-button';
 import { NodeList } from '@/features/stations/components/node-list';
-import { PanelTabs } from '@/features/stations/components/panel-tabs';
-import { edgesOf, type StationSelection } from '@/features/stations/components/selection';
+import { PanelTabs } from '@/components/ui/panel-tabs';
+import { selectionPoints, type StationSelection } from '@/features/stations/components/selection';
 import { SelectionDetails } from '@/features/stations/components/selection-details';
 import { StationTables } from '@/features/stations/components/station-tables';
 import { RouteFinderPanel, RouteOverlay, useRouteFinder } from '@/features/routes';
@@ -40,6 +38,9 @@ import { EditPanel } from '@/features/station-editor';
 import { stationKeys } from '@/features/stations/api/keys';
 
 const stationIdOf = (raw: string | undefined) => Number(raw);
+const TABLES_ID = 'station-tables';
+/** below this window width the side panel starts folded, leaving the width to the 3D view */
+const RIGHT_PANEL_MIN_WINDOW_PX = 960;
 
 const linkButtonClass = cn(
   'inline-flex h-10 items-center rounded-md border border-surface-line bg-surface-panel px-4 text-sm font-medium text-text-strong hover:bg-surface-sunken',
@@ -107,20 +108,18 @@ export function StationView({
     [],
   );
 
-  const positions = useMemo(() => new Map(graph.nodes.map((n) => [n.key, n.position])), [graph]);
-  /** brings a node and its neighbours into view */
-  const frameNode = (key: string) => {
-    const near = [key, ...edgesOf(graph, key).map((e) => (e.from === key ? e.to : e.from))];
-    const points = near.map((k) => positions.get(k)).filter((p): p is Vec3 => p !== undefined);
+  /** brings a selection into view: a node with its neighbours, an edge, a hazard's volume */
+  const frame = (next: StationSelection) => {
+    const points = selectionPoints(graph, next);
     if (points.length) api.fitToView(points);
   };
-  /** selecting from the list, tables or details also frames the node */
+  /** selecting from the list, tables or details also frames the selection */
   const focus = (next: StationSelection) => {
     setSelection(next);
-    if (next?.type === 'node') frameNode(next.key);
+    frame(next);
   };
   useEffect(() => {
-    if (linkedNode && positions.has(linkedNode)) frameNode(linkedNode);
+    if (selection) frame(selection);
     // once, when the page opens on a linked node
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, []);
@@ -142,19 +141,44 @@ export function StationView({
     ...panels.map((p) => ({ id: p.id, label: p.label, render: () => p.render(ctx) })),
   ];
 
+  const [panelOpen, setPanelOpen] = useSidePanelState(RIGHT_PANEL_MIN_WINDOW_PX);
+  const [tablesOpen, setTablesOpen] = useState(false);
   return (
-    <div className="space-y-4">
-      <SceneToolbar api={sceneApi} layers={layers} onLayersChange={setLayers} />
-      <div className="grid gap-4 lg:grid-cols-[15rem_minmax(0,1fr)_22rem]">
-        <div className="flex h-[560px] flex-col">
-          <NodeList
-            nodes={graph.nodes}
-            selectedKey={selection?.type === 'node' ? selection.key : null}
-            onSelect={(key) => focus({ type: 'node', key })}
-          />
-        </div>
+    <Workspace
+      right={
+        <SidePanel
+          title="Selection and tools"
+          side="right"
+          open={panelOpen}
+          onOpenChange={setPanelOpen}
+          className="w-[22rem]"
+        >
+          <div className="flex min-h-0 flex-1 flex-col">
+            <PanelTabs label="Station panels" tabs={tabs} active={tab} onChange={onTabChange} />
+          </div>
+          {(panels.length > 0 || overlays) && <PlanningCaution className="m-2 shrink-0 px-3 py-2 text-xs" />}
+        </SidePanel>
+      }
+    >
+      <SceneToolbar
+        api={sceneApi}
+        layers={layers}
+        onLayersChange={setLayers}
+        onFrameSelection={selection ? () => frame(selection) : undefined}
+      >
+        <Button
+          size="sm"
+          variant={tablesOpen ? 'primary' : 'secondary'}
+          aria-expanded={tablesOpen}
+          aria-controls={TABLES_ID}
+          onClick={() => setTablesOpen(!tablesOpen)}
+        >
+          Tables
+        </Button>
+      </SceneToolbar>
+      <div className="relative min-h-0 flex-1">
         <StationScene
-          className="h-[560px]"
+          className="h-full"
           label={`3D view of ${graph.station.name}`}
           graph={graph}
           selection={selection}
@@ -168,19 +192,32 @@ export function StationView({
           }}
           overlays={overlays}
         />
-        <section
-          aria-label="Selection and tools"
-          className="flex h-[560px] flex-col rounded-lg border border-surface-line bg-surface-panel"
-        >
-          <PanelTabs label="Station panels" tabs={tabs} active={tab} onChange={onTabChange} />
-        </section>
+        <NodeList
+          floating
+          className="absolute top-2 left-2 z-10 w-80 max-w-[calc(100%-1rem)]"
+          nodes={graph.nodes}
+          selectedKey={selection?.type === 'node' ? selection.key : null}
+          onSelect={(key) => focus({ type: 'node', key })}
+        />
       </div>
-      <SceneLegend />
-      {(panels.length > 0 || overlays) && <PlanningCaution />}
-      <Panel title="Tables" level={2}>
-        <StationTables graph={graph} selection={selection} onSelect={focus} />
-      </Panel>
-    </div>
+      {tablesOpen && (
+        <section
+          id={TABLES_ID}
+          aria-label="Tables"
+          className="flex h-[45%] min-h-56 shrink-0 flex-col rounded-lg border border-surface-line bg-surface-panel"
+        >
+          <div className="flex items-center justify-between border-b border-surface-line py-1 pr-1 pl-4">
+            <h2 className="text-sm font-semibold text-text-strong">Tables</h2>
+            <Button size="sm" variant="ghost" onClick={() => setTablesOpen(false)}>
+              Close tables
+            </Button>
+          </div>
+          <div className="relative min-h-0 flex-1 overflow-y-auto px-4 py-3">
+            <StationTables graph={graph} selection={selection} onSelect={focus} />
+          </div>
+        </section>
+      )}
+    </Workspace>
   );
 }
 
@@ -257,6 +294,7 @@ export default function StationRoute() {
   return (
     <>
       <PageHeader
+        compact
         title={station.name}
         description={
           <>

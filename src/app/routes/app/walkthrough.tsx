@@ -3,7 +3,6 @@ import { useParams, useSearchParams, type LoaderFunctionArgs } from 'react-route
 import { PageHeader } from '@/components/layouts/app-layout';
 import { Alert } from '@/components/ui/alert';
 import { Badge } from '@/components/ui/badge';
-import { PlanningCaution } from '@/components/ui/planning-caution';
 import { PageSpinner } from '@/components/ui/spinner';
 import { TextLink } from '@/components/ui/text-link';
 import { paths } from '@/config/paths';
@@ -40,6 +39,7 @@ export default function WalkthroughRoute() {
     <>
       {!printView && (
         <PageHeader
+          compact
           title={walkthrough.name}
           description={
             <>
@@ -71,7 +71,6 @@ export default function WalkthroughRoute() {
           actions={<TextLink to={paths.walkthroughs.getHref()}>All walkthroughs</TextLink>}
         />
       )}
-      {!printView && <PlanningCaution className="mb-4" />}
       {detail.playback ? (
         <WalkthroughPlayer detail={detail} printView={printView} Scene={PlaybackScene} />
       ) : (

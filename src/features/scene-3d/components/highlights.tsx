@@ -4,6 +4,7 @@ import type { Hazard, StationNode, Vec3 } from '@shared/schemas/station';
 import { SCENE_COLORS } from '../builders/scene-colors';
 import type { SceneStation, StationObjects } from '../builders/station-objects';
 import { PathLine, SceneLabel } from './pieces';
+import { LABEL_PRIORITY } from '@/components/scene/declutter';
 
 export type SceneSelection = { type: 'node' | 'edge' | 'hazard'; key: string } | null;
 
@@ -52,7 +53,7 @@ export function SelectionHighlight({
           <sphereGeometry args={[at.kind === 'airlock' ? 0.8 : 0.38, 20, 14]} />
           <meshBasicMaterial color={SCENE_COLORS.selection} wireframe depthTest={false} transparent />
         </mesh>
-        <SceneLabel position={p} tone="light">
+        <SceneLabel position={p} tone="light" priority={LABEL_PRIORITY.selected}>
           {nodeText(
             station.nodes.find((n) => n.key === selection.key),
             selection.key,
@@ -113,7 +114,7 @@ export function HoverLabel({
   const at = nodeKey ? objects.nodeIndex.get(nodeKey) : undefined;
   if (!nodeKey || !at) return null;
   return (
-    <SceneLabel position={at.position.toArray() as Vec3} tone="light">
+    <SceneLabel position={at.position.toArray() as Vec3} tone="light" priority={LABEL_PRIORITY.hovered}>
       {nodeText(
         station.nodes.find((n) => n.key === nodeKey),
         nodeKey,

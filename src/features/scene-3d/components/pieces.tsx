@@ -3,6 +3,8 @@ import { useFrame } from '@react-three/fiber';
 import { Line } from '@react-three/drei';
 import * as THREE from 'three';
 import type { ScenePieces } from '@/components/scene/scene-pieces';
+import { LABEL_PRIORITY } from '@/components/scene/declutter';
+import { usePlacedLabel } from '@/components/scene/label-layer';
 import { TextSprite } from '@/components/scene/text-sprite';
 import type { Vec3 } from '@shared/schemas/station';
 
@@ -42,10 +44,15 @@ export function SceneLabel({
   position,
   children,
   tone = 'dark',
+  priority,
+  group,
 }: {
   position: Vec3;
   children: string;
   tone?: 'dark' | 'light';
+  /** which tags keep their place when tags would cover each other (`LABEL_PRIORITY`) */
+  priority?: number;
+  group?: unknown;
 }) {
   return (
     <group position={position}>
@@ -55,6 +62,8 @@ export function SceneLabel({
         color={tone === 'light' ? '#111826' : '#e3e9f2'}
         heightPx={tone === 'light' ? 20 : 18}
         renderOrder={10}
+        priority={priority}
+        group={group}
       />
     </group>
   );
@@ -80,6 +89,12 @@ export function Marker({
   const text = [number !== undefined ? String(number) : null, label].filter(Boolean).join(' · ');
   const ball = useRef<THREE.Mesh>(null);
   const at = useMemo(() => new THREE.Vector3(...position), [position]);
+  const group = useMemo(() => ({}), []);
+  usePlacedLabel(ball, {
+    priority: LABEL_PRIORITY.marker,
+    group,
+    shape: { radiusM: size, minPx: MARKER_MIN_PX },
+  });
   useFrame(({ camera, size: view, invalidate }) => {
     if (!ball.current) return;
     // world size of MARKER_MIN_PX at this distance, for a perspective camera
@@ -98,7 +113,7 @@ export function Marker({
         <meshBasicMaterial color={color} depthTest={false} transparent toneMapped={false} />
       </mesh>
       {text && (
-        <SceneLabel position={[0, 0, 0]} tone="light">
+        <SceneLabel position={[0, 0, 0]} tone="light" priority={LABEL_PRIORITY.marker} group={group}>
           {text}
         </SceneLabel>
       )}

@@ -1,6 +1,7 @@
 import { useEffect, useImperativeHandle, useMemo, useRef, useState, type ReactNode, type Ref } from 'react';
 import { GizmoHelper, GizmoViewport } from '@react-three/drei';
 import { Canvas } from '@react-three/fiber';
+import { LabelLayer } from '@/components/scene/label-layer';
 import { cn } from '@/lib/cn';
 import { STATION_UP } from '../builders/frame';
 import type { SurfacePick } from '../builders/picking';
@@ -94,31 +95,33 @@ export function StationScene({
         onCreated={({ gl }) => gl.setClearColor(SCENE_COLORS.background)}
       >
         <SceneContext.Provider value={context}>
-          <color attach="background" args={[SCENE_COLORS.background]} />
-          <Lights />
-          <StationModel
-            objects={objects}
-            layers={layers}
-            statsTarget={wrapper}
-            onHover={(key) => {
-              setHovered(key);
-              onHoverNode?.(key);
-            }}
-            onPick={(pick) => {
-              if (pick.type === 'node') onSelectNode?.(pick.key);
-              else if (pick.type === 'hazard') onSelectHazard?.(pick.key);
-              else onPickSurface?.({ point: pick.point, normal: pick.normal, segmentKey: pick.segmentKey });
-            }}
-          />
-          <SelectionHighlight station={graph} objects={objects} selection={selection} />
-          {hovered && hovered !== (selection?.type === 'node' ? selection.key : null) && (
-            <HoverLabel station={graph} objects={objects} nodeKey={hovered} />
-          )}
-          {layers.labels && (
-            <NodeLabels station={graph} hidden={selection?.type === 'node' ? selection.key : null} />
-          )}
-          <ArmsLayer station={graph} layers={layers} hidden={hiddenArms} />
-          {overlays}
+          <LabelLayer report={wrapper}>
+            <color attach="background" args={[SCENE_COLORS.background]} />
+            <Lights />
+            <StationModel
+              objects={objects}
+              layers={layers}
+              statsTarget={wrapper}
+              onHover={(key) => {
+                setHovered(key);
+                onHoverNode?.(key);
+              }}
+              onPick={(pick) => {
+                if (pick.type === 'node') onSelectNode?.(pick.key);
+                else if (pick.type === 'hazard') onSelectHazard?.(pick.key);
+                else onPickSurface?.({ point: pick.point, normal: pick.normal, segmentKey: pick.segmentKey });
+              }}
+            />
+            <SelectionHighlight station={graph} objects={objects} selection={selection} />
+            {hovered && hovered !== (selection?.type === 'node' ? selection.key : null) && (
+              <HoverLabel station={graph} objects={objects} nodeKey={hovered} />
+            )}
+            {layers.labels && (
+              <NodeLabels station={graph} hidden={selection?.type === 'node' ? selection.key : null} />
+            )}
+            <ArmsLayer station={graph} layers={layers} hidden={hiddenArms} />
+            {overlays}
+          </LabelLayer>
           <CameraRig outline={objects.outline} apiRef={innerApi} />
           <GizmoHelper alignment="bottom-left" margin={[64, 64]}>
             <GizmoViewport labels={['S', 'F', 'Z']} labelColor="#0a1220" axisHeadScale={0.9} />

@@ -13,13 +13,23 @@ export function NodeList({
   nodes,
   selectedKey,
   onSelect,
+  floating = false,
+  className,
 }: {
   nodes: readonly StationNode[];
   selectedKey: string | null;
   onSelect: (key: string) => void;
+  /**
+   * over the 3D view: the search box always there, the list only while the finder has focus, so
+   * the model is not covered once a node is chosen
+   */
+  floating?: boolean;
+  className?: string;
 }) {
   const id = useId();
   const [query, setQuery] = useState('');
+  const [focused, setFocused] = useState(false);
+  const listShown = !floating || focused;
   const [active, setActive] = useState(0);
   const listRef = useRef<HTMLUListElement>(null);
   const matches = useMemo(() => {
@@ -63,17 +73,33 @@ export function NodeList({
 
   const optionId = (i: number) => `${id}-opt-${i}`;
   return (
-    <div className="flex min-h-0 flex-col gap-2">
-      <label htmlFor={`${id}-search`} className="text-sm font-medium text-text-strong">
+    <div
+      className={cn(
+        'flex min-h-0 flex-col gap-2',
+        floating && 'rounded-lg border border-surface-line bg-surface-panel/95 p-2 shadow-lg',
+        className,
+      )}
+      onFocus={() => setFocused(true)}
+      onBlur={(e) => {
+        if (!e.currentTarget.contains(e.relatedTarget as Node | null)) setFocused(false);
+      }}
+      onKeyDown={(e) => {
+        if (floating && e.key === 'Escape') (document.activeElement as HTMLElement | null)?.blur();
+      }}
+    >
+      <label
+        htmlFor={`${id}-search`}
+        className={floating ? 'sr-only' : 'text-sm font-medium text-text-strong'}
+      >
         Find a node
       </label>
       <Input
         id={`${id}-search`}
         type="search"
-        placeholder="Key or label, e.g. PB3-A07"
+        placeholder={floating ? 'Find a node: key or label, e.g. PB3-A07' : 'Key or label, e.g. PB3-A07'}
         value={query}
         role="combobox"
-        aria-expanded="true"
+        aria-expanded={listShown}
         aria-controls={`${id}-list`}
         aria-activedescendant={shown[active] ? optionId(active) : undefined}
         onChange={(e) => {
@@ -82,7 +108,7 @@ export function NodeList({
         }}
         onKeyDown={onKeyDown}
       />
-      <p className="text-xs text-text-muted" aria-live="polite">
+      <p className={cn('text-xs text-text-muted', !listShown && 'sr-only')} aria-live="polite">
         {matches.length === nodes.length
           ? `${nodes.length} nodes`
           : `${matches.length} of ${nodes.length} nodes match`}
@@ -90,13 +116,17 @@ export function NodeList({
       </p>
       <ul
         ref={listRef}
+        hidden={!listShown}
         id={`${id}-list`}
         role="listbox"
         aria-label="Nodes"
         tabIndex={0}
         aria-activedescendant={shown[active] ? optionId(active) : undefined}
         onKeyDown={onKeyDown}
-        className="min-h-0 flex-1 overflow-y-auto rounded-md border border-surface-line bg-surface-panel focus-visible:outline-2 focus-visible:outline-offset-1 focus-visible:outline-accent"
+        className={cn(
+          'min-h-0 flex-1 overflow-y-auto rounded-md border border-surface-line bg-surface-panel focus-visible:outline-2 focus-visible:outline-offset-1 focus-visible:outline-accent',
+          floating && 'max-h-[min(24rem,50vh)]',
+        )}
       >
         {shown.map((node, i) => {
           const selected = node.key === selectedKey;
@@ -107,6 +137,8 @@ export function NodeList({
               data-index={i}
               role="option"
               aria-selected={selected}
+              // a press on an option keeps the focus (and so the open list) in the finder
+              onMouseDown={(e) => e.preventDefault()}
               onClick={() => {
                 setActive(i);
                 onSelect(node.key);

@@ -224,7 +224,7 @@ export function SelectionDetails({ graph, selection, onSelect }: SelectionViewPr
   return (
     <EmptyState>
       Nothing selected. Click a glyph in the 3D view, choose a node from the list (arrow keys and Enter), or
-      pick a row in the tables below.
+      pick a row in the tables.
     </EmptyState>
   );
 }

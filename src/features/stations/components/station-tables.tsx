@@ -24,7 +24,7 @@ import { Input } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import { Table, Td, Th } from '@/components/ui/table';
 import { cn } from '@/lib/cn';
-import { PanelTabs } from './panel-tabs';
+import { PanelTabs } from '@/components/ui/panel-tabs';
 import { edgeKey, type SelectionViewProps, type StationSelection } from './selection';
 
 const PAGE_SIZE = 25;

@@ -5,6 +5,7 @@ import type { EquipmentTrack } from '@shared/compute/day/types';
 import { itemStateAt, sampleTrack } from '@shared/compute/walkthrough';
 import type { ManifestKind } from '@shared/schemas/plan';
 import type { Vec3 } from '@shared/schemas/station';
+import { LABEL_PRIORITY } from '@/components/scene/declutter';
 import { TextSprite } from '@/components/scene/text-sprite';
 import type { PlaybackClock } from '../lib/playback-clock';
 import type { Lane } from '../lib/playback-model';
@@ -119,6 +120,7 @@ function ItemMarker({
       <group ref={label}>
         <TextSprite
           text={track.name}
+          priority={LABEL_PRIORITY.item}
           background={ITEM_STYLE.label}
           color="#111826"
           heightPx={14}

@@ -58,7 +58,7 @@ export function PlaybackControls({
 
   return (
     <div
-      className="space-y-3 rounded-lg border border-surface-line bg-surface-panel p-3"
+      className="shrink-0 space-y-2 rounded-lg border border-surface-line bg-surface-panel px-3 py-2"
       role="group"
       aria-label="Playback"
     >
@@ -89,6 +89,27 @@ export function PlaybackControls({
           </span>
           <span className="text-text-muted"> / {formatElapsed(end, { withSeconds: true })}</span>
         </p>
+        <label className="ml-2 flex items-center gap-1.5 text-sm font-medium text-text-strong">
+          Speed
+          <Select
+            className="h-8 w-20"
+            value={String(speed)}
+            onChange={(e) => clock.setSpeed(Number(e.target.value))}
+            options={SPEEDS.map((s) => ({ value: String(s), label: `${s}×` }))}
+          />
+        </label>
+        <label className="flex items-center gap-1.5 text-sm font-medium text-text-strong">
+          Camera
+          <Select
+            className="h-8 w-36"
+            value={follow}
+            onChange={(e) => clock.setFollow(e.target.value as FollowTarget)}
+            options={[
+              { value: 'free', label: 'Free orbit' },
+              ...lanes.map((l) => ({ value: l.id, label: `Follow ${l.short}` })),
+            ]}
+          />
+        </label>
         {hasClock && (
           <span
             data-testid="orbit-phase"
@@ -142,33 +163,10 @@ export function PlaybackControls({
           aria-describedby="walkthrough-scrub-hint"
           className="relative w-full accent-accent focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-accent"
         />
-        <p id="walkthrough-scrub-hint" className="mt-1 text-xs text-text-muted">
+        <p id="walkthrough-scrub-hint" className="text-xs text-text-muted">
           {hasClock && 'Dark bands on the bar are orbital night. '}Arrow keys on the bar step from block to
           block.
         </p>
-      </div>
-      <div className="flex flex-wrap items-end gap-4">
-        <label className="text-sm font-medium text-text-strong">
-          Speed
-          <Select
-            className="mt-1 h-9 w-28"
-            value={String(speed)}
-            onChange={(e) => clock.setSpeed(Number(e.target.value))}
-            options={SPEEDS.map((s) => ({ value: String(s), label: `${s}×` }))}
-          />
-        </label>
-        <label className="text-sm font-medium text-text-strong">
-          Camera
-          <Select
-            className="mt-1 h-9 w-44"
-            value={follow}
-            onChange={(e) => clock.setFollow(e.target.value as FollowTarget)}
-            options={[
-              { value: 'free', label: 'Free orbit' },
-              ...lanes.map((l) => ({ value: l.id, label: `Follow ${l.short}` })),
-            ]}
-          />
-        </label>
       </div>
     </div>
   );

@@ -34,7 +34,7 @@ export function StepCallout({ current }: { current: CurrentSteps }) {
         return (
           <div
             key={lane.id}
-            className="rounded-md border-l-4 bg-ink-900 px-4 py-3 text-ink-100"
+            className="rounded-md border-l-4 bg-ink-900 px-3 py-2 text-ink-100"
             style={{ borderColor: style.color }}
           >
             <p className="text-xs font-semibold tracking-wide text-ink-300 uppercase">
@@ -43,9 +43,9 @@ export function StepCallout({ current }: { current: CurrentSteps }) {
               </span>{' '}
               {lane.label} · {STEP_TYPE_LABELS[step.type]} · {formatElapsed(step.start)}
             </p>
-            <p className="mt-1 text-base font-semibold text-white">{stepCallout(step)}</p>
-            <p className="mt-0.5 text-sm text-ink-300">{step.detail}</p>
-            <StepFacts step={step} className="mt-1 text-sm text-ink-100" />
+            <p className="mt-0.5 text-sm font-semibold text-white">{stepCallout(step)}</p>
+            <p className="mt-0.5 text-xs text-ink-300">{step.detail}</p>
+            <StepFacts step={step} className="mt-0.5 text-xs text-ink-100" />
           </div>
         );
       })}
@@ -147,15 +147,21 @@ export function StepList({
   const list = useRef<HTMLOListElement>(null);
   const firstCurrent = steps.find((s) => currentIds.has(s.step.id))?.step.id;
   useEffect(() => {
-    const el = list.current?.querySelector<HTMLElement>(`[data-step-id="${firstCurrent}"]`);
-    el?.scrollIntoView?.({ block: 'nearest' });
+    // only the list scrolls to the current step: the page (and the 3D view) stays where it is
+    const box = list.current;
+    const el = box?.querySelector<HTMLElement>(`[data-step-id="${firstCurrent}"]`);
+    if (!box || !el) return;
+    const top = el.offsetTop;
+    if (top < box.scrollTop) box.scrollTop = top;
+    else if (top + el.offsetHeight > box.scrollTop + box.clientHeight)
+      box.scrollTop = top + el.offsetHeight - box.clientHeight;
   }, [firstCurrent]);
 
   return (
     <ol
       ref={list}
       aria-label="Steps"
-      className="relative max-h-[70vh] divide-y divide-surface-line overflow-y-auto"
+      className="relative h-full divide-y divide-surface-line overflow-y-auto"
     >
       {steps.map((s) => {
         const isCurrent = currentIds.has(s.step.id);

@@ -12,6 +12,8 @@ import { trackPath, type Lane, type LaneId } from '../lib/playback-model';
 import { ItemsLayer } from './items-layer';
 import { LANE_STYLES } from './lane-styles';
 import { ArmBoom } from '@/components/scene/arm-boom';
+import { LABEL_PRIORITY } from '@/components/scene/declutter';
+import { usePlacedLabel } from '@/components/scene/label-layer';
 import { TextSprite } from '@/components/scene/text-sprite';
 
 const noRaycast = () => null;
@@ -23,10 +25,12 @@ function extentOf(points: readonly Vec3[]): number {
   return box.getSize(new THREE.Vector3()).length();
 }
 
-function MarkerShape({ lane, size }: { lane: LaneId; size: number }) {
+function MarkerShape({ lane, size, group }: { lane: LaneId; size: number; group: unknown }) {
   const style = LANE_STYLES[lane];
+  const shape = useRef<THREE.Mesh>(null);
+  usePlacedLabel(shape, { priority: LABEL_PRIORITY.crew, group, shape: { radiusM: size, minPx: 12 } });
   return (
-    <mesh renderOrder={14} raycast={noRaycast}>
+    <mesh ref={shape} renderOrder={14} raycast={noRaycast}>
       {style.shape === 'octahedron' ? (
         <octahedronGeometry args={[size, 0]} />
       ) : (
@@ -53,6 +57,7 @@ function CrewMarker({
   const anchor = useRef<THREE.Mesh>(null);
   const tether = useRef<Line2>(null);
   const style = LANE_STYLES[lane.id];
+  const marker = useMemo(() => ({}), []);
   const initial = useMemo(() => {
     const s = sampleTrack(lane.track, clock.t);
     return [positions[s.anchorKey] ?? s.position, s.position] as [Vec3, Vec3];
@@ -84,8 +89,10 @@ function CrewMarker({
         <meshBasicMaterial color={style.tether} depthTest={false} transparent />
       </mesh>
       <group ref={group}>
-        <MarkerShape lane={lane.id} size={size} />
+        <MarkerShape lane={lane.id} size={size} group={marker} />
         <TextSprite
+          priority={LABEL_PRIORITY.crew}
+          group={marker}
           text={`${style.glyph} ${lane.short}`}
           background={style.color}
           color="#0a1220"
@@ -145,6 +152,7 @@ function SwapPoint({ lane, n, position, size }: { lane: Lane; n: number; positio
       </mesh>
       <TextSprite
         text={`${lane.short} swap ${n}`}
+        priority={LABEL_PRIORITY.marker}
         background="#ffffff"
         color="#111826"
         heightPx={15}

@@ -4,7 +4,8 @@ import type { Vec3 } from '@shared/schemas/station';
 import type { WalkthroughDetail, WalkthroughPlayback } from '@shared/schemas/walkthrough';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
-import { Panel } from '@/components/ui/card';
+import { PanelTabs } from '@/components/ui/panel-tabs';
+import { SidePanel, useSidePanelState, Workspace } from '@/components/layouts/workspace';
 import { PlanningCaution } from '@/components/ui/planning-caution';
 import { paths } from '@/config/paths';
 import { isApiError } from '@/lib/api-client';
@@ -76,6 +77,8 @@ export interface PlaybackSceneProps {
   label: string;
   /** the arms the overlays move (the scene leaves them out of its arms at rest) */
   movingArms?: readonly string[];
+  /** the scene's size (a fixed height unless its container sizes it) */
+  className?: string;
 }
 
 /** What the playback asks of the 3D scene: to bring points into view. */
@@ -112,6 +115,59 @@ export function WalkthroughPlayer({ detail, printView, Scene }: WalkthroughPlaye
   }, []);
   const frame = useCallback((points: Vec3[]) => sceneApi.current?.fitToView(points), []);
   const rebase = useUpdateWalkthrough();
+  const [panelOpen, setPanelOpen] = useSidePanelState(0);
+  const [tab, setTab] = useState('steps');
+  const tabs = [
+    {
+      id: 'steps',
+      label: `Steps (${steps.length})`,
+      render: () => (
+        <StepList
+          steps={steps}
+          current={current}
+          notes={walkthrough.notes}
+          walkthroughId={walkthrough.id}
+          version={walkthrough.version}
+          canEdit={canEdit}
+          onSeek={(s) => {
+            clock.pause();
+            clock.seek(s.step.start);
+          }}
+        />
+      ),
+    },
+    ...(playback.kind === 'plan'
+      ? [
+          {
+            id: 'now',
+            label: 'At this moment',
+            render: () => (
+              <div className="p-3">
+                <DayState clock={clock} lanes={lanes} equipment={playback.equipment} arms={playback.arms} />
+              </div>
+            ),
+          },
+        ]
+      : []),
+    ...(playback.warnings.length > 0
+      ? [
+          {
+            id: 'warnings',
+            label: `Warnings (${playback.warnings.length})`,
+            render: () => (
+              <ul
+                className="list-disc space-y-1 p-3 pl-8 text-sm text-text"
+                aria-label={`Warnings from the ${playback.kind === 'plan' ? 'plan' : 'route'}`}
+              >
+                {playback.warnings.map((w) => (
+                  <li key={w}>{w}</li>
+                ))}
+              </ul>
+            ),
+          },
+        ]
+      : []),
+  ];
 
   // the playback stays mounted under the print view, so coming back keeps the scene and the clock
   return (
@@ -183,19 +239,42 @@ export function WalkthroughPlayer({ detail, printView, Scene }: WalkthroughPlaye
             )}
           </Alert>
         )}
-        <div className="mb-4 flex flex-wrap items-center gap-2">
-          <CopyLinkButton href={paths.walkthrough.getHref(walkthrough.id, { step: currentNumber })} />
-          <Button variant="secondary" onClick={() => setSearchParams({ print: '1' })}>
-            Print cards
-          </Button>
-        </div>
-        <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_400px]">
-          <div className="min-w-0 space-y-3">
+        <Workspace
+          right={
+            <SidePanel
+              title="Steps and state"
+              side="right"
+              open={panelOpen}
+              onOpenChange={setPanelOpen}
+              className="w-[26rem]"
+            >
+              {/* on a short window the steps keep a usable height and the panel scrolls instead */}
+              <div className="relative flex min-h-0 flex-1 flex-col overflow-y-auto">
+                <div className="shrink-0 space-y-3 border-b border-surface-line p-3">
+                  <StepCallout current={current} />
+                  <TetherGauges clock={clock} lanes={lanes} />
+                </div>
+                <div className="flex min-h-72 flex-1 flex-col">
+                  <PanelTabs label="Walkthrough panels" tabs={tabs} active={tab} onChange={setTab} flush />
+                </div>
+              </div>
+              <PlanningCaution className="m-2 shrink-0 px-3 py-2 text-xs" />
+            </SidePanel>
+          }
+        >
+          <div className="flex flex-wrap items-center gap-2">
+            <CopyLinkButton href={paths.walkthrough.getHref(walkthrough.id, { step: currentNumber })} />
+            <Button size="sm" variant="secondary" onClick={() => setSearchParams({ print: '1' })}>
+              Print cards
+            </Button>
+          </div>
+          <div className="min-h-0 flex-1">
             <Scene
               stationId={walkthrough.stationId}
               apiRef={setSceneApi}
               label={`3D playback of ${walkthrough.name}`}
               movingArms={playback.kind === 'plan' ? playback.arms?.map((a) => a.key) : undefined}
+              className="h-full"
               overlays={
                 <WalkthroughOverlays
                   clock={clock}
@@ -208,54 +287,14 @@ export function WalkthroughPlayer({ detail, printView, Scene }: WalkthroughPlaye
                 />
               }
             />
-            <StepCallout current={current} />
-            <PlaybackControls
-              clock={clock}
-              lanes={lanes}
-              eventTimes={times}
-              nightWindows={playback.nightWindows}
-            />
-            <Panel title="Tether">
-              <TetherGauges clock={clock} lanes={lanes} />
-            </Panel>
-            {playback.kind === 'plan' && (
-              <Panel title="At this moment">
-                <DayState clock={clock} lanes={lanes} equipment={playback.equipment} arms={playback.arms} />
-              </Panel>
-            )}
-            {playback.warnings.length > 0 && (
-              <Alert tone="caution">
-                <details>
-                  <summary className="cursor-pointer rounded font-semibold focus-visible:outline-2 focus-visible:outline-accent">
-                    {playback.warnings.length} warning{playback.warnings.length === 1 ? '' : 's'} from the{' '}
-                    {playback.kind === 'plan' ? 'plan' : 'route'}
-                  </summary>
-                  <ul className="mt-2 list-disc pl-5">
-                    {playback.warnings.map((w) => (
-                      <li key={w}>{w}</li>
-                    ))}
-                  </ul>
-                </details>
-              </Alert>
-            )}
           </div>
-          <Panel title={`Steps (${steps.length})`} className="self-start">
-            <div className="-mx-5 -my-4">
-              <StepList
-                steps={steps}
-                current={current}
-                notes={walkthrough.notes}
-                walkthroughId={walkthrough.id}
-                version={walkthrough.version}
-                canEdit={canEdit}
-                onSeek={(s) => {
-                  clock.pause();
-                  clock.seek(s.step.start);
-                }}
-              />
-            </div>
-          </Panel>
-        </div>
+          <PlaybackControls
+            clock={clock}
+            lanes={lanes}
+            eventTimes={times}
+            nightWindows={playback.nightWindows}
+          />
+        </Workspace>
       </div>
     </>
   );

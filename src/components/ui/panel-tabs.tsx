@@ -1,5 +1,5 @@
 import { useId, useRef, type KeyboardEvent, type ReactNode } from 'react';
-import { focusRing } from '@/components/ui/button';
+import { focusRing } from './button';
 import { cn } from '@/lib/cn';
 
 export interface PanelTab {
@@ -14,11 +14,14 @@ export function PanelTabs({
   active,
   onChange,
   label,
+  flush = false,
 }: {
   tabs: readonly PanelTab[];
   active: string;
   onChange: (id: string) => void;
   label: string;
+  /** panels without padding (a list that runs to the edges) */
+  flush?: boolean;
 }) {
   const base = useId();
   const refs = useRef<Record<string, HTMLButtonElement | null>>({});
@@ -69,7 +72,7 @@ export function PanelTabs({
           role="tabpanel"
           id={`${base}-panel-${current.id}`}
           aria-labelledby={`${base}-tab-${current.id}`}
-          className="min-h-0 flex-1 overflow-y-auto p-4"
+          className={cn('relative min-h-0 flex-1 overflow-y-auto', !flush && 'p-4')}
         >
           {current.render()}
         </div>
