@@ -7,7 +7,14 @@ import { ROUTE_MODES, type RouteFeasible, type RouteMode, type RouteResult } fro
 import { parseStationDocument } from '@shared/schemas/station';
 import { METRES_PER_FOOT } from '@shared/compute/units';
 import { routeSteps } from '@/features/routes/lib/route-steps';
-import { bestPerColumn, COMPARISON_COLUMNS } from '@/features/routes/lib/mode-comparison';
+import { cleanup, render, screen, within } from '@testing-library/react';
+import {
+  allModesAgree,
+  bestPerColumn,
+  COMPARISON_COLUMNS,
+  formatMinSec,
+} from '@/features/routes/lib/mode-comparison';
+import { ModeComparisonTable } from '@/features/routes/components/mode-comparison-table';
 import { routeOverlayModel } from '@/features/routes/lib/route-overlay';
 import { formatDuration } from '@/features/routes/lib/format-route';
 import { matchNodes } from '@/features/routes/components/node-picker';
@@ -175,5 +182,46 @@ describe('route formatting and node search', () => {
     const airlock = doc.nodes.find((n) => n.kind === 'airlock')!;
     expect(matchNodes(options, airlock.label!.slice(0, 6)).map((o) => o.key)).toContain(airlock.key);
     expect(matchNodes(options, 'pb', 5)).toHaveLength(5);
+  });
+});
+
+describe('mode comparison table', () => {
+  const demo = () =>
+    Object.fromEntries(ROUTE_MODES.map((m) => [m, route('PB3-W01', 'SB4-W01', m, 25.9, false)!])) as Record<
+      RouteMode,
+      RouteFeasible
+    >;
+
+  it('says once that all three modes give the same route (PB3-W01 → SB4-W01 on the demo station)', () => {
+    const results = demo();
+    expect(allModesAgree(results)).toBe(true);
+    render(<ModeComparisonTable results={results} chosen="fastest" unit="m" onChoose={() => {}} />);
+    expect(screen.getByTestId('modes-agree').textContent).toMatch(
+      /^All three modes give the same route: \d+\.\d m, \d+:\d\d min of travel, 1 swap, \d+:\d\d min in all\.$/,
+    );
+    expect(screen.queryByRole('table')).toBeNull();
+    cleanup();
+  });
+
+  it('marks the best only in the columns where the modes differ, with times as m:ss', () => {
+    const results = demo();
+    // another route of one more swap for balanced: travel and length the same, swaps and total not
+    results.balanced = {
+      ...results.balanced,
+      swapCount: results.balanced.swapCount + 1,
+      totalSeconds: results.balanced.totalSeconds + doc.settings.swapSeconds,
+    };
+    expect(allModesAgree(results)).toBe(false);
+    render(<ModeComparisonTable results={results} chosen="balanced" unit="ft" onChoose={() => {}} />);
+    const rows = screen.getAllByRole('row').slice(1);
+    const starred = rows.map((r) => within(r).queryAllByText('(best)').length);
+    // fastest and fewest swaps are best in swaps and total; no one is starred for length or travel
+    expect(starred).toEqual([2, 2, 0]);
+    expect(within(rows[0]).getAllByRole('cell')[4].textContent).toBe(
+      `${formatMinSec(results.fastest.totalSeconds)}★ (best)`,
+    );
+    expect(within(rows[0]).getAllByRole('cell')[1].textContent).toMatch(/^\d+\.\d ft$/);
+    expect(rows[2].getAttribute('aria-current')).toBe('true');
+    cleanup();
   });
 });

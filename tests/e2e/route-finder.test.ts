@@ -109,14 +109,13 @@ describe('route finder', () => {
       .waitFor();
     await page.getByLabel('Planning caution').first().waitFor();
 
-    // the three modes side by side, the chosen one marked
-    const table = result.getByRole('table');
-    const rows = table.getByRole('row');
-    await expect(rows.count()).resolves.toBe(4);
-    await expect(table.locator('tr[aria-current="true"]').textContent()).resolves.toMatch(
-      /^Fastest\s*\(chosen\)/,
+    // the three modes compared: on the demo station all three give this same route, said once
+    // (among equal travel times the fastest takes the fewest swaps, so it is no worse than the others)
+    const agree = result.getByTestId('modes-agree');
+    await expect(agree.textContent()).resolves.toMatch(
+      /^All three modes give the same route: \d+\.\d m, \d+:\d\d min of travel, \d+ swaps?, \d+:\d\d min in all\.$/,
     );
-    await table.getByText('(best)').first().waitFor({ state: 'attached' });
+    await expect(result.getByRole('table').count()).resolves.toBe(0);
 
     // the route is on the page: wait until the scene has drawn it and the camera has come to rest
     await sceneSettled(page, framesBeforeRoute);
@@ -128,15 +127,9 @@ describe('route finder', () => {
     expect(drawn.orange - before.orange, 'the swap markers').toBeGreaterThan(20);
     await session.screenshot('route-finder-fastest');
 
-    // switching the mode keeps the comparison and moves the mark
+    // switching the mode keeps the comparison
     await page.getByRole('radio', { name: /^Fewest swaps/ }).check();
-    await expect(table.locator('tr[aria-current="true"]').textContent()).resolves.toMatch(
-      /^Fewest swaps\s*\(chosen\)/,
-    );
-    const swapCells = await rows.evaluateAll((trs) =>
-      trs.slice(1).map((tr) => Number(tr.querySelectorAll('td')[3].textContent!.replace(/\D.*$/, ''))),
-    );
-    expect(swapCells[1]).toBeLessThanOrEqual(swapCells[0]);
+    await agree.waitFor();
     const framesBeforeReach = await framesDrawn(page.getByTestId('station-scene'));
     await page.getByRole('checkbox', { name: /Show tether reach in 3D/ }).check();
     await sceneSettled(page, framesBeforeReach);

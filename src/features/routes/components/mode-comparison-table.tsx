@@ -5,7 +5,9 @@ import { focusRing } from '@/components/ui/button';
 import { cn } from '@/lib/cn';
 import { formatDuration } from '../lib/format-route';
 import {
+  allModesAgree,
   bestPerColumn,
+  formatMinSec,
   COMPARISON_COLUMNS,
   MODE_LABELS,
   type ComparisonColumn,
@@ -13,10 +15,12 @@ import {
 
 const HEADINGS: Record<ComparisonColumn, string> = {
   lengthM: 'Length',
-  travelSeconds: 'Travel',
+  travelSeconds: 'Travel min',
   swapCount: 'Swaps',
-  totalSeconds: 'Total',
+  totalSeconds: 'Total min',
 };
+
+const cellPad = 'px-1.5';
 
 interface ModeComparisonTableProps {
   results: Partial<Record<RouteMode, RouteResult | undefined>>;
@@ -25,7 +29,11 @@ interface ModeComparisonTableProps {
   onChoose: (mode: RouteMode) => void;
 }
 
-/** The three modes side by side; the chosen row and the best value of each column are marked in words too. */
+/**
+ * The three modes side by side, narrow enough for a side panel (times as m:ss); the chosen row and the
+ * best value of a column are marked in words too, and only where the modes differ in that column.
+ * When all three give the same route, one sentence says so instead.
+ */
 export function ModeComparisonTable({ results, chosen, unit, onChoose }: ModeComparisonTableProps) {
   const best = bestPerColumn(results);
   const cell = (r: RouteResult | undefined, column: ComparisonColumn): string => {
@@ -33,15 +41,25 @@ export function ModeComparisonTable({ results, chosen, unit, onChoose }: ModeCom
     if (!r.feasible) return '–';
     if (column === 'lengthM') return formatLength(r.lengthM, unit);
     if (column === 'swapCount') return String(r.swapCount);
-    return formatDuration(r[column]);
+    return formatMinSec(r[column]);
   };
+  const same = results.fastest;
+  if (allModesAgree(results) && same?.feasible)
+    return (
+      <p className="text-sm text-text" data-testid="modes-agree">
+        All three modes give the same route: {formatLength(same.lengthM, unit)},{' '}
+        {formatDuration(same.travelSeconds)} of travel, {same.swapCount} swap{same.swapCount === 1 ? '' : 's'}
+        , {formatDuration(same.totalSeconds)} in all.
+      </p>
+    );
+  const feasibleCount = ROUTE_MODES.filter((m) => results[m]?.feasible).length;
   return (
     <Table caption="The three route modes compared; the chosen mode is marked, and the best value of each column">
       <thead>
         <tr>
-          <Th>Mode</Th>
+          <Th className={cellPad}>Mode</Th>
           {COMPARISON_COLUMNS.map((c) => (
-            <Th key={c} className="text-right">
+            <Th key={c} className={cn(cellPad, 'text-right')}>
               {HEADINGS[c]}
             </Th>
           ))}
@@ -57,7 +75,7 @@ export function ModeComparisonTable({ results, chosen, unit, onChoose }: ModeCom
               aria-current={isChosen ? 'true' : undefined}
               className={cn(isChosen && 'bg-accent-soft')}
             >
-              <Td className={cn(isChosen && 'border-l-4 border-l-accent')}>
+              <Td className={cn(cellPad, isChosen && 'border-l-4 border-l-accent')}>
                 <button
                   type="button"
                   onClick={() => onChoose(mode)}
@@ -69,19 +87,27 @@ export function ModeComparisonTable({ results, chosen, unit, onChoose }: ModeCom
                   {MODE_LABELS[mode]}
                 </button>
                 {isChosen && (
-                  <span className="ml-1.5 text-xs font-semibold text-accent-strong">(chosen)</span>
+                  <span className="ml-1 text-xs font-semibold text-accent-strong">
+                    <span aria-hidden="true">✓</span>
+                    <span className="sr-only">(chosen)</span>
+                  </span>
                 )}
               </Td>
               {COMPARISON_COLUMNS.map((c) => {
-                const isBest = best[c].includes(mode);
+                // a column where every mode is as good marks none of them
+                const isBest = best[c].includes(mode) && best[c].length < feasibleCount;
                 return (
                   <Td
                     key={c}
-                    className={cn('text-right tabular-nums', isBest && 'font-semibold text-text-strong')}
+                    className={cn(
+                      cellPad,
+                      'text-right whitespace-nowrap tabular-nums',
+                      isBest && 'font-semibold text-text-strong',
+                    )}
                   >
                     {cell(r, c)}
                     {isBest && (
-                      <span className="ml-1 text-accent-strong" title="best in this column">
+                      <span className="ml-0.5 text-accent-strong" title="best in this column">
                         <span aria-hidden="true">★</span>
                         <span className="sr-only"> (best)</span>
                       </span>

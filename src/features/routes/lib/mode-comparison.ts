@@ -29,3 +29,16 @@ export function bestPerColumn(
   }
   return out;
 }
+
+/** All three modes answered with routes alike in every column: the comparison says so once. */
+export function allModesAgree(results: Partial<Record<RouteMode, RouteResult | undefined>>): boolean {
+  if (!ROUTE_MODES.every((m) => results[m]?.feasible)) return false;
+  const best = bestPerColumn(results);
+  return COMPARISON_COLUMNS.every((c) => best[c].length === ROUTE_MODES.length);
+}
+
+/** Minutes and seconds (`m:ss`, minutes past 59 too): the one format route times are compared in. */
+export function formatMinSec(seconds: number): string {
+  const whole = Math.round(seconds);
+  return `${Math.floor(whole / 60)}:${String(whole % 60).padStart(2, '0')}`;
+}
