@@ -141,6 +141,47 @@ describe('timeline chart', () => {
   });
 });
 
+describe('timeline chart keyboard', () => {
+  it('is one Tab stop: arrow keys move along a lane and to the other crew member, Home and End to the ends', async () => {
+    const user = userEvent.setup();
+    const plan = planView();
+    const timeline = planTimeline(plan);
+    const { container } = render(
+      <>
+        <button type="button">before</button>
+        <TimelineChart timeline={timeline} tasks={plan.tasks} />
+        <button type="button">after</button>
+      </>,
+    );
+    const blocks = [...container.querySelectorAll<SVGGElement>('[data-block-type]')];
+    expect(blocks.filter((b) => b.getAttribute('tabindex') === '0')).toHaveLength(1);
+    await user.click(screen.getByRole('button', { name: 'before' }));
+    await user.tab();
+    const ev1 = timeline.crew.EV1.blocks;
+    const label = () => document.activeElement?.getAttribute('aria-label') ?? '';
+    expect(label()).toMatch(/^EV1 /);
+    await user.keyboard('{ArrowRight}');
+    expect(document.activeElement).toBe(blocks[1]);
+    await user.keyboard('{End}');
+    expect(document.activeElement).toBe(blocks[ev1.length - 1]);
+    await user.keyboard('{Home}{ArrowRight}{ArrowDown}');
+    // EV2's block under way when EV1's second block starts
+    const t = ev1[1].start;
+    const ev2 = timeline.crew.EV2.blocks;
+    const k = Math.max(
+      0,
+      ev2.findLastIndex((b) => b.start <= t),
+    );
+    expect(document.activeElement).toBe(blocks[ev1.length + k]);
+    expect(label()).toMatch(/^EV2 /);
+    // the next Tab leaves the chart at once: the place moved with the arrows, so it is still one stop
+    await user.tab();
+    expect(document.activeElement).toBe(screen.getByRole('button', { name: 'after' }));
+    await user.tab({ shift: true });
+    expect(document.activeElement).toBe(blocks[ev1.length + k]);
+  });
+});
+
 describe('task list reordering', () => {
   it('moves a focused task with Alt+↑ and announces the move', async () => {
     const user = userEvent.setup();

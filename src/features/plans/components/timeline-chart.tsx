@@ -1,4 +1,4 @@
-import { useId, useState } from 'react';
+import { useId, useRef, useState, type KeyboardEvent, type SVGProps } from 'react';
 import type { CrewMember, Task } from '@shared/schemas/plan';
 import type { TimelineBlock, TimelineBlockType } from '@shared/compute/day/types';
 import type { RouteFeasible } from '@shared/schemas/route';
@@ -163,10 +163,13 @@ function ArmLaneRow({
   lane,
   top,
   x,
+  roving,
 }: {
   lane: PlanTimeline['arms'][number];
   top: number;
   x: (t: number) => number;
+  /** the keyboard's place among all the chart's blocks (one Tab stop) */
+  roving: (index: number) => SVGProps<SVGGElement>;
 }) {
   const y = top + (LANE_H - ARM_LANE_H) / 2;
   return (
@@ -202,7 +205,7 @@ function ArmLaneRow({
           <g
             key={k}
             role="listitem"
-            tabIndex={0}
+            {...roving(k)}
             data-arm-block=""
             aria-label={`${b.label}, ${formatElapsed(b.start)} to ${formatElapsed(b.end)}`}
             className="outline-none"
@@ -370,9 +373,59 @@ function outsideNight(timeline: PlanTimeline): Set<number> {
   );
 }
 
-/** The two-person day: one lane per crew member over the orbit's night bands, on elapsed time. */
+/** Where an arrow key moves the keyboard's place among the blocks: `[lane, index]`, or null. */
+export function roveTarget(
+  lanes: readonly (readonly number[])[],
+  [lane, index]: readonly [number, number],
+  key: string,
+): [number, number] | null {
+  const last = (l: number) => lanes[l].length - 1;
+  if (key === 'ArrowRight') return index < last(lane) ? [lane, index + 1] : null;
+  if (key === 'ArrowLeft') return index > 0 ? [lane, index - 1] : null;
+  if (key === 'Home') return [lane, 0];
+  if (key === 'End') return [lane, last(lane)];
+  if (key !== 'ArrowUp' && key !== 'ArrowDown') return null;
+  const step = key === 'ArrowDown' ? 1 : -1;
+  for (let l = lane + step; l >= 0 && l < lanes.length; l += step) {
+    if (!lanes[l].length) continue;
+    // the block of that lane under way when this one starts (else the first after it)
+    const t = lanes[lane][index];
+    let k = 0;
+    while (k < last(l) && lanes[l][k + 1] <= t) k++;
+    return [l, k];
+  }
+  return null;
+}
+
+/**
+ * The two-person day: one lane per crew member over the orbit's night bands, on elapsed time. The
+ * blocks are one Tab stop: arrow keys move along a lane and between lanes, Home and End to its ends.
+ */
 export function TimelineChart({ timeline, tasks, onPick, cursor, startGmt }: TimelineChartProps) {
   const [active, setActive] = useState<ActiveBlock | null>(null);
+  const svg = useRef<SVGSVGElement>(null);
+  const laneStarts = [
+    ...CREW.map((m) => timeline.crew[m].blocks.map((b) => b.start)),
+    ...(timeline.arms ?? []).map((l) => l.blocks.map((b) => b.start)),
+  ];
+  const [place, setPlace] = useState<[number, number]>([0, 0]);
+  const firstLane = Math.max(
+    0,
+    laneStarts.findIndex((l) => l.length > 0),
+  );
+  const rove: [number, number] = laneStarts[place[0]]?.[place[1]] !== undefined ? place : [firstLane, 0];
+  const roving = (lane: number, index: number) => ({
+    'data-rove': `${lane}:${index}`,
+    tabIndex: rove[0] === lane && rove[1] === index ? 0 : -1,
+    onFocusCapture: () => setPlace([lane, index]),
+    onKeyDownCapture: (e: KeyboardEvent) => {
+      const to = roveTarget(laneStarts, [lane, index], e.key);
+      if (!to) return;
+      e.preventDefault();
+      setPlace(to);
+      svg.current?.querySelector<SVGGElement>(`[data-rove="${to[0]}:${to[1]}"]`)?.focus();
+    },
+  });
   const dayNeeded = outsideNight(timeline);
   const detailsId = useId();
   const horizon = Math.max(timeline.timeLimitSeconds, timeline.endSeconds, 60) * 1.03;
@@ -389,6 +442,7 @@ export function TimelineChart({ timeline, tasks, onPick, cursor, startGmt }: Tim
   return (
     <div className="space-y-3">
       <svg
+        ref={svg}
         viewBox={`0 0 ${W} ${H}`}
         className="w-full select-none"
         role="group"
@@ -463,7 +517,7 @@ export function TimelineChart({ timeline, tasks, onPick, cursor, startGmt }: Tim
                 <g
                   key={k}
                   role="listitem"
-                  tabIndex={0}
+                  {...roving(i, k)}
                   aria-label={`${blockLabel(m, b, tasks)}${offNight ? ', eclipse only but not inside a night window' : ''}`}
                   data-block-type={b.type}
                   data-outside-night={offNight ? '' : undefined}
@@ -514,7 +568,13 @@ export function TimelineChart({ timeline, tasks, onPick, cursor, startGmt }: Tim
           </g>
         ))}
         {armLanes.map((lane, a) => (
-          <ArmLaneRow key={lane.key} lane={lane} top={laneTop(CREW.length + a)} x={x} />
+          <ArmLaneRow
+            key={lane.key}
+            lane={lane}
+            top={laneTop(CREW.length + a)}
+            x={x}
+            roving={(k) => roving(CREW.length + a, k)}
+          />
         ))}
         {cursor !== undefined && (
           <g aria-hidden="true" data-testid="timeline-cursor" data-t={Math.round(cursor)}>
@@ -565,6 +625,10 @@ export function TimelineChart({ timeline, tasks, onPick, cursor, startGmt }: Tim
         </g>
       </svg>
       <TimelineLegend />
+      <p className="text-xs text-text-muted">
+        Keyboard: Tab reaches the blocks once; arrow keys move along a lane and between lanes, Enter goes to
+        the block.
+      </p>
       <div
         id={detailsId}
         aria-live="polite"
