@@ -109,6 +109,8 @@ describe('the day in 3D: scrub the plan, see the tether, the restraint and the i
       .getByRole('region', { name: /3D playback of/ })
       .locator('canvas')
       .waitFor();
+    // the items' states sit in the side panel's "At this moment" tab, beside the steps
+    await page.getByRole('tab', { name: 'At this moment' }).click();
     await expect(where(page, 'boom')).resolves.toBe('carried:EV2');
     await stepUntil(page, async () => (await where(page, 'boom')) === 'carried:EV1');
     expect(await dayState(page)).toEqual(handedOver);
