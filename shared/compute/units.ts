@@ -31,6 +31,15 @@ export function formatLength(metres: number, unit: LengthUnit = 'm', digits = 1)
 }
 
 /**
+ * A message's lengths (`30.48 m`) restated in the unit the person works in: in feet, `100.0 ft`;
+ * in metres the text is unchanged. Keeps the answer in the unit the question was asked in.
+ */
+export function restateLengths(text: string, unit: LengthUnit): string {
+  if (unit === 'm') return text;
+  return text.replace(/(-?\d+(?:\.\d+)?) m\b/g, (_, n: string) => formatLength(Number(n), unit));
+}
+
+/**
  * Elapsed time as `h:mm` (rounded to the nearest minute) or, with `withSeconds`, `h:mm:ss` (nearest
  * second). Negative values (a margin past the limit) keep their sign: `-0:15`.
  */

@@ -342,7 +342,7 @@ describe('timeline chart: the 3D day’s cursor, picking a block, eclipse-only w
         .filter((b) => b.type === 'work' && b.taskIndex === i);
     expect(marked.length).toBe([...warned].flatMap((i) => workOf(i!)).length);
     for (const el of marked)
-      expect(el.getAttribute('aria-label')).toMatch(/eclipse only but not inside a night window/);
+      expect(el.getAttribute('aria-label')).toMatch(/eclipse-only but not inside a night window/);
     expect(container.querySelector('[data-testid="timeline-cursor"]')?.getAttribute('data-t')).toBe('1234');
 
     const ev2 = screen.getByRole('list', { name: 'EV2 blocks' });

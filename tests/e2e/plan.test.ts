@@ -95,7 +95,7 @@ describe('plan: build, time, review and export an EVA plan in the built app', ()
       await dialog.getByLabel('Worksite', { exact: true }).selectOption(t.worksite);
       await dialog.getByLabel('Crew').selectOption(t.crew);
       await dialog.getByLabel('Duration').fill(t.duration);
-      if (t.eclipse) await dialog.getByLabel(/Eclipse only/).check();
+      if (t.eclipse) await dialog.getByLabel(/Eclipse-only/).check();
       await dialog.getByRole('button', { name: 'Add task' }).click();
       await dialog.waitFor({ state: 'hidden' });
     }

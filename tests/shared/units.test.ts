@@ -11,6 +11,7 @@ import {
   metresToFeet,
   parseDuration,
   parseLength,
+  restateLengths,
 } from '@shared/compute/units';
 
 describe('length units', () => {
@@ -56,6 +57,17 @@ describe('length units', () => {
     expect(parseLength('-3 m').ok).toBe(false);
     expect(parseLength('three').ok).toBe(false);
     expect(parseLength('3 yd').ok).toBe(false);
+  });
+});
+
+describe('lengths restated in the unit asked in', () => {
+  it('turns the metres of an engine message into feet (1 ft = 0.3048 m, NIST SP 811), and leaves metres alone', () => {
+    const text =
+      'The quickest way needs a tether of at least 30.48 m; this fits the 25.9 m tether (1 mile away).';
+    expect(restateLengths(text, 'ft')).toBe(
+      'The quickest way needs a tether of at least 100.0 ft; this fits the 85.0 ft tether (1 mile away).',
+    );
+    expect(restateLengths(text, 'm')).toBe(text);
   });
 });
 

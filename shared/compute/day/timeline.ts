@@ -1257,7 +1257,7 @@ function eclipseWarning(
   orbit: OrbitSummary,
   betaDeg: number,
 ): TimelineWarning {
-  const base = `${taskName(task, e.index)} must be done in orbital night but runs ${hm(e.start)}–${hm(e.end)} elapsed`;
+  const base = `${taskName(task, e.index)} is eclipse-only but runs ${hm(e.start)}–${hm(e.end)} elapsed`;
   if (orbit.eclipseSeconds <= 0) {
     return {
       code: 'eclipse-only-outside-night',

@@ -145,7 +145,7 @@ export function TaskForm({ task, others, nodes, manifest, onSubmit, onCancel }: 
       <div className="flex flex-wrap gap-6">
         <label className="flex items-center gap-2 text-sm font-medium text-text-strong">
           <input type="checkbox" className="size-4 accent-accent" {...register('eclipseOnly')} />
-          Eclipse only (must be done in orbital night)
+          Eclipse-only (done inside a night window)
         </label>
         <label className="flex items-center gap-2 text-sm font-medium text-text-strong">
           <input type="checkbox" className="size-4 accent-accent" {...register('carrying')} />

@@ -101,7 +101,7 @@ export function TaskRow({
           {t.socket && <> · socket {t.socket}</>}
         </p>
         <div className="flex flex-wrap gap-1.5">
-          {t.eclipseOnly && <Badge tone="accent">☾ Eclipse only</Badge>}
+          {t.eclipseOnly && <Badge tone="accent">☾ Eclipse-only</Badge>}
           {t.carrying && <Badge tone="neutral">Carrying</Badge>}
           {t.optional && <Badge tone="neutral">Optional (get-ahead)</Badge>}
           {after.length > 0 && (

@@ -302,7 +302,7 @@ export function TimelineLegend() {
         <svg width="22" height="12" aria-hidden="true">
           <rect width="22" height="12" fill={palette.ink[900]} fillOpacity="0.16" />
         </svg>
-        ☾ Orbital night
+        ☾ Night
       </li>
       <li className="flex items-center gap-1.5">
         <svg width="22" height="12" aria-hidden="true">
@@ -451,7 +451,7 @@ export function TimelineChart({ timeline, tasks, onPick, cursor, startGmt }: Tim
         onMouseLeave={() => setActive(null)}
       >
         <Patterns />
-        <g aria-label="Orbital night" role="list">
+        <g aria-label="Night windows" role="list">
           {timeline.nightWindows.map((w, i) => (
             <g
               key={i}
@@ -518,7 +518,7 @@ export function TimelineChart({ timeline, tasks, onPick, cursor, startGmt }: Tim
                   key={k}
                   role="listitem"
                   {...roving(i, k)}
-                  aria-label={`${blockLabel(m, b, tasks)}${offNight ? ', eclipse only but not inside a night window' : ''}`}
+                  aria-label={`${blockLabel(m, b, tasks)}${offNight ? ', eclipse-only but not inside a night window' : ''}`}
                   data-block-type={b.type}
                   data-outside-night={offNight ? '' : undefined}
                   className="cursor-pointer outline-none"

@@ -50,7 +50,7 @@ export function RouteFinderPanel({ finder, selection, onFocusNode }: RouteFinder
           {chosen?.error && (
             <Alert tone="danger">{apiErrorMessage(chosen.error, 'The route could not be computed.')}</Alert>
           )}
-          {route?.feasible === false && <RouteInfeasibleView route={route} />}
+          {route?.feasible === false && <RouteInfeasibleView route={route} unit={unit} />}
           {route?.feasible && (
             <>
               <label className="flex items-center gap-2 text-sm text-text-strong">

@@ -1,5 +1,5 @@
 import type { RouteFeasible, RouteInfeasible } from '@shared/schemas/route';
-import type { LengthUnit } from '@shared/compute/units';
+import { restateLengths, type LengthUnit } from '@shared/compute/units';
 import { Alert } from '@/components/ui/alert';
 import { Badge } from '@/components/ui/badge';
 import { cn } from '@/lib/cn';
@@ -112,10 +112,11 @@ export function RouteFeasibleView({
   );
 }
 
-export function RouteInfeasibleView({ route }: { route: RouteInfeasible }) {
+/** Why there is no route, its lengths in the unit the tether was asked in. */
+export function RouteInfeasibleView({ route, unit = 'm' }: { route: RouteInfeasible; unit?: LengthUnit }) {
   return (
     <Alert tone="danger" title={`No route: ${reasonTitle(route).toLowerCase()}`}>
-      <p>{route.reason}</p>
+      <p>{restateLengths(route.reason, unit)}</p>
       {route.blockingHazards?.length ? (
         <p className="mt-1">Blocking: {route.blockingHazards.join(', ')}.</p>
       ) : null}

@@ -119,7 +119,7 @@ export function PlaybackControls({
             )}
           >
             <span aria-hidden="true">{night ? '☾' : '☀'}</span>
-            {night ? 'Orbital night' : 'Orbital day'}
+            {night ? 'Night' : 'Day'}
           </span>
         )}
       </div>
@@ -164,8 +164,7 @@ export function PlaybackControls({
           className="relative w-full accent-accent focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-accent"
         />
         <p id="walkthrough-scrub-hint" className="text-xs text-text-muted">
-          {hasClock && 'Dark bands on the bar are orbital night. '}Arrow keys on the bar step from block to
-          block.
+          {hasClock && 'Dark bands on the bar are night. '}Arrow keys on the bar step from block to block.
         </p>
       </div>
     </div>
