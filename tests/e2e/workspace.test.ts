@@ -47,6 +47,14 @@ describe('3D workspaces fill the window', () => {
     const { page } = session;
     await page.setViewportSize({ width: 1024, height: 768 });
     await signInAs(session, 'trainer');
+    // a dialog opens with the focus in its first field, ready to type
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Walkthroughs' }).click();
+    await page.getByRole('button', { name: 'New walkthrough' }).click();
+    const dialog = page.getByRole('dialog', { name: 'New walkthrough' });
+    await expect
+      .poll(() => dialog.getByLabel('Plan').evaluate((el) => el === document.activeElement))
+      .toBe(true);
+    await page.keyboard.press('Escape');
     const listed = (await (await page.request.get('/api/walkthroughs')).json()) as WalkthroughSummary[];
     const withPlan = listed.find((w) => w.plan);
     expect(withPlan, 'the demo has a walkthrough of a plan').toBeTruthy();

@@ -8,6 +8,28 @@ interface DialogProps {
   children: ReactNode;
 }
 
+const FIRST_FIELD = [
+  'input:not([type="hidden"]):not([disabled])',
+  'select:not([disabled])',
+  'textarea:not([disabled])',
+]
+  .map((f) => `[data-dialog-body] ${f}`)
+  .join(', ');
+
+/** Focuses a dialog's first field (of a group of radios, the checked one); false when it has none. */
+function focusFirstField(dialog: HTMLDialogElement): boolean {
+  const field = dialog.querySelector<HTMLInputElement>(FIRST_FIELD);
+  if (!field) return false;
+  const checked =
+    field.type === 'radio' && field.name
+      ? dialog.querySelector<HTMLInputElement>(
+          `input[type="radio"][name="${CSS.escape(field.name)}"]:checked`,
+        )
+      : null;
+  (checked ?? field).focus();
+  return true;
+}
+
 /** A native modal <dialog>: focus trapping, Escape and the backdrop come from the browser. */
 export function Dialog({ open, title, onClose, children }: DialogProps) {
   const ref = useRef<HTMLDialogElement>(null);
@@ -16,8 +38,19 @@ export function Dialog({ open, title, onClose, children }: DialogProps) {
   useEffect(() => {
     const dialog = ref.current;
     if (!dialog) return;
-    if (open && !dialog.open) dialog.showModal();
-    if (!open && dialog.open) dialog.close();
+    if (!open) {
+      if (dialog.open) dialog.close();
+      return;
+    }
+    if (!dialog.open) dialog.showModal();
+    // the browser focuses the first control, the header's Close: start in the first field instead,
+    // once the body has one (a form may arrive after its data)
+    if (focusFirstField(dialog)) return;
+    const observer = new MutationObserver(() => {
+      if (focusFirstField(dialog)) observer.disconnect();
+    });
+    observer.observe(dialog, { childList: true, subtree: true });
+    return () => observer.disconnect();
   }, [open]);
 
   return (
@@ -35,7 +68,9 @@ export function Dialog({ open, title, onClose, children }: DialogProps) {
           ✕
         </Button>
       </div>
-      <div className="px-5 py-4">{open && children}</div>
+      <div className="px-5 py-4" data-dialog-body>
+        {open && children}
+      </div>
     </dialog>
   );
 }
