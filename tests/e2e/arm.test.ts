@@ -104,10 +104,12 @@ describe('the robotic arm', () => {
     };
     expect(graph.arms.find((a) => a.key === 'ARM-2')).toMatchObject({ baseNode: 'CB-A05', reachM: 8 });
 
+    await page.getByRole('button', { name: /^Layers/ }).click();
     await page.getByRole('button', { name: 'Arm reach' }).click();
     await expect(page.getByRole('button', { name: 'Arm reach' }).getAttribute('aria-pressed')).resolves.toBe(
       'true',
     );
+    await page.keyboard.press('Escape');
     await sceneSettled(page);
     await session.screenshot('arm-edit-reach-shell');
 

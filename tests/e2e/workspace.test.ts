@@ -52,7 +52,9 @@ describe('3D workspaces fill the window', () => {
     await page.getByRole('button', { name: 'New walkthrough' }).click();
     const dialog = page.getByRole('dialog', { name: 'New walkthrough' });
     await expect
-      .poll(() => dialog.getByLabel('Plan').evaluate((el) => el === document.activeElement))
+      .poll(() =>
+        dialog.getByRole('radio', { name: /^A whole plan/ }).evaluate((el) => el === document.activeElement),
+      )
       .toBe(true);
     await page.keyboard.press('Escape');
     const listed = (await (await page.request.get('/api/walkthroughs')).json()) as WalkthroughSummary[];
