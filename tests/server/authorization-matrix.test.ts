@@ -99,6 +99,7 @@ const MATRIX: Record<string, Who> = {
   'GET /api/runs/:id': 'everyone',
   'POST /api/runs/:id/events': PLANNERS,
   'GET /api/runs/:id/export.csv': 'everyone',
+  'GET /api/runs/:id/export.pdf': 'everyone',
   'GET /api/events/': 'everyone',
   'POST /api/events/presence': 'everyone',
 };

@@ -1,12 +1,14 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { fromWire } from '@shared/compute/day/wire';
 import { orbitSummary } from '@shared/compute/orbit';
+import { formatElapsed } from '@shared/compute/units';
 import type { Timeline, TimelineBlock } from '@shared/compute/day/types';
 import type { RunView } from '@shared/schemas/run';
 import { buildStationDocument, FIXTURE_KEYS as K } from '../factories/station-document';
 import { buildPlanInput, buildTask } from '../factories/plan';
 import { makeAppWithStation } from '../setup/stations';
 import type { TestApp } from '../setup/test-app';
+import { getPdf, pdfText } from '../setup/pdf-text';
 
 let t: TestApp;
 let stationId: number;
@@ -276,5 +278,49 @@ describe('runs of an approved plan', () => {
     const notFlown = lines.find((l) => l.startsWith('Inspect the site,EV2,'))!.split(',');
     expect(notFlown.slice(6)).toEqual(['', '', '', '', '', '']);
     expect(res.text).toContain('planning aid');
+  });
+
+  it('exports the run as flown as a PDF: planned beside flown with the slips, the notes, the caution on every page', async () => {
+    const plan = await approvedPlan();
+    const run = await openRun(plan.id);
+    const planned = (await view(run.id, 0)).plannedDay;
+    const done = await flyFirstTask(run.id, plan, planned, 300);
+    await log(run.id, {
+      crew: 'EV1',
+      kind: 'note',
+      taskId: plan.tasks[0].id,
+      at: done,
+      text: 'Cover hinge stiff',
+    });
+    const res = await getPdf(await t.agent('viewer'), `/api/runs/${run.id}/export.pdf`);
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toBe('application/pdf');
+    const pdf = res.body as Buffer;
+    expect(pdf.subarray(0, 5).toString('latin1')).toBe('%PDF-');
+    const raw = pdf.toString('latin1');
+    expect(raw).toMatch(/\/FontName \/[A-Z]{6}\+Inter/);
+    const text = pdfText(pdf);
+    expect(text).toContain('as flown');
+    expect(text).toContain('started 2031-03-14 08:00 GMT');
+    // each task of each crew member once (the joint one twice), in planned order
+    for (const title of ['Open the cover', 'Demate connectors', 'Inspect the site'])
+      expect(text.split(title).length - 1).toBeGreaterThanOrEqual(1);
+    expect(text.split('Swap the pump').length - 1).toBe(2);
+    // the first task flew on time and ran 5 min long (worked from the logged times)
+    const first = work(planned, 'EV1', 0);
+    const line = text.split('\n').findIndex((l) => l.includes('Open the cover'));
+    const rowText = text
+      .split('\n')
+      .slice(line, line + 8)
+      .join(' ');
+    expect(rowText).toContain(`${formatElapsed(first.start)}-${formatElapsed(done)}`);
+    expect(rowText).toContain('on time');
+    expect(rowText).toContain('+5 min');
+    expect(text).toContain('not flown');
+    expect(text).toContain('Cover hinge stiff');
+    expect(text).toContain('Notes');
+    const pages = (raw.match(/\/Type \/Page\b/g) ?? []).length;
+    expect(pages).toBeGreaterThanOrEqual(1);
+    expect(text.split('This is a planning aid').length - 1).toBe(pages);
   });
 });

@@ -4,7 +4,7 @@ import { IdParamsSchema } from '@shared/schemas/auth';
 import { OpenRunInputSchema, RunEventInputSchema, RunQuerySchema } from '@shared/schemas/run';
 import { atParam } from '../events/changes';
 import type { ChangeEvent } from '@shared/schemas/events';
-import { appendRunEvent, listRuns, openRun, runAsFlownCsv, runViewText } from './runs.service';
+import { appendRunEvent, listRuns, openRun, runAsFlownCsv, runAsFlownPdf, runViewText } from './runs.service';
 
 /** Runs: an approved plan as it is flown, its append-only events, and the day re-projected from now. */
 export function runsRouter(ctx: AppContext) {
@@ -44,6 +44,16 @@ export function runsRouter(ctx: AppContext) {
       handler: async (_req, res, { params }) => {
         const csv = await runAsFlownCsv(ctx, params.id);
         res.type('text/csv; charset=utf-8').attachment(`run-${params.id}-as-flown.csv`).send(csv);
+      },
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/runs/:id/export.pdf',
+      access: 'read',
+      input: { params: IdParamsSchema },
+      handler: async (_req, res, { params }) => {
+        const pdf = await runAsFlownPdf(ctx, params.id);
+        res.type('application/pdf').attachment(`run-${params.id}-as-flown.pdf`).send(pdf);
       },
     }),
     defineRoute({

@@ -19,7 +19,8 @@ import { fromWire } from '@shared/compute/day/wire';
 import type { RunView } from '@shared/schemas/run';
 import { PLANNING_CAUTION } from '@shared/caution';
 import { toCsv } from '../../lib/csv';
-import { formatGmt } from '@shared/compute/units';
+import { formatElapsed, formatGmt, formatMinutes } from '@shared/compute/units';
+import { buildAsFlownPdf } from '../../lib/pdf';
 import { planDayOutput } from '../plans/plan-timeline.service';
 import { getPlan, type Actor } from '../plans/plans.service';
 
@@ -198,28 +199,42 @@ export async function runViewText(ctx: AppContext, runId: number, at?: number): 
 
 const minutes = (s: number | null) => (s === null ? '' : Math.round((s / 60) * 10) / 10);
 
-/** The as-flown record as CSV: every task of each crew member, planned beside flown, in minutes of elapsed time. */
-export async function runAsFlownCsv(ctx: AppContext, runId: number): Promise<string> {
+/** Every task of each crew member, planned beside flown, with the view it came from. */
+async function asFlown(ctx: AppContext, runId: number) {
   const view = JSON.parse(await runViewText(ctx, runId)) as RunView;
   const planned = fromWire(view.planned) as Timeline;
   const rows = asFlownRows(planned, view.actual).map((r) => {
-    const task = view.tasks[r.taskIndex];
+    const plannedLength = r.plannedEnd - r.plannedStart;
     const flown = r.flownStart === null || r.flownEnd === null ? null : r.flownEnd - r.flownStart;
-    return [
-      task.title,
-      r.crew,
-      task.worksite,
-      minutes(r.plannedStart),
-      minutes(r.plannedEnd),
-      minutes(r.plannedEnd - r.plannedStart),
-      minutes(r.flownStart),
-      minutes(r.flownEnd),
-      minutes(flown),
-      flown === null ? '' : minutes(flown - (r.plannedEnd - r.plannedStart)),
-      view.plan.startGmt ? formatGmt(view.plan.startGmt, r.plannedStart) : '',
-      r.flownStart === null ? '' : formatGmt(view.run.startedAt, r.flownStart),
-    ];
+    return {
+      ...r,
+      task: view.tasks[r.taskIndex],
+      plannedLength,
+      flown,
+      startSlip: r.flownStart === null ? null : r.flownStart - r.plannedStart,
+      lengthSlip: flown === null ? null : flown - plannedLength,
+    };
   });
+  return { view, rows };
+}
+
+/** The as-flown record as CSV: every task of each crew member, planned beside flown, in minutes of elapsed time. */
+export async function runAsFlownCsv(ctx: AppContext, runId: number): Promise<string> {
+  const { view, rows } = await asFlown(ctx, runId);
+  const cells = rows.map((r) => [
+    r.task.title,
+    r.crew,
+    r.task.worksite,
+    minutes(r.plannedStart),
+    minutes(r.plannedEnd),
+    minutes(r.plannedLength),
+    minutes(r.flownStart),
+    minutes(r.flownEnd),
+    minutes(r.flown),
+    minutes(r.lengthSlip),
+    view.plan.startGmt ? formatGmt(view.plan.startGmt, r.plannedStart) : '',
+    r.flownStart === null ? '' : formatGmt(view.run.startedAt, r.flownStart),
+  ]);
   const header = [
     'task',
     'crew',
@@ -234,5 +249,53 @@ export async function runAsFlownCsv(ctx: AppContext, runId: number): Promise<str
     'planned start (GMT)',
     'flown start (GMT)',
   ];
-  return `${toCsv(header, rows)}\r\n\r\n${toCsv(['note'], [[PLANNING_CAUTION]])}\r\n`;
+  return `${toCsv(header, cells)}\r\n\r\n${toCsv(['note'], [[PLANNING_CAUTION]])}\r\n`;
+}
+
+const signedMinutes = (s: number | null) =>
+  s === null ? '' : Math.abs(s) < 30 ? 'on time' : `${s > 0 ? '+' : '-'}${formatMinutes(Math.abs(s))}`;
+
+/** The as-flown record as PDF: the same rows with their slips, the day's end and margin, and the notes. */
+export async function runAsFlownPdf(ctx: AppContext, runId: number): Promise<Buffer> {
+  const { view, rows } = await asFlown(ctx, runId);
+  const started = view.run.startedAt;
+  const plannedStart = view.plan.startGmt;
+  const span = (start: number, end: number, gmtStart: string | null) =>
+    `${formatElapsed(start)}-${formatElapsed(end)} (${formatElapsed(end - start)})` +
+    (gmtStart ? `  ${formatGmt(gmtStart, start)}-${formatGmt(gmtStart, end)} GMT` : '');
+  const taskTitle = (id: number | null) =>
+    id === null ? '' : ` on "${view.tasks.find((t) => t.id === id)?.title ?? `task ${id}`}"`;
+  return buildAsFlownPdf({
+    title: `${view.plan.title}: as flown`,
+    subtitle: [
+      `Run ${view.run.id} of plan version ${view.run.planVersion}`,
+      `started ${started.slice(0, 16).replace('T', ' ')} GMT`,
+      ...(plannedStart ? [`planned ${plannedStart.slice(0, 16).replace('T', ' ')} GMT`] : []),
+      `opened by ${view.run.openedBy ?? 'someone'}`,
+      `${view.events.length} events logged`,
+    ].join(' · '),
+    summary: [
+      `Planned end ${formatElapsed(view.plannedEndSeconds)} elapsed, margin ${formatMinutes(view.plannedMarginSeconds)}.`,
+      `Flown and projected end ${formatElapsed(view.projectedEndSeconds)} elapsed (${formatGmt(started, view.projectedEndSeconds)} GMT), margin ${formatMinutes(view.marginSeconds)}, at ${formatElapsed(view.now)} elapsed.`,
+      ...view.missedNight.map((m) => `Misses its night: ${m.title}.`),
+    ],
+    rows: rows.map((r) => ({
+      task: r.task.title,
+      crew: r.crew,
+      worksite: r.task.worksite,
+      planned: span(r.plannedStart, r.plannedEnd, plannedStart),
+      flown:
+        r.flownStart === null || r.flownEnd === null ? 'not flown' : span(r.flownStart, r.flownEnd, started),
+      startSlip: signedMinutes(r.startSlip),
+      lengthSlip: signedMinutes(r.lengthSlip),
+      late: (r.startSlip ?? 0) >= 30 || (r.lengthSlip ?? 0) >= 30,
+    })),
+    notes: view.events
+      .filter((e) => e.kind === 'note')
+      .map(
+        (e) =>
+          `${formatElapsed(e.at)} (${formatGmt(started, e.at)} GMT) ${e.crew}${taskTitle(e.taskId)}: ${e.text ?? ''} (${e.userName ?? 'someone'})`,
+      ),
+    caution: PLANNING_CAUTION,
+  });
 }

@@ -74,6 +74,10 @@ export default function RunRoute() {
             <a className="underline" href={`/api/runs/${view.run.id}/export.csv`} download>
               As flown (CSV)
             </a>{' '}
+            ·{' '}
+            <a className="underline" href={`/api/runs/${view.run.id}/export.pdf`} download>
+              As flown (PDF)
+            </a>{' '}
             · {view.events.length} logged · started {view.run.startedAt.slice(0, 19).replace('T', ' ')} GMT
             {view.plan.startGmt && <PlannedStart planned={view.plan.startGmt} started={view.run.startedAt} />}
           </p>
