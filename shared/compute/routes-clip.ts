@@ -798,9 +798,14 @@ interface ClipQueryState {
   endHopsLo: Int32Array;
   endHopsHi: Int32Array;
   endHopsOff: Uint8Array;
-  /** per cost landmark: the least cost from it to t, and, for an attach-point t, between it and t plus a swap */
+  /**
+   * per cost landmark: the least cost from it to t (ahead), and what the bound back takes off (the
+   * least of: for an attach-point t, between it and t plus a swap; over t's last clips, the most of
+   * between it and the clip less the last stretch, gathered in backToEnd)
+   */
   markToEnd: Float64Array;
   markFromEnd: Float64Array;
+  backToEnd: Float64Array;
   /** extra attach point j's stretches: slots and times at extraRow[j] .. extraRow[j + 1] */
   extraRow: number[];
   extraTargets: number[];
@@ -847,6 +852,7 @@ function queryState(cg: ClipGraph, extras: number): ClipQueryState {
       endHopsOff: new Uint8Array(cg.landmarkCount),
       markToEnd: new Float64Array(COST_MARKS),
       markFromEnd: new Float64Array(COST_MARKS),
+      backToEnd: new Float64Array(COST_MARKS),
       extraRow: [],
       extraTargets: [],
       extraSeconds: [],
@@ -921,8 +927,8 @@ interface ClipQuery {
  * The stretches the search follows between clips (a last stretch always comes from the full rows,
  * or from a search back from t): for free swaps the ones pruneStretches keeps; towards an
  * attach-point t with no limit on arrival and no extra attach points the swap rows; else the full
- * rows, and the swap rows out of a clip far from the end (see nearEnd). Each keeps an optimum of
- * its case.
+ * rows, which the search narrows to the swap rows and, near the end, the stretches into clips with
+ * a last stretch or one to an extra attach point (see nearEnd). Each keeps an optimum of its case.
  */
 function middleRows(cg: ClipGraph, lex: boolean, swapCost: number, plainEnd: boolean): ClipRows {
   if (!lex && swapCost === 0) return pruneStretches(cg, 0);
@@ -933,11 +939,12 @@ function middleRows(cg: ClipGraph, lex: boolean, swapCost: number, plainEnd: boo
  * Whether a station attach point a may have a stretch to a clip whose next stretch is not one of
  * the swap rows' kind: a last stretch to t, or a stretch to an extra attach point. Such a clip is
  * within one tether of t or of an extra attach point, so a is within two, and the station
- * landmarks' lower bound on metres rules that out for most a. Out of any other a the swap rows
- * keep an optimum: on an optimal chain a → c → d with c neither kind, d is an attach point of
- * c's row, and the swap rows drop a → c only where a → d, or a → b → d with a → b kept, is as good
- * (see swapPointRows); replacing stretch by stretch from the start of the chain ends on one whose
- * stretches out of such an a are all swap rows, as good.
+ * landmarks' lower bound on metres rules that out for most a. Out of a the search follows the
+ * swap rows, and, when a is near, the stretches of its full row to such clips: on an optimal
+ * chain a → c → d with c of neither kind, d is an attach point of c's row, and the swap rows drop
+ * a → c only where a → d, or a → b → d with a → b kept, is as good (see swapPointRows); replacing
+ * stretch by stretch from the start of the chain ends on one made of swap rows and stretches into
+ * clips of those two kinds, as good.
  */
 function nearEnd(cq: ClipQuery, a: number): boolean {
   const v = cq.cg.attachNodes[a];
@@ -1061,6 +1068,35 @@ export function clipSearch(c: CompiledStation, s: number, t: number, p: LabelSea
   const rest = restBound(cq, lastCount, levelsTo);
   const chain = searchClips(cq, rest, direct, levelsTo);
   return chain ? walkClips(cq, chain) : null;
+}
+
+/**
+ * The lower bounds a query's search puts on the rest of a route from a fresh clip at each of its
+ * attach points (the station's and the extra ones, t left out): the key parts `rest1`, `rest2` of
+ * searchClips (Infinity: cannot reach t). What the tests hold against the least costs.
+ */
+export function clipRestBounds(
+  c: CompiledStation,
+  s: number,
+  t: number,
+  p: LabelSearchParams,
+): { node: number; rest1: number; rest2: number }[] {
+  const cg = clipGraphFor(c, p.weights, p.tetherLengthM, p.excludeMask);
+  const ns = scratchFor(c);
+  const toT = targetBound(c, ns, t, p.secondsFactor, p.maxSpeedMps, p.landmarkTimesValid);
+  const cq = clipQuery(c, cg, p, s, t, toT, ns);
+  if (cq.extras.length) extraRows(cq);
+  const lastCount = lastStretches(cq);
+  firstClips(cq);
+  const rest = restBound(cq, lastCount, cq.lex ? swapLevels(cq, lastCount) : -1);
+  const out: { node: number; rest1: number; rest2: number }[] = [];
+  for (let a = 0; a < cq.end; a++) {
+    const node = nodeOf(cq, a);
+    if (node === t) continue;
+    const q = cq.state;
+    out.push(rest(a) ? { node, rest1: q.rest1[a], rest2: q.rest2[a] } : { node, rest1: Infinity, rest2: 0 });
+  }
+  return out;
 }
 
 /**
@@ -1335,10 +1371,12 @@ function endHopRanges(cq: ClipQuery, lastCount: number): void {
 /**
  * The cost-landmark bound for a swap cost: `marks(a, h)` is the larger of h and the landmarks'
  * bound from slot a, Infinity when a cannot reach t. For each landmark L:
- * cost(a → t) ≥ cost(L → t) − cost(L → a) (ahead), and, towards an attach point t, since stretch
- * times are the same both ways, cost(a → t) ≥ cost(a ↔ L) − cost(t ↔ L) − swapCost (back). A
- * landmark that reaches a but not t makes the bound ahead +Infinity, and one that reaches an
- * attach-point t but not a the bound back, as they should (a and t are then in different parts);
+ * cost(a → t) ≥ cost(L → t) − cost(L → a) (ahead), and, since stretch times are the same both
+ * ways, back: towards an attach point t, cost(a → t) ≥ cost(a ↔ L) − cost(t ↔ L) − swapCost;
+ * towards any t, cost(a → t) ≥ cost(a ↔ L) − max over the last clips c of (cost(c ↔ L) − last(c)),
+ * since a route's last clip c has cost(a → c) ≥ cost(a ↔ L) − cost(c ↔ L) and then its last
+ * stretch. A landmark that reaches a but not t makes the bound ahead +Infinity, and one that
+ * reaches t's last clips but not a the bound back, as they should (a and t are then in different parts);
  * one that reaches neither makes NaN, which no comparison takes. The factor and a float margin
  * (less a hair, so rounding in the sums cannot lift the bound past the cost) go on the largest.
  * Extra attach points are not in the landmarks' chains: see extraPotentials.
@@ -1348,7 +1386,7 @@ function costMarksTowards(cq: ClipQuery, lastCount: number): (a: number, h: numb
   const marks = costMarksFor(cg, swapCost / f);
   const count = marks.count;
   const cost = marks.cost;
-  const { markToEnd, markFromEnd, extraAhead, extraBack } = q;
+  const { markToEnd, markFromEnd, backToEnd, extraAhead, extraBack } = q;
   const withExtras = cq.extras.length > 0;
   markFromEnd.fill(Infinity);
   if (tIdx >= 0) for (let k = 0; k < count; k++) markFromEnd[k] = cost[tIdx * count + k] + swapCost / f;
@@ -1357,14 +1395,18 @@ function costMarksTowards(cq: ClipQuery, lastCount: number): (a: number, h: numb
   } else {
     if (withExtras) extraPotentials(cq, marks);
     markToEnd.fill(Infinity);
+    backToEnd.fill(-Infinity);
     for (let h = 0; h < lastCount; h++) {
       const b = q.lastList[h];
       for (let k = 0; k < count; k++) {
         const d = b < A ? cost[b * count + k] : extraAhead[(b - A) * count + k];
         const v = d + q.last[b];
         if (v < markToEnd[k]) markToEnd[k] = v;
+        const back = (b < A ? cost[b * count + k] : extraBack[(b - A) * count + k]) - q.last[b];
+        if (back > backToEnd[k]) backToEnd[k] = back;
       }
     }
+    for (let k = 0; k < count; k++) if (backToEnd[k] < markFromEnd[k]) markFromEnd[k] = backToEnd[k];
     if (withExtras) extraGains(cq, marks);
   }
   const bound = (m: number, h: number): number => {
@@ -1568,10 +1610,19 @@ function searchClips(
     let o = ro;
     let tg = rt;
     let sec = rs;
-    if (far !== null && !nearEnd(cq, a)) {
+    if (far !== null) {
       o = far.offsets;
       tg = far.targets;
       sec = far.seconds;
+      if (nearEnd(cq, a)) {
+        // beside the swap rows, the stretches to a clip whose next stretch is not of their kind
+        for (let e = ro[a], end = ro[a + 1]; e < end; e++) {
+          const b = rt[e];
+          if (lastStamp[b] !== stamp && (!withExtras || q.toExtraStamp[b] !== stamp)) continue;
+          const time = f * rs[e];
+          offer(b, a, lex ? swapped : swapped + time, lex ? c2 + time : 0);
+        }
+      }
     }
     for (let e = o[a], end = o[a + 1]; e < end; e++) {
       const time = f * sec[e];

@@ -6,6 +6,7 @@ import { findRoute, type RouteStrategy } from '@shared/compute/routes';
 import {
   clipGraphFor,
   clipMemory,
+  clipRestBounds,
   costMarksFor,
   DEFAULT_CLIP_MEMORY_BYTES,
   hasClipGraph,
@@ -16,7 +17,8 @@ import {
 } from '@shared/compute/routes-clip';
 import { excludeMaskFor } from '@shared/compute/routes';
 import { generateTrussStation } from '@shared/compute/truss-generator';
-import { smallStationArb } from './routes-oracle';
+import type { StationDocument } from '@shared/schemas/station';
+import { attachMarks, smallStationArb } from './routes-oracle';
 
 const MODES: RouteMode[] = ['fastest', 'fewest-swaps', 'balanced'];
 
@@ -180,6 +182,111 @@ describe('cost landmarks of the clip graph', () => {
         },
       ),
       { numRuns: 40 },
+    );
+  });
+});
+
+describe('lower bounds of a clip-graph query', () => {
+  /**
+   * Every bound the search puts on the rest of a route from a fresh clip at one of the query's
+   * attach points is at most the least cost from there, as the label search finds it (a fresh
+   * route from that attach point, with the query's extra attach points, limit on arrival and
+   * carrying): with a swap cost the cost itself, for fewest swaps the swaps and the time apart.
+   */
+  function boundsHold(
+    doc: StationDocument,
+    c: ReturnType<typeof compileStation>,
+    s: number,
+    t: number,
+    extra: number[],
+    endCapM: number | undefined,
+    carrying: boolean,
+  ) {
+    const { settings } = doc;
+    const marks = attachMarks(doc, extra);
+    const added = extra.filter((v) => !c.isAttach[v]);
+    for (const mode of ['balanced', 'fewest-swaps'] as const) {
+      const bounds = clipRestBounds(c, s, t, {
+        objective: mode === 'balanced' ? 'sum' : 'lex',
+        swapCost: mode === 'balanced' ? settings.swapSeconds : 0,
+        weights: c.arcSeconds,
+        secondsFactor: carrying ? settings.carryFactor : 1,
+        tetherLengthM: settings.tetherLengthM,
+        excludeMask: excludeMaskFor(false),
+        landmarkTimesValid: true,
+        maxSpeedMps: Math.max(settings.speedsMps.handrail, settings.speedsMps.hop, settings.speedsMps.ride),
+        isAttach: Uint8Array.from(marks, Number),
+        extraAttach: added,
+        startPaidOutM: 0,
+        ...(endCapM === undefined ? {} : { endPaidOutMaxM: endCapM }),
+      });
+      for (const { node, rest1, rest2 } of bounds) {
+        const r = findRoute(
+          c,
+          settings,
+          {
+            from: doc.nodes[node].key,
+            to: doc.nodes[t].key,
+            mode,
+            carrying,
+            extraAttach: extra.map((v) => doc.nodes[v].key),
+            ...(endCapM === undefined ? {} : { endPaidOutMaxM: endCapM }),
+          },
+          { strategy: 'label-search' },
+        );
+        if (!r.feasible) continue;
+        const at = `${mode} bound from ${doc.nodes[node].key} to ${doc.nodes[t].key}`;
+        if (mode === 'balanced') expect(rest1, at).toBeLessThanOrEqual(r.totalSeconds + 1e-6);
+        else {
+          expect(rest1, at).toBeLessThanOrEqual(r.swapCount);
+          expect(rest2, at).toBeLessThanOrEqual(r.travelSeconds + 1e-6);
+        }
+      }
+    }
+  }
+
+  it('never exceed the least cost on small random stations, with extra attach points and a limit on arrival', () => {
+    fc.assert(
+      fc.property(
+        smallStationArb,
+        fc.tuple(fc.nat(), fc.nat()),
+        fc.array(fc.nat(), { maxLength: 3 }),
+        fc.option(fc.integer({ min: 0, max: 100 }), { nil: undefined }),
+        fc.boolean(),
+        (doc, [i, j], extraPicks, capPct, carrying) => {
+          const n = doc.nodes.length;
+          const [s, t] = [i % n, j % n];
+          fc.pre(s !== t);
+          const extra = [...new Set(extraPicks.map((v) => v % n))];
+          const cap = capPct === undefined ? undefined : (capPct / 100) * doc.settings.tetherLengthM;
+          boundsHold(doc, compileStation(doc), s, t, extra, cap, carrying);
+        },
+      ),
+      { numRuns: 300 },
+    );
+  });
+
+  it('never exceed the least cost on a generated truss towards a worksite or an attach point', () => {
+    const doc = generateTrussStation({ nodes: 600, seed: 9 });
+    const c = compileStation(doc);
+    const ends = doc.nodes.flatMap((v, i) => (v.kind === 'worksite' || v.kind === 'anchor' ? [i] : []));
+    fc.assert(
+      fc.property(
+        fc.nat(),
+        fc.nat(),
+        fc.array(fc.nat(), { maxLength: 2 }),
+        fc.option(fc.integer({ min: 30, max: 100 }), { nil: undefined }),
+        fc.boolean(),
+        (i, j, extraPicks, capPct, carrying) => {
+          const s = ends[i % ends.length];
+          const t = ends[j % ends.length];
+          fc.pre(s !== t);
+          const extra = [...new Set(extraPicks.map((v) => v % doc.nodes.length))];
+          const cap = capPct === undefined ? undefined : (capPct / 100) * doc.settings.tetherLengthM;
+          boundsHold(doc, c, s, t, extra, cap, carrying);
+        },
+      ),
+      { numRuns: 6 },
     );
   });
 });
