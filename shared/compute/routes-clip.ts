@@ -1234,35 +1234,60 @@ function firstClips(cq: ClipQuery): number {
  */
 function swapLevels(cq: ClipQuery, lastCount: number): number {
   const { cg, state: q, tSkip, A } = cq;
-  const { levelStamp, level, queue, firstStamp, lastList, stamp } = q;
+  const { levelStamp, queue, lastList, stamp } = q;
   const full = cq.rows === cg;
   const inOffsets = full ? cg.offsets : cg.swapRowsIn.offsets;
   const inSources = full ? cg.targets : cg.swapRowsIn.sources;
   const withExtras = cq.extras.length > 0;
-  let qt = 0;
-  let reached = -1;
-  const visit = (a: number, next: number) => {
-    if (levelStamp[a] === stamp || a === tSkip) return;
+  let qt = levelSlots(q, lastList, 0, lastCount, 0, 0, tSkip);
+  let reached = firstLevelled(q, 0, qt, 0);
+  for (let qh = 0; qh < qt; qh++) {
+    const b = queue[qh];
+    const next = q.level[b] + 1;
+    if (reached >= 0 && next > reached) break;
+    const from = qt;
+    if (b >= A) qt = levelSlots(q, q.extraTargets, q.extraRow[b - A], q.extraRow[b - A + 1], next, qt, tSkip);
+    else {
+      qt = levelSlots(q, inSources, inOffsets[b], inOffsets[b + 1], next, qt, tSkip);
+      if (withExtras && q.toExtraStamp[b] === stamp)
+        for (let x = q.toExtraHead[b]; x !== -1; x = q.toExtraNext[x]) {
+          const a = q.toExtraSlot[x];
+          if (levelStamp[a] === stamp) continue;
+          levelStamp[a] = stamp;
+          q.level[a] = next;
+          queue[qt++] = a;
+        }
+    }
+    if (reached < 0) reached = firstLevelled(q, from, qt, next);
+  }
+  return reached;
+}
+
+/** Levels the slots of list[from .. to) not levelled yet (t's skipped), queued from qt on; the new qt. */
+function levelSlots(
+  q: ClipQueryState,
+  list: ArrayLike<number>,
+  from: number,
+  to: number,
+  next: number,
+  qt: number,
+  skip: number,
+): number {
+  const { levelStamp, level, queue, stamp } = q;
+  for (let e = from; e < to; e++) {
+    const a = list[e];
+    if (levelStamp[a] === stamp || a === skip) continue;
     levelStamp[a] = stamp;
     level[a] = next;
     queue[qt++] = a;
-    if (reached < 0 && firstStamp[a] === stamp) reached = next;
-  };
-  for (let h = 0; h < lastCount; h++) visit(lastList[h], 0);
-  for (let qh = 0; qh < qt; qh++) {
-    const b = queue[qh];
-    const next = level[b] + 1;
-    if (reached >= 0 && next > reached) break;
-    if (b >= A) {
-      for (let e = q.extraRow[b - A], end = q.extraRow[b - A + 1]; e < end; e++)
-        visit(q.extraTargets[e], next);
-      continue;
-    }
-    for (let e = inOffsets[b], end = inOffsets[b + 1]; e < end; e++) visit(inSources[e], next);
-    if (withExtras && q.toExtraStamp[b] === stamp)
-      for (let x = q.toExtraHead[b]; x !== -1; x = q.toExtraNext[x]) visit(q.toExtraSlot[x], next);
   }
-  return reached;
+  return qt;
+}
+
+/** `next` when a first clip is among queue[from .. to), else -1. */
+function firstLevelled(q: ClipQueryState, from: number, to: number, next: number): number {
+  for (let i = from; i < to; i++) if (q.firstStamp[q.queue[i]] === q.stamp) return next;
+  return -1;
 }
 
 /**
