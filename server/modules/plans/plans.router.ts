@@ -30,7 +30,8 @@ import { seriesStartOf } from '../series/series.service';
 import { comparePlans, listPlanRevisions, previousSubmissionVersion } from './plan-revisions.service';
 import type { PlanDetail } from '@shared/schemas/plan-views';
 import { exportFileName } from './plan-export.service';
-import { answered, atParam } from '../events/changes';
+import { answered } from '../events/changes';
+import { recordRoutes } from '../events/record-routes';
 import { openNodeNotes } from '../annotations/annotations.service';
 
 const ReviewBodySchema = ReviewActionInputSchema.extend({ version: VersionSchema });
@@ -75,47 +76,24 @@ export function plansRouter(ctx: AppContext) {
       input: { query: ListQuerySchema },
       handler: (_req, _res, { query }) => listPlans(ctx.db, query),
     }),
-    defineRoute({
-      method: 'post',
-      path: '/',
-      access: 'plans:edit',
-      status: 201,
-      input: { body: CreatePlanInputSchema },
-      handler: (req, _res, { body }) => createPlan(ctx, body, req.user!),
-      emits: answered('plan'),
-    }),
-    defineRoute({
-      method: 'get',
-      path: '/:id',
-      access: 'read',
-      input: { params: IdParamsSchema },
-      handler: (_req, _res, { params }): PlanDetail => {
-        const plan = getPlan(ctx.db, params.id);
-        return {
-          ...plan,
-          ...planChangeControl(ctx, plan),
-          previousSubmissionVersion: previousSubmissionVersion(ctx.db, plan.id),
-        };
+    ...recordRoutes(
+      ctx,
+      'plan',
+      { read: 'read', write: 'plans:edit' },
+      {
+        create: [CreatePlanInputSchema, createPlan],
+        get: (id): PlanDetail => {
+          const plan = getPlan(ctx.db, id);
+          return {
+            ...plan,
+            ...planChangeControl(ctx, plan),
+            previousSubmissionVersion: previousSubmissionVersion(ctx.db, plan.id),
+          };
+        },
+        update: [UpdatePlanInputSchema, updatePlan],
+        remove: [DeleteQuerySchema, deletePlan],
       },
-    }),
-    defineRoute({
-      method: 'patch',
-      path: '/:id',
-      access: 'plans:edit',
-      input: { params: IdParamsSchema, body: UpdatePlanInputSchema },
-      handler: (req, _res, { params, body }) => updatePlan(ctx, params.id, body, req.user!),
-      emits: answered('plan'),
-    }),
-    defineRoute({
-      method: 'delete',
-      path: '/:id',
-      access: 'plans:edit',
-      input: { params: IdParamsSchema, query: DeleteQuerySchema },
-      handler: (req, _res, { params, query }) => {
-        deletePlan(ctx, params.id, query.version, req.user!);
-      },
-      emits: atParam('plan', { deleted: true }),
-    }),
+    ),
     reviewRoute('submit', 'plans:submit', (req, id, body) =>
       submitPlan(ctx, id, body.version, body.comment || undefined, req.user!),
     ),

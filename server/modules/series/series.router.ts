@@ -1,11 +1,10 @@
 import { z } from 'zod';
 import type { AppContext } from '../../context';
 import { defineRoute, mountRoutes } from '../../lib/route';
-import { IdParamsSchema } from '@shared/schemas/auth';
 import { CreateSeriesInputSchema, UpdateSeriesInputSchema } from '@shared/schemas/series';
 import { VersionTextSchema } from '@shared/schemas/version';
 import { createSeries, deleteSeries, getSeries, listSeries, updateSeries } from './series.service';
-import { answered, atParam } from '../events/changes';
+import { recordRoutes } from '../events/record-routes';
 
 const DeleteQuerySchema = z.strictObject({ version: VersionTextSchema });
 
@@ -13,39 +12,16 @@ const DeleteQuerySchema = z.strictObject({ version: VersionTextSchema });
 export function seriesRouter(ctx: AppContext) {
   return mountRoutes('/api/series', [
     defineRoute({ method: 'get', path: '/', access: 'read', handler: () => listSeries(ctx.db) }),
-    defineRoute({
-      method: 'post',
-      path: '/',
-      access: 'plans:edit',
-      status: 201,
-      input: { body: CreateSeriesInputSchema },
-      handler: (req, _res, { body }) => createSeries(ctx, body, req.user!),
-      emits: answered('series'),
-    }),
-    defineRoute({
-      method: 'get',
-      path: '/:id',
-      access: 'read',
-      input: { params: IdParamsSchema },
-      handler: (_req, _res, { params }) => getSeries(ctx, params.id),
-    }),
-    defineRoute({
-      method: 'patch',
-      path: '/:id',
-      access: 'plans:edit',
-      input: { params: IdParamsSchema, body: UpdateSeriesInputSchema },
-      handler: (req, _res, { params, body }) => updateSeries(ctx, params.id, body, req.user!),
-      emits: answered('series'),
-    }),
-    defineRoute({
-      method: 'delete',
-      path: '/:id',
-      access: 'plans:edit',
-      input: { params: IdParamsSchema, query: DeleteQuerySchema },
-      handler: (req, _res, { params, query }) => {
-        deleteSeries(ctx, params.id, query.version, req.user!);
+    ...recordRoutes(
+      ctx,
+      'series',
+      { read: 'read', write: 'plans:edit' },
+      {
+        create: [CreateSeriesInputSchema, createSeries],
+        get: (id) => getSeries(ctx, id),
+        update: [UpdateSeriesInputSchema, updateSeries],
+        remove: [DeleteQuerySchema, deleteSeries],
       },
-      emits: atParam('series', { deleted: true }),
-    }),
+    ),
   ]);
 }

@@ -1,7 +1,6 @@
 import { z } from 'zod';
 import type { AppContext } from '../../context';
 import { defineRoute, mountRoutes } from '../../lib/route';
-import { IdParamsSchema } from '@shared/schemas/auth';
 import {
   CreateWalkthroughInputSchema,
   DeleteWalkthroughQuerySchema,
@@ -14,7 +13,7 @@ import {
   updateWalkthrough,
   walkthroughDetail,
 } from './walkthroughs.service';
-import { answered, atParam } from '../events/changes';
+import { recordRoutes } from '../events/record-routes';
 
 const ListQuerySchema = z.strictObject({
   planId: z.coerce.number().int().positive().optional(),
@@ -31,39 +30,16 @@ export function walkthroughsRouter(ctx: AppContext) {
       input: { query: ListQuerySchema },
       handler: (_req, _res, { query }) => listWalkthroughs(ctx.db, query),
     }),
-    defineRoute({
-      method: 'post',
-      path: '/',
-      access: 'walkthroughs:edit',
-      status: 201,
-      input: { body: CreateWalkthroughInputSchema },
-      handler: (req, _res, { body }) => createWalkthrough(ctx, body, req.user!),
-      emits: answered('walkthrough'),
-    }),
-    defineRoute({
-      method: 'get',
-      path: '/:id',
-      access: 'read',
-      input: { params: IdParamsSchema },
-      handler: (_req, _res, { params }) => walkthroughDetail(ctx, params.id),
-    }),
-    defineRoute({
-      method: 'patch',
-      path: '/:id',
-      access: 'walkthroughs:edit',
-      input: { params: IdParamsSchema, body: UpdateWalkthroughInputSchema },
-      handler: (req, _res, { params, body }) => updateWalkthrough(ctx, params.id, body, req.user!),
-      emits: answered('walkthrough'),
-    }),
-    defineRoute({
-      method: 'delete',
-      path: '/:id',
-      access: 'walkthroughs:edit',
-      input: { params: IdParamsSchema, query: DeleteWalkthroughQuerySchema },
-      handler: (_req, _res, { params, query }) => {
-        deleteWalkthrough(ctx, params.id, query.version);
+    ...recordRoutes(
+      ctx,
+      'walkthrough',
+      { read: 'read', write: 'walkthroughs:edit' },
+      {
+        create: [CreateWalkthroughInputSchema, createWalkthrough],
+        get: (id) => walkthroughDetail(ctx, id),
+        update: [UpdateWalkthroughInputSchema, updateWalkthrough],
+        remove: [DeleteWalkthroughQuerySchema, deleteWalkthrough],
       },
-      emits: atParam('walkthrough', { deleted: true }),
-    }),
+    ),
   ]);
 }

@@ -2,8 +2,9 @@ import { z } from 'zod';
 import { ArmSchema, DEFAULT_ARM, armProblems, type Arm } from '@shared/schemas/station';
 import { formatLength } from '@shared/compute/units';
 import { Field } from '@/components/ui/field';
-import { Form, FormActions, useZodForm } from '@/components/ui/form';
+import { useZodForm } from '@/components/ui/form';
 import { Input } from '@/components/ui/input';
+import { KeyedItemForm } from './keyed-item-form';
 
 const FROM_MEMORY = 'Planning default, from memory: check against the programme’s data.';
 
@@ -88,20 +89,20 @@ export function ArmForm({ arm, others, isNode, baseNode, isSaving, onSubmit, onC
   const reach = watch('reachM');
   const num = { valueAsNumber: true } as const;
   return (
-    <Form
+    <KeyedItemForm
       form={form}
       onSubmit={onSubmit}
-      className="space-y-3"
-      aria-label={arm ? `Change arm ${arm.key}` : 'Add arm'}
-    >
-      <div className="grid grid-cols-2 gap-2">
-        <Field label="Arm key" error={errors.key?.message}>
-          <Input autoComplete="off" readOnly={!!arm} className="font-mono" {...register('key')} />
-        </Field>
+      noun="arm"
+      itemKey={arm?.key}
+      keyLabel="Arm key"
+      beside={
         <Field label="Base node" error={errors.baseNode?.message} hint="the node the arm stands on">
           <Input autoComplete="off" className="font-mono" {...register('baseNode')} />
         </Field>
-      </div>
+      }
+      isSaving={isSaving}
+      onCancel={onCancel}
+    >
       <Field label="Arm label" error={errors.label?.message}>
         <Input autoComplete="off" {...register('label')} />
       </Field>
@@ -125,7 +126,6 @@ export function ArmForm({ arm, others, isNode, baseNode, isSaving, onSubmit, onC
           <Input type="number" step="any" inputMode="decimal" {...register('settleSeconds', num)} />
         </Field>
       </div>
-      <FormActions submit={arm ? 'Save arm' : 'Add arm'} onCancel={onCancel} isLoading={isSaving} />
-    </Form>
+    </KeyedItemForm>
   );
 }

@@ -3,11 +3,12 @@ import { z } from 'zod';
 import { HAZARD_KINDS, HazardSchema, type Hazard, type Vec3 } from '@shared/schemas/station';
 import { formatLength } from '@shared/compute/units';
 import { Field } from '@/components/ui/field';
-import { Form, FormActions, useZodForm } from '@/components/ui/form';
+import { useZodForm } from '@/components/ui/form';
 import { Input } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import type { StationEdit } from '../api/edit-station';
 import { Vec3Fields } from './vec3-fields';
+import { KeyedItemForm } from './keyed-item-form';
 
 /** The form keeps both shapes' fields; only the chosen shape's reach the shared hazard schema. */
 const HazardFormSchema = z
@@ -99,20 +100,20 @@ export function HazardForm({ hazard, existingKeys, around, isSaving, onSubmit, o
   };
 
   return (
-    <Form
+    <KeyedItemForm
       form={form}
       onSubmit={submit}
-      className="space-y-3"
-      aria-label={hazard ? `Change hazard ${hazard.key}` : 'Add hazard'}
-    >
-      <div className="grid grid-cols-2 gap-2">
-        <Field label="Key" error={errors.key?.message}>
-          <Input autoComplete="off" readOnly={!!hazard} className="font-mono" {...register('key')} />
-        </Field>
+      noun="hazard"
+      itemKey={hazard?.key}
+      keyLabel="Key"
+      beside={
         <Field label="Kind" error={errors.kind?.message} hint="keep-out blocks routes; caution warns">
           <Select options={KIND_OPTIONS} {...register('kind')} />
         </Field>
-      </div>
+      }
+      isSaving={isSaving}
+      onCancel={onCancel}
+    >
       <div className="grid grid-cols-2 gap-2">
         <Field label="Label" error={errors.label?.message}>
           <Input autoComplete="off" {...register('label')} />
@@ -143,7 +144,6 @@ export function HazardForm({ hazard, existingKeys, around, isSaving, onSubmit, o
           <Vec3Fields legend="Maximum corner" values={max} errors={vecErrors('max')} fields={vec('max')} />
         </>
       )}
-      <FormActions submit={hazard ? 'Save hazard' : 'Add hazard'} onCancel={onCancel} isLoading={isSaving} />
-    </Form>
+    </KeyedItemForm>
   );
 }
