@@ -81,7 +81,7 @@ function gzipped(path: string): Promise<{ encoding: string | undefined; raw: Buf
   });
 }
 
-describe('a long plan on a large station', () => {
+describe('a plan cannot freeze the server: a long plan on a large station', () => {
   // the first request sends the station to the worker; the guard below measures the steady state
   it('the timeline lists each route once: blocks point into it, and the answer stays small', async () => {
     const res = await timed(`/api/plans/${planId}/timeline`);

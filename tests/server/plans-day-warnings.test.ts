@@ -1,5 +1,8 @@
+import Papa from 'papaparse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { CSV_HEADER } from '../../server/modules/plans/plan-export.service';
 import { LINE_KEYS as K, lineStationDocument } from '../factories/day';
+import { getPdf, pdfText } from '../setup/pdf-text';
 import { makeAppWithStation } from '../setup/stations';
 import type { TestAgent, TestApp } from '../setup/test-app';
 import { fromWire } from '@shared/compute/day/wire';
@@ -49,6 +52,7 @@ async function dayCodes(tasks: unknown[], manifest: unknown[] = []) {
   const res = await planner.get(`/api/plans/${created.body.id}/timeline`);
   expect(res.status, JSON.stringify(res.body)).toBe(200);
   return {
+    id: created.body.id as number,
     codes: [...new Set(res.body.warnings.map((w: { code: string }) => w.code))].sort() as string[],
     body: fromWire(res.body) as ReturnType<typeof JSON.parse>,
   };
@@ -187,6 +191,52 @@ describe('each warning of the continuous day, with the plan that triggers it and
       .filter((b: { type: string }) => b.type === 'swap')
       .map((b: { swapNode: string }) => b.swapNode);
     expect(swapsAt).toContain(K.w1);
+  });
+
+  it('the exports carry the day: each CSV row the tether state after its block and the equipment steps of its task, the cue cards the same steps', async () => {
+    const manifest = [{ key: 'anchor', name: 'Portable anchor', kind: 'tether-anchor', carriedBy: 'EV1' }];
+    const { id, body } = await dayCodes(
+      [
+        task('Set the anchor', K.w1, 'EV1', { actions: [{ do: 'install', item: 'anchor' }] }),
+        task('Work further out', K.w3, 'EV1'),
+        task('Take the anchor back', K.w1, 'EV1', { actions: [{ do: 'remove', item: 'anchor' }] }),
+      ],
+      manifest,
+    );
+    const csv = await planner.get(`/api/plans/${id}/export.csv`).buffer(true);
+    expect(csv.status).toBe(200);
+    const [header, ...rows] = Papa.parse<string[]>(csv.text.trim(), { skipEmptyLines: true }).data;
+    expect(header).toEqual(CSV_HEADER);
+    const col = (name: string) => header.indexOf(name);
+    const ev1 = rows.filter((r) => r[col('crew')].startsWith('EV1'));
+    const blocks = body.crew.EV1.blocks as {
+      type: string;
+      taskIndex?: number;
+      swapNode?: string;
+      tetherAtEnd?: { anchor: string; paidOutM: number };
+    }[];
+    expect(ev1).toHaveLength(blocks.length);
+    let checked = 0;
+    blocks.forEach((b, k) => {
+      const after = b.tetherAtEnd ?? (b.type === 'swap' ? { anchor: b.swapNode!, paidOutM: 0 } : null);
+      if (!after) return;
+      expect(ev1[k][col('tether_anchor')], `block ${k}`).toBe(after.anchor);
+      expect(Number(ev1[k][col('tether_out_m')]), `block ${k}`).toBeCloseTo(after.paidOutM, 1);
+      checked++;
+    });
+    expect(checked).toBeGreaterThan(3);
+    const workOf = (title: string) => ev1.find((r) => r[col('type')] === 'work' && r[col('task')] === title)!;
+    const installed = workOf('Set the anchor')[col('equipment')];
+    const removed = workOf('Take the anchor back')[col('equipment')];
+    expect(installed).toContain('Portable anchor');
+    expect(installed).toContain(K.w1);
+    expect(removed).toContain('Portable anchor');
+    expect(workOf('Work further out')[col('equipment')]).toBe('');
+    const pdf = await getPdf(planner, `/api/plans/${id}/export.pdf`);
+    expect(pdf.status).toBe(200);
+    const text = pdfText(pdf.body as Buffer);
+    expect(text).toContain(installed);
+    expect(text).toContain(removed);
   });
 });
 
