@@ -6,6 +6,7 @@ import {
   addedWarnings,
   independentLanes,
   keepsAfter,
+  orderBounds,
   proposeOrder,
   type SequenceOptions,
 } from '@shared/compute/day/sequence';
@@ -205,6 +206,45 @@ describe('the proposed order: exact on small plans, checked against every order'
         },
       ),
       { numRuns: 5, seed: 7 },
+    );
+  });
+});
+
+/** Every order's day end, computed with the timeline itself; Infinity where an order breaks `after` or adds a warning. */
+function everyOrder(plan: DayPlan): { order: number[]; end: number }[] {
+  const identity = plan.tasks.map((_, i) => i);
+  const base = new Map<string, number>();
+  for (const w of day(plan, identity).warnings) {
+    const k = `${w.code}|${w.taskIndex ?? ''}|${w.crew ?? ''}|${w.item ?? ''}|${w.arm ?? ''}`;
+    base.set(k, (base.get(k) ?? 0) + 1);
+  }
+  return [...permutations(plan.tasks.length)].map((order) => {
+    if (!keepsAfter(plan.tasks, order)) return { order, end: Infinity };
+    const t = day(plan, order);
+    return { order, end: addedWarnings(base, t, order) > 0 ? Infinity : t.endSeconds };
+  });
+}
+
+describe('what the search knows before it ends: never past the earliest allowed day end', () => {
+  it('the bound after any first tasks, and the floor, are at most the best allowed order (fast-check)', () => {
+    fc.assert(
+      fc.property(planArb(2, 6), fc.nat(), fc.nat(6), (plan, pick, cut) => {
+        const orders = everyOrder(plan);
+        const allowed = orders.filter((o) => o.end < Infinity);
+        if (allowed.length === 0) return;
+        const best = Math.min(...allowed.map((o) => o.end));
+        // the first tasks of an allowed order, and the best allowed order that starts with them
+        const prefix = allowed[pick % allowed.length].order.slice(0, Math.min(cut, plan.tasks.length));
+        const completions = allowed.filter((o) => prefix.every((x, k) => o.order[k] === x));
+        const bestCompletion = Math.min(...completions.map((o) => o.end));
+        const { bound, floor } = orderBounds(plan, station, route, prefix, { travelSeconds });
+        expect(bound).toBeLessThanOrEqual(bestCompletion + 1e-6);
+        expect(floor).toBeLessThanOrEqual(best + 1e-6);
+      }),
+      {
+        numRuns: Number(process.env.SEQUENCE_RUNS ?? 40),
+        seed: Number(process.env.SEQUENCE_SEED ?? 20261206),
+      },
     );
   });
 });

@@ -18,6 +18,8 @@ export const EXACT_TASKS_PER_CREW = 8;
 export const DEFAULT_SEQUENCE_BUDGET_MS = 2000;
 /** Share of the budget the local search has first, to give the exhaustive search a good order to beat. */
 const WARM_SHARE = 0.1;
+/** Share of the budget (counted from the start) by which each crew member's day alone must be searched. */
+const FLOOR_SHARE = 0.3;
 /** Share of the budget (counted from the start) the exhaustive search may use before the local search takes over. */
 const EXACT_SHARE = 0.7;
 /** The local search stops after this many distinct days computed, whatever the budget. */
@@ -32,10 +34,11 @@ export interface SequenceOptions {
   budgetMs?: number;
   now?: () => number;
   /**
-   * A lower bound on a route's seconds between two nodes (`travelLowerBound`); without one the bound
-   * counts only work and restraint time, which is still exact, only slower to prove.
+   * A lower bound on a route's seconds between two nodes for a tether length (`travelLowerBound`);
+   * without one the bound counts only work and restraint time, which is still exact, only slower to
+   * prove.
    */
-  travelSeconds?: (from: string, to: string) => number;
+  travelSeconds?: (from: string, to: string, tetherLengthM?: number) => number;
   /** most tasks of one crew member for the exhaustive search (default 8) */
   exactUpTo?: number;
   /** seed of the local search's perturbations */
@@ -170,7 +173,9 @@ export function proposeOrder(
   const identity = plan.tasks.map((_, i) => i);
   const current = timelineOf(identity);
   const base = warningCounts(current, identity);
-  const search = searchFor(plan, current, base, day, memoRoute, options, timelineOf, () => explored++);
+  const clean = cleanDay(plan, current);
+  const counted = () => explored++;
+  const search = searchFor(plan, clean, base, day, memoRoute, options, timelineOf, counted);
   const scorer = new Scorer(search);
   let best: Scored | null = keepsAfter(plan.tasks, identity)
     ? { order: identity, timeline: current, added: 0 }
@@ -179,17 +184,25 @@ export function proposeOrder(
   const perCrew = Math.max(...CREW.map((m) => search.laneTasks[m].length));
   let exact = n <= 1 && best !== null;
   if (!exact && perCrew <= (options.exactUpTo ?? EXACT_TASKS_PER_CREW)) {
-    // a good order first, so the bound cuts more of the tree from the start
-    const warm = localSearch(search, scorer, best, started + budget * WARM_SHARE, now, options.seed ?? 1);
-    if (warm && warm.added === 0) best = warm;
     search.deadline = started + budget * EXACT_SHARE;
     search.now = now;
-    const found = independentLanes(plan) ? laneByLane(search, best) : branchAndBound(search, best);
-    best = found.best;
-    exact = found.complete;
+    search.floor = clean
+      ? soloFloor(plan, search, day, memoRoute, options, started + budget * FLOOR_SHARE, now, counted)
+      : 0;
+    // a good order first, so the bound cuts more of the tree from the start
+    const warmBy = now() + budget * WARM_SHARE;
+    const warm = localSearch(search, scorer, best, warmBy, now, options.seed ?? 1);
+    if (warm && warm.added === 0) best = warm;
+    if (best && best.timeline.endSeconds <= search.floor + END_EPS) exact = true;
+    else {
+      const found = independentLanes(plan) ? laneByLane(search, best) : branchAndBound(search, best);
+      best = found.best;
+      exact = found.complete;
+    }
   }
   if (!exact) {
     best = localSearch(search, scorer, best, started + budget, now, options.seed ?? 1);
+    exact = best !== null && best.added === 0 && best.timeline.endSeconds <= search.floor + END_EPS;
   }
   const chosen = best && best.added === 0 ? best : { order: identity, timeline: current, added: 0 };
   // the day as the timeline lists it (a day placed task by task may list its warnings in another order)
@@ -205,6 +218,47 @@ export function proposeOrder(
   };
 }
 
+/**
+ * What the search knows of every order that starts with `prefix` (plan indices keeping `after`): the
+ * bound of its placed day (`dayBound`; Infinity when that day already adds a warning) and the floor
+ * under every allowed order (`soloFloor`). Both are at most the earliest allowed day end.
+ */
+export function orderBounds(
+  plan: DayPlan,
+  station: DayStation,
+  route: DayRouteFn,
+  prefix: readonly number[],
+  options: SequenceOptions = {},
+): { bound: number; floor: number } {
+  const identity = plan.tasks.map((_, i) => i);
+  const timelineOf = (order: readonly number[]) =>
+    computeTimeline({ ...plan, tasks: order.map((i) => plan.tasks[i]) }, station, route, options.start);
+  const current = timelineOf(identity);
+  const base = warningCounts(current, identity);
+  const clean = cleanDay(plan, current);
+  const s = searchFor(plan, clean, base, station, route, options, timelineOf, () => {});
+  if (!s.root) return { bound: 0, floor: 0 };
+  const day = s.extend(s.root, prefix);
+  const left = Object.fromEntries(
+    CREW.map((m) => [m, s.laneTasks[m].filter((x) => !prefix.includes(x))]),
+  ) as Record<CrewMember, number[]>;
+  return {
+    bound: spoiled(s, day) ? Infinity : dayBound(s, day, left),
+    floor: clean
+      ? soloFloor(
+          plan,
+          s,
+          station,
+          route,
+          options,
+          Infinity,
+          () => 0,
+          () => {},
+        )
+      : 0,
+  };
+}
+
 // ── days placed task by task, and what every completion of one must spend ──────────────────────────
 
 interface Search {
@@ -212,6 +266,10 @@ interface Search {
   tasks: readonly DayTask[];
   afterOf: number[][];
   laneTasks: Record<CrewMember, number[]>;
+  /** a task's place among its crew member's tasks */
+  laneAt: Record<CrewMember, Map<number, number>>;
+  /** `leastPath`'s table */
+  paths: Record<CrewMember, Map<number, number>>;
   /** the current order's warnings, counted per code, task, crew member and item */
   base: Map<string, number>;
   /** a day with no task placed; null when the plan has arm tasks (every order is computed whole) */
@@ -225,6 +283,8 @@ interface Search {
   mustNight: (x: number) => boolean;
   /** the bound holds: work takes its planned time (not a day as flown) */
   bounded: boolean;
+  /** no allowed order ends before this (`soloFloor`; 0 when not known) */
+  floor: number;
   deadline: number;
   now: () => number;
 }
@@ -240,7 +300,7 @@ const UNREACHED_CODES = new Set([
 
 function searchFor(
   plan: DayPlan,
-  current: Timeline,
+  clean: boolean,
   base: Map<string, number>,
   station: DayStation,
   route: DayRouteFn,
@@ -250,13 +310,19 @@ function searchFor(
 ): Search {
   const tasks = plan.tasks;
   const root = tasks.some((t) => t.arm) ? null : placeDay(plan, station, route, options.start);
+  const laneTasks = Object.fromEntries(
+    CREW.map((m) => [m, tasks.flatMap((t, i) => (membersOf(t).includes(m) ? [i] : []))]),
+  ) as Record<CrewMember, number[]>;
   return {
     plan,
     tasks,
     afterOf: afterIndexes(tasks),
-    laneTasks: Object.fromEntries(
-      CREW.map((m) => [m, tasks.flatMap((t, i) => (membersOf(t).includes(m) ? [i] : []))]),
-    ) as Record<CrewMember, number[]>,
+    laneTasks,
+    laneAt: {
+      EV1: new Map(laneTasks.EV1.map((x, k) => [x, k])),
+      EV2: new Map(laneTasks.EV2.map((x, k) => [x, k])),
+    },
+    paths: { EV1: new Map(), EV2: new Map() },
     base,
     root,
     extend(day, xs) {
@@ -268,11 +334,12 @@ function searchFor(
       return next;
     },
     timelineOf,
-    between: betweenFor(plan, current, station, options.travelSeconds),
+    between: betweenFor(plan, clean, station, options.travelSeconds),
     mustNight: (x) =>
       tasks[x].eclipseOnly &&
       !base.has(warningKey({ code: 'eclipse-only-outside-night', taskIndex: 0 }, [x])),
     bounded: options.start?.flown === undefined,
+    floor: 0,
     deadline: Infinity,
     now: () => 0,
   };
@@ -288,22 +355,22 @@ function searchFor(
  */
 function betweenFor(
   plan: DayPlan,
-  current: Timeline,
+  clean: boolean,
   station: DayStation,
-  travelSeconds?: (from: string, to: string) => number,
+  travelSeconds?: (from: string, to: string, tetherLengthM?: number) => number,
 ): Search['between'] {
   const tasks = plan.tasks;
   const n = tasks.length;
-  const clean = !current.warnings.some((w) => UNREACHED_CODES.has(w.code)) && !tasks.some((t) => t.arm);
   const restraintS = clean ? station.settings.restraintSeconds : 0;
-  const travel = (a: string, b: string) => (!clean || a === b || !travelSeconds ? 0 : travelSeconds(a, b));
+  const travel = (a: string, b: string, m: CrewMember) =>
+    !clean || a === b || !travelSeconds ? 0 : travelSeconds(a, b, plan.crew[m].tetherLengthM);
   const cost = (m: CrewMember, a: number | null, b: number | null) => {
     const sa = a === null ? undefined : socketFor(tasks[a], m);
     const sb = b === null ? undefined : socketFor(tasks[b], m);
     if (sa !== undefined && sa === sb) return 0;
     const from = a === null ? station.airlockKey : tasks[a].worksite;
     const to = b === null ? station.airlockKey : tasks[b].worksite;
-    return (sa !== undefined ? restraintS : 0) + (sb !== undefined ? restraintS : 0) + travel(from, to);
+    return (sa !== undefined ? restraintS : 0) + (sb !== undefined ? restraintS : 0) + travel(from, to, m);
   };
   // row and column 0 are the airlock
   const table = Object.fromEntries(
@@ -339,8 +406,8 @@ function spoiled(s: Search, day: PlacedDay): boolean {
  * has taken is the same in every completion (`placeDay`), so each crew member goes on from their
  * clock. Per crew member, at the least: the tasks placed and not started, in their order, each after
  * the least way in from the one before (`between`; the first one's counts only when all of it is
- * ahead); then each task still to place with its least way in from any task that could come before
- * it, and the least way home from a task that could be last. A task's work starts no earlier than
+ * ahead); then the work of each task still to place and the least time between works through all of
+ * them and home (`leastPath`). A task's work starts no earlier than
  * where that chain puts it, nor than the end of the work of a task it is `after` that is laid, nor,
  * for a task for both, than the partner's chain puts it (a second pass); an eclipse-only task the
  * current order keeps in night starts no earlier than the first night window from then that holds
@@ -387,17 +454,142 @@ function laneBound(
     t = startAt(x, t) + dur(x);
     prev = x;
   });
-  let rest = 0;
+  let work = 0;
   let latest = 0;
   for (const x of left) {
     let into = s.between(m, prev, x);
     for (const y of left) if (y !== x) into = Math.min(into, s.between(m, y, x));
-    rest += into + dur(x);
+    work += dur(x);
     latest = Math.max(latest, startAt(x, t + into) + dur(x));
   }
   let home = left.length ? Infinity : s.between(m, prev, null);
   for (const x of left) home = Math.min(home, s.between(m, x, null));
-  return Math.max(t + rest, latest) + home;
+  return Math.max(t + work + leastPath(s, m, prev, left), latest + home);
+}
+
+/** Tasks of one crew member up to which `leastPath` tries every order of those left. */
+const PATH_TASKS = 12;
+
+/**
+ * The least time between works from `prev` through every task of `left` and home, each leg at its
+ * least (`between`): the best order, over every order of them (a table over subsets, kept per crew
+ * member), when the crew member has up to PATH_TASKS tasks; else each task's least way in from any
+ * task that could come before it and the least way home.
+ */
+function leastPath(s: Search, m: CrewMember, prev: number | null, left: readonly number[]): number {
+  const lane = s.laneTasks[m];
+  if (lane.length > PATH_TASKS) {
+    let sum = 0;
+    for (const x of left) {
+      let into = s.between(m, prev, x);
+      for (const y of left) if (y !== x) into = Math.min(into, s.between(m, y, x));
+      sum += into;
+    }
+    let home = left.length ? Infinity : s.between(m, prev, null);
+    for (const x of left) home = Math.min(home, s.between(m, x, null));
+    return sum + home;
+  }
+  const at = s.laneAt[m];
+  const memo = s.paths[m];
+  const size = 1 << lane.length;
+  const walk = (p: number, mask: number): number => {
+    if (mask === 0) return s.between(m, p < 0 ? null : lane[p], null);
+    const key = (p + 1) * size + mask;
+    const known = memo.get(key);
+    if (known !== undefined) return known;
+    let best = Infinity;
+    for (let k = 0; k < lane.length; k++) {
+      if (!(mask & (1 << k))) continue;
+      best = Math.min(best, s.between(m, p < 0 ? null : lane[p], lane[k]) + walk(k, mask ^ (1 << k)));
+    }
+    memo.set(key, best);
+    return best;
+  };
+  let mask = 0;
+  for (const x of left) mask |= 1 << at.get(x)!;
+  return walk(prev === null ? -1 : at.get(prev)!, mask);
+}
+
+/** The current order reaches every worksite and restraint, and no task is done from an arm. */
+function cleanDay(plan: DayPlan, current: Timeline): boolean {
+  return !current.warnings.some((w) => UNREACHED_CODES.has(w.code)) && !plan.tasks.some((t) => t.arm);
+}
+
+/**
+ * A floor under every allowed order's day end: each crew member's earliest own return with their
+ * tasks alone (a task for both done alone from their socket, `after` kept among their own tasks),
+ * over every sequence of them whose routes are all feasible, plus ingress. Searched exhaustively with
+ * `laneBound`; 0 when the search does not finish by `deadline`. It holds when the partner can only
+ * hold a crew member up: no portable anchor or large item in the manifest (an anchor the partner
+ * installs, or a large item they take, could shorten the crew member's routes), no arm, the plan's
+ * own order reaches every worksite and restraint (then no allowed order fails a route, and the
+ * crew member's routes are the same requests alone: their tether and the items' effect on routes
+ * do not depend on the partner) and the work takes its planned time. Alone, a crew member's day
+ * loses only the waits for the partner (sync and `after`), so it ends no later than in the day of
+ * any order with the same sequence.
+ */
+function soloFloor(
+  plan: DayPlan,
+  s: Search,
+  station: DayStation,
+  route: DayRouteFn,
+  options: SequenceOptions,
+  deadline: number,
+  now: () => number,
+  counted: () => void,
+): number {
+  if (!s.bounded || !s.root) return 0;
+  if (plan.manifest.some((i) => i.kind === 'large-item' || i.kind === 'tether-anchor')) return 0;
+  let floor = 0;
+  for (const m of CREW) {
+    const mine = s.laneTasks[m];
+    const ids = new Set(mine.map((x) => plan.tasks[x].id));
+    const solo: DayPlan = {
+      ...plan,
+      tasks: mine.map((x) => {
+        const { sockets: _both, socket: _one, ...task } = plan.tasks[x];
+        const socket = socketFor(plan.tasks[x], m);
+        return {
+          ...task,
+          crew: m,
+          ...(socket === undefined ? {} : { socket }),
+          after: (task.after ?? []).filter((id) => ids.has(id)),
+        };
+      }),
+    };
+    const alone = searchFor(solo, true, new Map(), station, route, options, s.timelineOf, counted);
+    const chosen = new Uint8Array(mine.length);
+    const all = alone.laneTasks[m];
+    let best = Infinity;
+    let complete = true;
+    const visit = (day: PlacedDay, placed: number) => {
+      if (now() > deadline) {
+        complete = false;
+        return;
+      }
+      if (placed === all.length) {
+        const timeline = day.finish();
+        if (!timeline.warnings.some((w) => w.code === 'route-infeasible'))
+          best = Math.min(best, ownEnd(timeline, m));
+        return;
+      }
+      const left = all.filter((x) => !chosen[x]);
+      if (laneBound(alone, m, day.progress(m), left, (_, t) => t) >= best - END_EPS) return;
+      for (const x of left) {
+        if (!alone.afterOf[x].every((j) => chosen[j])) continue;
+        const next = alone.extend(day, [x]);
+        if (next.warningsSoFar().some((w) => w.code === 'route-infeasible')) continue;
+        chosen[x] = 1;
+        visit(next, placed + 1);
+        chosen[x] = 0;
+        if (!complete) return;
+      }
+    };
+    visit(alone.root!, 0);
+    if (!complete || best === Infinity) return 0;
+    floor = Math.max(floor, best);
+  }
+  return floor + plan.ingressSeconds;
 }
 
 // ── branch and bound over both crew members' sequences ─────────────────────────────────────────────
@@ -513,7 +705,7 @@ function branchAndBound(s: Search, incumbent: Scored | null): { best: Scored | n
       complete = false;
       return;
     }
-    if (best && lb >= best.timeline.endSeconds - END_EPS) return;
+    if (best && Math.max(lb, s.floor) >= best.timeline.endSeconds - END_EPS) return;
     if (node.list.length === n) {
       const timeline = day.finish();
       const scored = { order: node.list, timeline, added: addedWarnings(s.base, timeline, node.list) };
@@ -716,8 +908,10 @@ function localSearch(
   const tasks = s.tasks;
   const seen = new Map<string, Scored | null>();
   let evaluations = 0;
-  const out = () => now() > deadline || evaluations >= MAX_LOCAL_EVALUATIONS;
   let from: Scored | null = null;
+  // an order that adds no warning and ends at the floor cannot be beaten
+  const atFloor = () => from !== null && from.added === 0 && from.timeline.endSeconds <= s.floor + END_EPS;
+  const out = () => now() > deadline || evaluations >= MAX_LOCAL_EVALUATIONS || atFloor();
   /** the order's day, or null when it breaks `after`, or cannot be better than `from` */
   const scoreOf = (order: number[]): Scored | null => {
     if (!keepsAfter(tasks, order)) return null;
