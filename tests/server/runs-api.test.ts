@@ -256,6 +256,24 @@ describe('runs of an approved plan', () => {
     expect(check.drop).toBeNull();
   });
 
+  it('moves the projected end with the clock while a task runs long and nothing is logged', async () => {
+    const plan = await approvedPlan();
+    const run = await openRun(plan.id);
+    const planned = (await view(run.id, 0)).plannedDay;
+    const first = work(planned, 'EV1', 0);
+    await log(run.id, { crew: 'EV1', kind: 'egress-done', at: planned.crew.EV1.blocks[0].end });
+    await log(run.id, { crew: 'EV2', kind: 'egress-done', at: planned.crew.EV2.blocks[0].end });
+    await log(run.id, { crew: 'EV1', kind: 'task-start', taskId: plan.tasks[0].id, at: first.start });
+    const before = await view(run.id, first.start + 60);
+    expect(before.clock.held).toBe(false);
+    expect(before.clock.steadyUntil).toBeGreaterThan(first.start + 60);
+    const a = await view(run.id, first.end + 120);
+    const b = await view(run.id, first.end + 720);
+    expect(a.clock).toEqual({ held: true, steadyUntil: null });
+    expect(b.projectedEndSeconds - a.projectedEndSeconds).toBe(600);
+    expect(b.events).toHaveLength(3);
+  });
+
   it('exports the run as flown: every task planned beside flown, in minutes', async () => {
     const plan = await approvedPlan();
     const run = await openRun(plan.id);

@@ -95,6 +95,75 @@ describe('the day as flown', () => {
   });
 });
 
+describe('the projection and the clock', () => {
+  /** Both crew members' tasks started on time and not logged done (a log is never after now). */
+  function running() {
+    const plan = planWith([], 600);
+    const planned = computeTimeline(plan, station, route);
+    const first = planned.crew.EV1.blocks.find((b) => b.type === 'work')!;
+    const valve = planned.crew.EV2.blocks.find((b) => b.type === 'work')!;
+    const events: FlightEvent[] = [
+      { crew: 'EV1', kind: 'egress-done', at: 600 },
+      { crew: 'EV2', kind: 'egress-done', at: 600 },
+      { crew: 'EV1', kind: 'task-start', taskId: 1, at: first.start },
+      { crew: 'EV2', kind: 'task-start', taskId: 2, at: valve.start },
+    ];
+    return {
+      plan,
+      planned,
+      first,
+      valve,
+      at: (now: number) => projectRun(plan, station, route, events, now),
+    };
+  }
+
+  it('stays as it is until a running task reaches its planned end, and says when that is', () => {
+    const { planned, first, valve, at } = running();
+    const since = Math.max(first.start, valve.start);
+    const soon = Math.min(first.end, valve.end);
+    const early = at(since + 1);
+    const later = at(soon - 1);
+    expect(early.clock).toEqual({ held: false, steadyUntil: soon });
+    expect(later.clock).toEqual({ held: false, steadyUntil: soon });
+    expect(early.projected.endSeconds).toBe(planned.endSeconds);
+    expect(later.projected.endSeconds).toBe(planned.endSeconds);
+  });
+
+  it('pushes the rest of the day with the clock while the tasks run past their planned ends, nothing logged', () => {
+    const { planned, first, valve, at } = running();
+    const late = Math.max(first.end, valve.end);
+    const five = at(late + 300);
+    const fifteen = at(late + 900);
+    expect(five.clock).toEqual({ held: true, steadyUntil: null });
+    expect(fifteen.clock).toEqual({ held: true, steadyUntil: null });
+    // the lane that ends the day was running its task: the day ends later by exactly that overrun
+    expect(five.projected.endSeconds).toBe(planned.endSeconds + 300);
+    expect(fifteen.projected.endSeconds).toBe(planned.endSeconds + 900);
+    expect(fifteen.actual.EV1.at(-1)).toMatchObject({ inProgress: true, end: late + 900 });
+  });
+
+  it('holds a step nobody started once its time has come, and never before (fast-check)', () => {
+    const { plan, first } = running();
+    const events: FlightEvent[] = [{ crew: 'EV1', kind: 'egress-done', at: 600 }];
+    fc.assert(
+      fc.property(fc.integer({ min: 600, max: Math.round(first.start) + 3600 }), (now) => {
+        const run = projectRun(plan, station, route, events, now);
+        const work = run.projected.crew.EV1.blocks.find((b) => b.type === 'work')!;
+        // EV1's task starts at its planned time or now, whichever is later
+        expect(work.start).toBe(Math.max(first.start, now));
+        if (now >= first.start) expect(run.clock.held).toBe(true);
+        if (!run.clock.held) {
+          expect(run.clock.steadyUntil).toBeGreaterThan(now);
+          // and until then the day is the one projected now
+          const until = projectRun(plan, station, route, events, run.clock.steadyUntil!);
+          expect(until.projected.endSeconds).toBe(run.projected.endSeconds);
+        }
+      }),
+      { numRuns: 25 },
+    );
+  });
+});
+
 describe('what to drop to restore the margin', () => {
   it('drops the one get-ahead task that gives the margin back, worked by hand', () => {
     // 5 min late on a 100 s margin: the 10 min get-ahead task gives back 600 s, the 5 min one 300 s

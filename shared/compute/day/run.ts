@@ -72,6 +72,19 @@ export interface RunProjection {
   actual: Record<CrewMember, ActualBlock[]>;
   missedNight: MissedNight[];
   drop: DropSuggestion | null;
+  /** how the projection depends on the clock while nothing is logged */
+  clock: ClockHold;
+}
+
+/**
+ * A projection holds a step at now when a step still ahead has not started by its time (it starts no
+ * earlier than now) or one in progress runs past its planned length (it ends no earlier than now):
+ * then the rest of the day moves with the clock. Otherwise it stays as it is until `steadyUntil`,
+ * the first moment one of those would begin (null: nothing left that the clock can hold).
+ */
+export interface ClockHold {
+  held: boolean;
+  steadyUntil: number | null;
 }
 
 /** Most optional tasks weighed for dropping: each one weighed costs a day's computation or two. */
@@ -251,7 +264,37 @@ export function projectRun(
     }
   }
 
-  return { now: at, planned, projected, actual: actualBlocks(plan, flown), missedNight, drop };
+  const clock = clockHold(plan, flown, projected);
+  return { now: at, planned, projected, actual: actualBlocks(plan, flown), missedNight, drop, clock };
+}
+
+/**
+ * Where the clock holds the projection (see `ClockHold`): the timeline sets a held start or end to
+ * exactly `flown.now`, and otherwise the step's own start or end is when the clock would reach it.
+ */
+export function clockHold(plan: DayPlan, flown: DayFlown, projected: Timeline): ClockHold {
+  const now = flown.now;
+  let held = false;
+  let next = Infinity;
+  const watch = (at: number) => {
+    if (at === now) held = true;
+    else if (at > now) next = Math.min(next, at);
+  };
+  for (const m of CREW) {
+    for (const b of projected.crew[m].blocks) {
+      if (b.type === 'egress' && flown.egressEnd[m] === undefined) watch(b.end);
+      else if (b.type === 'ingress' && flown.ingress?.start === undefined) watch(b.start);
+      else if (b.type === 'ingress' && flown.ingress?.inProgress) watch(b.end);
+      else if (b.type === 'work' && b.taskIndex !== undefined) {
+        const task = plan.tasks[b.taskIndex];
+        const logged = task.id === undefined ? undefined : flown.work[task.id];
+        const w = logged?.[m] ?? (task.crew === 'both' ? logged?.[m === 'EV1' ? 'EV2' : 'EV1'] : undefined);
+        if (!w) watch(b.start);
+        else if (w.inProgress && w.end === undefined) watch(b.end);
+      }
+    }
+  }
+  return { held, steadyUntil: held || next === Infinity ? null : next };
 }
 
 /** The plan's tasks without some, and without any wait for them. */
