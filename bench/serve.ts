@@ -121,19 +121,25 @@ export const median = (xs: number[]) => {
   return s[s.length >> 1];
 };
 
+/** Imports a generated truss station of `nodes` nodes (seed 3) as `cookie`: the document and the new station's id. */
+export async function importGeneratedStation(base: string, cookie: string, nodes: number) {
+  const doc = generateTrussStation({ nodes, seed: 3 });
+  const form = multipartBody([{ field: 'file', fileName: 'station.json', content: JSON.stringify(doc) }]);
+  const imported = await send(
+    base,
+    'POST',
+    '/api/stations/import',
+    { cookie, 'content-type': form.contentType },
+    form.body,
+  );
+  if (imported.status !== 201) throw new Error(`import: ${imported.status} ${imported.text}`);
+  return { doc, stationId: (imported.body.station as { id: number }).id };
+}
+
 /** A started server with the 10k station imported: its base, the engineer's cookie and the station. */
 export async function serverWithStation(env: Record<string, string>, nodes = 10_000) {
   const server = await startLoopbackServer({ LOG_LEVEL: 'info', ...env }, { quiet: true });
   const engineer = await signIn(server.base, 'engineer@example.org');
-  const doc = generateTrussStation({ nodes, seed: 3 });
-  const form = multipartBody([{ field: 'file', fileName: 'station.json', content: JSON.stringify(doc) }]);
-  const imported = await send(
-    server.base,
-    'POST',
-    '/api/stations/import',
-    { cookie: engineer, 'content-type': form.contentType },
-    form.body,
-  );
-  if (imported.status !== 201) throw new Error(`import: ${imported.status} ${imported.text}`);
-  return { server, engineer, doc, stationId: (imported.body.station as { id: number }).id };
+  const { doc, stationId } = await importGeneratedStation(server.base, engineer, nodes);
+  return { server, engineer, doc, stationId };
 }

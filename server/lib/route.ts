@@ -92,6 +92,34 @@ function sendJsonText(req: Request, res: Response, status: number, text: string)
   res.send(zlib.gzipSync(text, { level: zlib.constants.Z_BEST_SPEED }));
 }
 
+const gzipped = new WeakMap<object, Promise<Buffer>>();
+
+/**
+ * Sends a JSON text kept in a cache entry (`entry.json`, the same object for as long as the text is
+ * good), gzipped once per entry on the thread pool and sent as those bytes from then on: a large
+ * station's graph costs its readers no compression after the first.
+ */
+export async function sendCachedJson(req: Request, res: Response, entry: { json: string }) {
+  res.type('json');
+  if (
+    Buffer.byteLength(entry.json) < INLINE_GZIP_MIN_BYTES ||
+    req.acceptsEncodings('gzip', 'identity') !== 'gzip'
+  )
+    return void res.send(entry.json);
+  let bytes = gzipped.get(entry);
+  if (!bytes) {
+    bytes = gzip(entry.json);
+    gzipped.set(entry, bytes);
+  }
+  const body = await bytes;
+  res.vary('Accept-Encoding');
+  res.setHeader('Content-Encoding', 'gzip');
+  res.send(body);
+}
+
+const gzip = (text: string) =>
+  new Promise<Buffer>((resolve, reject) => zlib.gzip(text, (err, out) => (err ? reject(err) : resolve(out))));
+
 function accessGuard(access: Access): RequestHandler {
   return (req: Request, _res: Response, next: NextFunction) => {
     if (access === 'public') return next();

@@ -38,6 +38,7 @@ const MATRIX: Record<string, Who> = {
   'PUT /api/stations/:id/import': ENGINEERS,
   'POST /api/stations/:id/import-csv': ENGINEERS,
   'GET /api/stations/:id/graph': 'everyone',
+  'GET /api/stations/:id/graph/columns': 'everyone',
   'GET /api/stations/:id/export': 'everyone',
   'GET /api/stations/:id/audit': 'everyone',
   'GET /api/stations/:id/versions': 'everyone',

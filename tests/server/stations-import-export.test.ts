@@ -1,5 +1,6 @@
 import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { fromGraphColumns, type GraphColumns } from '@shared/compute/graph-columns';
 import { generateTrussStation } from '@shared/compute/truss-generator';
 import { parseStationDocument, type StationDocumentInput } from '@shared/schemas/station';
 import type { StationGraph } from '@shared/schemas/station-edits';
@@ -295,6 +296,29 @@ const documentArb: fc.Arbitrary<StationDocumentInput> = fc
       })),
     };
   });
+
+describe('GET /api/stations/:id/graph/columns', () => {
+  it("reads back to the graph endpoint's answer, gzipped once and sent as the same bytes; a version asked is that version", async () => {
+    const doc = generateTrussStation({ nodes: 2000, seed: 11 });
+    const { body } = await importDoc(doc);
+    const id = (body.station as { id: number }).id;
+    const graph = await graphOf(id);
+    const res = await engineer.get(`/api/stations/${id}/graph/columns`).set('accept-encoding', 'gzip');
+    expect(res.status).toBe(200);
+    expect(res.headers['content-encoding']).toBe('gzip');
+    const columns = res.body as GraphColumns;
+    expect(fromGraphColumns(columns)).toEqual(graph);
+    expect(JSON.stringify(columns).length).toBeLessThan(JSON.stringify(graph).length / 2);
+    const again = await engineer.get(`/api/stations/${id}/graph/columns`).set('accept-encoding', 'gzip');
+    expect(again.body).toEqual(columns);
+
+    const first = await engineer.get(`/api/stations/${id}/graph/columns?version=1`);
+    expect(first.status).toBe(200);
+    expect(fromGraphColumns(first.body as GraphColumns)).toEqual(graph);
+    expect((await engineer.get(`/api/stations/${id}/graph/columns?version=99`)).status).toBe(404);
+    expect((await engineer.get('/api/stations/9999/graph/columns')).status).toBe(404);
+  });
+});
 
 describe('export → re-import keeps the graph (property)', () => {
   it('for generated documents: the stored model equals the document, and its export re-imports to the same graph', async () => {

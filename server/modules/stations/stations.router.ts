@@ -2,9 +2,10 @@ import type { Request } from 'express';
 import { z } from 'zod';
 import type { AppContext } from '../../context';
 import { badRequest } from '../../lib/http-error';
-import { defineRoute, mountRoutes } from '../../lib/route';
+import { defineRoute, mountRoutes, sendCachedJson } from '../../lib/route';
 import { MB, diskUpload, uploadedFile } from '../../lib/uploads';
 import { runTask } from '../compute/tasks';
+import { toGraphColumns } from '@shared/compute/graph-columns';
 import {
   AuditQuerySchema,
   CreateEdgeInputSchema,
@@ -268,11 +269,23 @@ export function stationsRouter(ctx: AppContext) {
       path: '/:id/graph',
       access: 'read',
       input: { params: StationIdParamsSchema, query: GraphQuerySchema },
-      handler: (_req, res, { params, query }) => {
+      handler: (req, res, { params, query }) => {
         const live = getStationGraphJson(ctx.db, params.id);
         if (query.version === undefined || query.version === live.version)
-          res.type('application/json').send(live.json);
+          return sendCachedJson(req, res, live);
         else return stationGraphAt(ctx.db, params.id, query.version);
+      },
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/:id/graph/columns',
+      access: 'read',
+      input: { params: StationIdParamsSchema, query: GraphQuerySchema },
+      handler: (req, res, { params, query }) => {
+        const live = getStationGraphJson(ctx.db, params.id, 'columns');
+        if (query.version === undefined || query.version === live.version)
+          return sendCachedJson(req, res, live);
+        else return toGraphColumns(stationGraphAt(ctx.db, params.id, query.version));
       },
     }),
     defineRoute({

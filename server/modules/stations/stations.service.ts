@@ -27,6 +27,7 @@ import {
   type StationChange as ModelChange,
 } from '@shared/compute/station-changes';
 import { applyValidChange, changeProblems } from '@shared/compute/station-validation';
+import { toGraphColumns } from '@shared/compute/graph-columns';
 import {
   StationSettingsSchema,
   parseStationDocument,
@@ -339,19 +340,28 @@ export function getStationSnapshot(
 
 /**
  * The graph endpoint's JSON, serialised once per station version: every write bumps the version,
- * so a cached body is never stale, and the 3D view's many readers cost one query each.
+ * so a cached body is never stale, and the 3D view's many readers cost one query each. The columns
+ * (`toGraphColumns`, what the Station screen reads) are cached the same way.
  */
-const graphJsonCache = new WeakMap<Db, Map<number, { version: number; json: string }>>();
+const graphJsonCache = new WeakMap<Db, Map<string, { version: number; json: string }>>();
 
-export function getStationGraphJson(db: Db, id: number): { version: number; json: string } {
+export function getStationGraphJson(
+  db: Db,
+  id: number,
+  shape: 'objects' | 'columns' = 'objects',
+): { version: number; json: string } {
   const version = getStationVersion(db, id);
-  let byStation = graphJsonCache.get(db);
-  if (!byStation) graphJsonCache.set(db, (byStation = new Map()));
-  const hit = byStation.get(id);
+  let cache = graphJsonCache.get(db);
+  if (!cache) graphJsonCache.set(db, (cache = new Map()));
+  const key = `${id}:${shape}`;
+  const hit = cache.get(key);
   if (hit && hit.version === version) return hit;
   const graph = getStationGraph(db, id);
-  const entry = { version: graph.station.version, json: JSON.stringify(graph) };
-  byStation.set(id, entry);
+  const entry = {
+    version: graph.station.version,
+    json: JSON.stringify(shape === 'columns' ? toGraphColumns(graph) : graph),
+  };
+  cache.set(key, entry);
   return entry;
 }
 

@@ -3,11 +3,11 @@ import { STATION_UP } from './frame';
 
 /**
  * Where the camera must stand to see a box whole along `direction`: every point (the model's
- * outline points, or a box's corners) is projected onto the view plane, so a long truss seen end-on or obliquely fills the frame. Zenith
+ * outline points, flat x, y, z or vectors, or a box's corners) is projected onto the view plane, so a long truss seen end-on or obliquely fills the frame. Zenith
  * and nadir views lean a hair towards fore, so the camera's up (+z) is never parallel to the view.
  */
 export function framing(
-  subject: THREE.Box3 | readonly THREE.Vector3[],
+  subject: THREE.Box3 | readonly THREE.Vector3[] | Float64Array,
   direction: THREE.Vector3,
   fovDeg: number,
   aspect: number,
@@ -20,14 +20,24 @@ export function framing(
   const screenUp = new THREE.Vector3().crossVectors(right, dir.clone().negate()).normalize();
   const tanV = Math.tan((fovDeg * Math.PI) / 360);
   const tanH = tanV * aspect;
-  const points = Array.isArray(subject) ? subject : boxCorners(subject as THREE.Box3);
-  const box = new THREE.Box3().setFromPoints(points);
+  const flat =
+    subject instanceof Float64Array
+      ? subject
+      : Float64Array.from(
+          (Array.isArray(subject) ? subject : boxCorners(subject as THREE.Box3)).flatMap((p) => [
+            p.x,
+            p.y,
+            p.z,
+          ]),
+        );
+  const box = new THREE.Box3();
+  const corner = new THREE.Vector3();
+  for (let i = 0; i < flat.length; i += 3) box.expandByPoint(corner.set(flat[i], flat[i + 1], flat[i + 2]));
   const center = box.getCenter(new THREE.Vector3());
   const radius = Math.max(box.getBoundingSphere(new THREE.Sphere()).radius, minRadiusM);
   let distance = minRadiusM / Math.min(tanV, tanH);
-  const corner = new THREE.Vector3();
-  for (const point of points) {
-    corner.copy(point).sub(center);
+  for (let i = 0; i < flat.length; i += 3) {
+    corner.set(flat[i], flat[i + 1], flat[i + 2]).sub(center);
     const toward = corner.dot(dir);
     distance = Math.max(
       distance,

@@ -1,6 +1,7 @@
 import * as THREE from 'three';
 import { mergeGeometries } from 'three/examples/jsm/utils/BufferGeometryUtils.js';
-import { NODE_KINDS, type NodeKind, type StationNode } from '@shared/schemas/station';
+import type { GraphArrays } from '@shared/compute/graph-columns';
+import { NODE_KINDS, type NodeKind } from '@shared/schemas/station';
 import { NODE_COLORS } from './scene-colors';
 
 /**
@@ -50,37 +51,59 @@ export interface GlyphLayer {
   keys: string[];
 }
 
-/** One InstancedMesh per node kind that has nodes: draw calls stay at most five however many nodes. */
-export function buildGlyphLayers(nodes: readonly StationNode[]): GlyphLayer[] {
-  const layers: GlyphLayer[] = [];
+/**
+ * One InstancedMesh per node kind that has nodes: draw calls stay at most five however many nodes.
+ * Built from the graph's typed arrays (no object per node): a node without a normal is a
+ * translation written straight into the instance matrix. `instances` gets each node's instance in
+ * its kind's mesh.
+ */
+export function buildGlyphLayers(arrays: GraphArrays, instances: Uint32Array): GlyphLayer[] {
+  const { kinds, positions, normals, keys } = arrays;
+  const counts = new Uint32Array(NODE_KINDS.length);
+  for (let i = 0; i < kinds.length; i++) instances[i] = counts[kinds[i]]++;
   const m = new THREE.Matrix4();
   const q = new THREE.Quaternion();
   const p = new THREE.Vector3();
   const n = new THREE.Vector3();
   const one = new THREE.Vector3(1, 1, 1);
-  for (const kind of NODE_KINDS) {
-    const ofKind = nodes.filter((node) => node.kind === kind);
-    if (ofKind.length === 0) continue;
+  const layers: (GlyphLayer | undefined)[] = NODE_KINDS.map((kind, k) => {
+    if (counts[k] === 0) return undefined;
     const material = new THREE.MeshStandardMaterial({
       color: NODE_COLORS[kind],
       roughness: 0.55,
       metalness: 0.1,
     });
-    const mesh = new THREE.InstancedMesh(glyphGeometry(kind), material, ofKind.length);
+    const mesh = new THREE.InstancedMesh(glyphGeometry(kind), material, counts[k]);
     mesh.name = `nodes:${kind}`;
-    ofKind.forEach((node, i) => {
-      p.set(...node.position);
+    return { kind, mesh, keys: new Array<string>(counts[k]) };
+  });
+  for (let i = 0; i < kinds.length; i++) {
+    const layer = layers[kinds[i]]!;
+    const at = instances[i];
+    layer.keys[at] = keys[i];
+    const out = layer.mesh.instanceMatrix.array as Float32Array;
+    const [x, y, z] = [positions[i * 3], positions[i * 3 + 1], positions[i * 3 + 2]];
+    if (normals && !Number.isNaN(normals[i * 3])) {
       // a ring lies in the plane of its hatch (normal given) or faces zenith; a cone stands on its normal
-      const axis = kind === 'airlock' ? Z : Y;
-      if (node.normal) q.setFromUnitVectors(axis, n.set(...node.normal).normalize());
-      else q.identity();
-      mesh.setMatrixAt(i, m.compose(p, q, one));
-    });
-    mesh.instanceMatrix.needsUpdate = true;
-    mesh.computeBoundingSphere();
-    const keys = ofKind.map((node) => node.key);
-    mesh.userData.pick = { type: 'node', keys };
-    layers.push({ kind, mesh, keys });
+      const axis = layer.kind === 'airlock' ? Z : Y;
+      q.setFromUnitVectors(axis, n.set(normals[i * 3], normals[i * 3 + 1], normals[i * 3 + 2]).normalize());
+      m.compose(p.set(x, y, z), q, one).toArray(out, at * 16);
+    } else {
+      out.set(IDENTITY, at * 16);
+      out[at * 16 + 12] = x;
+      out[at * 16 + 13] = y;
+      out[at * 16 + 14] = z;
+    }
   }
-  return layers;
+  const built: GlyphLayer[] = [];
+  for (const layer of layers) {
+    if (!layer) continue;
+    layer.mesh.instanceMatrix.needsUpdate = true;
+    layer.mesh.computeBoundingSphere();
+    layer.mesh.userData.pick = { type: 'node', keys: layer.keys };
+    built.push(layer);
+  }
+  return built;
 }
+
+const IDENTITY = new THREE.Matrix4().toArray();

@@ -1,4 +1,5 @@
 import * as THREE from 'three';
+import { graphArraysOf } from '@shared/compute/graph-columns';
 import {
   NODE_KINDS,
   type Arm,
@@ -47,17 +48,23 @@ export interface PickData {
   keys: string[];
 }
 
+export interface NodeAt {
+  kind: NodeKind;
+  instance: number;
+  position: THREE.Vector3;
+}
+
 export interface StationObjects {
   root: THREE.Group;
   truss: THREE.Object3D[];
   handrails: THREE.Object3D[];
   glyphs: Partial<Record<NodeKind, THREE.InstancedMesh>>;
   hazards: THREE.Object3D[];
-  /** node key → its position, kind and instance in its kind's mesh */
-  nodeIndex: Map<string, { kind: NodeKind; instance: number; position: THREE.Vector3 }>;
+  /** node key → its position, kind and instance in its kind's mesh (made when asked) */
+  nodeIndex: { get(key: string): NodeAt | undefined };
   bounds: THREE.Box3;
-  /** what the camera frames: nodes, segment box corners, hazard extremes */
-  outline: THREE.Vector3[];
+  /** what the camera frames: nodes, segment box corners, hazard extremes, as x, y, z in turn */
+  outline: Float64Array;
   dispose(): void;
 }
 
@@ -78,24 +85,33 @@ export function buildStationObjects(station: SceneStation): StationObjects {
   const truss: THREE.Object3D[] = [...buildSegmentMeshes(station.segments)];
   if (trussLines.geometry.getAttribute('position').count > 0) truss.unshift(trussLines);
 
-  const handrails = buildEdgeLines(station.nodes, station.edges);
-  const glyphLayers = buildGlyphLayers(station.nodes);
+  const arrays = graphArraysOf(station);
+  const handrails = buildEdgeLines(arrays);
+  const instances = new Uint32Array(arrays.keys.length);
+  const glyphLayers = buildGlyphLayers(arrays, instances);
   const hazards = buildHazardMeshes(station.hazards);
   const glyphs: StationObjects['glyphs'] = {};
-  const nodeIndex: StationObjects['nodeIndex'] = new Map();
   for (const layer of glyphLayers) {
     glyphs[layer.kind] = layer.mesh;
-  }
-  const counters = new Map<NodeKind, number>();
-  for (const node of station.nodes) {
-    const instance = counters.get(node.kind) ?? 0;
-    counters.set(node.kind, instance + 1);
-    nodeIndex.set(node.key, { kind: node.kind, instance, position: new THREE.Vector3(...node.position) });
   }
 
   root.add(...truss, ...handrails, ...glyphLayers.map((l) => l.mesh), ...hazards);
   const bounds = stationBounds(station);
   const outline = stationOutline(station);
+  let indexOf: Map<string, number> | null = null;
+  const nodeIndex = {
+    get(key: string): NodeAt | undefined {
+      indexOf ??= new Map(arrays.keys.map((k, i) => [k, i]));
+      const i = indexOf.get(key);
+      if (i === undefined) return undefined;
+      const p = arrays.positions;
+      return {
+        kind: NODE_KINDS[arrays.kinds[i]],
+        instance: instances[i],
+        position: new THREE.Vector3(p[i * 3], p[i * 3 + 1], p[i * 3 + 2]),
+      };
+    },
+  };
   return {
     root,
     truss,
@@ -121,7 +137,8 @@ export function buildStationObjects(station: SceneStation): StationObjects {
 export function stationBounds(station: SceneStation): THREE.Box3 {
   const box = new THREE.Box3();
   const v = new THREE.Vector3();
-  for (const n of station.nodes) box.expandByPoint(v.set(...n.position));
+  const p = graphArraysOf(station).positions;
+  for (let i = 0; i < p.length; i += 3) box.expandByPoint(v.set(p[i], p[i + 1], p[i + 2]));
   for (const s of station.segments) {
     const r = Math.hypot(...s.size) / 2;
     box.expandByPoint(v.set(s.center[0] - r, s.center[1] - r, s.center[2] - r));
@@ -151,24 +168,32 @@ export function applyLayers(objects: StationObjects, layers: SceneLayers): void 
   }
 }
 
-/** The points a view of the whole station must keep in frame: tighter than the bounding box's corners. */
-export function stationOutline(station: SceneStation): THREE.Vector3[] {
-  const points = station.nodes.map((n) => new THREE.Vector3(...n.position));
+/**
+ * The points a view of the whole station must keep in frame (tighter than the bounding box's
+ * corners), as x, y, z in turn: every node, each segment box's corners, each hazard's extremes.
+ */
+export function stationOutline(station: SceneStation): Float64Array {
+  const nodes = graphArraysOf(station).positions;
+  const extra: number[] = [];
   const m = new THREE.Matrix4();
+  const v = new THREE.Vector3();
   for (const s of station.segments) {
     segmentMatrix(s, m);
     for (let i = 0; i < 8; i++) {
       const sign = (bit: number) => (i & bit ? 0.5 : -0.5);
-      points.push(
-        new THREE.Vector3(sign(1) * s.size[0], sign(2) * s.size[1], sign(4) * s.size[2]).applyMatrix4(m),
-      );
+      v.set(sign(1) * s.size[0], sign(2) * s.size[1], sign(4) * s.size[2]).applyMatrix4(m);
+      extra.push(v.x, v.y, v.z);
     }
   }
   for (const h of station.hazards) {
     const { min, max } = hazardBox(h);
-    points.push(new THREE.Vector3(...min), new THREE.Vector3(...max));
+    extra.push(...min, ...max);
   }
-  return points.length ? points : [new THREE.Vector3(-1, -1, -1), new THREE.Vector3(1, 1, 1)];
+  if (nodes.length + extra.length === 0) return Float64Array.of(-1, -1, -1, 1, 1, 1);
+  const out = new Float64Array(nodes.length + extra.length);
+  out.set(nodes);
+  out.set(extra, nodes.length);
+  return out;
 }
 
 function hazardBox(h: Hazard): { min: Vec3; max: Vec3 } {

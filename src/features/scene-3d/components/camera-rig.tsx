@@ -12,13 +12,17 @@ import type { SceneApi } from './scene-api';
 const FOCUS_RADIUS_M = 4;
 const HOME_DIRECTION = new THREE.Vector3(0.55, 0.75, 0.45).normalize();
 
-export function CameraRig({ outline, apiRef }: { outline: readonly THREE.Vector3[]; apiRef: Ref<SceneApi> }) {
+export function CameraRig({ outline, apiRef }: { outline: Float64Array; apiRef: Ref<SceneApi> }) {
   const get = useThree((s) => s.get);
   const invalidate = useThree((s) => s.invalidate);
   const controls = useRef<OrbitControlsImpl>(null);
 
   const api = useMemo<SceneApi>(() => {
-    const frame = (subject: readonly THREE.Vector3[], direction: THREE.Vector3, minRadiusM?: number) => {
+    const frame = (
+      subject: readonly THREE.Vector3[] | Float64Array,
+      direction: THREE.Vector3,
+      minRadiusM?: number,
+    ) => {
       const camera = get().camera as THREE.PerspectiveCamera;
       const f = framing(subject, direction, camera.fov, camera.aspect || 1, minRadiusM);
       camera.position.copy(f.position);
