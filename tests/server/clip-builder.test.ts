@@ -42,8 +42,11 @@ describe('clip graphs built off the request path', () => {
       excludeMask: mask,
     });
     expect(hasClipGraph(c.arcSeconds, tether, mask)).toBe(true);
-    // with the cost landmarks for the station's swap time, so `balanced` does not build them
-    expect(clipGraphFor(c, c.arcSeconds, tether, mask).costMarks.has(doc.settings.swapSeconds)).toBe(true);
+    // with the cost landmarks for the station's swap time, and for it carrying (a swap costs the
+    // same seconds, stretches the carry factor more), so neither `balanced` query builds them
+    const marks = clipGraphFor(c, c.arcSeconds, tether, mask).costMarks;
+    expect(marks.has(doc.settings.swapSeconds)).toBe(true);
+    expect(marks.has(doc.settings.swapSeconds / doc.settings.carryFactor)).toBe(true);
 
     // the handed-over graph answers exactly as one built in this thread on a fresh compile
     const fresh = compileStation(doc);
