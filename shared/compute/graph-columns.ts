@@ -154,7 +154,7 @@ export function fromGraphColumns(columns: GraphColumns): StationGraph {
     const [a, b] = [e.from[i] * 3, e.to[i] * 3];
     const length = given.get(i);
     const label = labels.get(i);
-    edges[i] = {
+    const edge: GraphEdge = {
       id,
       from: keys[e.from[i]],
       to: keys[e.to[i]],
@@ -168,9 +168,10 @@ export function fromGraphColumns(columns: GraphColumns): StationGraph {
         ),
       lengthGiven: length !== undefined,
       closed: closed.has(i),
-      ...(label === undefined ? {} : { label }),
     };
-    if (closed.has(i)) arrays.edgeClosed[i] = 1;
+    if (label !== undefined) edge.label = label;
+    edges[i] = edge;
+    if (edge.closed) arrays.edgeClosed[i] = 1;
   }
   const graph: StationGraph = {
     station: columns.station,

@@ -94,30 +94,59 @@ export function isEmptyChange(change: StationChange): boolean {
   return Object.values(change).every((v) => v === undefined);
 }
 
+/** What a change took out of a collection and what it brought in, at its place in the new list. */
+export interface CollectionDelta {
+  gone: unknown[];
+  came: { item: unknown; at: number }[];
+}
+
 function applyCollection<T>(
   items: readonly T[],
   change: CollectionChange<T>,
   id: (item: T) => string,
   keep: <X>(x: X) => X,
+  delta?: CollectionDelta,
 ): T[] {
-  if (change.all) return change.all.map((x) => structuredClone(x));
+  if (change.all) {
+    const all = change.all.map((x) => structuredClone(x));
+    delta?.gone.push(...items);
+    delta?.came.push(...all.map((item, at) => ({ item, at })));
+    return all;
+  }
   const byId = new Map<string, T>();
   for (const item of change.changed ?? []) byId.set(id(item), item);
   for (const r of change.replaced ?? []) byId.set(r.id, r.item);
   const removed = new Set(change.removed ?? []);
   const out: T[] = [];
   const seen = new Set<string>();
-  for (const item of items) {
-    const k = id(item);
-    if (removed.has(k)) continue;
-    const next = byId.get(k);
-    if (next !== undefined) seen.add(k);
-    out.push(next === undefined ? keep(item) : structuredClone(next));
-  }
+  // a change that only appends leaves every item where it was: no identity to look up
+  if (byId.size === 0 && removed.size === 0) for (const item of items) out.push(keep(item));
+  else
+    for (const item of items) {
+      const k = id(item);
+      if (removed.has(k)) {
+        delta?.gone.push(item);
+        continue;
+      }
+      const next = byId.get(k);
+      if (next === undefined) {
+        out.push(keep(item));
+        continue;
+      }
+      seen.add(k);
+      const made = structuredClone(next);
+      delta?.gone.push(item);
+      delta?.came.push({ item: made, at: out.length });
+      out.push(made);
+    }
   for (const k of byId.keys()) {
     if (!seen.has(k)) throw new Error(`the change names an item "${k}" the station does not have`);
   }
-  for (const item of change.added ?? []) out.push(structuredClone(item));
+  for (const item of change.added ?? []) {
+    const made = structuredClone(item);
+    delta?.came.push({ item: made, at: out.length });
+    out.push(made);
+  }
   return out;
 }
 
@@ -129,7 +158,14 @@ function applyCollection<T>(
 export function applyStationChange(
   doc: StationDocument,
   change: StationChange,
-  { share = false }: { share?: boolean } = {},
+  {
+    share = false,
+    delta,
+  }: {
+    share?: boolean;
+    /** filled with what the change took out of each collection and brought in */
+    delta?: Record<Collection, CollectionDelta>;
+  } = {},
 ): StationDocument {
   const keep = share ? <X>(x: X) => x : <X>(x: X) => structuredClone(x);
   const next: StationDocument = {
@@ -144,7 +180,7 @@ export function applyStationChange(
     // documents kept from before stations had arms have no `arms` list
     const items = (doc[c] as unknown[] | undefined) ?? [];
     (next as unknown as Record<Collection, unknown[]>)[c] = part
-      ? applyCollection(items, part as CollectionChange<unknown>, id, keep)
+      ? applyCollection(items, part as CollectionChange<unknown>, id, keep, delta?.[c])
       : share
         ? items
         : items.map((x) => structuredClone(x));

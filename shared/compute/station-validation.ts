@@ -15,7 +15,13 @@ import {
   type StationDocument,
   type StationEdge,
 } from '../schemas/station';
-import { applyStationChange, COLLECTIONS, type Collection, type StationChange } from './station-changes';
+import {
+  applyStationChange,
+  COLLECTIONS,
+  type Collection,
+  type CollectionDelta,
+  type StationChange,
+} from './station-changes';
 import type { z } from 'zod';
 
 const ITEM_SCHEMA: { [C in Collection]: z.ZodType } = {
@@ -44,8 +50,7 @@ export function changeProblems(
   before: StationDocument,
   change: StationChange,
 ): { doc: StationDocument; problems: DocumentProblem[] } {
-  const doc = applyStationChange(before, change, { share: true });
-  const delta = deltaOf(before, doc);
+  const { doc, delta } = applyTracked(before, change);
   const problems: DocumentProblem[] = [];
   const issue = (prefix: string) => (i: z.core.$ZodIssue) =>
     problems.push({ path: formatIssuePath([...prefixPath(prefix), ...i.path]), message: i.message });
@@ -86,9 +91,9 @@ export function changeProblems(
  * over so the next checked edit does not rebuild it.
  */
 export function applyValidChange(before: StationDocument, change: StationChange): StationDocument {
-  const doc = applyStationChange(before, change, { share: true });
+  const { doc, delta } = applyTracked(before, change);
   const index = indexes.get(before);
-  if (index) moveIndex(before, doc, index, deltaOf(before, doc));
+  if (index) moveIndex(before, doc, index, delta);
   return doc;
 }
 
@@ -133,31 +138,26 @@ const KEYED: readonly Keyed[] = ['nodes', 'segments', 'hazards'];
 
 /**
  * The items an edit took out of each collection and those it brought in, with their places in the
- * new document (a changed item is both: an edit never reuses an object). Found by object identity,
- * so it holds for any change, a whole list given included; a collection the edit left alone is the
- * same array and costs nothing.
+ * new document (a changed item is both), as applyStationChange reports them.
  */
 interface Delta {
   gone: { [C in Collection]: StationDocument[C][number][] };
   came: { [C in Collection]: { item: StationDocument[C][number]; at: number }[] };
 }
 
-function deltaOf(before: StationDocument, doc: StationDocument): Delta {
-  const delta: Delta = {
+/** `applyStationChange` with shared items, and what it took out and brought in. */
+function applyTracked(
+  before: StationDocument,
+  change: StationChange,
+): { doc: StationDocument; delta: Delta } {
+  const delta = {
     gone: { segments: [], nodes: [], edges: [], hazards: [], arms: [] },
     came: { segments: [], nodes: [], edges: [], hazards: [], arms: [] },
-  };
-  for (const c of COLLECTIONS) {
-    const [a, b] = [(before[c] ?? []) as unknown[], doc[c] as unknown[]];
-    if (a === b) continue;
-    const inA = new Set(a);
-    const inB = new Set(b);
-    for (const x of a) if (!inB.has(x)) (delta.gone[c] as unknown[]).push(x);
-    b.forEach((item, at) => {
-      if (!inA.has(item)) (delta.came[c] as unknown[]).push({ item, at });
-    });
-  }
-  return delta;
+  } as Delta;
+  const parts = Object.fromEntries(
+    COLLECTIONS.map((c) => [c, { gone: delta.gone[c], came: delta.came[c] } as CollectionDelta]),
+  ) as Record<Collection, CollectionDelta>;
+  return { doc: applyStationChange(before, change, { share: true, delta: parts }), delta };
 }
 
 /** Whether `doc`, made from the indexed document by `delta`, breaks any graph rule. */
