@@ -101,6 +101,7 @@ const MATRIX: Record<string, Who> = {
   'POST /api/runs/:id/events': PLANNERS,
   'GET /api/runs/:id/export.csv': 'everyone',
   'GET /api/runs/:id/export.pdf': 'everyone',
+  'GET /api/stations/:id/flown-estimates': 'everyone',
   'GET /api/events/': 'everyone',
   'POST /api/events/presence': 'everyone',
 };

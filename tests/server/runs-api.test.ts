@@ -274,6 +274,36 @@ describe('runs of an approved plan', () => {
     expect(b.events).toHaveLength(3);
   });
 
+  it('offers flown durations of ended runs as estimates for the same task at the same worksite', async () => {
+    const viewer = await t.agent('viewer');
+    const estimates = async () => {
+      const res = await viewer.get(`/api/stations/${stationId}/flown-estimates`);
+      expect(res.status, JSON.stringify(res.body)).toBe(200);
+      return res.body as { title: string; worksite: string; flights: number; seconds: number }[];
+    };
+    const open = (list: Awaited<ReturnType<typeof estimates>>) =>
+      list.find((e) => e.title === 'Open the cover');
+    const before = open(await estimates());
+    const plan = await approvedPlan();
+    const flying = await openRun(plan.id);
+    const planned = (await view(flying.id, 0)).plannedDay;
+    // a run still flying gives nothing yet
+    await flyFirstTask(flying.id, plan, planned, 300);
+    expect(open(await estimates())).toEqual(before);
+    // a run that ended: its first task took 10 min planned + 5 min late
+    const ended = await openRun(plan.id);
+    const done = await flyFirstTask(ended.id, plan, planned, 300);
+    await log(ended.id, { crew: 'EV1', kind: 'ingress-start', at: done + 60 });
+    await log(ended.id, { crew: 'EV1', kind: 'ingress-done', at: done + 120 });
+    const after = open(await estimates())!;
+    expect(after.worksite).toBe(K.worksite);
+    expect(after.flights).toBe((before?.flights ?? 0) + 1);
+    if (!before) expect(after.seconds).toBe(900);
+    const missing = await viewer.get('/api/stations/99999/flown-estimates');
+    expect(missing.status).toBe(404);
+    expect(missing.body.error.code).toBe('NOT_FOUND');
+  });
+
   it('exports the run as flown: every task planned beside flown, in minutes', async () => {
     const plan = await approvedPlan();
     const run = await openRun(plan.id);

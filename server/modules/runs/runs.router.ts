@@ -4,7 +4,15 @@ import { IdParamsSchema } from '@shared/schemas/auth';
 import { OpenRunInputSchema, RunEventInputSchema, RunQuerySchema } from '@shared/schemas/run';
 import { atParam } from '../events/changes';
 import type { ChangeEvent } from '@shared/schemas/events';
-import { appendRunEvent, listRuns, openRun, runAsFlownCsv, runAsFlownPdf, runViewText } from './runs.service';
+import {
+  appendRunEvent,
+  listRuns,
+  openRun,
+  runAsFlownCsv,
+  runAsFlownPdf,
+  runViewText,
+  stationFlownEstimates,
+} from './runs.service';
 
 /** Runs: an approved plan as it is flown, its append-only events, and the day re-projected from now. */
 export function runsRouter(ctx: AppContext) {
@@ -55,6 +63,13 @@ export function runsRouter(ctx: AppContext) {
         const pdf = await runAsFlownPdf(ctx, params.id);
         res.type('application/pdf').attachment(`run-${params.id}-as-flown.pdf`).send(pdf);
       },
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/stations/:id/flown-estimates',
+      access: 'read',
+      input: { params: IdParamsSchema },
+      handler: (_req, _res, { params }) => stationFlownEstimates(ctx, params.id),
     }),
     defineRoute({
       method: 'post',

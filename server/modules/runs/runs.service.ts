@@ -1,7 +1,7 @@
-import { asc, desc, eq, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, exists, sql } from 'drizzle-orm';
 import type { AppContext } from '../../context';
 import type { Db } from '../../db/client';
-import { runEvents, runs, users } from '../../db/schema';
+import { plans, runEvents, runs, stations, users } from '../../db/schema';
 import { badRequest, conflict, notFound, staleVersion } from '../../lib/http-error';
 import type { PlanView } from '@shared/schemas/plan-views';
 import {
@@ -14,6 +14,7 @@ import {
 } from '@shared/schemas/run';
 import { recordActivity } from '../activity/activity.service';
 import { asFlownRows } from '@shared/compute/day/as-flown';
+import { flownEstimates, type FlownEstimate } from '@shared/compute/day/flown-estimates';
 import type { Timeline } from '@shared/compute/day/types';
 import { fromWire } from '@shared/compute/day/wire';
 import type { RunView } from '@shared/schemas/run';
@@ -298,4 +299,40 @@ export async function runAsFlownPdf(ctx: AppContext, runId: number): Promise<Buf
       ),
     caution: PLANNING_CAUTION,
   });
+}
+
+/** Completed runs read for the estimates, the latest first: plenty of history, bounded work. */
+export const MAX_ESTIMATE_RUNS = 100;
+
+/**
+ * What each kind of task took at each worksite of the station, from the runs of its plans that
+ * ended (ingress logged done): suggested estimates for the task form.
+ */
+export function stationFlownEstimates(ctx: AppContext, stationId: number): FlownEstimate[] {
+  if (!ctx.db.select({ id: stations.id }).from(stations).where(eq(stations.id, stationId)).get())
+    throw notFound('Station');
+  const done = ctx.db
+    .select({ id: runs.id, planJson: runs.planJson })
+    .from(runs)
+    .innerJoin(plans, eq(plans.id, runs.planId))
+    .where(
+      and(
+        eq(plans.stationId, stationId),
+        exists(
+          ctx.db
+            .select({ id: runEvents.id })
+            .from(runEvents)
+            .where(and(eq(runEvents.runId, runs.id), eq(runEvents.kind, 'ingress-done'))),
+        ),
+      ),
+    )
+    .orderBy(desc(runs.id))
+    .limit(MAX_ESTIMATE_RUNS)
+    .all();
+  return flownEstimates(
+    done.map((r) => ({
+      tasks: (JSON.parse(r.planJson) as PlanView).tasks,
+      events: readEvents(ctx.db, r.id),
+    })),
+  );
 }
