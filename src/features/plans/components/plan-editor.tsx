@@ -26,6 +26,7 @@ import { PlanStatusBadge } from './plan-status-badge';
 import { ReviewPanel } from './review-panel';
 import { PlanActions } from './plan-actions';
 import { SaveIndicator } from './save-indicator';
+import { StationNotesPanel } from './station-notes-panel';
 import { taskRowId } from './task-row';
 import { TasksEditor } from './tasks-editor';
 import { TimelineChart } from './timeline-chart';
@@ -240,6 +241,20 @@ export function PlanEditor({ plan, user, nodes, orbit, rehearseHref, extra, DayV
             <Panel title={`Warnings${tl ? ` (${tl.warnings.length})` : ''}`}>
               {tl ? (
                 <WarningsPanel timeline={tl} itemKeys={plan.manifest.map((m) => m.key ?? '')} onGoTo={goTo} />
+              ) : (
+                <PageSpinner />
+              )}
+            </Panel>
+            <Panel title={`Station notes${tl ? ` (${tl.stationNotes?.length ?? 0})` : ''}`}>
+              {tl ? (
+                <StationNotesPanel
+                  notes={tl.stationNotes ?? []}
+                  stationId={plan.stationId}
+                  onGoTo={(f) => {
+                    setFocus(f);
+                    goTo({ kind: 'timeline' });
+                  }}
+                />
               ) : (
                 <PageSpinner />
               )}

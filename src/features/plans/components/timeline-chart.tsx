@@ -83,11 +83,14 @@ export function BlockDetails({
   tasks,
   routes,
   startGmt,
+  notes = [],
 }: {
   active: ActiveBlock | null;
   tasks: readonly Task[];
   routes: readonly RouteFeasible[];
   startGmt?: string | null;
+  /** the station notes at the block's nodes */
+  notes?: readonly { nodeKey: string; title: string }[];
 }) {
   if (!active) {
     return <p className="text-sm text-text-muted">Point at or focus a block to see its times and route.</p>;
@@ -105,6 +108,11 @@ export function BlockDetails({
         {formatElapsed(block.end - block.start, { withSeconds: true })})
         {block.unreached && <span className="ml-2 font-semibold text-danger">⚠ worksite not reached</span>}
       </p>
+      {notes.map((n, i) => (
+        <p key={i} className="font-medium text-text-strong">
+          ▼ Station note at {n.nodeKey}: {n.title}
+        </p>
+      ))}
       {block.type === 'swap' && block.swapNode && (
         <p>
           {sentence(describeSwap(block.swapNode, block.releaseNode ?? block.swapNode).instruction)} (
@@ -339,6 +347,17 @@ export function TimelineLegend() {
         </svg>
         ☾⚠ Eclipse-only task outside night
       </li>
+      <li className="flex items-center gap-1.5">
+        <svg width="22" height="12" aria-hidden="true">
+          <path
+            d="M6,2 h10 l-5,7 z"
+            fill={palette.caution.DEFAULT}
+            stroke={palette.text.strong}
+            strokeWidth="0.8"
+          />
+        </svg>
+        Station note at a node of the block
+      </li>
     </ul>
   );
 }
@@ -363,6 +382,20 @@ interface TimelineChartProps {
   /** the plan's start: GMT clock times beside elapsed ones */
   startGmt?: string | null;
 }
+
+/** The station notes at each block, by `<crew>-<block index>`. */
+function notesByBlock(timeline: PlanTimeline): Map<string, { nodeKey: string; title: string }[]> {
+  const out = new Map<string, { nodeKey: string; title: string }[]>();
+  for (const n of timeline.stationNotes ?? [])
+    for (const p of n.places) {
+      const k = `${p.crew}-${p.block}`;
+      out.set(k, [...(out.get(k) ?? []), n]);
+    }
+  return out;
+}
+
+const noteWords = (notes: readonly { nodeKey: string; title: string }[]) =>
+  notes.map((n) => `station note at ${n.nodeKey}: ${n.title}`).join('; ');
 
 /** Tasks the day warns are eclipse-only but not wholly inside a night window. */
 function outsideNight(timeline: PlanTimeline): Set<number> {
@@ -427,6 +460,7 @@ export function TimelineChart({ timeline, tasks, onPick, cursor, startGmt }: Tim
     },
   });
   const dayNeeded = outsideNight(timeline);
+  const notesAt = notesByBlock(timeline);
   const detailsId = useId();
   const horizon = Math.max(timeline.timeLimitSeconds, timeline.endSeconds, 60) * 1.03;
   const x = (t: number) => LEFT + (t / horizon) * PLOT;
@@ -513,13 +547,15 @@ export function TimelineChart({ timeline, tasks, onPick, cursor, startGmt }: Tim
               const isActive = active?.crew === m && active.block === b;
               const offNight = b.type === 'work' && b.taskIndex !== undefined && dayNeeded.has(b.taskIndex);
               const warn = b.unreached || offNight;
+              const notes = notesAt.get(`${m}-${k}`);
               return (
                 <g
                   key={k}
                   role="listitem"
                   {...roving(i, k)}
-                  aria-label={`${blockLabel(m, b, tasks)}${offNight ? ', eclipse-only but not inside a night window' : ''}`}
+                  aria-label={`${blockLabel(m, b, tasks)}${offNight ? ', eclipse-only but not inside a night window' : ''}${notes ? `, ${noteWords(notes)}` : ''}`}
                   data-block-type={b.type}
+                  data-station-notes={notes ? notes.length : undefined}
                   data-outside-night={offNight ? '' : undefined}
                   className="cursor-pointer outline-none"
                   onMouseEnter={() => setActive({ crew: m, block: b })}
@@ -550,6 +586,16 @@ export function TimelineChart({ timeline, tasks, onPick, cursor, startGmt }: Tim
                       fill="url(#tl-off-night)"
                       aria-hidden="true"
                     />
+                  )}
+                  {notes && (
+                    <g aria-hidden="true">
+                      <path
+                        d={`M${bx + bw / 2 - 5},${laneTop(i) - 9} h10 l-5,7 z`}
+                        fill={palette.caution.DEFAULT}
+                        stroke={palette.text.strong}
+                        strokeWidth="0.8"
+                      />
+                    </g>
                   )}
                   {fits && (
                     <text
@@ -634,7 +680,17 @@ export function TimelineChart({ timeline, tasks, onPick, cursor, startGmt }: Tim
         aria-live="polite"
         className="min-h-16 rounded-md border border-surface-line bg-surface-sunken px-4 py-3"
       >
-        <BlockDetails active={active} tasks={tasks} routes={timeline.routes} startGmt={startGmt} />
+        <BlockDetails
+          active={active}
+          tasks={tasks}
+          routes={timeline.routes}
+          startGmt={startGmt}
+          notes={
+            active
+              ? notesAt.get(`${active.crew}-${timeline.crew[active.crew].blocks.indexOf(active.block)}`)
+              : []
+          }
+        />
       </div>
     </div>
   );

@@ -2,6 +2,7 @@ import { useEffect, useRef, useState } from 'react';
 import { useQueryClient } from '@tanstack/react-query';
 import { formatElapsed } from '@shared/compute/units';
 import type { WalkStep } from '@shared/compute/walkthrough';
+import type { StepNote } from '@shared/compute/station-notes';
 import { MAX_NOTE_LENGTH, type WalkthroughNotes } from '@shared/schemas/walkthrough';
 import { Alert } from '@/components/ui/alert';
 import { Button, focusRing } from '@/components/ui/button';
@@ -13,6 +14,7 @@ import { useUpdateWalkthrough } from '../api/update-walkthrough';
 import { STEP_TYPE_LABELS, stepCallout, type Lane, type ListedStep } from '../lib/playback-model';
 import { LANE_STYLES } from './lane-styles';
 import { StepFacts } from './step-cards';
+import { StationNoteLines } from './station-note-lines';
 
 /** The step each lane has under way, for the callout and the list's highlight. */
 export interface CurrentSteps {
@@ -24,7 +26,14 @@ export function currentStepOf(current: CurrentSteps, laneIndex: number): WalkSte
   return current.lanes[laneIndex]?.track.steps[current.indices[laneIndex]];
 }
 
-export function StepCallout({ current }: { current: CurrentSteps }) {
+export function StepCallout({
+  current,
+  stationNotes,
+}: {
+  current: CurrentSteps;
+  /** the station notes of each step, by step id */
+  stationNotes?: ReadonlyMap<string, StepNote[]>;
+}) {
   return (
     <div className="space-y-2" aria-live="polite" data-testid="step-callout">
       {current.lanes.map((lane, i) => {
@@ -46,6 +55,11 @@ export function StepCallout({ current }: { current: CurrentSteps }) {
             <p className="mt-0.5 text-sm font-semibold text-white">{stepCallout(step)}</p>
             <p className="mt-0.5 text-xs text-ink-300">{step.detail}</p>
             <StepFacts step={step} className="mt-0.5 text-xs text-ink-100" />
+            <StationNoteLines
+              notes={stationNotes?.get(step.id)}
+              withBody
+              className="mt-1 text-xs text-white"
+            />
           </div>
         );
       })}
@@ -133,10 +147,13 @@ export function StepList({
   version,
   canEdit,
   onSeek,
+  stationNotes,
 }: {
   steps: readonly ListedStep[];
   current: CurrentSteps;
   notes: WalkthroughNotes;
+  /** the station notes of each step, by step id */
+  stationNotes?: ReadonlyMap<string, StepNote[]>;
   walkthroughId: number;
   version: number;
   canEdit: boolean;
@@ -201,6 +218,10 @@ export function StepList({
                   {line}
                 </span>
               ))}
+              <StationNoteLines
+                notes={stationNotes?.get(s.step.id)}
+                className="mt-0.5 text-xs text-text-strong"
+              />
             </button>
             {note && editing !== s.step.id && (
               <p className="mt-1 rounded bg-caution-soft px-2 py-1 text-sm text-text-strong">

@@ -1,6 +1,7 @@
 import { useCallback, useEffect, useMemo, useRef, useState, type ComponentType, type ReactNode } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import type { Vec3 } from '@shared/schemas/station';
+import { formatElapsed } from '@shared/compute/units';
 import type { WalkthroughDetail, WalkthroughPlayback } from '@shared/schemas/walkthrough';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
@@ -17,6 +18,7 @@ import { DayState } from './day-state';
 import { PlaybackControls, TetherGauges } from './playback-controls';
 import { PRINT_CSS, StepCards } from './step-cards';
 import { StepCallout, StepList, currentStepOf, type CurrentSteps } from './step-list';
+import { StationNoteLines, stationNotesByStep } from './station-note-lines';
 import { WalkthroughOverlays } from './walkthrough-overlays';
 
 function usePlaybackModel(playback: WalkthroughPlayback) {
@@ -117,6 +119,8 @@ export function WalkthroughPlayer({ detail, printView, Scene }: WalkthroughPlaye
   const rebase = useUpdateWalkthrough();
   const [panelOpen, setPanelOpen] = useSidePanelState(0);
   const [tab, setTab] = useState('steps');
+  const notesByStep = useMemo(() => stationNotesByStep(detail.stationNotes ?? []), [detail.stationNotes]);
+  const stepById = new Map(steps.map((s) => [s.step.id, s]));
   const tabs = [
     {
       id: 'steps',
@@ -129,6 +133,7 @@ export function WalkthroughPlayer({ detail, printView, Scene }: WalkthroughPlaye
           walkthroughId={walkthrough.id}
           version={walkthrough.version}
           canEdit={canEdit}
+          stationNotes={notesByStep}
           onSeek={(s) => {
             clock.pause();
             clock.seek(s.step.start);
@@ -136,6 +141,45 @@ export function WalkthroughPlayer({ detail, printView, Scene }: WalkthroughPlaye
         />
       ),
     },
+    ...(detail.stationNotes?.length
+      ? [
+          {
+            id: 'station-notes',
+            label: `Station notes (${detail.stationNotes.length})`,
+            render: () => (
+              <ul className="space-y-3 p-3 text-sm" aria-label="Station notes on this walkthrough">
+                {detail.stationNotes.map((n) => (
+                  <li key={n.id} className="space-y-1" data-station-note={n.id}>
+                    <StationNoteLines notes={[n]} withBody />
+                    <div className="flex flex-wrap gap-1.5">
+                      {n.steps.map((id) => {
+                        const s = stepById.get(id);
+                        return (
+                          s && (
+                            <Button
+                              key={id}
+                              size="sm"
+                              variant="secondary"
+                              className="h-7 px-2 text-xs"
+                              onClick={() => {
+                                clock.pause();
+                                clock.seek(s.step.start);
+                                setTab('steps');
+                              }}
+                            >
+                              Step {s.number} · {formatElapsed(s.step.start)}
+                            </Button>
+                          )
+                        );
+                      })}
+                    </div>
+                  </li>
+                ))}
+              </ul>
+            ),
+          },
+        ]
+      : []),
     ...(playback.kind === 'plan'
       ? [
           {
@@ -251,7 +295,7 @@ export function WalkthroughPlayer({ detail, printView, Scene }: WalkthroughPlaye
               {/* on a short window the steps keep a usable height and the panel scrolls instead */}
               <div className="relative flex min-h-0 flex-1 flex-col overflow-y-auto">
                 <div className="shrink-0 space-y-3 border-b border-surface-line p-3">
-                  <StepCallout current={current} />
+                  <StepCallout current={current} stationNotes={notesByStep} />
                   <TetherGauges clock={clock} lanes={lanes} />
                 </div>
                 <div className="flex min-h-72 flex-1 flex-col">
