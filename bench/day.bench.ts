@@ -1,12 +1,11 @@
-import { compileStation } from '@shared/compute/compiled-station';
-import { excludeMaskFor, findRoute } from '@shared/compute/routes';
-import { clipGraphFor } from '@shared/compute/routes-clip';
+import type { compileStation } from '@shared/compute/compiled-station';
+import { findRoute } from '@shared/compute/routes';
 import { computeTimeline } from '@shared/compute/day/timeline';
-import { dayStationOf } from '@shared/compute/day/station';
 import { toWire } from '@shared/compute/day/wire';
 import type { DayPlan } from '@shared/compute/day/types';
 import { generateTrussStation, seededRandom } from '@shared/compute/truss-generator';
 import type { StationDocument } from '@shared/schemas/station';
+import { benchEngine, benchPlanOf, benchTask, worksitesOf } from './plans';
 
 /**
  * The continuous day on generated trusses. The reference, measured in the same run, is the day as
@@ -31,41 +30,25 @@ function median(xs: number[]): number {
 /** A plan over the station's worksites, with a restraint, a portable anchor, a large item and tools. */
 function benchPlan(doc: StationDocument, tasks: number, seed: number): DayPlan {
   const rand = seededRandom(seed);
-  const sites = doc.nodes.filter((n) => n.kind === 'worksite').map((n) => n.key);
+  const sites = worksitesOf(doc);
   const pick = <T>(xs: readonly T[]) => xs[Math.floor(rand() * xs.length)];
   const crews = ['EV1', 'EV2', 'both'] as const;
-  return {
-    crew: { EV1: { name: 'A', tetherLengthM: 25.9 }, EV2: { name: 'B', tetherLengthM: 25.9 } },
-    routeMode: 'balanced',
-    allowRide: false,
-    orbitPhaseAtStartDeg: 0,
-    timeLimitSeconds: 100 * 3600,
-    egressSeconds: 1800,
-    ingressSeconds: 1800,
-    manifest: [
-      { key: 'driver', name: 'Power driver', kind: 'tool', carriedBy: 'EV1' },
-      { key: 'bag', name: 'Tool bag', kind: 'bag', carriedBy: 'EV2' },
-      { key: 'anchor', name: 'Portable anchor', kind: 'tether-anchor', carriedBy: 'EV2' },
-      { key: 'pump', name: 'Spare pump module', kind: 'large-item', carriedBy: 'EV1' },
-    ],
-    tasks: Array.from({ length: tasks }, (_, i) => {
+  return benchPlanOf(
+    Array.from({ length: tasks }, (_, i) => {
       const crew = pick(crews);
       const worksite = pick(sites);
       const actions: DayPlan['tasks'][number]['actions'] = [];
       if (i === 1 && crew !== 'EV1') actions.push({ do: 'install', item: 'anchor', by: 'EV2' });
       if (i === 2 && crew === 'both') actions.push({ do: 'hand-over', item: 'pump', by: 'EV1' });
-      return {
-        title: `Task ${i + 1}`,
-        worksite,
-        crew,
-        durationSeconds: 600 + Math.floor(rand() * 1800),
-        eclipseOnly: false,
-        carrying: false,
-        tools: crew === 'EV2' ? [] : ['driver'],
-        actions,
-      };
+      return benchTask(rand, i, worksite, crew, { tools: crew === 'EV2' ? [] : ['driver'], actions });
     }),
-  };
+    [
+      { key: 'driver', name: 'Power driver', kind: 'tool', carriedBy: 'EV1' },
+      { key: 'bag', name: 'Tool bag', kind: 'bag', carriedBy: 'EV2' },
+      { key: 'anchor', name: 'Portable anchor', kind: 'tether-anchor', carriedBy: 'EV2' },
+      { key: 'pump', name: 'Spare pump module', kind: 'large-item', carriedBy: 'EV1' },
+    ],
+  );
 }
 
 /** The day as before: each leg of each lane from a fresh clip where the crew member stands. */
@@ -112,13 +95,8 @@ export async function run(): Promise<boolean> {
     { nodes: 100_000, tasks: 200, target: null, targetMs: 2000, targetMB: 5 },
   ]) {
     const doc = generateTrussStation({ nodes, seed: 42 });
-    const c = compileStation(doc);
-    const station = dayStationOf(doc, c)!;
-    const built = time(() =>
-      clipGraphFor(c, c.arcSeconds, doc.settings.tetherLengthM, excludeMaskFor(false)),
-    );
+    const { compiled: c, station, route, clipGraphMs: built } = benchEngine(doc);
     const plan = benchPlan(doc, tasks, 7);
-    const route = (r: Parameters<typeof findRoute>[2]) => findRoute(c, doc.settings, r);
     // one untimed pass each, so neither side pays for first-use setup inside its timings
     freshLegs(doc, c, plan, station.airlockKey);
     const timeline = computeTimeline(plan, station, route);

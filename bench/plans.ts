@@ -1,0 +1,81 @@
+import { compileStation } from '@shared/compute/compiled-station';
+import { excludeMaskFor, findRoute } from '@shared/compute/routes';
+import { clipGraphFor } from '@shared/compute/routes-clip';
+import { dayStationOf } from '@shared/compute/day/station';
+import type { DayItem, DayPlan, DayTask } from '@shared/compute/day/types';
+import { travelLowerBound } from '@shared/compute/travel-bound';
+import type { StationDocument } from '@shared/schemas/station';
+
+/** The benches' crew tether, metres. */
+export const BENCH_TETHER_M = 25.9;
+
+/**
+ * The day's engine on a station as the server's route workers hold it: compiled, its clip graph
+ * built first (as the builder thread does; `clipGraphMs` says how long that took), routes from it.
+ */
+export function benchEngine(doc: StationDocument) {
+  const compiled = compileStation(doc);
+  const t0 = performance.now();
+  clipGraphFor(compiled, compiled.arcSeconds, doc.settings.tetherLengthM, excludeMaskFor(false));
+  const clipGraphMs = performance.now() - t0;
+  const station = dayStationOf(doc, compiled)!;
+  const route = (r: Parameters<typeof findRoute>[2]) => findRoute(compiled, doc.settings, r);
+  return {
+    compiled,
+    station,
+    route,
+    clipGraphMs,
+    travelSeconds: travelLowerBound(compiled, doc.settings, false),
+  };
+}
+
+export type BenchEngine = ReturnType<typeof benchEngine>;
+
+/** The station's worksites; with an engine, only those a crew member can reach from the airlock and leave. */
+export function worksitesOf(doc: StationDocument, engine?: BenchEngine): string[] {
+  const sites = doc.nodes.filter((n) => n.kind === 'worksite').map((n) => n.key);
+  if (!engine) return sites;
+  const airlock = engine.station.airlockKey;
+  const ask = (from: string, to: string) =>
+    engine.route({ from, to, mode: 'balanced', tetherLengthM: BENCH_TETHER_M }).feasible;
+  return sites.filter((s) => ask(airlock, s) && ask(s, airlock));
+}
+
+/** A bench task: 10 to 40 minutes of work at a worksite, no tools or actions unless given. */
+export function benchTask(
+  rand: () => number,
+  i: number,
+  worksite: string,
+  crew: DayTask['crew'],
+  extra: Partial<DayTask> = {},
+): DayTask {
+  return {
+    title: `Task ${i + 1}`,
+    worksite,
+    crew,
+    durationSeconds: 600 + Math.floor(rand() * 1800),
+    eclipseOnly: false,
+    carrying: false,
+    tools: [],
+    actions: [],
+    ...extra,
+  };
+}
+
+/** A bench plan around its tasks and manifest: two crew members, a balanced mode, a 100 h limit. */
+export function benchPlanOf(tasks: DayTask[], manifest: DayItem[]): DayPlan {
+  return {
+    crew: {
+      EV1: { name: 'A', tetherLengthM: BENCH_TETHER_M },
+      EV2: { name: 'B', tetherLengthM: BENCH_TETHER_M },
+    },
+    routeMode: 'balanced',
+    allowRide: false,
+    orbitPhaseAtStartDeg: 0,
+    timeLimitSeconds: 100 * 3600,
+    egressSeconds: 1800,
+    ingressSeconds: 1800,
+    manifest,
+    tasks,
+  };
+}
