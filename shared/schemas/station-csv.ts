@@ -148,16 +148,24 @@ function nodeColumn(path: ReadonlyArray<PropertyKey>): string {
   return String(field ?? 'key');
 }
 
+/**
+ * The node rows read, the problems found, and `unread`: the keys of the rows that could not be read
+ * (their problems are listed), which edges and arms may name without being told the key is unknown.
+ */
 export function parseNodesCsv(
   text: string,
   file = 'nodes.csv',
-): { rows: CsvRow<StationNode>[]; problems: DocumentProblem[] } {
+): { rows: CsvRow<StationNode>[]; problems: DocumentProblem[]; unread: string[] } {
   const problems: DocumentProblem[] = [];
   const table = readTable(text, file, NODE_COLUMNS, REQUIRED.nodes, problems);
   const rows: CsvRow<StationNode>[] = [];
-  if (!table) return { rows, problems };
+  const unread: string[] = [];
+  if (!table) return { rows, problems, unread };
   for (const { line, cells } of table.rows) {
     const before = problems.length;
+    const failed = () => {
+      if (cells.key?.trim()) unread.push(cells.key.trim());
+    };
     const n = (c: string) => number(cells, c, file, line, problems);
     const [x, y, z, nx, ny, nz] = ['x', 'y', 'z', 'nx', 'ny', 'nz'].map(n);
     for (const c of ['x', 'y', 'z'] as const)
@@ -165,7 +173,10 @@ export function parseNodesCsv(
     const normalCells = [nx, ny, nz].filter((v) => v !== undefined).length;
     if (normalCells > 0 && normalCells < 3)
       problems.push({ path: where(file, line, 'nx'), message: 'a normal needs all of nx, ny and nz' });
-    if (problems.length > before) continue;
+    if (problems.length > before) {
+      failed();
+      continue;
+    }
     const candidate = {
       key: cells.key,
       kind: cells.kind,
@@ -178,11 +189,12 @@ export function parseNodesCsv(
     if (!parsed.success) {
       for (const issue of parsed.error.issues)
         problems.push({ path: where(file, line, nodeColumn(issue.path)), message: issue.message });
+      failed();
       continue;
     }
     rows.push({ line, value: parsed.data });
   }
-  return { rows, problems };
+  return { rows, problems, unread };
 }
 
 const BOOLEAN: Record<string, boolean> = {
@@ -292,6 +304,8 @@ export function mergeCsvIntoDocument(
   edgeRows: CsvRow<StationEdge>[],
   files: { nodes: string; edges: string; arms?: string } = { nodes: 'nodes.csv', edges: 'edges.csv' },
   armRows: CsvRow<Arm>[] = [],
+  /** keys of node rows that could not be read (already reported): an edge or arm naming one is skipped, not reported */
+  unread: readonly string[] = [],
 ): {
   doc: StationDocument;
   problems: DocumentProblem[];
@@ -324,13 +338,15 @@ export function mergeCsvIntoDocument(
       updated.nodes++;
     }
   }
+  const unreadKeys = new Set(unread);
   const edgesOut = [...doc.edges];
   const edgeIndex = new Map(edgesOut.map((e, i) => [edgePairKey(e), i]));
   const csvPairs = new Map<string, number>();
   for (const { line, value } of edgeRows) {
     let bad = false;
     for (const end of ['from', 'to'] as const) {
-      if (!nodeIndex.has(value[end])) {
+      if (unreadKeys.has(value[end]) && !nodeIndex.has(value[end])) bad = true;
+      else if (!nodeIndex.has(value[end])) {
         problems.push({ path: where(files.edges, line, end), message: `unknown node key "${value[end]}"` });
         bad = true;
       }
@@ -376,6 +392,7 @@ export function mergeCsvIntoDocument(
       continue;
     }
     csvArms.set(value.key, line);
+    if (unreadKeys.has(value.baseNode) && !nodeIndex.has(value.baseNode)) continue;
     if (!nodeIndex.has(value.baseNode)) {
       problems.push({
         path: where(armFile, line, 'baseNode'),

@@ -128,6 +128,27 @@ describe('POST /api/stations/:id/import-csv', () => {
     expect((await graph(id)).nodes.some((n) => n.key === 'NEW-1')).toBe(false);
   });
 
+  it('names every problem of the files in one answer: bad cells, a repeated key and an unknown end together', async () => {
+    const id = await newStation();
+    const nodes = csv('key,kind,x,y,z', 'TWO-1,anchor,1,2,3', 'TWO-1,anchor,4,5,6', 'TWO-2,anchor,oops,2,3');
+    // TWO-2 did not read: an edge to it is not also called unknown; GHOST is
+    const edges = csv('from,to,kind', 'TWO-1,TWO-2,handrail', 'TWO-1,GHOST,handrail', 'AL-1,TWO-1,teleport');
+    const dry = await engineer
+      .post(`/api/stations/${id}/import-csv?version=1&dryRun=1`)
+      .attach('nodes', nodes, 'nodes.csv')
+      .attach('edges', edges, 'edges.csv');
+    expect(dry.status).toBe(400);
+    expect(dry.body.error.details.map((d: { path: string }) => d.path).sort()).toEqual(
+      [
+        'nodes.csv line 4, column x',
+        'edges.csv line 4, column kind',
+        'nodes.csv line 3, column key',
+        'edges.csv line 3, column to',
+      ].sort(),
+    );
+    expect((await graph(id)).station.version).toBe(1);
+  });
+
   it('counts lines from the text, so a quoted field over two lines does not shift later reports', async () => {
     const id = await newStation();
     const nodes = csv(

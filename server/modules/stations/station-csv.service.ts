@@ -42,7 +42,9 @@ export function importStationCsv(ctx: DbContext, req: WriteRequest, files: CsvFi
     edges: files.edges?.name ?? 'edges.csv',
     arms: files.arms?.name ?? 'arms.csv',
   };
-  const parsedNodes = files.nodes ? parseNodesCsv(files.nodes.text, names.nodes) : { rows: [], problems: [] };
+  const parsedNodes = files.nodes
+    ? parseNodesCsv(files.nodes.text, names.nodes)
+    : { rows: [], problems: [], unread: [] };
   const parsedEdges = files.edges ? parseEdgesCsv(files.edges.text, names.edges) : { rows: [], problems: [] };
   const parsedArms = files.arms ? parseArmsCsv(files.arms.text, names.arms) : { rows: [], problems: [] };
   const fileProblems: DocumentProblem[] = [
@@ -50,12 +52,20 @@ export function importStationCsv(ctx: DbContext, req: WriteRequest, files: CsvFi
     ...parsedEdges.problems,
     ...parsedArms.problems,
   ];
-  if (fileProblems.length) throw problemsError('The CSV import has problems', fileProblems);
 
   const written = writeStation(ctx, req, (tx, row) => {
     const current = loadDocument(tx, row);
-    const merged = mergeCsvIntoDocument(current, parsedNodes.rows, parsedEdges.rows, names, parsedArms.rows);
-    if (merged.problems.length) throw problemsError('The CSV import has problems', merged.problems);
+    // the rows that read are merged even when others did not, so one answer names every problem
+    const merged = mergeCsvIntoDocument(
+      current,
+      parsedNodes.rows,
+      parsedEdges.rows,
+      names,
+      parsedArms.rows,
+      parsedNodes.unread,
+    );
+    const problems = [...fileProblems, ...merged.problems];
+    if (problems.length) throw problemsError('The CSV import has problems', problems);
     const checked = parseStationDocument(merged.doc);
     if (!checked.ok) throw problemsError('The merged station model is not valid', checked.problems);
 
