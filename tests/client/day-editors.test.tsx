@@ -4,6 +4,7 @@ import userEvent from '@testing-library/user-event';
 import type { ManifestItem, Task } from '@shared/schemas/plan';
 import type { OtherTask } from '@/features/plans/components/after-chips';
 import { TaskForm } from '@/features/plans/components/task-form';
+import type { FlownEstimate } from '@shared/compute/day/flown-estimates';
 import { ManifestEditor } from '@/features/plans/components/manifest-editor';
 import { TimelineChart } from '@/features/plans/components/timeline-chart';
 import type { PlanStationNodes, PlanTimeline } from '@/features/plans/types';
@@ -121,7 +122,7 @@ const task: Task = {
   actions: [],
 };
 
-function renderTaskForm(given: Task = task, others: OtherTask[] = []) {
+function renderTaskForm(given: Task = task, others: OtherTask[] = [], flownEstimates?: FlownEstimate[]) {
   const onSubmit = vi.fn<(task: Task, added: ManifestItem[]) => void>();
   render(
     <TaskForm
@@ -131,12 +132,40 @@ function renderTaskForm(given: Task = task, others: OtherTask[] = []) {
       manifest={manifest}
       onSubmit={onSubmit}
       onCancel={() => {}}
+      flownEstimates={flownEstimates}
     />,
   );
   return { onSubmit, user: userEvent.setup() };
 }
 
 const apply = () => screen.getByRole('button', { name: 'Apply changes' });
+
+describe('task form: flown durations as estimates', () => {
+  const flown: FlownEstimate[] = [
+    { title: 'Swap the pump', worksite: 'W1', flights: 3, seconds: 2460, minSeconds: 2100, maxSeconds: 2700 },
+  ];
+
+  it('offers what the same task took at the same worksite, and applies it only when the planner accepts', async () => {
+    const { onSubmit, user } = renderTaskForm(task, [], flown);
+    expect(screen.getByTestId('flown-estimate').textContent).toMatch(
+      /Flown here: 41 min \(median of 3 runs, 35 min–45 min\)/,
+    );
+    // nothing applied yet: the duration is still the plan's
+    expect((screen.getByLabelText(/^Duration/) as HTMLInputElement).value).toBe('0:30');
+    await user.click(screen.getByRole('button', { name: 'Use 41 min' }));
+    await user.click(apply());
+    expect(onSubmit).toHaveBeenCalledWith(expect.objectContaining({ durationSeconds: 2460 }), []);
+  });
+
+  it('offers nothing for another kind of task, and follows the title as it is typed', async () => {
+    const { user } = renderTaskForm({ ...task, title: 'Inspect the site' }, [], flown);
+    expect(screen.queryByTestId('flown-estimate')).toBeNull();
+    const title = screen.getByLabelText(/^Task title/);
+    await user.clear(title);
+    await user.type(title, 'swap the pump #2');
+    expect(screen.getByTestId('flown-estimate')).toBeTruthy();
+  });
+});
 
 describe('task form: order between tasks', () => {
   it('starts after the tasks chosen, is marked optional, and offers no task that waits for it', async () => {

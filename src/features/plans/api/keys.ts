@@ -13,4 +13,5 @@ export const planKeys = {
   detail: (id: number) => [...planKeys.details(), id] as const,
   timeline: (id: number) => [...planKeys.detail(id), 'timeline'] as const,
   compare: (id: number, from: number, to: number) => [...planKeys.detail(id), 'compare', from, to] as const,
+  flownEstimates: (stationId: number) => [...planKeys.all, 'flown-estimates', stationId] as const,
 };

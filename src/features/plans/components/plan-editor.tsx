@@ -13,6 +13,7 @@ import { PageSpinner } from '@/components/ui/spinner';
 import { cn } from '@/lib/cn';
 import { planExportHref } from '../api/export-plan';
 import { usePlanTimeline } from '../api/get-plan-timeline';
+import { useFlownEstimates } from '../api/get-flown-estimates';
 import { usePlanDraft } from '../lib/use-plan-draft';
 import { FieldValidityContext, useFieldValidity } from '../lib/field-validity';
 import { planOrbitArcs } from '../lib/form-fields';
@@ -83,6 +84,7 @@ export function PlanEditor({ plan, user, nodes, orbit, rehearseHref, extra, DayV
     usePlanDraft(plan, editable, fields.count);
   const [deleted, setDeleted] = useState(false);
   const timeline = usePlanTimeline(plan.id);
+  const flownEstimates = useFlownEstimates(plan.stationId);
   const tl = timeline.data;
   const places = nodes?.worksites.map((n) => n.key) ?? [];
   const unsaved = state !== 'saved';
@@ -206,6 +208,7 @@ export function PlanEditor({ plan, user, nodes, orbit, rehearseHref, extra, DayV
                   readOnly={readOnly}
                   nodes={nodes}
                   manifest={draft.manifest}
+                  flownEstimates={flownEstimates.data}
                   reach={tl && tl.planVersion === savedVersion ? tl.reach : []}
                   warningCounts={warningCountsByTask(tl && tl.planVersion === savedVersion ? tl : undefined)}
                 />

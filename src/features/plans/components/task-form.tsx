@@ -1,6 +1,9 @@
 import { useMemo, useState } from 'react';
 import { Controller, useWatch } from 'react-hook-form';
 import type { ManifestItem, Task } from '@shared/schemas/plan';
+import { flownEstimateFor, type FlownEstimate } from '@shared/compute/day/flown-estimates';
+import { formatMinutes } from '@shared/compute/units';
+import { Button } from '@/components/ui/button';
 import { controlClass, Input } from '@/components/ui/input';
 import { Field } from '@/components/ui/field';
 import { Form, FormActions, useZodForm } from '@/components/ui/form';
@@ -29,13 +32,23 @@ interface TaskFormProps {
   /** the task, and the items named in it that go on the manifest */
   onSubmit: (task: Task, added: ManifestItem[]) => void;
   onCancel: () => void;
+  /** what tasks took in runs that ended: a matching one is offered as the duration, never applied */
+  flownEstimates?: readonly FlownEstimate[];
 }
 
 /**
  * Add or edit one task: where (a searchable list of the station's worksites), who, how long, each
  * member's foot restraint, what it needs at hand and what it does with the manifest's items.
  */
-export function TaskForm({ task, others, nodes, manifest, onSubmit, onCancel }: TaskFormProps) {
+export function TaskForm({
+  task,
+  others,
+  nodes,
+  manifest,
+  onSubmit,
+  onCancel,
+  flownEstimates,
+}: TaskFormProps) {
   const [search, setSearch] = useState('');
   const [added, setAdded] = useState<ManifestItem[]>([]);
   const known = useMemo(() => [...manifest, ...added], [manifest, added]);
@@ -48,6 +61,8 @@ export function TaskForm({ task, others, nodes, manifest, onSubmit, onCancel }: 
     formState: { errors },
   } = form;
   const worksite = useWatch({ control, name: 'worksite' });
+  const title = useWatch({ control, name: 'title' });
+  const flown = flownEstimateFor(flownEstimates ?? [], title ?? '', worksite ?? '');
   const crew = useWatch({ control, name: 'crew' });
   const armKey = useWatch({ control, name: 'arm.key' });
   const arms = nodes.arms ?? [];
@@ -138,9 +153,33 @@ export function TaskForm({ task, others, nodes, manifest, onSubmit, onCancel }: 
             {...register('crew')}
           />
         </Field>
-        <Field label="Duration" error={errors.duration?.message} hint="h:mm or minutes, e.g. 1:15 or 45">
-          <Input autoComplete="off" {...register('duration')} />
-        </Field>
+        <div className="space-y-2">
+          <Field label="Duration" error={errors.duration?.message} hint="h:mm or minutes, e.g. 1:15 or 45">
+            <Input autoComplete="off" {...register('duration')} />
+          </Field>
+          {flown && (
+            <p
+              className="flex flex-wrap items-center gap-2 text-sm text-text-muted"
+              data-testid="flown-estimate"
+            >
+              Flown here: {formatMinutes(flown.seconds)} (median of {flown.flights} run
+              {flown.flights === 1 ? '' : 's'}, {formatMinutes(flown.minSeconds)}–
+              {formatMinutes(flown.maxSeconds)})
+              <Button
+                variant="secondary"
+                size="sm"
+                onClick={() =>
+                  form.setValue('duration', String(Math.max(1, Math.round(flown.seconds / 60))), {
+                    shouldDirty: true,
+                    shouldValidate: true,
+                  })
+                }
+              >
+                Use {formatMinutes(flown.seconds)}
+              </Button>
+            </p>
+          )}
+        </div>
       </div>
       <div className="flex flex-wrap gap-6">
         <label className="flex items-center gap-2 text-sm font-medium text-text-strong">

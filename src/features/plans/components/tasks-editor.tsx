@@ -1,3 +1,4 @@
+import type { FlownEstimate } from '@shared/compute/day/flown-estimates';
 import { useEffect, useRef, useState, type KeyboardEvent } from 'react';
 import type { ManifestItem, Task } from '@shared/schemas/plan';
 import { Button } from '@/components/ui/button';
@@ -20,6 +21,8 @@ interface TasksEditorProps {
   reach: TaskReach[];
   /** how many warnings of the saved plan name each task, by index */
   warningCounts: Map<number, number>;
+  /** what tasks took in runs that ended: offered as estimates in the task form */
+  flownEstimates?: readonly FlownEstimate[];
 }
 
 export function TasksEditor({
@@ -30,6 +33,7 @@ export function TasksEditor({
   manifest,
   reach,
   warningCounts,
+  flownEstimates,
 }: TasksEditorProps) {
   const [editing, setEditing] = useState<number | 'new' | null>(null);
   const [announcement, setAnnouncement] = useState('');
@@ -171,6 +175,7 @@ export function TasksEditor({
           others={otherTasks}
           nodes={nodes}
           manifest={manifest}
+          flownEstimates={flownEstimates}
           onSubmit={save}
           onCancel={() => setEditing(null)}
         />
