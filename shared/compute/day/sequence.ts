@@ -181,6 +181,11 @@ export function proposeOrder(
     ? { order: identity, timeline: current, added: 0 }
     : null;
 
+  // a greedy order as a seed: kept when it is allowed and better
+  const greedy = scorer.score(greedyOrder(search), null);
+  if (greedy && greedy.added === 0 && keepsAfter(plan.tasks, greedy.order) && better(greedy, best))
+    best = greedy;
+
   const perCrew = Math.max(...CREW.map((m) => search.laneTasks[m].length));
   let exact = n <= 1 && best !== null;
   if (!exact && perCrew <= (options.exactUpTo ?? EXACT_TASKS_PER_CREW)) {
@@ -853,9 +858,11 @@ const better = (a: Scored, b: Scored | null) =>
  */
 class Scorer {
   private reference: readonly number[] = [];
-  private prefixes: PlacedDay[] = [];
+  private prefixes: PlacedDay[];
 
-  constructor(private readonly s: Search) {}
+  constructor(private readonly s: Search) {
+    this.prefixes = s.root ? [s.root] : [];
+  }
 
   setReference(order: readonly number[]) {
     if (order === this.reference) return;
@@ -990,6 +997,42 @@ function localSearch(
     from = scoreOf(order) ?? best;
   }
   return best;
+}
+
+/**
+ * An order built greedily: the crew member whose estimated clock is earliest takes next, among their
+ * tasks whose `after` tasks are placed, the one nearest by `between` (a task for both moves both
+ * clocks to the later one). Any task left waiting goes last, in plan order (`keepsAfter` decides).
+ */
+function greedyOrder(s: Search): number[] {
+  const n = s.tasks.length;
+  const placed = new Uint8Array(n);
+  const order: number[] = [];
+  const clock: Record<CrewMember, number> = { EV1: 0, EV2: 0 };
+  const last: Record<CrewMember, number | null> = { EV1: null, EV2: null };
+  const ready = (x: number) => !placed[x] && s.afterOf[x].every((j) => placed[j]);
+  while (order.length < n) {
+    let pick: number | null = null;
+    for (const m of [...CREW].sort((a, b) => clock[a] - clock[b])) {
+      let nearest = Infinity;
+      for (const x of s.laneTasks[m]) {
+        if (!ready(x)) continue;
+        const d = s.between(m, last[m], x);
+        if (d < nearest) [nearest, pick] = [d, x];
+      }
+      if (pick !== null) break;
+    }
+    if (pick === null) break;
+    const members = membersOf(s.tasks[pick]);
+    const start = Math.max(...members.map((m) => clock[m] + s.between(m, last[m], pick)));
+    for (const m of members) {
+      clock[m] = start + s.tasks[pick].durationSeconds;
+      last[m] = pick;
+    }
+    placed[pick] = 1;
+    order.push(pick);
+  }
+  return [...order, ...s.tasks.flatMap((_, i) => (placed[i] ? [] : [i]))];
 }
 
 /** The plan order with every task moved after the tasks it waits for (stable otherwise). */
