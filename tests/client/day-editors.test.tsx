@@ -64,14 +64,6 @@ function chartTimeline(): PlanTimeline {
   };
 }
 
-// jsdom has no modal dialogs: open and close them as the attribute says
-HTMLDialogElement.prototype.showModal ??= function (this: HTMLDialogElement) {
-  this.setAttribute('open', '');
-};
-HTMLDialogElement.prototype.close ??= function (this: HTMLDialogElement) {
-  this.removeAttribute('open');
-};
-
 const nodes: PlanStationNodes = {
   worksites: [{ key: 'W1', label: 'Pump bay', kind: 'worksite', position: [0, 0, 0] }],
   sockets: [

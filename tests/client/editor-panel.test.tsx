@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { screen, waitFor, within } from '@testing-library/react';
+import { act, screen, waitFor, within } from '@testing-library/react';
 import userEvent, { type UserEvent } from '@testing-library/user-event';
 import { staleVersionDetails } from '@shared/errors';
 import { StationDocumentSchema } from '@shared/schemas/station';
@@ -9,7 +9,7 @@ import { EditPanel } from '@/features/station-editor/components/edit-panel';
 import { changedFields } from '@/features/station-editor/components/node-form';
 import { suggestNodeKey } from '@/features/station-editor/utils/node-keys';
 import { buildStationDocument, FIXTURE_KEYS } from '../factories/station-document';
-import { renderWithQueryClient } from '../setup/client';
+import { renderInDataRouter } from '../setup/client';
 
 afterEach(() => vi.unstubAllGlobals());
 
@@ -143,7 +143,7 @@ describe('EditPanel', () => {
     const sent = fakeStationApi({ version: 3, by: 'Erin Engineer' });
     const onChanged = vi.fn();
     const onSelectNode = vi.fn();
-    renderWithQueryClient(
+    renderInDataRouter(
       <EditPanel
         graph={graphAt(3)}
         selectedKey={null}
@@ -182,7 +182,7 @@ describe('EditPanel', () => {
 
   it('moves the selected node by the nudge buttons', async () => {
     const sent = fakeStationApi({ version: 5, by: 'Erin Engineer' });
-    renderWithQueryClient(
+    renderInDataRouter(
       <EditPanel
         graph={graphAt(5)}
         selectedKey={FIXTURE_KEYS.junction}
@@ -209,7 +209,7 @@ describe('EditPanel', () => {
     const server = { version: 8, by: 'Erin Engineer' };
     const sent = fakeStationApi(server);
     const onChanged = vi.fn();
-    renderWithQueryClient(
+    renderInDataRouter(
       <EditPanel
         graph={graphAt(7)}
         selectedKey={FIXTURE_KEYS.junction}
@@ -239,6 +239,37 @@ describe('EditPanel', () => {
   });
 });
 
+describe('EditPanel leaving', () => {
+  it('asks before leaving while a form holds a change not saved, and not once it is saved', async () => {
+    const server = { version: 7, by: 'Erin Engineer' };
+    fakeStationApi(server);
+    const { router } = renderInDataRouter(
+      <EditPanel
+        graph={graphAt(7)}
+        selectedKey={FIXTURE_KEYS.junction}
+        onSelectNode={vi.fn()}
+        pick={null}
+        onChanged={vi.fn()}
+      />,
+    );
+    const user = userEvent.setup();
+    const change = form(`Change node ${FIXTURE_KEYS.junction}`);
+    await retype(user, change.field('Label'), 'Stanchion 3');
+    await act(() => router.navigate('/plans'));
+    const leave = await screen.findByRole('dialog', { name: 'Leave without saving?' });
+    expect(leave.textContent).toContain('A form holds edits to the model not saved yet');
+    await user.click(within(leave).getByRole('button', { name: 'Stay on this page' }));
+    expect(router.state.location.pathname).toBe('/');
+    expect(change.field('Label').value).toBe('Stanchion 3');
+
+    // typed back to what was loaded (the fixture's junction has no label): nothing is left to lose
+    expect(graphAt(7).nodes.find((n) => n.key === FIXTURE_KEYS.junction)?.label ?? '').toBe('');
+    await user.clear(change.field('Label'));
+    await act(() => router.navigate('/plans'));
+    expect(router.state.location.pathname).toBe('/plans');
+  });
+});
+
 describe('changedFields', () => {
   it('sends only what differs from the loaded node, so a re-apply leaves others’ fields alone', () => {
     const node = {
@@ -262,7 +293,7 @@ describe('changedFields', () => {
 describe('EditPanel settings and hazards', () => {
   it('reads a tether typed in feet as metres (1 ft = 0.3048 m, NIST SP 811) and sends it with the version', async () => {
     const sent = fakeStationApi({ version: 2, by: 'Erin Engineer' });
-    renderWithQueryClient(
+    renderInDataRouter(
       <EditPanel
         graph={graphAt(2)}
         selectedKey={null}
@@ -286,7 +317,7 @@ describe('EditPanel settings and hazards', () => {
 
   it('refuses a box hazard whose max is not above its min, by the station schema, and sends nothing', async () => {
     const sent = fakeStationApi({ version: 2, by: 'Erin Engineer' });
-    renderWithQueryClient(
+    renderInDataRouter(
       <EditPanel
         graph={graphAt(2)}
         selectedKey={null}
@@ -309,7 +340,7 @@ describe('EditPanel settings and hazards', () => {
 
 describe('EditPanel arms', () => {
   const renderPanel = (graph: StationGraph, selectedKey: string | null = null) =>
-    renderWithQueryClient(
+    renderInDataRouter(
       <EditPanel
         graph={graph}
         selectedKey={selectedKey}

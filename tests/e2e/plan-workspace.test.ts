@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { orbitSummary, phaseOfOrbitStart } from '@shared/compute/orbit';
+import type { Locator } from 'playwright-core';
 import { openBrowserPerTest, signInAs, type BrowserSession } from './browser';
 
 let session: BrowserSession;
@@ -61,7 +62,7 @@ describe('plan workspace: the planner’s screen in the built app', () => {
     expect(created.orbitPhaseAtStartDeg).toBeCloseTo(phase12, 9);
 
     // the planner moves the start to just before sunset, in the plan's own settings
-    const settings = page.getByRole('group', { name: 'EVA starts' });
+    const settings = page.getByRole('group', { name: 'Start in the orbit' });
     await settings.getByLabel('Start: minutes').fill('5');
     await settings.getByLabel('Start: after or before').selectOption('before');
     await settings.getByLabel('Start: orbit event').selectOption('sunset');
@@ -77,14 +78,14 @@ describe('plan workspace: the planner’s screen in the built app', () => {
     // read back after a reload: the same words, the planner's controls as they left them
     await page.reload();
     await header.getByText('starts 5 min before orbital sunset').waitFor();
-    const again = page.getByRole('group', { name: 'EVA starts' });
+    const again = page.getByRole('group', { name: 'Start in the orbit' });
     expect(await again.getByLabel('Start: minutes').inputValue()).toBe('5');
     expect(await again.getByLabel('Start: after or before').inputValue()).toBe('before');
     expect(await again.getByLabel('Start: orbit event').inputValue()).toBe('sunset');
   });
 });
 
-async function newPlan(title: string): Promise<number> {
+async function newPlan(title: string, more: Record<string, unknown> = {}): Promise<number> {
   const station = await kestrel();
   const response = await session.page.request.post('/api/plans', {
     data: {
@@ -95,6 +96,7 @@ async function newPlan(title: string): Promise<number> {
         EV1: { name: 'Ada Okonkwo', tetherLengthM: 25.9 },
         EV2: { name: 'Lars Vinter', tetherLengthM: 25.9 },
       },
+      ...more,
     },
   });
   expect(response.status()).toBe(201);
@@ -145,5 +147,108 @@ describe('plan workspace: autosave counts a person’s saves and never drops an 
       .poll(() => page.getByLabel('Title', { exact: true }).inputValue(), { timeout: 15_000 })
       .toBe(`${first} (rev) left reloaded`);
     expect((await planOf(planId)).version, 'three saves a person made').toBe(before + 3);
+  });
+});
+
+/** Presses Tab (Shift+Tab with `back`) until `target` has the focus: the keyboard's way to a control. */
+async function tabTo(target: Locator, { back = false, max = 120 } = {}) {
+  const { page } = session;
+  for (let k = 0; k < max; k++) {
+    if (await target.evaluate((el) => el === document.activeElement).catch(() => false)) return k;
+    await page.keyboard.press(back ? 'Shift+Tab' : 'Tab');
+  }
+  throw new Error(`${String(target)} not reached in ${max} Tab presses`);
+}
+
+describe('plan workspace: a planner’s core job without a mouse', () => {
+  it('opens a plan, adds a task with a tool from the manifest and a new one, edits it (asked before dropping an edit), submits', async () => {
+    const { page } = session;
+    await page.setViewportSize({ width: 1440, height: 900 });
+    await signInAs(session, 'planner');
+    const title = `Keyboard day ${Date.now().toString(36)}`;
+    const station = await kestrel();
+    const graph = (await (await page.request.get(`/api/stations/${station.id}/graph`)).json()) as {
+      nodes: { key: string; kind: string }[];
+    };
+    const worksite = graph.nodes.find((n) => n.kind === 'worksite')!.key;
+    const planId = await newPlan(title, {
+      manifest: [{ key: 'tool-bag', name: 'Tool bag', kind: 'bag', carriedBy: 'EV1' }],
+    });
+
+    // open the plan from the list
+    await session.goto('/plans');
+    const link = page.getByRole('link', { name: title });
+    await tabTo(link);
+    await page.keyboard.press('Enter');
+    await page.waitForURL(`**/plans/${planId}`);
+    await saved();
+
+    // add a task: the dialog opens in its first field
+    const tabs = await tabTo(page.getByRole('button', { name: 'Add task' }));
+    await page.keyboard.press('Enter');
+    const dialog = page.getByRole('dialog', { name: 'Add task' });
+    await dialog.waitFor();
+    await page.keyboard.type('Swap the pump module');
+    await tabTo(dialog.getByLabel('Find a worksite'));
+    await page.keyboard.type(worksite);
+    await tabTo(dialog.getByLabel('Worksite', { exact: true }));
+    await page.keyboard.press('ArrowDown');
+    expect(await dialog.getByLabel('Worksite', { exact: true }).inputValue()).toBe(worksite);
+    await tabTo(dialog.getByLabel('Duration'));
+    await page.keyboard.press('ControlOrMeta+a');
+    await page.keyboard.type('0:40');
+    // the tools: one from the manifest, one added inline to it
+    await tabTo(
+      dialog.getByRole('group', { name: 'Manifest items' }).getByRole('button', { name: 'Tool bag' }),
+    );
+    await page.keyboard.press('Space');
+    await tabTo(dialog.getByLabel('New tool for the manifest'));
+    await page.keyboard.type('Power driver');
+    await page.keyboard.press('Enter');
+    await dialog
+      .getByRole('group', { name: 'Manifest items' })
+      .getByRole('button', { name: 'Power driver' })
+      .waitFor();
+    await session.screenshot('plan-keyboard-task-form');
+    await tabTo(dialog.getByRole('button', { name: 'Add task' }));
+    await page.keyboard.press('Enter');
+    await dialog.waitFor({ state: 'hidden' });
+    await page.getByRole('listitem', { name: /Task 1 of 1: Swap the pump module/ }).waitFor();
+
+    // edit it; Escape with an edit not applied asks first, and keeping on editing keeps the edit
+    await tabTo(page.getByRole('button', { name: 'Edit task 1' }), { back: true });
+    await page.keyboard.press('Enter');
+    const edit = page.getByRole('dialog', { name: 'Edit task 1' });
+    await edit.waitFor();
+    await tabTo(edit.getByLabel('Duration'));
+    await page.keyboard.press('ControlOrMeta+a');
+    await page.keyboard.type('0:50');
+    await page.keyboard.press('Escape');
+    const drop = page.getByRole('dialog', { name: 'Drop the edits to this task?' });
+    await drop.waitFor();
+    await session.screenshot('plan-keyboard-drop-ask');
+    await page.keyboard.press('Enter');
+    await drop.waitFor({ state: 'hidden' });
+    expect(await edit.getByLabel('Duration').inputValue()).toBe('0:50');
+    await tabTo(edit.getByRole('button', { name: 'Apply changes' }));
+    await page.keyboard.press('Enter');
+    await edit.waitFor({ state: 'hidden' });
+    await saved();
+    const plan = (await (await page.request.get(`/api/plans/${planId}`)).json()) as {
+      tasks: { title: string; durationSeconds: number; tools: string[] }[];
+      manifest: { key: string; name: string }[];
+    };
+    expect(plan.tasks).toHaveLength(1);
+    expect(plan.tasks[0].durationSeconds).toBe(50 * 60);
+    const driver = plan.manifest.find((m) => m.name === 'Power driver');
+    expect(driver, 'the new tool went on the manifest with the task').toBeDefined();
+    expect(plan.tasks[0].tools.sort()).toEqual(['tool-bag', driver!.key].sort());
+
+    // submit for review
+    await tabTo(page.getByRole('button', { name: 'Submit for review' }));
+    await page.keyboard.press('Enter');
+    await page.locator('main header').first().getByText('In review').waitFor();
+    await session.screenshot('plan-keyboard-submitted');
+    expect(tabs, 'Add task is a few Tab stops into the plan').toBeLessThan(60);
   });
 });

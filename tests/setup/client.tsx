@@ -1,6 +1,7 @@
 import type { ReactNode } from 'react';
 import { render } from '@testing-library/react';
 import { QueryClientProvider, type QueryClient } from '@tanstack/react-query';
+import { createMemoryRouter, RouterProvider } from 'react-router-dom';
 import { createQueryClient } from '@/lib/query-client';
 
 /** Testing Library's render inside the app's query client provider: a fresh client unless given. */
@@ -9,4 +10,13 @@ export function renderWithQueryClient(ui: ReactNode, queryClient: QueryClient = 
     <QueryClientProvider client={queryClient}>{children}</QueryClientProvider>
   );
   return { ...render(ui, { wrapper }), queryClient };
+}
+
+/**
+ * `renderWithQueryClient` inside a data router at `/`: for screens that guard leaving (the router's
+ * blocker needs one).
+ */
+export function renderInDataRouter(ui: ReactNode, queryClient: QueryClient = createQueryClient()) {
+  const router = createMemoryRouter([{ path: '*', element: ui }]);
+  return { ...renderWithQueryClient(<RouterProvider router={router} />, queryClient), router };
 }

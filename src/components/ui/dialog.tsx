@@ -5,6 +5,11 @@ interface DialogProps {
   open: boolean;
   title: string;
   onClose: () => void;
+  /**
+   * Escape or ✕ asks to close: the owner decides (it closes by setting `open` false), e.g. after
+   * asking about edits not applied. Without it they close at once.
+   */
+  onDismiss?: () => void;
   children: ReactNode;
 }
 
@@ -31,7 +36,7 @@ function focusFirstField(dialog: HTMLDialogElement): boolean {
 }
 
 /** A native modal <dialog>: focus trapping, Escape and the backdrop come from the browser. */
-export function Dialog({ open, title, onClose, children }: DialogProps) {
+export function Dialog({ open, title, onClose, onDismiss, children }: DialogProps) {
   const ref = useRef<HTMLDialogElement>(null);
   const titleId = useId();
 
@@ -57,14 +62,26 @@ export function Dialog({ open, title, onClose, children }: DialogProps) {
     <dialog
       ref={ref}
       aria-labelledby={titleId}
-      onClose={onClose}
+      onCancel={(e) => {
+        if (!onDismiss) return;
+        e.preventDefault();
+        onDismiss();
+      }}
+      onClose={() => {
+        // the browser closes on a second Escape whatever the page says: still the owner's call
+        if (onDismiss && open && ref.current && !ref.current.open) {
+          ref.current.showModal();
+          return onDismiss();
+        }
+        onClose();
+      }}
       className="m-auto w-full max-w-lg rounded-lg border border-surface-line bg-surface-panel p-0 text-text shadow-xl backdrop:bg-ink-950/60"
     >
       <div className="flex items-center justify-between border-b border-surface-line px-5 py-3">
         <h2 id={titleId} className="text-base font-semibold text-text-strong">
           {title}
         </h2>
-        <Button variant="ghost" size="sm" onClick={onClose} aria-label="Close">
+        <Button variant="ghost" size="sm" onClick={onDismiss ?? onClose} aria-label="Close">
           ✕
         </Button>
       </div>

@@ -8,6 +8,7 @@ import {
 } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
+import { useReportUnsaved } from '../unsaved-edits';
 import { Button, type ButtonProps } from './button';
 
 /**
@@ -28,7 +29,10 @@ interface FormProps<TInput extends FieldValues, TOutput> extends Omit<ComponentP
   onSubmit: SubmitHandler<TOutput>;
 }
 
-/** The form element of a `useZodForm`: the browser's own validation off, ours on submit. */
+/**
+ * The form element of a `useZodForm`: the browser's own validation off, ours on submit. A form
+ * holding edits not submitted says so to the page (`useReportUnsaved`), which asks before leaving.
+ */
 export function Form<TInput extends FieldValues, TOutput>({
   form,
   onSubmit,
@@ -36,6 +40,7 @@ export function Form<TInput extends FieldValues, TOutput>({
   children,
   ...props
 }: FormProps<TInput, TOutput>) {
+  useReportUnsaved(form.formState.isDirty);
   return (
     <form noValidate className={className} onSubmit={form.handleSubmit(onSubmit)} {...props}>
       {children}

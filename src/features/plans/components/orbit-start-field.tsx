@@ -50,7 +50,7 @@ interface ControlsProps {
 export function OrbitStartControls({ minutes, side, event, hint, error }: ControlsProps) {
   return (
     <fieldset className="space-y-1.5 sm:col-span-2">
-      <legend className="mb-1.5 block text-sm font-medium text-text-strong">EVA starts</legend>
+      <legend className="mb-1.5 block text-sm font-medium text-text-strong">Start in the orbit</legend>
       <div className="flex flex-wrap items-center gap-2 text-sm text-text-strong">
         <div className="w-20">
           <Input

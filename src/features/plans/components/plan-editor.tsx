@@ -8,6 +8,7 @@ import { focusRing } from '@/components/ui/button';
 import { Panel } from '@/components/ui/card';
 import { FormError } from '@/components/ui/form-error';
 import { LeaveGuard } from '@/components/leave-guard';
+import { UnsavedEditsProvider, useUnsavedEdits } from '@/components/unsaved-edits';
 import { PlanningCaution } from '@/components/ui/planning-caution';
 import { PageSpinner } from '@/components/ui/spinner';
 import { cn } from '@/lib/cn';
@@ -80,6 +81,8 @@ export function PlanEditor({ plan, user, nodes, orbit, rehearseHref, extra, DayV
   const editable = can(user, 'plans:edit') && plan.status === 'draft';
   const readOnly = !editable;
   const fields = useFieldValidity();
+  // a form on the page (a task, an item) holding edits not applied: those no save can keep
+  const forms = useUnsavedEdits();
   const { draft, change, save, keep, reload, conflict, state, error, savedVersion, invalidCount } =
     usePlanDraft(plan, editable, fields.count);
   const [deleted, setDeleted] = useState(false);
@@ -93,190 +96,200 @@ export function PlanEditor({ plan, user, nodes, orbit, rehearseHref, extra, DayV
 
   return (
     <FieldValidityContext.Provider value={fields.report}>
-      <div className="space-y-5">
-        <LeaveGuard
-          when={editable && unsaved && !deleted}
-          keep={keep}
-          busy={state === 'saving'}
-          reason={
-            state === 'invalid'
-              ? `${invalidCount || 'Some'} field${invalidCount === 1 ? ' holds' : 's hold'} text that is not saved until it is fixed; leaving drops it.`
-              : state === 'conflict'
-                ? 'The plan was changed elsewhere; your edits here are not saved.'
-                : 'Some edits are not saved yet; leaving now drops them.'
-          }
-        />
-        <header className="sticky top-0 z-20 -mx-2 flex flex-wrap items-start justify-between gap-4 border-b border-surface-line bg-surface-page/95 px-2 py-2 backdrop-blur">
-          <div className="space-y-1">
-            <div className="flex flex-wrap items-center gap-3">
-              <h1 className="text-2xl font-semibold tracking-tight text-text-strong">
-                {draft.title || plan.title}
-              </h1>
-              <PlanStatusBadge status={plan.status} />
+      <UnsavedEditsProvider value={forms.report}>
+        <div className="space-y-5">
+          <LeaveGuard
+            when={editable && (unsaved || forms.count > 0) && !deleted}
+            keep={forms.count > 0 ? undefined : keep}
+            busy={state === 'saving'}
+            reason={
+              forms.count > 0
+                ? 'A form on this page holds edits not applied yet (a task or an item); leaving drops them.'
+                : state === 'invalid'
+                  ? `${invalidCount || 'Some'} field${invalidCount === 1 ? ' holds' : 's hold'} text that is not saved until it is fixed; leaving drops it.`
+                  : state === 'conflict'
+                    ? 'The plan was changed elsewhere; your edits here are not saved.'
+                    : 'Some edits are not saved yet; leaving now drops them.'
+            }
+          />
+          <header className="sticky top-0 z-20 -mx-2 flex flex-wrap items-start justify-between gap-4 border-b border-surface-line bg-surface-page/95 px-2 py-2 backdrop-blur">
+            <div className="space-y-1">
+              <div className="flex flex-wrap items-center gap-3">
+                <h1 className="text-2xl font-semibold tracking-tight text-text-strong">
+                  {draft.title || plan.title}
+                </h1>
+                <PlanStatusBadge status={plan.status} />
+              </div>
+              <p className="text-sm text-text-muted">
+                {plan.stationName} · EVA {draft.date}
+                {arcs && <> · {orbitStartWords(draft.orbitPhaseAtStartDeg, arcs)}</>} · version {plan.version}{' '}
+                · written by {plan.authorName ?? 'someone no longer here'}
+                {plan.approverName && <> · approved by {plan.approverName}</>}
+              </p>
             </div>
-            <p className="text-sm text-text-muted">
-              {plan.stationName} · EVA {draft.date}
-              {arcs && <> · {orbitStartWords(draft.orbitPhaseAtStartDeg, arcs)}</>} · version {plan.version} ·
-              written by {plan.authorName ?? 'someone no longer here'}
-              {plan.approverName && <> · approved by {plan.approverName}</>}
-            </p>
-          </div>
-          <div className="flex flex-wrap items-center gap-2">
-            {editable && (
-              <SaveIndicator
-                state={state}
-                version={savedVersion}
-                invalidCount={invalidCount}
-                onSave={() => save()}
-              />
-            )}
-            <a className={linkClass} href={planExportHref(plan.id, 'csv')} download>
-              ⤓ Timeline CSV
-            </a>
-            <a className={linkClass} href={planExportHref(plan.id, 'pdf')} download>
-              ⤓ Cue cards (PDF)
-            </a>
-            <Link className={linkClass} to={rehearseHref}>
-              ▶ Rehearse
-            </Link>
-            <PlanActions plan={plan} user={user} onDeleted={() => setDeleted(true)} />
-          </div>
-        </header>
-
-        {LOCKED[plan.status] && (
-          <Alert tone="info" title="Editing is locked">
-            {LOCKED[plan.status]}
-          </Alert>
-        )}
-        {!can(user, 'plans:edit') && plan.status === 'draft' && (
-          <Alert tone="info">Your role reads plans; planners edit them.</Alert>
-        )}
-        {conflict && <ConflictNotice conflict={conflict} onReload={reload} />}
-        {!conflict && <FormError error={error} fallback="The plan could not be saved." />}
-
-        <Panel
-          title="Timeline"
-          actions={
-            tl && (
-              <span className="text-xs text-text-muted">
-                {timeline.isFetching ? 'Recomputing…' : `Computed for version ${tl.planVersion}`}
-                {unsaved && editable && !timeline.isFetching ? ' · recomputes when saved' : ''}
-              </span>
-            )
-          }
-        >
-          <div id={TIMELINE_ID} tabIndex={-1} className="space-y-4 outline-none">
-            <PlanningCaution />
-            {tl ? (
-              <>
-                <TimelineChart
-                  timeline={tl}
-                  tasks={plan.tasks}
-                  startGmt={plan.startGmt}
-                  {...(DayView
-                    ? {
-                        cursor,
-                        onPick: ({ crew, block }) => setFocus({ crew, start: block.start, end: block.end }),
-                      }
-                    : {})}
+            <div className="flex flex-wrap items-center gap-2">
+              {editable && (
+                <SaveIndicator
+                  state={state}
+                  version={savedVersion}
+                  invalidCount={invalidCount}
+                  onSave={() => save()}
                 />
-                {DayView && <DayView timeline={tl} plan={plan} focus={focus} onTime={setCursor} />}
-                <TimelineTotals
-                  timeline={tl}
-                  names={{ EV1: plan.crew.EV1.name, EV2: plan.crew.EV2.name }}
-                  startGmt={plan.startGmt}
-                />
-              </>
-            ) : timeline.error ? (
-              <FormError error={timeline.error} fallback="The timeline could not be computed." />
-            ) : (
-              <PageSpinner />
-            )}
-          </div>
-        </Panel>
+              )}
+              <a className={linkClass} href={planExportHref(plan.id, 'csv')} download>
+                ⤓ Timeline CSV
+              </a>
+              <a className={linkClass} href={planExportHref(plan.id, 'pdf')} download>
+                ⤓ Cue cards (PDF)
+              </a>
+              <Link className={linkClass} to={rehearseHref}>
+                ▶ Rehearse
+              </Link>
+              <PlanActions plan={plan} user={user} onDeleted={() => setDeleted(true)} />
+            </div>
+          </header>
 
-        <div className="grid gap-5 lg:grid-cols-3">
-          <div className="space-y-5 lg:col-span-2">
-            <Panel title={`Tasks (${draft.tasks.length})`}>
-              {extra}
-              {nodes ? (
-                <TasksEditor
-                  tasks={draft.tasks}
-                  onChange={(tasks, added) =>
-                    change(added?.length ? { tasks, manifest: [...draft.manifest, ...added] } : { tasks })
-                  }
-                  readOnly={readOnly}
-                  nodes={nodes}
+          {LOCKED[plan.status] && (
+            <Alert tone="info" title="Editing is locked">
+              {LOCKED[plan.status]}
+            </Alert>
+          )}
+          {!can(user, 'plans:edit') && plan.status === 'draft' && (
+            <Alert tone="info">Your role reads plans; planners edit them.</Alert>
+          )}
+          {conflict && <ConflictNotice conflict={conflict} onReload={reload} />}
+          {!conflict && <FormError error={error} fallback="The plan could not be saved." />}
+
+          <Panel
+            title="Timeline"
+            actions={
+              tl && (
+                <span className="text-xs text-text-muted">
+                  {timeline.isFetching ? 'Recomputing…' : `Computed for version ${tl.planVersion}`}
+                  {unsaved && editable && !timeline.isFetching ? ' · recomputes when saved' : ''}
+                </span>
+              )
+            }
+          >
+            <div id={TIMELINE_ID} tabIndex={-1} className="space-y-4 outline-none">
+              <PlanningCaution />
+              {tl ? (
+                <>
+                  <TimelineChart
+                    timeline={tl}
+                    tasks={plan.tasks}
+                    startGmt={plan.startGmt}
+                    {...(DayView
+                      ? {
+                          cursor,
+                          onPick: ({ crew, block }) => setFocus({ crew, start: block.start, end: block.end }),
+                        }
+                      : {})}
+                  />
+                  {DayView && <DayView timeline={tl} plan={plan} focus={focus} onTime={setCursor} />}
+                  <TimelineTotals
+                    timeline={tl}
+                    names={{ EV1: plan.crew.EV1.name, EV2: plan.crew.EV2.name }}
+                    startGmt={plan.startGmt}
+                  />
+                </>
+              ) : timeline.error ? (
+                <FormError error={timeline.error} fallback="The timeline could not be computed." />
+              ) : (
+                <PageSpinner />
+              )}
+            </div>
+          </Panel>
+
+          <div className="grid gap-5 lg:grid-cols-3">
+            <div className="space-y-5 lg:col-span-2">
+              <Panel title={`Tasks (${draft.tasks.length})`}>
+                {extra}
+                {nodes ? (
+                  <TasksEditor
+                    tasks={draft.tasks}
+                    onChange={(tasks, added) =>
+                      change(added?.length ? { tasks, manifest: [...draft.manifest, ...added] } : { tasks })
+                    }
+                    readOnly={readOnly}
+                    nodes={nodes}
+                    manifest={draft.manifest}
+                    flownEstimates={flownEstimates.data}
+                    reach={tl && tl.planVersion === savedVersion ? tl.reach : []}
+                    warningCounts={warningCountsByTask(
+                      tl && tl.planVersion === savedVersion ? tl : undefined,
+                    )}
+                  />
+                ) : (
+                  <PageSpinner />
+                )}
+              </Panel>
+              <Panel title={`Manifest (${draft.manifest.length})`}>
+                <ManifestEditor
                   manifest={draft.manifest}
-                  flownEstimates={flownEstimates.data}
-                  reach={tl && tl.planVersion === savedVersion ? tl.reach : []}
-                  warningCounts={warningCountsByTask(tl && tl.planVersion === savedVersion ? tl : undefined)}
+                  onChange={(manifest) => change({ manifest })}
+                  readOnly={readOnly}
+                  places={places}
                 />
-              ) : (
-                <PageSpinner />
-              )}
-            </Panel>
-            <Panel title={`Manifest (${draft.manifest.length})`}>
-              <ManifestEditor
-                manifest={draft.manifest}
-                onChange={(manifest) => change({ manifest })}
-                readOnly={readOnly}
-                places={places}
-              />
-            </Panel>
-            <Panel title="Crew">
-              <CrewEditor draft={draft} onChange={change} readOnly={readOnly} />
-            </Panel>
-            <Panel title="EVA settings">
-              <SettingsEditor draft={draft} onChange={change} readOnly={readOnly} arcs={arcs} />
-            </Panel>
-          </div>
-          <div className="space-y-5">
-            <Panel title="Order of the day">
-              <OrderSuggestion
-                planId={plan.id}
-                tasks={draft.tasks}
-                canApply={editable}
-                unsaved={editable && unsaved}
-                onApply={(tasks) => change({ tasks })}
-              />
-            </Panel>
-            <Panel title={`Warnings${tl ? ` (${tl.warnings.length})` : ''}`}>
-              {tl ? (
-                <WarningsPanel timeline={tl} itemKeys={plan.manifest.map((m) => m.key ?? '')} onGoTo={goTo} />
-              ) : (
-                <PageSpinner />
-              )}
-            </Panel>
-            <Panel title={`Station notes${tl ? ` (${tl.stationNotes?.length ?? 0})` : ''}`}>
-              {tl ? (
-                <StationNotesPanel
-                  notes={tl.stationNotes ?? []}
-                  stationId={plan.stationId}
-                  onGoTo={(f) => {
-                    setFocus(f);
-                    goTo({ kind: 'timeline' });
-                  }}
+              </Panel>
+              <Panel title="Crew">
+                <CrewEditor draft={draft} onChange={change} readOnly={readOnly} />
+              </Panel>
+              <Panel title="EVA settings">
+                <SettingsEditor draft={draft} onChange={change} readOnly={readOnly} arcs={arcs} />
+              </Panel>
+            </div>
+            <div className="space-y-5">
+              <Panel title="Order of the day">
+                <OrderSuggestion
+                  planId={plan.id}
+                  tasks={draft.tasks}
+                  canApply={editable}
+                  unsaved={editable && unsaved}
+                  onApply={(tasks) => change({ tasks })}
                 />
-              ) : (
-                <PageSpinner />
-              )}
-            </Panel>
-            <Panel title="Review">
-              <ReviewPanel
-                plan={plan}
-                user={user}
-                unsaved={editable && unsaved}
-                unsavedText={
-                  state === 'invalid'
-                    ? `Fix the ${invalidCount === 1 ? 'marked field' : `${invalidCount || ''} marked fields`} before submitting: ${invalidCount === 1 ? 'it is' : 'they are'} not saved.`
-                    : undefined
-                }
-              />
-            </Panel>
+              </Panel>
+              <Panel title={`Warnings${tl ? ` (${tl.warnings.length})` : ''}`}>
+                {tl ? (
+                  <WarningsPanel
+                    timeline={tl}
+                    itemKeys={plan.manifest.map((m) => m.key ?? '')}
+                    onGoTo={goTo}
+                  />
+                ) : (
+                  <PageSpinner />
+                )}
+              </Panel>
+              <Panel title={`Station notes${tl ? ` (${tl.stationNotes?.length ?? 0})` : ''}`}>
+                {tl ? (
+                  <StationNotesPanel
+                    notes={tl.stationNotes ?? []}
+                    stationId={plan.stationId}
+                    onGoTo={(f) => {
+                      setFocus(f);
+                      goTo({ kind: 'timeline' });
+                    }}
+                  />
+                ) : (
+                  <PageSpinner />
+                )}
+              </Panel>
+              <Panel title="Review">
+                <ReviewPanel
+                  plan={plan}
+                  user={user}
+                  unsaved={editable && unsaved}
+                  unsavedText={
+                    state === 'invalid'
+                      ? `Fix the ${invalidCount === 1 ? 'marked field' : `${invalidCount || ''} marked fields`} before submitting: ${invalidCount === 1 ? 'it is' : 'they are'} not saved.`
+                      : undefined
+                  }
+                />
+              </Panel>
+            </div>
           </div>
         </div>
-      </div>
+      </UnsavedEditsProvider>
     </FieldValidityContext.Provider>
   );
 }

@@ -1,4 +1,4 @@
-import { useMemo, useState } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import { Controller, useWatch } from 'react-hook-form';
 import type { ManifestItem, Task } from '@shared/schemas/plan';
 import { flownEstimateFor, type FlownEstimate } from '@shared/compute/day/flown-estimates';
@@ -34,6 +34,8 @@ interface TaskFormProps {
   onCancel: () => void;
   /** what tasks took in runs that ended: a matching one is offered as the duration, never applied */
   flownEstimates?: readonly FlownEstimate[];
+  /** whether the form holds edits not applied yet, so closing it can ask first */
+  onDirtyChange?: (dirty: boolean) => void;
 }
 
 /**
@@ -48,6 +50,7 @@ export function TaskForm({
   onSubmit,
   onCancel,
   flownEstimates,
+  onDirtyChange,
 }: TaskFormProps) {
   const [search, setSearch] = useState('');
   const [added, setAdded] = useState<ManifestItem[]>([]);
@@ -55,6 +58,8 @@ export function TaskForm({
   // the form reads its resolver on every render, so items added meanwhile count when it is checked
   const schema = useMemo(() => taskFormSchema(known), [known]);
   const form = useZodForm(schema, { defaultValues: taskFormDefaults(task, manifest) });
+  const dirty = form.formState.isDirty;
+  useEffect(() => onDirtyChange?.(dirty), [dirty, onDirtyChange]);
   const {
     register,
     control,

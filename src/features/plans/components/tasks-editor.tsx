@@ -3,6 +3,7 @@ import { useEffect, useRef, useState, type KeyboardEvent } from 'react';
 import type { ManifestItem, Task } from '@shared/schemas/plan';
 import { Button } from '@/components/ui/button';
 import { EmptyState } from '@/components/ui/card';
+import { ConfirmDialog } from '@/components/ui/confirm-dialog';
 import { Dialog } from '@/components/ui/dialog';
 import { moveItem } from '../lib/plan-draft';
 import { afterPositions, removeTask, waitingFor } from '../lib/task-order';
@@ -36,6 +37,15 @@ export function TasksEditor({
   flownEstimates,
 }: TasksEditorProps) {
   const [editing, setEditing] = useState<number | 'new' | null>(null);
+  // a form holding edits not applied asks before it closes (Escape, ✕, Cancel)
+  const [formDirty, setFormDirty] = useState(false);
+  const [askDrop, setAskDrop] = useState(false);
+  const closeForm = () => {
+    setEditing(null);
+    setFormDirty(false);
+    setAskDrop(false);
+  };
+  const dismissForm = () => (formDirty ? setAskDrop(true) : closeForm());
   const [announcement, setAnnouncement] = useState('');
   const focusAfterMove = useRef<number | null>(null);
   const [dragFrom, setDragFrom] = useState<number | null>(null);
@@ -94,7 +104,7 @@ export function TasksEditor({
       );
       setAnnouncement(`Changed task ${editing + 1} “${task.title}”.`);
     }
-    setEditing(null);
+    closeForm();
   };
 
   return (
@@ -168,7 +178,8 @@ export function TasksEditor({
       <Dialog
         open={editing !== null}
         title={editing === 'new' ? 'Add task' : `Edit task ${(editing ?? 0) + 1}`}
-        onClose={() => setEditing(null)}
+        onClose={closeForm}
+        onDismiss={dismissForm}
       >
         <TaskForm
           task={typeof editing === 'number' ? tasks[editing] : undefined}
@@ -177,9 +188,25 @@ export function TasksEditor({
           manifest={manifest}
           flownEstimates={flownEstimates}
           onSubmit={save}
-          onCancel={() => setEditing(null)}
+          onCancel={dismissForm}
+          onDirtyChange={setFormDirty}
         />
       </Dialog>
+      <ConfirmDialog
+        open={askDrop}
+        title="Drop the edits to this task?"
+        confirmLabel="Drop the edits"
+        cancelLabel="Keep editing"
+        onCancel={() => setAskDrop(false)}
+        onConfirm={closeForm}
+      >
+        <p>
+          {editing === 'new'
+            ? 'The new task is not added yet'
+            : 'The changes to this task are not applied yet'}
+          ; closing the form drops them.
+        </p>
+      </ConfirmDialog>
     </div>
   );
 }

@@ -73,6 +73,8 @@ export function ConnectForm({ graph, selectedKey, isSaving, onSubmit }: ConnectF
       type: 'create-edge',
       edge: { from: v.from, to: v.to, kind: v.kind, ...(length?.ok ? { lengthM: length.value } : {}) },
     });
+    // sent: the fields stay for the next edge, no longer edits waiting to be saved
+    form.reset(form.getValues());
   };
 
   return (

@@ -11,6 +11,8 @@ import {
   type StationEdit,
 } from '../api/edit-station';
 import { AffectedPlansPrompt } from '@/components/affected-plans-prompt';
+import { LeaveGuard } from '@/components/leave-guard';
+import { UnsavedEditsProvider, useUnsavedEdits } from '@/components/unsaved-edits';
 import type { EditableGraph, SurfacePick } from '../utils/types';
 import { ArmsEditor } from './arms-editor';
 import { AuditList } from './audit-list';
@@ -103,131 +105,139 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
   const around: Vec3 = selected?.position ?? [0, 0, 0];
   const editingHazard = graph.hazards.find((h) => h.key === hazardKey);
   const nodeKeys = useMemo(() => new Set(graph.nodes.map((n) => n.key)), [graph.nodes]);
+  // a form holding what the engineer typed and did not save: leaving asks first
+  const forms = useUnsavedEdits();
 
   return (
-    <div className="space-y-3" aria-label="Edit the station model">
-      <p className="text-xs text-text-muted">
-        Editing version {version}. A change made against an older version is refused, never merged.
-      </p>
-      <div ref={status} tabIndex={-1} className="space-y-2 scroll-mt-4 focus:outline-none">
-        {failedEdit && (
-          <ConflictNotice
-            error={mutation.error}
-            stationId={stationId}
-            what={describeStationEdit(failedEdit)}
-            onReload={() => {
-              mutation.reset();
-              setLoadedVersion(graph.station.version);
-              onChanged();
-            }}
-            onReapply={(current) => mutation.mutate({ version: current, edit: failedEdit })}
-          />
-        )}
-        {asking && (
-          <AffectedPlansPrompt
-            what={describeStationEdit(asking.edit)}
-            plans={asking.plans}
+    <UnsavedEditsProvider value={forms.report}>
+      <div className="space-y-3" aria-label="Edit the station model">
+        <LeaveGuard
+          when={forms.count > 0}
+          reason={`${forms.count === 1 ? 'A form holds' : `${forms.count} forms hold`} edits to the model not saved yet; leaving drops them.`}
+        />
+        <p className="text-xs text-text-muted">
+          Editing version {version}. A change made against an older version is refused, never merged.
+        </p>
+        <div ref={status} tabIndex={-1} className="space-y-2 scroll-mt-4 focus:outline-none">
+          {failedEdit && (
+            <ConflictNotice
+              error={mutation.error}
+              stationId={stationId}
+              what={describeStationEdit(failedEdit)}
+              onReload={() => {
+                mutation.reset();
+                setLoadedVersion(graph.station.version);
+                onChanged();
+              }}
+              onReapply={(current) => mutation.mutate({ version: current, edit: failedEdit })}
+            />
+          )}
+          {asking && (
+            <AffectedPlansPrompt
+              what={describeStationEdit(asking.edit)}
+              plans={asking.plans}
+              isSaving={isSaving}
+              onCancel={() => setAsking(null)}
+              onConfirm={() => {
+                setAsking(null);
+                mutation.mutate({ version, edit: asking.edit });
+              }}
+            />
+          )}
+          {saved && !mutation.isError && <Alert tone="success">{saved}</Alert>}
+        </div>
+
+        <Section title={selected ? `Selected node ${selected.key}` : 'Selected node'} open>
+          {selected ? (
+            <>
+              <NodeForm
+                key={`${selected.key}@${version}`}
+                graph={graph}
+                node={selected}
+                isSaving={isSaving}
+                onSubmit={submit}
+              />
+              <h4 className="text-sm font-semibold text-text-strong">Edges</h4>
+              <NodeEdges nodeKey={selected.key} edges={graph.edges} isSaving={isSaving} onSubmit={submit} />
+              <DeleteNodeButton
+                nodeKey={selected.key}
+                edges={graph.edges}
+                isSaving={isSaving}
+                onConfirm={() => submit({ type: 'delete-node', key: selected.key })}
+              />
+            </>
+          ) : (
+            <EmptyState>
+              Select a node in the 3D view or the node list to move, change, connect or delete it.
+            </EmptyState>
+          )}
+        </Section>
+
+        <Section title="Add node">
+          <NodeForm
+            key={createdCount}
+            graph={graph}
+            selectedKey={selectedKey}
+            pick={pick}
             isSaving={isSaving}
-            onCancel={() => setAsking(null)}
-            onConfirm={() => {
-              setAsking(null);
-              mutation.mutate({ version, edit: asking.edit });
-            }}
+            onSubmit={submit}
           />
-        )}
-        {saved && !mutation.isError && <Alert tone="success">{saved}</Alert>}
+        </Section>
+
+        <Section title="Connect nodes">
+          <ConnectForm graph={graph} selectedKey={selectedKey} isSaving={isSaving} onSubmit={submit} />
+        </Section>
+
+        <Section title={`Hazards (${graph.hazards.length})`}>
+          <ul className="divide-y divide-surface-line text-sm" aria-label="Hazards">
+            {graph.hazards.map((h) => (
+              <KeyedRow
+                key={h.key}
+                noun="hazard"
+                itemKey={h.key}
+                removeWord="Delete"
+                isSaving={isSaving}
+                onChange={() => setHazardKey(h.key)}
+                onRemove={() => submit({ type: 'delete-hazard', key: h.key })}
+              >
+                <Badge tone={h.kind === 'keep-out' ? 'danger' : 'caution'}>{h.kind}</Badge>
+                <span className="text-xs text-text-muted">{h.shape}</span>
+              </KeyedRow>
+            ))}
+          </ul>
+          <h4 className="text-sm font-semibold text-text-strong">
+            {editingHazard ? `Change ${editingHazard.key}` : 'Add a hazard'}
+          </h4>
+          <HazardForm
+            key={`${hazardKey ?? 'new'}@${version}`}
+            hazard={editingHazard}
+            existingKeys={graph.hazards.map((h) => h.key)}
+            around={around}
+            isSaving={isSaving}
+            onSubmit={submit}
+            onCancel={editingHazard ? () => setHazardKey(null) : undefined}
+          />
+        </Section>
+
+        <Section title={`Arms (${graph.arms.length})`}>
+          <ArmsEditor
+            arms={graph.arms}
+            isNode={(key) => nodeKeys.has(key)}
+            selectedKey={selectedKey}
+            version={version}
+            isSaving={isSaving}
+            onSubmit={submit}
+          />
+        </Section>
+
+        <Section title="Station settings and orbit">
+          <SettingsForm key={version} station={graph.station} isSaving={isSaving} onSubmit={submit} />
+        </Section>
+
+        <Section title="Recent edits" open>
+          <AuditList stationId={stationId} />
+        </Section>
       </div>
-
-      <Section title={selected ? `Selected node ${selected.key}` : 'Selected node'} open>
-        {selected ? (
-          <>
-            <NodeForm
-              key={`${selected.key}@${version}`}
-              graph={graph}
-              node={selected}
-              isSaving={isSaving}
-              onSubmit={submit}
-            />
-            <h4 className="text-sm font-semibold text-text-strong">Edges</h4>
-            <NodeEdges nodeKey={selected.key} edges={graph.edges} isSaving={isSaving} onSubmit={submit} />
-            <DeleteNodeButton
-              nodeKey={selected.key}
-              edges={graph.edges}
-              isSaving={isSaving}
-              onConfirm={() => submit({ type: 'delete-node', key: selected.key })}
-            />
-          </>
-        ) : (
-          <EmptyState>
-            Select a node in the 3D view or the node list to move, change, connect or delete it.
-          </EmptyState>
-        )}
-      </Section>
-
-      <Section title="Add node">
-        <NodeForm
-          key={createdCount}
-          graph={graph}
-          selectedKey={selectedKey}
-          pick={pick}
-          isSaving={isSaving}
-          onSubmit={submit}
-        />
-      </Section>
-
-      <Section title="Connect nodes">
-        <ConnectForm graph={graph} selectedKey={selectedKey} isSaving={isSaving} onSubmit={submit} />
-      </Section>
-
-      <Section title={`Hazards (${graph.hazards.length})`}>
-        <ul className="divide-y divide-surface-line text-sm" aria-label="Hazards">
-          {graph.hazards.map((h) => (
-            <KeyedRow
-              key={h.key}
-              noun="hazard"
-              itemKey={h.key}
-              removeWord="Delete"
-              isSaving={isSaving}
-              onChange={() => setHazardKey(h.key)}
-              onRemove={() => submit({ type: 'delete-hazard', key: h.key })}
-            >
-              <Badge tone={h.kind === 'keep-out' ? 'danger' : 'caution'}>{h.kind}</Badge>
-              <span className="text-xs text-text-muted">{h.shape}</span>
-            </KeyedRow>
-          ))}
-        </ul>
-        <h4 className="text-sm font-semibold text-text-strong">
-          {editingHazard ? `Change ${editingHazard.key}` : 'Add a hazard'}
-        </h4>
-        <HazardForm
-          key={`${hazardKey ?? 'new'}@${version}`}
-          hazard={editingHazard}
-          existingKeys={graph.hazards.map((h) => h.key)}
-          around={around}
-          isSaving={isSaving}
-          onSubmit={submit}
-          onCancel={editingHazard ? () => setHazardKey(null) : undefined}
-        />
-      </Section>
-
-      <Section title={`Arms (${graph.arms.length})`}>
-        <ArmsEditor
-          arms={graph.arms}
-          isNode={(key) => nodeKeys.has(key)}
-          selectedKey={selectedKey}
-          version={version}
-          isSaving={isSaving}
-          onSubmit={submit}
-        />
-      </Section>
-
-      <Section title="Station settings and orbit">
-        <SettingsForm key={version} station={graph.station} isSaving={isSaving} onSubmit={submit} />
-      </Section>
-
-      <Section title="Recent edits" open>
-        <AuditList stationId={stationId} />
-      </Section>
-    </div>
+    </UnsavedEditsProvider>
   );
 }
