@@ -45,7 +45,7 @@ export function createAppRouter(queryClient: QueryClient) {
         route(paths.sockets.path, () => import('./routes/app/station-sockets'), workspace),
         route(paths.plans.path, () => import('./routes/app/plans')),
         route(paths.plan.path, () => import('./routes/app/plan')),
-        route(paths.run.path, () => import('./routes/app/run')),
+        route(paths.run.path, () => import('./routes/app/run'), workspace),
         route(paths.series.path, () => import('./routes/app/series')),
         route(paths.walkthroughs.path, () => import('./routes/app/walkthroughs')),
         route(paths.walkthrough.path, () => import('./routes/app/walkthrough'), workspace),

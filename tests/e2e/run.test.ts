@@ -16,7 +16,7 @@ describe('the day of the EVA on the run screen, live on two screens', () => {
     const laptop = await openBrowser();
     sessions.push(wall, laptop);
     await wall.page.setViewportSize({ width: 1920, height: 1080 });
-    await laptop.page.setViewportSize({ width: 1366, height: 800 });
+    await laptop.page.setViewportSize({ width: 1440, height: 900 });
     await signInAs(laptop, 'planner');
     await signInAs(wall, 'viewer');
 
@@ -76,6 +76,6 @@ describe('the day of the EVA on the run screen, live on two screens', () => {
     await expect(wall.page.getByTestId('log-EV1').count()).resolves.toBe(0);
     await wall.page.getByTestId('plan-day').locator('canvas').waitFor();
     await wall.screenshot('run-wall-1920');
-    await laptop.screenshot('run-laptop-1366');
+    await laptop.screenshot('run-laptop-1440');
   });
 });

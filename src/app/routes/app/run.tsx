@@ -60,7 +60,7 @@ export default function RunRoute() {
   const titleOf = (i: number | undefined) => (i === undefined ? '' : (view.plan.tasks[i]?.title ?? ''));
   const crewNames = { EV1: view.plan.crew.EV1.name, EV2: view.plan.crew.EV2.name };
   return (
-    <div className="space-y-4">
+    <div className="space-y-4 pb-4">
       <header className="flex flex-wrap items-end justify-between gap-4">
         <div>
           <h1 className="text-2xl font-semibold text-text-strong">

@@ -16,18 +16,20 @@ export function RunClock({ startedAt, elapsed }: { startedAt: string; elapsed: n
   return (
     <div className="flex flex-wrap items-end gap-x-10 gap-y-2" role="timer" aria-label="Run clock">
       <div>
-        <div className="text-xs font-semibold tracking-wide text-text-muted uppercase">GMT</div>
+        <div className="text-xs font-semibold tracking-wide text-text-muted uppercase xl:text-sm">GMT</div>
         <div
-          className="font-mono text-5xl font-semibold text-text-strong tabular-nums"
+          className="font-mono text-5xl font-semibold text-text-strong tabular-nums xl:text-7xl 2xl:text-8xl"
           data-testid="clock-gmt"
         >
           {formatGmt(startedAt, elapsed, { withSeconds: true })}
         </div>
       </div>
       <div>
-        <div className="text-xs font-semibold tracking-wide text-text-muted uppercase">Elapsed</div>
+        <div className="text-xs font-semibold tracking-wide text-text-muted uppercase xl:text-sm">
+          Elapsed
+        </div>
         <div
-          className="font-mono text-5xl font-semibold text-accent-strong tabular-nums"
+          className="font-mono text-5xl font-semibold text-accent-strong tabular-nums xl:text-7xl 2xl:text-8xl"
           data-testid="clock-elapsed"
         >
           {formatElapsed(elapsed, { withSeconds: true })}
@@ -40,11 +42,12 @@ export function RunClock({ startedAt, elapsed }: { startedAt: string; elapsed: n
 /** The plan's start time beside the run's: how late (or early) the EVA clock started. */
 export function PlannedStart({ planned, started }: { planned: string; started: string }) {
   const late = (Date.parse(started) - Date.parse(planned)) / 1000;
-  return (
-    <span data-testid="planned-start">
-      {' '}
-      · planned {formatGmt(planned, 0)} GMT (
-      {Math.abs(late) < 30 ? 'on time' : `${late > 0 ? '+' : '−'}${formatMinutes(Math.abs(late))}`})
-    </span>
-  );
+  // a start half a day away is another day's plan: its date says more than the minutes
+  const text =
+    Math.abs(late) >= 12 * 3600
+      ? `planned ${planned.slice(0, 10)} ${formatGmt(planned, 0)} GMT`
+      : `planned ${formatGmt(planned, 0)} GMT (${
+          Math.abs(late) < 30 ? 'on time' : `${late > 0 ? '+' : '−'}${formatMinutes(Math.abs(late))}`
+        })`;
+  return <span data-testid="planned-start"> · {text}</span>;
 }

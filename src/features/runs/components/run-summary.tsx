@@ -9,7 +9,7 @@ export function RunSummary({ view }: { view: RunScreenData }) {
   const slip = view.projectedEndSeconds - view.plannedEndSeconds;
   return (
     <div className="space-y-3" data-testid="run-summary">
-      <dl className="grid grid-cols-2 gap-x-6 gap-y-2 text-base">
+      <dl className="grid grid-cols-2 gap-x-6 gap-y-2 text-base xl:text-xl">
         <dt className="text-text-muted">Projected end</dt>
         <dd className="font-mono font-semibold" data-testid="projected-end">
           {formatElapsed(view.projectedEndSeconds)} ({formatGmt(startedAt, view.projectedEndSeconds)} GMT)
