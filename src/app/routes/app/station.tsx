@@ -26,6 +26,7 @@ import {
 import { downloadStationExport } from '@/features/stations/api/export-station';
 import { getStationGraphQueryOptions, useStationGraph } from '@/features/stations/api/get-station-graph';
 import { ImportStationForm } from '@/features/stations/components/import-station-form';
+import { ImportCsvForm } from '@/features/stations/components/import-csv-form';
 import { DeleteStationButton } from '@/features/stations/components/delete-station-button';
 import { NodeList } from '@/features/stations/components/node-list';
 import { PanelTabs } from '@/components/ui/panel-tabs';
@@ -225,6 +226,7 @@ function StationActions({ graph }: { graph: StationGraph }) {
   const canImport = useCan('stations:import');
   const canPlanSockets = useCan('sockets:save');
   const [replacing, setReplacing] = useState(false);
+  const [importingCsv, setImportingCsv] = useState(false);
   const [exportError, setExportError] = useState<unknown>(null);
   const [exporting, setExporting] = useState(false);
   const { station } = graph;
@@ -253,6 +255,11 @@ function StationActions({ graph }: { graph: StationGraph }) {
         </Link>
       )}
       {canImport && (
+        <Button variant="secondary" onClick={() => setImportingCsv(true)}>
+          Import CSV…
+        </Button>
+      )}
+      {canImport && (
         <Button variant="secondary" onClick={() => setReplacing(true)}>
           Replace model…
         </Button>
@@ -261,6 +268,13 @@ function StationActions({ graph }: { graph: StationGraph }) {
       {exportError != null && (
         <Alert tone="danger">{apiErrorMessage(exportError, 'The export failed.')}</Alert>
       )}
+      <Dialog
+        open={importingCsv}
+        title={`Import CSV into ${station.name}`}
+        onClose={() => setImportingCsv(false)}
+      >
+        <ImportCsvForm station={station} />
+      </Dialog>
       <Dialog
         open={replacing}
         title={`Replace the model of ${station.name}`}
