@@ -5,52 +5,26 @@ import fc from 'fast-check';
 import { computeTimeline } from '@shared/compute/day/timeline';
 import type { Task } from '@shared/schemas/plan';
 import { TimelineChart } from '@/features/plans/components/timeline-chart';
-import { TasksEditor } from '@/features/plans/components/tasks-editor';
 import { describeDifferences, draftChanges, draftFromPlan, moveItem } from '@/features/plans/lib/plan-draft';
 import type { PlanTimeline, PlanView } from '@/features/plans/types';
 import { LINE_KEYS, dayEngine, lineStationDocument } from '../factories/day';
 import { buildPlanView } from '../factories/plan-view';
+import { buildParsedTask } from '../factories/plan';
+import { renderTasksEditor } from '../setup/client';
 
 // the real day on the line station (10 s a metre, 12 m default tether), see tests/factories/day.ts
 const engine = dayEngine(lineStationDocument());
 
 const tasks: Task[] = [
-  {
+  buildParsedTask({
     title: 'Mate connectors',
     worksite: LINE_KEYS.w2,
     crew: 'both',
     durationSeconds: 1200,
     eclipseOnly: true,
-    carrying: false,
-    tools: [],
-    actions: [],
-    after: [],
-    optional: false,
-  },
-  {
-    title: 'Inspect hinge',
-    worksite: LINE_KEYS.w3,
-    crew: 'EV1',
-    durationSeconds: 2700,
-    eclipseOnly: false,
-    carrying: false,
-    tools: [],
-    actions: [],
-    after: [],
-    optional: false,
-  },
-  {
-    title: 'Route cable',
-    worksite: LINE_KEYS.w1,
-    crew: 'EV2',
-    durationSeconds: 3600,
-    eclipseOnly: false,
-    carrying: false,
-    tools: [],
-    actions: [],
-    after: [],
-    optional: false,
-  },
+  }),
+  buildParsedTask({ title: 'Inspect hinge', worksite: LINE_KEYS.w3, crew: 'EV1', durationSeconds: 2700 }),
+  buildParsedTask({ title: 'Route cable', worksite: LINE_KEYS.w1, crew: 'EV2', durationSeconds: 3600 }),
 ];
 
 function planView(overrides: Partial<PlanView> = {}): PlanView {
@@ -185,29 +159,16 @@ describe('timeline chart keyboard', () => {
 describe('task list reordering', () => {
   it('moves a focused task with Alt+↑ and announces the move', async () => {
     const user = userEvent.setup();
-    let latest: Task[] = tasks;
-    const { container } = render(
-      <TasksEditor
-        tasks={tasks}
-        onChange={(next) => {
-          latest = next;
-        }}
-        readOnly={false}
-        nodes={{ worksites: [], sockets: [] }}
-        manifest={[]}
-        reach={[]}
-        warningCounts={new Map([[0, 1]])}
-      />,
-    );
+    const { container, latest } = renderTasksEditor(tasks, new Map([[0, 1]]));
     act(() => container.querySelector<HTMLLIElement>('#plan-task-3')!.focus());
     await user.keyboard('{Alt>}{ArrowUp}{/Alt}');
-    expect(latest.map((t) => t.title)).toEqual(['Mate connectors', 'Route cable', 'Inspect hinge']);
+    expect(latest().map((t) => t.title)).toEqual(['Mate connectors', 'Route cable', 'Inspect hinge']);
     expect(screen.getByText('Moved task “Route cable” to position 2 of 3.')).toBeTruthy();
     expect(container.querySelector('#plan-task-1')?.textContent).toContain('⚠ 1 warning');
 
     // without Alt the arrow keys stay with the page, on the focused task as on any element
     expect(document.activeElement?.id).toMatch(/^plan-task-\d$/);
     await user.keyboard('{ArrowDown}');
-    expect(latest.map((t) => t.title)).toEqual(['Mate connectors', 'Route cable', 'Inspect hinge']);
+    expect(latest().map((t) => t.title)).toEqual(['Mate connectors', 'Route cable', 'Inspect hinge']);
   });
 });

@@ -1,24 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { render, screen } from '@testing-library/react';
+import { screen } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import type { Task } from '@shared/schemas/plan';
-import { TasksEditor } from '@/features/plans/components/tasks-editor';
 import { waitingFor } from '@/features/plans/lib/task-order';
+import { buildParsedTask } from '../factories/plan';
+import { renderTasksEditor } from '../setup/client';
 
-const task = (id: number, title: string, more: Partial<Task> = {}): Task => ({
-  id,
-  title,
-  worksite: 'W1',
-  crew: 'EV1',
-  durationSeconds: 600,
-  eclipseOnly: false,
-  carrying: false,
-  tools: [],
-  actions: [],
-  after: [],
-  optional: false,
-  ...more,
-});
+const task = (id: number, title: string, more: Partial<Task> = {}): Task =>
+  buildParsedTask({ id, title, worksite: 'W1', ...more });
 
 const tasks = [
   task(1, 'Open the panel'),
@@ -28,17 +17,7 @@ const tasks = [
 
 describe('task order in the task list', () => {
   it('each row says which tasks it starts after and whether it is optional', async () => {
-    const { container } = render(
-      <TasksEditor
-        tasks={tasks}
-        onChange={() => {}}
-        readOnly={false}
-        nodes={{ worksites: [], sockets: [] }}
-        manifest={[]}
-        reach={[]}
-        warningCounts={new Map()}
-      />,
-    );
+    const { container } = renderTasksEditor(tasks);
     const row = (n: number) => container.querySelector(`#plan-task-${n}`)!.textContent;
     expect(row(1)).not.toContain('After');
     expect(row(2)).toContain('After task 1');
@@ -47,22 +26,9 @@ describe('task order in the task list', () => {
   });
 
   it('removing a task takes it out of the `after` of the tasks that waited for it', async () => {
-    let latest: Task[] = tasks;
-    render(
-      <TasksEditor
-        tasks={tasks}
-        onChange={(next) => {
-          latest = next;
-        }}
-        readOnly={false}
-        nodes={{ worksites: [], sockets: [] }}
-        manifest={[]}
-        reach={[]}
-        warningCounts={new Map()}
-      />,
-    );
+    const { latest } = renderTasksEditor(tasks);
     await userEvent.setup().click(screen.getByRole('button', { name: 'Remove task 1' }));
-    expect(latest.map((t) => [t.id, t.after])).toEqual([
+    expect(latest().map((t) => [t.id, t.after])).toEqual([
       [2, []],
       [3, [2]],
     ]);

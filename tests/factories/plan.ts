@@ -1,4 +1,10 @@
-import type { CreatePlanInputSchema, ManifestItemInput, TaskInput } from '@shared/schemas/plan';
+import {
+  TaskSchema,
+  type CreatePlanInputSchema,
+  type ManifestItemInput,
+  type Task,
+  type TaskInput,
+} from '@shared/schemas/plan';
 import type { z } from 'zod';
 import { FIXTURE_KEYS as K } from './station-document';
 
@@ -17,6 +23,11 @@ export function buildTask(overrides: Partial<TaskInput> = {}): TaskInput {
     durationSeconds: 600,
     ...overrides,
   };
+}
+
+/** `buildTask` as the schema reads it: every default filled in, as a plan's task comes back. */
+export function buildParsedTask(overrides: Partial<TaskInput> = {}): Task {
+  return TaskSchema.parse(buildTask(overrides));
 }
 
 /** A tool EV1 carries out of the airlock and brings back. */
