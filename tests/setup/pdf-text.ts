@@ -1,3 +1,4 @@
+import { expect } from 'vitest';
 import type { TestAgent } from './test-app';
 
 /**
@@ -54,4 +55,18 @@ export function getPdf(agent: TestAgent, url: string) {
       r.on('data', (c: Buffer) => chunks.push(c));
       r.on('end', () => cb(null, Buffer.concat(chunks)));
     });
+}
+
+/** Checks an answer is a PDF set in the app's font (Inter, embedded) and gives its text. */
+export function pdfAnswerText(res: {
+  status: number;
+  headers: Record<string, string>;
+  body: unknown;
+}): string {
+  expect(res.status).toBe(200);
+  expect(res.headers['content-type']).toBe('application/pdf');
+  const pdf = res.body as Buffer;
+  expect(pdf.subarray(0, 5).toString('latin1')).toBe('%PDF-');
+  expect(pdf.toString('latin1')).toMatch(/\/FontName \/[A-Z]{6}\+Inter/);
+  return pdfText(pdf);
 }
