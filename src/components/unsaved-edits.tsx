@@ -1,4 +1,4 @@
-import { createContext, useCallback, useContext, useEffect, useId, useState } from 'react';
+import { createContext, useCallback, useContext, useEffect, useId, useLayoutEffect, useState } from 'react';
 
 /** Where a form on the page says it holds edits not applied yet (typed, not submitted). */
 const UnsavedEditsContext = createContext<(id: string, unsaved: boolean) => void>(() => {});
@@ -23,7 +23,8 @@ export function useUnsavedEdits() {
 export function useReportUnsaved(unsaved: boolean) {
   const id = useId();
   const report = useContext(UnsavedEditsContext);
-  useEffect(() => {
+  // a layout effect: the page knows before the next key or click (leaving right behind an edit asks)
+  useLayoutEffect(() => {
     report(id, unsaved);
   }, [id, unsaved, report]);
   useEffect(() => () => report(id, false), [id, report]);

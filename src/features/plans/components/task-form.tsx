@@ -1,4 +1,4 @@
-import { useEffect, useMemo, useState } from 'react';
+import { useLayoutEffect, useMemo, useState } from 'react';
 import { Controller, useWatch } from 'react-hook-form';
 import type { ManifestItem, Task } from '@shared/schemas/plan';
 import { flownEstimateFor, type FlownEstimate } from '@shared/compute/day/flown-estimates';
@@ -59,7 +59,8 @@ export function TaskForm({
   const schema = useMemo(() => taskFormSchema(known), [known]);
   const form = useZodForm(schema, { defaultValues: taskFormDefaults(task, manifest) });
   const dirty = form.formState.isDirty;
-  useEffect(() => onDirtyChange?.(dirty), [dirty, onDirtyChange]);
+  // a layout effect: the owner knows before the next key (an Escape right behind an edit asks)
+  useLayoutEffect(() => onDirtyChange?.(dirty), [dirty, onDirtyChange]);
   const {
     register,
     control,
