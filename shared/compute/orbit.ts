@@ -251,15 +251,15 @@ export function phaseOfOrbitStart(start: OrbitStart, orbit: OrbitArcs): number {
   return deg >= 360 ? 0 : deg;
 }
 
-/** Minutes to a tenth, without a trailing ".0": "12 min", "2.5 min". */
-const minutesText = (seconds: number) => {
-  const tenths = Math.round(Math.abs(seconds) / 6);
-  return `${tenths % 10 === 0 ? tenths / 10 : (tenths / 10).toFixed(1)} min`;
-};
+/** Whole minutes, the nearest: "12 min", "3 min". */
+const minutesText = (seconds: number) => `${Math.round(Math.abs(seconds) / 60)} min`;
 
-/** "starts 12 min after orbital sunrise", "starts 5 min before orbital sunset", "starts at orbital sunrise". */
+/**
+ * "starts 12 min after orbital sunrise", "starts 5 min before orbital sunset", "starts at orbital
+ * sunrise" (within half a minute of it): a planner reads the start to the minute.
+ */
 export function orbitStartText(start: OrbitStart): string {
-  if (Math.round(Math.abs(start.offsetSeconds) / 6) === 0) return `starts at orbital ${start.event}`;
+  if (Math.round(Math.abs(start.offsetSeconds) / 60) === 0) return `starts at orbital ${start.event}`;
   const side = start.offsetSeconds < 0 ? 'before' : 'after';
   return `starts ${minutesText(start.offsetSeconds)} ${side} orbital ${start.event}`;
 }
@@ -267,6 +267,6 @@ export function orbitStartText(start: OrbitStart): string {
 /** What is left of the start's arc, to the minute: "in daylight, sunset 42 min later". */
 export function orbitStartArcText(reading: OrbitStartReading): string {
   if (reading.leftInArcSeconds === null) return 'no night on this orbit at this beta angle';
-  const left = `${Math.round(reading.leftInArcSeconds / 60)} min`;
+  const left = minutesText(reading.leftInArcSeconds);
   return reading.arc === 'day' ? `in daylight, sunset ${left} later` : `in night, sunrise ${left} later`;
 }

@@ -298,13 +298,19 @@ describe('the start as a clock phase: minutes from orbital sunrise or sunset', (
 
 describe('the start in words', () => {
   const arcs = { periodSeconds: 5400, sunlitSeconds: 3240, eclipseSeconds: 2160 };
-  it('says minutes after or before the event, to a tenth, and what is left of the arc', () => {
+  it('says whole minutes after or before the event, and what is left of the arc', () => {
     expect(orbitStartText(orbitStartOfPhase(48, arcs))).toBe('starts 12 min after orbital sunrise');
     expect(orbitStartText(orbitStartOfPhase(340, arcs))).toBe('starts 5 min before orbital sunrise');
+    // 3.15 min before sunrise (worked by hand: 347.4° of 5400 s is 5211 s, 189 s before the end)
+    expect(orbitStartText(orbitStartOfPhase(347.4, arcs))).toBe('starts 3 min before orbital sunrise');
     expect(orbitStartText({ event: 'sunset', offsetSeconds: -150 })).toBe(
-      'starts 2.5 min before orbital sunset',
+      'starts 3 min before orbital sunset',
     );
-    expect(orbitStartText({ event: 'sunset', offsetSeconds: 2 })).toBe('starts at orbital sunset');
+    expect(orbitStartText({ event: 'sunset', offsetSeconds: 89 })).toBe('starts 1 min after orbital sunset');
+    expect(orbitStartText({ event: 'sunset', offsetSeconds: 29 })).toBe('starts at orbital sunset');
+    expect(orbitStartText({ event: 'sunrise', offsetSeconds: -31 })).toBe(
+      'starts 1 min before orbital sunrise',
+    );
     expect(orbitStartArcText(orbitStartOfPhase(8, arcs))).toBe('in daylight, sunset 52 min later');
     expect(orbitStartArcText(orbitStartOfPhase(240, arcs))).toBe('in night, sunrise 30 min later');
   });

@@ -88,7 +88,8 @@ interface OrbitStartFieldProps {
 
 const formOf = (phaseDeg: number, arcs: OrbitArcs) => {
   const r = orbitStartOfPhase(phaseDeg, arcs);
-  const minutes = Math.round(Math.abs(r.offsetSeconds) / 6) / 10;
+  // read back to the minute, as the start is said everywhere; a planner may still type tenths
+  const minutes = Math.round(Math.abs(r.offsetSeconds) / 60);
   return {
     text: String(minutes),
     side: (r.offsetSeconds < 0 && minutes > 0 ? 'before' : 'after') as OrbitStartSide,
