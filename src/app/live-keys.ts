@@ -24,9 +24,11 @@ export function staleKeysOf(change: ChangeEvent): QueryKey[] {
       keys.push(stationKeys.all, planKeys.all, annotationKeys.list(change.id), walkthroughKeys.all);
       break;
     case 'run':
+      // what a run logs is what the task form offers as flown estimates on its plan's station
       keys.push(
         runKeys.detail(change.id),
         change.planId === undefined ? runKeys.all : runKeys.ofPlan(change.planId),
+        planKeys.allFlownEstimates(),
       );
       break;
     case 'annotation':

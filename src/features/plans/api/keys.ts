@@ -13,5 +13,6 @@ export const planKeys = {
   detail: (id: number) => [...planKeys.details(), id] as const,
   timeline: (id: number) => [...planKeys.detail(id), 'timeline'] as const,
   compare: (id: number, from: number, to: number) => [...planKeys.detail(id), 'compare', from, to] as const,
-  flownEstimates: (stationId: number) => [...planKeys.all, 'flown-estimates', stationId] as const,
+  allFlownEstimates: () => [...planKeys.all, 'flown-estimates'] as const,
+  flownEstimates: (stationId: number) => [...planKeys.allFlownEstimates(), stationId] as const,
 };
