@@ -1,5 +1,6 @@
 import fc from 'fast-check';
 import { afterEach, describe, expect, it, vi } from 'vitest';
+import { useState } from 'react';
 import { act, screen, waitFor, within } from '@testing-library/react';
 import userEvent, { type UserEvent } from '@testing-library/user-event';
 import { staleVersionDetails } from '@shared/errors';
@@ -267,6 +268,78 @@ describe('EditPanel leaving', () => {
     await user.clear(change.field('Label'));
     await act(() => router.navigate('/plans'));
     expect(router.state.location.pathname).toBe('/plans');
+  });
+});
+
+describe('EditPanel selecting another node', () => {
+  /** The panel with the selection held as the station screen holds it; a button stands in for a click on the model. */
+  function SelectionHarness({
+    graph,
+    onSelect,
+  }: {
+    graph: StationGraph;
+    onSelect: (key: string | null) => void;
+  }) {
+    const [selected, setSelected] = useState<string | null>(FIXTURE_KEYS.junction);
+    const select = (key: string | null) => {
+      onSelect(key);
+      setSelected(key);
+    };
+    return (
+      <>
+        <button type="button" onClick={() => select(FIXTURE_KEYS.anchorFar)}>
+          Pick {FIXTURE_KEYS.anchorFar} on the model
+        </button>
+        <EditPanel
+          graph={graph}
+          selectedKey={selected}
+          onSelectNode={select}
+          pick={null}
+          onChanged={vi.fn()}
+        />
+      </>
+    );
+  }
+
+  it('asks before a typed change to the selected node is dropped; keeping it selects that node again', async () => {
+    fakeStationApi({ version: 7, by: 'Erin Engineer' });
+    const selections: (string | null)[] = [];
+    renderInDataRouter(<SelectionHarness graph={graphAt(7)} onSelect={(k) => selections.push(k)} />);
+    const user = userEvent.setup();
+    const pickFar = screen.getByRole('button', { name: `Pick ${FIXTURE_KEYS.anchorFar} on the model` });
+    await retype(user, form(`Change node ${FIXTURE_KEYS.junction}`).field('Label'), 'Stanchion 3');
+
+    await user.click(pickFar);
+    const ask = await screen.findByRole('dialog', {
+      name: `Drop the edits to node ${FIXTURE_KEYS.junction}?`,
+    });
+    await user.click(within(ask).getByRole('button', { name: 'Keep editing' }));
+    expect(screen.queryByRole('dialog')).toBeNull();
+    // the node being edited is selected again, its form still holds what was typed
+    expect(selections).toEqual([FIXTURE_KEYS.anchorFar, FIXTURE_KEYS.junction]);
+    expect(form(`Change node ${FIXTURE_KEYS.junction}`).field('Label').value).toBe('Stanchion 3');
+
+    await user.click(pickFar);
+    await user.click(
+      within(await screen.findByRole('dialog', { name: /^Drop the edits/ })).getByRole('button', {
+        name: 'Drop the edits',
+      }),
+    );
+    expect(form(`Change node ${FIXTURE_KEYS.anchorFar}`).field('Key').value).toBe(FIXTURE_KEYS.anchorFar);
+    expect(screen.queryByRole('form', { name: `Change node ${FIXTURE_KEYS.junction}` })).toBeNull();
+  });
+
+  it('shows the other node at once when nothing typed is left to lose', async () => {
+    fakeStationApi({ version: 7, by: 'Erin Engineer' });
+    renderInDataRouter(<SelectionHarness graph={graphAt(7)} onSelect={() => {}} />);
+    const user = userEvent.setup();
+    const label = form(`Change node ${FIXTURE_KEYS.junction}`).field('Label');
+    // typed and typed back: the form holds what was loaded
+    await user.type(label, 'x');
+    await user.clear(label);
+    await user.click(screen.getByRole('button', { name: `Pick ${FIXTURE_KEYS.anchorFar} on the model` }));
+    expect(screen.queryByRole('dialog')).toBeNull();
+    expect(form(`Change node ${FIXTURE_KEYS.anchorFar}`).field('Key').value).toBe(FIXTURE_KEYS.anchorFar);
   });
 });
 

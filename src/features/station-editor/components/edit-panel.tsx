@@ -11,6 +11,7 @@ import {
   type StationEdit,
 } from '../api/edit-station';
 import { AffectedPlansPrompt } from '@/components/affected-plans-prompt';
+import { ConfirmDialog } from '@/components/ui/confirm-dialog';
 import { LeaveGuard } from '@/components/leave-guard';
 import { UnsavedEditsProvider, useUnsavedEdits } from '@/components/unsaved-edits';
 import type { EditableGraph, SurfacePick } from '../utils/types';
@@ -57,6 +58,13 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
   // not move it, so a save made against what the engineer saw is refused (409), never applied over it
   const [loadedVersion, setLoadedVersion] = useState(graph.station.version);
   const version = Math.max(loadedVersion, savedVersion);
+  // the node whose form is shown: it follows the selection, but a form holding a typed change asks
+  // before another node's form replaces it
+  const [shownKey, setShownKey] = useState(selectedKey);
+  const [nodeFormDirty, setNodeFormDirty] = useState(false);
+  const shown = shownKey ? graph.nodes.find((n) => n.key === shownKey) : undefined;
+  const askSwitch = selectedKey !== shownKey && nodeFormDirty && !!shown;
+  if (selectedKey !== shownKey && !askSwitch) setShownKey(selectedKey);
 
   const mutation = useEditStation({
     stationId,
@@ -70,7 +78,11 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
         setCreatedCount((c) => c + 1);
         onSelectNode(edit.node.key);
       }
-      if (edit.type === 'delete-node') onSelectNode(null);
+      if (edit.type === 'delete-node') {
+        // the node is gone: its form has nothing left to keep
+        setNodeFormDirty(false);
+        onSelectNode(null);
+      }
       if (edit.type.endsWith('-hazard')) setHazardKey(null);
     },
   });
@@ -101,8 +113,7 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
     status.current?.scrollIntoView?.({ block: 'nearest' });
     status.current?.focus({ preventScroll: true });
   }, [failedEdit, saved, asking]);
-  const selected = selectedKey ? graph.nodes.find((n) => n.key === selectedKey) : undefined;
-  const around: Vec3 = selected?.position ?? [0, 0, 0];
+  const around: Vec3 = shown?.position ?? [0, 0, 0];
   const editingHazard = graph.hazards.find((h) => h.key === hazardKey);
   const nodeKeys = useMemo(() => new Set(graph.nodes.map((n) => n.key)), [graph.nodes]);
   // a form holding what the engineer typed and did not save: leaving asks first
@@ -147,23 +158,24 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
           {saved && !mutation.isError && <Alert tone="success">{saved}</Alert>}
         </div>
 
-        <Section title={selected ? `Selected node ${selected.key}` : 'Selected node'} open>
-          {selected ? (
+        <Section title={shown ? `Selected node ${shown.key}` : 'Selected node'} open>
+          {shown ? (
             <>
               <NodeForm
-                key={`${selected.key}@${version}`}
+                key={`${shown.key}@${version}`}
                 graph={graph}
-                node={selected}
+                node={shown}
                 isSaving={isSaving}
                 onSubmit={submit}
+                onDirtyChange={setNodeFormDirty}
               />
               <h4 className="text-sm font-semibold text-text-strong">Edges</h4>
-              <NodeEdges nodeKey={selected.key} edges={graph.edges} isSaving={isSaving} onSubmit={submit} />
+              <NodeEdges nodeKey={shown.key} edges={graph.edges} isSaving={isSaving} onSubmit={submit} />
               <DeleteNodeButton
-                nodeKey={selected.key}
+                nodeKey={shown.key}
                 edges={graph.edges}
                 isSaving={isSaving}
-                onConfirm={() => submit({ type: 'delete-node', key: selected.key })}
+                onConfirm={() => submit({ type: 'delete-node', key: shown.key })}
               />
             </>
           ) : (
@@ -172,6 +184,23 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
             </EmptyState>
           )}
         </Section>
+
+        <ConfirmDialog
+          open={askSwitch}
+          title={`Drop the edits to node ${shownKey}?`}
+          confirmLabel="Drop the edits"
+          cancelLabel="Keep editing"
+          onCancel={() => onSelectNode(shownKey)}
+          onConfirm={() => {
+            setNodeFormDirty(false);
+            setShownKey(selectedKey);
+          }}
+        >
+          <p>
+            The changes to node {shownKey} are not saved yet;{' '}
+            {selectedKey ? `showing node ${selectedKey}` : 'clearing the selection'} drops them.
+          </p>
+        </ConfirmDialog>
 
         <Section title="Add node">
           <NodeForm

@@ -1,4 +1,4 @@
-import { useEffect, useRef, useState } from 'react';
+import { useEffect, useLayoutEffect, useRef, useState } from 'react';
 import { useWatch } from 'react-hook-form';
 import { z } from 'zod';
 import { nearestFacePoint } from '@shared/compute/truss-faces';
@@ -70,9 +70,19 @@ interface NodeFormProps {
   pick?: SurfacePick | null;
   isSaving: boolean;
   onSubmit: (edit: StationEdit) => void;
+  /** told whether the form holds a change not saved (typed, then not typed back) */
+  onDirtyChange?: (dirty: boolean) => void;
 }
 
-export function NodeForm({ graph, node, selectedKey, pick, isSaving, onSubmit }: NodeFormProps) {
+export function NodeForm({
+  graph,
+  node,
+  selectedKey,
+  pick,
+  isSaving,
+  onSubmit,
+  onDirtyChange,
+}: NodeFormProps) {
   const isNew = !node;
   const firstPrefix = (selectedKey && keyPrefix(selectedKey)) ?? graph.segments[0]?.key ?? 'N';
   const [firstKey] = useState(() =>
@@ -125,6 +135,9 @@ export function NodeForm({ graph, node, selectedKey, pick, isSaving, onSubmit }:
     formState: { errors },
   } = form;
   const [kind, position, normal] = useWatch({ control, name: ['kind', 'position', 'normal'] });
+  const { isDirty } = form.formState;
+  // before the next click: selecting another node right after typing asks first
+  useLayoutEffect(() => onDirtyChange?.(isDirty), [isDirty, onDirtyChange]);
 
   useEffect(() => {
     if (!isNew || !armed || !pick || pick === consumed.current) return;
