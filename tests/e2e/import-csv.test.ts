@@ -73,6 +73,9 @@ describe('CSV import from the station screen', () => {
     });
     await form.getByRole('button', { name: 'Check the files' }).click();
     await form.getByText('The files check out').waitFor();
+    expect(await form.getByTestId('csv-check-counts').textContent()).toBe(
+      'The import adds 2 nodes and changes 0; adds 2 edges and changes 0.',
+    );
     // nothing is written by the check
     const before = (await (await page.request.get(`/api/stations/${station.id}`)).json()) as StationSummary;
     expect(before.version).toBe(station.version);
@@ -80,7 +83,7 @@ describe('CSV import from the station screen', () => {
     await form.getByRole('button', { name: 'Import', exact: true }).click();
     await form.getByText(`Imported into ${name}: version ${station.version + 1}`).waitFor();
     await expect(form.getByTestId('csv-import-counts').textContent()).resolves.toContain(
-      'Nodes: 2 added, 0 changed. Edges: 2 added, 0 changed.',
+      'Written: added 2 nodes and changed 0; added 2 edges and changed 0.',
     );
     await session.screenshot('import-csv-done');
     const graph = (await (await page.request.get(`/api/stations/${station.id}/graph`)).json()) as {

@@ -31,6 +31,21 @@ describe('POST /api/stations/:id/import-csv', () => {
       'CSV-A1,CSV-S1,hop,,yes',
       `${FIXTURE_KEYS.anchorNear},${FIXTURE_KEYS.junction},handrail,,true`,
     );
+    // the check (a dry run) tells what the merge adds and changes, and writes nothing
+    const dry = await engineer
+      .post(`/api/stations/${id}/import-csv?dryRun=1`)
+      .field('version', '1')
+      .attach('nodes', nodes, 'nodes.csv')
+      .attach('edges', edges, 'edges.csv');
+    expect(dry.status).toBe(200);
+    expect(dry.body).toMatchObject({
+      dryRun: true,
+      added: { nodes: 2, edges: 2 },
+      updated: { nodes: 1, edges: 1 },
+      affectedPlans: [],
+    });
+    expect((await graph(id)).station.version).toBe(1);
+
     const res = await engineer
       .post(`/api/stations/${id}/import-csv`)
       .field('version', '1')

@@ -53,6 +53,8 @@ export function importStationCsv(ctx: DbContext, req: WriteRequest, files: CsvFi
     ...parsedArms.problems,
   ];
 
+  // what the merge adds and changes: a dry run answers it too, so the engineer sees it before confirming
+  let counts = { added: { nodes: 0, edges: 0 }, updated: { nodes: 0, edges: 0 } };
   const written = writeStation(ctx, req, (tx, row) => {
     const current = loadDocument(tx, row);
     // the rows that read are merged even when others did not, so one answer names every problem
@@ -108,7 +110,7 @@ export function importStationCsv(ctx: DbContext, req: WriteRequest, files: CsvFi
         .set({ armsJson: JSON.stringify(merged.doc.arms) })
         .where(eq(stations.id, row.id))
         .run();
-    const counts = { added: merged.added, updated: merged.updated };
+    counts = { added: merged.added, updated: merged.updated };
     return {
       action: 'station.import-csv',
       target: [files.nodes?.name, files.edges?.name, files.arms?.name].filter(Boolean).join(', '),
@@ -119,7 +121,7 @@ export function importStationCsv(ctx: DbContext, req: WriteRequest, files: CsvFi
       change: changeSince(tx, row.id, current),
     };
   });
-  if (isDryRun(written)) return written;
+  if (isDryRun(written)) return { ...written, ...counts };
   const station = getStation(ctx.db, req.stationId);
   return { station, counts: station.counts, added: written.added, updated: written.updated };
 }

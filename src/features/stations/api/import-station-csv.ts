@@ -16,10 +16,14 @@ export interface CsvImportVariables {
   version: number;
 }
 
-export interface CsvImportResult {
-  station: { id: number; name: string; version: number };
+/** How many nodes and edges a merge adds and changes (upserts by key, edges by ends and kind). */
+export interface CsvMergeCounts {
   added: { nodes: number; edges: number };
   updated: { nodes: number; edges: number };
+}
+
+export interface CsvImportResult extends CsvMergeCounts {
+  station: { id: number; name: string; version: number };
   affectedPlans?: AffectedPlan[];
 }
 
@@ -41,7 +45,7 @@ export function importStationCsv(variables: CsvImportVariables): Promise<CsvImpo
 /** The files checked against the model, nothing written: every problem at once (a 400), or the reviewed plans it touches. */
 export function previewStationCsv(
   variables: CsvImportVariables,
-): Promise<{ dryRun: true; version: number; affectedPlans: AffectedPlan[] }> {
+): Promise<{ dryRun: true; version: number; affectedPlans: AffectedPlan[] } & CsvMergeCounts> {
   return api.post(`/stations/${variables.stationId}/import-csv?dryRun=1`, csvForm(variables));
 }
 

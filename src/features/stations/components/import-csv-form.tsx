@@ -6,7 +6,12 @@ import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
 import { Input } from '@/components/ui/input';
-import { previewStationCsv, useImportStationCsv, type CsvFiles } from '../api/import-station-csv';
+import {
+  previewStationCsv,
+  useImportStationCsv,
+  type CsvFiles,
+  type CsvMergeCounts,
+} from '../api/import-station-csv';
 import { ImportProblems } from './import-station-form';
 
 const FIELDS = [
@@ -26,7 +31,7 @@ const FIELDS = [
  */
 export function ImportCsvForm({ station }: { station: { id: number; name: string; version: number } }) {
   const [files, setFiles] = useState<CsvFiles>({});
-  const [checked, setChecked] = useState<{ affectedPlans: AffectedPlan[] } | null>(null);
+  const [checked, setChecked] = useState<({ affectedPlans: AffectedPlan[] } & CsvMergeCounts) | null>(null);
   const preview = useMutation({ mutationFn: previewStationCsv });
   const write = useImportStationCsv();
   const chosen = Object.values(files).some(Boolean);
@@ -47,7 +52,7 @@ export function ImportCsvForm({ station }: { station: { id: number; name: string
       onSubmit={(e) => {
         e.preventDefault();
         reset();
-        preview.mutate(variables, { onSuccess: (r) => setChecked({ affectedPlans: r.affectedPlans }) });
+        preview.mutate(variables, { onSuccess: setChecked });
       }}
     >
       {FIELDS.map(({ field, label, hint }) => (
@@ -65,6 +70,11 @@ export function ImportCsvForm({ station }: { station: { id: number; name: string
         </Field>
       ))}
       <ImportProblems error={preview.error ?? write.error} />
+      {checked && (
+        <p data-testid="csv-check-counts" className="text-sm">
+          The import {mergeSummary(checked, false)}
+        </p>
+      )}
       {checked &&
         (checked.affectedPlans.length ? (
           <AffectedPlansPrompt
@@ -89,10 +99,7 @@ export function ImportCsvForm({ station }: { station: { id: number; name: string
           tone="success"
           title={`Imported into ${write.data.station.name}: version ${write.data.station.version}`}
         >
-          <p data-testid="csv-import-counts">
-            Nodes: {write.data.added.nodes} added, {write.data.updated.nodes} changed. Edges:{' '}
-            {write.data.added.edges} added, {write.data.updated.edges} changed.
-          </p>
+          <p data-testid="csv-import-counts">Written: {mergeSummary(write.data, true)}</p>
         </Alert>
       )}
       {!checked && (
@@ -102,4 +109,12 @@ export function ImportCsvForm({ station }: { station: { id: number; name: string
       )}
     </form>
   );
+}
+
+/** "adds 2 nodes and changes 1; adds 1 edge and changes 0." (once written, "added … changed …") */
+function mergeSummary({ added, updated }: CsvMergeCounts, written: boolean) {
+  const [add, change] = written ? ['added', 'changed'] : ['adds', 'changes'];
+  const part = (one: string, a: number, c: number) =>
+    `${add} ${a} ${a === 1 ? one : `${one}s`} and ${change} ${c}`;
+  return `${part('node', added.nodes, updated.nodes)}; ${part('edge', added.edges, updated.edges)}.`;
 }
