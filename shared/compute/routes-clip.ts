@@ -1649,9 +1649,19 @@ function searchClips(
         }
       }
     }
-    for (let e = o[a], end = o[a + 1]; e < end; e++) {
-      const time = f * sec[e];
-      offer(tg[e], a, lex ? swapped : swapped + time, lex ? c2 + time : 0);
+    if (lex) {
+      for (let e = o[a], end = o[a + 1]; e < end; e++) {
+        const time = f * sec[e];
+        offer(tg[e], a, swapped, c2 + time);
+      }
+    } else {
+      // the one key: a slot already reached as cheaply is passed over here, the rest offered
+      for (let e = o[a], end = o[a + 1]; e < end; e++) {
+        const b = tg[e];
+        const c = swapped + f * sec[e];
+        if (seen[b] === stamp && cost1[b] <= c) continue;
+        offer(b, a, c, 0);
+      }
     }
     if (withExtras && q.toExtraStamp[a] === stamp) {
       for (let x = q.toExtraHead[a]; x !== -1; x = q.toExtraNext[x]) {
