@@ -46,8 +46,13 @@ async function copyOfKestrel(api: APIRequestContext, name: string): Promise<Stat
   return ((await res.json()) as { station: StationSummary }).station;
 }
 
-/** Pixels of the 3D canvas as RGBA bytes (the scene keeps its drawing buffer). */
-async function canvasPixels(page: Page): Promise<number[]> {
+/**
+ * What the 3D canvas shows (the scene keeps its drawing buffer), counted in the page: how many
+ * distinct colours, and how many pixels of the new-socket glyph's orange hue (about 27°), which
+ * nothing in the model itself uses. Only the counts cross to the test: the pixels themselves are
+ * megabytes of JSON.
+ */
+async function canvasColours(page: Page): Promise<{ distinct: number; orange: number }> {
   return page
     .getByTestId('station-scene')
     .locator('canvas')
@@ -58,29 +63,21 @@ async function canvasPixels(page: Page): Promise<number[]> {
       off.height = canvas.height;
       const ctx = off.getContext('2d')!;
       ctx.drawImage(canvas, 0, 0, off.width, off.height);
-      return Array.from(ctx.getImageData(0, 0, off.width, off.height).data);
+      const px = ctx.getImageData(0, 0, off.width, off.height).data;
+      const seen = new Set<number>();
+      let orange = 0;
+      for (let i = 0; i < px.length; i += 4) {
+        const [r, g, b] = [px[i], px[i + 1], px[i + 2]];
+        seen.add((r << 16) | (g << 8) | b);
+        const max = Math.max(r, g, b);
+        const min = Math.min(r, g, b);
+        if (max < 110 || max - min < 0.5 * max || max !== r) continue;
+        const hue = (60 * (g - b)) / (max - min);
+        if (hue >= 15 && hue <= 45) orange++;
+      }
+      return { distinct: seen.size, orange };
     });
 }
-
-const distinctColours = (px: number[]) => {
-  const seen = new Set<number>();
-  for (let i = 0; i < px.length; i += 4) seen.add((px[i] << 16) | (px[i + 1] << 8) | px[i + 2]);
-  return seen.size;
-};
-
-/** Pixels of the new-socket glyph's orange hue (about 27°), which nothing in the model itself uses. */
-const orangePixels = (px: number[]) => {
-  let n = 0;
-  for (let i = 0; i < px.length; i += 4) {
-    const [r, g, b] = [px[i], px[i + 1], px[i + 2]];
-    const max = Math.max(r, g, b);
-    const min = Math.min(r, g, b);
-    if (max < 110 || max - min < 0.5 * max || max !== r) continue;
-    const hue = (60 * (g - b)) / (max - min);
-    if (hue >= 15 && hue <= 45) n++;
-  }
-  return n;
-};
 
 describe('socket planner', () => {
   it('lets an engineer plan new sockets for three worksites on a grid, see the envelopes, accept them and find them on the station', async () => {
@@ -93,8 +90,8 @@ describe('socket planner', () => {
     const scene = page.getByTestId('station-scene');
     await scene.locator('canvas').waitFor();
     await sceneSettled(page);
-    const before = await canvasPixels(page);
-    expect(distinctColours(before), 'the model is drawn').toBeGreaterThan(20);
+    const before = await canvasColours(page);
+    expect(before.distinct, 'the model is drawn').toBeGreaterThan(20);
 
     for (const key of WORKSITES) await page.getByRole('checkbox', { name: new RegExp(`^${key}\\b`) }).check();
     // new sockets only: leave the existing ones out and plan on a 1 m grid over the truss faces
@@ -118,18 +115,18 @@ describe('socket planner', () => {
     }
     await sceneSettled(page, framesBeforePlan);
     await session.screenshot('socket-planner-result');
-    const after = await canvasPixels(page);
-    expect(distinctColours(after)).toBeGreaterThan(20);
+    const after = await canvasColours(page);
+    expect(after.distinct).toBeGreaterThan(20);
     // framed on one new socket, its glyph and envelope fill part of the view
     const framesBeforeFraming = await framesDrawn(scene);
     await result.getByRole('button', { name: 'Show New 1' }).click();
     await sceneSettled(page, framesBeforeFraming);
     await session.screenshot('socket-planner-framed');
-    const framed = await canvasPixels(page);
+    const framed = await canvasColours(page);
     console.info(
-      `orange pixels before ${orangePixels(before)}, whole plan ${orangePixels(after)}, framed ${orangePixels(framed)}`,
+      `orange pixels before ${before.orange}, whole plan ${after.orange}, framed ${framed.orange}`,
     );
-    expect(orangePixels(framed), 'the new-socket glyph is drawn').toBeGreaterThan(orangePixels(before) + 100);
+    expect(framed.orange, 'the new-socket glyph is drawn').toBeGreaterThan(before.orange + 100);
     await result.getByRole('button', { name: 'Show all' }).click();
     await page.getByRole('img', { name: 'Restraint yaw and pitch' }).waitFor();
     await page.getByLabel('Planning caution').first().waitFor();
