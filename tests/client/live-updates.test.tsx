@@ -6,7 +6,15 @@ import { staleKeysOf } from '@/app/live-keys';
 import { LiveUpdates } from '@/features/live/live-updates';
 import { useFlownEstimates } from '@/features/plans/api/get-flown-estimates';
 import { TaskForm } from '@/features/plans/components/task-form';
+import { getPlanQueryOptions } from '@/features/plans/api/get-plan';
+import { usePlanTimeline } from '@/features/plans/api/get-plan-timeline';
+import { planKeys } from '@/features/plans/api/keys';
+import type { PlanView } from '@/features/plans/types';
+import { createQueryClient } from '@/lib/query-client';
+import { toWire } from '@shared/compute/day/wire';
+import { LINE_KEYS } from '../factories/day';
 import { buildParsedTask } from '../factories/plan';
+import { buildPlanTimeline, buildPlanView } from '../factories/plan-view';
 import { renderWithQueryClient } from '../setup/client';
 
 /** Stands in for the server's `GET /api/events` stream: the test says what arrives on it. */
@@ -100,5 +108,92 @@ describe('the live stream keeps what is on screen current', () => {
       expect(screen.getByTestId('flown-estimate').textContent).toMatch(/Flown here: 41 min/),
     );
     expect(asked[`/stations/${STATION}/flown-estimates`]).toBe(2);
+  });
+});
+
+/**
+ * Stands in for the plan API on a loaded server: each request reads the plan as it arrives, and
+ * those that came before `answerAll` are answered then, in the order they came.
+ */
+function slowPlanServer(plan: PlanView) {
+  let current = plan;
+  let holding = true;
+  const held: (() => void)[] = [];
+  const asked = { plan: 0, timeline: 0 };
+  vi.stubGlobal(
+    'fetch',
+    vi.fn(async (url: string) => {
+      const read = current;
+      const timeline = url.endsWith('/timeline');
+      asked[timeline ? 'timeline' : 'plan']++;
+      if (holding) await new Promise<void>((release) => held.push(release));
+      return Response.json(timeline ? toWire(buildPlanTimeline(read)) : read);
+    }),
+  );
+  return {
+    asked,
+    /** someone saves the plan: later requests read this */
+    save: (next: PlanView) => (current = next),
+    answerAll: () => {
+      holding = false;
+      for (const release of held.splice(0)) release();
+    },
+  };
+}
+
+const dayTasks = [buildParsedTask({ title: 'Inspect hinge', worksite: LINE_KEYS.w3, durationSeconds: 2700 })];
+const added = buildParsedTask({
+  title: 'Route cable',
+  worksite: LINE_KEYS.w1,
+  crew: 'EV2',
+  durationSeconds: 3600,
+});
+
+function DayVersion({ planId }: { planId: number }) {
+  const day = usePlanTimeline(planId);
+  if (!day.data) return <p>Computing</p>;
+  return (
+    <p>
+      Day of version {day.data.planVersion}, {day.data.crew.EV2.blocks.length} EV2 blocks
+    </p>
+  );
+}
+
+describe('a change while a first load is on its way', () => {
+  it("shows the plan's day with a task added before the day's first answer came", async () => {
+    const before = buildPlanView(dayTasks);
+    const after = buildPlanView([...dayTasks, added], { version: before.version + 1 });
+    const blocks = (plan: PlanView) => buildPlanTimeline(plan).crew.EV2.blocks.length;
+    expect(blocks(after)).toBeGreaterThan(blocks(before));
+    const server = slowPlanServer(before);
+    renderWithQueryClient(
+      <LiveUpdates staleKeysOf={staleKeysOf}>
+        <DayVersion planId={before.id} />
+      </LiveUpdates>,
+    );
+    await waitFor(() => expect(server.asked.timeline).toBe(1));
+    // the day on its way was read before the save, so it cannot stand for the change
+    server.save(after);
+    StreamStandIn.send('change', {
+      kind: 'plan',
+      id: before.id,
+      version: after.version,
+    } satisfies ChangeEvent);
+    server.answerAll();
+    await screen.findByText(`Day of version ${after.version}, ${blocks(after)} EV2 blocks`);
+    expect(server.asked.timeline).toBe(2);
+  });
+
+  it('gives a route loader waiting on a first load the plan as saved after it was asked', async () => {
+    const before = buildPlanView(dayTasks);
+    const server = slowPlanServer(before);
+    const queryClient = createQueryClient();
+    const loaded = queryClient.ensureQueryData(getPlanQueryOptions(before.id));
+    await waitFor(() => expect(server.asked.plan).toBe(1));
+    server.save({ ...before, title: 'Renamed', version: before.version + 1 });
+    void queryClient.invalidateQueries({ queryKey: planKeys.detail(before.id) });
+    server.answerAll();
+    expect(await loaded).toMatchObject({ title: 'Renamed', version: before.version + 1 });
+    expect(server.asked.plan).toBe(2);
   });
 });

@@ -2,18 +2,14 @@ import { describe, expect, it } from 'vitest';
 import { act, render, screen } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import fc from 'fast-check';
-import { computeTimeline } from '@shared/compute/day/timeline';
 import type { Task } from '@shared/schemas/plan';
 import { TimelineChart } from '@/features/plans/components/timeline-chart';
 import { describeDifferences, draftChanges, draftFromPlan, moveItem } from '@/features/plans/lib/plan-draft';
-import type { PlanTimeline, PlanView } from '@/features/plans/types';
-import { LINE_KEYS, dayEngine, lineStationDocument } from '../factories/day';
-import { buildPlanView } from '../factories/plan-view';
+import type { PlanView } from '@/features/plans/types';
+import { LINE_KEYS } from '../factories/day';
+import { buildPlanTimeline as planTimeline, buildPlanView } from '../factories/plan-view';
 import { buildParsedTask } from '../factories/plan';
 import { renderTasksEditor } from '../setup/client';
-
-// the real day on the line station (10 s a metre, 12 m default tether), see tests/factories/day.ts
-const engine = dayEngine(lineStationDocument());
 
 const tasks: Task[] = [
   buildParsedTask({
@@ -29,23 +25,6 @@ const tasks: Task[] = [
 
 function planView(overrides: Partial<PlanView> = {}): PlanView {
   return buildPlanView(tasks, overrides);
-}
-
-function planTimeline(plan: PlanView): PlanTimeline {
-  const timeline = computeTimeline(
-    { ...plan, manifest: plan.manifest.map((m, i) => ({ ...m, key: m.key ?? `item-${i + 1}` })) },
-    engine.station,
-    engine.route,
-  );
-  return {
-    ...timeline,
-    planId: plan.id,
-    planVersion: plan.version,
-    stationId: 1,
-    stationVersion: 1,
-    airlockKey: LINE_KEYS.airlock,
-    caution: '',
-  };
 }
 
 describe('plan draft helpers', () => {

@@ -1,5 +1,7 @@
+import { computeTimeline } from '@shared/compute/day/timeline';
 import { CreatePlanInputSchema, type Task } from '@shared/schemas/plan';
-import type { PlanView } from '@shared/schemas/plan-views';
+import type { PlanTimeline, PlanView } from '@shared/schemas/plan-views';
+import { LINE_KEYS, dayEngine, lineStationDocument } from './day';
 
 /**
  * A draft plan as `GET /api/plans/:id` answers it (id 7, version 3, written by Priya) on station 1,
@@ -27,5 +29,27 @@ export function buildPlanView(tasks: Task[] = [], overrides: Partial<PlanView> =
     approverName: null,
     editors: [{ id: 1, name: 'Priya' }],
     ...overrides,
+  };
+}
+
+// the real day on the line station (10 s a metre, 12 m default tether), see tests/factories/day.ts
+let engine: ReturnType<typeof dayEngine> | undefined;
+
+/** The plan's day as `GET /api/plans/:id/timeline` answers it, computed on the line station. */
+export function buildPlanTimeline(plan: PlanView): PlanTimeline {
+  engine ??= dayEngine(lineStationDocument());
+  const timeline = computeTimeline(
+    { ...plan, manifest: plan.manifest.map((m, i) => ({ ...m, key: m.key ?? `item-${i + 1}` })) },
+    engine.station,
+    engine.route,
+  );
+  return {
+    ...timeline,
+    planId: plan.id,
+    planVersion: plan.version,
+    stationId: 1,
+    stationVersion: 1,
+    airlockKey: LINE_KEYS.airlock,
+    caution: '',
   };
 }
