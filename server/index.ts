@@ -1,8 +1,13 @@
 import { createApp } from './app';
+import { warmLargeStations } from './modules/compute/compute.service';
 
 const { app, ctx, close } = await createApp();
 const server = app.listen(ctx.config.port, () => {
   ctx.logger.info(`Tetherwise is serving on http://localhost:${ctx.config.port}`);
+  // the first plan's day on a large station should not wait for its clip graph
+  warmLargeStations(ctx).catch((err: unknown) =>
+    ctx.logger.warn({ err }, 'clip graphs of the large stations were not warmed at start'),
+  );
 });
 
 let stopping = false;

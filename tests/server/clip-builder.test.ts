@@ -12,7 +12,9 @@ import {
   type ClipBuildEvent,
 } from '../../server/modules/compute/clip-builder';
 import { getCompiledStation } from '../../server/modules/compute/compiled-cache';
+import { warmLargeStations } from '../../server/modules/compute/compute.service';
 import { makeTestApp } from '../setup/test-app';
+import { importStation } from '../setup/stations';
 
 // A 3,000-node truss stands in for a large station: the inline limit is lowered below it.
 const doc = generateTrussStation({ nodes: 3000, seed: 11 });
@@ -137,6 +139,46 @@ describe('the routes endpoint on a station above the inline limit', () => {
         expect(again.status).toBe(200);
         expect(again.body.swapCount).toBe(first.body.swapCount);
         expect(again.body.totalSeconds).toBeCloseTo(first.body.totalSeconds, 6);
+      } finally {
+        await app.close();
+      }
+    });
+  }
+});
+
+describe('clip graphs warmed at start', () => {
+  // above the inline limit these tests set, small enough to import and build in a moment
+  const small = generateTrussStation({ nodes: 600, seed: 5 });
+
+  it('leaves a station small enough to build its clip graph during a query alone', async () => {
+    const app = await makeTestApp({ seedDemo: true, routeWorkers: 0 });
+    try {
+      expect(await warmLargeStations(app.ctx)).toBeNull();
+    } finally {
+      await app.close();
+    }
+  });
+
+  for (const routeWorkers of [0, 1]) {
+    it(`builds a large station's clip graph before its first query, where its routes are answered (${routeWorkers ? 'worker pool' : 'main thread'})`, async () => {
+      // the demo seed computes routes (its walkthroughs), which would start a build of their own
+      const app = await makeTestApp({ routeWorkers, routeClipInlineNodes: 100 });
+      try {
+        const stationId = (await importStation(await app.agent('engineer'), small)).id;
+        expect(await warmLargeStations(app.ctx)).toBe(stationId);
+        const built = async () =>
+          routeWorkers
+            ? app.ctx.routePool!.stats().some((s) => s.clipBuilds > 0)
+            : (await clipBuildsSettled(), true);
+        for (let i = 0; i < 200 && !(await built()); i++) await new Promise((r) => setTimeout(r, 50));
+        expect(await built()).toBe(true);
+        if (routeWorkers) expect(app.ctx.routePool!.stats()[0]).toMatchObject({ compiles: 1, answered: 1 });
+        else {
+          const { compiled, doc } = getCompiledStation(app.ctx, stationId);
+          expect(hasClipGraph(compiled.arcSeconds, doc.settings.tetherLengthM, excludeMaskFor(false))).toBe(
+            true,
+          );
+        }
       } finally {
         await app.close();
       }

@@ -63,21 +63,34 @@ export function routeOffPath(
   doc: StationDocument,
   request: RouteRequest,
 ): RouteResult {
+  buildFor(compiled, doc, request);
+  return findRoute(compiled, doc.settings, request, { clipBuildFreeNodes: builds.inlineNodes });
+}
+
+/**
+ * Before any query: the clip graph most plans' days on this station search (the station's tether,
+ * arm rides not allowed), built in a builder thread when the station is too large to build it
+ * during a query and this thread has none. Whether a build started (not when one is running).
+ */
+export function warmClipGraph(compiled: CompiledStation, doc: StationDocument): boolean {
+  return buildFor(compiled, doc, { from: '', to: '', mode: 'balanced' });
+}
+
+/** Starts a builder thread for the clip graph `request` would use, when `auto` lacks it and none runs. */
+function buildFor(compiled: CompiledStation, doc: StationDocument, request: RouteRequest): boolean {
   const options: FindRouteOptions = { clipBuildFreeNodes: builds.inlineNodes };
   const want = wantsClipGraph(compiled, doc.settings, request, options);
   // a clip graph is filed under the compiled station's own arc times: other settings get none
-  if (want && want.weights === compiled.arcSeconds && builds.running.size === 0) {
-    const key = `${want.tetherLengthM}|${want.excludeMask}`;
-    let keys = pending.get(compiled);
-    if (!keys) pending.set(compiled, (keys = new Set()));
-    if (!keys.has(key)) {
-      keys.add(key);
-      startBuild(compiled, { doc, tetherLengthM: want.tetherLengthM, excludeMask: want.excludeMask }, () =>
-        keys.delete(key),
-      );
-    }
-  }
-  return findRoute(compiled, doc.settings, request, options);
+  if (!want || want.weights !== compiled.arcSeconds || builds.running.size > 0) return false;
+  const key = `${want.tetherLengthM}|${want.excludeMask}`;
+  let keys = pending.get(compiled);
+  if (!keys) pending.set(compiled, (keys = new Set()));
+  if (keys.has(key)) return false;
+  keys.add(key);
+  startBuild(compiled, { doc, tetherLengthM: want.tetherLengthM, excludeMask: want.excludeMask }, () =>
+    keys.delete(key),
+  );
+  return true;
 }
 
 function startBuild(compiled: CompiledStation, job: ClipBuildJob, done: () => void): void {

@@ -1,7 +1,7 @@
-import { and, asc, count, eq, inArray, max } from 'drizzle-orm';
+import { and, asc, count, desc, eq, gt, inArray, max } from 'drizzle-orm';
 import type { AppContext } from '../../context';
 import type { Db } from '../../db/client';
-import { edges, nodes, segments } from '../../db/schema';
+import { edges, nodes, segments, stations } from '../../db/schema';
 import { HttpError, badRequest } from '../../lib/http-error';
 import { JsonText } from '../../lib/route';
 import { reachCheck } from '@shared/compute/reach';
@@ -48,7 +48,7 @@ import {
 } from '../stations/stations.service';
 import { socketNameFor } from '@shared/compute/socket-names';
 import { clipGraphHeld, routeRequestProblems } from '@shared/compute/routes';
-import { routeMatrixOn, routeOffPath } from './clip-builder';
+import { routeMatrixOn, routeOffPath, warmClipGraph } from './clip-builder';
 import { getCompiledStation, type CompiledEntry } from './compiled-cache';
 import type { OrbitQuery } from './compute.schemas';
 
@@ -136,6 +136,36 @@ export function computeRoute(
   return ctx.routePool
     .route({ station, version: entry.version, doc: entry.doc, request })
     .then((json) => new JsonText(json));
+}
+
+/**
+ * At start, the clip graph of the most recently changed station too large to build one during a
+ * query, built in the background on the thread that will answer its routes and days (a builder
+ * thread builds one at a time; other large stations are built on their first query, as after any
+ * change). Without it the first plan's day on that station runs on the label search. The id of the
+ * station whose build started, or null.
+ */
+export async function warmLargeStations(ctx: AppContext): Promise<number | null> {
+  const large = ctx.db
+    .select({ id: nodes.stationId })
+    .from(nodes)
+    .innerJoin(stations, eq(stations.id, nodes.stationId))
+    .groupBy(nodes.stationId)
+    .having(gt(count(), ctx.config.routeClipInlineNodes))
+    .orderBy(desc(stations.updatedAt), desc(stations.id))
+    .all();
+  for (const { id } of large) {
+    const entry = getCompiledStation(ctx, id);
+    const started = ctx.routePool
+      ? await ctx.routePool.warm({
+          station: `${ctx.config.databaseUrl}#${id}`,
+          version: entry.version,
+          doc: entry.doc,
+        })
+      : warmClipGraph(entry.compiled, entry.doc);
+    if (started) return id;
+  }
+  return null;
 }
 
 /**

@@ -46,7 +46,12 @@ export interface MatrixJob extends StationJob {
 /** A plan's day on the station: its timeline as JSON text, or an export (CSV text, PDF bytes). */
 export interface DayJob extends StationJob, DayWork {}
 
-type Job = RouteJob | MatrixJob | DayJob;
+/** No query: the worker compiles the station and starts building its clip graph (see warmClipGraph). */
+export interface WarmJob extends StationJob {
+  warm: true;
+}
+
+type Job = RouteJob | MatrixJob | DayJob | WarmJob;
 
 export interface RoutePoolOptions {
   size: number;
@@ -177,6 +182,12 @@ export class RoutePool {
     return this.run(job);
   }
 
+  /** Compiles the station in a worker and starts its clip graph's build there; whether one started. */
+  async warm(job: StationJob): Promise<boolean> {
+    const result = await this.run({ ...job, warm: true });
+    return 'text' in result && (JSON.parse(result.text) as { started: boolean }).started;
+  }
+
   private async run(job: Job): Promise<{ text: string } | { bytes: Uint8Array }> {
     if (this.closing) throw unavailable('The server is shutting down.');
     if (!this.started) {
@@ -239,16 +250,18 @@ export class RoutePool {
         ? { request: job.request }
         : 'matrix' in job
           ? { matrix: job.matrix }
-          : {
-              day: {
-                plan: job.plan,
-                output: job.output,
-                start: job.start,
-                extra: job.extra,
-                ...(job.run ? { run: job.run } : {}),
-                ...(job.sequence ? { sequence: job.sequence } : {}),
-              },
-            }),
+          : 'warm' in job
+            ? { warm: true as const }
+            : {
+                day: {
+                  plan: job.plan,
+                  output: job.output,
+                  start: job.start,
+                  extra: job.extra,
+                  ...(job.run ? { run: job.run } : {}),
+                  ...(job.sequence ? { sequence: job.sequence } : {}),
+                },
+              }),
     };
     if (withDocument) msg.doc = job.doc;
     slot.held.delete(job.station);

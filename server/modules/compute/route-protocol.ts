@@ -38,7 +38,8 @@ export interface DayWork {
 }
 
 /**
- * Main thread → worker: one route query (`request`), a route matrix (`matrix`) or one plan's day (`day`). `station` names the
+ * Main thread → worker: one route query (`request`), a route matrix (`matrix`), one plan's day (`day`)
+ * or a warm-up (`warm`). `station` names the
  * station within one database (`<database>#<id>`); `doc` is sent only when the main thread believes
  * the worker does not hold `version` yet.
  */
@@ -51,6 +52,8 @@ export interface RouteMessage {
   /** every route between the nodes: a RouteMatrix */
   matrix?: RouteMatrixRequest;
   day?: DayWork;
+  /** no query: compile the station and start building its clip graph (see warmClipGraph) */
+  warm?: true;
 }
 
 /** Worker → main thread. */

@@ -4,7 +4,7 @@ import { parentPort, workerData } from 'node:worker_threads';
 import { compileStation, type CompiledStation } from '@shared/compute/compiled-station';
 import type { StationDocument } from '@shared/schemas/station';
 import { clipMemory, setClipMemoryBudget } from '@shared/compute/routes-clip';
-import { configureClipBuilds, routeMatrixOn, routeOffPath } from './clip-builder';
+import { configureClipBuilds, routeMatrixOn, routeOffPath, warmClipGraph } from './clip-builder';
 import { HttpError } from '../../lib/http-error';
 import { dayOutputOn } from '../plans/plan-day';
 import { WORKER_STATIONS, type RouteMessage, type RouteWorkerData, type WorkerReply } from './route-protocol';
@@ -37,6 +37,10 @@ async function answer(msg: RouteMessage): Promise<WorkerReply> {
   held.delete(msg.station);
   held.set(msg.station, entry);
   while (held.size > WORKER_STATIONS) held.delete(held.keys().next().value!);
+  if (msg.warm) {
+    const started = warmClipGraph(entry.compiled, entry.doc);
+    return { kind: 'result', id: msg.id, json: JSON.stringify({ started }), compiled, clip: clipMemory() };
+  }
   if (msg.day) {
     const out = await dayOutputOn(entry, msg.day.plan, msg.day.output, msg.day.start, msg.day.extra, {
       run: msg.day.run,
