@@ -1,8 +1,14 @@
 import fs from 'node:fs';
-import os from 'node:os';
 import path from 'node:path';
-import { chromium, type BrowserContext, type ConsoleMessage, type Locator, type Page } from 'playwright-core';
-import { afterEach, beforeEach, expect, inject } from 'vitest';
+import {
+  chromium,
+  type Browser,
+  type BrowserContext,
+  type ConsoleMessage,
+  type Locator,
+  type Page,
+} from 'playwright-core';
+import { afterAll, afterEach, beforeEach, expect, inject } from 'vitest';
 
 const root = path.resolve(import.meta.dirname, '../..');
 /** Screenshots of each run land here (not tracked); screenshots/ holds the ones kept as evidence. */
@@ -58,17 +64,27 @@ function isExpectedHttpError(message: ConsoleMessage, expected: ExpectedHttpErro
   );
 }
 
+/**
+ * One Chromium per test file, started on the first session it asks for; every session is a fresh
+ * context of it (its own cookies, storage and cache), which opens in milliseconds where a new
+ * browser takes seconds. Registered here, at the import by the test file, so it closes with the file.
+ */
+let browser: Promise<Browser> | undefined;
+afterAll(async () => {
+  const started = browser;
+  browser = undefined;
+  if (started) await (await started).close();
+});
+
 export async function openBrowser(): Promise<BrowserSession> {
   const baseURL = inject('baseURL');
-  const profileDir = fs.mkdtempSync(path.join(os.tmpdir(), 'tetherwise-chromium-'));
-  const context = await chromium.launchPersistentContext(profileDir, {
+  browser ??= chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
     headless: true,
     args: CHROMIUM_ARGS,
-    viewport: { width: 1360, height: 860 },
-    baseURL,
   });
-  const page = context.pages()[0] ?? (await context.newPage());
+  const context = await (await browser).newContext({ viewport: { width: 1360, height: 860 }, baseURL });
+  const page = await context.newPage();
   const errors: string[] = [];
   const expected = [...APP_HTTP_ANSWERS];
   page.on('console', (message) => {
@@ -93,10 +109,7 @@ export async function openBrowser(): Promise<BrowserSession> {
       await page.screenshot({ path: file, fullPage: true });
       return file;
     },
-    close: async () => {
-      await context.close();
-      fs.rmSync(profileDir, { recursive: true, force: true });
-    },
+    close: () => context.close(),
   };
 }
 
@@ -121,14 +134,16 @@ export function openBrowserPerTest(assign: (session: BrowserSession) => void) {
   });
 }
 
-/** Signs in through the sign-in form as `<role>@example.org` and waits for Home. */
+/**
+ * Signs the session in as `<role>@example.org` through the sign-in endpoint: the session cookie lands
+ * in the browser context, and the page stays where it was (a fresh session: blank), so the test opens
+ * the screen it needs with one page load. The sign-in form itself has its own browser test.
+ */
 export async function signInAs(session: BrowserSession, role: string) {
-  const { page } = session;
-  await session.goto('/sign-in');
-  await page.getByLabel('E-mail').fill(`${role}@example.org`);
-  await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.getByRole('heading', { level: 1, name: /^Welcome, / }).waitFor();
+  const res = await session.context.request.post('/api/auth/sign-in', {
+    data: { email: `${role}@example.org`, password: DEMO_PASSWORD },
+  });
+  expect(res.status(), `sign-in as ${role}`).toBe(200);
 }
 
 /** How many frames the 3D scene in `scene` has drawn (the counter it keeps in `data-frames`). */

@@ -66,7 +66,7 @@ async function litPixels(): Promise<{ lit: number; total: number }> {
 
 async function openKestrel(): Promise<StationGraph> {
   const { page } = session;
-  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Stations' }).click();
+  await session.goto('/stations');
   await page.getByRole('heading', { level: 1, name: 'Stations' }).waitFor();
   await page
     .getByRole('table', { name: 'Stations' })
@@ -266,7 +266,7 @@ describe('station view: 3D model, selection, layers, tables and import', () => {
     const bad = path.join(dir, 'bad.station.json');
     fs.writeFileSync(bad, JSON.stringify(badDoc));
 
-    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Stations' }).click();
+    await session.goto('/stations');
     await page.getByRole('heading', { level: 1, name: 'Stations' }).waitFor();
     await page.getByRole('button', { name: 'Import a station' }).click();
     const dialog = page.getByRole('dialog', { name: 'Import a station' });

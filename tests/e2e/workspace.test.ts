@@ -48,7 +48,7 @@ describe('3D workspaces fill the window', () => {
     await page.setViewportSize({ width: 1024, height: 768 });
     await signInAs(session, 'trainer');
     // a dialog opens with the focus in its first field, ready to type
-    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Walkthroughs' }).click();
+    await session.goto('/walkthroughs');
     await page.getByRole('button', { name: 'New walkthrough' }).click();
     const dialog = page.getByRole('dialog', { name: 'New walkthrough' });
     await expect
