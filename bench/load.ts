@@ -4,8 +4,10 @@
 // then on the other; a 60 s soak on the one configured as the default; then the heaviest valid
 // requests (a socket plan over 20,000 sockets, a 10,000-row CSV import, a 100k-node import) one at a
 // time on each, with /api/health sampled meanwhile (the main-thread server keeps imports and socket
-// plans on its main thread too). Bounded: each run has a fixed duration or is one request; the whole
-// thing stops itself in about six minutes (LOAD_*_SECONDS shorten the timed runs).
+// plans on its main thread too); and on the default server, 200 live streams open while a fixed batch
+// of routes runs, beside the same batch with none (bench/streams.ts). Bounded: each run has a fixed
+// duration or a fixed count; the whole thing stops itself in about nine minutes (LOAD_*_SECONDS
+// shorten the timed runs; LOAD_ONLY=streams measures only the streams, on the default server).
 import fs from 'node:fs';
 import os from 'node:os';
 import autocannon from 'autocannon';
@@ -16,6 +18,7 @@ import { bigStation } from '../tests/factories/big-station';
 import { DEMO_PASSWORD } from '../server/db/seed/demo-users';
 import { signIn, startLoopbackServer, type Server } from './serve';
 import { multipartBody, sampleHealthWhile, send, type HealthSample } from '../tests/setup/loopback';
+import { measureStreams, printStreams } from './streams';
 
 const RUN_SECONDS = Number(process.env.LOAD_RUN_SECONDS ?? 10);
 const WARM_SECONDS = Number(process.env.LOAD_WARM_SECONDS ?? 5);
@@ -88,6 +91,8 @@ interface Target {
   soak(): Promise<autocannon.Result>;
   /** the heaviest valid requests, one at a time, with /api/health sampled meanwhile */
   heavy(): Promise<HeavyRow[]>;
+  /** routes on the 10k station with live streams open and without */
+  streams(): ReturnType<typeof measureStreams>;
 }
 
 interface HeavyRow {
@@ -309,6 +314,7 @@ async function prepare(routeWorkers: number): Promise<Target> {
       scenarios,
       soak: () => cannon({ ...routeOpts(bigId, bigBodies), duration: SOAK_SECONDS }),
       heavy: () => heavyOn(base, viewer, engineer, planner),
+      streams: () => measureStreams(server, `${base}/api/stations/${bigId}/routes`, bigBodies),
     };
   } catch (err) {
     await server.stop();
@@ -419,6 +425,15 @@ function printHeavy(main: Measured, pool: Measured) {
   });
 }
 
+async function streamsOnly() {
+  const target = await prepare(defaultRouteWorkers());
+  try {
+    printStreams(await target.streams());
+  } finally {
+    await target.server.stop();
+  }
+}
+
 async function main() {
   const started = performance.now();
   const defaultWorkers = defaultRouteWorkers();
@@ -430,11 +445,14 @@ async function main() {
     for (let i = 0; i < targets[0].scenarios.length; i++) {
       for (const [k, t] of targets.entries()) measured[k].rows.push(...(await t.scenarios[i].run()));
     }
+    const byDefault = targets.find((t) => t.routeWorkers === defaultWorkers) ?? targets[1];
+    const streams = await byDefault.streams();
     for (const [k, t] of targets.entries())
       if (t.routeWorkers === defaultWorkers) measured[k].soak = await soakOn(t);
     for (const [k, t] of targets.entries()) measured[k].heavy = await t.heavy();
     printComparison(measured[0], measured[1]);
     printHeavy(measured[0], measured[1]);
+    printStreams(streams);
     const all = measured.flatMap((m) => [...m.rows, ...(m.soak ? [m.soak.row] : [])]);
     const heavyFailed = measured.flatMap((m) => m.heavy).filter((r) => r.status >= 300);
     const bad = all.some((r) => r.errors > 0) || heavyFailed.length > 0;
@@ -447,4 +465,4 @@ async function main() {
   }
 }
 
-await main();
+await (process.env.LOAD_ONLY === 'streams' ? streamsOnly() : main());

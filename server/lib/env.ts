@@ -145,7 +145,8 @@ export function loadConfig(
     eventRingSize: overrides.eventRingSize ?? 500,
     eventClientBufferBytes: overrides.eventClientBufferBytes ?? 64 * 1024,
     eventMaxStreams: overrides.eventMaxStreams ?? intFromEnv(env.EVENT_MAX_STREAMS, 2000),
-    eventMaxStreamsPerUser: overrides.eventMaxStreamsPerUser ?? 20,
+    eventMaxStreamsPerUser:
+      overrides.eventMaxStreamsPerUser ?? intFromEnv(env.EVENT_MAX_STREAMS_PER_USER, 20),
     logLevel: overrides.logLevel ?? env.LOG_LEVEL ?? 'info',
     clientDir: overrides.clientDir !== undefined ? overrides.clientDir : path.resolve('dist'),
     mailFrom: overrides.mailFrom ?? env.MAIL_FROM ?? 'Tetherwise <no-reply@tetherwise.local>',

@@ -21,7 +21,7 @@ beforeAll(async () => {
     station: { id: stationId },
   } = await makeAppWithStation(undefined, { eventHeartbeatMs: 200 }));
   ({ base, server } = await listenOnLoopback(t.app));
-  for (const who of ['planner', 'planner2', 'viewer', 'engineer'])
+  for (const who of ['planner', 'planner2', 'viewer', 'engineer', 'admin'])
     cookies[who] = await signInCookie(base, who);
 });
 afterAll(async () => {
@@ -172,6 +172,22 @@ describe('the live stream of changes', () => {
       2000,
     );
     expect(JSON.parse(alone.data).viewers[0].role).toBe('planner');
+  });
+
+  it("shows admins the open streams and the server's memory beside the compute stats", async () => {
+    const stats = async () => {
+      const res = await api('admin', 'GET', '/compute/stats');
+      expect(res.status).toBe(200);
+      return (await res.json()) as { events: { clients: number }; memory: { rss: number; heapUsed: number } };
+    };
+    const before = await stats();
+    const s = await stream('viewer');
+    await s.next((m) => m.event === 'hello');
+    const open = await stats();
+    expect(open.events.clients).toBe(before.events.clients + 1);
+    expect(open.memory.heapUsed).toBeGreaterThan(0);
+    expect(open.memory.rss).toBeGreaterThan(open.memory.heapUsed);
+    expect((await api('viewer', 'GET', '/compute/stats')).status).toBe(403);
   });
 });
 

@@ -13,6 +13,8 @@ export interface OpenStream {
   status: number;
   headers: Headers;
   messages: StreamMessage[];
+  /** when the request was sent (epoch ms): a message arrived at `openedAt + at` */
+  openedAt: number;
   /** bytes read so far */
   bytes(): number;
   /** the first message (from the start of the stream) that matches, waiting at most `timeoutMs` */
@@ -77,6 +79,7 @@ export async function openEventStream(
     status: res.status,
     headers: res.headers,
     messages,
+    openedAt: opened,
     bytes: () => received,
     next(match, timeoutMs = 2000) {
       return new Promise((resolve, reject) => {

@@ -68,6 +68,10 @@ export function computeRouter(ctx: AppContext) {
         taskWorkers: ctx.taskPool?.stats() ?? [],
         // clip graphs kept on the main thread (routes computed there when there is no pool)
         mainThreadClip: clipMemory(),
+        // the live streams open and what the server holds for them
+        events: ctx.events.stats(),
+        // the whole process (every thread's resident memory) and the main thread's heap, in bytes
+        memory: process.memoryUsage(),
       }),
     }),
     defineRoute({
