@@ -56,6 +56,8 @@ export interface SequenceResult {
   exact: boolean;
   /** days computed */
   explored: number;
+  /** partial days the exhaustive search dropped as dominated by one it met before (see `Dominance`) */
+  dominated: number;
   proposal: Timeline;
   current: Timeline;
 }
@@ -194,10 +196,14 @@ export function proposeOrder(
     search.floor = clean
       ? soloFloor(plan, search, day, memoRoute, options, started + budget * FLOOR_SHARE, now, counted)
       : 0;
+
     // a good order first, so the bound cuts more of the tree from the start
     const warmBy = now() + budget * WARM_SHARE;
     const warm = localSearch(search, scorer, best, warmBy, now, options.seed ?? 1);
     if (warm && warm.added === 0) best = warm;
+    // after the warm-up: its days are placed faster without the table (which fills as it is asked)
+    if (clean && aloneIsFloor(plan, search))
+      search.solo = new SoloRest(search, day, memoRoute, options, counted);
     if (best && best.timeline.endSeconds <= search.floor + END_EPS) exact = true;
     else {
       const found = independentLanes(plan) ? laneByLane(search, best) : branchAndBound(search, best);
@@ -218,6 +224,7 @@ export function proposeOrder(
     currentEndSeconds: current.endSeconds,
     exact,
     explored,
+    dominated: search.dominated,
     proposal,
     current,
   };
@@ -243,6 +250,7 @@ export function orderBounds(
   const clean = cleanDay(plan, current);
   const s = searchFor(plan, clean, base, station, route, options, timelineOf, () => {});
   if (!s.root) return { bound: 0, floor: 0 };
+  if (clean && aloneIsFloor(plan, s)) s.solo = new SoloRest(s, station, route, options, () => {});
   const day = s.extend(s.root, prefix);
   const left = Object.fromEntries(
     CREW.map((m) => [m, s.laneTasks[m].filter((x) => !prefix.includes(x))]),
@@ -290,6 +298,10 @@ interface Search {
   bounded: boolean;
   /** no allowed order ends before this (`soloFloor`; 0 when not known) */
   floor: number;
+  /** each crew member's least time left alone (null where it is not a bound: see `SoloRest`) */
+  solo: SoloRest | null;
+  /** partial days dropped as dominated */
+  dominated: number;
   deadline: number;
   now: () => number;
 }
@@ -345,6 +357,8 @@ function searchFor(
       !base.has(warningKey({ code: 'eclipse-only-outside-night', taskIndex: 0 }, [x])),
     bounded: options.start?.flown === undefined,
     floor: 0,
+    solo: null,
+    dominated: 0,
     deadline: Infinity,
     now: () => 0,
   };
@@ -416,8 +430,9 @@ function spoiled(s: Search, day: PlacedDay): boolean {
  * where that chain puts it, nor than the end of the work of a task it is `after` that is laid, nor,
  * for a task for both, than the partner's chain puts it (a second pass); an eclipse-only task the
  * current order keeps in night starts no earlier than the first night window from then that holds
- * its work (no allowed order puts it outside night). Waits otherwise and swaps count zero. The day
- * ends at the later crew member's end plus ingress.
+ * its work (no allowed order puts it outside night). Waits otherwise and swaps count zero. Where
+ * `SoloRest` holds, each crew member's end is also at least what it gives (`SoloRest.laneBound`).
+ * The day ends at the later crew member's end plus ingress.
  */
 function dayBound(s: Search, day: PlacedDay, left: Record<CrewMember, readonly number[]>): number {
   if (!s.bounded) return 0;
@@ -438,6 +453,10 @@ function dayBound(s: Search, day: PlacedDay, left: Record<CrewMember, readonly n
     };
     bound = Math.max(...CREW.map((m, k) => laneBound(s, m, progress[k], left[m], startAt)));
     partner = starts;
+  }
+  if (s.solo) {
+    const placed = day.placed();
+    for (const [k, m] of CREW.entries()) bound = Math.max(bound, s.solo.laneBound(m, progress[k], placed));
   }
   return bound + s.plan.ingressSeconds;
 }
@@ -520,6 +539,43 @@ function cleanDay(plan: DayPlan, current: Timeline): boolean {
   return !current.warnings.some((w) => UNREACHED_CODES.has(w.code)) && !plan.tasks.some((t) => t.arm);
 }
 
+/** The partner can only hold a crew member up (with a day that reaches everything: see `soloFloor`). */
+const aloneIsFloor = (plan: DayPlan, s: Search) =>
+  s.bounded &&
+  s.root !== null &&
+  !plan.manifest.some((i) => i.kind === 'large-item' || i.kind === 'tether-anchor');
+
+/**
+ * One crew member's tasks as a plan of their own (a task for both done alone from their socket,
+ * `after` kept among their own tasks), as a search: its task k is the crew member's k-th task.
+ */
+function soloSearch(
+  s: Search,
+  m: CrewMember,
+  station: DayStation,
+  route: DayRouteFn,
+  options: SequenceOptions,
+  counted: () => void,
+): Search {
+  const plan = s.plan;
+  const mine = s.laneTasks[m];
+  const ids = new Set(mine.map((x) => plan.tasks[x].id));
+  const solo: DayPlan = {
+    ...plan,
+    tasks: mine.map((x) => {
+      const { sockets: _both, socket: _one, ...task } = plan.tasks[x];
+      const socket = socketFor(plan.tasks[x], m);
+      return {
+        ...task,
+        crew: m,
+        ...(socket === undefined ? {} : { socket }),
+        after: (task.after ?? []).filter((id) => ids.has(id)),
+      };
+    }),
+  };
+  return searchFor(solo, true, new Map(), station, route, options, s.timelineOf, counted);
+}
+
 /**
  * A floor under every allowed order's day end: each crew member's earliest own return with their
  * tasks alone (a task for both done alone from their socket, `after` kept among their own tasks),
@@ -543,26 +599,11 @@ function soloFloor(
   now: () => number,
   counted: () => void,
 ): number {
-  if (!s.bounded || !s.root) return 0;
-  if (plan.manifest.some((i) => i.kind === 'large-item' || i.kind === 'tether-anchor')) return 0;
+  if (!aloneIsFloor(plan, s)) return 0;
   let floor = 0;
   for (const m of CREW) {
     const mine = s.laneTasks[m];
-    const ids = new Set(mine.map((x) => plan.tasks[x].id));
-    const solo: DayPlan = {
-      ...plan,
-      tasks: mine.map((x) => {
-        const { sockets: _both, socket: _one, ...task } = plan.tasks[x];
-        const socket = socketFor(plan.tasks[x], m);
-        return {
-          ...task,
-          crew: m,
-          ...(socket === undefined ? {} : { socket }),
-          after: (task.after ?? []).filter((id) => ids.has(id)),
-        };
-      }),
-    };
-    const alone = searchFor(solo, true, new Map(), station, route, options, s.timelineOf, counted);
+    const alone = soloSearch(s, m, station, route, options, counted);
     const chosen = new Uint8Array(mine.length);
     const all = alone.laneTasks[m];
     let best = Infinity;
@@ -597,6 +638,134 @@ function soloFloor(
   return floor + plan.ingressSeconds;
 }
 
+// ── each crew member alone: the least time left, a table over their tasks left ─────────────────────
+
+/** Thrown out of the table's recursion when the search's time is up (nothing half-made is kept). */
+const OUT_OF_TIME = Symbol('out of time');
+
+/**
+ * Each crew member's least time alone from the end of the work of their last task placed to their
+ * return to the airlock, over every order of their tasks still to place (`after` kept among their
+ * own), every leg the real route: a table over (tasks left, the state the crew member is in: place,
+ * tether state, restraint, steps ahead), filled from the prefixes the search meets (`soloSearch`'s
+ * days). Alone, the same steps take their own time and nothing else (no wait), and in any day of
+ * the plan that crew member's steps are the same requests (no portable anchor or large item, the
+ * plan's own order reaches everything: as for `soloFloor`) with waits between, so a crew member's
+ * own end is at least their clock plus the work still ahead in tasks placed and not started plus
+ * this. Left empty (0) for a prefix whose table is not made by the search's deadline.
+ */
+class SoloRest {
+  private readonly alone: Record<CrewMember, Search>;
+  /** a crew member's plan indices to the solo plan's */
+  private readonly soloIndex: Record<CrewMember, Map<number, number>>;
+  private readonly table = new Map<string, number>();
+  private readonly days = new Map<string, PlacedDay>();
+
+  constructor(
+    private readonly s: Search,
+    station: DayStation,
+    route: DayRouteFn,
+    options: SequenceOptions,
+    counted: () => void,
+  ) {
+    this.alone = {
+      EV1: soloSearch(s, 'EV1', station, route, options, counted),
+      EV2: soloSearch(s, 'EV2', station, route, options, counted),
+    };
+    this.soloIndex = {
+      EV1: new Map(s.laneTasks.EV1.map((x, k) => [x, k])),
+      EV2: new Map(s.laneTasks.EV2.map((x, k) => [x, k])),
+    };
+  }
+
+  size() {
+    return this.table.size;
+  }
+
+  /** The least time left alone after `prefix` (plan indices, in order), or 0 when not known in time. */
+  rest(m: CrewMember, prefix: readonly number[]): number {
+    const a = this.alone[m];
+    const solo = this.soloOf(m, prefix);
+    const day = this.dayOf(m, solo);
+    if (!day) return 0;
+    let mask = (1 << a.laneTasks[m].length) - 1;
+    for (const k of solo) mask &= ~(1 << k);
+    try {
+      return this.restFrom(m, day, mask);
+    } catch (e) {
+      if (e === OUT_OF_TIME) return 0;
+      throw e;
+    }
+  }
+
+  /**
+   * The earliest a crew member can be back at the airlock in a day that placed `placed` (plan
+   * indices): from their clock, the steps ahead in tasks placed and not started (alone, when all of
+   * the way into the first of them is ahead; else their work alone), then `rest`.
+   */
+  laneBound(m: CrewMember, p: LaneProgress, placed: readonly number[]): number {
+    if (p.back !== null) return p.back;
+    const prefix = placed.filter((x) => this.soloIndex[m].has(x));
+    const started = prefix.slice(0, prefix.length - p.notStarted.length);
+    let ahead = 0;
+    const to = this.dayOf(m, this.soloOf(m, prefix));
+    const from = p.wayInAhead ? this.dayOf(m, this.soloOf(m, started)) : null;
+    if (to && from) ahead = to.progress(m).t - from.progress(m).t;
+    else for (const x of p.notStarted) ahead += this.s.tasks[x].durationSeconds;
+    return p.t + ahead + this.rest(m, prefix);
+  }
+
+  private soloOf(m: CrewMember, prefix: readonly number[]): number[] {
+    return prefix.map((x) => this.soloIndex[m].get(x)!);
+  }
+
+  /** The solo day of a prefix (kept for the last prefixes asked), null when a route fails on it. */
+  private dayOf(m: CrewMember, solo: readonly number[]): PlacedDay | null {
+    const key = `${m}:${solo.join(',')}`;
+    const known = this.days.get(key);
+    if (known) return known;
+    const a = this.alone[m];
+    const before = solo.length ? this.dayOf(m, solo.slice(0, -1)) : a.root!;
+    if (!before) return null;
+    const day = solo.length ? a.extend(before, solo.slice(-1)) : before;
+    if (this.days.size >= 4096) this.days.clear();
+    const failed = day.warningsSoFar().some((w) => w.code === 'route-infeasible');
+    if (!failed) this.days.set(key, day);
+    return failed ? null : day;
+  }
+
+  private restFrom(m: CrewMember, day: PlacedDay, mask: number): number {
+    const key = `${m}|${mask}|${day.laneState(m)}`;
+    const known = this.table.get(key);
+    if (known !== undefined) return known;
+    const s = this.s;
+    if (s.now() > s.deadline) throw OUT_OF_TIME;
+    const a = this.alone[m];
+    const lane = a.laneTasks[m];
+    const t = day.progress(m).t;
+    let best = Infinity;
+    for (let k = 0; k < lane.length; k++) {
+      if (!(mask & (1 << k)) || a.afterOf[k].some((j) => mask & (1 << j))) continue;
+      const next = a.extend(day, [k]);
+      if (next.warningsSoFar().some((w) => w.code === 'route-infeasible')) continue;
+      const left = mask & ~(1 << k);
+      if (left === 0) {
+        const timeline = next.finish();
+        if (!timeline.warnings.some((w) => w.code === 'route-infeasible'))
+          best = Math.min(best, ownEnd(timeline, m) - t);
+      } else best = Math.min(best, next.progress(m).t - t + this.restFrom(m, next, left));
+    }
+    if (mask === 0) {
+      const timeline = day.copy().finish();
+      best = timeline.warnings.some((w) => w.code === 'route-infeasible')
+        ? Infinity
+        : ownEnd(timeline, m) - t;
+    }
+    this.table.set(key, best);
+    return best;
+  }
+}
+
 // ── branch and bound over both crew members' sequences ─────────────────────────────────────────────
 
 interface Node {
@@ -606,6 +775,71 @@ interface Node {
   lane: Record<CrewMember, number[]>;
   /** a crew member's next task, decided but waiting for the partner (a task for both, or an `after`) */
   reserved: Record<CrewMember, number | null>;
+}
+
+/** Partial days the dominance table keeps at most (each a key and a few clocks). */
+const DOMINANCE_ENTRIES = 200_000;
+
+/**
+ * Dominance between partial days: two prefixes that placed the same tasks and left the day in the
+ * same state (`stateOf`: places, tether states, restraints, steps ahead, items, effects due,
+ * warnings) differ only in their clocks, and the one whose clocks (each crew member's, and the work
+ * ends the tasks left wait for) are each no later has, for every completion, a day that ends no
+ * later and has the same warnings: every completion of the other can go. That holds while the rest
+ * of the day is waits and sums only: every step's length follows from the state, a wait is the
+ * later of two clocks (a task for both, an `after`), so each clock is a non-decreasing function of
+ * the clocks before. It is used only where that holds: no eclipse-only task the plan keeps in night
+ * is left (earlier can mean outside night), no task left acts on a portable anchor (an attach point
+ * for both), no socket or item is touched by both crew members in the tasks left (with the socket
+ * each stands in and the items each holds: which of the two comes first would depend on the clocks),
+ * an effect still due later than a crew member's clock touches nothing the tasks left touch and no
+ * large item, and the work takes its planned time. Both days are checked, each on its own clocks.
+ */
+class Dominance {
+  private readonly table = new Map<string, Float64Array[]>();
+  private entries = 0;
+  private readonly touches: Touches[];
+  private readonly large: Set<string>;
+
+  constructor(private readonly s: Search) {
+    this.touches = touchesOf(s.plan);
+    this.large = new Set(s.plan.manifest.filter((i) => i.kind === 'large-item').map((i) => i.key));
+  }
+
+  /** Whether a day kept before dominates this one (then it is dropped); else keeps it. */
+  dominated(extra: string, day: PlacedDay, unplaced: readonly number[]): boolean {
+    const s = this.s;
+    if (!s.bounded) return false;
+    const left = [...unplaced];
+    for (const m of CREW) left.push(...day.progress(m).notStarted);
+    if (left.some((x) => s.mustNight(x) || this.touches[x].anchor)) return false;
+    const ends = new Set<number>();
+    for (const x of left) for (const j of s.afterOf[x]) ends.add(j);
+    const state = day.stateOf([...ends].sort((a, b) => a - b));
+    const by = new Map<string, CrewMember>();
+    const touch = (key: string, m: CrewMember) => {
+      const other = by.get(key);
+      by.set(key, m);
+      return other === undefined || other === m;
+    };
+    for (const x of new Set(left))
+      for (const key of this.touches[x].keys)
+        for (const m of this.touches[x].crew) if (!touch(key, m)) return false;
+    for (const m of CREW) for (const key of state.touches[m]) if (!touch(key, m)) return false;
+    const earliest = Math.min(state.times[0], state.times[1]);
+    if (state.pending.some((p) => p.t > earliest && (by.has(p.touches) || this.large.has(p.touches))))
+      return false;
+    const key = `${extra}\n${state.key}`;
+    const times = Float64Array.from(state.times);
+    const kept = this.table.get(key);
+    if (kept?.some((k) => k.every((v, i) => v <= times[i] + END_EPS))) return true;
+    if (this.entries < DOMINANCE_ENTRIES) {
+      this.entries++;
+      if (kept) kept.push(times);
+      else this.table.set(key, [times]);
+    }
+    return false;
+  }
 }
 
 /**
@@ -627,6 +861,7 @@ function branchAndBound(s: Search, incumbent: Scored | null): { best: Scored | n
 
   let best = incumbent;
   let complete = true;
+  const dominance = new Dominance(s);
   const chosen = new Uint8Array(n);
   const mark = (node: Node, v: 0 | 1) => node.list.forEach((x) => (chosen[x] = v));
   const eligible = (x: number) => afterOf[x].every((j) => chosen[j]);
@@ -711,6 +946,14 @@ function branchAndBound(s: Search, incumbent: Scored | null): { best: Scored | n
       return;
     }
     if (best && Math.max(lb, s.floor) >= best.timeline.endSeconds - END_EPS) return;
+    if (node.list.length < n) {
+      const unplaced = tasks.flatMap((_, x) => (node.list.includes(x) ? [] : [x]));
+      const reserved = CREW.map((m) => node.reserved[m] ?? '').join(',');
+      if (dominance.dominated(reserved, day, unplaced)) {
+        s.dominated++;
+        return;
+      }
+    }
     if (node.list.length === n) {
       const timeline = day.finish();
       const scored = { order: node.list, timeline, added: addedWarnings(s.base, timeline, node.list) };
@@ -740,6 +983,44 @@ function branchAndBound(s: Search, incumbent: Scored | null): { best: Scored | n
 
 const nameKey = (name: string) => name.trim().replace(/\s+/g, ' ').toLowerCase();
 
+/** What a task touches: `socket:` and each member's socket, the items its tools name and its actions move, and where it sets a foot restraint. */
+interface Touches {
+  /** the task's members and whoever its actions name */
+  crew: CrewMember[];
+  keys: string[];
+  /** it acts on a portable anchor (an attach point for both crew members' routes) */
+  anchor: boolean;
+}
+
+function touchesOf(plan: DayPlan): Touches[] {
+  const itemOf = new Map<string, string>();
+  for (const item of plan.manifest) {
+    itemOf.set(item.key, item.key);
+    itemOf.set(nameKey(item.name), item.key);
+  }
+  const kindOf = new Map(plan.manifest.map((item) => [item.key, item.kind]));
+  return plan.tasks.map((t) => {
+    const crew = new Set(membersOf(t));
+    const keys = new Set<string>();
+    for (const m of membersOf(t)) {
+      const socket = socketFor(t, m);
+      if (socket !== undefined) keys.add(`socket:${socket}`);
+    }
+    for (const tool of t.tools) keys.add(itemOf.get(tool) ?? itemOf.get(nameKey(tool)) ?? `tool:${tool}`);
+    let anchor = false;
+    for (const a of t.actions) {
+      const by = a.by ?? (t.crew === 'both' ? 'EV1' : t.crew);
+      crew.add(by);
+      keys.add(a.item);
+      const kind = kindOf.get(a.item);
+      if (kind === 'tether-anchor') anchor = true;
+      const at = a.at ?? (kind === 'foot-restraint' ? socketFor(t, by) : undefined);
+      if (at !== undefined) keys.add(`socket:${at}`);
+    }
+    return { crew: [...crew], keys: [...keys], anchor };
+  });
+}
+
 /**
  * Whether the two crew members' days cannot touch each other whatever the order: no task for both,
  * no `after` across crew members, no arm, no socket both use, no item both handle (acts on, uses as
@@ -750,24 +1031,12 @@ export function independentLanes(plan: DayPlan): boolean {
   if (tasks.some((t) => t.crew === 'both' || t.arm)) return false;
   const afterOf = afterIndexes(tasks);
   if (tasks.some((t, i) => afterOf[i].some((j) => tasks[j].crew !== t.crew))) return false;
-  const itemOf = new Map<string, string>();
-  for (const item of plan.manifest) {
-    itemOf.set(item.key, item.key);
-    itemOf.set(nameKey(item.name), item.key);
-  }
-  const kindOf = new Map(plan.manifest.map((item) => [item.key, item.kind]));
   const users = new Map<string, Set<string>>();
   const use = (key: string, who: string) => users.set(key, (users.get(key) ?? new Set()).add(who));
   for (const item of plan.manifest) if (item.carriedBy) use(item.key, item.carriedBy);
-  for (const t of tasks) {
-    const socket = socketFor(t, t.crew as CrewMember);
-    if (socket !== undefined) use(`socket:${socket}`, t.crew);
-    for (const tool of t.tools) use(itemOf.get(tool) ?? itemOf.get(nameKey(tool)) ?? `tool:${tool}`, t.crew);
-    for (const a of t.actions) {
-      if (kindOf.get(a.item) === 'tether-anchor') return false;
-      use(a.item, t.crew);
-      if (a.at !== undefined) use(`socket:${a.at}`, t.crew);
-    }
+  for (const touch of touchesOf(plan)) {
+    if (touch.anchor) return false;
+    for (const key of touch.keys) for (const m of touch.crew) use(key, m);
   }
   return [...users.values()].every((who) => who.size <= 1);
 }

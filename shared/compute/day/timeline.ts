@@ -398,6 +398,98 @@ class DaySimulation {
     return slot ? slot.start : Infinity;
   }
 
+  /**
+   * What a crew member's own steps from here take depends on (in a day with no portable anchor or
+   * large item): their place, tether state, restraint, whether they reached the worksite, and the
+   * steps ahead (plan indices).
+   */
+  laneState(m: CrewMember): string {
+    const l = this.lanes[m];
+    const steps = l.steps
+      .slice(l.pc)
+      .map((s) => ('task' in s ? `${s.kind}${this.order[s.task]}` : s.kind))
+      .join(' ');
+    return `${l.at}|${l.tether.anchor}|${l.tether.paidOutM}|${l.restraint}|${l.reached}|${steps}`;
+  }
+
+  /**
+   * The day's state apart from its clocks, as text (`key`): the tasks placed, each crew member's
+   * place, tether state, restraint and steps still to take, where every item is, the effects still
+   * due (without their times), who stands in which restraint, the warnings so far (as problems, by
+   * plan index). `times` are the clocks: each crew member's, then the work end of each task of
+   * `ends` (plan indices; one not laid yet is in the key instead). `pending` lists the effects still
+   * due with their times and what they touch (an item key or `socket:` and a socket key); `touches`,
+   * what each crew member has now: the socket they stand in and the items in their hands.
+   */
+  stateOf(ends: readonly number[]): {
+    key: string;
+    times: number[];
+    pending: { t: number; touches: string }[];
+    touches: Record<CrewMember, string[]>;
+  } {
+    const order = this.order;
+    const plan = (i: number | undefined) => (i === undefined ? '' : String(order[i]));
+    const parts: string[] = [[...order].sort((a, b) => a - b).join(',')];
+    const times: number[] = [];
+    for (const m of CREW) {
+      const l = this.lanes[m];
+      times.push(l.t);
+      const waiting = l.waitingAt?.replace(/\d+$/, (k) => plan(Number(k))) ?? '';
+      const steps = l.steps
+        .slice(l.pc)
+        .map((s) => ('task' in s ? `${s.kind}${order[s.task]}` : s.kind))
+        .join(' ');
+      const { anchor, paidOutM } = l.tether;
+      parts.push(`${l.at}|${anchor}|${paidOutM}|${l.restraint}|${l.reached}|${waiting}|${l.closed}|${steps}`);
+      for (let pc = l.pc; pc < l.steps.length; pc++) {
+        const s = l.steps[pc];
+        if (s.kind === 'after') parts.push(`a${order[s.task]}:${this.afterOf[s.task].map(plan).join(',')}`);
+      }
+    }
+    for (const x of ends) {
+      const end = this.workEndOf(x);
+      if (end === undefined) parts.push(`open${x}`);
+      else times.push(end);
+    }
+    const ledger = this.ledger;
+    parts.push(
+      ledger
+        .keys()
+        .map((k) => `${k}:${JSON.stringify(ledger.where(k))}`)
+        .join(';'),
+    );
+    const pending = [...this.pending].sort((a, b) => a.seq - b.seq);
+    parts.push(
+      pending
+        .map((p) => ('item' in p ? `${p.item}>${JSON.stringify(p.where)}` : `${p.socket}<${p.crew}`))
+        .join(';'),
+    );
+    parts.push(
+      [...this.occupant]
+        .map(([s, m]) => `${s}=${m}`)
+        .sort()
+        .join(';'),
+    );
+    parts.push([...this.actionsDone].map(plan).sort().join(','));
+    parts.push(
+      this.warnings
+        .map((w) => `${w.code}|${plan(w.taskIndex)}|${w.crew ?? ''}|${w.item ?? ''}|${w.arm ?? ''}`)
+        .sort()
+        .join(';'),
+    );
+    return {
+      key: parts.join('\n'),
+      times,
+      pending: pending.map((p) => ({ t: p.t, touches: 'item' in p ? p.item : `socket:${p.socket}` })),
+      touches: Object.fromEntries(
+        CREW.map((m) => {
+          const r = this.lanes[m].restraint;
+          return [m, [...(r === null ? [] : [`socket:${r}`]), ...ledger.heldBy(m).map((i) => i.key)]];
+        }),
+      ) as Record<CrewMember, string[]>,
+    };
+  }
+
   // ── building the day ──────────────────────────────────────────────────────────────────────────────
 
   private known(key: string): boolean {
