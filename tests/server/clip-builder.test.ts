@@ -13,7 +13,7 @@ import {
 } from '../../server/modules/compute/clip-builder';
 import { getCompiledStation } from '../../server/modules/compute/compiled-cache';
 import { warmLargeStations } from '../../server/modules/compute/compute.service';
-import { makeTestApp } from '../setup/test-app';
+import { makeTestApp, type TestApp } from '../setup/test-app';
 import { importStation } from '../setup/stations';
 
 // A 3,000-node truss stands in for a large station: the inline limit is lowered below it.
@@ -104,6 +104,19 @@ describe('clip graphs built off the request path', () => {
   });
 });
 
+/**
+ * Whether a clip graph was built off the request path by a route worker (or, without a pool, once
+ * this thread's builds settle), waiting a bounded while for it.
+ */
+async function clipBuilt(app: TestApp, routeWorkers: number): Promise<boolean> {
+  const built = async () =>
+    routeWorkers
+      ? app.ctx.routePool!.stats().some((s) => s.clipBuilds > 0)
+      : (await clipBuildsSettled(), true);
+  for (let i = 0; i < 200 && !(await built()); i++) await new Promise((r) => setTimeout(r, 50));
+  return built();
+}
+
 describe('the routes endpoint on a station above the inline limit', () => {
   for (const routeWorkers of [0, 1]) {
     it(`builds the clip graph off the request path and keeps answering (${routeWorkers ? 'worker pool' : 'main thread'})`, async () => {
@@ -123,12 +136,7 @@ describe('the routes endpoint on a station above the inline limit', () => {
         const body = { from: attach[0], to: attach[attach.length - 1], mode: 'fewest-swaps' };
         const first = await viewer.post(`/api/stations/${stationId}/routes`).send(body);
         expect(first.status).toBe(200);
-        const built = async () =>
-          routeWorkers
-            ? app.ctx.routePool!.stats().some((s) => s.clipBuilds > 0)
-            : (await clipBuildsSettled(), true);
-        for (let i = 0; i < 200 && !(await built()); i++) await new Promise((r) => setTimeout(r, 50));
-        expect(await built()).toBe(true);
+        expect(await clipBuilt(app, routeWorkers)).toBe(true);
         if (!routeWorkers) {
           const { compiled, doc } = getCompiledStation(app.ctx, stationId);
           expect(hasClipGraph(compiled.arcSeconds, doc.settings.tetherLengthM, excludeMaskFor(false))).toBe(
@@ -166,12 +174,7 @@ describe('clip graphs warmed at start', () => {
       try {
         const stationId = (await importStation(await app.agent('engineer'), small)).id;
         expect(await warmLargeStations(app.ctx)).toBe(stationId);
-        const built = async () =>
-          routeWorkers
-            ? app.ctx.routePool!.stats().some((s) => s.clipBuilds > 0)
-            : (await clipBuildsSettled(), true);
-        for (let i = 0; i < 200 && !(await built()); i++) await new Promise((r) => setTimeout(r, 50));
-        expect(await built()).toBe(true);
+        expect(await clipBuilt(app, routeWorkers)).toBe(true);
         if (routeWorkers) expect(app.ctx.routePool!.stats()[0]).toMatchObject({ compiles: 1, answered: 1 });
         else {
           const { compiled, doc } = getCompiledStation(app.ctx, stationId);
