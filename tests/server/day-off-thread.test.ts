@@ -9,7 +9,7 @@ import { makeTestApp, type TestApp } from '../setup/test-app';
 import { fromWire } from '@shared/compute/day/wire';
 
 /**
- * A plan of the most tasks a plan may have, on a 10k-node station: its timeline and both exports are
+ * A plan of the most tasks a plan may have, on large stations: its timeline and both exports are
  * computed on the worker pool, so the server keeps answering while they run, and the timeline's JSON
  * carries each route once.
  */
@@ -18,17 +18,20 @@ let base: string;
 let close: () => void;
 let cookie: string;
 let planId: number;
+/** the same plan on the largest station whose first timeline (no clip graph yet) takes seconds here, not minutes */
+let bigPlanId: number;
+const BIG_NODES = 30_000;
 
 /** The guard: no health sample while the day is computed may take longer than this (see blockedSamples). */
 const HEALTH_LIMIT_MS = 250;
 
-beforeAll(async () => {
-  t = await makeTestApp({ routeWorkers: 1 });
-  const doc = generateTrussStation({ nodes: 10_000, seed: 42 });
+/** A generated truss imported by the engineer, and a plan of MAX_TASKS tasks over its worksites. */
+async function longPlanOn(nodes: number): Promise<number> {
+  const doc = generateTrussStation({ nodes, seed: 42 });
   const engineer = await t.agent('engineer');
   const imported = await engineer
     .post('/api/stations/import')
-    .attach('file', stationDocumentFile({ ...doc, name: 'Big truss' }), 'big.json');
+    .attach('file', stationDocumentFile({ ...doc, name: `Truss of ${nodes} nodes` }), 'big.json');
   expect(imported.status, JSON.stringify(imported.body)).toBe(201);
   const worksites = doc.nodes.filter((n) => n.kind === 'worksite').map((n) => n.key);
   const planner = await t.agent('planner');
@@ -46,7 +49,13 @@ beforeAll(async () => {
     })),
   });
   expect(created.status, JSON.stringify(created.body)).toBe(201);
-  planId = created.body.id;
+  return created.body.id;
+}
+
+beforeAll(async () => {
+  t = await makeTestApp({ routeWorkers: 1 });
+  planId = await longPlanOn(10_000);
+  bigPlanId = await longPlanOn(BIG_NODES);
   // real HTTP on loopback, so a health sample queues behind the work if the work blocks
   const listening = await listenOnLoopback(t.app);
   base = listening.base;
@@ -81,7 +90,7 @@ function gzipped(path: string): Promise<{ encoding: string | undefined; raw: Buf
   });
 }
 
-describe('a plan cannot freeze the server: a long plan on a large station', () => {
+describe('a long plan on a large station: its exports, series and comparisons', () => {
   // the first request sends the station to the worker; the guard below measures the steady state
   it('the timeline lists each route once: blocks point into it, and the answer stays small', async () => {
     const res = await timed(`/api/plans/${planId}/timeline`);
@@ -147,4 +156,19 @@ describe('a plan cannot freeze the server: a long plan on a large station', () =
     const blocked = blockedSamples(samples, HEALTH_LIMIT_MS);
     expect(blocked, JSON.stringify(blocked)).toEqual([]);
   }, 180_000);
+});
+
+describe('a plan cannot freeze the server: its day is computed off the request thread', () => {
+  it(`a ${MAX_TASKS}-task plan on a ${BIG_NODES / 1000}k-node station: /api/health answers under ${HEALTH_LIMIT_MS} ms while its first timeline is computed`, async () => {
+    // the station's first day: no clip graph yet, every leg by the label search, seconds of work
+    const { result, samples } = await sampleHealthWhile(base, () =>
+      timed(`/api/plans/${bigPlanId}/timeline`),
+    );
+    expect(result.status).toBe(200);
+    const tl = fromWire(JSON.parse(result.body.toString()));
+    expect(tl.routes.length).toBeGreaterThan(MAX_TASKS);
+    expect(samples.length).toBeGreaterThan(3);
+    const blocked = blockedSamples(samples, HEALTH_LIMIT_MS);
+    expect(blocked, JSON.stringify(blocked)).toEqual([]);
+  }, 120_000);
 });
