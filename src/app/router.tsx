@@ -28,7 +28,7 @@ export function createAppRouter(queryClient: QueryClient) {
         })),
     }) as RouteObject;
   const top = { HydrateFallback: PageSpinner };
-  /** screens built round the 3D view take the window's whole width */
+  /** screens built round the 3D view (and the plan, the day beside its tasks) take the window's whole width */
   const workspace = { handle: { workspace: true } };
 
   return createBrowserRouter([
@@ -44,7 +44,7 @@ export function createAppRouter(queryClient: QueryClient) {
         route(paths.station.path, () => import('./routes/app/station'), workspace),
         route(paths.sockets.path, () => import('./routes/app/station-sockets'), workspace),
         route(paths.plans.path, () => import('./routes/app/plans')),
-        route(paths.plan.path, () => import('./routes/app/plan')),
+        route(paths.plan.path, () => import('./routes/app/plan'), workspace),
         route(paths.run.path, () => import('./routes/app/run'), workspace),
         route(paths.series.path, () => import('./routes/app/series')),
         route(paths.walkthroughs.path, () => import('./routes/app/walkthroughs')),

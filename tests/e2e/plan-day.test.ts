@@ -55,6 +55,14 @@ describe('the day in 3D: scrub the plan, see the tether, the restraint and the i
     const day = page.getByTestId('plan-day');
     await day.locator('canvas').waitFor();
     await expect(page.getByLabel('Planning caution').first().isVisible()).resolves.toBe(true);
+    // at 1440 x 900 the day's chart and the first tasks are in the window together, before any scroll
+    for (const shown of [
+      page.getByRole('group', { name: /^Timeline: the day ends/ }),
+      page.getByRole('listitem', { name: /^Task 3 of / }),
+    ]) {
+      const box = (await shown.boundingBox())!;
+      expect(box.y + box.height).toBeLessThanOrEqual(900);
+    }
     await expect(where(page, 'boom')).resolves.toBe('carried:EV2');
     await expect(where(page, 'restraint-1')).resolves.toBe('carried:EV1');
 
@@ -90,10 +98,14 @@ describe('the day in 3D: scrub the plan, see the tether, the restraint and the i
     await stepUntil(page, async () => (await where(page, 'boom')) === 'carried:EV1');
     const handedOver = await dayState(page);
     expect(handedOver['day-item-restraint-1']).toMatch(/^installed:PB2-S05\|/);
+    // the whole page from its top, where the plan's sticky header sits (not over the middle)
+    const fromTop = () => page.evaluate(() => window.scrollTo(0, 0));
     await sceneSettled(page);
+    await fromTop();
     await session.screenshot('plan-day-1440');
-    await page.setViewportSize({ width: 1024, height: 800 });
+    await page.setViewportSize({ width: 1024, height: 768 });
     await sceneSettled(page);
+    await fromTop();
     await session.screenshot('plan-day-1024');
     await stepUntil(page, async () => (await where(page, 'boom')) === 'at:PB2-W01');
 

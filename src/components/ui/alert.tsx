@@ -13,13 +13,20 @@ interface AlertProps {
   title?: string;
   children?: ReactNode;
   className?: string;
+  /** one tight line, where a screen needs the height */
+  compact?: boolean;
 }
 
-export function Alert({ tone = 'info', title, children, className }: AlertProps) {
+export function Alert({ tone = 'info', title, children, className, compact = false }: AlertProps) {
   return (
     <div
       role={tone === 'danger' ? 'alert' : 'status'}
-      className={cn('rounded-md border px-4 py-3 text-sm', TONES[tone], className)}
+      className={cn(
+        'rounded-md border text-sm',
+        compact ? 'px-3 py-1.5' : 'px-4 py-3',
+        TONES[tone],
+        className,
+      )}
     >
       {title && <p className="font-semibold">{title}</p>}
       {children && <div className={cn(title && 'mt-1')}>{children}</div>}

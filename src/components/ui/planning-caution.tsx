@@ -3,12 +3,14 @@ import { cn } from '@/lib/cn';
 
 export const PLANNING_CAUTION_TEXT = PLANNING_CAUTION;
 
-export function PlanningCaution({ className }: { className?: string }) {
+/** `compact`: one tight line where a screen needs the height (it wraps when the window is narrow). */
+export function PlanningCaution({ className, compact = false }: { className?: string; compact?: boolean }) {
   return (
     <aside
       aria-label="Planning caution"
       className={cn(
-        'flex gap-3 rounded-md border border-caution/40 bg-caution-soft px-4 py-3 text-sm text-caution',
+        'flex gap-3 rounded-md border border-caution/40 bg-caution-soft text-caution',
+        compact ? 'px-3 py-1.5 text-xs' : 'px-4 py-3 text-sm',
         className,
       )}
     >

@@ -56,11 +56,9 @@ export default function PlanRoute() {
     arms: graph.data.arms,
   };
   return (
-    <>
-      <PresenceList viewers={viewers} selfId={user.id} />
+    <div className="space-y-3">
       <StationChangeBanner plan={plan.data} />
       <ChangedSinceSubmission plan={plan.data} />
-      {plan.data.status === 'approved' && <PlanRuns planId={plan.data.id} runHref={paths.run.getHref} />}
       <PlanEditor
         key={plan.data.id}
         plan={plan.data}
@@ -68,8 +66,12 @@ export default function PlanRoute() {
         nodes={nodes}
         orbit={graph.data?.station.orbit}
         rehearseHref={paths.walkthroughs.getHref({ planId: plan.data.id })}
+        beside={<PresenceList viewers={viewers} selfId={user.id} />}
+        aside={
+          plan.data.status === 'approved' && <PlanRuns planId={plan.data.id} runHref={paths.run.getHref} />
+        }
         DayView={PlanDay}
       />
-    </>
+    </div>
   );
 }

@@ -102,103 +102,106 @@ export function SettingsEditor({ draft, onChange, readOnly, arcs }: SettingsProp
         ? { startGmt: `${date}${draft.startGmt.slice(10)}` }
         : {}),
     });
+  // columns by the form's own width, so the route mode's longest name shows whole in a side column
   return (
-    <div className="grid gap-4 md:grid-cols-3">
-      <Field label="Title" error={titleError}>
-        <Input
-          className="read-only:bg-surface-sunken"
-          value={draft.title}
+    <div className="@container">
+      <div className="grid gap-4 @xl:grid-cols-2 @4xl:grid-cols-3">
+        <Field label="Title" error={titleError}>
+          <Input
+            className="read-only:bg-surface-sunken"
+            value={draft.title}
+            readOnly={readOnly}
+            onChange={(e) => onChange({ title: e.target.value })}
+          />
+        </Field>
+        <Field label="EVA date" error={dateOk ? undefined : 'date must be an ISO date (YYYY-MM-DD)'}>
+          <Input
+            className="read-only:bg-surface-sunken"
+            type="date"
+            value={draft.date}
+            readOnly={readOnly}
+            onChange={(e) => setDate(e.target.value)}
+          />
+        </Field>
+        <ParsedInput<string>
+          label="Start (GMT)"
+          hint="hh:mm GMT on the EVA date; blank: elapsed time only"
+          value={draft.startGmt}
+          format={formatStart}
+          schema={startTextSchema}
           readOnly={readOnly}
-          onChange={(e) => onChange({ title: e.target.value })}
+          onCommit={(v) => onChange({ startGmt: v })}
         />
-      </Field>
-      <Field label="EVA date" error={dateOk ? undefined : 'date must be an ISO date (YYYY-MM-DD)'}>
-        <Input
-          className="read-only:bg-surface-sunken"
-          type="date"
-          value={draft.date}
-          readOnly={readOnly}
-          onChange={(e) => setDate(e.target.value)}
-        />
-      </Field>
-      <ParsedInput<string>
-        label="Start (GMT)"
-        hint="hh:mm GMT on the EVA date; blank: elapsed time only"
-        value={draft.startGmt}
-        format={formatStart}
-        schema={startTextSchema}
-        readOnly={readOnly}
-        onCommit={(v) => onChange({ startGmt: v })}
-      />
-      <Field label="Route mode">
-        <Select
-          options={ROUTE_MODES.map((m) => ({ value: m, label: ROUTE_MODE_LABELS[m] }))}
-          value={draft.routeMode}
-          disabled={readOnly}
-          onChange={(e) => onChange({ routeMode: e.target.value as RouteMode })}
-        />
-      </Field>
-      <ParsedInput
-        label="Time limit (h:mm)"
-        value={draft.timeLimitSeconds}
-        format={fmtDuration}
-        schema={limitText}
-        readOnly={readOnly}
-        onCommit={(v) => v !== null && onChange({ timeLimitSeconds: v })}
-      />
-      <ParsedInput
-        label="Egress (h:mm)"
-        value={draft.egressSeconds}
-        format={fmtDuration}
-        schema={egressText}
-        readOnly={readOnly}
-        onCommit={(v) => v !== null && onChange({ egressSeconds: v })}
-      />
-      <ParsedInput
-        label="Ingress (h:mm)"
-        value={draft.ingressSeconds}
-        format={fmtDuration}
-        schema={ingressText}
-        readOnly={readOnly}
-        onCommit={(v) => v !== null && onChange({ ingressSeconds: v })}
-      />
-      {arcs ? (
-        <OrbitStartField
-          value={draft.orbitPhaseAtStartDeg}
-          arcs={arcs}
-          readOnly={readOnly}
-          onCommit={(v) => onChange({ orbitPhaseAtStartDeg: v })}
-        />
-      ) : (
+        <Field label="Route mode">
+          <Select
+            options={ROUTE_MODES.map((m) => ({ value: m, label: ROUTE_MODE_LABELS[m] }))}
+            value={draft.routeMode}
+            disabled={readOnly}
+            onChange={(e) => onChange({ routeMode: e.target.value as RouteMode })}
+          />
+        </Field>
         <ParsedInput
-          label="Orbit phase at start (°)"
-          hint="0° = orbital sunrise"
-          value={draft.orbitPhaseAtStartDeg}
-          format={fmtNumber}
-          schema={phaseText}
+          label="Time limit (h:mm)"
+          value={draft.timeLimitSeconds}
+          format={fmtDuration}
+          schema={limitText}
           readOnly={readOnly}
-          onCommit={(v) => v !== null && onChange({ orbitPhaseAtStartDeg: v })}
+          onCommit={(v) => v !== null && onChange({ timeLimitSeconds: v })}
         />
-      )}
-      <ParsedInput
-        label="Beta angle override (°)"
-        hint="Blank: the station's beta angle"
-        value={draft.betaDegOverride}
-        format={fmtNumber}
-        schema={optionalBetaText}
-        readOnly={readOnly}
-        onCommit={(v) => onChange({ betaDegOverride: v })}
-      />
-      <label className="flex items-center gap-2 self-center text-sm font-medium text-text-strong">
-        <input
-          type="checkbox"
-          className="size-4 accent-accent"
-          checked={draft.allowRide}
-          disabled={readOnly}
-          onChange={(e) => onChange({ allowRide: e.target.checked })}
+        <ParsedInput
+          label="Egress (h:mm)"
+          value={draft.egressSeconds}
+          format={fmtDuration}
+          schema={egressText}
+          readOnly={readOnly}
+          onCommit={(v) => v !== null && onChange({ egressSeconds: v })}
         />
-        Arm ride allowed
-      </label>
+        <ParsedInput
+          label="Ingress (h:mm)"
+          value={draft.ingressSeconds}
+          format={fmtDuration}
+          schema={ingressText}
+          readOnly={readOnly}
+          onCommit={(v) => v !== null && onChange({ ingressSeconds: v })}
+        />
+        {arcs ? (
+          <OrbitStartField
+            value={draft.orbitPhaseAtStartDeg}
+            arcs={arcs}
+            readOnly={readOnly}
+            onCommit={(v) => onChange({ orbitPhaseAtStartDeg: v })}
+          />
+        ) : (
+          <ParsedInput
+            label="Orbit phase at start (°)"
+            hint="0° = orbital sunrise"
+            value={draft.orbitPhaseAtStartDeg}
+            format={fmtNumber}
+            schema={phaseText}
+            readOnly={readOnly}
+            onCommit={(v) => v !== null && onChange({ orbitPhaseAtStartDeg: v })}
+          />
+        )}
+        <ParsedInput
+          label="Beta angle override (°)"
+          hint="Blank: the station's beta angle"
+          value={draft.betaDegOverride}
+          format={fmtNumber}
+          schema={optionalBetaText}
+          readOnly={readOnly}
+          onCommit={(v) => onChange({ betaDegOverride: v })}
+        />
+        <label className="flex items-center gap-2 self-center text-sm font-medium text-text-strong">
+          <input
+            type="checkbox"
+            className="size-4 accent-accent"
+            checked={draft.allowRide}
+            disabled={readOnly}
+            onChange={(e) => onChange({ allowRide: e.target.checked })}
+          />
+          Arm ride allowed
+        </label>
+      </div>
     </div>
   );
 }

@@ -71,11 +71,25 @@ interface PlanEditorProps {
   rehearseHref: string;
   /** an optional picker the route composes beside the task list, e.g. a small 3D view */
   extra?: ReactNode;
+  /** a line the route composes beside the title, e.g. who else has the plan open */
+  beside?: ReactNode;
+  /** what the route composes at the top of the side column, e.g. an approved plan's runs */
+  aside?: ReactNode;
   /** the day in 3D under the chart: a block picked on the chart is gone to and framed there */
   DayView?: ComponentType<DayViewProps>;
 }
 
-export function PlanEditor({ plan, user, nodes, orbit, rehearseHref, extra, DayView }: PlanEditorProps) {
+export function PlanEditor({
+  plan,
+  user,
+  nodes,
+  orbit,
+  rehearseHref,
+  extra,
+  beside,
+  aside,
+  DayView,
+}: PlanEditorProps) {
   const [focus, setFocus] = useState<DayFocus | null>(null);
   const [cursor, setCursor] = useState<number>();
   const editable = can(user, 'plans:edit') && plan.status === 'draft';
@@ -97,7 +111,7 @@ export function PlanEditor({ plan, user, nodes, orbit, rehearseHref, extra, DayV
   return (
     <FieldValidityContext.Provider value={fields.report}>
       <UnsavedEditsProvider value={forms.report}>
-        <div className="space-y-5">
+        <div className="space-y-4 pb-6">
           <LeaveGuard
             when={editable && (unsaved || forms.count > 0) && !deleted}
             keep={forms.count > 0 ? undefined : keep}
@@ -112,22 +126,12 @@ export function PlanEditor({ plan, user, nodes, orbit, rehearseHref, extra, DayV
                     : 'Some edits are not saved yet; leaving now drops them.'
             }
           />
-          <header className="sticky top-0 z-20 -mx-2 flex flex-wrap items-start justify-between gap-4 border-b border-surface-line bg-surface-page/95 px-2 py-2 backdrop-blur">
-            <div className="space-y-1">
-              <div className="flex flex-wrap items-center gap-3">
-                <h1 className="text-2xl font-semibold tracking-tight text-text-strong">
-                  {draft.title || plan.title}
-                </h1>
-                <PlanStatusBadge status={plan.status} />
-              </div>
-              <p className="text-sm text-text-muted">
-                {plan.stationName} · EVA {draft.date}
-                {arcs && <> · {orbitStartWords(draft.orbitPhaseAtStartDeg, arcs)}</>} · version {plan.version}{' '}
-                · written by {plan.authorName ?? 'someone no longer here'}
-                {plan.approverName && <> · approved by {plan.approverName}</>}
-              </p>
-            </div>
-            <div className="flex flex-wrap items-center gap-2">
+          <header className="sticky top-0 z-20 -mx-3 space-y-0.5 border-b border-surface-line bg-surface-page/95 px-3 py-2 backdrop-blur sm:-mx-4 sm:px-4">
+            <div className="flex flex-wrap items-center gap-x-3 gap-y-2">
+              <h1 className="text-xl font-semibold tracking-tight text-text-strong">
+                {draft.title || plan.title}
+              </h1>
+              <PlanStatusBadge status={plan.status} />
               {editable && (
                 <SaveIndicator
                   state={state}
@@ -136,32 +140,46 @@ export function PlanEditor({ plan, user, nodes, orbit, rehearseHref, extra, DayV
                   onSave={() => save()}
                 />
               )}
-              <a className={linkClass} href={planExportHref(plan.id, 'csv')} download>
-                ⤓ Timeline CSV
-              </a>
-              <a className={linkClass} href={planExportHref(plan.id, 'pdf')} download>
-                ⤓ Cue cards (PDF)
-              </a>
-              <Link className={linkClass} to={rehearseHref}>
-                ▶ Rehearse
-              </Link>
-              <PlanActions plan={plan} user={user} onDeleted={() => setDeleted(true)} />
+              <div className="ml-auto flex flex-wrap items-center gap-2">
+                <a className={linkClass} href={planExportHref(plan.id, 'csv')} download>
+                  ⤓ Timeline CSV
+                </a>
+                <a className={linkClass} href={planExportHref(plan.id, 'pdf')} download>
+                  ⤓ Cue cards (PDF)
+                </a>
+                <Link className={linkClass} to={rehearseHref}>
+                  ▶ Rehearse
+                </Link>
+                <PlanActions plan={plan} user={user} onDeleted={() => setDeleted(true)} />
+              </div>
+            </div>
+            <div className="flex flex-wrap items-center gap-x-4 gap-y-0.5 text-sm text-text-muted">
+              <p>
+                {plan.stationName} · EVA {draft.date}
+                {arcs && <> · {orbitStartWords(draft.orbitPhaseAtStartDeg, arcs)}</>} · version {plan.version}{' '}
+                · written by {plan.authorName ?? 'someone no longer here'}
+                {plan.approverName && <> · approved by {plan.approverName}</>}
+              </p>
+              {beside}
             </div>
           </header>
 
           {LOCKED[plan.status] && (
-            <Alert tone="info" title="Editing is locked">
-              {LOCKED[plan.status]}
+            <Alert tone="info" compact>
+              <span className="font-semibold">Editing is locked.</span> {LOCKED[plan.status]}
             </Alert>
           )}
           {!can(user, 'plans:edit') && plan.status === 'draft' && (
-            <Alert tone="info">Your role reads plans; planners edit them.</Alert>
+            <Alert tone="info" compact>
+              Your role reads plans; planners edit them.
+            </Alert>
           )}
           {conflict && <ConflictNotice conflict={conflict} onReload={reload} />}
           {!conflict && <FormError error={error} fallback="The plan could not be saved." />}
 
           <Panel
             title="Timeline"
+            dense
             actions={
               tl && (
                 <span className="text-xs text-text-muted">
@@ -171,28 +189,20 @@ export function PlanEditor({ plan, user, nodes, orbit, rehearseHref, extra, DayV
               )
             }
           >
-            <div id={TIMELINE_ID} tabIndex={-1} className="space-y-4 outline-none">
-              <PlanningCaution />
+            <div id={TIMELINE_ID} tabIndex={-1} className="space-y-3 outline-none">
+              <PlanningCaution compact />
               {tl ? (
-                <>
-                  <TimelineChart
-                    timeline={tl}
-                    tasks={plan.tasks}
-                    startGmt={plan.startGmt}
-                    {...(DayView
-                      ? {
-                          cursor,
-                          onPick: ({ crew, block }) => setFocus({ crew, start: block.start, end: block.end }),
-                        }
-                      : {})}
-                  />
-                  {DayView && <DayView timeline={tl} plan={plan} focus={focus} onTime={setCursor} />}
-                  <TimelineTotals
-                    timeline={tl}
-                    names={{ EV1: plan.crew.EV1.name, EV2: plan.crew.EV2.name }}
-                    startGmt={plan.startGmt}
-                  />
-                </>
+                <TimelineChart
+                  timeline={tl}
+                  tasks={plan.tasks}
+                  startGmt={plan.startGmt}
+                  {...(DayView
+                    ? {
+                        cursor,
+                        onPick: ({ crew, block }) => setFocus({ crew, start: block.start, end: block.end }),
+                      }
+                    : {})}
+                />
               ) : timeline.error ? (
                 <FormError error={timeline.error} fallback="The timeline could not be computed." />
               ) : (
@@ -201,55 +211,47 @@ export function PlanEditor({ plan, user, nodes, orbit, rehearseHref, extra, DayV
             </div>
           </Panel>
 
-          <div className="grid gap-5 lg:grid-cols-3">
-            <div className="space-y-5 lg:col-span-2">
-              <Panel title={`Tasks (${draft.tasks.length})`}>
-                {extra}
-                {nodes ? (
-                  <TasksEditor
-                    tasks={draft.tasks}
-                    onChange={(tasks, added) =>
-                      change(added?.length ? { tasks, manifest: [...draft.manifest, ...added] } : { tasks })
-                    }
-                    readOnly={readOnly}
-                    nodes={nodes}
-                    manifest={draft.manifest}
-                    flownEstimates={flownEstimates.data}
-                    reach={tl && tl.planVersion === savedVersion ? tl.reach : []}
-                    warningCounts={warningCountsByTask(
-                      tl && tl.planVersion === savedVersion ? tl : undefined,
-                    )}
-                  />
-                ) : (
-                  <PageSpinner />
-                )}
-              </Panel>
-              <Panel title={`Manifest (${draft.manifest.length})`}>
-                <ManifestEditor
-                  manifest={draft.manifest}
-                  onChange={(manifest) => change({ manifest })}
-                  readOnly={readOnly}
-                  places={places}
-                />
-              </Panel>
-              <Panel title="Crew">
-                <CrewEditor draft={draft} onChange={change} readOnly={readOnly} />
-              </Panel>
-              <Panel title="EVA settings">
-                <SettingsEditor draft={draft} onChange={change} readOnly={readOnly} arcs={arcs} />
-              </Panel>
-            </div>
-            <div className="space-y-5">
-              <Panel title="Order of the day">
-                <OrderSuggestion
-                  planId={plan.id}
+          {/* wide: the tasks beside the day in 3D and the side panels, the plan's other fields under the
+              tasks; narrow: one column in this order (the DOM's), the tasks right under the chart */}
+          <div className="grid items-start gap-4 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)] xl:grid-rows-[auto_1fr]">
+            <Panel
+              title={`Tasks (${draft.tasks.length})`}
+              dense
+              className="min-w-0 xl:col-start-1 xl:row-start-1"
+            >
+              {extra}
+              {nodes ? (
+                <TasksEditor
                   tasks={draft.tasks}
-                  canApply={editable}
-                  unsaved={editable && unsaved}
-                  onApply={(tasks) => change({ tasks })}
+                  onChange={(tasks, added) =>
+                    change(added?.length ? { tasks, manifest: [...draft.manifest, ...added] } : { tasks })
+                  }
+                  readOnly={readOnly}
+                  nodes={nodes}
+                  manifest={draft.manifest}
+                  flownEstimates={flownEstimates.data}
+                  reach={tl && tl.planVersion === savedVersion ? tl.reach : []}
+                  warningCounts={warningCountsByTask(tl && tl.planVersion === savedVersion ? tl : undefined)}
                 />
-              </Panel>
-              <Panel title={`Warnings${tl ? ` (${tl.warnings.length})` : ''}`}>
+              ) : (
+                <PageSpinner />
+              )}
+            </Panel>
+            <div className="min-w-0 space-y-4 xl:col-start-2 xl:row-span-2 xl:row-start-1">
+              {aside}
+              {tl && (
+                <Panel title="The day" dense>
+                  <div className="space-y-4">
+                    <TimelineTotals
+                      timeline={tl}
+                      names={{ EV1: plan.crew.EV1.name, EV2: plan.crew.EV2.name }}
+                      startGmt={plan.startGmt}
+                    />
+                    {DayView && <DayView timeline={tl} plan={plan} focus={focus} onTime={setCursor} />}
+                  </div>
+                </Panel>
+              )}
+              <Panel title={`Warnings${tl ? ` (${tl.warnings.length})` : ''}`} dense>
                 {tl ? (
                   <WarningsPanel
                     timeline={tl}
@@ -260,7 +262,16 @@ export function PlanEditor({ plan, user, nodes, orbit, rehearseHref, extra, DayV
                   <PageSpinner />
                 )}
               </Panel>
-              <Panel title={`Station notes${tl ? ` (${tl.stationNotes?.length ?? 0})` : ''}`}>
+              <Panel title="Order of the day" dense>
+                <OrderSuggestion
+                  planId={plan.id}
+                  tasks={draft.tasks}
+                  canApply={editable}
+                  unsaved={editable && unsaved}
+                  onApply={(tasks) => change({ tasks })}
+                />
+              </Panel>
+              <Panel title={`Station notes${tl ? ` (${tl.stationNotes?.length ?? 0})` : ''}`} dense>
                 {tl ? (
                   <StationNotesPanel
                     notes={tl.stationNotes ?? []}
@@ -274,7 +285,7 @@ export function PlanEditor({ plan, user, nodes, orbit, rehearseHref, extra, DayV
                   <PageSpinner />
                 )}
               </Panel>
-              <Panel title="Review">
+              <Panel title="Review" dense>
                 <ReviewPanel
                   plan={plan}
                   user={user}
@@ -285,6 +296,22 @@ export function PlanEditor({ plan, user, nodes, orbit, rehearseHref, extra, DayV
                       : undefined
                   }
                 />
+              </Panel>
+            </div>
+            <div className="min-w-0 space-y-4 xl:col-start-1 xl:row-start-2">
+              <Panel title={`Manifest (${draft.manifest.length})`} dense>
+                <ManifestEditor
+                  manifest={draft.manifest}
+                  onChange={(manifest) => change({ manifest })}
+                  readOnly={readOnly}
+                  places={places}
+                />
+              </Panel>
+              <Panel title="Crew" dense>
+                <CrewEditor draft={draft} onChange={change} readOnly={readOnly} />
+              </Panel>
+              <Panel title="EVA settings" dense>
+                <SettingsEditor draft={draft} onChange={change} readOnly={readOnly} arcs={arcs} />
               </Panel>
             </div>
           </div>

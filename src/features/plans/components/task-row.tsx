@@ -76,7 +76,7 @@ export function TaskRow({
       draggable={!readOnly}
       {...handlers}
       className={cn(
-        'flex flex-wrap items-start gap-3 rounded-md border bg-surface-panel px-3 py-2.5',
+        'flex flex-wrap items-start gap-3 rounded-md border bg-surface-panel px-3 py-2',
         focusRing,
         dropTarget ? 'border-accent border-dashed' : 'border-surface-line',
         dragged && 'opacity-60',
@@ -92,7 +92,7 @@ export function TaskRow({
         </span>
       )}
       <span className="w-6 pt-0.5 text-sm font-semibold text-text-muted">{i + 1}.</span>
-      <div className="min-w-0 flex-1 space-y-1">
+      <div className="min-w-0 flex-1 space-y-0.5">
         <p className="font-medium text-text-strong">{t.title}</p>
         <p className="text-sm text-text">
           {t.worksite}
@@ -100,7 +100,7 @@ export function TaskRow({
           {t.crew === 'both' ? 'EV1 + EV2' : t.crew} · {formatElapsed(t.durationSeconds)}
           {t.socket && <> · socket {t.socket}</>}
         </p>
-        <div className="flex flex-wrap gap-1.5">
+        <div className="flex flex-wrap gap-1.5 empty:hidden">
           {t.eclipseOnly && <Badge tone="accent">☾ Eclipse-only</Badge>}
           {t.carrying && <Badge tone="neutral">Carrying</Badge>}
           {t.optional && <Badge tone="neutral">Optional (get-ahead)</Badge>}

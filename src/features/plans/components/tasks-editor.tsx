@@ -109,9 +109,6 @@ export function TasksEditor({
 
   return (
     <div className="space-y-3">
-      <p id="task-reorder-help" className="text-xs text-text-muted">
-        Drag a task by its handle, use Move up and Move down, or focus a task and press Alt+↑ or Alt+↓.
-      </p>
       {tasks.length === 0 ? (
         <EmptyState>No tasks yet. Add the first task of the EVA.</EmptyState>
       ) : (
@@ -170,11 +167,23 @@ export function TasksEditor({
       <p aria-live="polite" className="sr-only">
         {announcement}
       </p>
-      {!readOnly && (
-        <Button variant="secondary" onClick={() => setEditing('new')} disabled={nodes.worksites.length === 0}>
-          Add task
-        </Button>
-      )}
+      <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
+        {!readOnly && (
+          <Button
+            variant="secondary"
+            onClick={() => setEditing('new')}
+            disabled={nodes.worksites.length === 0}
+          >
+            Add task
+          </Button>
+        )}
+        {/* under the list: the rows come first on a screen that shows the day beside them */}
+        {!readOnly && (
+          <p id="task-reorder-help" className="text-xs text-text-muted">
+            Drag a task by its handle, use Move up and Move down, or focus a task and press Alt+↑ or Alt+↓.
+          </p>
+        )}
+      </div>
       <Dialog
         open={editing !== null}
         title={editing === 'new' ? 'Add task' : `Edit task ${(editing ?? 0) + 1}`}

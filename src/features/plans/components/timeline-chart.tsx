@@ -1,4 +1,12 @@
-import { useId, useRef, useState, type KeyboardEvent, type SVGProps } from 'react';
+import {
+  useId,
+  useLayoutEffect,
+  useRef,
+  useState,
+  type KeyboardEvent,
+  type RefObject,
+  type SVGProps,
+} from 'react';
 import type { CrewMember, Task } from '@shared/schemas/plan';
 import type { TimelineBlock, TimelineBlockType } from '@shared/compute/day/types';
 import type { RouteFeasible } from '@shared/schemas/route';
@@ -8,13 +16,15 @@ import { palette } from '../../../../tailwind.config';
 import type { PlanTimeline } from '../types';
 
 const CREW: CrewMember[] = ['EV1', 'EV2'];
-const W = 1000;
+/** The drawing's width where the page's cannot be measured; otherwise it is the page's, in pixels. */
+const DEFAULT_W = 1000;
+/** Narrower than this the drawing scales down rather than squeezing the blocks further. */
+const MIN_W = 560;
 const LEFT = 56;
 const RIGHT = 16;
-const PLOT = W - LEFT - RIGHT;
 const BAND_TOP = 22;
-const LANE_H = 46;
-const LANE_GAP = 14;
+const LANE_H = 40;
+const LANE_GAP = 12;
 const laneTop = (i: number) => BAND_TOP + 6 + i * (LANE_H + LANE_GAP);
 /** The time axis under the crew lanes and one lane per arm the day uses. */
 const axisYBelow = (lanes: number) => laneTop(lanes) - LANE_GAP + 8;
@@ -93,7 +103,12 @@ export function BlockDetails({
   notes?: readonly { nodeKey: string; title: string }[];
 }) {
   if (!active) {
-    return <p className="text-sm text-text-muted">Point at or focus a block to see its times and route.</p>;
+    return (
+      <p className="text-sm text-text-muted">
+        Point at or focus a block to see its times and route. Keyboard: Tab reaches the blocks once; arrow
+        keys move along a lane and between lanes, Enter goes to the block.
+      </p>
+    );
   }
   const { crew, block } = active;
   const route = block.routeIndex === undefined ? undefined : routes[block.routeIndex];
@@ -284,9 +299,9 @@ export function TimelineLegend() {
     'arm-ride',
   ];
   return (
-    <ul aria-label="Legend" className="flex flex-wrap gap-x-4 gap-y-1 text-xs text-text">
+    <ul aria-label="Legend" className="flex flex-wrap gap-x-2.5 gap-y-1 text-xs text-text">
       {kinds.map((k) => (
-        <li key={k} className="flex items-center gap-1.5">
+        <li key={k} className="flex items-center gap-1">
           <svg width="22" height="12" aria-hidden="true">
             <Patterns />
             <rect
@@ -306,13 +321,13 @@ export function TimelineLegend() {
               : BLOCK_NAMES[k]}
         </li>
       ))}
-      <li className="flex items-center gap-1.5">
+      <li className="flex items-center gap-1">
         <svg width="22" height="12" aria-hidden="true">
           <rect width="22" height="12" fill={palette.ink[900]} fillOpacity="0.16" />
         </svg>
         ☾ Night
       </li>
-      <li className="flex items-center gap-1.5">
+      <li className="flex items-center gap-1">
         <svg width="22" height="12" aria-hidden="true">
           <line
             x1="11"
@@ -326,14 +341,14 @@ export function TimelineLegend() {
         </svg>
         Time limit
       </li>
-      <li className="flex items-center gap-1.5">
+      <li className="flex items-center gap-1">
         <svg width="22" height="12" aria-hidden="true">
           <line x1="11" y1="0" x2="11" y2="12" stroke={palette.ink[700]} strokeWidth="1.5" />
           <circle cx="11" cy="6" r="2.5" fill={palette.ink[700]} />
         </svg>
-        Joint task (both crew)
+        Joint task
       </li>
-      <li className="flex items-center gap-1.5">
+      <li className="flex items-center gap-1">
         <svg width="22" height="12" aria-hidden="true">
           <Patterns />
           <rect
@@ -345,9 +360,9 @@ export function TimelineLegend() {
             stroke={palette.danger.DEFAULT}
           />
         </svg>
-        ☾⚠ Eclipse-only task outside night
+        ☾⚠ Eclipse-only, outside night
       </li>
-      <li className="flex items-center gap-1.5">
+      <li className="flex items-center gap-1">
         <svg width="22" height="12" aria-hidden="true">
           <path
             d="M6,2 h10 l-5,7 z"
@@ -356,7 +371,7 @@ export function TimelineLegend() {
             strokeWidth="0.8"
           />
         </svg>
-        Station note at a node of the block
+        Station note at the block
       </li>
     </ul>
   );
@@ -434,9 +449,31 @@ export function roveTarget(
  * The two-person day: one lane per crew member over the orbit's night bands, on elapsed time. The
  * blocks are one Tab stop: arrow keys move along a lane and between lanes, Home and End to its ends.
  */
+/**
+ * The drawing's width: the element's own in pixels, so text and lanes keep their size and a wider
+ * window gives the day more room instead of a taller chart.
+ */
+function useDrawingWidth(ref: RefObject<HTMLElement | null>) {
+  const [width, setWidth] = useState(DEFAULT_W);
+  useLayoutEffect(() => {
+    const el = ref.current;
+    if (!el || typeof ResizeObserver === 'undefined') return;
+    const fit = () => {
+      if (el.clientWidth > 0) setWidth(Math.max(MIN_W, Math.round(el.clientWidth)));
+    };
+    fit();
+    const observer = new ResizeObserver(fit);
+    observer.observe(el);
+    return () => observer.disconnect();
+  }, [ref]);
+  return width;
+}
+
 export function TimelineChart({ timeline, tasks, onPick, cursor, startGmt }: TimelineChartProps) {
   const [active, setActive] = useState<ActiveBlock | null>(null);
   const svg = useRef<SVGSVGElement>(null);
+  const frame = useRef<HTMLDivElement>(null);
+  const W = useDrawingWidth(frame);
   const laneStarts = [
     ...CREW.map((m) => timeline.crew[m].blocks.map((b) => b.start)),
     ...(timeline.arms ?? []).map((l) => l.blocks.map((b) => b.start)),
@@ -463,7 +500,7 @@ export function TimelineChart({ timeline, tasks, onPick, cursor, startGmt }: Tim
   const notesAt = notesByBlock(timeline);
   const detailsId = useId();
   const horizon = Math.max(timeline.timeLimitSeconds, timeline.endSeconds, 60) * 1.03;
-  const x = (t: number) => LEFT + (t / horizon) * PLOT;
+  const x = (t: number) => LEFT + (t / horizon) * (W - LEFT - RIGHT);
   const step = tickStep(horizon);
   const ticks: number[] = [];
   for (let t = 0; t <= horizon; t += step) ticks.push(t);
@@ -474,7 +511,7 @@ export function TimelineChart({ timeline, tasks, onPick, cursor, startGmt }: Tim
   const H = AXIS_Y + 40 + gmtRow;
 
   return (
-    <div className="space-y-3">
+    <div className="space-y-3" ref={frame}>
       <svg
         ref={svg}
         viewBox={`0 0 ${W} ${H}`}
@@ -671,14 +708,10 @@ export function TimelineChart({ timeline, tasks, onPick, cursor, startGmt }: Tim
         </g>
       </svg>
       <TimelineLegend />
-      <p className="text-xs text-text-muted">
-        Keyboard: Tab reaches the blocks once; arrow keys move along a lane and between lanes, Enter goes to
-        the block.
-      </p>
       <div
         id={detailsId}
         aria-live="polite"
-        className="min-h-16 rounded-md border border-surface-line bg-surface-sunken px-4 py-3"
+        className="min-h-10 rounded-md border border-surface-line bg-surface-sunken px-3 py-2"
       >
         <BlockDetails
           active={active}

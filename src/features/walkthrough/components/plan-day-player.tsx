@@ -80,35 +80,38 @@ export function PlanDayPlayer({ timeline, plan, nodes, Scene, focus, onTime }: P
   useEffect(() => onTime?.(clock.t), [coarse, clock, onTime]);
 
   return (
-    <div className="grid gap-4 xl:grid-cols-[minmax(0,1fr)_360px]" data-testid="plan-day">
-      <div className="min-w-0 space-y-3">
-        <Scene
-          stationId={plan.stationId}
-          apiRef={setSceneApi}
-          label="The day in 3D: crew, tethers, items and foot restraints at the scrubber's time"
-          movingArms={playback.arms?.map((a) => a.key)}
-          overlays={
-            <WalkthroughOverlays
-              clock={clock}
-              lanes={lanes}
-              positions={playback.positions}
-              equipment={playback.equipment}
-              normals={playback.normals}
-              arms={playback.arms}
-              onFrame={frame}
-            />
-          }
-        />
-        <PlaybackControls
-          clock={clock}
-          lanes={lanes}
-          eventTimes={times}
-          nightWindows={playback.nightWindows}
-        />
-      </div>
-      <div className="space-y-4">
-        <TetherGauges clock={clock} lanes={lanes} />
-        <DayState clock={clock} lanes={lanes} equipment={playback.equipment} arms={playback.arms} />
+    // side by side where the player itself is wide enough, whatever the window: it may sit in a column
+    <div className="@container" data-testid="plan-day">
+      <div className="grid gap-4 @4xl:grid-cols-[minmax(0,1fr)_360px]">
+        <div className="min-w-0 space-y-3">
+          <Scene
+            stationId={plan.stationId}
+            apiRef={setSceneApi}
+            label="The day in 3D: crew, tethers, items and foot restraints at the scrubber's time"
+            movingArms={playback.arms?.map((a) => a.key)}
+            overlays={
+              <WalkthroughOverlays
+                clock={clock}
+                lanes={lanes}
+                positions={playback.positions}
+                equipment={playback.equipment}
+                normals={playback.normals}
+                arms={playback.arms}
+                onFrame={frame}
+              />
+            }
+          />
+          <PlaybackControls
+            clock={clock}
+            lanes={lanes}
+            eventTimes={times}
+            nightWindows={playback.nightWindows}
+          />
+        </div>
+        <div className="space-y-4">
+          <TetherGauges clock={clock} lanes={lanes} />
+          <DayState clock={clock} lanes={lanes} equipment={playback.equipment} arms={playback.arms} />
+        </div>
       </div>
     </div>
   );
