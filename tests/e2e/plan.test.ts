@@ -164,6 +164,8 @@ describe('plan: build, time, review and export an EVA plan in the built app', ()
     await page.getByText(/approved by Tomas Reyes/).waitFor();
     const history = page.getByRole('list', { name: 'Review history' });
     expect(await history.getByRole('listitem').count()).toBe(2);
+    // the whole page from its top, where the plan's sticky header sits (not over the middle)
+    await page.evaluate(() => window.scrollTo(0, 0));
     await session.screenshot('plan-approved');
 
     const [download] = await Promise.all([

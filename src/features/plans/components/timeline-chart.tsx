@@ -711,7 +711,7 @@ export function TimelineChart({ timeline, tasks, onPick, cursor, startGmt }: Tim
       <div
         id={detailsId}
         aria-live="polite"
-        className="min-h-10 rounded-md border border-surface-line bg-surface-sunken px-3 py-2"
+        className="min-h-14 rounded-md border border-surface-line bg-surface-sunken px-3 py-2"
       >
         <BlockDetails
           active={active}
