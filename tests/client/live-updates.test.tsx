@@ -1,11 +1,13 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { cleanup, screen, waitFor } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
 import type { ChangeEvent } from '@shared/schemas/events';
 import type { FlownEstimate } from '@shared/compute/day/flown-estimates';
 import { staleKeysOf } from '@/app/live-keys';
 import { LiveUpdates } from '@/features/live/live-updates';
 import { useFlownEstimates } from '@/features/plans/api/get-flown-estimates';
 import { TaskForm } from '@/features/plans/components/task-form';
+import { PlanEditor } from '@/features/plans/components/plan-editor';
 import { getPlanQueryOptions } from '@/features/plans/api/get-plan';
 import { usePlanTimeline } from '@/features/plans/api/get-plan-timeline';
 import { planKeys } from '@/features/plans/api/keys';
@@ -15,7 +17,7 @@ import { toWire } from '@shared/compute/day/wire';
 import { LINE_KEYS } from '../factories/day';
 import { buildParsedTask } from '../factories/plan';
 import { buildPlanTimeline, buildPlanView } from '../factories/plan-view';
-import { renderWithQueryClient } from '../setup/client';
+import { renderInDataRouter, renderWithQueryClient } from '../setup/client';
 
 /** Stands in for the server's `GET /api/events` stream: the test says what arrives on it. */
 class StreamStandIn extends EventTarget {
@@ -196,4 +198,43 @@ describe('a change while a first load is on its way', () => {
     expect(await loaded).toMatchObject({ title: 'Renamed', version: before.version + 1 });
     expect(server.asked.plan).toBe(2);
   });
+});
+
+describe('a recomputation that fails', () => {
+  it('says the day shown is the last one computed, and computes it again when asked', async () => {
+    const plan = buildPlanView(dayTasks);
+    let failing = false;
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async (url: string) => {
+        if (url === `/api/plans/${plan.id}/timeline`)
+          return failing
+            ? Response.json(
+                { error: { code: 'UNAVAILABLE', message: 'Every route worker is busy; try again shortly.' } },
+                { status: 503 },
+              )
+            : Response.json(toWire(buildPlanTimeline(plan)));
+        if (url === `/api/stations/${plan.stationId}/flown-estimates`) return Response.json([]);
+        return Response.json({ error: { code: 'NOT_FOUND', message: url } }, { status: 404 });
+      }),
+    );
+    const { queryClient } = renderInDataRouter(
+      <PlanEditor
+        plan={plan}
+        user={{ id: 1, email: 'planner@example.org', name: 'Priya', role: 'planner' }}
+        rehearseHref="/walkthroughs"
+      />,
+    );
+    await screen.findByText(`Computed for version ${plan.version}`);
+    // the server is overloaded when the day is asked again (a 5xx is retried twice, then it shows)
+    failing = true;
+    void queryClient.invalidateQueries({ queryKey: planKeys.timeline(plan.id) });
+    const alert = await screen.findByRole('alert', {}, { timeout: 8000 });
+    expect(alert.textContent).toMatch(/computed for version 3: it could not be recomputed/);
+    expect(alert.textContent).toMatch(/Every route worker is busy/);
+    failing = false;
+    await userEvent.setup().click(screen.getByRole('button', { name: 'Compute again' }));
+    await waitFor(() => expect(screen.queryByText(/could not be recomputed/)).toBeNull());
+    expect(screen.getByText(`Computed for version ${plan.version}`)).toBeTruthy();
+  }, 15_000);
 });

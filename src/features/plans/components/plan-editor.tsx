@@ -11,6 +11,7 @@ import { LeaveGuard } from '@/components/leave-guard';
 import { UnsavedEditsProvider, useUnsavedEdits } from '@/components/unsaved-edits';
 import { PlanningCaution } from '@/components/ui/planning-caution';
 import { PageSpinner } from '@/components/ui/spinner';
+import { apiErrorMessage } from '@/lib/api-client';
 import { cn } from '@/lib/cn';
 import { planExportHref } from '../api/export-plan';
 import { usePlanTimeline } from '../api/get-plan-timeline';
@@ -191,6 +192,18 @@ export function PlanEditor({
           >
             <div id={TIMELINE_ID} tabIndex={-1} className="space-y-3 outline-none">
               <PlanningCaution compact />
+              {tl && timeline.isError && !timeline.isFetching && (
+                // the day on screen is the last one computed: say so, never keep it silently
+                <Alert
+                  tone="danger"
+                  title={`Showing the day as computed for version ${tl.planVersion}: it could not be recomputed`}
+                >
+                  {apiErrorMessage(timeline.error, 'The server did not answer.')}{' '}
+                  <button type="button" className={linkClass} onClick={() => void timeline.refetch()}>
+                    Compute again
+                  </button>
+                </Alert>
+              )}
               {tl ? (
                 <TimelineChart
                   timeline={tl}
