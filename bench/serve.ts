@@ -6,6 +6,7 @@ import net from 'node:net';
 import os from 'node:os';
 import http from 'node:http';
 import path from 'node:path';
+import { chromium } from 'playwright-core';
 import { generateTrussStation } from '../shared/compute/truss-generator';
 import { multipartBody, send } from '../tests/setup/loopback';
 
@@ -144,4 +145,20 @@ export async function serverWithStation(env: Record<string, string>, nodes = 10_
   const engineer = await signIn(server.base, 'engineer@example.org');
   const { doc, stationId } = await importGeneratedStation(server.base, engineer, nodes);
   return { server, engineer, doc, stationId };
+}
+
+/**
+ * Debian's Chromium, headless with software WebGL as the browser tests run it, in its own profile
+ * directory, with the session `cookie` for `base`.
+ */
+export async function signedInChromium(profile: string, base: string, cookie: string) {
+  const context = await chromium.launchPersistentContext(profile, {
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    headless: true,
+    args: ['--no-sandbox', '--disable-gpu', '--use-angle=swiftshader', '--enable-unsafe-swiftshader'],
+    viewport: { width: 1360, height: 860 },
+  });
+  const [name, value] = cookie.split(';')[0].split('=');
+  await context.addCookies([{ name, value, url: base }]);
+  return context;
 }

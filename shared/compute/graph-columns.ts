@@ -97,8 +97,9 @@ export function toGraphColumns(graph: StationGraph): GraphColumns {
 }
 
 /**
- * What the 3D view draws of the nodes and edges, as typed arrays: no object per node or edge. Kept
- * beside the graph `fromGraphColumns` makes (see graphArraysOf).
+ * The station's nodes and edges as typed arrays and plain lists, one entry per node or edge: what
+ * the 3D view draws and what the node finder and the tables show, with no object per node or edge.
+ * Kept beside the graph `fromGraphColumns` makes (see graphArraysOf).
  */
 export interface GraphArrays {
   keys: readonly string[];
@@ -107,82 +108,119 @@ export interface GraphArrays {
   positions: Float64Array;
   /** optional unit normals (x, y, z; NaN where the node has none) */
   normals: Float64Array | null;
+  /** each node's label, where it has one */
+  labels: readonly (string | undefined)[];
   edgeFrom: Uint32Array;
   edgeTo: Uint32Array;
   /** index into EDGE_KINDS */
   edgeKinds: Uint8Array;
   edgeClosed: Uint8Array;
+  /** the graph endpoint's edge ids (an edge without one: its place in the list plus one) */
+  edgeIds: Float64Array;
+  /** the length given, else the distance between the ends */
+  edgeLengths: Float64Array;
+  /** each edge's label, where it has one */
+  edgeLabels: readonly (string | undefined)[];
 }
 
 const arraysOfGraph = new WeakMap<object, GraphArrays>();
 
-/** The graph the columns hold, equal to the graph endpoint's answer; its typed arrays are kept for graphArraysOf. */
+/** `target[key]` made by `make` when first read, and kept. */
+function lazily<T extends object, K extends keyof T>(target: T, key: K, make: () => T[K]) {
+  Object.defineProperty(target, key, {
+    configurable: true,
+    enumerable: true,
+    get() {
+      const value = make();
+      Object.defineProperty(target, key, { value, writable: true, configurable: true, enumerable: true });
+      return value;
+    },
+  });
+}
+
+/**
+ * The graph the columns hold, equal to the graph endpoint's answer. Its typed arrays are made at
+ * once and kept for graphArraysOf; its `nodes` and `edges` objects only when first read (a 100k-node
+ * station's are some 220k objects, which the 3D view, the node finder and the tables do without).
+ */
 export function fromGraphColumns(columns: GraphColumns): StationGraph {
   const { keys, kinds, positions, more } = columns.nodes;
   const n = keys.length;
-  const nodes = new Array<StationNode>(n);
+  const e = columns.edges;
+  const m = e.from.length;
   const arrays: GraphArrays = {
     keys,
     kinds: Uint8Array.from(kinds),
     positions: Float64Array.from(positions),
     normals: null,
-    edgeFrom: Uint32Array.from(columns.edges.from),
-    edgeTo: Uint32Array.from(columns.edges.to),
-    edgeKinds: Uint8Array.from(columns.edges.kinds),
-    edgeClosed: new Uint8Array(columns.edges.from.length),
+    labels: new Array<string | undefined>(n),
+    edgeFrom: Uint32Array.from(e.from),
+    edgeTo: Uint32Array.from(e.to),
+    edgeKinds: Uint8Array.from(e.kinds),
+    edgeClosed: new Uint8Array(m),
+    edgeIds: new Float64Array(m),
+    edgeLengths: new Float64Array(m),
+    edgeLabels: new Array<string | undefined>(m),
   };
-  for (let i = 0; i < n; i++) {
-    nodes[i] = {
-      key: keys[i],
-      kind: NODE_KINDS[kinds[i]],
-      position: [positions[i * 3], positions[i * 3 + 1], positions[i * 3 + 2]],
-    };
-  }
   for (const [i, rest] of more) {
-    Object.assign(nodes[i], rest);
     if (rest.normal) setNormal(arrays, i, rest.normal, n);
+    if (rest.label !== undefined) (arrays.labels as (string | undefined)[])[i] = rest.label;
   }
-  const e = columns.edges;
-  const m = e.from.length;
-  const given = new Map(e.given);
-  const labels = new Map(e.labels);
-  const closed = new Set(e.closed);
-  const edges = new Array<GraphEdge>(m);
   let id = 0;
   for (let i = 0; i < m; i++) {
     id += e.idSteps[i];
-    const [a, b] = [e.from[i] * 3, e.to[i] * 3];
-    const length = given.get(i);
-    const label = labels.get(i);
-    const edge: GraphEdge = {
-      id,
-      from: keys[e.from[i]],
-      to: keys[e.to[i]],
-      kind: EDGE_KINDS[e.kinds[i]] as EdgeKind,
-      lengthM:
-        length ??
-        Math.hypot(
-          positions[a] - positions[b],
-          positions[a + 1] - positions[b + 1],
-          positions[a + 2] - positions[b + 2],
-        ),
-      lengthGiven: length !== undefined,
-      closed: closed.has(i),
-    };
-    if (label !== undefined) edge.label = label;
-    edges[i] = edge;
-    if (edge.closed) arrays.edgeClosed[i] = 1;
+    arrays.edgeIds[i] = id;
   }
-  const graph: StationGraph = {
-    station: columns.station,
-    segments: columns.segments,
-    nodes,
-    edges,
-    hazards: columns.hazards,
-    arms: columns.arms,
-  };
+  for (const i of e.closed) arrays.edgeClosed[i] = 1;
+  for (const [i, label] of e.labels) (arrays.edgeLabels as (string | undefined)[])[i] = label;
+  fillLengths(arrays);
+  for (const [i, metres] of e.given) arrays.edgeLengths[i] = metres;
+
+  const graph = { station: columns.station, segments: columns.segments } as StationGraph;
+  lazily(graph, 'nodes', () => {
+    const nodes = new Array<StationNode>(n);
+    for (let i = 0; i < n; i++) {
+      nodes[i] = {
+        key: keys[i],
+        kind: NODE_KINDS[kinds[i]],
+        position: [positions[i * 3], positions[i * 3 + 1], positions[i * 3 + 2]],
+      };
+    }
+    for (const [i, rest] of more) Object.assign(nodes[i], rest);
+    return nodes;
+  });
+  lazily(graph, 'edges', () => {
+    const given = new Set(e.given.map(([i]) => i));
+    const edges = new Array<GraphEdge>(m);
+    for (let i = 0; i < m; i++) {
+      const edge: GraphEdge = {
+        id: arrays.edgeIds[i],
+        from: keys[e.from[i]],
+        to: keys[e.to[i]],
+        kind: EDGE_KINDS[e.kinds[i]] as EdgeKind,
+        lengthM: arrays.edgeLengths[i],
+        lengthGiven: given.has(i),
+        closed: arrays.edgeClosed[i] === 1,
+      };
+      const label = arrays.edgeLabels[i];
+      if (label !== undefined) edge.label = label;
+      edges[i] = edge;
+    }
+    return edges;
+  });
+  graph.hazards = columns.hazards;
+  graph.arms = columns.arms;
   arraysOfGraph.set(graph, arrays);
   return graph;
+}
+
+/** Each edge's length as the distance between its ends (the server's own computation). */
+function fillLengths(arrays: GraphArrays) {
+  const { positions: p, edgeFrom, edgeTo, edgeLengths } = arrays;
+  for (let i = 0; i < edgeFrom.length; i++) {
+    const [a, b] = [edgeFrom[i] * 3, edgeTo[i] * 3];
+    edgeLengths[i] = Math.hypot(p[a] - p[b], p[a + 1] - p[b + 1], p[a + 2] - p[b + 2]);
+  }
 }
 
 function setNormal(arrays: GraphArrays, i: number, normal: readonly number[], n: number) {
@@ -192,8 +230,16 @@ function setNormal(arrays: GraphArrays, i: number, normal: readonly number[], n:
 
 /** The station's nodes and edges as `GraphArrays`, at the least shape the 3D view is given. */
 export interface ArraySource {
-  nodes: readonly Pick<StationNode, 'key' | 'kind' | 'position' | 'normal'>[];
-  edges: readonly { from: string; to: string; kind: EdgeKind; closed?: boolean }[];
+  nodes: readonly Pick<StationNode, 'key' | 'kind' | 'position' | 'normal' | 'label'>[];
+  edges: readonly {
+    id?: number;
+    from: string;
+    to: string;
+    kind: EdgeKind;
+    closed?: boolean;
+    lengthM?: number;
+    label?: string;
+  }[];
 }
 
 /**
@@ -209,10 +255,14 @@ export function graphArraysOf(station: ArraySource): GraphArrays {
     kinds: new Uint8Array(n),
     positions: new Float64Array(n * 3),
     normals: null,
+    labels: station.nodes.map((node) => node.label),
     edgeFrom: new Uint32Array(0),
     edgeTo: new Uint32Array(0),
     edgeKinds: new Uint8Array(0),
     edgeClosed: new Uint8Array(0),
+    edgeIds: new Float64Array(0),
+    edgeLengths: new Float64Array(0),
+    edgeLabels: [],
   };
   const indexOf = new Map<string, number>();
   station.nodes.forEach((node, i) => {
@@ -225,19 +275,39 @@ export function graphArraysOf(station: ArraySource): GraphArrays {
   const to: number[] = [];
   const kinds: number[] = [];
   const closed: number[] = [];
-  for (const e of station.edges) {
+  const ids: number[] = [];
+  const given: [number, number][] = [];
+  const labels: (string | undefined)[] = [];
+  station.edges.forEach((e, i) => {
     const a = indexOf.get(e.from);
     const b = indexOf.get(e.to);
-    if (a === undefined || b === undefined) continue;
+    if (a === undefined || b === undefined) return;
+    if (e.lengthM !== undefined) given.push([from.length, e.lengthM]);
     from.push(a);
     to.push(b);
     kinds.push(EDGE_KIND_INDEX.get(e.kind) ?? 0);
     closed.push(e.closed ? 1 : 0);
-  }
+    ids.push(e.id ?? i + 1);
+    labels.push(e.label);
+  });
   arrays.edgeFrom = Uint32Array.from(from);
   arrays.edgeTo = Uint32Array.from(to);
   arrays.edgeKinds = Uint8Array.from(kinds);
   arrays.edgeClosed = Uint8Array.from(closed);
+  arrays.edgeIds = Float64Array.from(ids);
+  arrays.edgeLengths = new Float64Array(from.length);
+  arrays.edgeLabels = labels;
+  fillLengths(arrays);
+  for (const [i, metres] of given) arrays.edgeLengths[i] = metres;
   arraysOfGraph.set(station, arrays);
   return arrays;
+}
+
+const nodeIndexes = new WeakMap<GraphArrays, Map<string, number>>();
+
+/** Each node key's index in the arrays (made when first asked, then kept). */
+export function nodeIndexOf(arrays: GraphArrays): ReadonlyMap<string, number> {
+  let index = nodeIndexes.get(arrays);
+  if (!index) nodeIndexes.set(arrays, (index = new Map(arrays.keys.map((k, i) => [k, i]))));
+  return index;
 }

@@ -45,7 +45,7 @@ describe('scene builders', () => {
     let expectedTriangles = 0;
     for (const kind of NODE_KINDS) {
       const ofKind = doc.nodes.filter((n) => n.kind === kind);
-      const mesh = objects.glyphs[kind];
+      const mesh = objects.glyphs[kind] as THREE.InstancedMesh | undefined;
       expect(mesh?.count ?? 0).toBe(ofKind.length);
       if (!mesh) continue;
       expect(mesh.userData.pick.keys).toEqual(ofKind.map((n) => n.key));
@@ -61,6 +61,50 @@ describe('scene builders', () => {
     const glyphsOnly = new THREE.Group();
     for (const mesh of Object.values(objects.glyphs)) glyphsOnly.add(mesh!.clone());
     expect(countDrawCalls(glyphsOnly).triangles).toBe(expectedTriangles);
+  });
+
+  it('past the glyph budget draws the most numerous kinds as dots, one per node where the node is, picked by a ray passing near', () => {
+    const doc = generateTrussStation({ nodes: 1500, seed: 11 });
+    const objects = buildStationObjects(doc, { glyphBudget: 500 });
+    objects.root.updateMatrixWorld(true);
+    const ofKind = (kind: string) => doc.nodes.filter((n) => n.kind === kind);
+    let instanced = 0;
+    const dotted: string[] = [];
+    for (const kind of NODE_KINDS) {
+      const mesh = objects.glyphs[kind];
+      if (mesh instanceof THREE.InstancedMesh) instanced += mesh.count;
+      if (!(mesh instanceof THREE.Points)) continue;
+      dotted.push(kind);
+      const nodes = ofKind(kind);
+      const at = mesh.geometry.getAttribute('position');
+      expect(at.count).toBe(nodes.length);
+      expect(mesh.userData.pick.keys).toEqual(nodes.map((n) => n.key));
+      const last = nodes.length - 1;
+      expect([at.getX(last), at.getY(last), at.getZ(last)].map((v) => +v.toFixed(3))).toEqual(
+        nodes[last].position.map((v) => +v.toFixed(3)),
+      );
+    }
+    // the largest kind goes first, and only as many as needed
+    expect(dotted[0] ?? '').toBe('junction');
+    expect(instanced).toBeLessThanOrEqual(500);
+    expect(instanced + ofKind('junction').length).toBeGreaterThan(500);
+    expect(countDrawCalls(objects.root).points).toBe(doc.nodes.length - instanced);
+
+    // the highest junction, seen from 30 m above and 2 cm to the side
+    const top = ofKind('junction').reduce((a, b) => (b.position[2] > a.position[2] ? b : a));
+    const [x, y, z] = top.position;
+    const down = (dx: number) =>
+      resolvePick(
+        new THREE.Raycaster(
+          new THREE.Vector3(x + dx, y, z + 30),
+          new THREE.Vector3(0, 0, -1),
+        ).intersectObject(objects.glyphs.junction!),
+      );
+    expect(down(0.02)).toEqual({ type: 'node', key: top.key });
+    // 1 m to the side at 30 m is well outside a dot's reach
+    expect(down(1)?.type === 'node' && (down(1) as { key: string }).key === top.key).toBe(false);
+    applyLayers(objects, { ...ALL_LAYERS_ON, junction: false });
+    expect(down(0.02)).toBeNull();
   });
 
   it('builds each truss bay from four longerons, a frame per bay station and a brace per bay face', () => {

@@ -1,6 +1,7 @@
 import { useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
 import { useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { Link, useParams, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { graphArraysOf } from '@shared/compute/graph-columns';
 import type { StationGraph } from '@shared/schemas/station-edits';
 import { PageHeader } from '@/components/layouts/app-layout';
 import { SidePanel, useSidePanelState, Workspace } from '@/components/layouts/workspace';
@@ -96,8 +97,10 @@ export function StationView({
   // `?node=KEY` (links from other screens, e.g. accepted sockets) opens with that node selected
   const [searchParams] = useSearchParams();
   const linkedNode = searchParams.get('node');
+  // the nodes in columns: the finder and the scene read them without an object per node
+  const arrays = graphArraysOf(graph);
   const [selection, setSelection] = useState<StationSelection>(() =>
-    linkedNode && graph.nodes.some((n) => n.key === linkedNode) ? { type: 'node', key: linkedNode } : null,
+    linkedNode && arrays.keys.includes(linkedNode) ? { type: 'node', key: linkedNode } : null,
   );
   const [layers, setLayers] = useState<SceneLayers>(DEFAULT_LAYERS);
   const [lastSurfacePick, setLastSurfacePick] = useState<SurfacePick | null>(null);
@@ -196,7 +199,7 @@ export function StationView({
         <NodeList
           floating
           className="absolute top-2 left-2 z-10 w-80 max-w-[calc(100%-1rem)]"
-          nodes={graph.nodes}
+          arrays={arrays}
           selectedKey={selection?.type === 'node' ? selection.key : null}
           onSelect={(key) => focus({ type: 'node', key })}
         />
@@ -300,7 +303,7 @@ export default function StationRoute() {
     graph.data && {
       ...graph.data.station,
       tetherLengthM: graph.data.station.settings.tetherLengthM,
-      nodes: graph.data.nodes,
+      arrays: graphArraysOf(graph.data),
     },
   );
   if (!graph.data) return <PageSpinner />;

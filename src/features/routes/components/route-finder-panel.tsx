@@ -28,7 +28,7 @@ export function RouteFinderPanel({ finder, selection, onFocusNode }: RouteFinder
         <SelectionPick selection={selection} picking={picking !== null} onNode={finder.selectNode} />
       )}
       <RouteFinderForm
-        options={finder.nodeOptions}
+        options={finder.nodeOptions()}
         defaults={finder.defaults}
         picking={picking}
         onTogglePick={finder.togglePick}

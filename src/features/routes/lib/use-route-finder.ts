@@ -1,6 +1,7 @@
 import { useCallback, useMemo, useState } from 'react';
 import type { RouteMode } from '@shared/schemas/route';
-import type { NodeKind, Vec3 } from '@shared/schemas/station';
+import { nodeIndexOf, type GraphArrays } from '@shared/compute/graph-columns';
+import { NODE_KINDS, type Vec3 } from '@shared/schemas/station';
 import type { LengthUnit } from '@shared/compute/units';
 import { useRouteComparison, type RouteParams } from '../api/get-route';
 import { tetherText, type PickedNode, type PickField, type RouteFormValues } from './route-form';
@@ -10,7 +11,23 @@ export interface RouteFinderStation {
   id: number;
   version: number;
   tetherLengthM: number;
-  nodes: readonly { key: string; kind: NodeKind; label?: string; position: Vec3 }[];
+  /** the station's nodes in columns (graphArraysOf) */
+  arrays: GraphArrays;
+}
+
+type NodeOption = { key: string; label?: string; kind: (typeof NODE_KINDS)[number] };
+const optionsOf = new WeakMap<GraphArrays, NodeOption[]>();
+
+/** The station's nodes by key, as the form's choices; made once per graph. */
+function nodeOptionsOf(arrays: GraphArrays): NodeOption[] {
+  let made = optionsOf.get(arrays);
+  if (made) return made;
+  const { keys, labels, kinds } = arrays;
+  const { compare } = new Intl.Collator();
+  const order = keys.map((_, i) => i).sort((a, b) => compare(keys[a], keys[b]));
+  made = order.map((i) => ({ key: keys[i], label: labels[i], kind: NODE_KINDS[kinds[i]] }));
+  optionsOf.set(arrays, made);
+  return made;
 }
 
 interface Submitted {
@@ -36,22 +53,25 @@ export function useRouteFinder(station: RouteFinderStation | undefined) {
     station ? (submitted?.params ?? null) : null,
   );
 
-  const nodes = station?.nodes;
-  const positions = useMemo(() => new Map(nodes?.map((n) => [n.key, n.position]) ?? []), [nodes]);
-  const nodeOptions = useMemo(
-    () =>
-      [...(nodes ?? [])]
-        .sort((a, b) => a.key.localeCompare(b.key))
-        .map(({ key, label, kind }) => ({ key, label, kind })),
-    [nodes],
+  const arrays = station?.arrays;
+  const positionOf = useCallback(
+    (key: string): Vec3 | undefined => {
+      const i = arrays && nodeIndexOf(arrays).get(key);
+      if (!arrays || i === undefined) return undefined;
+      const p = arrays.positions;
+      return [p[i * 3], p[i * 3 + 1], p[i * 3 + 2]];
+    },
+    [arrays],
   );
+  /** the nodes the form offers, by key: made when the form first asks (not while the screen opens) */
+  const nodeOptions = useCallback(() => (arrays ? nodeOptionsOf(arrays) : []), [arrays]);
 
   const chosen = submitted ? comparison.byMode[submitted.mode] : undefined;
   const route = chosen?.data;
   /** what the 3D overlay draws: the chosen mode's route, when it is feasible */
   const model = useMemo(
-    () => (route?.feasible ? routeOverlayModel(route, (k) => positions.get(k)) : null),
-    [route, positions],
+    () => (route?.feasible ? routeOverlayModel(route, positionOf) : null),
+    [route, positionOf],
   );
 
   /** a node clicked on the screen: fills the field being picked; true when it did */

@@ -5,6 +5,8 @@ export interface DrawStats {
   triangles: number;
   lineSegments: number;
   instances: number;
+  /** dots (one vertex each) */
+  points: number;
 }
 
 /**
@@ -13,7 +15,7 @@ export interface DrawStats {
  * counted per instance × instance count.
  */
 export function countDrawCalls(root: THREE.Object3D): DrawStats {
-  const stats: DrawStats = { drawCalls: 0, triangles: 0, lineSegments: 0, instances: 0 };
+  const stats: DrawStats = { drawCalls: 0, triangles: 0, lineSegments: 0, instances: 0, points: 0 };
   root.traverseVisible((o) => {
     if (!(o instanceof THREE.Mesh || o instanceof THREE.Line || o instanceof THREE.Points)) return;
     const drawn: THREE.Mesh | THREE.Line | THREE.Points = o;
@@ -27,6 +29,7 @@ export function countDrawCalls(root: THREE.Object3D): DrawStats {
     if (drawn instanceof THREE.Mesh) stats.triangles += (vertices / 3) * instances;
     else if (drawn instanceof THREE.LineSegments) stats.lineSegments += vertices / 2;
     else if (drawn instanceof THREE.Line) stats.lineSegments += Math.max(0, vertices - 1);
+    else stats.points += vertices;
   });
   return stats;
 }

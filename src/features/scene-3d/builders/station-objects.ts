@@ -1,5 +1,5 @@
 import * as THREE from 'three';
-import { graphArraysOf } from '@shared/compute/graph-columns';
+import { graphArraysOf, nodeIndexOf } from '@shared/compute/graph-columns';
 import {
   NODE_KINDS,
   type Arm,
@@ -10,7 +10,7 @@ import {
   type Vec3,
 } from '@shared/schemas/station';
 import { buildEdgeLines, type SceneEdge } from './edges';
-import { buildGlyphLayers } from './glyphs';
+import { buildGlyphLayers, GLYPH_INSTANCE_BUDGET } from './glyphs';
 import { buildHazardMeshes } from './hazards';
 import { SCENE_COLORS } from './scene-colors';
 import { buildSegmentMeshes, segmentMatrix } from './segments';
@@ -50,6 +50,7 @@ export interface PickData {
 
 export interface NodeAt {
   kind: NodeKind;
+  label?: string;
   instance: number;
   position: THREE.Vector3;
 }
@@ -58,7 +59,8 @@ export interface StationObjects {
   root: THREE.Group;
   truss: THREE.Object3D[];
   handrails: THREE.Object3D[];
-  glyphs: Partial<Record<NodeKind, THREE.InstancedMesh>>;
+  /** each kind's glyphs, or its dots past the glyph instance budget (see glyphs.ts) */
+  glyphs: Partial<Record<NodeKind, THREE.InstancedMesh | THREE.Points>>;
   hazards: THREE.Object3D[];
   /** node key → its position, kind and instance in its kind's mesh (made when asked) */
   nodeIndex: { get(key: string): NodeAt | undefined };
@@ -72,7 +74,10 @@ export interface StationObjects {
  * Builds every drawn object of a station in plain three.js (no renderer needed, so the benchmark
  * runs it in Node). The object count depends on which kinds are present, never on how many.
  */
-export function buildStationObjects(station: SceneStation): StationObjects {
+export function buildStationObjects(
+  station: SceneStation,
+  { glyphBudget = GLYPH_INSTANCE_BUDGET }: { glyphBudget?: number } = {},
+): StationObjects {
   const root = new THREE.Group();
   root.name = 'station';
 
@@ -88,7 +93,7 @@ export function buildStationObjects(station: SceneStation): StationObjects {
   const arrays = graphArraysOf(station);
   const handrails = buildEdgeLines(arrays);
   const instances = new Uint32Array(arrays.keys.length);
-  const glyphLayers = buildGlyphLayers(arrays, instances);
+  const glyphLayers = buildGlyphLayers(arrays, instances, glyphBudget);
   const hazards = buildHazardMeshes(station.hazards);
   const glyphs: StationObjects['glyphs'] = {};
   for (const layer of glyphLayers) {
@@ -98,15 +103,14 @@ export function buildStationObjects(station: SceneStation): StationObjects {
   root.add(...truss, ...handrails, ...glyphLayers.map((l) => l.mesh), ...hazards);
   const bounds = stationBounds(station);
   const outline = stationOutline(station);
-  let indexOf: Map<string, number> | null = null;
   const nodeIndex = {
     get(key: string): NodeAt | undefined {
-      indexOf ??= new Map(arrays.keys.map((k, i) => [k, i]));
-      const i = indexOf.get(key);
+      const i = nodeIndexOf(arrays).get(key);
       if (i === undefined) return undefined;
       const p = arrays.positions;
       return {
         kind: NODE_KINDS[arrays.kinds[i]],
+        label: arrays.labels[i],
         instance: instances[i],
         position: new THREE.Vector3(p[i * 3], p[i * 3 + 1], p[i * 3 + 2]),
       };

@@ -1,5 +1,6 @@
 import { useMemo } from 'react';
-import type { StationNode } from '@shared/schemas/station';
+import { graphArraysOf } from '@shared/compute/graph-columns';
+import type { Vec3 } from '@shared/schemas/station';
 import { ArmBoom, ArmShell } from '@/components/scene/arm-boom';
 import { boomRestTip } from '@/components/scene/boom-pose';
 import type { SceneLayers, SceneStation } from '../builders/station-objects';
@@ -18,9 +19,13 @@ export function ArmsLayer({
   hidden?: readonly string[];
 }) {
   const bases = useMemo(() => {
-    const keys = new Set((station.arms ?? []).map((a) => a.baseNode));
-    const out = new Map<string, StationNode['position']>();
-    for (const n of station.nodes) if (keys.has(n.key)) out.set(n.key, n.position);
+    const out = new Map<string, Vec3>();
+    if (!station.arms?.length) return out;
+    const { keys, positions: p } = graphArraysOf(station);
+    const bases = new Set(station.arms.map((a) => a.baseNode));
+    keys.forEach((key, i) => {
+      if (bases.has(key)) out.set(key, [p[i * 3], p[i * 3 + 1], p[i * 3 + 2]]);
+    });
     return out;
   }, [station]);
   return (

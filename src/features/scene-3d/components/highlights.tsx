@@ -1,6 +1,7 @@
 import { useMemo } from 'react';
 import * as THREE from 'three';
-import type { Hazard, StationNode, Vec3 } from '@shared/schemas/station';
+import { graphArraysOf } from '@shared/compute/graph-columns';
+import { NODE_KINDS, type Hazard, type Vec3 } from '@shared/schemas/station';
 import { SCENE_COLORS } from '../builders/scene-colors';
 import type { SceneStation, StationObjects } from '../builders/station-objects';
 import { PathLine, SceneLabel } from './pieces';
@@ -12,7 +13,7 @@ export type SceneSelection = { type: 'node' | 'edge' | 'hazard'; key: string } |
 export const edgeSelectionKey = (edge: { id?: number }, index: number) =>
   edge.id !== undefined ? String(edge.id) : `#${index}`;
 
-const nodeText = (node: StationNode | undefined, key: string) =>
+const nodeText = (node: { label?: string } | undefined, key: string) =>
   node?.label ? `${key} — ${node.label}` : key;
 
 function HazardCage({ hazard }: { hazard: Hazard }) {
@@ -54,10 +55,7 @@ export function SelectionHighlight({
           <meshBasicMaterial color={SCENE_COLORS.selection} wireframe depthTest={false} transparent />
         </mesh>
         <SceneLabel position={p} tone="light" priority={LABEL_PRIORITY.selected}>
-          {nodeText(
-            station.nodes.find((n) => n.key === selection.key),
-            selection.key,
-          )}
+          {nodeText(at, selection.key)}
         </SceneLabel>
       </group>
     );
@@ -80,15 +78,19 @@ export function SelectionHighlight({
   );
 }
 
-const LABELLED_KINDS = new Set(['airlock', 'worksite']);
+const LABELLED_KINDS = new Set<string>(['airlock', 'worksite']);
 const MAX_LABELS = 60;
 
 /** Labels for the few nodes a crew navigates by (airlocks, worksites), not for every junction. */
 export function NodeLabels({ station, hidden }: { station: SceneStation; hidden?: string | null }) {
-  const labelled = useMemo(
-    () => station.nodes.filter((n) => LABELLED_KINDS.has(n.kind)).slice(0, MAX_LABELS),
-    [station.nodes],
-  );
+  const labelled = useMemo(() => {
+    const { keys, kinds, positions: p } = graphArraysOf(station);
+    const out: { key: string; position: Vec3 }[] = [];
+    for (let i = 0; i < keys.length && out.length < MAX_LABELS; i++)
+      if (LABELLED_KINDS.has(NODE_KINDS[kinds[i]]))
+        out.push({ key: keys[i], position: [p[i * 3], p[i * 3 + 1], p[i * 3 + 2]] });
+    return out;
+  }, [station]);
   return (
     <>
       {labelled
@@ -102,23 +104,12 @@ export function NodeLabels({ station, hidden }: { station: SceneStation; hidden?
   );
 }
 
-export function HoverLabel({
-  station,
-  objects,
-  nodeKey,
-}: {
-  station: SceneStation;
-  objects: StationObjects;
-  nodeKey: string | null;
-}) {
+export function HoverLabel({ objects, nodeKey }: { objects: StationObjects; nodeKey: string | null }) {
   const at = nodeKey ? objects.nodeIndex.get(nodeKey) : undefined;
   if (!nodeKey || !at) return null;
   return (
     <SceneLabel position={at.position.toArray() as Vec3} tone="light" priority={LABEL_PRIORITY.hovered}>
-      {nodeText(
-        station.nodes.find((n) => n.key === nodeKey),
-        nodeKey,
-      )}
+      {nodeText(at, nodeKey)}
     </SceneLabel>
   );
 }

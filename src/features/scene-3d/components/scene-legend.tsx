@@ -1,7 +1,7 @@
 import type { ReactNode } from 'react';
 import { NODE_KINDS, type NodeKind } from '@shared/schemas/station';
 import { EDGE_PATTERNS, type EdgeLayerId } from '../builders/edges';
-import { GLYPH_SHAPES } from '../builders/glyphs';
+import { GLYPH_INSTANCE_BUDGET, GLYPH_SHAPES } from '../builders/glyphs';
 import { EDGE_COLORS, HAZARD_COLORS, NODE_COLORS } from '../builders/scene-colors';
 
 const NODE_NAMES: Record<NodeKind, string> = {
@@ -64,6 +64,10 @@ export function SceneLegend() {
         {NODE_KINDS.map((kind) => (
           <Item key={kind} icon={<Glyph kind={kind} />} name={NODE_NAMES[kind]} detail={GLYPH_SHAPES[kind]} />
         ))}
+        <li className="pt-1 text-text-muted">
+          Past {GLYPH_INSTANCE_BUDGET.toLocaleString('en')} nodes the most numerous kinds are drawn as dots of
+          their colour.
+        </li>
       </ul>
       <ul className="space-y-1.5" aria-label="Edge lines">
         {(Object.keys(EDGE_NAMES) as EdgeLayerId[]).map((id) => (

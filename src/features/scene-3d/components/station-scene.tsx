@@ -114,7 +114,7 @@ export function StationScene({
             />
             <SelectionHighlight station={graph} objects={objects} selection={selection} />
             {hovered && hovered !== (selection?.type === 'node' ? selection.key : null) && (
-              <HoverLabel station={graph} objects={objects} nodeKey={hovered} />
+              <HoverLabel objects={objects} nodeKey={hovered} />
             )}
             {layers.labels && (
               <NodeLabels station={graph} hidden={selection?.type === 'node' ? selection.key : null} />

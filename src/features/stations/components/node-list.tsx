@@ -1,5 +1,6 @@
 import { useEffect, useId, useMemo, useRef, useState, type KeyboardEvent } from 'react';
-import type { StationNode } from '@shared/schemas/station';
+import type { GraphArrays } from '@shared/compute/graph-columns';
+import { NODE_KINDS } from '@shared/schemas/station';
 import { Input } from '@/components/ui/input';
 import { cn } from '@/lib/cn';
 
@@ -10,13 +11,14 @@ const SHOWN = 200;
  * key or label, arrows move, Enter selects (the 3D view follows).
  */
 export function NodeList({
-  nodes,
+  arrays,
   selectedKey,
   onSelect,
   floating = false,
   className,
 }: {
-  nodes: readonly StationNode[];
+  /** the station's nodes in columns (keys, kinds, labels): no object per node */
+  arrays: Pick<GraphArrays, 'keys' | 'kinds' | 'labels'>;
   selectedKey: string | null;
   onSelect: (key: string) => void;
   /**
@@ -32,13 +34,22 @@ export function NodeList({
   const listShown = !floating || focused;
   const [active, setActive] = useState(0);
   const listRef = useRef<HTMLUListElement>(null);
+  const { keys, kinds, labels } = arrays;
+  const total = keys.length;
+  // the indices of the nodes that match, in the station's order
   const matches = useMemo(() => {
     const q = query.trim().toLowerCase();
-    return q
-      ? nodes.filter((n) => n.key.toLowerCase().includes(q) || n.label?.toLowerCase().includes(q))
-      : nodes;
-  }, [nodes, query]);
-  const shown = matches.slice(0, SHOWN);
+    if (!q) return null;
+    const out: number[] = [];
+    for (let i = 0; i < keys.length; i++)
+      if (keys[i].toLowerCase().includes(q) || labels[i]?.toLowerCase().includes(q)) out.push(i);
+    return out;
+  }, [keys, labels, query]);
+  const matched = matches?.length ?? total;
+  const shown = Array.from({ length: Math.min(SHOWN, matched) }, (_, j) => {
+    const i = matches ? matches[j] : j;
+    return { key: keys[i], label: labels[i], kind: NODE_KINDS[kinds[i]] };
+  });
 
   // a selection made elsewhere (a click in 3D) moves the list's cursor to it
   const [followed, setFollowed] = useState(selectedKey);
@@ -109,10 +120,8 @@ export function NodeList({
         onKeyDown={onKeyDown}
       />
       <p className={cn('text-xs text-text-muted', !listShown && 'sr-only')} aria-live="polite">
-        {matches.length === nodes.length
-          ? `${nodes.length} nodes`
-          : `${matches.length} of ${nodes.length} nodes match`}
-        {matches.length > SHOWN && ` — first ${SHOWN} shown, type more to narrow`}
+        {matched === total ? `${total} nodes` : `${matched} of ${total} nodes match`}
+        {matched > SHOWN && ` — first ${SHOWN} shown, type more to narrow`}
       </p>
       <ul
         ref={listRef}

@@ -57,7 +57,14 @@ function HazardList({ hazards, onSelect }: { hazards: Hazard[]; onSelect: (s: St
   );
 }
 
-const positions = (graph: StationGraph) => new Map(graph.nodes.map((n) => [n.key, n.position]));
+const positionsOf = new WeakMap<StationGraph, Map<string, Vec3>>();
+
+/** Each node's position by key, made once per graph. */
+function positions(graph: StationGraph): Map<string, Vec3> {
+  let made = positionsOf.get(graph);
+  if (!made) positionsOf.set(graph, (made = new Map(graph.nodes.map((n) => [n.key, n.position]))));
+  return made;
+}
 
 function edgeHazards(graph: StationGraph, edge: GraphEdge): Hazard[] {
   const at = positions(graph);
