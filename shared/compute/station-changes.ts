@@ -100,6 +100,38 @@ export interface CollectionDelta {
   came: { item: unknown; at: number }[];
 }
 
+/**
+ * Each identity's place in a list, made when first needed and handed on to the list a change makes
+ * from it (moved, not shared: the older list makes its own again if it is changed again), so a
+ * change finds the items it names without making the identity of every item (an edge's is a string
+ * built from its ends). Lists whose identities repeat get none.
+ */
+const placesOf = new WeakMap<readonly unknown[], Map<string, number> | null>();
+
+function placesIn<T>(
+  items: readonly T[],
+  id: (item: T) => string,
+  names: Iterable<string>,
+): Map<string, number> | null {
+  let places = placesOf.get(items);
+  // kept places are checked where they are read (a list is never changed in place, but a caller's
+  // mistake must not turn into the wrong item changed): else made again
+  if (places === null) return null;
+  if (places && places.size === items.length) {
+    let sound = true;
+    for (const k of names) {
+      const at = places.get(k);
+      if (at !== undefined && id(items[at]) !== k) sound = false;
+    }
+    if (sound) return places;
+  }
+  places = new Map<string, number>();
+  for (let i = 0; i < items.length; i++) places.set(id(items[i]), i);
+  if (places.size !== items.length) places = null;
+  placesOf.set(items, places);
+  return places;
+}
+
 function applyCollection<T>(
   items: readonly T[],
   change: CollectionChange<T>,
@@ -120,34 +152,86 @@ function applyCollection<T>(
   const out: T[] = [];
   const seen = new Set<string>();
   // a change that only appends leaves every item where it was: no identity to look up
-  if (byId.size === 0 && removed.size === 0) for (const item of items) out.push(keep(item));
-  else
-    for (const item of items) {
-      const k = id(item);
-      if (removed.has(k)) {
-        delta?.gone.push(item);
-        continue;
-      }
-      const next = byId.get(k);
-      if (next === undefined) {
-        out.push(keep(item));
-        continue;
-      }
-      seen.add(k);
-      const made = structuredClone(next);
-      delta?.gone.push(item);
-      delta?.came.push({ item: made, at: out.length });
-      out.push(made);
+  const places =
+    byId.size === 0 && removed.size === 0
+      ? placesOf.get(items)?.size === items.length
+        ? placesOf.get(items)
+        : undefined
+      : placesIn(items, id, [...removed, ...byId.keys()]);
+  const touched: number[] = [];
+  if (places) {
+    for (const k of [...removed, ...byId.keys()]) {
+      const at = places.get(k);
+      if (at !== undefined) touched.push(at);
     }
+    touched.sort((a, b) => a - b);
+  }
+  // where the first item taken out was (the items after it move up) and where replaced ones are
+  let shifted = Infinity;
+  const renamed: number[] = [];
+  /** an item, taken out, replaced or kept */
+  const visit = (item: T, k: string) => {
+    if (removed.has(k)) {
+      shifted = Math.min(shifted, out.length);
+      delta?.gone.push(item);
+      return;
+    }
+    const next = byId.get(k);
+    if (next === undefined) {
+      out.push(keep(item));
+      return;
+    }
+    seen.add(k);
+    if (id(next) !== k) renamed.push(out.length);
+    const made = structuredClone(next);
+    delta?.gone.push(item);
+    delta?.came.push({ item: made, at: out.length });
+    out.push(made);
+  };
+  if (places || (byId.size === 0 && removed.size === 0)) {
+    let from = 0;
+    for (const at of touched) {
+      if (at < from) continue;
+      for (let i = from; i < at; i++) out.push(keep(items[i]));
+      visit(items[at], id(items[at]));
+      from = at + 1;
+    }
+    for (let i = from; i < items.length; i++) out.push(keep(items[i]));
+  } else for (const item of items) visit(item, id(item));
   for (const k of byId.keys()) {
     if (!seen.has(k)) throw new Error(`the change names an item "${k}" the station does not have`);
   }
+  const kept = out.length;
   for (const item of change.added ?? []) {
     const made = structuredClone(item);
     delta?.came.push({ item: made, at: out.length });
     out.push(made);
   }
+  if (places) handOn(places, items, out, { shifted, renamed, kept }, change, id);
   return out;
+}
+
+/**
+ * Moves `places` from `items` to `out`, the list a change made of it: the places from the first
+ * item taken out on are read again (those items moved up), and those of the items given another
+ * identity and of the added ones are set. When `out` repeats an identity, it gets none.
+ */
+function handOn<T>(
+  places: Map<string, number>,
+  items: readonly T[],
+  out: readonly T[],
+  at: { shifted: number; renamed: readonly number[]; kept: number },
+  change: CollectionChange<T>,
+  id: (item: T) => string,
+) {
+  placesOf.delete(items);
+  for (const k of change.removed ?? []) places.delete(k);
+  for (const r of change.replaced ?? []) places.delete(r.id);
+  const read = (i: number) => places.set(id(out[i]), i);
+  for (const i of at.renamed) if (i < at.shifted) read(i);
+  for (let i = Math.min(at.shifted, at.kept); i < out.length; i++) read(i);
+  // every identity of `out` is a key, and no other: as many keys as items, or one repeats
+  if (places.size === out.length) placesOf.set(out, places);
 }
 
 /**
