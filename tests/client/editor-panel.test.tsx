@@ -329,6 +329,23 @@ describe('EditPanel selecting another node', () => {
     expect(screen.queryByRole('form', { name: `Change node ${FIXTURE_KEYS.junction}` })).toBeNull();
   });
 
+  it('keeps a label typed in the node form when another form (the settings) saves a change', async () => {
+    const sent = fakeStationApi({ version: 7, by: 'Erin Engineer' });
+    renderInDataRouter(<SelectionHarness graph={graphAt(7)} onSelect={() => {}} />);
+    const user = userEvent.setup();
+    await retype(user, form(`Change node ${FIXTURE_KEYS.junction}`).field('Label'), 'Stanchion 3');
+    const settings = form('Station settings');
+    await retype(user, settings.field('Default tether length (m, or type ft)'), '20');
+    await user.click(settings.button('Save settings'));
+    await screen.findByText(/Saved: .*\(version 8\)/);
+    expect(sent).toHaveLength(1);
+    expect(form(`Change node ${FIXTURE_KEYS.junction}`).field('Label').value).toBe('Stanchion 3');
+    // and it is saved against the version the settings made
+    await user.click(form(`Change node ${FIXTURE_KEYS.junction}`).button('Save node'));
+    await waitFor(() => expect(sent).toHaveLength(2));
+    expect(sent[1].body).toMatchObject({ version: 8, node: { label: 'Stanchion 3' } });
+  });
+
   it('shows the other node at once when nothing typed is left to lose', async () => {
     fakeStationApi({ version: 7, by: 'Erin Engineer' });
     renderInDataRouter(<SelectionHarness graph={graphAt(7)} onSelect={() => {}} />);

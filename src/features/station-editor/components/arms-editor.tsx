@@ -9,14 +9,14 @@ interface ArmsEditorProps {
   isNode: (key: string) => boolean;
   /** a new arm's base: the selected node, if any */
   selectedKey: string | null;
-  /** the station version the list was loaded at: the form starts afresh after a saved change */
-  version: number;
+  /** changes after the arms' own saved change or a reload: the form then starts afresh */
+  formKey: string;
   isSaving: boolean;
   onSubmit: (edit: StationEdit) => void;
 }
 
 /** The station's robotic arms: the list, and a form to add one or change the one picked. */
-export function ArmsEditor({ arms, isNode, selectedKey, version, isSaving, onSubmit }: ArmsEditorProps) {
+export function ArmsEditor({ arms, isNode, selectedKey, formKey, isSaving, onSubmit }: ArmsEditorProps) {
   const [editing, setEditing] = useState<string | null>(null);
   const current = arms.find((a) => a.key === editing);
   // the arms travel as a whole list: each change sends the list as it would be
@@ -54,7 +54,7 @@ export function ArmsEditor({ arms, isNode, selectedKey, version, isSaving, onSub
         {current ? `Change ${current.key}` : 'Add an arm'}
       </h4>
       <ArmForm
-        key={`${editing ?? 'new'}@${version}`}
+        key={`${editing ?? 'new'}@${formKey}`}
         arm={current}
         others={arms.filter((a) => a.key !== editing)}
         isNode={isNode}

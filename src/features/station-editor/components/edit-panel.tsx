@@ -47,12 +47,26 @@ function Section({ title, open, children }: { title: string; open?: boolean; chi
   );
 }
 
+type FormKind = 'node' | 'hazard' | 'arms' | 'settings';
+
+/** The form of the edit panel whose saved change this is (edges are saved from rows, not a form). */
+function formOf(edit: StationEdit): FormKind | null {
+  if (edit.type === 'update-node') return 'node';
+  if (edit.type.endsWith('-hazard')) return 'hazard';
+  if (edit.type === 'set-arms') return 'arms';
+  if (edit.type === 'update-station') return 'settings';
+  return null;
+}
+
 /** The engineer's edit mode: every change carries the version it was made against. */
 export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }: EditPanelProps) {
   const stationId = graph.station.id;
   const [savedVersion, setSavedVersion] = useState(0);
   const [saved, setSaved] = useState<string | null>(null);
   const [createdCount, setCreatedCount] = useState(0);
+  // each form starts afresh after its own saved change (or a reload), never after another form's:
+  // a label typed in the node form survives saving a hazard
+  const [saves, setSaves] = useState<Record<FormKind, number>>({ node: 0, hazard: 0, arms: 0, settings: 0 });
   const [hazardKey, setHazardKey] = useState<string | null>(null);
   // the version the forms on screen were loaded at: a change someone else makes (seen live) does
   // not move it, so a save made against what the engineer saw is refused (409), never applied over it
@@ -71,6 +85,8 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
     onChanged,
     onSuccess: (result, { edit }) => {
       if (typeof result?.version === 'number') setSavedVersion(result.version);
+      const kind = formOf(edit);
+      if (kind) setSaves((n) => ({ ...n, [kind]: n[kind] + 1 }));
       setSaved(
         `Saved: ${describeStationEdit(edit)}${result?.version ? ` (version ${result.version})` : ''}.`,
       );
@@ -162,7 +178,7 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
           {shown ? (
             <>
               <NodeForm
-                key={`${shown.key}@${version}`}
+                key={`${shown.key}@${loadedVersion}.${saves.node}`}
                 graph={graph}
                 node={shown}
                 isSaving={isSaving}
@@ -238,7 +254,7 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
             {editingHazard ? `Change ${editingHazard.key}` : 'Add a hazard'}
           </h4>
           <HazardForm
-            key={`${hazardKey ?? 'new'}@${version}`}
+            key={`${hazardKey ?? 'new'}@${loadedVersion}.${saves.hazard}`}
             hazard={editingHazard}
             existingKeys={graph.hazards.map((h) => h.key)}
             around={around}
@@ -253,14 +269,19 @@ export function EditPanel({ graph, selectedKey, onSelectNode, pick, onChanged }:
             arms={graph.arms}
             isNode={(key) => nodeKeys.has(key)}
             selectedKey={selectedKey}
-            version={version}
+            formKey={`${loadedVersion}.${saves.arms}`}
             isSaving={isSaving}
             onSubmit={submit}
           />
         </Section>
 
         <Section title="Station settings and orbit">
-          <SettingsForm key={version} station={graph.station} isSaving={isSaving} onSubmit={submit} />
+          <SettingsForm
+            key={`${loadedVersion}.${saves.settings}`}
+            station={graph.station}
+            isSaving={isSaving}
+            onSubmit={submit}
+          />
         </Section>
 
         <Section title="Recent edits" open>
