@@ -108,6 +108,19 @@ function form(name: string) {
   };
 }
 
+/** The edit panel on `graph`, with `selectedKey` selected (nothing else wired). */
+function renderPanel(graph: StationGraph, selectedKey: string | null = null) {
+  return renderInDataRouter(
+    <EditPanel
+      graph={graph}
+      selectedKey={selectedKey}
+      onSelectNode={vi.fn()}
+      pick={null}
+      onChanged={vi.fn()}
+    />,
+  );
+}
+
 /** Clears a field and types `text` into it, as a person replacing what is there. */
 async function retype(user: UserEvent, input: HTMLElement, text: string) {
   await user.clear(input);
@@ -183,15 +196,7 @@ describe('EditPanel', () => {
 
   it('moves the selected node by the nudge buttons', async () => {
     const sent = fakeStationApi({ version: 5, by: 'Erin Engineer' });
-    renderInDataRouter(
-      <EditPanel
-        graph={graphAt(5)}
-        selectedKey={FIXTURE_KEYS.junction}
-        onSelectNode={vi.fn()}
-        pick={null}
-        onChanged={vi.fn()}
-      />,
-    );
+    renderPanel(graphAt(5), FIXTURE_KEYS.junction);
     const user = userEvent.setup();
     const change = form(`Change node ${FIXTURE_KEYS.junction}`);
     await user.click(change.button('x plus 0.1 m'));
@@ -244,15 +249,7 @@ describe('EditPanel leaving', () => {
   it('asks before leaving while a form holds a change not saved, and not once it is saved', async () => {
     const server = { version: 7, by: 'Erin Engineer' };
     fakeStationApi(server);
-    const { router } = renderInDataRouter(
-      <EditPanel
-        graph={graphAt(7)}
-        selectedKey={FIXTURE_KEYS.junction}
-        onSelectNode={vi.fn()}
-        pick={null}
-        onChanged={vi.fn()}
-      />,
-    );
+    const { router } = renderPanel(graphAt(7), FIXTURE_KEYS.junction);
     const user = userEvent.setup();
     const change = form(`Change node ${FIXTURE_KEYS.junction}`);
     await retype(user, change.field('Label'), 'Stanchion 3');
@@ -383,15 +380,7 @@ describe('changedFields', () => {
 describe('EditPanel settings and hazards', () => {
   it('reads a tether typed in feet as metres (1 ft = 0.3048 m, NIST SP 811) and sends it with the version', async () => {
     const sent = fakeStationApi({ version: 2, by: 'Erin Engineer' });
-    renderInDataRouter(
-      <EditPanel
-        graph={graphAt(2)}
-        selectedKey={null}
-        onSelectNode={vi.fn()}
-        pick={null}
-        onChanged={vi.fn()}
-      />,
-    );
+    renderPanel(graphAt(2));
     const user = userEvent.setup();
     const settings = form('Station settings');
     await retype(user, settings.field('Default tether length (m, or type ft)'), '85 ft');
@@ -407,15 +396,7 @@ describe('EditPanel settings and hazards', () => {
 
   it('refuses a box hazard whose max is not above its min, by the station schema, and sends nothing', async () => {
     const sent = fakeStationApi({ version: 2, by: 'Erin Engineer' });
-    renderInDataRouter(
-      <EditPanel
-        graph={graphAt(2)}
-        selectedKey={null}
-        onSelectNode={vi.fn()}
-        pick={null}
-        onChanged={vi.fn()}
-      />,
-    );
+    renderPanel(graphAt(2));
     const user = userEvent.setup();
     const hazard = form('Add hazard');
     await retype(user, hazard.field('Key'), 'PUMP-1');
@@ -429,16 +410,6 @@ describe('EditPanel settings and hazards', () => {
 });
 
 describe('EditPanel arms', () => {
-  const renderPanel = (graph: StationGraph, selectedKey: string | null = null) =>
-    renderInDataRouter(
-      <EditPanel
-        graph={graph}
-        selectedKey={selectedKey}
-        onSelectNode={vi.fn()}
-        pick={null}
-        onChanged={vi.fn()}
-      />,
-    );
   const withArm = (version: number): StationGraph => ({
     ...graphAt(version),
     arms: [
