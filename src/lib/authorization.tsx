@@ -1,6 +1,13 @@
 import type { ReactNode } from 'react';
-import { queryOptions, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
-import { Navigate, redirect, useLocation } from 'react-router-dom';
+import {
+  queryOptions,
+  useIsMutating,
+  useMutation,
+  useQuery,
+  useQueryClient,
+  type QueryClient,
+} from '@tanstack/react-query';
+import { Navigate, redirect, useLocation, useNavigate } from 'react-router-dom';
 import { can, type Permission } from '@shared/auth/permissions';
 import type { User } from '@shared/schemas/auth';
 import { paths } from '@/config/paths';
@@ -9,6 +16,7 @@ import { api, ApiError, isApiError } from './api-client';
 export const authKeys = {
   all: ['auth'] as const,
   me: () => [...authKeys.all, 'me'] as const,
+  signOut: () => [...authKeys.all, 'sign-out'] as const,
 };
 
 export async function getUser(): Promise<User | null> {
@@ -37,15 +45,24 @@ export function setSignedInUser(queryClient: QueryClient, user: User) {
   queryClient.setQueryData(authKeys.me(), user);
 }
 
-export function useSignOut({ onSuccess }: { onSuccess?: () => void } = {}) {
+/**
+ * Signs out, leaves for the sign-in page, then empties the cache. In that order, and the page left
+ * before the cache goes (the navigation committed at once): a query emptied under a page still on
+ * screen is fetched again at its next render, and refused, since the session has ended.
+ */
+export function useSignOut() {
   const queryClient = useQueryClient();
+  const navigate = useNavigate();
   return useMutation({
+    mutationKey: authKeys.signOut(),
     mutationFn: () => api.post<void>('/auth/sign-out'),
-    onSuccess: () => {
-      // nothing another person may not see survives in the cache
-      queryClient.clear();
+    onSuccess: async () => {
+      await queryClient.cancelQueries();
       queryClient.setQueryData(authKeys.me(), null);
-      onSuccess?.();
+      await navigate(paths.signIn.getHref(), { replace: true, flushSync: true });
+      // nothing another person may not see survives in the cache
+      queryClient.removeQueries({ predicate: (query) => query.queryKey[0] !== authKeys.all[0] });
+      queryClient.getMutationCache().clear();
     },
   });
 }
@@ -77,7 +94,10 @@ export async function requirePermission(
 export function ProtectedRoute({ children }: { children: ReactNode }) {
   const { data: user, isPending } = useUser();
   const location = useLocation();
+  // signing out leaves for the plain sign-in page itself, with the page kept on screen until then
+  const signingOut = useIsMutating({ mutationKey: authKeys.signOut() }) > 0;
   if (isPending) return null;
+  if (!user && signingOut) return <>{children}</>;
   if (!user) return <Navigate to={paths.signIn.getHref(`${location.pathname}${location.search}`)} replace />;
   return <>{children}</>;
 }

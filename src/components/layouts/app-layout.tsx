@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import { NavLink, useMatches, useNavigate } from 'react-router-dom';
+import { NavLink, useMatches } from 'react-router-dom';
 import { can, ROLE_LABELS, type Permission } from '@shared/auth/permissions';
 import { paths } from '@/config/paths';
 import { useSignOut, useUser } from '@/lib/authorization';
@@ -25,8 +25,7 @@ const NAV_ITEMS: NavItem[] = [
 
 export function AppLayout({ children }: { children: ReactNode }) {
   const { data: user } = useUser();
-  const navigate = useNavigate();
-  const signOut = useSignOut({ onSuccess: () => navigate(paths.signIn.getHref(), { replace: true }) });
+  const signOut = useSignOut();
   const items = NAV_ITEMS.filter((item) => can(user, item.permission));
   // a 3D workspace (route handle `workspace`) takes the window's whole width
   const workspace = useMatches().some((m) => (m.handle as { workspace?: boolean } | undefined)?.workspace);
