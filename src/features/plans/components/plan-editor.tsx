@@ -254,14 +254,11 @@ export function PlanEditor({
               {aside}
               {tl && (
                 <Panel title="The day" dense>
-                  <div className="space-y-4">
-                    <TimelineTotals
-                      timeline={tl}
-                      names={{ EV1: plan.crew.EV1.name, EV2: plan.crew.EV2.name }}
-                      startGmt={plan.startGmt}
-                    />
-                    {DayView && <DayView timeline={tl} plan={plan} focus={focus} onTime={setCursor} />}
-                  </div>
+                  <TimelineTotals
+                    timeline={tl}
+                    names={{ EV1: plan.crew.EV1.name, EV2: plan.crew.EV2.name }}
+                    startGmt={plan.startGmt}
+                  />
                 </Panel>
               )}
               <Panel title={`Warnings${tl ? ` (${tl.warnings.length})` : ''}`} dense>
@@ -275,6 +272,11 @@ export function PlanEditor({
                   <PageSpinner />
                 )}
               </Panel>
+              {tl && DayView && (
+                <Panel title="The day in 3D" dense>
+                  <DayView timeline={tl} plan={plan} focus={focus} onTime={setCursor} />
+                </Panel>
+              )}
               <Panel title="Order of the day" dense>
                 <OrderSuggestion
                   planId={plan.id}
