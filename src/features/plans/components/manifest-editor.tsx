@@ -209,12 +209,12 @@ export function ManifestEditor({ manifest, onChange, readOnly, places }: Manifes
               <tr key={`${m.id ?? 'new'}-${i}`} id={itemRowId(i)} tabIndex={-1}>
                 <Td className="text-text-muted">{i + 1}</Td>
                 <Td className="font-medium text-text-strong">{m.name}</Td>
-                <Td className="font-mono text-xs">{m.key ?? '(new)'}</Td>
+                <Td className="font-mono text-xs whitespace-nowrap">{m.key ?? '(new)'}</Td>
                 <Td>{KIND_NAMES[m.kind]}</Td>
                 <Td>{m.quantity}</Td>
                 <Td>{m.carriedBy ?? '—'}</Td>
                 <Td>{m.installedAt ? `installed at ${m.installedAt}` : m.startsAt}</Td>
-                <Td>{m.leaveOutside ? 'stays outside' : 'back in the airlock'}</Td>
+                <Td>{m.leaveOutside ? 'stays outside' : 'back inside'}</Td>
                 {!readOnly && (
                   <Td className="text-right whitespace-nowrap">
                     <Button
