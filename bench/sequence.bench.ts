@@ -23,7 +23,7 @@ import { benchEngine, benchPlanOf, benchTask, worksitesOf, type BenchEngine } fr
 const LONG_RUN_MS = 12_000;
 
 /** `singles` tasks for each crew member and `both` for both; a tool picked up before it is used. */
-function sequencePlan(
+export function sequencePlan(
   doc: StationDocument,
   engine: BenchEngine,
   singles: number,

@@ -231,9 +231,10 @@ export function proposeOrder(
 }
 
 /**
- * What the search knows of every order that starts with `prefix` (plan indices keeping `after`): the
- * bound of its placed day (`dayBound`; Infinity when that day already adds a warning) and the floor
- * under every allowed order (`soloFloor`). Both are at most the earliest allowed day end.
+ * What the search knows of every order that starts with `prefix` (plan indices keeping `after`) and
+ * in which each crew member named in `next` goes on with that task (not in `prefix`): the bound of
+ * its placed day (`dayBound`; Infinity when that day already adds a warning) and the floor under
+ * every allowed order (`soloFloor`). Both are at most the earliest allowed day end.
  */
 export function orderBounds(
   plan: DayPlan,
@@ -241,6 +242,7 @@ export function orderBounds(
   route: DayRouteFn,
   prefix: readonly number[],
   options: SequenceOptions = {},
+  next: Partial<Record<CrewMember, number>> = {},
 ): { bound: number; floor: number } {
   const identity = plan.tasks.map((_, i) => i);
   const timelineOf = (order: readonly number[]) =>
@@ -256,7 +258,9 @@ export function orderBounds(
     CREW.map((m) => [m, s.laneTasks[m].filter((x) => !prefix.includes(x))]),
   ) as Record<CrewMember, number[]>;
   return {
-    bound: spoiled(s, day) ? Infinity : dayBound(s, day, left),
+    bound: spoiled(s, day)
+      ? Infinity
+      : dayBound(s, day, left, { EV1: next.EV1 ?? null, EV2: next.EV2 ?? null }),
     floor: clean
       ? soloFloor(
           plan,
@@ -432,9 +436,20 @@ function spoiled(s: Search, day: PlacedDay): boolean {
  * current order keeps in night starts no earlier than the first night window from then that holds
  * its work (no allowed order puts it outside night). Waits otherwise and swaps count zero. Where
  * `SoloRest` holds, each crew member's end is also at least what it gives (`SoloRest.laneBound`).
- * The day ends at the later crew member's end plus ingress.
+ * A crew member whose next task is decided (`reserved`: one for both, or one waiting for a task of
+ * the partner's) starts its work no earlier than the chains put it, than each task it is `after`
+ * ends (laid: its work end; else the least start the chains give it plus its work), and, kept in
+ * night, than the first night window from then that holds it; their end is at least that start plus
+ * its work, the work of their other tasks left and the least way through them home (`leastPath`),
+ * and where `SoloRest` holds, that start plus the steps from its work on as alone
+ * (`SoloRest.nextBound`). The day ends at the later crew member's end plus ingress.
  */
-function dayBound(s: Search, day: PlacedDay, left: Record<CrewMember, readonly number[]>): number {
+function dayBound(
+  s: Search,
+  day: PlacedDay,
+  left: Record<CrewMember, readonly number[]>,
+  reserved: Readonly<Record<CrewMember, number | null>> = NONE_RESERVED,
+): number {
   if (!s.bounded) return 0;
   const progress = CREW.map((m) => day.progress(m));
   const joint =
@@ -454,12 +469,29 @@ function dayBound(s: Search, day: PlacedDay, left: Record<CrewMember, readonly n
     bound = Math.max(...CREW.map((m, k) => laneBound(s, m, progress[k], left[m], startAt)));
     partner = starts;
   }
+  const placed = day.placed();
   if (s.solo) {
-    const placed = day.placed();
     for (const [k, m] of CREW.entries()) bound = Math.max(bound, s.solo.laneBound(m, progress[k], placed));
+  }
+  for (const m of CREW) {
+    const x = reserved[m];
+    if (x === null || progress[CREW.indexOf(m)].back !== null) continue;
+    // x is m's next task: its work starts no earlier than the chains put it, nor than the work of
+    // each task it is `after` can end
+    const dur = (y: number) => s.tasks[y].durationSeconds;
+    let start = partner.get(x) ?? 0;
+    for (const j of s.afterOf[x]) start = Math.max(start, day.workEndOf(j) ?? (partner.get(j) ?? 0) + dur(j));
+    if (s.mustNight(x)) start = day.nightStart(start, dur(x));
+    const rest = left[m].filter((y) => y !== x);
+    let after = dur(x) + leastPath(s, m, x, rest);
+    for (const y of rest) after += dur(y);
+    bound = Math.max(bound, start + after);
+    if (s.solo) bound = Math.max(bound, s.solo.nextBound(m, placed, x, start));
   }
   return bound + s.plan.ingressSeconds;
 }
+
+const NONE_RESERVED: Readonly<Record<CrewMember, number | null>> = { EV1: null, EV2: null };
 
 /** One crew member's part of `dayBound`: the earliest they can be back at the airlock. */
 function laneBound(
@@ -715,6 +747,18 @@ class SoloRest {
     return p.t + ahead + this.rest(m, prefix);
   }
 
+  /**
+   * The earliest a crew member can be back when their next task is `x` and its work starts at
+   * `start` at the earliest: then x's work, the steps after it as alone, and `rest`.
+   */
+  nextBound(m: CrewMember, placed: readonly number[], x: number, start: number): number {
+    const prefix = [...placed.filter((y) => this.soloIndex[m].has(y)), x];
+    const day = this.dayOf(m, this.soloOf(m, prefix));
+    const end = day?.workEndOf(this.soloIndex[m].get(x)!);
+    if (!day || end === undefined) return 0;
+    return start + this.s.tasks[x].durationSeconds + (day.progress(m).t - end) + this.rest(m, prefix);
+  }
+
   private soloOf(m: CrewMember, prefix: readonly number[]): number[] {
     return prefix.map((x) => this.soloIndex[m].get(x)!);
   }
@@ -935,7 +979,7 @@ function branchAndBound(s: Search, incumbent: Scored | null): { best: Scored | n
       CrewMember,
       number[]
     >;
-    const lb = dayBound(s, day, left);
+    const lb = dayBound(s, day, left, node.reserved);
     mark(node, 0);
     return { node, day, lb };
   };
