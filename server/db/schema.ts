@@ -137,7 +137,13 @@ export const edges = sqliteTable(
     label: text('label'),
     ord: integer('ord').notNull(),
   },
-  (t) => [index('edges_station_idx').on(t.stationId)],
+  // the station's edges in order (and the next order number), and by either end: the twin check on
+  // an edge edit and a node's edges on its removal
+  (t) => [
+    index('edges_station_ord_idx').on(t.stationId, t.ord),
+    index('edges_station_from_idx').on(t.stationId, t.fromKey),
+    index('edges_station_to_idx').on(t.stationId, t.toKey),
+  ],
 );
 
 export const hazards = sqliteTable(

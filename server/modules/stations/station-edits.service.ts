@@ -1,4 +1,4 @@
-import { and, eq, max, or } from 'drizzle-orm';
+import { and, eq, max } from 'drizzle-orm';
 import type { z } from 'zod';
 import type { AppContext } from '../../context';
 import { edges, hazards, nodes, segments, stations } from '../../db/schema';
@@ -96,21 +96,21 @@ function checkEdgeEnds(tx: Tx, stationId: number, e: StationEdge, ignoreId?: num
     throw badRequest(`An edge cannot join "${e.from}" to itself`, [
       { path: 'body.edge', message: 'self-loop' },
     ]);
-  const twins = tx
-    .select({ id: edges.id })
-    .from(edges)
-    .where(
-      and(
-        eq(edges.stationId, stationId),
-        eq(edges.kind, e.kind),
-        or(
-          and(eq(edges.fromKey, e.from), eq(edges.toKey, e.to)),
-          and(eq(edges.fromKey, e.to), eq(edges.toKey, e.from)),
+  // one way round, then the other: each a search of the index on that end (an OR of the two is a scan)
+  const between = (from: string, to: string) =>
+    tx
+      .select({ id: edges.id })
+      .from(edges)
+      .where(
+        and(
+          eq(edges.stationId, stationId),
+          eq(edges.fromKey, from),
+          eq(edges.toKey, to),
+          eq(edges.kind, e.kind),
         ),
-      ),
-    )
-    .all()
-    .filter((t) => t.id !== ignoreId);
+      )
+      .all();
+  const twins = [...between(e.from, e.to), ...between(e.to, e.from)].filter((t) => t.id !== ignoreId);
   if (twins.length)
     throw conflict(
       `There is already a ${e.kind} edge between "${e.from}" and "${e.to}" (edge ${twins[0].id}).`,
@@ -199,9 +199,13 @@ export function deleteNode(ctx: AppContext, stationId: number, key: string, vers
       throw conflict(
         `Node "${key}" is the base of arm${bases.length > 1 ? 's' : ''} ${bases.map((a) => a.key).join(', ')}: move or remove the arm first.`,
       );
-    const touching = and(eq(edges.stationId, stationId), or(eq(edges.fromKey, key), eq(edges.toKey, key)));
-    const removedEdges = tx.select().from(edges).where(touching).all().map(edgeFromRow);
-    tx.delete(edges).where(touching).run();
+    // by each end in turn, each a search of that end's index (an OR of the two is a scan)
+    const ends = [edges.fromKey, edges.toKey].map((end) => and(eq(edges.stationId, stationId), eq(end, key)));
+    const removedEdges = ends
+      .flatMap((at) => tx.select().from(edges).where(at).all())
+      .sort((a, b) => a.id - b.id)
+      .map(edgeFromRow);
+    for (const at of ends) tx.delete(edges).where(at).run();
     tx.delete(nodes).where(eq(nodes.id, row.id)).run();
     const before = { node: nodeFromRow(row), removedEdges };
     return {
