@@ -1,4 +1,5 @@
 import {
+  MAX_TASKS,
   TaskSchema,
   type CreatePlanInputSchema,
   type ManifestItemInput,
@@ -52,5 +53,30 @@ export function buildPlanInput(stationId: number, overrides: Partial<PlanInput> 
     tasks: [buildTask()],
     manifest: [],
     ...overrides,
+  };
+}
+
+/**
+ * A long day on a generated truss: `tasks` tasks (the most a plan may have by default) of two minutes
+ * each unless told, at the worksites in a fixed stride, for EV1, EV2 and both in turn, within a 24 h
+ * limit. Worksites repeat once the stride has gone round them, so the day's legs repeat too.
+ */
+export function buildLongPlanInput(
+  stationId: number,
+  worksites: readonly string[],
+  { tasks = MAX_TASKS, stride = 7, durationSeconds = 120 } = {},
+) {
+  return {
+    title: 'Long day',
+    stationId,
+    date: '2031-01-01',
+    crew: { EV1: { name: 'A', tetherLengthM: 25.9 }, EV2: { name: 'B', tetherLengthM: 25.9 } },
+    timeLimitSeconds: 24 * 3600,
+    tasks: Array.from({ length: tasks }, (_, i) => ({
+      title: `Task ${i + 1}`,
+      worksite: worksites[(i * stride) % worksites.length],
+      crew: (['EV1', 'EV2', 'both'] as const)[i % 3],
+      durationSeconds,
+    })),
   };
 }

@@ -4,6 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { generateTrussStation } from '@shared/compute/truss-generator';
 import { MAX_TASKS } from '@shared/schemas/plan';
 import { stationDocumentFile } from '../factories/station-document';
+import { buildLongPlanInput } from '../factories/plan';
 import { blockedSamples, listenOnLoopback, sampleHealthWhile, signInCookie } from '../setup/loopback';
 import { makeTestApp, type TestApp } from '../setup/test-app';
 import { fromWire } from '@shared/compute/day/wire';
@@ -35,19 +36,9 @@ async function longPlanOn(nodes: number): Promise<number> {
   expect(imported.status, JSON.stringify(imported.body)).toBe(201);
   const worksites = doc.nodes.filter((n) => n.kind === 'worksite').map((n) => n.key);
   const planner = await t.agent('planner');
-  const created = await planner.post('/api/plans').send({
-    title: 'Long day',
-    stationId: imported.body.station.id,
-    date: '2031-01-01',
-    crew: { EV1: { name: 'A', tetherLengthM: 25.9 }, EV2: { name: 'B', tetherLengthM: 25.9 } },
-    timeLimitSeconds: 24 * 3600,
-    tasks: Array.from({ length: MAX_TASKS }, (_, i) => ({
-      title: `Task ${i + 1}`,
-      worksite: worksites[(i * 7) % worksites.length],
-      crew: (['EV1', 'EV2', 'both'] as const)[i % 3],
-      durationSeconds: 120,
-    })),
-  });
+  const created = await planner
+    .post('/api/plans')
+    .send(buildLongPlanInput(imported.body.station.id, worksites));
   expect(created.status, JSON.stringify(created.body)).toBe(201);
   return created.body.id;
 }

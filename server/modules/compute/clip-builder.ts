@@ -35,9 +35,23 @@ interface Builds {
   inlineNodes: number;
   running: Map<Worker, Promise<void>>;
   onEvent: (e: ClipBuildEvent) => void;
+  /** builds this thread started that handed their clip graph over, and that did not */
+  built: number;
+  failed: number;
 }
 
-const builds: Builds = { inlineNodes: CLIP_BUILD_FREE_NODES, running: new Map(), onEvent: () => {} };
+const builds: Builds = {
+  inlineNodes: CLIP_BUILD_FREE_NODES,
+  running: new Map(),
+  onEvent: () => {},
+  built: 0,
+  failed: 0,
+};
+
+/** This thread's builds off the request path: running now, finished with a clip graph, failed. */
+export function clipBuildCounts(): { running: number; built: number; failed: number } {
+  return { running: builds.running.size, built: builds.built, failed: builds.failed };
+}
 
 /** Sets the size above which clip graphs are built off the request path, and who hears of builds. */
 export function configureClipBuilds(options: {
@@ -104,6 +118,8 @@ function startBuild(compiled: CompiledStation, job: ClipBuildJob, done: () => vo
       if (settled) return;
       settled = true;
       builds.running.delete(worker);
+      if (ok) builds.built++;
+      else builds.failed++;
       done();
       resolve();
       const event = {

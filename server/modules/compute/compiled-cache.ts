@@ -7,6 +7,7 @@ import { compileStation, isAttachKind, type CompiledStation } from '@shared/comp
 import type { StationDocument } from '@shared/schemas/station';
 import { getStationSnapshot } from '../stations/stations.service';
 import { stationDocumentAt } from '../stations/station-versions.service';
+import { forgetStation } from './day-cache';
 
 /**
  * One station version: its document, node keys and query index. The index is compiled on first
@@ -35,6 +36,11 @@ export class CompiledEntry {
   /** whether the query index is compiled already (reading `compiled` would not compile it now) */
   get isCompiled(): boolean {
     return this.index !== null;
+  }
+
+  /** Drops the routes and timelines this thread kept of the entry's days (it is no longer held). */
+  forget(): void {
+    if (this.index) forgetStation(this.index);
   }
 }
 
@@ -70,9 +76,10 @@ export function getCompiledStation(ctx: AppContext, stationId: number): Compiled
   // document and version from one transaction, so an index is never filed under the wrong version
   const snapshot = getStationSnapshot(ctx.db, stationId);
   const entry = new CompiledEntry(stationId, snapshot.version, snapshot.document);
+  if (hit) hit.forget();
   cache.delete(stationId);
   cache.set(stationId, entry);
-  while (cache.size > CACHE_STATIONS) cache.delete(cache.keys().next().value!);
+  dropOldest(cache);
   return entry;
 }
 
@@ -99,6 +106,15 @@ export function getCompiledStationAt(ctx: AppContext, stationId: number, version
   if (entry) cache.delete(key);
   else entry = new CompiledEntry(stationId, version, stationDocumentAt(ctx.db, stationId, version));
   cache.set(key, entry);
-  while (cache.size > CACHE_STATIONS) cache.delete(cache.keys().next().value!);
+  dropOldest(cache);
   return entry;
+}
+
+/** Drops the least recently used entries past CACHE_STATIONS, and what the days kept of them. */
+function dropOldest<K>(cache: Map<K, CompiledEntry>) {
+  while (cache.size > CACHE_STATIONS) {
+    const oldest = cache.keys().next().value!;
+    cache.get(oldest)!.forget();
+    cache.delete(oldest);
+  }
 }

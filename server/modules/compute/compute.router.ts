@@ -15,6 +15,8 @@ import {
 } from './compute.service';
 import { clipMemory } from '@shared/compute/routes-clip';
 import { runTask } from './tasks';
+import { clipBuildCounts } from './clip-builder';
+import { dayCacheStats } from './day-cache';
 import { DryRunQuerySchema, withAffectedPlans, withDryRun } from '../stations/stations.router';
 
 /** A computation on one station, open to every signed-in role: the body is parsed with `body`. */
@@ -68,6 +70,10 @@ export function computeRouter(ctx: AppContext) {
         taskWorkers: ctx.taskPool?.stats() ?? [],
         // clip graphs kept on the main thread (routes computed there when there is no pool)
         mainThreadClip: clipMemory(),
+        // clip graphs the main thread's builder threads are building, have built and failed to build
+        mainThreadClipBuilds: clipBuildCounts(),
+        // the day routes and timelines kept on the main thread (days computed there when there is no pool)
+        mainThreadDayCache: dayCacheStats(),
         // the live streams open and what the server holds for them
         events: ctx.events.stats(),
         // the whole process (every thread's resident memory) and the main thread's heap, in bytes

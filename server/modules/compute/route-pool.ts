@@ -6,6 +6,7 @@ import type { StationDocument } from '@shared/schemas/station';
 import { HttpError, unavailable } from '../../lib/http-error';
 import type { Logger } from '../../lib/logger';
 import { logClipBuild } from './clip-builder';
+import { emptyDayCache, type DayCacheStats } from './day-cache';
 import {
   WORKER_STATIONS,
   type DayWork,
@@ -77,6 +78,8 @@ export interface RouteWorkerStats {
   clipBuilds: number;
   /** clip graphs the worker keeps, their bytes and its budget for them, as of its last answer */
   clip: ClipMemory;
+  /** the day routes and timelines the worker keeps, and how often they were reused, as of its last answer */
+  dayCache: DayCacheStats;
 }
 
 interface Pending {
@@ -98,6 +101,7 @@ interface Slot {
   restarts: number;
   clipBuilds: number;
   clip: ClipMemory;
+  dayCache: DayCacheStats;
   respawn: NodeJS.Timeout | null;
 }
 
@@ -139,6 +143,7 @@ export class RoutePool {
       restarts: 0,
       clipBuilds: 0,
       clip: { graphs: 0, bytes: 0, budgetBytes: options.clipMemoryBytes ?? DEFAULT_CLIP_MEMORY_BYTES },
+      dayCache: emptyDayCache(),
       respawn: null,
     }));
   }
@@ -162,6 +167,7 @@ export class RoutePool {
       restarts: s.restarts,
       clipBuilds: s.clipBuilds,
       clip: { ...s.clip },
+      dayCache: structuredClone(s.dayCache),
     }));
   }
 
@@ -285,6 +291,7 @@ export class RoutePool {
     slot.worker = worker;
     slot.started = false;
     slot.held.clear();
+    slot.dayCache = emptyDayCache();
     worker.on('message', (reply: WorkerReply) => this.onReply(slot, reply));
     worker.on('error', (err) =>
       this.options.logger.error({ err, worker: slot.index }, 'route worker failed'),
@@ -313,6 +320,7 @@ export class RoutePool {
     if (reply.kind === 'result' || reply.kind === 'bytes') {
       if (reply.compiled) slot.compiles++;
       slot.clip = reply.clip;
+      slot.dayCache = reply.dayCache;
       pending.resolve(reply.kind === 'result' ? { text: reply.json } : { bytes: reply.bytes });
     } else {
       pending.reject(workerError(reply.error));

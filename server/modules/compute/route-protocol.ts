@@ -3,6 +3,7 @@ import type { DayStart } from '@shared/compute/day/types';
 import type { PlanView } from '@shared/schemas/plan-views';
 import type { StationDocument } from '@shared/schemas/station';
 import type { ClipBuildEvent } from './clip-builder';
+import type { DayCacheStats } from './day-cache';
 import type { DayExtra, DayOutput } from '../plans/plan-day';
 import type { RunWork } from '../runs/run-day';
 import type { SequenceWork } from '../plans/plan-sequence';
@@ -21,6 +22,13 @@ export interface ClipMemory {
   graphs: number;
   bytes: number;
   budgetBytes: number;
+}
+
+/** What a worker keeps beside its compiled stations, as of an answer. */
+export interface WorkerKept {
+  clip: ClipMemory;
+  /** the routes of the days it computed, and its last few timelines (see day-cache.ts) */
+  dayCache: DayCacheStats;
 }
 
 /** Compiled stations a route worker keeps, least recently used out first (as the main-thread cache). */
@@ -60,9 +68,9 @@ export interface RouteMessage {
 export type WorkerReply =
   | { kind: 'ready' }
   /** the answer as text (JSON of a RouteResult or timeline, or CSV), sent by the main thread as it is */
-  | { kind: 'result'; id: number; json: string; compiled: boolean; clip: ClipMemory }
+  | ({ kind: 'result'; id: number; json: string; compiled: boolean } & WorkerKept)
   /** a PDF export's bytes */
-  | { kind: 'bytes'; id: number; bytes: Uint8Array; compiled: boolean; clip: ClipMemory }
+  | ({ kind: 'bytes'; id: number; bytes: Uint8Array; compiled: boolean } & WorkerKept)
   /** the worker does not hold this version (evicted, or never sent): send the document */
   | { kind: 'need-document'; id: number }
   /** a clip graph built off the request path in this worker finished (or failed) */

@@ -7,6 +7,7 @@ import { clipMemory, setClipMemoryBudget } from '@shared/compute/routes-clip';
 import { configureClipBuilds, routeMatrixOn, routeOffPath, warmClipGraph } from './clip-builder';
 import { HttpError } from '../../lib/http-error';
 import { dayOutputOn } from '../plans/plan-day';
+import { dayCacheStats, forgetStation } from './day-cache';
 import { WORKER_STATIONS, type RouteMessage, type RouteWorkerData, type WorkerReply } from './route-protocol';
 
 if (!parentPort) throw new Error('route-worker.ts runs as a worker thread (see route-pool.ts)');
@@ -26,20 +27,28 @@ interface Held {
 // keyed by `<database>#<station id>`; one version per station
 const held = new Map<string, Held>();
 
+/** What the worker keeps after an answer, reported with it. */
+const kept = () => ({ clip: clipMemory(), dayCache: dayCacheStats() });
+
 async function answer(msg: RouteMessage): Promise<WorkerReply> {
   let entry = held.get(msg.station);
   let compiled = false;
   if (!entry || entry.version !== msg.version) {
     if (!msg.doc) return { kind: 'need-document', id: msg.id };
+    if (entry) forgetStation(entry.compiled);
     entry = { version: msg.version, compiled: compileStation(msg.doc), doc: msg.doc };
     compiled = true;
   }
   held.delete(msg.station);
   held.set(msg.station, entry);
-  while (held.size > WORKER_STATIONS) held.delete(held.keys().next().value!);
+  while (held.size > WORKER_STATIONS) {
+    const oldest = held.keys().next().value!;
+    forgetStation(held.get(oldest)!.compiled);
+    held.delete(oldest);
+  }
   if (msg.warm) {
     const started = warmClipGraph(entry.compiled, entry.doc);
-    return { kind: 'result', id: msg.id, json: JSON.stringify({ started }), compiled, clip: clipMemory() };
+    return { kind: 'result', id: msg.id, json: JSON.stringify({ started }), compiled, ...kept() };
   }
   if (msg.day) {
     const out = await dayOutputOn(entry, msg.day.plan, msg.day.output, msg.day.start, msg.day.extra, {
@@ -47,13 +56,13 @@ async function answer(msg: RouteMessage): Promise<WorkerReply> {
       sequence: msg.day.sequence,
     });
     return 'text' in out
-      ? { kind: 'result', id: msg.id, json: out.text, compiled, clip: clipMemory() }
-      : { kind: 'bytes', id: msg.id, bytes: out.bytes, compiled, clip: clipMemory() };
+      ? { kind: 'result', id: msg.id, json: out.text, compiled, ...kept() }
+      : { kind: 'bytes', id: msg.id, bytes: out.bytes, compiled, ...kept() };
   }
   const result = msg.matrix
     ? routeMatrixOn(entry, msg.matrix)
     : routeOffPath(entry.compiled, entry.doc, msg.request!);
-  return { kind: 'result', id: msg.id, json: JSON.stringify(result), compiled, clip: clipMemory() };
+  return { kind: 'result', id: msg.id, json: JSON.stringify(result), compiled, ...kept() };
 }
 
 /** An error as it crosses to the main thread; an HttpError (a 4xx the day raises) keeps its code. */

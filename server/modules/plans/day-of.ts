@@ -5,6 +5,7 @@ import type { PlanView } from '@shared/schemas/plan-views';
 import type { StationDocument } from '@shared/schemas/station';
 import { badRequest } from '../../lib/http-error';
 import { routeOffPath } from '../compute/clip-builder';
+import { rememberedRoute } from '../compute/day-cache';
 
 /** A station version as the day is computed on it: the document and its compiled index. */
 export interface DayStationVersion {
@@ -23,6 +24,8 @@ export function dayOf(station: DayStationVersion, plan: PlanView) {
     ...plan,
     manifest: plan.manifest.map((m, i) => ({ ...m, key: m.key ?? `item-${i + 1}` })),
   };
-  const route: DayRouteFn = (request) => routeOffPath(compiled, doc, request);
+  // each distinct leg once per station version on this thread, across days and their outputs
+  const engine: DayRouteFn = (request) => routeOffPath(compiled, doc, request);
+  const route: DayRouteFn = (request) => rememberedRoute(compiled, request, engine);
   return { day, dayPlan, route };
 }

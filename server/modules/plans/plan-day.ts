@@ -8,6 +8,7 @@ import { PLANNING_CAUTION } from '@shared/caution';
 import { timelineCsv, timelinePdf } from './plan-export.service';
 import { runViewOn, type RunWork } from '../runs/run-day';
 import { dayOf, type DayStationVersion } from './day-of';
+import { rememberedTimeline } from '../compute/day-cache';
 import { planSequenceOn, type SequenceWork } from './plan-sequence';
 
 export type { DayStationVersion } from './day-of';
@@ -24,7 +25,10 @@ export function planTimelineOn(
   extra: DayExtra = {},
 ): PlanTimeline {
   const { day, dayPlan, route } = dayOf(station, plan);
-  const timeline = computeTimeline(dayPlan, day, route, start);
+  // the exports and a series ask for the day the timeline just computed: what the server adds differs
+  const timeline = rememberedTimeline(station.compiled, [plan, start], () =>
+    computeTimeline(dayPlan, day, route, start),
+  );
   const { notes, ...told } = extra;
   return {
     ...timeline,
