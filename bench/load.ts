@@ -2,12 +2,14 @@
 // servers, one computing routes on the main thread (ROUTE_WORKERS=0) and one on the worker pool
 // (LOAD_POOL_WORKERS), with the same seed and the same request bodies, each row measured on one and
 // then on the other; a 60 s soak on the one configured as the default; then the heaviest valid
-// requests (a socket plan over 20,000 sockets, a 10,000-row CSV import, a 100k-node import) one at a
+// requests (a socket plan over 20,000 sockets, a 10,000-row CSV import, a 100k-node import, then a
+// 200-task plan's timeline and exports on the 100k-node station once its clip graph is built) one at a
 // time on each, with /api/health sampled meanwhile (the main-thread server keeps imports and socket
 // plans on its main thread too); and on the default server, 200 live streams open while a fixed batch
 // of routes runs, beside the same batch with none (bench/streams.ts). Bounded: each run has a fixed
-// duration or a fixed count; the whole thing stops itself in about nine minutes (LOAD_*_SECONDS
-// shorten the timed runs; LOAD_ONLY=streams measures only the streams, on the default server).
+// duration or a fixed count; the whole thing stops itself in about nine minutes plus the heavy requests
+// (LOAD_*_SECONDS shorten the timed runs; LOAD_ONLY=streams measures only the streams, on the default
+// server; LOAD_ONLY=heavy only the heavy requests, on both).
 import fs from 'node:fs';
 import os from 'node:os';
 import autocannon from 'autocannon';
@@ -15,6 +17,7 @@ import { generateTrussStation } from '../shared/compute/truss-generator';
 import { MAX_TASKS } from '../shared/schemas/plan';
 import { defaultRouteWorkers } from '../server/lib/env';
 import { bigStation } from '../tests/factories/big-station';
+import { buildLongPlanInput } from '../tests/factories/plan';
 import { DEMO_PASSWORD } from '../server/db/seed/demo-users';
 import { signIn, startLoopbackServer, type Server } from './serve';
 import { multipartBody, sampleHealthWhile, send, type HealthSample } from '../tests/setup/loopback';
@@ -99,6 +102,8 @@ interface HeavyRow {
   name: string;
   status: number;
   ms: number;
+  /** the machine's 1-minute load average as the request started */
+  load: number;
   health: HealthSample[];
   /** size of the answer (bytes), where it is part of the figure */
   bytes?: number;
@@ -143,24 +148,10 @@ function makeHeavyInputs() {
   };
 }
 
-/** A plan of the most tasks a plan may have on the big station: crew and worksites in turn. */
-function longPlanBody(stationId: number, worksites: string[]) {
-  return JSON.stringify({
-    title: 'Long day',
-    stationId,
-    date: '2031-01-01',
-    crew: { EV1: { name: 'A', tetherLengthM: 25.9 }, EV2: { name: 'B', tetherLengthM: 25.9 } },
-    timeLimitSeconds: 24 * 3600,
-    tasks: Array.from({ length: MAX_TASKS }, (_, i) => ({
-      title: `Task ${i + 1}`,
-      worksite: worksites[(i * 7) % worksites.length],
-      crew: (['EV1', 'EV2', 'both'] as const)[i % 3],
-      durationSeconds: 120,
-    })),
-  });
-}
-
-async function heavyOn(base: string, viewer: string, engineer: string, planner: string): Promise<HeavyRow[]> {
+async function heavyOn(
+  base: string,
+  { viewer, engineer, planner, admin }: Record<'viewer' | 'engineer' | 'planner' | 'admin', string>,
+): Promise<HeavyRow[]> {
   const inputs = heavyInputs();
   const upload = (url: string, form: { body: Buffer; contentType: string }) =>
     send(base, 'POST', url, { cookie: engineer, 'content-type': form.contentType }, form.body);
@@ -170,8 +161,17 @@ async function heavyOn(base: string, viewer: string, engineer: string, planner: 
   const id = (imported.body.station as { id: number }).id;
   const rows: HeavyRow[] = [];
   const measure = async (name: string, work: () => ReturnType<typeof send>) => {
-    const { result, samples, elapsedMs } = await sampleHealthWhile(base, work);
-    rows.push({ name, status: result.status, ms: elapsedMs, health: samples, bytes: result.text.length });
+    const load = os.loadavg()[0];
+    // a health sample the server could not answer in time (Node's 408) is counted, not fatal
+    const { result, samples, elapsedMs } = await sampleHealthWhile(base, work, { keepFailed: true });
+    rows.push({
+      name,
+      status: result.status,
+      ms: elapsedMs,
+      load,
+      health: samples,
+      bytes: result.text.length,
+    });
   };
   await measure(
     'idle (reference)',
@@ -194,19 +194,75 @@ async function heavyOn(base: string, viewer: string, engineer: string, planner: 
     'POST',
     '/api/plans',
     { cookie: planner, 'content-type': 'application/json' },
-    longPlanBody(id, worksites),
+    JSON.stringify(buildLongPlanInput(id, worksites)),
   );
   if (plan.status !== 201) throw new Error(`the long plan: ${plan.status} ${plan.text}`);
   const planId = (plan.body as { id: number }).id;
+  const built = await clipGraphBuilt(base, admin, planner, id, worksites);
+  console.log(
+    `clip graph of the 100k-node station (after its CSV import) ${built.ok ? 'built' : 'NOT built'} in ${ms(built.ms)}`,
+  );
   const get = (suffix: string) => send(base, 'GET', `/api/plans/${planId}/${suffix}`, { cookie: viewer }, '');
   await measure(`timeline, ${MAX_TASKS}-task plan`, () => get('timeline'));
-  await measure(`CSV, ${MAX_TASKS}-task plan`, () => get('export.csv'));
-  await measure(`PDF, ${MAX_TASKS}-task plan`, () => get('export.pdf'));
-  await measure('timeline + CSV + PDF at once', async () => {
+  await measure(`CSV right after (day kept)`, () => get('export.csv'));
+  await measure(`PDF (day kept)`, () => get('export.pdf'));
+  await measure('timeline + CSV + PDF at once (day kept)', async () => {
     const answers = await Promise.all([get('timeline'), get('export.csv'), get('export.pdf')]);
     return answers.find((a) => a.status !== 200) ?? answers[0];
   });
+  // a new version of the plan: a day not computed yet, its legs all kept
+  const saved = await send(base, 'GET', `/api/plans/${planId}`, { cookie: planner }, '');
+  const edited = await send(
+    base,
+    'PATCH',
+    `/api/plans/${planId}`,
+    { cookie: planner, 'content-type': 'application/json' },
+    JSON.stringify({ version: (saved.body as { version: number }).version, timeLimitSeconds: 23 * 3600 }),
+  );
+  if (edited.status !== 200) throw new Error(`the plan's edit: ${edited.status} ${edited.text}`);
+  await measure('CSV of the edited plan (legs kept)', () => get('export.csv'));
   return rows;
+}
+
+/** Clip graphs built off the request path by the threads that compute days: the main thread's, or the pool's. */
+async function clipBuilds(base: string, admin: string): Promise<number> {
+  const stats = (await send(base, 'GET', '/api/compute/stats', { cookie: admin }, '')).body as {
+    routeWorkers: { clipBuilds: number }[];
+    mainThreadClipBuilds: { built: number };
+  };
+  return stats.routeWorkers.reduce((n, w) => n + w.clipBuilds, stats.mainThreadClipBuilds.built);
+}
+
+/** How long a clip graph's build may take here: about a minute at 100k nodes on a quiet core. */
+const CLIP_WAIT_MS = Number(process.env.LOAD_CLIP_WAIT_SECONDS ?? 900) * 1000;
+
+/**
+ * Asks one route of the station's tether (which starts its clip graph's build off the request path,
+ * on the thread that will compute its days) and waits, bounded, until a build lands: the day's rows
+ * then measure the day on the clip graph, as a server that has been up a while computes it.
+ */
+async function clipGraphBuilt(
+  base: string,
+  admin: string,
+  planner: string,
+  stationId: number,
+  worksites: string[],
+): Promise<{ ok: boolean; ms: number }> {
+  const t0 = performance.now();
+  const before = await clipBuilds(base, admin);
+  const route = await send(
+    base,
+    'POST',
+    `/api/stations/${stationId}/routes`,
+    { cookie: planner, 'content-type': 'application/json' },
+    JSON.stringify({ from: worksites[0], to: worksites[1], mode: 'balanced', tetherLengthM: 25.9 }),
+  );
+  if (route.status !== 200) throw new Error(`the route that starts the build: ${route.status} ${route.text}`);
+  while (performance.now() - t0 < CLIP_WAIT_MS) {
+    if ((await clipBuilds(base, admin)) > before) return { ok: true, ms: performance.now() - t0 };
+    await new Promise((r) => setTimeout(r, 2000));
+  }
+  return { ok: false, ms: performance.now() - t0 };
 }
 
 async function prepare(routeWorkers: number): Promise<Target> {
@@ -308,12 +364,13 @@ async function prepare(routeWorkers: number): Promise<Target> {
       },
     ];
     const viewer = await signIn(base, 'viewer@example.org');
+    const admin = await signIn(base, 'admin@example.org');
     return {
       routeWorkers,
       server,
       scenarios,
       soak: () => cannon({ ...routeOpts(bigId, bigBodies), duration: SOAK_SECONDS }),
-      heavy: () => heavyOn(base, viewer, engineer, planner),
+      heavy: () => heavyOn(base, { viewer, engineer, planner, admin }),
       streams: () => measureStreams(server, `${base}/api/stations/${bigId}/routes`, bigBodies),
     };
   } catch (err) {
@@ -388,9 +445,10 @@ const quantile = (values: number[], q: number) => {
 function printHeavy(main: Measured, pool: Measured) {
   const label = (m: Measured) => (m.routeWorkers === 0 ? 'main thread' : 'task workers');
   console.log(
-    `\nHeavy requests, one at a time, /api/health sampled every 20 ms meanwhile; left: ${label(main)}, right: ${label(pool)}`,
+    `\nHeavy requests, one at a time, /api/health sampled every 20 ms meanwhile; left: ${label(main)}, right: ${label(pool)}` +
+      '; "not 200": health samples the server could not answer in time; load: 1-minute load average as each started',
   );
-  const cols = ['time', 'health n', 'p50', 'p99', 'max'];
+  const cols = ['time', 'health n', 'p50', 'p99', 'max', 'not 200', 'load'];
   console.log(
     'request'.padEnd(44),
     ...cols.map((c) => c.padStart(9)),
@@ -407,6 +465,8 @@ function printHeavy(main: Measured, pool: Measured) {
       ms(quantile(wall, 0.5)),
       ms(quantile(wall, 0.99)),
       ms(Math.max(...wall)),
+      String(r.health.filter((h) => h.status !== 200).length),
+      r.load.toFixed(1),
     ].map((c) => c.padStart(9));
   };
   main.heavy.forEach((a, i) => {
@@ -423,6 +483,30 @@ function printHeavy(main: Measured, pool: Measured) {
       (maxOf(b) / Math.max(maxOf(a), 1)).toFixed(3).padStart(7),
     );
   });
+}
+
+/** The heavy requests alone, on both servers (`LOAD_ONLY=heavy`): no route load before them. */
+async function heavyOnly() {
+  const servers = [await startServer(0), await startServer(POOL_WORKERS)];
+  try {
+    const measured: Measured[] = [];
+    for (const [k, server] of servers.entries()) {
+      const who = async (role: string) => signIn(server.base, `${role}@example.org`);
+      const cookies = {
+        viewer: await who('viewer'),
+        engineer: await who('engineer'),
+        planner: await who('planner'),
+        admin: await who('admin'),
+      };
+      const routeWorkers = k === 0 ? 0 : POOL_WORKERS;
+      measured.push({ routeWorkers, rows: [], heavy: await heavyOn(server.base, cookies) });
+    }
+    printHeavy(measured[0], measured[1]);
+    const failed = measured.flatMap((m) => m.heavy).filter((r) => r.status >= 300);
+    process.exitCode = failed.length > 0 ? 1 : 0;
+  } finally {
+    await Promise.all(servers.map((s) => s.stop()));
+  }
 }
 
 async function streamsOnly() {
@@ -465,4 +549,5 @@ async function main() {
   }
 }
 
-await (process.env.LOAD_ONLY === 'streams' ? streamsOnly() : main());
+const only = process.env.LOAD_ONLY;
+await (only === 'streams' ? streamsOnly() : only === 'heavy' ? heavyOnly() : main());

@@ -108,6 +108,8 @@ function mainThreadCpuMs(): number | null {
 export interface HealthSample {
   /** round trip of GET /api/health, ms */
   wallMs: number;
+  /** its status: 200, or what a server that could not answer in time sent (408 from Node's request timeout) */
+  status: number;
   /** CPU the request thread used meanwhile, ms (null: not measurable here) */
   threadCpuMs: number | null;
 }
@@ -139,9 +141,14 @@ function healthStatus(base: string): Promise<number> {
 
 /**
  * Runs `work` and samples GET /api/health, one request at a time with a short pause between, until
- * the work settles (or MAX_SAMPLES were taken: a bounded loop).
+ * the work settles (or MAX_SAMPLES were taken: a bounded loop). A sample other than 200 throws,
+ * unless `keepFailed` (a benchmark counts them instead).
  */
-export async function sampleHealthWhile<T>(base: string, work: () => Promise<T>): Promise<Sampled<T>> {
+export async function sampleHealthWhile<T>(
+  base: string,
+  work: () => Promise<T>,
+  { keepFailed = false } = {},
+): Promise<Sampled<T>> {
   const started = performance.now();
   let settled = false;
   const running = work().finally(() => {
@@ -154,8 +161,8 @@ export async function sampleHealthWhile<T>(base: string, work: () => Promise<T>)
     const status = await healthStatus(base);
     const wallMs = performance.now() - t0;
     const cpu1 = mainThreadCpuMs();
-    samples.push({ wallMs, threadCpuMs: cpu0 === null || cpu1 === null ? null : cpu1 - cpu0 });
-    if (status !== 200) throw new Error(`/api/health answered ${status}`);
+    samples.push({ wallMs, status, threadCpuMs: cpu0 === null || cpu1 === null ? null : cpu1 - cpu0 });
+    if (status !== 200 && !keepFailed) throw new Error(`/api/health answered ${status}`);
     await new Promise((r) => setTimeout(r, PAUSE_MS));
   }
   const result = await running;
