@@ -14,6 +14,7 @@ import { PlaybackScene } from './playback-scene';
 import { usePlanPresence } from '@/features/live/live-updates';
 import { PresenceList } from '@/features/live/components/presence-list';
 import { PlanRuns } from '@/features/runs/components/plan-runs';
+import { PlanSeriesLine } from '@/features/series/components/plan-series-line';
 
 export const clientLoader =
   (queryClient: QueryClient) =>
@@ -66,7 +67,12 @@ export default function PlanRoute() {
         nodes={nodes}
         orbit={graph.data?.station.orbit}
         rehearseHref={paths.walkthroughs.getHref({ planId: plan.data.id })}
-        beside={<PresenceList viewers={viewers} selfId={user.id} />}
+        beside={
+          <>
+            <PlanSeriesLine planId={plan.data.id} />
+            <PresenceList viewers={viewers} selfId={user.id} />
+          </>
+        }
         aside={
           plan.data.status === 'approved' && <PlanRuns planId={plan.data.id} runHref={paths.run.getHref} />
         }
