@@ -193,17 +193,23 @@ export function proposeOrder(
   if (!exact && perCrew <= (options.exactUpTo ?? EXACT_TASKS_PER_CREW)) {
     search.deadline = started + budget * EXACT_SHARE;
     search.now = now;
-    search.floor = clean
-      ? soloFloor(plan, search, day, memoRoute, options, started + budget * FLOOR_SHARE, now, counted)
-      : 0;
+    const solo =
+      clean && aloneIsFloor(plan, search) ? new SoloRest(search, day, memoRoute, options, counted) : null;
+    if (solo) {
+      // the floor by FLOOR_SHARE of the budget; no need to know it past the best order so far
+      search.deadline = started + budget * FLOOR_SHARE;
+      search.target = best ? best.timeline.endSeconds - END_EPS : Infinity;
+      search.floor = solo.floor();
+      search.deadline = started + budget * EXACT_SHARE;
+      search.late = false;
+    }
 
     // a good order first, so the bound cuts more of the tree from the start
     const warmBy = now() + budget * WARM_SHARE;
     const warm = localSearch(search, scorer, best, warmBy, now, options.seed ?? 1);
     if (warm && warm.added === 0) best = warm;
     // after the warm-up: its days are placed faster without the table (which fills as it is asked)
-    if (clean && aloneIsFloor(plan, search))
-      search.solo = new SoloRest(search, day, memoRoute, options, counted);
+    search.solo = solo;
     if (best && best.timeline.endSeconds <= search.floor + END_EPS) exact = true;
     else {
       const found = independentLanes(plan) ? laneByLane(search, best) : branchAndBound(search, best);
@@ -234,7 +240,8 @@ export function proposeOrder(
  * What the search knows of every order that starts with `prefix` (plan indices keeping `after`) and
  * in which each crew member named in `next` goes on with that task (not in `prefix`): the bound of
  * its placed day (`dayBound`; Infinity when that day already adds a warning) and the floor under
- * every allowed order (`soloFloor`). Both are at most the earliest allowed day end.
+ * every allowed order (`SoloRest.floor`). Both are at most the earliest allowed day end. With a day end
+ * to beat (`target`) the bound may stop anywhere at or past it, as in the search.
  */
 export function orderBounds(
   plan: DayPlan,
@@ -243,6 +250,7 @@ export function orderBounds(
   prefix: readonly number[],
   options: SequenceOptions = {},
   next: Partial<Record<CrewMember, number>> = {},
+  target = Infinity,
 ): { bound: number; floor: number } {
   const identity = plan.tasks.map((_, i) => i);
   const timelineOf = (order: readonly number[]) =>
@@ -253,6 +261,7 @@ export function orderBounds(
   const s = searchFor(plan, clean, base, station, route, options, timelineOf, () => {});
   if (!s.root) return { bound: 0, floor: 0 };
   if (clean && aloneIsFloor(plan, s)) s.solo = new SoloRest(s, station, route, options, () => {});
+  s.target = target;
   const day = s.extend(s.root, prefix);
   const left = Object.fromEntries(
     CREW.map((m) => [m, s.laneTasks[m].filter((x) => !prefix.includes(x))]),
@@ -261,18 +270,7 @@ export function orderBounds(
     bound: spoiled(s, day)
       ? Infinity
       : dayBound(s, day, left, { EV1: next.EV1 ?? null, EV2: next.EV2 ?? null }),
-    floor: clean
-      ? soloFloor(
-          plan,
-          s,
-          station,
-          route,
-          options,
-          Infinity,
-          () => 0,
-          () => {},
-        )
-      : 0,
+    floor: s.solo ? s.solo.floor() : 0,
   };
 }
 
@@ -300,14 +298,30 @@ interface Search {
   mustNight: (x: number) => boolean;
   /** the bound holds: work takes its planned time (not a day as flown) */
   bounded: boolean;
-  /** no allowed order ends before this (`soloFloor`; 0 when not known) */
+  /** no allowed order ends before this (`SoloRest.floor`; 0 when not known) */
   floor: number;
   /** each crew member's least time left alone (null where it is not a bound: see `SoloRest`) */
   solo: SoloRest | null;
   /** partial days dropped as dominated */
   dominated: number;
+  /** the day end to beat, less END_EPS (Infinity: none yet): a bound at or past it need not be closer */
+  target: number;
   deadline: number;
   now: () => number;
+  /** calls of `timeUp` since it last read the clock, and whether the deadline has passed */
+  ticks: number;
+  late: boolean;
+}
+
+/** Calls of `timeUp` per reading of the clock (a reading costs microseconds, a CPU-time clock more). */
+const CLOCK_EVERY = 32;
+
+/** Whether the search's deadline has passed, the clock read once every CLOCK_EVERY calls. */
+function timeUp(s: Search): boolean {
+  if (s.late) return true;
+  if (++s.ticks < CLOCK_EVERY) return false;
+  s.ticks = 0;
+  return (s.late = s.now() > s.deadline);
 }
 
 const UNREACHED_CODES = new Set([
@@ -363,8 +377,11 @@ function searchFor(
     floor: 0,
     solo: null,
     dominated: 0,
+    target: Infinity,
     deadline: Infinity,
     now: () => 0,
+    ticks: 0,
+    late: false,
   };
 }
 
@@ -571,7 +588,7 @@ function cleanDay(plan: DayPlan, current: Timeline): boolean {
   return !current.warnings.some((w) => UNREACHED_CODES.has(w.code)) && !plan.tasks.some((t) => t.arm);
 }
 
-/** The partner can only hold a crew member up (with a day that reaches everything: see `soloFloor`). */
+/** The partner can only hold a crew member up (with a day that reaches everything: see `SoloRest`). */
 const aloneIsFloor = (plan: DayPlan, s: Search) =>
   s.bounded &&
   s.root !== null &&
@@ -608,68 +625,6 @@ function soloSearch(
   return searchFor(solo, true, new Map(), station, route, options, s.timelineOf, counted);
 }
 
-/**
- * A floor under every allowed order's day end: each crew member's earliest own return with their
- * tasks alone (a task for both done alone from their socket, `after` kept among their own tasks),
- * over every sequence of them whose routes are all feasible, plus ingress. Searched exhaustively with
- * `laneBound`; 0 when the search does not finish by `deadline`. It holds when the partner can only
- * hold a crew member up: no portable anchor or large item in the manifest (an anchor the partner
- * installs, or a large item they take, could shorten the crew member's routes), no arm, the plan's
- * own order reaches every worksite and restraint (then no allowed order fails a route, and the
- * crew member's routes are the same requests alone: their tether and the items' effect on routes
- * do not depend on the partner) and the work takes its planned time. Alone, a crew member's day
- * loses only the waits for the partner (sync and `after`), so it ends no later than in the day of
- * any order with the same sequence.
- */
-function soloFloor(
-  plan: DayPlan,
-  s: Search,
-  station: DayStation,
-  route: DayRouteFn,
-  options: SequenceOptions,
-  deadline: number,
-  now: () => number,
-  counted: () => void,
-): number {
-  if (!aloneIsFloor(plan, s)) return 0;
-  let floor = 0;
-  for (const m of CREW) {
-    const mine = s.laneTasks[m];
-    const alone = soloSearch(s, m, station, route, options, counted);
-    const chosen = new Uint8Array(mine.length);
-    const all = alone.laneTasks[m];
-    let best = Infinity;
-    let complete = true;
-    const visit = (day: PlacedDay, placed: number) => {
-      if (now() > deadline) {
-        complete = false;
-        return;
-      }
-      if (placed === all.length) {
-        const timeline = day.finish();
-        if (!timeline.warnings.some((w) => w.code === 'route-infeasible'))
-          best = Math.min(best, ownEnd(timeline, m));
-        return;
-      }
-      const left = all.filter((x) => !chosen[x]);
-      if (laneBound(alone, m, day.progress(m), left, (_, t) => t) >= best - END_EPS) return;
-      for (const x of left) {
-        if (!alone.afterOf[x].every((j) => chosen[j])) continue;
-        const next = alone.extend(day, [x]);
-        if (next.warningsSoFar().some((w) => w.code === 'route-infeasible')) continue;
-        chosen[x] = 1;
-        visit(next, placed + 1);
-        chosen[x] = 0;
-        if (!complete) return;
-      }
-    };
-    visit(alone.root!, 0);
-    if (!complete || best === Infinity) return 0;
-    floor = Math.max(floor, best);
-  }
-  return floor + plan.ingressSeconds;
-}
-
 // ── each crew member alone: the least time left, a table over their tasks left ─────────────────────
 
 /** Thrown out of the table's recursion when the search's time is up (nothing half-made is kept). */
@@ -685,12 +640,22 @@ const OUT_OF_TIME = Symbol('out of time');
  * plan's own order reaches everything: as for `soloFloor`) with waits between, so a crew member's
  * own end is at least their clock plus the work still ahead in tasks placed and not started plus
  * this. Left empty (0) for a prefix whose table is not made by the search's deadline.
+ *
+ * It holds when the partner can only hold a crew member up: no portable anchor or large item in the
+ * manifest (an anchor the partner installs, or a large item they take, could shorten the crew
+ * member's routes), no arm, the plan's own order reaches every worksite and restraint (then no
+ * allowed order fails a route, and the crew member's routes are the same requests alone: their
+ * tether and the items' effect on routes do not depend on the partner) and the work takes its
+ * planned time. Alone, a crew member's day loses only the waits for the partner (sync and `after`),
+ * so it ends no later than in the day of any order with the same sequence.
  */
 class SoloRest {
   private readonly alone: Record<CrewMember, Search>;
   /** a crew member's plan indices to the solo plan's */
   private readonly soloIndex: Record<CrewMember, Map<number, number>>;
   private readonly table = new Map<string, number>();
+  /** lower bounds where the least time was not needed */
+  private readonly least = new Map<string, number>();
   private readonly days = new Map<string, PlacedDay>();
 
   constructor(
@@ -714,8 +679,28 @@ class SoloRest {
     return this.table.size;
   }
 
-  /** The least time left alone after `prefix` (plan indices, in order), or 0 when not known in time. */
-  rest(m: CrewMember, prefix: readonly number[]): number {
+  /**
+   * A floor under every allowed order's day end: each crew member's earliest own return with their
+   * tasks alone (a task for both done alone from their socket, `after` kept among their own tasks),
+   * over every sequence of them whose routes are all feasible, plus ingress; where that is not
+   * below the day end to beat, it may stop there. 0 when not known by the search's deadline.
+   */
+  floor(): number {
+    let floor = 0;
+    for (const m of CREW) {
+      const t = this.alone[m].root!.progress(m).t;
+      const rest = this.rest(m, [], this.need(t));
+      if (this.s.late || rest === Infinity) return 0;
+      floor = Math.max(floor, t + rest);
+    }
+    return floor + this.s.plan.ingressSeconds;
+  }
+
+  /**
+   * The least time left alone after `prefix` (plan indices, in order), or a lower bound on it of at
+   * least `need` (then it is not asked further), or 0 when not known in time.
+   */
+  rest(m: CrewMember, prefix: readonly number[], need = Infinity): number {
     const a = this.alone[m];
     const solo = this.soloOf(m, prefix);
     const day = this.dayOf(m, solo);
@@ -723,7 +708,7 @@ class SoloRest {
     let mask = (1 << a.laneTasks[m].length) - 1;
     for (const k of solo) mask &= ~(1 << k);
     try {
-      return this.restFrom(m, day, mask);
+      return this.restFrom(m, day, mask, need);
     } catch (e) {
       if (e === OUT_OF_TIME) return 0;
       throw e;
@@ -744,7 +729,7 @@ class SoloRest {
     const from = p.wayInAhead ? this.dayOf(m, this.soloOf(m, started)) : null;
     if (to && from) ahead = to.progress(m).t - from.progress(m).t;
     else for (const x of p.notStarted) ahead += this.s.tasks[x].durationSeconds;
-    return p.t + ahead + this.rest(m, prefix);
+    return p.t + ahead + this.rest(m, prefix, this.need(p.t + ahead));
   }
 
   /**
@@ -756,7 +741,13 @@ class SoloRest {
     const day = this.dayOf(m, this.soloOf(m, prefix));
     const end = day?.workEndOf(this.soloIndex[m].get(x)!);
     if (!day || end === undefined) return 0;
-    return start + this.s.tasks[x].durationSeconds + (day.progress(m).t - end) + this.rest(m, prefix);
+    const from = start + this.s.tasks[x].durationSeconds + (day.progress(m).t - end);
+    return from + this.rest(m, prefix, this.need(from));
+  }
+
+  /** The time left after `t` past which a crew member's end cannot beat the day to beat. */
+  private need(t: number): number {
+    return this.s.target - this.s.plan.ingressSeconds - t;
   }
 
   private soloOf(m: CrewMember, prefix: readonly number[]): number[] {
@@ -778,34 +769,74 @@ class SoloRest {
     return failed ? null : day;
   }
 
-  private restFrom(m: CrewMember, day: PlacedDay, mask: number): number {
-    const key = `${m}|${mask}|${day.laneState(m)}`;
-    const known = this.table.get(key);
-    if (known !== undefined) return known;
-    const s = this.s;
-    if (s.now() > s.deadline) throw OUT_OF_TIME;
-    const a = this.alone[m];
-    const lane = a.laneTasks[m];
+  /**
+   * The least time alone from `day` through the tasks of `mask` home, when it is below `need`;
+   * else a lower bound on it of at least `need`, kept apart and bettered when asked with a higher
+   * `need`. Tasks are tried in the order of their least way (`between`, work, `leastPath`), and one
+   * whose least way cannot beat `need` nor the best found is not placed.
+   */
+  private restFrom(m: CrewMember, day: PlacedDay, mask: number, need: number): number {
     const t = day.progress(m).t;
-    let best = Infinity;
-    for (let k = 0; k < lane.length; k++) {
-      if (!(mask & (1 << k)) || a.afterOf[k].some((j) => mask & (1 << j))) continue;
-      const next = a.extend(day, [k]);
-      if (next.warningsSoFar().some((w) => w.code === 'route-infeasible')) continue;
-      const left = mask & ~(1 << k);
-      if (left === 0) {
-        const timeline = next.finish();
-        if (!timeline.warnings.some((w) => w.code === 'route-infeasible'))
-          best = Math.min(best, ownEnd(timeline, m) - t);
-      } else best = Math.min(best, next.progress(m).t - t + this.restFrom(m, next, left));
-    }
     if (mask === 0) {
+      // every task placed: the lane's clock may be anywhere past its own end (not kept: a whole
+      // lane's state does not say where)
       const timeline = day.copy().finish();
-      best = timeline.warnings.some((w) => w.code === 'route-infeasible')
+      return timeline.warnings.some((w) => w.code === 'route-infeasible')
         ? Infinity
         : ownEnd(timeline, m) - t;
     }
-    this.table.set(key, best);
+    const key = `${m}|${mask}|${day.laneState(m)}`;
+    const known = this.table.get(key);
+    if (known !== undefined) return known;
+    // with a task left the crew member goes on from their clock: never less than 0
+    const least = this.least.get(key) ?? 0;
+    if (least >= need) return least;
+    const s = this.s;
+    if (timeUp(s)) throw OUT_OF_TIME;
+    const a = this.alone[m];
+    const lane = a.laneTasks[m];
+    let best = Infinity;
+    const placed = day.placed();
+    const last = placed.length ? placed[placed.length - 1] : null;
+    const left = lane.filter((k) => mask & (1 << k));
+    let work = 0;
+    for (const k of left) work += a.tasks[k].durationSeconds;
+    const firsts = left
+      .filter((k) => !a.afterOf[k].some((j) => mask & (1 << j)))
+      .map((k) => ({
+        k,
+        floor:
+          a.between(m, last, k) +
+          work +
+          leastPath(
+            a,
+            m,
+            k,
+            left.filter((j) => j !== k),
+          ),
+      }))
+      .sort((x, y) => x.floor - y.floor);
+    for (const { k, floor } of firsts) {
+      const cap = Math.min(need, best);
+      if (floor >= cap) {
+        best = Math.min(best, floor);
+        break;
+      }
+      const next = a.extend(day, [k]);
+      if (next.warningsSoFar().some((w) => w.code === 'route-infeasible')) continue;
+      const rest = mask & ~(1 << k);
+      if (rest === 0) {
+        // the day alone is whole: its own end (the lane's clock may be past it)
+        const timeline = next.finish();
+        if (!timeline.warnings.some((w) => w.code === 'route-infeasible'))
+          best = Math.min(best, ownEnd(timeline, m) - t);
+        continue;
+      }
+      const step = next.progress(m).t - t;
+      best = Math.min(best, step + this.restFrom(m, next, rest, cap - step));
+    }
+    if (best < need) this.table.set(key, best);
+    else this.least.set(key, best);
     return best;
   }
 }
@@ -904,6 +935,7 @@ function branchAndBound(s: Search, incumbent: Scored | null): { best: Scored | n
   const { afterOf, laneTasks } = s;
 
   let best = incumbent;
+  s.target = best ? best.timeline.endSeconds - END_EPS : Infinity;
   let complete = true;
   const dominance = new Dominance(s);
   const chosen = new Uint8Array(n);
@@ -985,7 +1017,7 @@ function branchAndBound(s: Search, incumbent: Scored | null): { best: Scored | n
   };
 
   const visit = (node: Node, day: PlacedDay, lb: number): void => {
-    if (s.now() > s.deadline) {
+    if (timeUp(s)) {
       complete = false;
       return;
     }
@@ -1001,8 +1033,10 @@ function branchAndBound(s: Search, incumbent: Scored | null): { best: Scored | n
     if (node.list.length === n) {
       const timeline = day.finish();
       const scored = { order: node.list, timeline, added: addedWarnings(s.base, timeline, node.list) };
-      if (scored.added === 0 && (best === null || timeline.endSeconds < best.timeline.endSeconds - END_EPS))
+      if (scored.added === 0 && (best === null || timeline.endSeconds < best.timeline.endSeconds - END_EPS)) {
         best = scored;
+        s.target = timeline.endSeconds - END_EPS;
+      }
       return;
     }
     mark(node, 1);
@@ -1122,7 +1156,7 @@ function laneByLane(s: Search, incumbent: Scored | null): { best: Scored | null;
     const startAt = (x: number, earliest: number) =>
       s.mustNight(x) && s.bounded ? start.nightStart(earliest, tasks[x].durationSeconds) : earliest;
     const visit = (seq: number[], day: PlacedDay) => {
-      if (s.now() > s.deadline) {
+      if (timeUp(s)) {
         complete = false;
         return;
       }
