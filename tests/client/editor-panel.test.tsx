@@ -6,6 +6,7 @@ import userEvent, { type UserEvent } from '@testing-library/user-event';
 import { staleVersionDetails } from '@shared/errors';
 import { StationDocumentSchema } from '@shared/schemas/station';
 import type { StationGraph } from '@shared/schemas/station-edits';
+import { stationSummaryOf } from '../factories/station-graph';
 import { EditPanel } from '@/features/station-editor/components/edit-panel';
 import { changedFields } from '@/features/station-editor/components/node-form';
 import { suggestNodeKey } from '@/features/station-editor/utils/node-keys';
@@ -18,22 +19,7 @@ function graphAt(version: number): StationGraph {
   const doc = StationDocumentSchema.parse(buildStationDocument());
   const pos = new Map(doc.nodes.map((n) => [n.key, n.position]));
   return {
-    station: {
-      id: 1,
-      name: doc.name,
-      version,
-      orbit: doc.orbit,
-      settings: doc.settings,
-      counts: {
-        nodes: doc.nodes.length,
-        edges: doc.edges.length,
-        hazards: doc.hazards.length,
-        segments: doc.segments.length,
-      },
-      createdAt: '2026-01-01T00:00:00.000Z',
-      updatedAt: '2026-01-01T00:00:00.000Z',
-      updatedBy: null,
-    },
+    station: stationSummaryOf(doc, { id: 1, version, at: '2026-01-01T00:00:00.000Z' }),
     segments: doc.segments,
     nodes: doc.nodes,
     hazards: doc.hazards,

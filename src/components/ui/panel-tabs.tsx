@@ -15,6 +15,7 @@ export function PanelTabs({
   onChange,
   label,
   flush = false,
+  fill = false,
 }: {
   tabs: readonly PanelTab[];
   active: string;
@@ -22,6 +23,8 @@ export function PanelTabs({
   label: string;
   /** panels without padding (a list that runs to the edges) */
   flush?: boolean;
+  /** the tabs take their container's height and a panel's content fills it (it scrolls itself) */
+  fill?: boolean;
 }) {
   const base = useId();
   const refs = useRef<Record<string, HTMLButtonElement | null>>({});
@@ -35,7 +38,7 @@ export function PanelTabs({
     refs.current[tab.id]?.focus();
   };
   return (
-    <div className="flex min-h-0 flex-col">
+    <div className={cn('flex min-h-0 flex-col', fill && 'flex-1')}>
       <div role="tablist" aria-label={label} className="flex gap-1 border-b border-surface-line px-2">
         {tabs.map((tab, i) => {
           const selected = tab.id === current?.id;
@@ -72,7 +75,7 @@ export function PanelTabs({
           role="tabpanel"
           id={`${base}-panel-${current.id}`}
           aria-labelledby={`${base}-tab-${current.id}`}
-          className={cn('relative min-h-0 flex-1 overflow-y-auto', !flush && 'p-4')}
+          className={cn('relative min-h-0 flex-1 overflow-y-auto', !flush && 'p-4', fill && 'flex flex-col')}
         >
           {current.render()}
         </div>

@@ -1,10 +1,19 @@
-import type { ReactNode, TdHTMLAttributes, ThHTMLAttributes } from 'react';
+import type { HTMLAttributes, ReactNode, Ref, TdHTMLAttributes, ThHTMLAttributes } from 'react';
 import { cn } from '@/lib/cn';
 
-export function Table({ caption, children }: { caption: string; children: ReactNode }) {
+interface TableProps extends HTMLAttributes<HTMLDivElement> {
+  caption: string;
+  children: ReactNode;
+  /** the rows in all (the header's included), where only some are in the page: a virtualized table */
+  rowCount?: number;
+  /** the box around the table, which scrolls it sideways (and down, given a height) */
+  ref?: Ref<HTMLDivElement>;
+}
+
+export function Table({ caption, children, rowCount, className, ref, ...props }: TableProps) {
   return (
-    <div className="overflow-x-auto">
-      <table className="w-full border-collapse text-left text-sm">
+    <div ref={ref} className={cn('overflow-x-auto', className)} {...props}>
+      <table className="w-full border-collapse text-left text-sm" aria-rowcount={rowCount}>
         <caption className="sr-only">{caption}</caption>
         {children}
       </table>

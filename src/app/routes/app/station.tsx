@@ -216,7 +216,7 @@ export function StationView({
               Close tables
             </Button>
           </div>
-          <div className="relative min-h-0 flex-1 overflow-y-auto px-4 py-3">
+          <div className="relative flex min-h-0 flex-1 flex-col px-4 py-3">
             <StationTables graph={graph} selection={selection} onSelect={focus} />
           </div>
         </section>
