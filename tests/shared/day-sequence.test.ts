@@ -1,13 +1,16 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { compileStation } from '@shared/compute/compiled-station';
-import { computeTimeline } from '@shared/compute/day/timeline';
+import { computeTimeline, membersOf } from '@shared/compute/day/timeline';
 import {
   addedWarnings,
   independentLanes,
   keepsAfter,
+  MOVE_KINDS,
+  neighbourOrders,
   orderBounds,
   proposeOrder,
+  type MoveKind,
   type SequenceOptions,
 } from '@shared/compute/day/sequence';
 import type { DayItem, DayPlan, DayTask, Timeline } from '@shared/compute/day/types';
@@ -337,5 +340,141 @@ describe('the proposal, exact or not: properties', () => {
     expect(Date.now() - t0).toBeLessThan(2000);
     expect(r.endSeconds).toBeLessThanOrEqual(r.currentEndSeconds);
     expect(typeof r.exact).toBe('boolean');
+  });
+});
+
+/** Each crew member's sequence in an order. */
+const lanes = (plan: DayPlan, order: readonly number[]) =>
+  (['EV1', 'EV2'] as const).map((m) => order.filter((i) => membersOf(plan.tasks[i]).includes(m)));
+
+/** Whether `next` is `lane` with one of the shapes a move of `kind` makes (worked by hand from the move's definition). */
+function isShape(
+  kind: Exclude<MoveKind, 'joint'>,
+  lane: readonly number[],
+  next: readonly number[],
+): boolean {
+  const len = lane.length;
+  let a = 0;
+  while (a < len && lane[a] === next[a]) a++;
+  let b = len - 1;
+  while (b >= a && lane[b] === next[b]) b--;
+  if (a > b) return false;
+  const mid = lane.slice(a, b + 1);
+  const moved = next.slice(a, b + 1);
+  if (kind === '2-opt') return b - a >= 2 && moved.every((x, k) => x === mid[mid.length - 1 - k]);
+  if (kind === 'swap')
+    return (
+      moved[0] === mid[b - a] &&
+      moved[b - a] === mid[0] &&
+      mid.slice(1, -1).every((x, k) => x === moved[k + 1])
+    );
+  // or-opt: a run of one to three moved to one end of the changed span, as it was or reversed
+  for (let k = 1; k <= 3; k++) {
+    for (const [run, rest, runFirst] of [
+      [mid.slice(0, k), mid.slice(k), false],
+      [mid.slice(-k), mid.slice(0, -k), true],
+    ] as const) {
+      for (const r of [run, [...run].reverse()]) {
+        const want = runFirst ? [...r, ...rest] : [...rest, ...r];
+        if (want.length === moved.length && want.every((x, j) => x === moved[j])) return true;
+      }
+    }
+  }
+  return false;
+}
+
+describe('the local search: its moves, and the proposal with each', () => {
+  const allowedOrder = fc
+    .tuple(planArb(4, 12), fc.array(fc.nat(), { minLength: 12, maxLength: 12 }))
+    .map(([plan, keys]) => {
+      // a random order that keeps `after`: tasks taken by key among those whose tasks are placed
+      const order: number[] = [];
+      const left = new Set(plan.tasks.map((_, i) => i));
+      const ids = new Map(plan.tasks.map((t, i) => [t.id, i]));
+      while (left.size) {
+        const ready = [...left].filter((i) =>
+          (plan.tasks[i].after ?? []).every((id) => !left.has(ids.get(id)!)),
+        );
+        const x = ready[keys[order.length % keys.length] % ready.length];
+        order.push(x);
+        left.delete(x);
+      }
+      return { plan, order };
+    });
+
+  for (const kind of ['or-opt', '2-opt', 'swap'] as const) {
+    it(`a ${kind} move changes one crew member's sequence by its shape and keeps the partner's own tasks in place`, () => {
+      fc.assert(
+        fc.property(allowedOrder, ({ plan, order }) => {
+          const before = lanes(plan, order);
+          for (const next of neighbourOrders(plan, station, route, order, kind, { travelSeconds })) {
+            expect([...next].sort((a, b) => a - b)).toEqual(plan.tasks.map((_, i) => i));
+            const after = lanes(plan, next);
+            const changed = [0, 1].filter((k) => after[k].join() !== before[k].join());
+            expect(changed.length).toBeGreaterThan(0);
+            // the crew member whose sequence has the move's shape, with the partner's own tasks in place
+            const fits = changed.filter(
+              (k) =>
+                isShape(kind, before[k], after[k]) &&
+                order.every(
+                  (x, at) => membersOf(plan.tasks[x]).includes(k ? 'EV2' : 'EV1') || next[at] === x,
+                ),
+            );
+            expect(fits.length).toBeGreaterThan(0);
+          }
+        }),
+        { numRuns: 20, seed: 7 },
+      );
+    });
+  }
+
+  it('a joint move puts one task for both elsewhere and keeps the others in order', () => {
+    fc.assert(
+      fc.property(allowedOrder, ({ plan, order }) => {
+        for (const next of neighbourOrders(plan, station, route, order, 'joint', { travelSeconds })) {
+          const movedBoth = order.filter((x, at) => plan.tasks[x].crew === 'both' && next.indexOf(x) !== at);
+          expect(movedBoth.length).toBeGreaterThan(0);
+          const x = movedBoth.find(
+            (y) => next.filter((z) => z !== y).join() === order.filter((z) => z !== y).join(),
+          );
+          expect(x).toBeDefined();
+        }
+      }),
+      { numRuns: 20, seed: 8 },
+    );
+  });
+
+  for (const kind of MOVE_KINDS)
+    it(`with ${kind} moves alone the proposal never breaks \`after\`, never ends later, never adds a warning`, () => {
+      fc.assert(
+        fc.property(planArb(3, 12), fc.nat(1000), (plan, seed) => {
+          const r = propose(plan, { exactUpTo: 0, moves: [kind], seed, evaluations: 150 });
+          const identity = plan.tasks.map((_, i) => i);
+          if (keepsAfter(plan.tasks, identity)) expect(keepsAfter(plan.tasks, r.order)).toBe(true);
+          expect(r.endSeconds).toBeLessThanOrEqual(r.currentEndSeconds + 1e-6);
+          expect(added(plan, day(plan, identity), r.order)).toBe(0);
+          expect(day(plan, r.order).endSeconds).toBeCloseTo(r.endSeconds, 6);
+        }),
+        { numRuns: 8, seed: 9 },
+      );
+    });
+
+  it('the same plan, seed and number of days computed give the same order', () => {
+    const tasks = Array.from({ length: 14 }, (_, i) =>
+      dayTask(
+        `T${i + 1}`,
+        SITES[(i * 5) % SITES.length],
+        i % 3 === 2 ? 'both' : i % 2 ? 'EV2' : 'EV1',
+        300 + 60 * i,
+        {
+          id: i + 1,
+        },
+      ),
+    );
+    const plan = buildDayPlan({ tasks });
+    const runs = [1, 2].map(() => propose(plan, { exactUpTo: 0, seed: 5, evaluations: 400 }));
+    expect(runs[1].order).toEqual(runs[0].order);
+    expect(runs[1].endSeconds).toBe(runs[0].endSeconds);
+    expect(runs[0].endSeconds).toBeLessThan(runs[0].currentEndSeconds);
   });
 });

@@ -26,6 +26,14 @@ const EXACT_SHARE = 0.7;
 const MAX_LOCAL_EVALUATIONS = 200_000;
 /** The local search ends early after this many climbs in a row that computed no day not seen before. */
 const STALE_CLIMBS = 50;
+/**
+ * A climb step tries at most this many moves per task of the plan, the likeliest first (`movesAround`),
+ * before the climb counts as stuck and the best order is kicked: the improving move is almost always
+ * among the first few hundred of several thousand on 40 tasks.
+ */
+const CANDIDATES_PER_TASK = 8;
+/** The local search's placed days ask the bound every this many tasks placed (and on the last). */
+const BOUND_EVERY = 3;
 /** Seconds: a day end counts as earlier only by more than this (the same legs summed in another order). */
 const END_EPS = 1e-6;
 
@@ -43,6 +51,10 @@ export interface SequenceOptions {
   exactUpTo?: number;
   /** seed of the local search's perturbations */
   seed?: number;
+  /** most days the local search computes (default 200,000): with it, the same plan and seed give the same order */
+  evaluations?: number;
+  /** the local search's moves (default all of `MOVE_KINDS`) */
+  moves?: readonly MoveKind[];
   /** where the day's items start (an EVA of a series), as for the timeline */
   start?: DayStart;
 }
@@ -187,6 +199,10 @@ export function proposeOrder(
   const greedy = scorer.score(greedyOrder(search), null);
   if (greedy && greedy.added === 0 && keepsAfter(plan.tasks, greedy.order) && better(greedy, best))
     best = greedy;
+  // and one built on the day itself
+  const builtFrom = builtOrder(search, null);
+  const built = builtFrom && scorer.score(builtFrom, null);
+  if (built && built.added === 0 && keepsAfter(plan.tasks, built.order) && better(built, best)) best = built;
 
   const perCrew = Math.max(...CREW.map((m) => search.laneTasks[m].length));
   let exact = n <= 1 && best !== null;
@@ -206,7 +222,7 @@ export function proposeOrder(
 
     // a good order first, so the bound cuts more of the tree from the start
     const warmBy = now() + budget * WARM_SHARE;
-    const warm = localSearch(search, scorer, best, warmBy, now, options.seed ?? 1);
+    const warm = localSearch(search, scorer, best, warmBy, now, options);
     if (warm && warm.added === 0) best = warm;
     // after the warm-up: its days are placed faster without the table (which fills as it is asked)
     search.solo = solo;
@@ -218,7 +234,7 @@ export function proposeOrder(
     }
   }
   if (!exact) {
-    best = localSearch(search, scorer, best, started + budget, now, options.seed ?? 1);
+    best = localSearch(search, scorer, best, started + budget, now, options);
     exact = best !== null && best.added === 0 && best.timeline.endSeconds <= search.floor + END_EPS;
   }
   const chosen = best && best.added === 0 ? best : { order: identity, timeline: current, added: 0 };
@@ -1237,19 +1253,222 @@ class Scorer {
       const x = order[j];
       day = s.extend(day, [x]);
       for (const m of membersOf(s.tasks[x])) left[m].splice(left[m].indexOf(x), 1);
-      if (cutoff !== null && (spoiled(s, day) || dayBound(s, day, left) >= cutoff - END_EPS)) return null;
+      if (cutoff === null) continue;
+      if (spoiled(s, day)) return null;
+      // the bound costs about as much as placing a task: asked every few tasks and on the last
+      if ((order.length - 1 - j) % BOUND_EVERY === 0 && dayBound(s, day, left) >= cutoff - END_EPS)
+        return null;
     }
     const timeline = day.finish();
     return { order, timeline, added: addedWarnings(s.base, timeline, order) };
   }
 }
 
+/** A seeded random integer below k (xorshift32): the same seed gives the same search. */
+function randomFrom(seed: number): (k: number) => number {
+  let r = seed >>> 0 || 1;
+  return (k) => {
+    r ^= r << 13;
+    r ^= r >>> 17;
+    r ^= r << 5;
+    return (r >>> 0) % k;
+  };
+}
+
+/** Each crew member's sequence in an order (plan indices) and the places of the order it holds. */
+function lanesOf(tasks: readonly DayTask[], order: readonly number[]) {
+  const seq = { EV1: [] as number[], EV2: [] as number[] };
+  const slots = { EV1: [] as number[], EV2: [] as number[] };
+  order.forEach((x, k) => {
+    for (const m of membersOf(tasks[x])) {
+      seq[m].push(x);
+      slots[m].push(k);
+    }
+  });
+  return { seq, slots };
+}
+
 /**
- * Iterated local search: from the best order so far, move one task to another place, or reverse a
- * run of tasks, while that improves the day (fewer added warnings first, then the end; orders with
- * the same two crew sequences are computed once), then from the best make a few random moves and
- * climb again, until the budget, MAX_LOCAL_EVALUATIONS, or STALE_CLIMBS climbs in a row that met only
- * orders already seen.
+ * The order with crew member m's tasks in the places their tasks held, in the sequence `seq`: the
+ * partner's tasks for them alone keep their places, so the day is the same up to the first place
+ * that changed (a task for both moves in the partner's sequence too, to the place it lands in).
+ */
+function withLane(order: readonly number[], slots: readonly number[], seq: readonly number[]): number[] {
+  const next = [...order];
+  slots.forEach((k, j) => (next[k] = seq[j]));
+  return next;
+}
+
+/**
+ * The local search's moves: a run of one to three of a crew member's tasks moved in their sequence
+ * (`or-opt`), a run reversed (`2-opt`), two of their tasks swapped (`swap`), a task for both moved
+ * in the plan order (`joint`).
+ */
+export const MOVE_KINDS = ['or-opt', '2-opt', 'swap', 'joint'] as const;
+export type MoveKind = (typeof MOVE_KINDS)[number];
+
+/** A move from an order: `estimate`, its change of the least legs (see `movesAround`); `order`, the order it gives. */
+interface Move {
+  kind: MoveKind;
+  estimate: number;
+  order: () => number[];
+}
+
+/** Runs of this many tasks at most are moved whole (or-opt). */
+const MOST_MOVED = 3;
+
+/** The least legs of a crew member's sequence: `between` from the airlock through it and home. */
+function legsOf(s: Search, m: CrewMember, seq: readonly number[]): number {
+  let sum = 0;
+  let prev: number | null = null;
+  for (const x of seq) {
+    sum += s.between(m, prev, x);
+    prev = x;
+  }
+  return sum + s.between(m, prev, null);
+}
+
+/**
+ * The moves around an order. Each crew member's: a run of one to MOST_MOVED of their tasks moved
+ * elsewhere in their sequence, as it was or reversed (or-opt), a run reversed in place (2-opt), two
+ * tasks swapped; the order keeps the partner's tasks in their places (`withLane`). And a task for
+ * both moved elsewhere in the plan order: its place in each crew member's sequence, so where the two
+ * meet, changes together. Ranked, the likeliest first, by the change of the least legs of the
+ * sequences it changes, plus, for a crew member's own moves, how far their own end is before the
+ * day's latest (a crew member who ends earlier helps only by a shorter wait). Moves that give the
+ * same sequences are listed once.
+ */
+function movesAround(
+  s: Search,
+  order: readonly number[],
+  ownEnds: Record<CrewMember, number>,
+  kinds: readonly MoveKind[] = MOVE_KINDS,
+): Move[] {
+  const tasks = s.tasks;
+  const { seq, slots } = lanesOf(tasks, order);
+  const latest = Math.max(ownEnds.EV1, ownEnds.EV2);
+  const moves: Move[] = [];
+  const listed = new Set<string>();
+  for (const m of CREW) {
+    const lane = seq[m];
+    const len = lane.length;
+    const base = legsOf(s, m, lane) - (latest - ownEnds[m]);
+    const add = (kind: MoveKind, next: number[]) => {
+      const key = `${m}:${next.join(',')}`;
+      if (!kinds.includes(kind) || listed.has(key)) return;
+      listed.add(key);
+      moves.push({ kind, estimate: legsOf(s, m, next) - base, order: () => withLane(order, slots[m], next) });
+    };
+    for (let k = 1; k <= Math.min(MOST_MOVED, len - 1); k++) {
+      for (let a = 0; a + k <= len; a++) {
+        const run = lane.slice(a, a + k);
+        const rest = [...lane.slice(0, a), ...lane.slice(a + k)];
+        for (let t = 0; t <= rest.length; t++) {
+          if (t === a) continue;
+          add('or-opt', [...rest.slice(0, t), ...run, ...rest.slice(t)]);
+          if (k > 1) add('or-opt', [...rest.slice(0, t), ...[...run].reverse(), ...rest.slice(t)]);
+        }
+      }
+    }
+    for (let a = 0; a < len; a++)
+      for (let b = a + 1; b < len; b++) {
+        if (b > a + 1)
+          add('2-opt', [...lane.slice(0, a), ...lane.slice(a, b + 1).reverse(), ...lane.slice(b + 1)]);
+        const swapped = [...lane];
+        [swapped[a], swapped[b]] = [swapped[b], swapped[a]];
+        add('swap', swapped);
+      }
+  }
+  const legs = CREW.map((m) => legsOf(s, m, seq[m]));
+  order.forEach((x, i) => {
+    if (tasks[x].crew !== 'both' || !kinds.includes('joint')) return;
+    const rest = order.filter((_, k) => k !== i);
+    for (let j = 0; j <= rest.length; j++) {
+      if (j === i) continue;
+      const next = [...rest.slice(0, j), x, ...rest.slice(j)];
+      const lanes = lanesOf(tasks, next).seq;
+      const key = `both:${lanes.EV1.join(',')}|${lanes.EV2.join(',')}`;
+      if (listed.has(key)) continue;
+      listed.add(key);
+      const estimate = CREW.reduce((sum, m, k) => sum + legsOf(s, m, lanes[m]) - legs[k], 0);
+      moves.push({ kind: 'joint', estimate, order: () => next });
+    }
+  });
+  return moves.sort((a, b) => a.estimate - b.estimate);
+}
+
+/** The orders the local search's moves of one kind give around `order` (plan indices), ranked as it tries them. */
+export function neighbourOrders(
+  plan: DayPlan,
+  station: DayStation,
+  route: DayRouteFn,
+  order: readonly number[],
+  kind: MoveKind,
+  options: SequenceOptions = {},
+): number[][] {
+  const timelineOf = (o: readonly number[]) =>
+    computeTimeline({ ...plan, tasks: o.map((i) => plan.tasks[i]) }, station, route, options.start);
+  const identity = plan.tasks.map((_, i) => i);
+  const current = timelineOf(identity);
+  const base = warningCounts(current, identity);
+  const s = searchFor(plan, cleanDay(plan, current), base, station, route, options, timelineOf, () => {});
+  const day = timelineOf(order);
+  const ends = { EV1: ownEnd(day, 'EV1'), EV2: ownEnd(day, 'EV2') };
+  return movesAround(s, order, ends, [kind]).map((move) => move.order());
+}
+
+/** A few random moves: a run of a crew member's sequence moved, or the sequence cut in four and the middle two parts exchanged. */
+function kicked(s: Search, order: readonly number[], random: (k: number) => number): number[] {
+  let next = [...order];
+  for (let tries = 0, done = 0; tries < 20 && done < 2; tries++) {
+    const m = CREW[random(2)];
+    const { seq, slots } = lanesOf(s.tasks, next);
+    const lane = seq[m];
+    const len = lane.length;
+    if (len < 3) continue;
+    let moved: number[];
+    if (len >= 8 && random(2) === 0) {
+      // three cuts: a b c d becomes a c b d
+      const cuts = [random(len - 1) + 1, random(len - 1) + 1, random(len - 1) + 1].sort((x, y) => x - y);
+      if (cuts[0] === cuts[1] || cuts[1] === cuts[2]) continue;
+      moved = [
+        ...lane.slice(0, cuts[0]),
+        ...lane.slice(cuts[1], cuts[2]),
+        ...lane.slice(cuts[0], cuts[1]),
+        ...lane.slice(cuts[2]),
+      ];
+    } else {
+      const k = 1 + random(Math.min(MOST_MOVED, len - 1));
+      const a = random(len - k + 1);
+      const run = lane.slice(a, a + k);
+      const rest = [...lane.slice(0, a), ...lane.slice(a + k)];
+      const t = random(rest.length + 1);
+      moved = [...rest.slice(0, t), ...run, ...rest.slice(t)];
+    }
+    const candidate = withLane(next, slots[m], moved);
+    if (!keepsAfterOf(s.afterOf, candidate)) continue;
+    next = candidate;
+    done++;
+  }
+  return next;
+}
+
+/** `keepsAfter` on the search's own `after` lists. */
+function keepsAfterOf(afterOf: readonly number[][], order: readonly number[]): boolean {
+  const pos = new Int32Array(afterOf.length).fill(-1);
+  order.forEach((x, k) => (pos[x] = k));
+  return order.every((x, k) => afterOf[x].every((j) => pos[j] !== -1 && pos[j] < k));
+}
+
+/**
+ * Iterated local search, from the best order so far. A climb takes the first move that improves the
+ * day (fewer added warnings first, then the end) among the likeliest CANDIDATES_PER_TASK per task of
+ * `movesAround`, until none does. Orders with the same two crew sequences are computed once (an order cut
+ * off against the climb's order is not placed again in that climb: its order to beat only gets
+ * earlier). Then the best order gets a few random moves (`kicked`, from a seeded generator, so the
+ * same plan and seed visit the same orders) and is climbed again, until the budget,
+ * MAX_LOCAL_EVALUATIONS, the floor, or STALE_CLIMBS climbs in a row that met only orders already
+ * seen.
  */
 function localSearch(
   s: Search,
@@ -1257,75 +1476,60 @@ function localSearch(
   start: Scored | null,
   deadline: number,
   now: () => number,
-  seed: number,
+  options: Pick<SequenceOptions, 'seed' | 'evaluations' | 'moves'>,
 ): Scored | null {
   const tasks = s.tasks;
-  const seen = new Map<string, Scored | null>();
+  const most = options.evaluations ?? MAX_LOCAL_EVALUATIONS;
+  // the end and added warnings of each order scored whole
+  const seen = new Map<string, { end: number; added: number }>();
+  let cut = new Set<string>();
   let evaluations = 0;
   let from: Scored | null = null;
   // an order that adds no warning and ends at the floor cannot be beaten
   const atFloor = () => from !== null && from.added === 0 && from.timeline.endSeconds <= s.floor + END_EPS;
-  const out = () => now() > deadline || evaluations >= MAX_LOCAL_EVALUATIONS || atFloor();
+  const out = () => now() > deadline || evaluations >= most || atFloor();
+  const beats = (a: { end: number; added: number }, b: Scored | null) =>
+    b === null || a.added < b.added || (a.added === b.added && a.end < b.timeline.endSeconds - END_EPS);
   /** the order's day, or null when it breaks `after`, or cannot be better than `from` */
   const scoreOf = (order: number[]): Scored | null => {
-    if (!keepsAfter(tasks, order)) return null;
+    if (!keepsAfterOf(s.afterOf, order)) return null;
     const key = laneKey(tasks, order);
-    if (seen.has(key)) return seen.get(key)!;
+    const known = seen.get(key);
+    // a known day is placed again only to become the climb's
+    if (known && !beats(known, from)) return null;
+    if (!known && cut.has(key)) return null;
     evaluations++;
     // once the climb adds no warning, an order matters only if it adds none and ends earlier
-    const cutoff = from && from.added === 0 ? from.timeline.endSeconds : null;
+    const cutoff = !known && from && from.added === 0 ? from.timeline.endSeconds : null;
     const scored = scorer.score(order, cutoff);
-    // an order cut off against one climb may matter to another: remembered only when scored whole
-    if (scored) seen.set(key, scored);
+    if (scored) seen.set(key, { end: scored.timeline.endSeconds, added: scored.added });
+    else cut.add(key);
     return scored;
   };
   from = start ?? scoreOf(topological(tasks));
   if (!from) return null;
   let best = from;
-  let rand = seed >>> 0 || 1;
-  const random = (k: number) => {
-    rand ^= rand << 13;
-    rand ^= rand >>> 17;
-    rand ^= rand << 5;
-    return (rand >>> 0) % k;
-  };
-  const moved = (order: readonly number[], i: number, j: number) => {
-    const next = [...order];
-    const [x] = next.splice(i, 1);
-    next.splice(j, 0, x);
-    return next;
-  };
-  const reversed = (order: readonly number[], i: number, j: number) => [
-    ...order.slice(0, i),
-    ...order.slice(i, j + 1).reverse(),
-    ...order.slice(j + 1),
-  ];
-  const n = tasks.length;
-  if (n < 2) return best;
+  const random = randomFrom(options.seed ?? 1);
+  if (tasks.length < 2) return best;
   let before = evaluations;
   let stale = 0;
   while (!out()) {
     let improved = true;
     while (improved && !out()) {
       improved = false;
-      scorer.setReference(from.order);
-      for (let i = 0; i < n && !out(); i++) {
-        for (let j = 0; j < n && !out(); j++) {
-          if (i === j) continue;
-          const s1 = scoreOf(moved(from.order, i, j));
-          if (s1 && better(s1, from)) {
-            from = s1;
-            improved = true;
-            scorer.setReference(from.order);
-          }
-          if (j > i + 1) {
-            const s2 = scoreOf(reversed(from.order, i, j));
-            if (s2 && better(s2, from)) {
-              from = s2;
-              improved = true;
-              scorer.setReference(from.order);
-            }
-          }
+      const climb: Scored = from;
+      scorer.setReference(climb.order);
+      const ends = { EV1: ownEnd(climb.timeline, 'EV1'), EV2: ownEnd(climb.timeline, 'EV2') };
+      for (const move of movesAround(s, climb.order, ends, options.moves).slice(
+        0,
+        CANDIDATES_PER_TASK * tasks.length,
+      )) {
+        if (out()) break;
+        const scored = scoreOf(move.order());
+        if (scored && better(scored, from)) {
+          from = scored;
+          improved = true;
+          break;
         }
       }
     }
@@ -1335,15 +1539,64 @@ function localSearch(
     else stale = 0;
     if (stale >= STALE_CLIMBS) break;
     before = evaluations;
-    let order = best.order;
-    for (let k = 0; k < 3; k++) {
-      const next = moved(order, random(n), random(n));
-      if (keepsAfter(tasks, next)) order = next;
-    }
+    cut = new Set();
     from = null;
-    from = scoreOf(order) ?? best;
+    from = scoreOf(kicked(s, best.order, random)) ?? best;
   }
   return best;
+}
+
+/**
+ * An order built on the day itself: the crew member the placed day waits for takes next, among their
+ * tasks whose `after` tasks are placed, the one whose work starts earliest when placed (its real way
+ * in, waits and night windows counted), skipping any that adds a warning the current order lacks; the
+ * partner's tasks when none of theirs fits. Candidates are tried by their least way in (`between`),
+ * and the trying stops once that cannot start earlier than the best found. With `random`, one of the
+ * two earliest is taken at random (a restart from another good order). Null for plans with arm tasks;
+ * when every ready task adds a warning the first in plan order is taken (the order then adds one).
+ */
+function builtOrder(s: Search, random: ((k: number) => number) | null): number[] | null {
+  const root = s.root;
+  if (!root) return null;
+  const n = s.tasks.length;
+  const placed = new Uint8Array(n);
+  const order: number[] = [];
+  const ready = (x: number) => !placed[x] && s.afterOf[x].every((j) => placed[j]);
+  const keep = random ? 2 : 1;
+  let day = root;
+  while (order.length < n) {
+    const first = day.waitsFor() ?? CREW.find((m) => s.laneTasks[m].some((x) => !placed[x])) ?? 'EV1';
+    let found: { x: number; day: PlacedDay; start: number }[] = [];
+    for (const m of [first, partnerOf(first)]) {
+      const p = day.progress(m);
+      const last = p.notStarted.length ? p.notStarted[p.notStarted.length - 1] : p.lastStarted;
+      const tries = s.laneTasks[m]
+        .filter(ready)
+        .map((x) => ({ x, least: p.t + s.between(m, last, x) }))
+        .sort((a, b) => a.least - b.least);
+      for (const { x, least } of tries) {
+        if (found.length >= keep && least >= found[found.length - 1].start) break;
+        const next = s.extend(day, [x]);
+        if (spoiled(s, next)) continue;
+        const end = next.workEndOf(x);
+        const start = end === undefined ? next.progress(m).t : end - s.tasks[x].durationSeconds;
+        found = [...found, { x, day: next, start }].sort((a, b) => a.start - b.start).slice(0, keep);
+      }
+      if (found.length) break;
+    }
+    const x = found.length ? found[random ? random(found.length) : 0].x : placedNext(s, placed);
+    if (x === null) break;
+    day = found.find((f) => f.x === x)?.day ?? s.extend(day, [x]);
+    placed[x] = 1;
+    order.push(x);
+  }
+  return [...order, ...s.tasks.flatMap((_, i) => (placed[i] ? [] : [i]))];
+}
+
+/** The first task in plan order whose `after` tasks are placed (null: none). */
+function placedNext(s: Search, placed: Uint8Array): number | null {
+  for (let x = 0; x < s.tasks.length; x++) if (!placed[x] && s.afterOf[x].every((j) => placed[j])) return x;
+  return null;
 }
 
 /**
