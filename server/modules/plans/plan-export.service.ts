@@ -184,6 +184,68 @@ function cueStep(plan: PlanView, b: TimelineBlock, timeline: PlanTimeline, membe
   return { ...base, text: b.label };
 }
 
+/** A route with more tether swaps than this is one cue step (its swap points listed in order). */
+export const CUE_SWAPS_SPELLED_OUT = 4;
+
+/**
+ * A crew member's cue steps: a step per block, except that a route with more than
+ * `CUE_SWAPS_SPELLED_OUT` swaps is one step, "Translate A → B, 812.0 m, 31 tether swaps", with its
+ * swap points in order and the tether on arrival (a step per swap made a long day's cards run to
+ * thousands of lines that no one reads on the day, and its PDF to minutes).
+ */
+function cueSteps(
+  plan: PlanView,
+  timeline: PlanTimeline,
+  member: 'EV1' | 'EV2',
+  notes: Map<number, string[]>,
+): CueStep[] {
+  const blocks = timeline.crew[member].blocks;
+  const steps: CueStep[] = [];
+  const onRoute = (b: TimelineBlock, routeIndex: number) =>
+    (b.type === 'translate' || b.type === 'swap') && b.routeIndex === routeIndex;
+  for (let k = 0; k < blocks.length; k++) {
+    const b = blocks[k];
+    const routeIndex = b.routeIndex;
+    if (b.type !== 'translate' || routeIndex === undefined) {
+      steps.push(withNotes(cueStep(plan, b, timeline, member), notes.get(k)));
+      continue;
+    }
+    let end = k + 1;
+    while (end < blocks.length && onRoute(blocks[end], routeIndex)) end++;
+    const run = blocks.slice(k, end);
+    const swaps = run.filter((r) => r.type === 'swap');
+    if (swaps.length <= CUE_SWAPS_SPELLED_OUT) {
+      steps.push(withNotes(cueStep(plan, b, timeline, member), notes.get(k)));
+      continue;
+    }
+    const moves = run.filter((r) => r.type === 'translate');
+    const metres = moves.reduce((sum, m) => {
+      const legs = timeline.routes[routeIndex].legs.slice(m.legStart ?? 0, m.legEnd ?? 0);
+      return sum + legs.reduce((s2, l) => s2 + l.lengthM, 0);
+    }, 0);
+    const last = moves[moves.length - 1];
+    const step: CueStep = {
+      start: b.start,
+      end: run[run.length - 1].end,
+      kind: 'translate',
+      night: run.some((r) => overlapsNight(r, timeline.nightWindows)),
+      text: `Translate ${b.from} → ${last.to}, ${metres.toFixed(1)} m, ${swaps.length} tether swaps`,
+      details: [
+        `swaps at ${swaps.map((w) => w.swapNode).join(', ')}`,
+        ...(last.tetherAtEnd
+          ? [
+              `clipped at ${last.tetherAtEnd.anchor}, ${last.tetherAtEnd.paidOutM.toFixed(1)} m out on arrival`,
+            ]
+          : []),
+      ],
+    };
+    const runNotes = run.flatMap((_, i) => notes.get(k + i) ?? []);
+    steps.push(withNotes(step, runNotes.length ? runNotes : undefined));
+    k = end - 1;
+  }
+  return steps;
+}
+
 /** The cue-card model of the plan's timeline: one card per crew member. */
 export function cueCardDocument(plan: PlanView, timeline: PlanTimeline): CueCardDocument {
   const cards = (['EV1', 'EV2'] as const).map((member) => {
@@ -196,9 +258,7 @@ export function cueCardDocument(plan: PlanView, timeline: PlanTimeline): CueCard
       name: plan.crew[member].name,
       tetherLengthM: plan.crew[member].tetherLengthM,
       tools,
-      steps: timeline.crew[member].blocks.map((b, k) =>
-        withNotes(cueStep(plan, b, timeline, member), notes.get(k)),
-      ),
+      steps: cueSteps(plan, timeline, member, notes),
     };
   });
   const start = plan.startGmt;
