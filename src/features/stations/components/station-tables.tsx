@@ -147,9 +147,9 @@ function DataTable({
   };
 
   return (
-    // the rows' box fills the drawer, but keeps room for a few rows: in a short drawer the panel
-    // scrolls to it instead
-    <div className="flex flex-1 flex-col gap-3">
+    // the rows' box fills the drawer (never its rows' height: the window would be every row), but
+    // keeps room for a few rows: in a short drawer the panel scrolls to it instead
+    <div className="flex min-h-0 flex-1 flex-col gap-3">
       <div className="flex flex-wrap items-end gap-3">
         <label className="block w-64 space-y-1 text-sm font-medium text-text-strong">
           <span>Search by key</span>
