@@ -177,41 +177,88 @@ export function fromGraphColumns(columns: GraphColumns): StationGraph {
   for (const [i, metres] of e.given) arrays.edgeLengths[i] = metres;
 
   const graph = { station: columns.station, segments: columns.segments } as StationGraph;
+  const items = itemMaker(columns, arrays);
   lazily(graph, 'nodes', () => {
     const nodes = new Array<StationNode>(n);
-    for (let i = 0; i < n; i++) {
-      nodes[i] = {
-        key: keys[i],
-        kind: NODE_KINDS[kinds[i]],
-        position: [positions[i * 3], positions[i * 3 + 1], positions[i * 3 + 2]],
-      };
-    }
+    for (let i = 0; i < n; i++) nodes[i] = items.bareNode(i);
     for (const [i, rest] of more) Object.assign(nodes[i], rest);
     return nodes;
   });
   lazily(graph, 'edges', () => {
     const given = new Set(e.given.map(([i]) => i));
     const edges = new Array<GraphEdge>(m);
-    for (let i = 0; i < m; i++) {
-      const edge: GraphEdge = {
-        id: arrays.edgeIds[i],
-        from: keys[e.from[i]],
-        to: keys[e.to[i]],
-        kind: EDGE_KINDS[e.kinds[i]] as EdgeKind,
-        lengthM: arrays.edgeLengths[i],
-        lengthGiven: given.has(i),
-        closed: arrays.edgeClosed[i] === 1,
-      };
-      const label = arrays.edgeLabels[i];
-      if (label !== undefined) edge.label = label;
-      edges[i] = edge;
-    }
+    for (let i = 0; i < m; i++) edges[i] = items.edge(i, given.has(i));
     return edges;
   });
   graph.hazards = columns.hazards;
   graph.arms = columns.arms;
   arraysOfGraph.set(graph, arrays);
+  itemsOfGraph.set(graph, items);
   return graph;
+}
+
+/** One node or edge of a graph read from columns, made from the columns alone. */
+interface ItemMaker {
+  /** the node's key, kind and position (not its other fields) */
+  bareNode(i: number): StationNode;
+  node(i: number): StationNode;
+  edge(i: number, lengthGiven?: boolean): GraphEdge;
+}
+
+const itemsOfGraph = new WeakMap<object, ItemMaker>();
+
+function itemMaker(columns: GraphColumns, arrays: GraphArrays): ItemMaker {
+  const { keys, kinds, positions } = arrays;
+  const e = columns.edges;
+  // the sparse fields by index, made when one item is first asked for
+  let more: Map<number, GraphColumns['nodes']['more'][number][1]> | null = null;
+  let given: Set<number> | null = null;
+  const bareNode = (i: number): StationNode => ({
+    key: keys[i],
+    kind: NODE_KINDS[kinds[i]],
+    position: [positions[i * 3], positions[i * 3 + 1], positions[i * 3 + 2]],
+  });
+  return {
+    bareNode,
+    node(i) {
+      more ??= new Map(columns.nodes.more);
+      return Object.assign(bareNode(i), more.get(i));
+    },
+    edge(i, lengthGiven) {
+      const edge: GraphEdge = {
+        id: arrays.edgeIds[i],
+        from: keys[arrays.edgeFrom[i]],
+        to: keys[arrays.edgeTo[i]],
+        kind: EDGE_KINDS[arrays.edgeKinds[i]] as EdgeKind,
+        lengthM: arrays.edgeLengths[i],
+        lengthGiven: lengthGiven ?? (given ??= new Set(e.given.map(([j]) => j))).has(i),
+        closed: arrays.edgeClosed[i] === 1,
+      };
+      const label = arrays.edgeLabels[i];
+      if (label !== undefined) edge.label = label;
+      return edge;
+    },
+  };
+}
+
+/**
+ * The graph's node at index `i` of its arrays (see graphArraysOf), equal to `graph.nodes[i]`: for a
+ * graph read from columns made alone, without making the graph's other nodes.
+ */
+export function nodeAt(graph: StationGraph, i: number): StationNode {
+  const items = itemsOfGraph.get(graph);
+  return items ? items.node(i) : graph.nodes[i];
+}
+
+/**
+ * The graph's edge at index `i` of its arrays, equal to that edge of `graph.edges`: for a graph read
+ * from columns made alone, without making the graph's other edges.
+ */
+export function edgeAt(graph: StationGraph, i: number): GraphEdge {
+  const items = itemsOfGraph.get(graph);
+  if (items) return items.edge(i);
+  // the arrays leave out an edge naming a key the nodes lack, which a stored graph never has
+  return graph.edges[i];
 }
 
 /** Each edge's length as the distance between its ends (the server's own computation). */
@@ -304,6 +351,35 @@ export function graphArraysOf(station: ArraySource): GraphArrays {
 }
 
 const nodeIndexes = new WeakMap<GraphArrays, Map<string, number>>();
+const nodeEdges = new WeakMap<GraphArrays, { start: Uint32Array; edges: Uint32Array }>();
+
+/** The indices of the edges at node `i`, in the edges' order (an index made once, then kept). */
+export function edgesAtNode(arrays: GraphArrays, i: number): Uint32Array {
+  let index = nodeEdges.get(arrays);
+  if (!index) {
+    const { keys, edgeFrom, edgeTo } = arrays;
+    const start = new Uint32Array(keys.length + 1);
+    const loop = (e: number) => edgeFrom[e] === edgeTo[e];
+    for (let e = 0; e < edgeFrom.length; e++) {
+      start[edgeFrom[e] + 1]++;
+      if (!loop(e)) start[edgeTo[e] + 1]++;
+    }
+    for (let k = 0; k < keys.length; k++) start[k + 1] += start[k];
+    const edges = new Uint32Array(start[keys.length]);
+    const fill = start.slice(0, keys.length);
+    for (let e = 0; e < edgeFrom.length; e++) {
+      edges[fill[edgeFrom[e]]++] = e;
+      if (!loop(e)) edges[fill[edgeTo[e]]++] = e;
+    }
+    nodeEdges.set(arrays, (index = { start, edges }));
+  }
+  return index.edges.subarray(index.start[i], index.start[i + 1]);
+}
+
+/** The index of the edge with this id in the arrays, or -1. */
+export function edgeIndexOf(arrays: GraphArrays, id: number): number {
+  return arrays.edgeIds.indexOf(id);
+}
 
 /** Each node key's index in the arrays (made when first asked, then kept). */
 export function nodeIndexOf(arrays: GraphArrays): ReadonlyMap<string, number> {

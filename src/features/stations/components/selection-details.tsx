@@ -7,7 +7,15 @@ import { Badge } from '@/components/ui/badge';
 import { EmptyState } from '@/components/ui/card';
 import { focusRing } from '@/components/ui/button';
 import { cn } from '@/lib/cn';
-import { edgeKey, edgesOf, type SelectionViewProps, type StationSelection } from './selection';
+import { edgeAt, graphArraysOf, nodeAt, nodeIndexOf } from '@shared/compute/graph-columns';
+import {
+  edgeIndexOfKey,
+  edgeKey,
+  edgesOf,
+  positionAt,
+  type SelectionViewProps,
+  type StationSelection,
+} from './selection';
 
 const fmt = (v: number) => v.toFixed(2);
 const vec = (v: Vec3) => `(${v.map(fmt).join(', ')})`;
@@ -57,20 +65,35 @@ function HazardList({ hazards, onSelect }: { hazards: Hazard[]; onSelect: (s: St
   );
 }
 
-const positionsOf = new WeakMap<StationGraph, Map<string, Vec3>>();
-
-/** Each node's position by key, made once per graph. */
-function positions(graph: StationGraph): Map<string, Vec3> {
-  let made = positionsOf.get(graph);
-  if (!made) positionsOf.set(graph, (made = new Map(graph.nodes.map((n) => [n.key, n.position]))));
-  return made;
+/** The hazards the edge's straight line between its ends passes through. */
+function edgeHazards(graph: StationGraph, edge: GraphEdge): Hazard[] {
+  const arrays = graphArraysOf(graph);
+  const index = nodeIndexOf(arrays);
+  const [a, b] = [index.get(edge.from), index.get(edge.to)];
+  if (a === undefined || b === undefined) return [];
+  const [pa, pb] = [positionAt(arrays, a), positionAt(arrays, b)];
+  return graph.hazards.filter((h) => segmentIntersectsHazard(pa, pb, h));
 }
 
-function edgeHazards(graph: StationGraph, edge: GraphEdge): Hazard[] {
-  const at = positions(graph);
-  const a = at.get(edge.from);
-  const b = at.get(edge.to);
-  return a && b ? graph.hazards.filter((h) => segmentIntersectsHazard(a, b, h)) : [];
+/** The nodes inside a hazard and the edges through it, counted over the arrays. */
+function hazardCounts(graph: StationGraph, hazard: Hazard) {
+  const { positions: p, edgeFrom, edgeTo } = graphArraysOf(graph);
+  const [a, b]: Vec3[] = [
+    [0, 0, 0],
+    [0, 0, 0],
+  ];
+  const at = (v: Vec3, i: number) => {
+    v[0] = p[i * 3];
+    v[1] = p[i * 3 + 1];
+    v[2] = p[i * 3 + 2];
+    return v;
+  };
+  let nodesInside = 0;
+  for (let i = 0; i < p.length / 3; i++) if (pointInHazard(at(a, i), hazard)) nodesInside++;
+  let edgesThrough = 0;
+  for (let e = 0; e < edgeFrom.length; e++)
+    if (segmentIntersectsHazard(at(a, edgeFrom[e]), at(b, edgeTo[e]), hazard)) edgesThrough++;
+  return { nodesInside, edgesThrough };
 }
 
 function NodeDetails({
@@ -178,8 +201,7 @@ function EdgeDetails({
 }
 
 function HazardDetails({ graph, hazard }: { graph: StationGraph; hazard: Hazard }) {
-  const nodesInside = graph.nodes.filter((n) => pointInHazard(n.position, hazard));
-  const edgesThrough = graph.edges.filter((e) => edgeHazards(graph, e).includes(hazard));
+  const { nodesInside, edgesThrough } = hazardCounts(graph, hazard);
   return (
     <dl>
       <Row label="Key">
@@ -209,20 +231,22 @@ function HazardDetails({ graph, hazard }: { graph: StationGraph; hazard: Hazard 
           </Row>
         </>
       )}
-      <Row label="Nodes inside">{nodesInside.length}</Row>
-      <Row label="Edges through">{edgesThrough.length}</Row>
+      <Row label="Nodes inside">{nodesInside}</Row>
+      <Row label="Edges through">{edgesThrough}</Row>
     </dl>
   );
 }
 
+/** The details of what is selected, read from the graph's arrays: no object per node or edge. */
 export function SelectionDetails({ graph, selection, onSelect }: SelectionViewProps) {
+  const arrays = graphArraysOf(graph);
   if (selection?.type === 'node') {
-    const node = graph.nodes.find((n) => n.key === selection.key);
-    if (node) return <NodeDetails graph={graph} node={node} onSelect={onSelect} />;
+    const i = nodeIndexOf(arrays).get(selection.key);
+    if (i !== undefined) return <NodeDetails graph={graph} node={nodeAt(graph, i)} onSelect={onSelect} />;
   }
   if (selection?.type === 'edge') {
-    const edge = graph.edges.find((e) => edgeKey(e) === selection.key);
-    if (edge) return <EdgeDetails graph={graph} edge={edge} onSelect={onSelect} />;
+    const e = edgeIndexOfKey(arrays, selection.key);
+    if (e >= 0) return <EdgeDetails graph={graph} edge={edgeAt(graph, e)} onSelect={onSelect} />;
   }
   if (selection?.type === 'hazard') {
     const hazard = graph.hazards.find((h) => h.key === selection.key);

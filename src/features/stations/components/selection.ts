@@ -1,3 +1,11 @@
+import {
+  edgeAt,
+  edgeIndexOf,
+  edgesAtNode,
+  graphArraysOf,
+  nodeIndexOf,
+  type GraphArrays,
+} from '@shared/compute/graph-columns';
 import type { Vec3 } from '@shared/schemas/station';
 import type { GraphEdge, StationGraph } from '@shared/schemas/station-edits';
 
@@ -6,8 +14,14 @@ export type StationSelection = { type: 'node' | 'edge' | 'hazard'; key: string }
 
 export const edgeKey = (edge: GraphEdge) => String(edge.id);
 
+/** The index of the edge a selection key names in the graph's arrays, or -1. */
+export const edgeIndexOfKey = (arrays: GraphArrays, key: string) => edgeIndexOf(arrays, Number(key));
+
+/** The edges at a node, in the graph's order (made for this node alone). */
 export function edgesOf(graph: StationGraph, nodeKey: string): GraphEdge[] {
-  return graph.edges.filter((e) => e.from === nodeKey || e.to === nodeKey);
+  const arrays = graphArraysOf(graph);
+  const i = nodeIndexOf(arrays).get(nodeKey);
+  return i === undefined ? [] : Array.from(edgesAtNode(arrays, i), (e) => edgeAt(graph, e));
 }
 
 /** The props of a part of the screen that shows the station and moves the selection. */
@@ -17,18 +31,28 @@ export interface SelectionViewProps {
   onSelect: (s: StationSelection) => void;
 }
 
+/** The position of node `i` of the arrays. */
+export const positionAt = ({ positions: p }: GraphArrays, i: number): Vec3 => [
+  p[i * 3],
+  p[i * 3 + 1],
+  p[i * 3 + 2],
+];
+
 /** The points that frame a selection: a node with its neighbours, an edge's ends, a hazard's box. */
 export function selectionPoints(graph: StationGraph, selection: StationSelection): Vec3[] {
   if (!selection) return [];
-  const at = (key: string) => graph.nodes.find((n) => n.key === key)?.position;
-  const known = (points: (Vec3 | undefined)[]) => points.filter((p): p is Vec3 => p !== undefined);
+  const arrays = graphArraysOf(graph);
   if (selection.type === 'node') {
-    const near = edgesOf(graph, selection.key).map((e) => (e.from === selection.key ? e.to : e.from));
-    return known([selection.key, ...near].map(at));
+    const i = nodeIndexOf(arrays).get(selection.key);
+    if (i === undefined) return [];
+    const near = Array.from(edgesAtNode(arrays, i), (e) =>
+      arrays.edgeFrom[e] === i ? arrays.edgeTo[e] : arrays.edgeFrom[e],
+    );
+    return [i, ...near].map((k) => positionAt(arrays, k));
   }
   if (selection.type === 'edge') {
-    const edge = graph.edges.find((e) => edgeKey(e) === selection.key);
-    return edge ? known([at(edge.from), at(edge.to)]) : [];
+    const e = edgeIndexOfKey(arrays, selection.key);
+    return e < 0 ? [] : [positionAt(arrays, arrays.edgeFrom[e]), positionAt(arrays, arrays.edgeTo[e])];
   }
   const hazard = graph.hazards.find((h) => h.key === selection.key);
   if (!hazard) return [];
