@@ -200,7 +200,7 @@ export function proposeOrder(
   if (greedy && greedy.added === 0 && keepsAfter(plan.tasks, greedy.order) && better(greedy, best))
     best = greedy;
   // and one built on the day itself
-  const builtFrom = builtOrder(search, null);
+  const builtFrom = builtOrder(search);
   const built = builtFrom && scorer.score(builtFrom, null);
   if (built && built.added === 0 && keepsAfter(plan.tasks, built.order) && better(built, best)) best = built;
 
@@ -1551,22 +1551,20 @@ function localSearch(
  * tasks whose `after` tasks are placed, the one whose work starts earliest when placed (its real way
  * in, waits and night windows counted), skipping any that adds a warning the current order lacks; the
  * partner's tasks when none of theirs fits. Candidates are tried by their least way in (`between`),
- * and the trying stops once that cannot start earlier than the best found. With `random`, one of the
- * two earliest is taken at random (a restart from another good order). Null for plans with arm tasks;
+ * and the trying stops once that cannot start earlier than the best found. Null for plans with arm tasks;
  * when every ready task adds a warning the first in plan order is taken (the order then adds one).
  */
-function builtOrder(s: Search, random: ((k: number) => number) | null): number[] | null {
+function builtOrder(s: Search): number[] | null {
   const root = s.root;
   if (!root) return null;
   const n = s.tasks.length;
   const placed = new Uint8Array(n);
   const order: number[] = [];
   const ready = (x: number) => !placed[x] && s.afterOf[x].every((j) => placed[j]);
-  const keep = random ? 2 : 1;
   let day = root;
   while (order.length < n) {
     const first = day.waitsFor() ?? CREW.find((m) => s.laneTasks[m].some((x) => !placed[x])) ?? 'EV1';
-    let found: { x: number; day: PlacedDay; start: number }[] = [];
+    let found: { x: number; day: PlacedDay; start: number } | null = null;
     for (const m of [first, partnerOf(first)]) {
       const p = day.progress(m);
       const last = p.notStarted.length ? p.notStarted[p.notStarted.length - 1] : p.lastStarted;
@@ -1575,18 +1573,18 @@ function builtOrder(s: Search, random: ((k: number) => number) | null): number[]
         .map((x) => ({ x, least: p.t + s.between(m, last, x) }))
         .sort((a, b) => a.least - b.least);
       for (const { x, least } of tries) {
-        if (found.length >= keep && least >= found[found.length - 1].start) break;
+        if (found && least >= found.start) break;
         const next = s.extend(day, [x]);
         if (spoiled(s, next)) continue;
         const end = next.workEndOf(x);
         const start = end === undefined ? next.progress(m).t : end - s.tasks[x].durationSeconds;
-        found = [...found, { x, day: next, start }].sort((a, b) => a.start - b.start).slice(0, keep);
+        if (!found || start < found.start) found = { x, day: next, start };
       }
-      if (found.length) break;
+      if (found) break;
     }
-    const x = found.length ? found[random ? random(found.length) : 0].x : placedNext(s, placed);
+    const x = found ? found.x : placedNext(s, placed);
     if (x === null) break;
-    day = found.find((f) => f.x === x)?.day ?? s.extend(day, [x]);
+    day = found ? found.day : s.extend(day, [x]);
     placed[x] = 1;
     order.push(x);
   }
