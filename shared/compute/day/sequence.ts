@@ -18,8 +18,6 @@ export const EXACT_TASKS_PER_CREW = 8;
 export const DEFAULT_SEQUENCE_BUDGET_MS = 2000;
 /** Share of the budget the local search has first, to give the exhaustive search a good order to beat. */
 const WARM_SHARE = 0.1;
-/** Share of the budget (counted from the start) by which each crew member's day alone must be searched. */
-const FLOOR_SHARE = 0.3;
 /** Share of the budget (counted from the start) the exhaustive search may use before the local search takes over. */
 const EXACT_SHARE = 0.7;
 /** The local search stops after this many distinct days computed, whatever the budget. */
@@ -212,12 +210,10 @@ export function proposeOrder(
     const solo =
       clean && aloneIsFloor(plan, search) ? new SoloRest(search, day, memoRoute, options, counted) : null;
     if (solo) {
-      // the floor by FLOOR_SHARE of the budget; no need to know it past the best order so far
-      search.deadline = started + budget * FLOOR_SHARE;
+      // the floor first: it fills the table the search goes on with (no need to know it past the
+      // best order so far)
       search.target = best ? best.timeline.endSeconds - END_EPS : Infinity;
       search.floor = solo.floor();
-      search.deadline = started + budget * EXACT_SHARE;
-      search.late = false;
     }
 
     // a good order first, so the bound cuts more of the tree from the start
@@ -655,7 +651,9 @@ const OUT_OF_TIME = Symbol('out of time');
  * the plan that crew member's steps are the same requests (no portable anchor or large item, the
  * plan's own order reaches everything: as for `soloFloor`) with waits between, so a crew member's
  * own end is at least their clock plus the work still ahead in tasks placed and not started plus
- * this. Left empty (0) for a prefix whose table is not made by the search's deadline.
+ * this. Left empty (0) for a prefix whose table is not made by the search's deadline. Orders whose
+ * routes fail or warn more than the plan's own order (`spoils`) are left out: every day of the plan
+ * with that sequence has the same routes, so none of them is allowed.
  *
  * It holds when the partner can only hold a crew member up: no portable anchor or large item in the
  * manifest (an anchor the partner installs, or a large item they take, could shorten the crew
@@ -766,6 +764,28 @@ class SoloRest {
     return this.s.target - this.s.plan.ingressSeconds - t;
   }
 
+  /**
+   * Whether a day alone (its warnings, its order in solo indices) has a failed route, or a route
+   * warning more often than the plan's own order: a crew member's routes are the same requests in
+   * every day of the plan with their sequence, so each such day would have it too (not allowed).
+   */
+  private spoils(m: CrewMember, warnings: readonly TimelineWarning[], order: readonly number[]): boolean {
+    const counts = new Map<string, number>();
+    for (const w of warnings) {
+      if (w.code === 'route-infeasible') return true;
+      if (w.code !== 'route-caution' && w.code !== 'route-note') continue;
+      const task = w.taskIndex === undefined ? undefined : this.s.laneTasks[m][order[w.taskIndex]];
+      const k = warningKey(
+        { ...w, taskIndex: task === undefined ? undefined : 0 },
+        task === undefined ? [] : [task],
+      );
+      const c = (counts.get(k) ?? 0) + 1;
+      counts.set(k, c);
+      if (c > (this.s.base.get(k) ?? 0)) return true;
+    }
+    return false;
+  }
+
   private soloOf(m: CrewMember, prefix: readonly number[]): number[] {
     return prefix.map((x) => this.soloIndex[m].get(x)!);
   }
@@ -797,9 +817,7 @@ class SoloRest {
       // every task placed: the lane's clock may be anywhere past its own end (not kept: a whole
       // lane's state does not say where)
       const timeline = day.copy().finish();
-      return timeline.warnings.some((w) => w.code === 'route-infeasible')
-        ? Infinity
-        : ownEnd(timeline, m) - t;
+      return this.spoils(m, timeline.warnings, day.placed()) ? Infinity : ownEnd(timeline, m) - t;
     }
     const key = `${m}|${mask}|${day.laneState(m)}`;
     const known = this.table.get(key);
@@ -839,17 +857,18 @@ class SoloRest {
         break;
       }
       const next = a.extend(day, [k]);
-      if (next.warningsSoFar().some((w) => w.code === 'route-infeasible')) continue;
+      if (this.spoils(m, next.warningsSoFar(), next.placed())) continue;
       const rest = mask & ~(1 << k);
+      let v = Infinity;
       if (rest === 0) {
         // the day alone is whole: its own end (the lane's clock may be past it)
         const timeline = next.finish();
-        if (!timeline.warnings.some((w) => w.code === 'route-infeasible'))
-          best = Math.min(best, ownEnd(timeline, m) - t);
-        continue;
+        if (!this.spoils(m, timeline.warnings, next.placed())) v = ownEnd(timeline, m) - t;
+      } else {
+        const step = next.progress(m).t - t;
+        v = step + this.restFrom(m, next, rest, cap - step);
       }
-      const step = next.progress(m).t - t;
-      best = Math.min(best, step + this.restFrom(m, next, rest, cap - step));
+      best = Math.min(best, v);
     }
     if (best < need) this.table.set(key, best);
     else this.least.set(key, best);
