@@ -3,9 +3,9 @@ import { findRoute } from '@shared/compute/routes';
 import { computeTimeline } from '@shared/compute/day/timeline';
 import { toWire } from '@shared/compute/day/wire';
 import type { DayPlan } from '@shared/compute/day/types';
-import { generateTrussStation, seededRandom } from '@shared/compute/truss-generator';
+import { generateTrussStation } from '@shared/compute/truss-generator';
 import type { StationDocument } from '@shared/schemas/station';
-import { benchEngine, benchPlanOf, benchTask, worksitesOf } from './plans';
+import { benchEngine, dayBenchPlan } from './plans';
 
 /**
  * The continuous day on generated trusses. The reference, measured in the same run, is the day as
@@ -25,30 +25,6 @@ const RUNS = 5;
 function median(xs: number[]): number {
   const s = [...xs].sort((a, b) => a - b);
   return s[Math.floor(s.length / 2)];
-}
-
-/** A plan over the station's worksites, with a restraint, a portable anchor, a large item and tools. */
-function benchPlan(doc: StationDocument, tasks: number, seed: number): DayPlan {
-  const rand = seededRandom(seed);
-  const sites = worksitesOf(doc);
-  const pick = <T>(xs: readonly T[]) => xs[Math.floor(rand() * xs.length)];
-  const crews = ['EV1', 'EV2', 'both'] as const;
-  return benchPlanOf(
-    Array.from({ length: tasks }, (_, i) => {
-      const crew = pick(crews);
-      const worksite = pick(sites);
-      const actions: DayPlan['tasks'][number]['actions'] = [];
-      if (i === 1 && crew !== 'EV1') actions.push({ do: 'install', item: 'anchor', by: 'EV2' });
-      if (i === 2 && crew === 'both') actions.push({ do: 'hand-over', item: 'pump', by: 'EV1' });
-      return benchTask(rand, i, worksite, crew, { tools: crew === 'EV2' ? [] : ['driver'], actions });
-    }),
-    [
-      { key: 'driver', name: 'Power driver', kind: 'tool', carriedBy: 'EV1' },
-      { key: 'bag', name: 'Tool bag', kind: 'bag', carriedBy: 'EV2' },
-      { key: 'anchor', name: 'Portable anchor', kind: 'tether-anchor', carriedBy: 'EV2' },
-      { key: 'pump', name: 'Spare pump module', kind: 'large-item', carriedBy: 'EV1' },
-    ],
-  );
 }
 
 /** The day as before: each leg of each lane from a fresh clip where the crew member stands. */
@@ -96,7 +72,7 @@ export async function run(): Promise<boolean> {
   ]) {
     const doc = generateTrussStation({ nodes, seed: 42 });
     const { compiled: c, station, route, clipGraphMs: built } = benchEngine(doc);
-    const plan = benchPlan(doc, tasks, 7);
+    const plan = dayBenchPlan(doc, tasks, 7);
     // one untimed pass each, so neither side pays for first-use setup inside its timings
     freshLegs(doc, c, plan, station.airlockKey);
     const timeline = computeTimeline(plan, station, route);

@@ -4,6 +4,7 @@ import { clipGraphFor } from '@shared/compute/routes-clip';
 import { dayStationOf } from '@shared/compute/day/station';
 import type { DayItem, DayPlan, DayTask } from '@shared/compute/day/types';
 import { travelLowerBound } from '@shared/compute/travel-bound';
+import { seededRandom } from '@shared/compute/truss-generator';
 import type { StationDocument } from '@shared/schemas/station';
 
 /** The benches' crew tether, metres. */
@@ -78,4 +79,28 @@ export function benchPlanOf(tasks: DayTask[], manifest: DayItem[]): DayPlan {
     manifest,
     tasks,
   };
+}
+
+/** A plan over the station's worksites, with a restraint, a portable anchor, a large item and tools. */
+export function dayBenchPlan(doc: StationDocument, tasks: number, seed: number): DayPlan {
+  const rand = seededRandom(seed);
+  const sites = worksitesOf(doc);
+  const pick = <T>(xs: readonly T[]) => xs[Math.floor(rand() * xs.length)];
+  const crews = ['EV1', 'EV2', 'both'] as const;
+  return benchPlanOf(
+    Array.from({ length: tasks }, (_, i) => {
+      const crew = pick(crews);
+      const worksite = pick(sites);
+      const actions: DayPlan['tasks'][number]['actions'] = [];
+      if (i === 1 && crew !== 'EV1') actions.push({ do: 'install', item: 'anchor', by: 'EV2' });
+      if (i === 2 && crew === 'both') actions.push({ do: 'hand-over', item: 'pump', by: 'EV1' });
+      return benchTask(rand, i, worksite, crew, { tools: crew === 'EV2' ? [] : ['driver'], actions });
+    }),
+    [
+      { key: 'driver', name: 'Power driver', kind: 'tool', carriedBy: 'EV1' },
+      { key: 'bag', name: 'Tool bag', kind: 'bag', carriedBy: 'EV2' },
+      { key: 'anchor', name: 'Portable anchor', kind: 'tether-anchor', carriedBy: 'EV2' },
+      { key: 'pump', name: 'Spare pump module', kind: 'large-item', carriedBy: 'EV1' },
+    ],
+  );
 }

@@ -38,6 +38,8 @@ export interface ClipGraph {
   query: ClipQueryState | null;
   /** tether balls of nodes that are not attach points (extra attach points of queries), see ballOf */
   balls: Map<number, Ball>;
+  /** least-time walks of whole-tether stretches between attach points, see stretchArcs */
+  walks: Map<number, StretchWalk>;
   /** stretches kept for a `sum` search, by swap cost in stretch seconds (see pruneStretches) */
   pruned: Map<number, ClipRows>;
   /** the stretches worth a swap at their far end (see swapPointRows) */
@@ -261,6 +263,52 @@ function ballOf(cq: ClipQuery, v: number): Ball {
   return ball;
 }
 
+/** The arcs of a stretch's least-time walk, in order, and its time (arc weights). */
+interface StretchWalk {
+  arcs: Int32Array;
+  seconds: number;
+}
+
+/** Whole-tether stretch walks a clip graph keeps at the most (a day's routes share many). */
+const WALKS_KEPT = 16_384;
+
+/**
+ * The least-time walk from attach point a to attach point b within the whole tether (a stretch
+ * between two swaps), as stretchWalk finds it. It depends only on the clip graph's weights, tether
+ * and exclusions (and the speeds the weights come from), so it is kept per clip graph, the
+ * least recently used dropped first, and a day's routes along the same rails walk each stretch once.
+ */
+function stretchArcs(cq: ClipQuery, a: number, b: number): StretchWalk {
+  const { cg, c, p, stretch: st } = cq;
+  const key = cg.attachIndex[a] * cq.A + cg.attachIndex[b];
+  const held = cg.walks.get(key);
+  if (held) {
+    cg.walks.delete(key);
+    cg.walks.set(key, held);
+    return held;
+  }
+  const x = stretchWalk(c, p, cq.limit, a, b, st);
+  if (x < 0) throw new Error('internal: a clip-graph stretch has no walk');
+  const walk = { arcs: walkArcs(st, x), seconds: st.time[x] };
+  if (cg.walks.size >= WALKS_KEPT) {
+    const [oldest, gone] = cg.walks.entries().next().value!;
+    cg.walks.delete(oldest);
+    cg.memoryBytes -= gone.arcs.byteLength;
+  }
+  cg.walks.set(key, walk);
+  cg.memoryBytes += walk.arcs.byteLength;
+  return walk;
+}
+
+/** The arcs from the stretch search's start to label x, in walk order. */
+function walkArcs(st: StretchScratch, x: number): Int32Array {
+  let n = 0;
+  for (let y = x; st.arc[y] !== -1; y = st.parent[y]) n++;
+  const arcs = new Int32Array(n);
+  for (let y = x; st.arc[y] !== -1; y = st.parent[y]) arcs[--n] = st.arc[y];
+  return arcs;
+}
+
 /** Farthest-first landmarks over the clip graph, by stretch count (breadth-first). */
 function clipLandmarks(offsets: Int32Array, targets: Int32Array, count: number): Int32Array {
   const A = offsets.length - 1;
@@ -383,6 +431,7 @@ function buildClipGraph(
     memoryBytes: 0,
     query: null,
     balls: new Map(),
+    walks: new Map(),
     pruned: new Map(),
     swapRows,
     swapRowsIn,
@@ -700,7 +749,7 @@ function remember(weights: Float64Array, key: string, cg: ClipGraph): ClipGraph 
 }
 
 /** A clip graph as plain data: typed arrays a worker thread can build and hand over without a copy. */
-export type ClipGraphParts = Omit<ClipGraph, 'query' | 'balls' | 'pruned' | 'costMarks'> & {
+export type ClipGraphParts = Omit<ClipGraph, 'query' | 'balls' | 'walks' | 'pruned' | 'costMarks'> & {
   pruned: [number, ClipRows][];
   costMarks: [number, CostMarks][];
 };
@@ -721,7 +770,7 @@ export function buildClipGraphParts(
   const cg = clipGraphFor(c, weights, tetherLengthM, excludeMask);
   pruneStretches(cg, 0);
   for (const sc of swapCosts) if (sc > 0) costMarksFor(cg, sc);
-  const { query: _query, balls: _balls, pruned, costMarks, ...rest } = cg;
+  const { query: _query, balls: _balls, walks: _walks, pruned, costMarks, ...rest } = cg;
   const parts: ClipGraphParts = { ...rest, pruned: [...pruned], costMarks: [...costMarks] };
   const rows = [parts.swapRows, ...parts.pruned.map(([, r]) => r)];
   const arrays = [
@@ -752,6 +801,7 @@ export function adoptClipGraph(weights: Float64Array, parts: ClipGraphParts): Cl
     ...parts,
     query: null,
     balls: new Map(),
+    walks: new Map(),
     pruned: new Map(parts.pruned),
     costMarks: new Map(parts.costMarks),
   };
@@ -1689,7 +1739,15 @@ function walkClips(cq: ClipQuery, clips: number[]): LabelPath {
     const before = i === 0 ? cq.startPaid : 0;
     let room = p.tetherLengthM - before;
     if (i === clips.length - 2) room = Math.min(room, cq.cap - before);
-    let x = stretchWalk(c, p, room + TETHER_EPS_M, clips[i], clips[i + 1], st);
+    const a = clips[i];
+    const b = clips[i + 1];
+    if (room === p.tetherLengthM && cq.cg.attachIndex[a] >= 0 && cq.cg.attachIndex[b] >= 0) {
+      const walk = stretchArcs(cq, a, b);
+      total += walk.seconds;
+      for (let k = 0; k < walk.arcs.length; k++) arcs.push(walk.arcs[k]);
+      continue;
+    }
+    let x = stretchWalk(c, p, room + TETHER_EPS_M, a, b, st);
     if (x < 0) throw new Error('internal: a clip-graph stretch has no walk');
     total += st.time[x];
     const from = arcs.length;

@@ -351,6 +351,38 @@ describe('clip-graph search against the label-setting search', () => {
     );
   });
 
+  it('walks a stretch it has walked before the same way as a fresh search does', () => {
+    const cg = clipGraphFor(c, c.arcSeconds, doc.settings.tetherLengthM, excludeMaskFor(false));
+    fc.assert(
+      fc.property(
+        fc.constantFrom(...keys),
+        fc.constantFrom(...keys, ...sparse),
+        fc.constantFrom(...attach),
+        fc.integer({ min: 0, max: 99 }).map((v) => v / 100),
+        fc.constantFrom<RouteMode>('balanced', 'fewest-swaps'),
+        (from, to, startAnchor, share, mode) => {
+          fc.pre(from !== to);
+          const req: RouteRequest = {
+            from,
+            to,
+            mode,
+            startAnchor,
+            startPaidOutM: share * doc.settings.tetherLengthM,
+          };
+          const run = () => findRoute(c, doc.settings, req, { strategy: 'clip-graph' });
+          run();
+          const warm = run();
+          cg.walks.clear();
+          const fresh = run();
+          expect(warm).toEqual(fresh);
+        },
+      ),
+      { numRuns: 60 },
+    );
+    // the long routes of a day on this truss pass through the same stretches
+    expect(cg.walks.size).toBeGreaterThan(0);
+  });
+
   it('gives the same optimum with station settings other than the compiled ones', () => {
     const settings = {
       ...doc.settings,
