@@ -189,7 +189,8 @@ function DataTable({
               return (
                 <Th
                   key={column.id}
-                  className="sticky top-0 z-10 bg-surface-panel"
+                  // a collapsed border scrolls away with the rows: the header's line is drawn on it
+                  className="sticky top-0 z-10 bg-surface-panel after:absolute after:inset-x-0 after:bottom-0 after:border-b after:border-surface-line"
                   aria-sort={sorted ? (sorted === 'asc' ? 'ascending' : 'descending') : undefined}
                 >
                   <button
