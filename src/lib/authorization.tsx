@@ -1,12 +1,5 @@
 import type { ReactNode } from 'react';
-import {
-  queryOptions,
-  useIsMutating,
-  useMutation,
-  useQuery,
-  useQueryClient,
-  type QueryClient,
-} from '@tanstack/react-query';
+import { queryOptions, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { Navigate, redirect, useLocation, useNavigate } from 'react-router-dom';
 import { can, type Permission } from '@shared/auth/permissions';
 import type { User } from '@shared/schemas/auth';
@@ -16,7 +9,6 @@ import { api, ApiError, isApiError } from './api-client';
 export const authKeys = {
   all: ['auth'] as const,
   me: () => [...authKeys.all, 'me'] as const,
-  signOut: () => [...authKeys.all, 'sign-out'] as const,
 };
 
 export async function getUser(): Promise<User | null> {
@@ -46,6 +38,28 @@ export function setSignedInUser(queryClient: QueryClient, user: User) {
 }
 
 /**
+ * Empties the cache of what the signed-out session read: each query once nothing on screen reads it
+ * (a query emptied under a mounted page would be fetched again at its next render), so those of the
+ * page being left go as it unmounts. Ends at once if someone signs in meanwhile.
+ */
+function forgetSession(queryClient: QueryClient) {
+  const cache = queryClient.getQueryCache();
+  const left = () => cache.findAll({ predicate: (query) => query.queryKey[0] !== authKeys.all[0] });
+  const drop = () => {
+    for (const query of left()) if (query.getObserversCount() === 0) cache.remove(query);
+    return left().length === 0;
+  };
+  if (drop()) return;
+  const stop = cache.subscribe((event) => {
+    if (queryClient.getQueryData(authKeys.me())) stop();
+    else if (event.type === 'observerRemoved' && drop()) stop();
+  });
+}
+
+/** Query clients whose person is signing out: between the end of the session and the sign-in page. */
+const signingOut = new WeakSet<QueryClient>();
+
+/**
  * Signs out, leaves for the sign-in page, then empties the cache. In that order, and the page left
  * before the cache goes (the navigation committed at once): a query emptied under a page still on
  * screen is fetched again at its next render, and refused, since the session has ended.
@@ -54,14 +68,18 @@ export function useSignOut() {
   const queryClient = useQueryClient();
   const navigate = useNavigate();
   return useMutation({
-    mutationKey: authKeys.signOut(),
     mutationFn: () => api.post<void>('/auth/sign-out'),
     onSuccess: async () => {
       await queryClient.cancelQueries();
-      queryClient.setQueryData(authKeys.me(), null);
-      await navigate(paths.signIn.getHref(), { replace: true, flushSync: true });
+      signingOut.add(queryClient);
+      try {
+        queryClient.setQueryData(authKeys.me(), null);
+        await navigate(paths.signIn.getHref(), { replace: true, flushSync: true });
+      } finally {
+        signingOut.delete(queryClient);
+      }
       // nothing another person may not see survives in the cache
-      queryClient.removeQueries({ predicate: (query) => query.queryKey[0] !== authKeys.all[0] });
+      forgetSession(queryClient);
       queryClient.getMutationCache().clear();
     },
   });
@@ -94,10 +112,11 @@ export async function requirePermission(
 export function ProtectedRoute({ children }: { children: ReactNode }) {
   const { data: user, isPending } = useUser();
   const location = useLocation();
-  // signing out leaves for the plain sign-in page itself, with the page kept on screen until then
-  const signingOut = useIsMutating({ mutationKey: authKeys.signOut() }) > 0;
+  const queryClient = useQueryClient();
   if (isPending) return null;
-  if (!user && signingOut) return <>{children}</>;
+  // signing out leaves for the plain sign-in page itself, with the page kept on screen until then
+  // (read as it renders: a subscription's news could come after the user's)
+  if (!user && signingOut.has(queryClient)) return <>{children}</>;
   if (!user) return <Navigate to={paths.signIn.getHref(`${location.pathname}${location.search}`)} replace />;
   return <>{children}</>;
 }

@@ -76,16 +76,16 @@ describe('signing out from a page', () => {
       { initialEntries: ['/stations/1'] },
     );
     renderWithQueryClient(<RouterProvider router={router} />, queryClient);
-    await screen.findByText('the graph');
+    await screen.findByText('the graph', {}, { timeout: 8000 });
     expect(fetched).toHaveBeenCalledTimes(1);
 
     await userEvent.click(screen.getByRole('button', { name: 'Sign out' }));
-    await screen.findByRole('heading', { name: 'Sign in' });
+    await screen.findByRole('heading', { name: 'Sign in' }, { timeout: 8000 });
     // the plain sign-in page, not one that would bring the next person back to this page
     expect(router.state.location.pathname).toBe(paths.signIn.getHref());
     expect(router.state.location.search).toBe('');
     // nothing the signed-in person saw stays in the cache; the cache knows nobody is signed in
-    await waitFor(() => expect(queryClient.getQueryData(['graph'])).toBeUndefined());
+    await waitFor(() => expect(queryClient.getQueryData(['graph'])).toBeUndefined(), { timeout: 8000 });
     expect(queryClient.getQueryData(authKeys.me())).toBeNull();
     expect(fetched).toHaveBeenCalledTimes(1);
     expect(requests).toEqual(['/api/auth/sign-out']);
