@@ -198,7 +198,8 @@ export function proposeOrder(
   if (greedy && greedy.added === 0 && keepsAfter(plan.tasks, greedy.order) && better(greedy, best))
     best = greedy;
   // and one built on the day itself
-  const builtFrom = builtOrder(search);
+  // (given at most half the budget: a build that runs out of it is dropped)
+  const builtFrom = builtOrder(search, () => now() > started + budget / 2);
   const built = builtFrom && scorer.score(builtFrom, null);
   if (built && built.added === 0 && keepsAfter(plan.tasks, built.order) && better(built, best)) best = built;
 
@@ -1355,13 +1356,15 @@ function legsOf(s: Search, m: CrewMember, seq: readonly number[]): number {
  * meet, changes together. Ranked, the likeliest first, by the change of the least legs of the
  * sequences it changes, plus, for a crew member's own moves, how far their own end is before the
  * day's latest (a crew member who ends earlier helps only by a shorter wait). Moves that give the
- * same sequences are listed once.
+ * same sequences are listed once. Listing stops once `out` says the time is up (on 200 tasks a full
+ * list takes most of a second).
  */
 function movesAround(
   s: Search,
   order: readonly number[],
   ownEnds: Record<CrewMember, number>,
   kinds: readonly MoveKind[] = MOVE_KINDS,
+  out: () => boolean = () => false,
 ): Move[] {
   const tasks = s.tasks;
   const { seq, slots } = lanesOf(tasks, order);
@@ -1379,7 +1382,7 @@ function movesAround(
       moves.push({ kind, estimate: legsOf(s, m, next) - base, order: () => withLane(order, slots[m], next) });
     };
     for (let k = 1; k <= Math.min(MOST_MOVED, len - 1); k++) {
-      for (let a = 0; a + k <= len; a++) {
+      for (let a = 0; a + k <= len && !out(); a++) {
         const run = lane.slice(a, a + k);
         const rest = [...lane.slice(0, a), ...lane.slice(a + k)];
         for (let t = 0; t <= rest.length; t++) {
@@ -1389,7 +1392,7 @@ function movesAround(
         }
       }
     }
-    for (let a = 0; a < len; a++)
+    for (let a = 0; a < len && !out(); a++)
       for (let b = a + 1; b < len; b++) {
         if (b > a + 1)
           add('2-opt', [...lane.slice(0, a), ...lane.slice(a, b + 1).reverse(), ...lane.slice(b + 1)]);
@@ -1400,7 +1403,7 @@ function movesAround(
   }
   const legs = CREW.map((m) => legsOf(s, m, seq[m]));
   order.forEach((x, i) => {
-    if (tasks[x].crew !== 'both' || !kinds.includes('joint')) return;
+    if (tasks[x].crew !== 'both' || !kinds.includes('joint') || out()) return;
     const rest = order.filter((_, k) => k !== i);
     for (let j = 0; j <= rest.length; j++) {
       if (j === i) continue;
@@ -1539,7 +1542,7 @@ function localSearch(
       const climb: Scored = from;
       scorer.setReference(climb.order);
       const ends = { EV1: ownEnd(climb.timeline, 'EV1'), EV2: ownEnd(climb.timeline, 'EV2') };
-      for (const move of movesAround(s, climb.order, ends, options.moves).slice(
+      for (const move of movesAround(s, climb.order, ends, options.moves, out).slice(
         0,
         CANDIDATES_PER_TASK * tasks.length,
       )) {
@@ -1572,8 +1575,9 @@ function localSearch(
  * partner's tasks when none of theirs fits. Candidates are tried by their least way in (`between`),
  * and the trying stops once that cannot start earlier than the best found. Null for plans with arm tasks;
  * when every ready task adds a warning the first in plan order is taken (the order then adds one).
+ * Null, too, once `out` says the time is up.
  */
-function builtOrder(s: Search): number[] | null {
+function builtOrder(s: Search, out: () => boolean): number[] | null {
   const root = s.root;
   if (!root) return null;
   const n = s.tasks.length;
@@ -1582,6 +1586,7 @@ function builtOrder(s: Search): number[] | null {
   const ready = (x: number) => !placed[x] && s.afterOf[x].every((j) => placed[j]);
   let day = root;
   while (order.length < n) {
+    if (out()) return null;
     const first = day.waitsFor() ?? CREW.find((m) => s.laneTasks[m].some((x) => !placed[x])) ?? 'EV1';
     let found: { x: number; day: PlacedDay; start: number } | null = null;
     for (const m of [first, partnerOf(first)]) {
