@@ -1,3 +1,4 @@
+import os from 'node:os';
 import type { compileStation } from '@shared/compute/compiled-station';
 import { findRoute } from '@shared/compute/routes';
 import { computeTimeline } from '@shared/compute/day/timeline';
@@ -58,11 +59,22 @@ function freshLegs(
   return seconds;
 }
 
-function time(fn: () => void): number {
+/** Wall time of fn, ms; its CPU time (the process's, user and system) added to `cpu`. */
+function time(fn: () => void, cpu?: number[]): number {
+  const c0 = process.cpuUsage();
   const t0 = performance.now();
   fn();
-  return performance.now() - t0;
+  const wall = performance.now() - t0;
+  const c = process.cpuUsage(c0);
+  cpu?.push((c.user + c.system) / 1000);
+  return wall;
 }
+
+const load = () =>
+  os
+    .loadavg()
+    .map((l) => l.toFixed(1))
+    .join(' ');
 
 export async function run(): Promise<boolean> {
   let ok = true;
@@ -78,9 +90,11 @@ export async function run(): Promise<boolean> {
     const timeline = computeTimeline(plan, station, route);
     const before: number[] = [];
     const after: number[] = [];
+    const beforeCpu: number[] = [];
+    const afterCpu: number[] = [];
     for (let k = 0; k < RUNS; k++) {
-      before.push(time(() => freshLegs(doc, c, plan, station.airlockKey)));
-      after.push(time(() => computeTimeline(plan, station, route)));
+      before.push(time(() => freshLegs(doc, c, plan, station.airlockKey), beforeCpu));
+      after.push(time(() => computeTimeline(plan, station, route), afterCpu));
     }
     const ratio = median(after) / median(before);
     const bytes = Buffer.byteLength(JSON.stringify(timeline));
@@ -96,11 +110,11 @@ export async function run(): Promise<boolean> {
     console.log(
       `${nodes.toLocaleString('en')} nodes, ${tasks} tasks (${routes} routes; clip graph built in ${(built / 1000).toFixed(1)} s): ` +
         `state machine ${median(after).toFixed(1)} ms${targetMs === null ? '' : ` (target ≤ ${targetMs / 1000} s: ${verdict(passes[1])})`}, ` +
-        `fresh-clip legs ${median(before).toFixed(1)} ms (median of ${RUNS}), ` +
+        `fresh-clip legs ${median(before).toFixed(1)} ms (median of ${RUNS}; CPU time ${median(afterCpu).toFixed(0)} ms against ${median(beforeCpu).toFixed(0)} ms), ` +
         `ratio ${ratio.toFixed(2)}${target === null ? '' : ` (target ≤ ${target}: ${verdict(passes[0])})`}; ` +
         `on the wire ${(wireBytes / 1e6).toFixed(2)} MB${targetMB === null ? '' : ` (target ≤ ${targetMB} MB: ${verdict(passes[2])})`}, ` +
         `${(wireBytes / bytes).toFixed(2)}× the timeline's JSON as computed (${(bytes / 1e6).toFixed(2)} MB); ` +
-        `${timeline.warnings.length} warnings`,
+        `${timeline.warnings.length} warnings; load average ${load()}`,
     );
   }
   return ok;
