@@ -15,6 +15,8 @@ import {
 } from '@shared/compute/day/sequence';
 import type { DayItem, DayPlan, DayTask, Timeline } from '@shared/compute/day/types';
 import { travelLowerBound } from '@shared/compute/travel-bound';
+import { StationDocumentSchema } from '@shared/schemas/station';
+import kestrel from '../../server/db/seed/kestrel-station.json';
 import { LINE_KEYS as K, buildDayPlan, dayEngine, dayTask, lineStationDocument } from '../factories/day';
 
 const doc = lineStationDocument();
@@ -306,6 +308,65 @@ describe('what the search knows before it ends: never past the earliest allowed 
         seed: Number(process.env.SEQUENCE_SEED ?? 20261206),
       },
     );
+  });
+});
+
+describe('on the demo station, where some orders pass a caution the plan order does not', () => {
+  const demo = StationDocumentSchema.parse(kestrel);
+  const engine = dayEngine(demo);
+  const demoTravel = travelLowerBound(compileStation(demo), demo.settings, false);
+  const sites = ['SB3-W01', 'PB2-W01', 'SB1-W01', 'PB3-W01', 'SB4-W01', 'CB-W01', 'CORE-W01', 'PB4-W01'];
+  const demoDay = (plan: DayPlan, order: readonly number[]) =>
+    computeTimeline({ ...plan, tasks: order.map((i) => plan.tasks[i]) }, engine.station, engine.route);
+
+  it('the exact answer and the floor against every order (orders alone that warn more are left out)', () => {
+    let cautions = 0;
+    fc.assert(
+      fc.property(
+        fc.array(fc.tuple(fc.nat(sites.length - 1), fc.integer({ min: 5, max: 40 })), {
+          minLength: 5,
+          maxLength: 5,
+        }),
+        (shape) => {
+          const first = buildDayPlan({
+            tasks: shape.map(([site, minutes], i) =>
+              dayTask(`T${i + 1}`, sites[site], i % 2 ? 'EV2' : 'EV1', minutes * 60, { id: i + 1 }),
+            ),
+          });
+          // the plan in an order that passes a caution, where one does: the rule then has to tell
+          // the plan's own cautions from added ones
+          const warned = [...permutations(first.tasks.length)].find((o) =>
+            demoDay(first, o).warnings.some((w) => w.code === 'route-caution'),
+          );
+          const plan = warned ? { ...first, tasks: warned.map((i) => first.tasks[i]) } : first;
+          const identity = plan.tasks.map((_, i) => i);
+          const current = demoDay(plan, identity);
+          const base = new Map<string, number>();
+          for (const w of current.warnings) {
+            const k = `${w.code}|${w.taskIndex ?? ''}|${w.crew ?? ''}|${w.item ?? ''}|${w.arm ?? ''}`;
+            base.set(k, (base.get(k) ?? 0) + 1);
+          }
+          let best = Infinity;
+          for (const order of permutations(plan.tasks.length)) {
+            const t = demoDay(plan, order);
+            if (t.warnings.some((w) => w.code === 'route-caution')) cautions++;
+            if (addedWarnings(base, t, order) === 0) best = Math.min(best, t.endSeconds);
+          }
+          const r = proposeOrder(plan, engine.station, engine.route, {
+            travelSeconds: demoTravel,
+            budgetMs: 20_000,
+          });
+          expect(r.exact).toBe(true);
+          expect(r.endSeconds).toBeCloseTo(best, 6);
+          const { floor } = orderBounds(plan, engine.station, engine.route, [], {
+            travelSeconds: demoTravel,
+          });
+          expect(floor).toBeLessThanOrEqual(best + 1e-6);
+        },
+      ),
+      { numRuns: 4, seed: 11 },
+    );
+    expect(cautions).toBeGreaterThan(0);
   });
 });
 
