@@ -66,9 +66,9 @@ function* permutations(n: number): Generator<number[]> {
 }
 
 /** The independent check: every order of the tasks, each day computed by the timeline itself. */
-function bruteForce(plan: DayPlan): number {
+function bruteForce(plan: DayPlan, dayOf = day): number {
   const identity = plan.tasks.map((_, i) => i);
-  const current = day(plan, identity);
+  const current = dayOf(plan, identity);
   const base = new Map<string, number>();
   for (const w of current.warnings) {
     const k = `${w.code}|${w.taskIndex ?? ''}|${w.crew ?? ''}|${w.item ?? ''}|${w.arm ?? ''}`;
@@ -77,7 +77,7 @@ function bruteForce(plan: DayPlan): number {
   let best = Infinity;
   for (const order of permutations(plan.tasks.length)) {
     if (!keepsAfter(plan.tasks, order)) continue;
-    const t = day(plan, order);
+    const t = dayOf(plan, order);
     if (addedWarnings(base, t, order) > 0) continue;
     best = Math.min(best, t.endSeconds);
   }
@@ -339,19 +339,8 @@ describe('on the demo station, where some orders pass a caution the plan order d
             demoDay(first, o).warnings.some((w) => w.code === 'route-caution'),
           );
           const plan = warned ? { ...first, tasks: warned.map((i) => first.tasks[i]) } : first;
-          const identity = plan.tasks.map((_, i) => i);
-          const current = demoDay(plan, identity);
-          const base = new Map<string, number>();
-          for (const w of current.warnings) {
-            const k = `${w.code}|${w.taskIndex ?? ''}|${w.crew ?? ''}|${w.item ?? ''}|${w.arm ?? ''}`;
-            base.set(k, (base.get(k) ?? 0) + 1);
-          }
-          let best = Infinity;
-          for (const order of permutations(plan.tasks.length)) {
-            const t = demoDay(plan, order);
-            if (t.warnings.some((w) => w.code === 'route-caution')) cautions++;
-            if (addedWarnings(base, t, order) === 0) best = Math.min(best, t.endSeconds);
-          }
+          if (warned) cautions++;
+          const best = bruteForce(plan, demoDay);
           const r = proposeOrder(plan, engine.station, engine.route, {
             travelSeconds: demoTravel,
             budgetMs: 20_000,
