@@ -6,6 +6,9 @@ import type { DayItem, DayPlan, DayTask } from '@shared/compute/day/types';
 import { travelLowerBound } from '@shared/compute/travel-bound';
 import { seededRandom } from '@shared/compute/truss-generator';
 import type { StationDocument } from '@shared/schemas/station';
+import type { PlanTimeline, PlanView } from '@shared/schemas/plan-views';
+import { PLANNING_CAUTION } from '@shared/caution';
+import { computeTimeline } from '@shared/compute/day/timeline';
 
 /** The benches' crew tether, metres. */
 export const BENCH_TETHER_M = 25.9;
@@ -103,4 +106,35 @@ export function dayBenchPlan(doc: StationDocument, tasks: number, seed: number):
       { key: 'pump', name: 'Spare pump module', kind: 'large-item', carriedBy: 'EV1' },
     ],
   );
+}
+
+/**
+ * A bench plan's day as the server's exports see it: the plan as a saved draft (id 1, version 1)
+ * and its timeline with what the server adds, computed on the engine.
+ */
+export function exportedDay(
+  doc: StationDocument,
+  engine: BenchEngine,
+  dayPlan: DayPlan,
+  title: string,
+): { plan: PlanView; timeline: PlanTimeline } {
+  const timeline = {
+    ...computeTimeline(dayPlan, engine.station, engine.route),
+    planId: 1,
+    planVersion: 1,
+    stationId: 1,
+    stationVersion: 1,
+    airlockKey: engine.station.airlockKey,
+    caution: PLANNING_CAUTION,
+  };
+  const plan = {
+    ...dayPlan,
+    id: 1,
+    title,
+    stationName: doc.name,
+    date: '2031-01-01',
+    status: 'draft',
+    version: 1,
+  } as unknown as PlanView;
+  return { plan, timeline };
 }

@@ -1,10 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { computeTimeline } from '@shared/compute/day/timeline';
 import { generateTrussStation, seededRandom } from '@shared/compute/truss-generator';
-import type { PlanView } from '@shared/schemas/plan-views';
-import { PLANNING_CAUTION } from '@shared/caution';
 import { CUE_SWAPS_SPELLED_OUT, cueCardDocument } from '../../server/modules/plans/plan-export.service';
-import { benchEngine, benchPlanOf, benchTask, worksitesOf } from '../../bench/plans';
+import { benchEngine, benchPlanOf, benchTask, exportedDay, worksitesOf } from '../../bench/plans';
 
 /** A day of tasks at worksites across a generated truss, as the plan screen's exports see it. */
 function longDay() {
@@ -19,25 +16,7 @@ function longDay() {
     ),
     [],
   );
-  const timeline = {
-    ...computeTimeline(dayPlan, engine.station, engine.route),
-    planId: 1,
-    planVersion: 1,
-    stationId: 1,
-    stationVersion: 1,
-    airlockKey: engine.station.airlockKey,
-    caution: PLANNING_CAUTION,
-  };
-  const plan = {
-    ...dayPlan,
-    id: 1,
-    title: 'Across the truss',
-    stationName: doc.name,
-    date: '2031-01-01',
-    status: 'draft',
-    version: 1,
-  } as unknown as PlanView;
-  return { plan, timeline };
+  return exportedDay(doc, engine, dayPlan, 'Across the truss');
 }
 
 describe('cue cards of a long day', () => {
